@@ -1,0 +1,91 @@
+"""The argparse front door.
+
+Sub-commands live one per module in `briefer.commands` and are found at start-up (no central
+list to edit). A command module defines:
+
+    NAME: str                 the sub-command word
+    HELP: str                 one line for `briefer --help`
+    ORDER: int (optional)     position in the help listing
+    add_arguments(parser)     argparse set-up; must not import heavy modules
+    run(args) -> int          the work; imports what it needs (numpy, textual, fpdf) lazily
+
+Every `BriefingError` becomes one line on stderr and exit code 2; anything else is a bug and
+shows a traceback.
+"""
+
+from __future__ import annotations
+
+import argparse
+import importlib
+import pkgutil
+import sys
+from types import ModuleType
+
+from briefer import __version__
+from briefer.errors import BriefingError
+
+
+class _Parser(argparse.ArgumentParser):
+    """ArgumentParser whose usage errors are one line and exit code 2."""
+
+    def error(self, message: str) -> None:  # type: ignore[override]
+        self.exit(2, f"{self.prog}: error: {message} (see '{self.prog} --help')\n")
+
+
+def _command_modules() -> list[ModuleType]:
+    import briefer.commands as pkg
+
+    mods = []
+    for info in pkgutil.iter_modules(pkg.__path__):
+        if info.name.startswith("_"):
+            continue
+        mod = importlib.import_module(f"briefer.commands.{info.name}")
+        if hasattr(mod, "NAME") and hasattr(mod, "run"):
+            mods.append(mod)
+    mods.sort(key=lambda m: (getattr(m, "ORDER", 100), m.NAME))
+    return mods
+
+
+def build_parser() -> tuple[argparse.ArgumentParser, dict[str, ModuleType]]:
+    parser = _Parser(
+        prog="briefer",
+        description="Circling-approach briefing. Not for navigation: the published procedure, "
+        "the aircraft flight manual, local rules and licensed practice govern.",
+    )
+    parser.add_argument("--version", action="version", version=f"briefer {__version__}")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
+    commands: dict[str, ModuleType] = {}
+    for mod in _command_modules():
+        p = sub.add_parser(mod.NAME, help=mod.HELP, description=getattr(mod, "DESCRIPTION", mod.HELP))
+        if hasattr(mod, "add_arguments"):
+            mod.add_arguments(p)
+        commands[mod.NAME] = mod
+    return parser, commands
+
+
+def main(argv: list[str] | None = None) -> int:
+    argv = sys.argv[1:] if argv is None else argv
+    # `--version` answers before any command module is imported (fast start).
+    if argv == ["--version"]:
+        print(f"briefer {__version__}")
+        return 0
+    parser, commands = build_parser()
+    if not argv and "app" in commands:
+        argv = ["app"]
+    args = parser.parse_args(argv)
+    if args.command is None:
+        parser.print_help()
+        return 0
+    try:
+        return int(commands[args.command].run(args) or 0)
+    except BriefingError as exc:
+        print(f"briefer {args.command}: error: {exc}", file=sys.stderr)
+        return 2
+    except KeyboardInterrupt:
+        return 130
+    except BrokenPipeError:
+        return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

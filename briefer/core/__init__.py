@@ -1,0 +1,1 @@
+"""Pure computation: no I/O, no UI imports. Units live in identifiers."""

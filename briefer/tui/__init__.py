@@ -1,0 +1,1 @@
+"""briefer.tui"""

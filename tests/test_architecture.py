@@ -1,0 +1,47 @@
+"""Layering and house rules that a grep can check (ARCHITECTURE.md, STYLE.md B and 6.1)."""
+
+from __future__ import annotations
+
+import re
+import subprocess
+import sys
+from pathlib import Path
+
+PKG = Path(__file__).resolve().parent.parent / "briefer"
+
+UI_OR_IO = re.compile(r"^\s*(import|from)\s+(textual|rich|fpdf|yaml|briefer\.(tui|render|io|commands|cli))\b", re.M)
+
+
+def test_core_imports_no_ui_or_io():
+    """The core is pure computation: no UI, PDF, YAML or renderer imports (ARCHITECTURE.md)."""
+    offenders = [str(p.relative_to(PKG)) for p in (PKG / "core").rglob("*.py") if UI_OR_IO.search(p.read_text())]
+    assert offenders == []
+
+
+def test_no_bare_conversion_literals_outside_units():
+    """Conversion factors live in units.py only (STYLE.md B)."""
+    literals = ("0.3048", "1852", "1609.344", "6076", "33.86", "3386", "273.15", "0.514444")
+    offenders = []
+    for p in PKG.rglob("*.py"):
+        if p.name == "units.py":
+            continue
+        for n, line in enumerate(p.read_text().splitlines(), 1):
+            code = line.split("#", 1)[0]
+            if any(lit in code for lit in literals):
+                offenders.append(f"{p.relative_to(PKG)}:{n}: {line.strip()}")
+    assert offenders == []
+
+
+def test_version_does_not_import_textual_or_fpdf():
+    """`briefer --version` and the look-ups start fast: no Textual, no PDF library (issue: start-up)."""
+    code = ("import sys; from briefer.cli import main; main(['--version']); "
+            "print('textual' in sys.modules, 'fpdf' in sys.modules)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
+    assert out.strip().splitlines()[-1] == "False False"
+
+
+def test_help_does_not_import_textual_or_fpdf():
+    code = ("import sys\nfrom briefer.cli import build_parser\nbuild_parser()\n"
+            "print('textual' in sys.modules, 'fpdf' in sys.modules)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
+    assert out.strip() == "False False"
