@@ -1,0 +1,209 @@
+"""Rich views of a Brief (STYLE G): each takes a result and nothing else.
+
+Used by `briefer brief` (Console().print), the app (Static.update) and, through
+`Console(record=True)`, plain text. Warnings come first and are marked by words and symbols, not
+colour alone.
+"""
+
+from __future__ import annotations
+
+from rich.console import Console, ConsoleOptions, Group, RenderResult
+from rich.panel import Panel
+from rich.table import Table
+from rich.text import Text
+
+from briefer.result import Brief, Finding
+
+MARK = {"danger": "!!", "warning": "! ", "info": "i "}
+STYLE = {"danger": "bold white on red", "warning": "bold yellow", "info": "cyan"}
+
+
+def fmt(value: float | None, spec: str = ".0f", unit: str = "", none: str = "n/r") -> str:
+    """Format a number with its unit; `none` (not reported) when missing."""
+    if value is None:
+        return none
+    return f"{value:{spec}}{unit}"
+
+
+def wind_text(brief: Brief) -> str:
+    w = brief.wind
+    if not w.reported:
+        return "calm / not given"
+    d = "VRB" if w.from_deg_true is None else f"{w.from_deg_true:03.0f}"
+    g = f"G{w.gust_kt:.0f}" if w.gust_kt else ""
+    return f"{d}/{w.speed_kt:.0f}{g} kt true"
+
+
+def _kv_grid() -> Table:
+    t = Table.grid(padding=(0, 1))
+    t.add_column(style="bold", no_wrap=True)
+    t.add_column()
+    return t
+
+
+class FindingsView:
+    """Warnings, most severe first."""
+
+    def __init__(self, findings: tuple[Finding, ...]) -> None:
+        self.findings = findings
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        if not self.findings:
+            yield Text("No warnings.", style="green")
+            return
+        for f in self.findings:
+            t = Text()
+            t.append(f"{MARK[f.severity]} {f.severity.upper():7}", style=STYLE[f.severity])
+            t.append(" " + f.text)
+            yield t
+
+
+class MinimumsView:
+    def __init__(self, brief: Brief) -> None:
+        self.brief = brief
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        b = self.brief
+        c, m, a = b.category, b.minimums, b.area
+        g = _kv_grid()
+        cat = f"{c.category}"
+        if c.raised:
+            cat += f" (certified {c.certified_category}; raised by circling speed)"
+        g.add_row("Category", cat + f"  VREF {c.vref_kt:.0f} kt, circling {c.circling_speed_kt:.0f} kt IAS")
+        if m.authorised:
+            g.add_row("MDA", f"{fmt(m.mda_ft)} ft   HAA {fmt(m.height_above_airport_ft)} ft")
+            vis = f"required {fmt(m.visibility_required_sm, 'g')} SM, reported {fmt(m.visibility_reported_sm, 'g')} SM"
+            vis += {True: "  OK", False: "  BELOW MINIMUM", None: ""}[m.visibility_ok]
+            g.add_row("Visibility", vis)
+            ceil = f"reported {fmt(m.ceiling_reported_ft)} ft"
+            ceil += {True: "  OK (at or above the HAA)", False: "  BELOW THE MDA", None: ""}[m.ceiling_ok]
+            g.add_row("Ceiling", ceil)
+        else:
+            g.add_row("Minimums", f"NOT AUTHORISED: {m.not_authorised_reason}")
+        if m.cold is not None:
+            g.add_row("Cold temp", f"+{m.cold.correction_ft:.0f} ft -> MDA {m.cold.corrected_mda_ft:.0f} ft "
+                                   f"({m.cold.method}, OAT {m.cold.oat_c:.0f} °C)")
+        if m.circling_only_reasons:
+            for r in m.circling_only_reasons:
+                g.add_row("Circling only", r.text)
+        g.add_row("Area", f"{a.criteria} {a.radius_nm:.2f} NM ({a.provenance}); "
+                          f"this aircraft today needs {a.required_radius_nm:.2f} NM")
+        if m.controlling_obstacle:
+            g.add_row("Obstacle", f"{m.controlling_obstacle}, clearance {fmt(m.obstacle_clearance_actual_ft)} ft "
+                                  f"(criteria {m.obstacle_clearance_ft:.0f} ft)")
+        yield g
+
+
+class PlanView:
+    def __init__(self, brief: Brief) -> None:
+        self.brief = brief
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        b = self.brief
+        p, pf = b.plan, b.performance
+        g = _kv_grid()
+        status = "" if p.feasible else "  (NOT FLYABLE AS BRIEFED)"
+        g.add_row("Plan", f"{p.shape_text}, downwind {p.side} of the runway{status}")
+        g.add_row("Offset", f"{p.offset_nm:.2f} NM from the centreline")
+        if p.break_off_s is not None:
+            g.add_row("Break-off", f"{p.break_off_angle_deg:.0f}° for {p.break_off_s:.0f} s")
+        g.add_row("Timing", f"{p.abeam_to_roll_in_s:.0f} s from abeam the threshold to roll-in "
+                            f"({p.roll_in_distance_nm:+.2f} NM past abeam)")
+        g.add_row("Bank", f"{p.bank_deg:.0f}° target, limit {pf.bank_limit_deg:.0f}°")
+        g.add_row("Roll out", f"{p.roll_out_distance_nm:.2f} NM final, heading {p.final_heading_deg_mag:03.0f}° M")
+        g.add_row("Leave MDA", p.leave_mda_text)
+        g.add_row("Area", ("inside" if p.inside_area else "OUTSIDE") + f", margin {p.area_margin_nm:+.2f} NM")
+        vis = {True: "stays within the reported visibility", False: "goes beyond the reported visibility",
+               None: "visibility not reported"}[p.runway_within_visibility]
+        g.add_row("Runway", f"{vis} (farthest {p.max_distance_from_threshold_nm:.2f} NM)")
+        g.add_row("Missed appr", f"climbing turn {b.missed_approach.turn_direction.upper()} toward the runway, "
+                                 f"then {b.missed_approach.instruction}")
+        yield g
+        if p.alternatives:
+            yield Text("Other plans:", style="bold")
+            for alt in p.alternatives:
+                yield Text(f"  {alt.shape} ({alt.side}): {alt.why_not}")
+
+
+class PerformanceView:
+    def __init__(self, brief: Brief) -> None:
+        self.brief = brief
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        pf, w = self.brief.performance, self.brief.wind
+        g = _kv_grid()
+        g.add_row("Speed", f"{pf.ias_kt:.0f} kt IAS = {pf.tas_kt:.0f} kt TAS at the MDA "
+                           f"(OAT {pf.oat_at_mda_c:.0f} °C, ISA{pf.isa_deviation_c:+.0f}, DA {pf.density_altitude_ft:.0f} ft)")
+        g.add_row("Turn", f"{pf.bank_target_deg:.0f}° bank: radius {pf.turn_radius_nm:.2f} NM, "
+                          f"{pf.turn_rate_deg_per_s:.1f}°/s, 180° in {pf.time_180_s:.0f} s, {pf.load_factor:.2f} g")
+        sb = "n/a" if pf.stall_bank_deg is None else f"{pf.stall_bank_deg:.0f}°"
+        g.add_row("Stall", f"{pf.stall_speed_kt:.0f} kt in the turn (margin {pf.stall_margin_pct:.0f} %); "
+                           f"AoA {pf.aoa_in_turn:.1f} of {pf.aoa_stall:.1f} {pf.aoa_unit}; wing stalls at {sb} bank")
+        gust = ""
+        if w.gust_headwind_kt is not None:
+            gust = f"; gust {w.gust_headwind_kt:+.0f}/{w.gust_crosswind_from_right_kt:+.0f}"
+        g.add_row("Wind", f"{wind_text(self.brief)}: headwind {w.headwind_kt:+.0f} kt, "
+                          f"crosswind {w.crosswind_from_right_kt:+.0f} kt from the right{gust}")
+        yield g
+
+
+class SightPictureView:
+    def __init__(self, brief: Brief) -> None:
+        self.brief = brief
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        s = self.brief.sight_picture
+        g = _kv_grid()
+        g.add_row("Planned", f"runway {s.planned_depression_deg:.1f}° below the horizon at "
+                             f"{s.planned_offset_nm:.2f} NM, {s.circling_height_ft:.0f} ft up")
+        g.add_row("Familiar", f"{s.familiar_depression_deg:.1f}° at {s.familiar_offset_nm:.2f} NM, "
+                              f"{s.familiar_height_ft:.0f} ft up (your usual pattern)")
+        g.add_row("The trap", f"that picture at circling height puts you {s.familiar_offset_at_circling_nm:.2f} NM out")
+        if s.familiar_possible and s.familiar_bank_required_deg is not None:
+            lim = "  BEYOND THE BANK LIMIT" if s.familiar_exceeds_bank_limit else ""
+            g.add_row("It needs", f"{s.familiar_bank_required_deg:.0f}° bank, {s.familiar_load_factor:.2f} g, "
+                                  f"stall margin {s.familiar_stall_margin_pct:.0f} %, AoA {fmt(s.familiar_aoa, '.1f')}{lim}")
+        else:
+            g.add_row("It needs", "a turn no aircraft can fly at this speed (wing stalls first)")
+        g.add_row("Or", f"hold the planned bank and overshoot the centreline by {s.overshoot_nm:.2f} NM")
+        yield g
+
+
+class CautionsView:
+    def __init__(self, cautions: tuple[str, ...]) -> None:
+        self.cautions = cautions
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        yield Panel(Group(*[Text(f"- {c}") for c in self.cautions]), title="CAUTIONS", title_align="left")
+
+
+def header_text(brief: Brief) -> Text:
+    h = brief.header
+    t = Text()
+    t.append(f"{h.airfield_ident} {h.airfield_name}", style="bold")
+    t.append(f"  {h.approach_name}, circle to land {h.landing_runway}")
+    t.append(f"\n{h.profile_name} ({h.configuration_name}), {h.weight_lb:.0f} lb; {h.criteria}; "
+             f"elevation {h.airfield_elevation_ft:.0f} ft")
+    return t
+
+
+class BriefView:
+    """The whole brief as a compact text layout (fits 80 columns)."""
+
+    def __init__(self, brief: Brief) -> None:
+        self.brief = brief
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        b = self.brief
+        yield header_text(b)
+        yield Text("WARNINGS", style="bold underline")
+        yield FindingsView(b.warnings)
+        yield Text("MINIMUMS AND AREA", style="bold underline")
+        yield MinimumsView(b)
+        yield Text("PERFORMANCE AT THE MDA", style="bold underline")
+        yield PerformanceView(b)
+        yield Text("PLAN", style="bold underline")
+        yield PlanView(b)
+        yield Text("SIGHT PICTURE", style="bold underline")
+        yield SightPictureView(b)
+        yield CautionsView(b.cautions)
