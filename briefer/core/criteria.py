@@ -1368,7 +1368,7 @@ ICAO_MAX_GRADIENT_CDE_PCT = 6.1
 
 
 def gradient_ft_per_nm_from_angle_deg(angle_deg: Numeric) -> Numeric:
-    """Descent gradient of a path angle: tan(angle) x 6076.1 ft/NM (3 deg gives 318.4 ft/NM).
+    """Descent gradient of a path angle: tan(angle) x feet per NM (3 deg gives 318.4 ft/NM).
 
     Raises DomainError unless 0 <= angle < 90 degrees.
     """
@@ -1377,7 +1377,7 @@ def gradient_ft_per_nm_from_angle_deg(angle_deg: Numeric) -> Numeric:
 
 
 def angle_deg_from_gradient_ft_per_nm(gradient_ft_per_nm: Numeric) -> Numeric:
-    """Path angle of a descent gradient: atan(gradient / 6076.1 ft/NM) (400 ft/NM is 3.77 deg).
+    """Path angle of a descent gradient: atan(gradient / feet per NM) (400 ft/NM is 3.77 deg).
 
     Raises DomainError for a negative or non-finite gradient.
     """
