@@ -328,9 +328,11 @@ def stall_bank_deg(speed_kt: Numeric, vs1g_kt: Numeric, *, weight_ratio: Numeric
     vs = _speed("vs1g_kt", vs1g_kt)
     w = _weight_ratio(weight_ratio)
     vs_w = vs * np.sqrt(w)
-    if np.any(v < vs_w):
+    # a relative slack of 1e-12 so that V equal to VS1G sqrt(w) up to rounding gives 0 deg
+    below = v < vs_w * (1.0 - 1e-12)
+    if np.any(below):
         bad = np.broadcast_arrays(v, vs_w)
-        idx = np.argmax(bad[0] < bad[1]) if np.ndim(bad[0]) else 0
+        idx = int(np.argmax(np.ravel(np.broadcast_to(below, bad[0].shape))))
         v_bad = float(np.ravel(bad[0])[idx])
         vs_bad = float(np.ravel(bad[1])[idx])
         raise DomainError(f"speed_kt = {v_bad:g} kt is below the 1-g stall speed {vs_bad:g} kt "
