@@ -7,9 +7,13 @@ a single point ``(e, n)`` gives scalar results, an ``(N, 2)`` array gives ``(N,)
 References
 ----------
 .. [1] National Imagery and Mapping Agency, "Department of Defense World Geodetic System 1984,"
-   NIMA TR8350.2, 3rd ed., 2000, Table 3.1 (a, 1/f) and Sections 4.1-4.2 (geodetic to ECEF).
+   NIMA TR8350.2, 3rd ed., 2000: defining parameters a and 1/f (Table 3.1), and the standard
+   geodetic-to-Cartesian formulas N = a / sqrt(1 - e^2 sin^2(lat)), X = N cos(lat) cos(lon),
+   Y = N cos(lat) sin(lon), Z = N (1 - e^2) sin(lat) at height 0 (chapter 4; equation numbers
+   not checked, from memory).
 .. [2] B. Hofmann-Wellenhof, H. Lichtenegger, E. Wasle, "GNSS - Global Navigation Satellite
-   Systems," Springer, 2008, Section 10.2.2 (local level east-north-up frame).
+   Systems," Springer, 2008, chapter on reference systems: the local-level east-north-up
+   rotation (section from memory). The tests check the frame against geographiclib.
 .. [3] FAA, Aeronautical Information Manual, para. 5-4-20(b)(1): the circling area is formed by
    arcs of radius R about the end of each runway joined by tangent lines.
 .. [4] ICAO Doc 8168 (PANS-OPS), 5th ed., 2006, Vol II, Part I, Section 4, Chapter 7, 7.2.1
@@ -95,8 +99,8 @@ def _cross(o: npt.NDArray[np.float64], a: npt.NDArray[np.float64], b: npt.NDArra
 def _ecef_m(lat_deg: Numeric, lon_deg: Numeric) -> tuple[Numeric, Numeric, Numeric]:
     """Earth-centred coordinates of a point on the ellipsoid (height 0)."""
     s, c = sind(lat_deg), cosd(lat_deg)
-    n_m = WGS84_A_M / np.sqrt(1.0 - _E2 * s * s)            # [1] eq. 4-15, prime vertical radius
-    return n_m * c * cosd(lon_deg), n_m * c * sind(lon_deg), n_m * (1.0 - _E2) * s   # [1] eq. 4-14
+    n_m = WGS84_A_M / np.sqrt(1.0 - _E2 * s * s)            # [1] prime-vertical radius N
+    return n_m * c * cosd(lon_deg), n_m * c * sind(lon_deg), n_m * (1.0 - _E2) * s   # [1] X, Y, Z
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -127,8 +131,8 @@ class LocalFrame:
 
     References
     ----------
-    .. [1] NIMA TR8350.2, 3rd ed., 2000, Sections 4.1-4.2.
-    .. [2] Hofmann-Wellenhof et al., "GNSS", Springer, 2008, Section 10.2.2.
+    .. [1] NIMA TR8350.2, 3rd ed., 2000 (module references).
+    .. [2] Hofmann-Wellenhof et al., "GNSS", Springer, 2008 (module references).
     """
 
     lat0_deg: float
@@ -220,7 +224,7 @@ class LocalFrame:
         u = -2.0 * c / (b + np.sqrt(b * b - 4.0 * a * c))   # stable form of the small root
         p = q + u[..., None] * up
         rho = np.hypot(p[..., 0], p[..., 1])
-        lat = atand2(p[..., 2], (1.0 - _E2) * rho)           # [1] eq. 4-14 solved for the latitude
+        lat = atand2(p[..., 2], (1.0 - _E2) * rho)           # [1] Z / rho = (1 - e^2) tan(lat) at height 0
         lon = atand2(p[..., 1], p[..., 0])
         return as_float(lat), as_float(lon)
 
@@ -455,8 +459,8 @@ def convex_hull(points: ArrayLike) -> npt.NDArray[np.float64]:
 
     Notes
     -----
-    Andrew's monotone chain [1]_; a turn smaller than 1e-12 of the squared extent counts as
-    straight, so nearly collinear thresholds give a segment.
+    Andrew's monotone chain [1]_, then any vertex within 1 micrometre of the segment joining its
+    neighbours is dropped, so nearly collinear thresholds give a segment.
 
     References
     ----------
@@ -471,19 +475,32 @@ def convex_hull(points: ArrayLike) -> npt.NDArray[np.float64]:
             uniq.append((e, n))
     if len(uniq) == 1:
         return np.array(uniq)
-    extent2 = max((e - uniq[0][0]) ** 2 + (n - uniq[0][1]) ** 2 for e, n in uniq)
-    eps = 1e-12 * extent2
+
+    def turn(o: tuple[float, float], a: tuple[float, float], b: tuple[float, float]) -> float:
+        return (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0])
 
     def chain(seq: list[tuple[float, float]]) -> list[tuple[float, float]]:
         out: list[tuple[float, float]] = []
         for q in seq:
-            while len(out) >= 2 and float(_cross(np.array(out[-2]), np.array(out[-1]), np.array(q))) <= eps:
+            while len(out) >= 2 and turn(out[-2], out[-1], q) <= 0.0:    # [1] keep strict left turns
                 out.pop()
             out.append(q)
         return out
 
-    lower, upper = chain(uniq), chain(uniq[::-1])
-    hull = lower[:-1] + upper[:-1]
+    hull = chain(uniq)[:-1] + chain(uniq[::-1])[:-1]
+    # drop vertices lying within 1 micrometre of the segment joining their neighbours, so that
+    # nearly collinear thresholds give a segment (a segment, not the line: a far vertex of a thin
+    # triangle is close to the line through the other two but not to the segment)
+    changed = True
+    while changed and len(hull) >= 3:
+        changed = False
+        for i in range(len(hull)):
+            u, v, w = hull[i - 1], hull[i], hull[(i + 1) % len(hull)]
+            gap = float(distance_to_segments_m(np.array(v), np.array([u]), np.array([w])))
+            if gap < _COINCIDENT_M:
+                del hull[i]
+                changed = True
+                break
     return np.array(hull)
 
 
