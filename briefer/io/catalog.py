@@ -1,0 +1,249 @@
+"""Find aircraft profiles and airfields by name or by file.
+
+Where the files come from, in this order (the first match wins, so a user's file can stand in for
+a built-in one of the same name):
+
+1. folders given by the caller (command-line options);
+2. folders listed in the user's config file, ``$XDG_CONFIG_HOME/briefer/config.yaml`` (default
+   ``~/.config/briefer/config.yaml``; ``%APPDATA%\\briefer\\config.yaml`` on Windows)::
+
+       profile_dirs: [~/flying/profiles]      # relative paths are relative to the config file
+       airfield_dirs: [~/flying/airfields]
+
+3. the invented demo data shipped inside the package (``briefer/data/profiles`` and
+   ``briefer/data/airfields_demo``), read through `importlib.resources`, so it is found after a
+   plain ``pip install .`` as well.
+
+A folder contributes its ``*.yaml`` and ``*.yml`` files (not sub-folders). A profile is found by
+its ``name`` or its file name without the extension; an airfield by its ``ident``, its ``name`` or
+its file name (case, spaces and punctuation ignored). Anything that looks like a path (contains a
+slash, ends in .yaml/.yml, or is an existing file) is loaded as that file.
+"""
+
+from __future__ import annotations
+
+import os
+import re
+import sys
+from collections.abc import Callable, Iterable, Sequence
+from dataclasses import dataclass
+from importlib import resources
+from os import PathLike
+from pathlib import Path
+from typing import Any
+
+from briefer.errors import BriefingError, DataFileError
+from briefer.io.yamlload import load_airfield, load_bytes, load_profile, read_yaml_mapping
+from briefer.model import KIND_AIRFIELD, KIND_PROFILE, AircraftProfile, Airfield, did_you_mean
+
+BUILTIN_FOLDERS = {KIND_PROFILE: "profiles", KIND_AIRFIELD: "airfields_demo"}
+CONFIG_KEYS = {KIND_PROFILE: "profile_dirs", KIND_AIRFIELD: "airfield_dirs"}
+_SUFFIXES = (".yaml", ".yml")
+_WHAT = {KIND_PROFILE: "aircraft profile", KIND_AIRFIELD: "airfield"}
+
+
+class NotFoundError(BriefingError, LookupError):
+    """No profile or airfield of that name; the message lists what exists."""
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class CatalogEntry:
+    """One data file the catalog knows: what it holds and where it is.
+
+    ``name`` is the profile name or the airfield ident (the file name when the file is broken);
+    ``title`` the profile description or the airfield name; ``error`` the one-line error of a
+    broken file (None when it loads).
+    """
+
+    kind: str
+    name: str
+    title: str
+    source: str
+    builtin: bool
+    error: str | None = None
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class CatalogConfig:
+    """The user's config file: extra folders to search."""
+
+    profile_dirs: tuple[Path, ...] = ()
+    airfield_dirs: tuple[Path, ...] = ()
+    source: str | None = None
+
+    def dirs(self, kind: str) -> tuple[Path, ...]:
+        return self.profile_dirs if kind == KIND_PROFILE else self.airfield_dirs
+
+
+# --------------------------------------------------------------------------------------------
+# The config file
+# --------------------------------------------------------------------------------------------
+def config_path() -> Path:
+    """Where the user's config file lives (it need not exist)."""
+    base = os.environ.get("XDG_CONFIG_HOME")
+    if not base and sys.platform == "win32":
+        base = os.environ.get("APPDATA")
+    root = Path(base) if base else Path.home() / ".config"
+    return root / "briefer" / "config.yaml"
+
+
+def load_config(path: str | PathLike[str] | None = None) -> CatalogConfig:
+    """Read the config file (an absent file is an empty config; a bad one a `DataFileError`)."""
+    p = Path(path) if path is not None else config_path()
+    if not p.exists():
+        return CatalogConfig()
+    doc = read_yaml_mapping(p)
+    for key in doc.data:
+        if key not in CONFIG_KEYS.values():
+            hint = did_you_mean(key, CONFIG_KEYS.values()) or f" (allowed: {', '.join(CONFIG_KEYS.values())})"
+            raise doc.error(f"unknown key '{key}'{hint}", "", locator=key)
+    found: dict[str, tuple[Path, ...]] = {}
+    for key in CONFIG_KEYS.values():
+        value = doc.data.get(key, [])
+        if value is None:
+            value = []
+        if isinstance(value, str):
+            value = [value]
+        if not isinstance(value, list):
+            raise doc.error(f"expected a list of folders, got {type(value).__name__}", key)
+        dirs = []
+        for i, item in enumerate(value):
+            where = f"{key}[{i}]"
+            if not isinstance(item, str) or not item.strip():
+                raise doc.error(f"expected a folder path, got {item!r}", where)
+            folder = Path(os.path.expandvars(item.strip())).expanduser()
+            if not folder.is_absolute():
+                folder = p.parent / folder
+            if not folder.is_dir():
+                raise doc.error(f"no such folder: {folder}", where)
+            dirs.append(folder)
+        found[key] = tuple(dirs)
+    return CatalogConfig(profile_dirs=found["profile_dirs"], airfield_dirs=found["airfield_dirs"], source=str(p))
+
+
+# --------------------------------------------------------------------------------------------
+# Sources
+# --------------------------------------------------------------------------------------------
+@dataclass(frozen=True, slots=True)
+class _Source:
+    name: str
+    stem: str
+    read: Callable[[], bytes]
+    builtin: bool
+
+
+def builtin_files(kind: str) -> list[Any]:
+    """The packaged demo files of a kind (`importlib.resources` Traversables), sorted by name."""
+    folder = resources.files("briefer") / "data" / BUILTIN_FOLDERS[kind]
+    if not folder.is_dir():
+        return []
+    return sorted((f for f in folder.iterdir() if f.is_file() and f.name.endswith(_SUFFIXES)),
+                  key=lambda f: f.name)
+
+
+def search_dirs(kind: str, dirs: Sequence[str | PathLike[str]] = (), *, use_config: bool = True) -> list[Path]:
+    """The user folders searched for a kind: `dirs`, then the config file's."""
+    out = [Path(d).expanduser() for d in dirs]
+    for d in out:
+        if not d.is_dir():
+            raise DataFileError("no such folder", file=str(d))
+    if use_config:
+        out.extend(load_config().dirs(kind))
+    return out
+
+
+def _sources(kind: str, dirs: Sequence[str | PathLike[str]], use_config: bool) -> list[_Source]:
+    sources = []
+    for folder in search_dirs(kind, dirs, use_config=use_config):
+        for f in sorted(folder.iterdir()):
+            if f.is_file() and f.suffix in _SUFFIXES:
+                sources.append(_Source(str(f), f.stem, f.read_bytes, False))
+    for t in builtin_files(kind):
+        sources.append(_Source(str(t), t.name.rsplit(".", 1)[0], t.read_bytes, True))
+    return sources
+
+
+def _load(source: _Source, kind: str) -> Any:
+    try:
+        data = source.read()
+    except OSError as exc:
+        raise DataFileError(f"cannot read the file ({exc.strerror or exc})", file=source.name) from None
+    return load_bytes(data, file=source.name, expected_kind=kind)
+
+
+def _entry(source: _Source, kind: str) -> CatalogEntry:
+    try:
+        model = _load(source, kind)
+    except DataFileError as exc:
+        return CatalogEntry(kind=kind, name=source.stem, title="", source=source.name,
+                            builtin=source.builtin, error=str(exc))
+    if kind == KIND_PROFILE:
+        return CatalogEntry(kind=kind, name=model.name, title=model.description, source=source.name,
+                            builtin=source.builtin)
+    return CatalogEntry(kind=kind, name=model.ident, title=model.name, source=source.name, builtin=source.builtin)
+
+
+def _list(kind: str, dirs: Sequence[str | PathLike[str]], use_config: bool) -> list[CatalogEntry]:
+    return [_entry(s, kind) for s in _sources(kind, dirs, use_config)]
+
+
+def list_profiles(*, dirs: Sequence[str | PathLike[str]] = (), use_config: bool = True) -> list[CatalogEntry]:
+    """Every aircraft profile file the catalog sees (user folders first, then built-in)."""
+    return _list(KIND_PROFILE, dirs, use_config)
+
+
+def list_airfields(*, dirs: Sequence[str | PathLike[str]] = (), use_config: bool = True) -> list[CatalogEntry]:
+    """Every airfield file the catalog sees (user folders first, then built-in)."""
+    return _list(KIND_AIRFIELD, dirs, use_config)
+
+
+# --------------------------------------------------------------------------------------------
+# Finding
+# --------------------------------------------------------------------------------------------
+def _loose(text: str) -> str:
+    return re.sub(r"[^a-z0-9]", "", text.lower())
+
+
+def _looks_like_path(text: str) -> bool:
+    return "/" in text or os.sep in text or text.lower().endswith(_SUFFIXES) or Path(text).is_file()
+
+
+def _names(model: Any, kind: str) -> Iterable[str]:
+    return (model.name,) if kind == KIND_PROFILE else (model.ident, model.name)
+
+
+def _find(kind: str, name_or_path: str | PathLike[str], dirs: Sequence[str | PathLike[str]],
+          use_config: bool) -> Any:
+    text = str(name_or_path).strip()
+    if isinstance(name_or_path, PathLike) or _looks_like_path(text):
+        path = os.path.expanduser(text)
+        return load_profile(path) if kind == KIND_PROFILE else load_airfield(path)
+    wanted = _loose(text)
+    sources = _sources(kind, dirs, use_config)
+    for source in sources:                       # the file name: no need to open every file
+        if _loose(source.stem) == wanted:
+            return _load(source, kind)
+    available = []
+    for source in sources:
+        try:
+            model = _load(source, kind)
+        except DataFileError:
+            continue
+        if any(_loose(n) == wanted for n in _names(model, kind)):
+            return model
+        available.append(model.name if kind == KIND_PROFILE else model.ident)
+    hint = did_you_mean(text, available)
+    listing = ", ".join(sorted(set(available))) or "none"
+    raise NotFoundError(f"no {_WHAT[kind]} named '{text}'{hint}; available: {listing} (or give a file path)")
+
+
+def find_profile(name_or_path: str | PathLike[str], *, dirs: Sequence[str | PathLike[str]] = (),
+                 use_config: bool = True) -> AircraftProfile:
+    """The aircraft profile with this name (or in this file)."""
+    return _find(KIND_PROFILE, name_or_path, dirs, use_config)  # type: ignore[no-any-return]
+
+
+def find_airfield(name_or_path: str | PathLike[str], *, dirs: Sequence[str | PathLike[str]] = (),
+                  use_config: bool = True) -> Airfield:
+    """The airfield with this ident or name (or in this file)."""
+    return _find(KIND_AIRFIELD, name_or_path, dirs, use_config)  # type: ignore[no-any-return]

@@ -1,0 +1,304 @@
+"""Read aircraft-profile and airfield YAML files into validated models, with precise errors.
+
+Every failure is one `DataFileError` naming the file, the line and the dotted field, and saying
+what was expected, e.g.::
+
+    lemon.yaml:14: runways[1].threshold_b.elevation_ft: expected a number in feet, got 'abc'
+
+Safety: the text is parsed with PyYAML's safe loader machinery into nodes (`yaml.SafeLoader`,
+no Python object tags), and the nodes are turned into plain dicts, lists and scalars here, which
+records the line of every key and catches duplicate keys (plain `safe_load` silently keeps the
+last one). Two deliberate departures from YAML 1.1 resolution: a plain scalar of decimal digits
+is a decimal integer even with a leading zero (``030`` is thirty, not octal 24; ``09`` is nine,
+not the text '09'), and merge keys (``<<``) are refused.
+
+File format: a mapping whose ``kind`` key says what the file holds (``aircraft-profile`` or
+``airfield``), an optional ``format_version: 1``, then the model's fields (see
+``briefer/schemas/*.schema.json`` and README "Data files").
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+from os import PathLike
+from pathlib import Path
+from typing import Any
+
+import yaml
+from yaml.constructor import ConstructorError, SafeConstructor
+from yaml.nodes import MappingNode, Node, ScalarNode, SequenceNode
+
+from briefer.errors import DataFileError
+from briefer.model import (
+    KIND_AIRFIELD,
+    KIND_PROFILE,
+    KINDS,
+    AircraftProfile,
+    Airfield,
+    FieldError,
+    did_you_mean,
+    join_path,
+)
+
+MAX_FILE_BYTES = 5_000_000
+MAX_NODES = 200_000
+
+_MODELS: dict[str, Any] = {KIND_PROFILE: AircraftProfile, KIND_AIRFIELD: Airfield}
+_INT_TAG = "tag:yaml.org,2002:int"
+_STR_TAG = "tag:yaml.org,2002:str"
+_MAP_TAG = "tag:yaml.org,2002:map"
+_SEQ_TAG = "tag:yaml.org,2002:seq"
+_MERGE_TAG = "tag:yaml.org,2002:merge"
+_DECIMAL = re.compile(r"[-+]?[0-9]+")
+
+
+class _Loader(yaml.SafeLoader):
+    """SafeLoader whose plain decimal-digit scalars resolve to int (leading zeros included)."""
+
+
+_Loader.yaml_implicit_resolvers = {k: list(v) for k, v in yaml.SafeLoader.yaml_implicit_resolvers.items()}
+for _ch in "-+0123456789":
+    _Loader.yaml_implicit_resolvers.setdefault(_ch, []).insert(0, (_INT_TAG, re.compile(r"^[-+]?[0-9]+$")))
+
+
+@dataclass
+class YamlDocument:
+    """A parsed YAML mapping with the line of every dotted path in it."""
+
+    data: dict[str, Any]
+    file: str
+    lines: dict[str, int] = field(default_factory=dict)
+
+    def line_of(self, path: str) -> int | None:
+        """Line of `path`, or of its nearest enclosing item when it is not in the file."""
+        while True:
+            if path in self.lines:
+                return self.lines[path]
+            if not path:
+                return None
+            path = _parent(path)
+
+    def error(self, message: str, path: str = "", *, locator: str | None = None) -> DataFileError:
+        """A `DataFileError` at `path` (the line taken from `locator`, default `path`)."""
+        return DataFileError(message, file=self.file, line=self.line_of(path if locator is None else locator),
+                             context=path or None)
+
+    def from_field_error(self, exc: FieldError) -> DataFileError:
+        return self.error(exc.message, exc.context or "", locator=exc.locator)
+
+
+def _parent(path: str) -> str:
+    """'a.b[2]' -> 'a.b', 'a.b' -> 'a', 'a' -> ''."""
+    if path.endswith("]") and "[" in path:
+        return path[: path.rindex("[")]
+    return path.rpartition(".")[0]
+
+
+# --------------------------------------------------------------------------------------------
+# Reading
+# --------------------------------------------------------------------------------------------
+def _read_bytes(path: str | PathLike[str]) -> tuple[bytes, str]:
+    name = str(path)
+    p = Path(path)
+    try:
+        if p.is_dir():
+            raise DataFileError("is a directory, expected a YAML file", file=name)
+        with open(p, "rb") as fh:
+            data = fh.read(MAX_FILE_BYTES + 1)
+    except FileNotFoundError:
+        raise DataFileError("no such file", file=name) from None
+    except IsADirectoryError:
+        raise DataFileError("is a directory, expected a YAML file", file=name) from None
+    except PermissionError:
+        raise DataFileError("cannot read the file (permission denied)", file=name) from None
+    except OSError as exc:
+        raise DataFileError(f"cannot read the file ({exc.strerror or exc})", file=name) from None
+    return data, name
+
+
+def parse_yaml_mapping(data: bytes, file: str) -> YamlDocument:
+    """Parse bytes of YAML into a `YamlDocument` whose top level is a mapping."""
+    if len(data) > MAX_FILE_BYTES:
+        raise DataFileError(f"the file is larger than {MAX_FILE_BYTES // 1_000_000} MB; "
+                            "expected a small YAML file", file=file)
+    if b"\x00" in data:
+        line = data[: data.index(b"\x00")].count(b"\n") + 1
+        raise DataFileError("expected a YAML text file, got binary data", file=file, line=line)
+    try:
+        text = data.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        line = data[: exc.start].count(b"\n") + 1
+        raise DataFileError(f"expected UTF-8 text, got the byte 0x{data[exc.start]:02x}", file=file,
+                            line=line) from None
+    loader = _Loader(text)
+    try:
+        node = loader.get_single_node()
+    except yaml.MarkedYAMLError as exc:
+        mark = exc.problem_mark or exc.context_mark
+        problem = exc.problem or exc.context or "cannot parse"
+        raise DataFileError(f"not valid YAML: {problem}", file=file,
+                            line=mark.line + 1 if mark is not None else None) from None
+    except yaml.reader.ReaderError as exc:
+        line = text[: exc.position].count("\n") + 1
+        raise DataFileError(f"not valid YAML: unacceptable character #x{exc.character:04x}" if isinstance(
+            exc.character, int) else f"not valid YAML: {exc.reason}", file=file, line=line) from None
+    except yaml.YAMLError as exc:
+        raise DataFileError(f"not valid YAML: {exc}", file=file) from None
+    finally:
+        loader.dispose()
+    if node is None:
+        raise DataFileError(f"the file is empty; expected a YAML mapping starting with "
+                            f"'kind: {KIND_PROFILE}' or 'kind: {KIND_AIRFIELD}'", file=file)
+    doc = YamlDocument(data={}, file=file)
+    doc.lines[""] = node.start_mark.line + 1
+    if not isinstance(node, MappingNode):
+        got = "a list" if isinstance(node, SequenceNode) else f"the single value {node.value!r}"
+        raise DataFileError(f"expected a mapping of keys at the top level, got {got}", file=file,
+                            line=node.start_mark.line + 1)
+    builder = _Builder(doc)
+    doc.data = builder.convert(node, "")
+    return doc
+
+
+class _Builder:
+    """Nodes -> plain Python values, recording lines, refusing duplicates, cycles and tags."""
+
+    def __init__(self, doc: YamlDocument) -> None:
+        self.doc = doc
+        self.count = 0
+        self.active: set[int] = set()
+        self.constructor = SafeConstructor()
+
+    def fail(self, message: str, node: Node, path: str) -> DataFileError:
+        return DataFileError(message, file=self.doc.file, line=node.start_mark.line + 1, context=path or None)
+
+    def convert(self, node: Node, path: str) -> Any:
+        self.count += 1
+        if self.count > MAX_NODES:
+            raise self.fail(f"more than {MAX_NODES} values (too many aliases?)", node, path)
+        if id(node) in self.active:
+            raise self.fail("a recursive alias (an anchor that contains itself)", node, path)
+        if isinstance(node, ScalarNode):
+            return self.scalar(node, path)
+        self.active.add(id(node))
+        try:
+            if isinstance(node, MappingNode):
+                return self.mapping(node, path)
+            return self.sequence(node, path)  # type: ignore[arg-type]
+        finally:
+            self.active.discard(id(node))
+
+    def mapping(self, node: MappingNode, path: str) -> dict[str, Any]:
+        if node.tag != _MAP_TAG:
+            raise self.fail(f"unsupported YAML tag {node.tag!r}", node, path)
+        out: dict[str, Any] = {}
+        for key_node, value_node in node.value:
+            if key_node.tag == _MERGE_TAG:
+                raise self.fail("merge keys ('<<') are not supported; write the keys out", key_node, path)
+            if not isinstance(key_node, ScalarNode):
+                raise self.fail("expected a plain key, got a list or mapping used as a key", key_node, path)
+            key = key_node.value
+            sub = join_path(path, key)
+            line = key_node.start_mark.line + 1
+            if key in out:
+                raise self.fail(f"duplicate key '{key}' (first given on line {self.doc.lines[sub]})",
+                                key_node, sub)
+            self.doc.lines[sub] = line
+            out[key] = self.convert(value_node, sub)
+        return out
+
+    def sequence(self, node: SequenceNode, path: str) -> list[Any]:
+        if node.tag != _SEQ_TAG:
+            raise self.fail(f"unsupported YAML tag {node.tag!r}", node, path)
+        items = []
+        for i, item in enumerate(node.value):
+            sub = f"{path}[{i}]"
+            self.doc.lines[sub] = item.start_mark.line + 1
+            items.append(self.convert(item, sub))
+        return items
+
+    def scalar(self, node: ScalarNode, path: str) -> Any:
+        if node.tag == _INT_TAG and _DECIMAL.fullmatch(node.value):
+            return int(node.value, 10)
+        try:
+            return self.constructor.construct_object(node, deep=True)
+        except (ConstructorError, ValueError) as exc:
+            problem = getattr(exc, "problem", None) or str(exc)
+            raise self.fail(f"cannot read the value {node.value!r}: {problem}", node, path) from None
+
+
+def read_yaml_mapping(path: str | PathLike[str]) -> YamlDocument:
+    """Read a YAML file whose top level is a mapping (bad files raise `DataFileError`)."""
+    data, name = _read_bytes(path)
+    return parse_yaml_mapping(data, name)
+
+
+# --------------------------------------------------------------------------------------------
+# Models
+# --------------------------------------------------------------------------------------------
+def _kind(doc: YamlDocument) -> str:
+    if "kind" not in doc.data:
+        raise doc.error(f"missing required key 'kind' (expected {KIND_PROFILE!r} or {KIND_AIRFIELD!r})")
+    kind = doc.data["kind"]
+    if kind not in KINDS:
+        hint = did_you_mean(kind, KINDS) if isinstance(kind, str) else ""
+        shown = repr(kind) if isinstance(kind, str) else str(kind)
+        raise doc.error(f"expected {KIND_PROFILE!r} or {KIND_AIRFIELD!r}, got {shown}{hint}", "kind")
+    return kind
+
+
+def model_from_document(doc: YamlDocument, expected_kind: str | None = None) -> AircraftProfile | Airfield:
+    """Build the model a parsed document describes (checking its ``kind``)."""
+    kind = _kind(doc)
+    if expected_kind is not None and kind != expected_kind:
+        raise doc.error(f"expected {expected_kind!r}, got {kind!r} (this is not "
+                        f"{'an aircraft profile' if expected_kind == KIND_PROFILE else 'an airfield'} file)",
+                        "kind")
+    try:
+        return _MODELS[kind].from_mapping(doc.data)
+    except FieldError as exc:
+        raise doc.from_field_error(exc) from None
+
+
+def load_bytes(data: bytes, *, file: str, expected_kind: str | None = None) -> AircraftProfile | Airfield:
+    """Load a profile or airfield from bytes (``file`` names it in errors)."""
+    return model_from_document(parse_yaml_mapping(data, file), expected_kind)
+
+
+def load_profile(path: str | PathLike[str]) -> AircraftProfile:
+    """Load an ``aircraft-profile`` YAML file."""
+    data, name = _read_bytes(path)
+    return load_bytes(data, file=name, expected_kind=KIND_PROFILE)  # type: ignore[return-value]
+
+
+def load_airfield(path: str | PathLike[str]) -> Airfield:
+    """Load an ``airfield`` YAML file."""
+    data, name = _read_bytes(path)
+    return load_bytes(data, file=name, expected_kind=KIND_AIRFIELD)  # type: ignore[return-value]
+
+
+def load_any(path: str | PathLike[str]) -> AircraftProfile | Airfield:
+    """Load a data file of either kind (by its ``kind`` key)."""
+    data, name = _read_bytes(path)
+    return load_bytes(data, file=name)
+
+
+class _Dumper(yaml.SafeDumper):
+    """SafeDumper that quotes digit-only text, which this module's loader would read as a number."""
+
+
+def _represent_str(dumper: yaml.SafeDumper, value: str) -> yaml.ScalarNode:
+    style = "'" if _DECIMAL.fullmatch(value) else None
+    return dumper.represent_scalar(_STR_TAG, value, style=style)
+
+
+_Dumper.add_representer(str, _represent_str)
+
+
+def dump_yaml(model: AircraftProfile | Airfield | Mapping[str, Any]) -> str:
+    """YAML text of a model (its ``to_mapping()``), keys in the model's order; loads back equal."""
+    mapping = model if isinstance(model, Mapping) else model.to_mapping()
+    return yaml.dump(dict(mapping), Dumper=_Dumper, sort_keys=False, allow_unicode=True,
+                     default_flow_style=False)

@@ -1,0 +1,1501 @@
+"""Frozen dataclasses of the inputs: aircraft profiles, airfields, approaches, weather, requests.
+
+Every model is ``@dataclass(frozen=True, slots=True, kw_only=True)``; every dimensional field carries
+its unit in its name. Each model checks its own invariants in ``__post_init__`` (types, plausible
+ranges, cross-field rules) and raises `InvariantError` (a `DomainError`) naming the field, so a model
+built by hand in a test or the TUI is validated exactly like one read from a file.
+
+``Model.from_mapping(data)`` builds a model from plain mappings and lists (what a YAML or JSON reader
+gives) and ``model.to_mapping()`` gives them back; the two round-trip. ``from_mapping`` rejects unknown
+keys (with a close-match suggestion) and missing required keys, and turns every invariant failure
+into a `FieldError`, a `DataFileError` whose ``context`` is the dotted path of the field
+(``runways[1].threshold_b.elevation_ft``). The loaders in ``briefer.io`` add the file and the line.
+
+This module is pure: no file I/O, no YAML.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import difflib
+import math
+import numbers
+import re
+from collections.abc import Mapping
+from dataclasses import MISSING, dataclass, field, fields
+from typing import Any, ClassVar
+
+from briefer import units
+from briefer.errors import DataFileError, DomainError
+
+FORMAT_VERSION = 1
+"""The one data-file format version this release reads and writes."""
+
+KIND_PROFILE = "aircraft-profile"
+KIND_AIRFIELD = "airfield"
+KINDS = (KIND_PROFILE, KIND_AIRFIELD)
+
+CATEGORIES = ("A", "B", "C", "D", "E")
+CRITERIA = ("terps-legacy", "terps-expanded", "icao")
+STALL_WARNINGS = ("horn", "shaker", "pusher", "aural", "buffet", "none")
+WIND_REFERENCES = ("true", "magnetic")
+SIDES = ("north", "east", "south", "west")
+SIDE_BEARING_DEG_TRUE = {side: 90.0 * i for i, side in enumerate(SIDES)}
+OBSTACLE_KINDS = ("tower", "mast", "building", "chimney", "wind-turbine", "terrain", "trees",
+                  "power-line", "other")
+COLD_TEMPERATURE_METHODS = ("sea-level-table", "airport-elevation")
+
+EARTH_MEAN_RADIUS_M = 6_371_008.8
+"""IUGG mean Earth radius, for the plausibility distances only (the geometry lives in core)."""
+
+
+@dataclass(frozen=True, slots=True)
+class Range:
+    """A closed plausibility range ``lo <= value <= hi``."""
+
+    lo: float
+    hi: float
+
+    def __contains__(self, value: float) -> bool:
+        return self.lo <= value <= self.hi
+
+
+# Plausibility ranges (a value outside is a typo or a unit mix-up, not an aircraft or an airfield).
+ELEVATION_FT = Range(-1500, 15000)
+LAT_DEG = Range(-90, 90)
+LON_DEG = Range(-180, 180)
+SPEED_KT = Range(20, 300)
+BANK_DEG = Range(5, 60)
+ROLL_RATE_DEG_PER_S = Range(5, 400)
+WEIGHT_LB = Range(300, 1_500_000)
+AOA_ANY = Range(-30, 100)
+AOA_REF_DEG = Range(-5, 25)
+AOA_STALL_DEG = Range(5, 40)
+FRACTION = Range(0, 1)
+ADDITIVE_KT = Range(0, 40)
+PATTERN_HEIGHT_FT = Range(300, 3000)
+PATTERN_OFFSET_NM = Range(0.2, 5)
+TCH_FT = Range(20, 120)
+GLIDE_PATH_DEG = Range(2, 7)
+RUNWAY_WIDTH_M = Range(10, 100)
+RUNWAY_LENGTH_M = Range(300, 6000)
+VARIATION_DEG = Range(-90, 90)
+COURSE_DEG = Range(0, 360)
+ALTITUDE_FT = Range(-1500, 30000)
+OBSTACLE_HEIGHT_AGL_FT = Range(0, 3000)
+VISIBILITY_SM = Range(0.25, 10)
+VISIBILITY_M = Range(400, 16000)
+CIRCLING_HAA_FT = Range(250, 3000)
+STRAIGHT_IN_HAT_FT = Range(150, 3000)
+FAF_HEIGHT_FT = Range(300, 10000)
+THRESHOLD_ELEVATION_SPREAD_FT = 300.0
+THRESHOLD_FROM_ARP_KM = 10.0
+OBSTACLE_FROM_ARP_KM = 50.0
+FIX_FROM_ARP_NM = 30.0
+DESIGNATOR_TOLERANCE_DEG = 15.0
+SIDE_MIN_ANGLE_TO_RUNWAY_DEG = 30.0
+WIND_SPEED_KT = Range(0, 150)
+WIND_GUST_KT = Range(1, 200)
+OAT_C = Range(-90, 60)
+ALTIMETER_HPA = Range(870, 1090)
+ALTIMETER_INHG = Range(25.7, 32.2)
+WX_VISIBILITY_SM = Range(0, 100)
+CEILING_FT = Range(0, 50000)
+STABILISED_HEIGHT_FT = Range(100, 1500)
+LANDING_WEIGHT_MIN_FRACTION = 0.4
+WEIGHT_RATIO_LIMIT = 2.0
+TEXT_MAX = 500
+
+
+# --------------------------------------------------------------------------------------------
+# Errors
+# --------------------------------------------------------------------------------------------
+class InvariantError(DomainError):
+    """A model invariant failed. ``field`` is the dotted path of the field inside the model."""
+
+    def __init__(self, message: str, *, field: str = "") -> None:
+        self.message = message
+        self.field = field
+        super().__init__(f"{field}: {message}" if field else message)
+
+
+class FieldError(DataFileError):
+    """A `DataFileError` raised while reading a mapping (no file or line yet).
+
+    ``context`` is the dotted path shown to the user; ``locator`` is the dotted path whose line
+    the loader should report (the key itself for an unknown key, the parent mapping for a
+    missing one).
+    """
+
+    def __init__(self, message: str, *, context: str = "", locator: str | None = None) -> None:
+        super().__init__(message, context=context or None)
+        self.locator = context if locator is None else locator
+
+
+# --------------------------------------------------------------------------------------------
+# Small helpers: wording, paths, checks
+# --------------------------------------------------------------------------------------------
+_UNIT_WORDS = (
+    ("_deg_per_s", "degrees per second"),
+    ("_deg_mag", "degrees magnetic"),
+    ("_deg", "degrees"),
+    ("_kt", "knots"),
+    ("_ft", "feet"),
+    ("_lb", "pounds"),
+    ("_nm", "nautical miles"),
+    ("_sm", "statute miles"),
+    ("_hpa", "hectopascals"),
+    ("_inhg", "inches of mercury"),
+    ("_m", "metres"),
+    ("_c", "degrees Celsius"),
+    ("_fraction", ""),
+)
+
+
+def _a_number(name: str, unit: str | None = None) -> str:
+    """'a number in feet' for 'elevation_ft' (the unit comes from the name's suffix)."""
+    if unit is None:
+        unit = next((w for suffix, w in _UNIT_WORDS if name.endswith(suffix)), "")
+        if name.endswith("_fraction"):
+            return "a fraction"
+    return f"a number in {unit}" if unit else "a number"
+
+
+def _fmt(value: float) -> str:
+    """A number as a person writes it: 20000, 1.25, -7.5."""
+    if isinstance(value, bool):
+        return "true" if value else "false"
+    if isinstance(value, int):
+        return str(value)
+    if math.isfinite(value) and float(value).is_integer():
+        return str(int(value))
+    return f"{value:.10g}"
+
+
+def _describe(value: Any) -> str:
+    """What the user wrote, for 'got ...'."""
+    if value is None:
+        return "an empty value"
+    if isinstance(value, bool):
+        return "true" if value else "false"
+    if isinstance(value, numbers.Real):
+        return _fmt(float(value)) if not isinstance(value, numbers.Integral) else str(int(value))
+    if isinstance(value, str):
+        return repr(value if len(value) <= 40 else value[:37] + "...")
+    if isinstance(value, Mapping):
+        return "a mapping"
+    if isinstance(value, (list, tuple)):
+        return "a list"
+    if isinstance(value, _dt.datetime):
+        return "a date and time"
+    if isinstance(value, _dt.date):
+        return "a date"
+    if isinstance(value, bytes):
+        return "binary data"
+    return f"a {type(value).__name__}"
+
+
+def did_you_mean(word: str, options: Any) -> str:
+    """' (did you mean 'x'?)' for the closest option, or ''."""
+    options = list(options)
+    lowered = {o.lower(): o for o in options}
+    match = difflib.get_close_matches(str(word).lower(), list(lowered), n=1, cutoff=0.6)
+    return f" (did you mean '{lowered[match[0]]}'?)" if match else ""
+
+
+def _one_of(options: Any) -> str:
+    quoted = [f"'{o}'" for o in options]
+    return quoted[0] if len(quoted) == 1 else ", ".join(quoted[:-1]) + " or " + quoted[-1]
+
+
+def join_path(path: str, name: str) -> str:
+    """'runways[1]' + 'threshold_b' -> 'runways[1].threshold_b'; 'a' + '[2]' -> 'a[2]'."""
+    if not path:
+        return name
+    if not name:
+        return path
+    return f"{path}{name}" if name.startswith("[") else f"{path}.{name}"
+
+
+def _set(obj: Any, name: str, value: Any) -> None:
+    object.__setattr__(obj, name, value)
+
+
+def _num(obj: Any, name: str, rng: Range | None = None, *, optional: bool = False,
+         unit: str | None = None) -> float | None:
+    """Check a numeric field (type, finiteness, range); store it as a float."""
+    value = getattr(obj, name)
+    what = _a_number(name, unit)
+    if value is None:
+        if optional:
+            return None
+        raise InvariantError(f"expected {what}, got an empty value", field=name)
+    if isinstance(value, bool) or not isinstance(value, numbers.Real):
+        raise InvariantError(f"expected {what}, got {_describe(value)}", field=name)
+    number = float(value)
+    if not math.isfinite(number):
+        raise InvariantError(f"expected a finite {what[2:]}, got {_fmt(number)}", field=name)
+    if rng is not None and number not in rng:
+        raise InvariantError(
+            f"expected {what} between {_fmt(rng.lo)} and {_fmt(rng.hi)}, got {_fmt(number)}",
+            field=name)
+    _set(obj, name, number)
+    return number
+
+
+def _text(obj: Any, name: str, *, optional: bool = False, empty_ok: bool = False,
+          choices: tuple[str, ...] | None = None) -> str | None:
+    """Check a text field; choices are matched case-insensitively and stored in lower case."""
+    value = getattr(obj, name)
+    if value is None and optional:
+        return None
+    if choices is not None:
+        if isinstance(value, str) and value.strip().lower() in choices:
+            value = value.strip().lower()
+            _set(obj, name, value)
+            return value
+        hint = did_you_mean(value, choices) if isinstance(value, str) else ""
+        raise InvariantError(f"expected {_one_of(choices)}, got {_describe(value)}{hint}", field=name)
+    if not isinstance(value, str):
+        raise InvariantError(f"expected text, got {_describe(value)}", field=name)
+    value = value.strip()
+    if not value and not empty_ok:
+        raise InvariantError("expected text, got an empty value", field=name)
+    if len(value) > TEXT_MAX:
+        raise InvariantError(f"expected at most {TEXT_MAX} characters, got {len(value)}", field=name)
+    _set(obj, name, value)
+    return value
+
+
+def _flag(obj: Any, name: str) -> bool:
+    value = getattr(obj, name)
+    if not isinstance(value, bool):
+        raise InvariantError(f"expected true or false, got {_describe(value)}", field=name)
+    return value
+
+
+_DESIGNATOR = re.compile(r"(0?[1-9]|[12][0-9]|3[0-6])([LCR]?)")
+
+
+def normalise_designator(value: Any) -> str | None:
+    """'9' -> '09', '27l' -> '27L', 27 -> '27'; None if it is not a runway designator."""
+    if isinstance(value, bool):
+        return None
+    if isinstance(value, numbers.Integral):
+        value = str(int(value))
+    if not isinstance(value, str):
+        return None
+    m = _DESIGNATOR.fullmatch(value.strip().upper())
+    if not m:
+        return None
+    return f"{int(m.group(1)):02d}{m.group(2)}"
+
+
+def _designator(obj: Any, name: str, *, optional: bool = False) -> str | None:
+    value = getattr(obj, name)
+    if value is None and optional:
+        return None
+    norm = normalise_designator(value)
+    if norm is None:
+        raise InvariantError(
+            f"expected a runway designator such as '09' or '27L', got {_describe(value)}", field=name)
+    _set(obj, name, norm)
+    return norm
+
+
+def _items(obj: Any, name: str, cls: type, *, min_items: int = 0, what: str = "") -> tuple[Any, ...]:
+    """Check a sequence field holds `cls` instances; store it as a tuple."""
+    value = getattr(obj, name)
+    what = what or cls.__name__
+    if isinstance(value, (str, bytes, Mapping)) or not hasattr(value, "__iter__"):
+        raise InvariantError(f"expected a list of {what}, got {_describe(value)}", field=name)
+    items = tuple(value)
+    for i, item in enumerate(items):
+        if not isinstance(item, cls):
+            raise InvariantError(f"expected {what}, got {_describe(item)}", field=f"{name}[{i}]")
+    if len(items) < min_items:
+        raise InvariantError(f"expected at least {min_items} {what}, got an empty list", field=name)
+    _set(obj, name, items)
+    return items
+
+
+def _instance(obj: Any, name: str, cls: type, *, optional: bool = False) -> None:
+    value = getattr(obj, name)
+    if value is None and optional:
+        return
+    if not isinstance(value, cls):
+        raise InvariantError(f"expected {cls.__name__}, got {_describe(value)}", field=name)
+
+
+def _distance_m(lat1: float, lon1: float, lat2: float, lon2: float) -> float:
+    """Great-circle distance (haversine on the mean sphere; plausibility checks only)."""
+    p1, p2 = math.radians(lat1), math.radians(lat2)
+    dp, dl = p2 - p1, math.radians(lon2 - lon1)
+    h = math.sin(dp / 2) ** 2 + math.cos(p1) * math.cos(p2) * math.sin(dl / 2) ** 2
+    return 2 * EARTH_MEAN_RADIUS_M * math.asin(min(1.0, math.sqrt(h)))
+
+
+def _bearing_deg_true(lat1: float, lon1: float, lat2: float, lon2: float) -> float:
+    """Initial great-circle bearing from point 1 to point 2, [0, 360)."""
+    p1, p2 = math.radians(lat1), math.radians(lat2)
+    dl = math.radians(lon2 - lon1)
+    y = math.sin(dl) * math.cos(p2)
+    x = math.cos(p1) * math.sin(p2) - math.sin(p1) * math.cos(p2) * math.cos(dl)
+    return math.degrees(math.atan2(y, x)) % 360.0
+
+
+def _angle_diff_deg(a: float, b: float) -> float:
+    """Smallest absolute difference of two directions, [0, 180]."""
+    return abs((a - b + 180.0) % 360.0 - 180.0)
+
+
+def _plural(what: str) -> str:
+    """'a configuration' -> 'configurations', 'an approach' -> 'approaches'."""
+    noun = what.split(" ", 1)[1] if what.startswith(("a ", "an ")) else what
+    return noun + ("es" if noun.endswith("ch") else "s")
+
+
+def _loose(name: str) -> str:
+    """'RNAV (GPS) RWY 09' -> 'rnavgpsrwy09' (for forgiving look-ups by name)."""
+    return re.sub(r"[^a-z0-9]", "", name.lower())
+
+
+# --------------------------------------------------------------------------------------------
+# Reading mappings
+# --------------------------------------------------------------------------------------------
+class _Model:
+    """Mixin giving frozen dataclasses ``from_mapping`` / ``to_mapping``.
+
+    Subclasses declare nested models in ``_nested`` (a field holding one model) and
+    ``_nested_seq`` (a field holding a tuple of models), and name themselves in ``_what`` for
+    messages. ``_read`` may be overridden for fields whose file form differs from the model.
+    """
+
+    __slots__ = ()
+    _what: ClassVar[str] = "value"
+    _nested: ClassVar[dict[str, type]] = {}
+    _nested_seq: ClassVar[dict[str, type]] = {}
+    _extra_keys: ClassVar[tuple[str, ...]] = ()
+
+    @classmethod
+    def keys(cls) -> tuple[str, ...]:
+        """Every key the file form of this model accepts, in the order files should use."""
+        return cls._extra_keys + tuple(f.name for f in fields(cls))  # type: ignore[arg-type]
+
+    @classmethod
+    def required_keys(cls) -> tuple[str, ...]:
+        return tuple(f.name for f in fields(cls)  # type: ignore[arg-type]
+                     if f.default is MISSING and f.default_factory is MISSING)
+
+    @classmethod
+    def from_mapping(cls, data: Any, *, path: str = "") -> Any:
+        """Build the model from a mapping; errors are `FieldError` with the dotted path."""
+        if not isinstance(data, Mapping):
+            raise FieldError(f"expected a mapping ({cls._what}), got {_describe(data)}", context=path)
+        allowed = cls.keys()
+        for key in data:
+            if key not in allowed:
+                hint = did_you_mean(key, allowed) or f" (allowed: {', '.join(allowed)})"
+                raise FieldError(f"unknown key '{key}'{hint}", context=path,
+                                 locator=join_path(path, str(key)))
+        for key in cls.required_keys():
+            if key not in data:
+                raise FieldError(f"missing required key '{key}'", context=path)
+        kwargs = cls._read(data, path)
+        return cls._build(kwargs, path)
+
+    @classmethod
+    def _read(cls, data: Mapping[str, Any], path: str) -> dict[str, Any]:
+        kwargs: dict[str, Any] = {}
+        for f in fields(cls):  # type: ignore[arg-type]
+            if f.name not in data:
+                continue
+            value = data[f.name]
+            sub = join_path(path, f.name)
+            if f.name in cls._nested and value is not None:
+                value = cls._nested[f.name].from_mapping(value, path=sub)
+            elif f.name in cls._nested_seq:
+                item_cls = cls._nested_seq[f.name]
+                if not isinstance(value, list):
+                    raise FieldError(f"expected a list of {_plural(item_cls._what)}, got {_describe(value)}",
+                                     context=sub)
+                value = tuple(item_cls.from_mapping(item, path=f"{sub}[{i}]")
+                              for i, item in enumerate(value))
+            kwargs[f.name] = value
+        return kwargs
+
+    @classmethod
+    def _build(cls, kwargs: dict[str, Any], path: str) -> Any:
+        try:
+            return cls(**kwargs)
+        except InvariantError as exc:
+            raise FieldError(exc.message, context=join_path(path, exc.field)) from None
+
+    def to_mapping(self) -> dict[str, Any]:
+        """Plain dicts, lists and scalars; ``from_mapping(m.to_mapping()) == m``. None is left out."""
+        out: dict[str, Any] = {}
+        for f in fields(self):  # type: ignore[arg-type]
+            value = getattr(self, f.name)
+            if value is None:
+                continue
+            if isinstance(value, _Model):
+                value = value.to_mapping()
+            elif isinstance(value, tuple):
+                value = [v.to_mapping() if isinstance(v, _Model) else v for v in value]
+            out[f.name] = value
+        return out
+
+
+def _check_header(data: Mapping[str, Any], kind: str, path: str) -> None:
+    """Check the optional ``kind`` and ``format_version`` keys of a top-level file mapping."""
+    if "kind" in data and data["kind"] != kind:
+        got = data["kind"]
+        hint = did_you_mean(got, KINDS) if isinstance(got, str) and got not in KINDS else ""
+        raise FieldError(f"expected '{kind}', got {_describe(got)}{hint}", context=join_path(path, "kind"))
+    if "format_version" in data:
+        version = data["format_version"]
+        if isinstance(version, bool) or version != FORMAT_VERSION:
+            raise FieldError(f"expected {FORMAT_VERSION} (the only format this version reads), "
+                             f"got {_describe(version)}", context=join_path(path, "format_version"))
+
+
+# --------------------------------------------------------------------------------------------
+# Aircraft profile
+# --------------------------------------------------------------------------------------------
+@dataclass(frozen=True, slots=True, kw_only=True)
+class WindAdditive(_Model):
+    """The speed added to VREF for wind: a fraction of the headwind plus a fraction of the gust
+    increment, not below ``min_kt`` and not above ``max_kt``.
+
+    The common practice "half the steady headwind plus the full gust increment, 5 to 20 kt" is
+    ``headwind_fraction=0.5, gust_fraction=1.0, min_kt=5, max_kt=20``. The aircraft flight manual
+    governs.
+    """
+
+    _what: ClassVar[str] = "a wind additive"
+
+    headwind_fraction: float = 0.5
+    gust_fraction: float = 1.0
+    min_kt: float = 0.0
+    max_kt: float = 20.0
+
+    def __post_init__(self) -> None:
+        _num(self, "headwind_fraction", FRACTION)
+        _num(self, "gust_fraction", FRACTION)
+        _num(self, "min_kt", ADDITIVE_KT)
+        _num(self, "max_kt", ADDITIVE_KT)
+        if self.max_kt < self.min_kt:
+            raise InvariantError(f"expected at least min_kt ({_fmt(self.min_kt)}), got {_fmt(self.max_kt)}",
+                                 field="max_kt")
+
+    def additive_kt(self, *, headwind_kt: float, gust_increment_kt: float) -> float:
+        """The additive for a headwind component (negative = tailwind, counts as zero) and a
+        gust increment (gust minus steady speed) [kt]."""
+        raw = self.headwind_fraction * max(headwind_kt, 0.0) + self.gust_fraction * max(gust_increment_kt, 0.0)
+        return min(self.max_kt, max(self.min_kt, raw))
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class FamiliarPattern(_Model):
+    """The visual pattern the crew flies every day, for comparing sight pictures.
+
+    ``height_ft`` is above the field. The lateral offset of the downwind leg from the runway is
+    given either directly (``offset_nm``) or by the speed and bank of the continuous 180-degree
+    turn from downwind to final (``speed_kt`` and ``bank_deg``; the offset is then the turn's
+    diameter, which the sight-picture code computes).
+    """
+
+    _what: ClassVar[str] = "a familiar pattern"
+
+    height_ft: float
+    offset_nm: float | None = None
+    speed_kt: float | None = None
+    bank_deg: float | None = None
+
+    def __post_init__(self) -> None:
+        _num(self, "height_ft", PATTERN_HEIGHT_FT)
+        _num(self, "offset_nm", PATTERN_OFFSET_NM, optional=True)
+        _num(self, "speed_kt", SPEED_KT, optional=True)
+        _num(self, "bank_deg", BANK_DEG, optional=True)
+        turn = (self.speed_kt is not None, self.bank_deg is not None)
+        if self.offset_nm is not None and any(turn):
+            raise InvariantError("give either offset_nm, or speed_kt and bank_deg, not both")
+        if self.offset_nm is None:
+            if not any(turn):
+                raise InvariantError("missing the offset: give offset_nm, or speed_kt and bank_deg")
+            if not turn[0]:
+                raise InvariantError("missing required key 'speed_kt' (bank_deg needs speed_kt)")
+            if not turn[1]:
+                raise InvariantError("missing required key 'bank_deg' (speed_kt needs bank_deg)")
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Configuration(_Model):
+    """One flap/gear configuration. Speeds are at the profile's reference weight, 1 g.
+
+    Angles of attack are in the profile's ``aoa_unit``: ``aoa_ref`` at VREF (1 g, reference
+    weight), ``aoa_stall`` at the stall, ``aoa_buffet`` (optional) at the onset of buffet.
+    ``bank_target_deg`` is the bank the crew plans to fly when circling, ``bank_limit_deg`` the
+    most the operator or the flight manual allows.
+    """
+
+    _what: ClassVar[str] = "a configuration"
+
+    name: str
+    vref_kt: float
+    circling_speed_kt: float
+    vs1g_kt: float
+    aoa_ref: float
+    aoa_stall: float
+    aoa_buffet: float | None = None
+    bank_target_deg: float
+    bank_limit_deg: float
+
+    def __post_init__(self) -> None:
+        _text(self, "name")
+        _num(self, "vref_kt", SPEED_KT)
+        _num(self, "circling_speed_kt", SPEED_KT)
+        _num(self, "vs1g_kt", SPEED_KT)
+        aoa = "angle of attack"
+        _num(self, "aoa_ref", AOA_ANY, unit=aoa)
+        _num(self, "aoa_stall", AOA_ANY, unit=aoa)
+        _num(self, "aoa_buffet", AOA_ANY, optional=True, unit=aoa)
+        _num(self, "bank_target_deg", BANK_DEG)
+        _num(self, "bank_limit_deg", BANK_DEG)
+        if self.vref_kt <= self.vs1g_kt:
+            raise InvariantError(f"expected above vs1g_kt ({_fmt(self.vs1g_kt)}), got {_fmt(self.vref_kt)}",
+                                 field="vref_kt")
+        if self.circling_speed_kt < self.vref_kt:
+            raise InvariantError(f"expected at least vref_kt ({_fmt(self.vref_kt)}), "
+                                 f"got {_fmt(self.circling_speed_kt)}", field="circling_speed_kt")
+        if self.aoa_stall <= self.aoa_ref:
+            raise InvariantError(f"expected above aoa_ref ({_fmt(self.aoa_ref)}), got {_fmt(self.aoa_stall)}",
+                                 field="aoa_stall")
+        if self.aoa_buffet is not None and not self.aoa_ref < self.aoa_buffet <= self.aoa_stall:
+            raise InvariantError(f"expected above aoa_ref ({_fmt(self.aoa_ref)}) and at most aoa_stall "
+                                 f"({_fmt(self.aoa_stall)}), got {_fmt(self.aoa_buffet)}", field="aoa_buffet")
+        if self.bank_target_deg > self.bank_limit_deg:
+            raise InvariantError(f"expected at most bank_limit_deg ({_fmt(self.bank_limit_deg)}), "
+                                 f"got {_fmt(self.bank_target_deg)}", field="bank_target_deg")
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class AircraftProfile(_Model):
+    """An aircraft as the crew flies it: speeds, angles of attack, habits.
+
+    Speeds in the configurations are at ``reference_weight_lb``; at another weight W the speeds
+    scale with sqrt(W / W_ref) (same lift coefficient, so the same angle of attack).
+
+    The approach category is fixed by the speed at the maximum certificated landing weight
+    (14 CFR 97.3; ICAO Doc 8168 Vol I Part I Sec 4 Ch 1): ``category_speed_kt`` when the flight
+    manual publishes it; otherwise the lowest VREF of the configurations (the full landing
+    configuration) scaled to ``max_landing_weight_lb``. ``vso_kt`` (optional) is the stall speed
+    in the landing configuration at maximum landing weight; `approach_category_speed_kt` gives
+    1.3 VSO when asked (14 CFR 97.3: "1.3 VSO if VREF is not specified").
+    """
+
+    _what: ClassVar[str] = "an aircraft profile"
+    _extra_keys: ClassVar[tuple[str, ...]] = ("kind", "format_version")
+    _nested: ClassVar[dict[str, type]] = {}
+    _nested_seq: ClassVar[dict[str, type]] = {}
+
+    name: str
+    description: str = ""
+    reference_weight_lb: float
+    max_landing_weight_lb: float
+    aoa_unit: str = "deg"
+    roll_rate_deg_per_s: float
+    stall_warning: str
+    aoa_indexer: bool = False
+    wind_additive: WindAdditive = field(default_factory=WindAdditive)
+    familiar_pattern: FamiliarPattern
+    configurations: tuple[Configuration, ...]
+    default_configuration: str
+    vso_kt: float | None = None
+    category_speed_kt: float | None = None
+
+    def __post_init__(self) -> None:
+        _text(self, "name")
+        _text(self, "description", empty_ok=True)
+        _num(self, "reference_weight_lb", WEIGHT_LB)
+        _num(self, "max_landing_weight_lb", WEIGHT_LB)
+        ratio = self.max_landing_weight_lb / self.reference_weight_lb
+        if not 1 / WEIGHT_RATIO_LIMIT <= ratio <= WEIGHT_RATIO_LIMIT:
+            raise InvariantError(
+                f"expected within a factor of {_fmt(WEIGHT_RATIO_LIMIT)} of reference_weight_lb "
+                f"({_fmt(self.reference_weight_lb)}), got {_fmt(self.max_landing_weight_lb)}",
+                field="max_landing_weight_lb")
+        aoa_unit = _text(self, "aoa_unit")
+        if aoa_unit is not None and aoa_unit.lower() in ("deg", "degrees", "degree"):
+            _set(self, "aoa_unit", "deg")
+        _num(self, "roll_rate_deg_per_s", ROLL_RATE_DEG_PER_S)
+        _text(self, "stall_warning", choices=STALL_WARNINGS)
+        _flag(self, "aoa_indexer")
+        _instance(self, "wind_additive", WindAdditive)
+        _instance(self, "familiar_pattern", FamiliarPattern)
+        configs = _items(self, "configurations", Configuration, min_items=1, what="configuration")
+        _text(self, "default_configuration")
+        _num(self, "vso_kt", SPEED_KT, optional=True)
+        _num(self, "category_speed_kt", SPEED_KT, optional=True)
+        seen: dict[str, int] = {}
+        for i, c in enumerate(configs):
+            key = c.name.lower()
+            if key in seen:
+                raise InvariantError(f"duplicate configuration name '{c.name}' (also configurations[{seen[key]}])",
+                                     field=f"configurations[{i}].name")
+            seen[key] = i
+            if self.aoa_unit == "deg":
+                for name, rng in (("aoa_ref", AOA_REF_DEG), ("aoa_stall", AOA_STALL_DEG)):
+                    value = getattr(c, name)
+                    if value not in rng:
+                        raise InvariantError(
+                            f"expected an angle of attack in degrees between {_fmt(rng.lo)} and "
+                            f"{_fmt(rng.hi)}, got {_fmt(value)}", field=f"configurations[{i}].{name}")
+        if self.default_configuration.lower() not in seen:
+            names = [c.name for c in configs]
+            hint = did_you_mean(self.default_configuration, names) or f" (configurations: {', '.join(names)})"
+            raise InvariantError(f"no configuration named '{self.default_configuration}'{hint}",
+                                 field="default_configuration")
+        if self.vso_kt is not None:
+            landing = min(configs, key=lambda c: c.vref_kt)
+            vref_mlw = self.vref_kt_at(self.max_landing_weight_lb, landing.name)
+            if self.vso_kt >= vref_mlw:
+                raise InvariantError(
+                    f"expected below the landing VREF at max landing weight ({vref_mlw:.0f}), "
+                    f"got {_fmt(self.vso_kt)}", field="vso_kt")
+
+    def configuration(self, name: str | None = None) -> Configuration:
+        """The configuration called `name` (case-insensitive), or the default one."""
+        wanted = (name or self.default_configuration).strip().lower()
+        for c in self.configurations:
+            if c.name.lower() == wanted:
+                return c
+        names = [c.name for c in self.configurations]
+        raise DomainError(f"aircraft profile '{self.name}' has no configuration '{name}'"
+                          f"{did_you_mean(name or '', names)} (configurations: {', '.join(names)})")
+
+    def weight_speed_factor(self, weight_lb: float) -> float:
+        """sqrt(W / W_ref): the factor on every speed of the profile at weight W (same AoA)."""
+        if not (weight_lb > 0 and math.isfinite(weight_lb)):
+            raise DomainError(f"weight must be a positive number of pounds, got {weight_lb!r}")
+        return math.sqrt(weight_lb / self.reference_weight_lb)
+
+    def vref_kt_at(self, weight_lb: float, configuration: str | None = None) -> float:
+        """VREF of a configuration scaled to a weight [kt]."""
+        return self.configuration(configuration).vref_kt * self.weight_speed_factor(weight_lb)
+
+    def approach_category_speed_kt(self, *, use_vso: bool = False) -> float:
+        """The speed that fixes the approach category, at maximum landing weight [kt].
+
+        ``category_speed_kt`` if published; else the lowest VREF of the configurations scaled to
+        the maximum landing weight; with ``use_vso=True`` and a ``vso_kt``, 1.3 VSO (14 CFR 97.3
+        "VREF, or if VREF is not specified, 1.3 VSO").
+        """
+        if self.category_speed_kt is not None:
+            return self.category_speed_kt
+        if use_vso:
+            if self.vso_kt is None:
+                raise DomainError(f"aircraft profile '{self.name}' gives no vso_kt")
+            return 1.3 * self.vso_kt
+        landing = min(self.configurations, key=lambda c: c.vref_kt)
+        return self.vref_kt_at(self.max_landing_weight_lb, landing.name)
+
+    @classmethod
+    def from_mapping(cls, data: Any, *, path: str = "") -> AircraftProfile:
+        if isinstance(data, Mapping):
+            _check_header(data, KIND_PROFILE, path)
+        return _Model.from_mapping.__func__(cls, data, path=path)  # type: ignore[attr-defined]
+
+    def to_mapping(self) -> dict[str, Any]:
+        return {"kind": KIND_PROFILE, "format_version": FORMAT_VERSION, **_Model.to_mapping(self)}
+
+
+AircraftProfile._nested = {"wind_additive": WindAdditive, "familiar_pattern": FamiliarPattern}
+AircraftProfile._nested_seq = {"configurations": Configuration}
+
+
+# --------------------------------------------------------------------------------------------
+# Airfield, runways, obstacles, approaches
+# --------------------------------------------------------------------------------------------
+@dataclass(frozen=True, slots=True, kw_only=True)
+class LatLon(_Model):
+    """A point on the WGS-84 ellipsoid [degrees; north and east positive]."""
+
+    _what: ClassVar[str] = "a position"
+
+    lat_deg: float
+    lon_deg: float
+
+    def __post_init__(self) -> None:
+        _num(self, "lat_deg", LAT_DEG)
+        _num(self, "lon_deg", LON_DEG)
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Threshold(_Model):
+    """One runway threshold (landing end): position, elevation, threshold crossing height and
+    the glide path the visual approach aids (or the crew) fly to it."""
+
+    _what: ClassVar[str] = "a runway threshold"
+
+    designator: str
+    lat_deg: float
+    lon_deg: float
+    elevation_ft: float
+    tch_ft: float = 50.0
+    glide_path_deg: float = 3.0
+
+    def __post_init__(self) -> None:
+        _designator(self, "designator")
+        _num(self, "lat_deg", LAT_DEG)
+        _num(self, "lon_deg", LON_DEG)
+        _num(self, "elevation_ft", ELEVATION_FT)
+        _num(self, "tch_ft", TCH_FT)
+        _num(self, "glide_path_deg", GLIDE_PATH_DEG)
+
+
+_RECIPROCAL_SUFFIX = {"": "", "L": "R", "R": "L", "C": "C"}
+
+
+def reciprocal_designator(designator: str) -> str:
+    """'09' -> '27', '04L' -> '22R'."""
+    number, suffix = int(designator[:2]), designator[2:]
+    other = (number + 18 - 1) % 36 + 1
+    return f"{other:02d}{_RECIPROCAL_SUFFIX[suffix]}"
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Runway(_Model):
+    """A runway: its two thresholds (reciprocal designators, 300 m to 6 km apart)."""
+
+    _what: ClassVar[str] = "a runway"
+
+    threshold_a: Threshold
+    threshold_b: Threshold
+    width_m: float | None = None
+
+    def __post_init__(self) -> None:
+        _instance(self, "threshold_a", Threshold)
+        _instance(self, "threshold_b", Threshold)
+        _num(self, "width_m", RUNWAY_WIDTH_M, optional=True)
+        a, b = self.threshold_a, self.threshold_b
+        if b.designator != reciprocal_designator(a.designator):
+            raise InvariantError(
+                f"expected '{reciprocal_designator(a.designator)}' (the reciprocal of '{a.designator}'), "
+                f"got '{b.designator}'", field="threshold_b.designator")
+        length_m = self.length_m
+        if length_m not in RUNWAY_LENGTH_M:
+            raise InvariantError(
+                f"thresholds '{a.designator}' and '{b.designator}' are {length_m:.0f} m apart; expected "
+                f"{_fmt(RUNWAY_LENGTH_M.lo)} m to {_fmt(RUNWAY_LENGTH_M.hi / units.KM_TO_M)} km",
+                field="threshold_b")
+
+    @property
+    def designator(self) -> str:
+        """'09/27'."""
+        return f"{self.threshold_a.designator}/{self.threshold_b.designator}"
+
+    @property
+    def length_m(self) -> float:
+        """Threshold-to-threshold distance (spherical; for display and plausibility) [m]."""
+        a, b = self.threshold_a, self.threshold_b
+        return _distance_m(a.lat_deg, a.lon_deg, b.lat_deg, b.lon_deg)
+
+    def ends(self, designator: str) -> tuple[Threshold, Threshold] | None:
+        """(landing threshold, opposite threshold) for a designator of this runway, else None."""
+        d = normalise_designator(designator)
+        if d == self.threshold_a.designator:
+            return self.threshold_a, self.threshold_b
+        if d == self.threshold_b.designator:
+            return self.threshold_b, self.threshold_a
+        return None
+
+    def matches(self, text: str) -> bool:
+        """True for '27', '09/27' or '27/09' naming this runway."""
+        parts = [normalise_designator(p) for p in str(text).split("/")]
+        mine = {self.threshold_a.designator, self.threshold_b.designator}
+        if len(parts) == 1:
+            return parts[0] in mine
+        return len(parts) == 2 and set(parts) == mine
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Obstacle(_Model):
+    """A charted obstacle. ``elevation_ft`` is the top, above mean sea level."""
+
+    _what: ClassVar[str] = "an obstacle"
+
+    name: str
+    kind: str = "other"
+    lat_deg: float
+    lon_deg: float
+    elevation_ft: float
+    height_agl_ft: float | None = None
+
+    def __post_init__(self) -> None:
+        _text(self, "name")
+        _text(self, "kind", choices=OBSTACLE_KINDS)
+        _num(self, "lat_deg", LAT_DEG)
+        _num(self, "lon_deg", LON_DEG)
+        _num(self, "elevation_ft", ALTITUDE_FT)
+        _num(self, "height_agl_ft", OBSTACLE_HEIGHT_AGL_FT, optional=True)
+        if self.height_agl_ft is not None and self.elevation_ft - self.height_agl_ft not in ELEVATION_FT:
+            raise InvariantError(
+                f"the ground under the obstacle would be at {_fmt(self.elevation_ft - self.height_agl_ft)} ft "
+                f"(elevation_ft minus height_agl_ft); expected {_fmt(ELEVATION_FT.lo)} to "
+                f"{_fmt(ELEVATION_FT.hi)} ft", field="height_agl_ft")
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Fix(_Model):
+    """A named point of the approach (final approach fix, missed approach point)."""
+
+    _what: ClassVar[str] = "a fix"
+
+    name: str
+    lat_deg: float
+    lon_deg: float
+    altitude_ft: float | None = None
+
+    def __post_init__(self) -> None:
+        _text(self, "name")
+        _num(self, "lat_deg", LAT_DEG)
+        _num(self, "lon_deg", LON_DEG)
+        _num(self, "altitude_ft", ALTITUDE_FT, optional=True)
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class _CategoryMinimum(_Model):
+    """Minimums for one approach category: an MDA (feet MSL) and a visibility (statute miles or
+    metres, as charted), or 'not authorised' with an optional reason."""
+
+    _what: ClassVar[str] = "a category minimum"
+
+    category: str
+    mda_ft: float | None = None
+    visibility_sm: float | None = None
+    visibility_m: float | None = None
+    not_authorised: bool = False
+    reason: str = ""
+
+    def __post_init__(self) -> None:
+        category = self.category
+        if not isinstance(category, str) or category.strip().upper() not in CATEGORIES:
+            raise InvariantError(f"expected {_one_of(CATEGORIES)}, got {_describe(category)}", field="category")
+        _set(self, "category", category.strip().upper())
+        _flag(self, "not_authorised")
+        _text(self, "reason", empty_ok=True)
+        _num(self, "mda_ft", ALTITUDE_FT, optional=True)
+        _num(self, "visibility_sm", VISIBILITY_SM, optional=True)
+        _num(self, "visibility_m", VISIBILITY_M, optional=True)
+        given = [k for k in ("mda_ft", "visibility_sm", "visibility_m") if getattr(self, k) is not None]
+        if self.not_authorised:
+            if given:
+                raise InvariantError(f"expected no {given[0]} for a category that is not authorised",
+                                     field=given[0])
+            return
+        if self.mda_ft is None:
+            raise InvariantError("missing required key 'mda_ft' (or not_authorised: true)")
+        if self.visibility_sm is None and self.visibility_m is None:
+            raise InvariantError("missing the visibility: give visibility_sm or visibility_m")
+        if self.visibility_sm is not None and self.visibility_m is not None:
+            raise InvariantError("give either visibility_sm or visibility_m, not both", field="visibility_m")
+
+    @property
+    def authorised(self) -> bool:
+        return not self.not_authorised
+
+    @property
+    def visibility_as_charted_m(self) -> float | None:
+        """The visibility in metres, whichever unit the chart used [m]."""
+        if self.visibility_m is not None:
+            return self.visibility_m
+        if self.visibility_sm is not None:
+            return self.visibility_sm * units.SM_TO_M
+        return None
+
+    @classmethod
+    def from_category(cls, category: str, data: Any, *, path: str) -> Any:
+        """Read the file form (keyed by category, so without a 'category' key)."""
+        if isinstance(data, Mapping) and "category" in data:
+            raise FieldError("unknown key 'category' (the category is the key above)",
+                             context=path, locator=join_path(path, "category"))
+        if not isinstance(data, Mapping):
+            raise FieldError(f"expected a mapping ({cls._what}), got {_describe(data)}", context=path)
+        return cls.from_mapping({**data, "category": category}, path=path)
+
+    def to_mapping(self) -> dict[str, Any]:
+        out = _Model.to_mapping(self)
+        del out["category"]
+        if not self.not_authorised:
+            del out["not_authorised"]
+        if not self.reason:
+            del out["reason"]
+        return out
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class CirclingMinimum(_CategoryMinimum):
+    """Circling minimums for one category (MDA in feet MSL), or not authorised."""
+
+    _what: ClassVar[str] = "a circling minimum"
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class StraightInMinimum(_CategoryMinimum):
+    """Straight-in minimums for one category (MDA in feet MSL), or not authorised."""
+
+    _what: ClassVar[str] = "a straight-in minimum"
+
+
+def _read_by_category(value: Any, cls: Any, path: str) -> tuple[Any, ...]:
+    if not isinstance(value, Mapping):
+        raise FieldError(f"expected a mapping of categories A to E, got {_describe(value)}", context=path)
+    out = []
+    for key, item in value.items():
+        category = str(key).strip().upper()
+        if category not in CATEGORIES:
+            raise FieldError(f"unknown category '{key}' (expected {_one_of(CATEGORIES)})",
+                             context=path, locator=join_path(path, str(key)))
+        out.append(cls.from_category(category, item, path=join_path(path, str(key))))
+    return tuple(out)
+
+
+def _check_categories(obj: Any, name: str, cls: type, *, min_items: int) -> None:
+    items = _items(obj, name, cls, min_items=min_items, what=cls._what[2:])  # type: ignore[attr-defined]
+    seen = set()
+    for m in items:
+        if m.category in seen:
+            raise InvariantError(f"category {m.category} given twice", field=f"{name}.{m.category}")
+        seen.add(m.category)
+    _set(obj, name, tuple(sorted(items, key=lambda m: m.category)))
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class StraightIn(_Model):
+    """Straight-in minimums of an approach for its runway, per category."""
+
+    _what: ClassVar[str] = "straight-in minimums"
+
+    runway: str
+    minimums: tuple[StraightInMinimum, ...]
+
+    def __post_init__(self) -> None:
+        _designator(self, "runway")
+        _check_categories(self, "minimums", StraightInMinimum, min_items=1)
+
+    @classmethod
+    def _read(cls, data: Mapping[str, Any], path: str) -> dict[str, Any]:
+        kwargs = dict(data)
+        kwargs["minimums"] = _read_by_category(data["minimums"], StraightInMinimum,
+                                               join_path(path, "minimums"))
+        return kwargs
+
+    def to_mapping(self) -> dict[str, Any]:
+        return {"runway": self.runway, "minimums": {m.category: m.to_mapping() for m in self.minimums}}
+
+    def minimum(self, category: str) -> StraightInMinimum | None:
+        """The authorised minimum for a category, or None."""
+        return next((m for m in self.minimums if m.category == category.upper() and m.authorised), None)
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Sector(_Model):
+    """A sector where circling is not authorised, in one of two forms.
+
+    * bearings: ``threshold`` with ``from_deg_mag`` and ``to_deg_mag``: the sector spans the
+      bearings from that threshold measured clockwise from ``from_deg_mag`` to ``to_deg_mag``
+      (magnetic; 300 to 030 crosses north);
+    * side: ``runway`` ('09/27' or one end '27') with ``side`` ('north', 'east', 'south' or
+      'west', true compass): the half-plane on that side of the runway's centreline. The side
+      must lie at least 30 degrees off the centreline (north of a north-south runway is
+      meaningless); `briefer.core.geometry.side_of_centreline` builds the half-plane.
+    """
+
+    _what: ClassVar[str] = "a sector"
+
+    threshold: str | None = None
+    from_deg_mag: float | None = None
+    to_deg_mag: float | None = None
+    runway: str | None = None
+    side: str | None = None
+    reason: str = ""
+
+    def __post_init__(self) -> None:
+        bearing = [k for k in ("threshold", "from_deg_mag", "to_deg_mag") if getattr(self, k) is not None]
+        side = [k for k in ("runway", "side") if getattr(self, k) is not None]
+        if bearing and side:
+            raise InvariantError(f"give either threshold, from_deg_mag and to_deg_mag, or runway and side, "
+                                 f"not both (got {bearing[0]} and {side[0]})", field=side[0])
+        if not bearing and not side:
+            raise InvariantError("missing the sector: give threshold, from_deg_mag and to_deg_mag, "
+                                 "or runway and side")
+        _text(self, "reason", empty_ok=True)
+        if bearing:
+            for k in ("threshold", "from_deg_mag", "to_deg_mag"):
+                if getattr(self, k) is None:
+                    raise InvariantError(f"missing required key '{k}'")
+            _designator(self, "threshold")
+            _num(self, "from_deg_mag", COURSE_DEG)
+            _num(self, "to_deg_mag", COURSE_DEG)
+            if _angle_diff_deg(self.from_deg_mag, self.to_deg_mag) == 0:  # type: ignore[arg-type]
+                raise InvariantError(f"expected a bearing different from from_deg_mag "
+                                     f"({_fmt(self.from_deg_mag)}), got {_fmt(self.to_deg_mag)}",  # type: ignore[arg-type]
+                                     field="to_deg_mag")
+        else:
+            for k in ("runway", "side"):
+                if getattr(self, k) is None:
+                    raise InvariantError(f"missing required key '{k}'")
+            raw = self.runway
+            parts = [normalise_designator(p) for p in raw.split("/")] if isinstance(raw, str) else [
+                normalise_designator(raw)]
+            if len(parts) > 2 or None in parts:
+                raise InvariantError(f"expected a runway such as '09/27' or '27', got {_describe(raw)}",
+                                     field="runway")
+            _set(self, "runway", "/".join(parts))  # type: ignore[arg-type]
+            _text(self, "side", choices=SIDES)
+
+    @property
+    def kind(self) -> str:
+        """'bearings' or 'side'."""
+        return "bearings" if self.threshold is not None else "side"
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Approach(_Model):
+    """An instrument approach and its minimums.
+
+    ``runway`` is the threshold the final course serves, or None for a circling-only procedure.
+    ``map_fix`` is the missed approach point. ``criteria`` names the design criteria behind the
+    circling area: 'terps-legacy', 'terps-expanded' or 'icao'. ``circling`` holds a minimum per
+    category; a category that is absent is not published (treat as not authorised).
+    """
+
+    _what: ClassVar[str] = "an approach"
+
+    name: str
+    runway: str | None = None
+    final_course_deg_mag: float
+    faf: Fix
+    map_fix: Fix
+    criteria: str
+    rnav_gps: bool = False
+    circling: tuple[CirclingMinimum, ...]
+    not_authorised_sectors: tuple[Sector, ...] = ()
+    straight_in: StraightIn | None = None
+    missed_approach: str = ""
+
+    def __post_init__(self) -> None:
+        _text(self, "name")
+        _designator(self, "runway", optional=True)
+        _num(self, "final_course_deg_mag", COURSE_DEG)
+        _instance(self, "faf", Fix)
+        _instance(self, "map_fix", Fix)
+        if self.faf.altitude_ft is None:
+            raise InvariantError("missing required key 'altitude_ft'", field="faf")
+        _text(self, "criteria", choices=CRITERIA)
+        _flag(self, "rnav_gps")
+        _check_categories(self, "circling", CirclingMinimum, min_items=1)
+        _items(self, "not_authorised_sectors", Sector, what="sector")
+        _instance(self, "straight_in", StraightIn, optional=True)
+        _text(self, "missed_approach", empty_ok=True)
+        if self.straight_in is not None:
+            if self.runway is None:
+                raise InvariantError("a circling-only approach (no runway) has no straight-in minimums",
+                                     field="straight_in")
+            if self.straight_in.runway != self.runway:
+                raise InvariantError(f"expected '{self.runway}' (the approach's runway), "
+                                     f"got '{self.straight_in.runway}'", field="straight_in.runway")
+
+    @classmethod
+    def _read(cls, data: Mapping[str, Any], path: str) -> dict[str, Any]:
+        rest = {k: v for k, v in data.items() if k != "circling"}
+        kwargs = _Model._read.__func__(cls, rest, path)  # type: ignore[attr-defined]
+        if kwargs["faf"].altitude_ft is None:
+            raise FieldError("missing required key 'altitude_ft'", context=join_path(path, "faf"))
+        kwargs["circling"] = _read_by_category(data["circling"], CirclingMinimum, join_path(path, "circling"))
+        return kwargs
+
+    def to_mapping(self) -> dict[str, Any]:
+        out = _Model.to_mapping(self)
+        out["circling"] = {m.category: m.to_mapping() for m in self.circling}
+        return out
+
+    @property
+    def circling_only(self) -> bool:
+        """True when the procedure serves no runway (a circling-only, lettered procedure)."""
+        return self.runway is None
+
+    def circling_entry(self, category: str) -> CirclingMinimum | None:
+        """The circling entry for a category as published (authorised or not), or None."""
+        return next((m for m in self.circling if m.category == category.upper()), None)
+
+    def circling_minimum(self, category: str) -> CirclingMinimum | None:
+        """The authorised circling minimum for a category, or None (not authorised/published)."""
+        entry = self.circling_entry(category)
+        return entry if entry is not None and entry.authorised else None
+
+    def circling_not_authorised_reason(self, category: str) -> str | None:
+        """Why a category may not circle (None when it may)."""
+        entry = self.circling_entry(category)
+        if entry is None:
+            return f"no circling minimum published for category {category.upper()}"
+        if entry.not_authorised:
+            return entry.reason or f"circling not authorised for category {entry.category}"
+        return None
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Airfield(_Model):
+    """An airfield: reference point, elevation, magnetic variation, runways, obstacles, approaches.
+
+    ``magnetic_variation_deg`` is east positive: true = magnetic + variation.
+    """
+
+    _what: ClassVar[str] = "an airfield"
+    _extra_keys: ClassVar[tuple[str, ...]] = ("kind", "format_version")
+
+    ident: str
+    name: str
+    reference_point: LatLon
+    elevation_ft: float
+    magnetic_variation_deg: float
+    runways: tuple[Runway, ...]
+    obstacles: tuple[Obstacle, ...] = ()
+    approaches: tuple[Approach, ...]
+
+    def __post_init__(self) -> None:
+        ident = _text(self, "ident")
+        if ident is not None and not re.fullmatch(r"[A-Za-z0-9]{2,8}", ident):
+            raise InvariantError(f"expected 2 to 8 letters or digits, got {_describe(ident)}", field="ident")
+        _set(self, "ident", self.ident.upper())
+        _text(self, "name")
+        _instance(self, "reference_point", LatLon)
+        _num(self, "elevation_ft", ELEVATION_FT)
+        _num(self, "magnetic_variation_deg", VARIATION_DEG)
+        runways = _items(self, "runways", Runway, min_items=1, what="runway")
+        obstacles = _items(self, "obstacles", Obstacle, what="obstacle")
+        approaches = _items(self, "approaches", Approach, min_items=1, what="approach")
+        self._check_runways(runways)
+        self._check_obstacles(obstacles)
+        self._check_approaches(approaches)
+
+    # -- cross-field rules -------------------------------------------------------------------
+    def _from_arp_m(self, lat_deg: float, lon_deg: float) -> float:
+        return _distance_m(self.reference_point.lat_deg, self.reference_point.lon_deg, lat_deg, lon_deg)
+
+    def _check_runways(self, runways: tuple[Runway, ...]) -> None:
+        seen: dict[str, int] = {}
+        for i, rw in enumerate(runways):
+            for key in ("threshold_a", "threshold_b"):
+                th: Threshold = getattr(rw, key)
+                where = f"runways[{i}].{key}"
+                if th.designator in seen:
+                    raise InvariantError(f"runway designator '{th.designator}' is also used by "
+                                         f"runways[{seen[th.designator]}]", field=f"{where}.designator")
+                km = self._from_arp_m(th.lat_deg, th.lon_deg) / units.KM_TO_M
+                if km > THRESHOLD_FROM_ARP_KM:
+                    raise InvariantError(f"the threshold is {km:.1f} km from the reference point; expected "
+                                         f"within {_fmt(THRESHOLD_FROM_ARP_KM)} km", field=where)
+                if abs(th.elevation_ft - self.elevation_ft) > THRESHOLD_ELEVATION_SPREAD_FT:
+                    raise InvariantError(
+                        f"expected within {_fmt(THRESHOLD_ELEVATION_SPREAD_FT)} ft of the airfield elevation "
+                        f"({_fmt(self.elevation_ft)}), got {_fmt(th.elevation_ft)}", field=f"{where}.elevation_ft")
+            seen[rw.threshold_a.designator] = i
+            seen[rw.threshold_b.designator] = i
+            a, b = rw.threshold_a, rw.threshold_b
+            true_deg = _bearing_deg_true(a.lat_deg, a.lon_deg, b.lat_deg, b.lon_deg)
+            mag_deg = (true_deg - self.magnetic_variation_deg) % 360.0
+            nominal = int(a.designator[:2]) * 10.0
+            if _angle_diff_deg(mag_deg, nominal) > DESIGNATOR_TOLERANCE_DEG:
+                raise InvariantError(
+                    f"the bearing from threshold '{a.designator}' to '{b.designator}' is {mag_deg:03.0f} "
+                    f"degrees magnetic ({true_deg:03.0f} true); expected within "
+                    f"{_fmt(DESIGNATOR_TOLERANCE_DEG)} degrees of {nominal:03.0f} for designator "
+                    f"'{a.designator}' (check the coordinates and magnetic_variation_deg)", field=f"runways[{i}]")
+
+    def _check_obstacles(self, obstacles: tuple[Obstacle, ...]) -> None:
+        for i, ob in enumerate(obstacles):
+            km = self._from_arp_m(ob.lat_deg, ob.lon_deg) / units.KM_TO_M
+            if km > OBSTACLE_FROM_ARP_KM:
+                raise InvariantError(f"the obstacle is {km:.1f} km from the reference point; expected within "
+                                     f"{_fmt(OBSTACLE_FROM_ARP_KM)} km", field=f"obstacles[{i}]")
+
+    def _check_approaches(self, approaches: tuple[Approach, ...]) -> None:
+        names: dict[str, int] = {}
+        designators = [d for rw in self.runways for d in (rw.threshold_a.designator, rw.threshold_b.designator)]
+        for i, ap in enumerate(approaches):
+            where = f"approaches[{i}]"
+            key = _loose(ap.name)
+            if key in names:
+                raise InvariantError(f"approach name '{ap.name}' is also used by approaches[{names[key]}]",
+                                     field=f"{where}.name")
+            names[key] = i
+            if ap.runway is not None and ap.runway not in designators:
+                raise InvariantError(f"no runway '{ap.runway}' at this airfield (runways: "
+                                     f"{', '.join(rw.designator for rw in self.runways)})", field=f"{where}.runway")
+            for fix_key in ("faf", "map_fix"):
+                fix: Fix = getattr(ap, fix_key)
+                nm = self._from_arp_m(fix.lat_deg, fix.lon_deg) * units.M_TO_NM
+                if nm > FIX_FROM_ARP_NM:
+                    raise InvariantError(f"the fix is {nm:.1f} NM from the reference point; expected within "
+                                         f"{_fmt(FIX_FROM_ARP_NM)} NM", field=f"{where}.{fix_key}")
+            faf_height = ap.faf.altitude_ft - self.elevation_ft  # type: ignore[operator]
+            if faf_height not in FAF_HEIGHT_FT:
+                raise InvariantError(
+                    f"expected {_fmt(FAF_HEIGHT_FT.lo)} to {_fmt(FAF_HEIGHT_FT.hi)} ft above the airfield "
+                    f"elevation ({_fmt(self.elevation_ft)}), got {_fmt(ap.faf.altitude_ft)}",  # type: ignore[arg-type]
+                    field=f"{where}.faf.altitude_ft")
+            for m in ap.circling:
+                if m.mda_ft is not None and m.mda_ft - self.elevation_ft not in CIRCLING_HAA_FT:
+                    raise InvariantError(
+                        f"expected {_fmt(CIRCLING_HAA_FT.lo)} to {_fmt(CIRCLING_HAA_FT.hi)} ft above the "
+                        f"airfield elevation ({_fmt(self.elevation_ft)}), got {_fmt(m.mda_ft)}",
+                        field=f"{where}.circling.{m.category}.mda_ft")
+            if ap.straight_in is not None:
+                landing, _ = self.runway_by_designator(ap.straight_in.runway)
+                for m in ap.straight_in.minimums:
+                    if m.mda_ft is not None and m.mda_ft - landing.elevation_ft not in STRAIGHT_IN_HAT_FT:
+                        raise InvariantError(
+                            f"expected {_fmt(STRAIGHT_IN_HAT_FT.lo)} to {_fmt(STRAIGHT_IN_HAT_FT.hi)} ft above "
+                            f"the threshold elevation ({_fmt(landing.elevation_ft)}), got {_fmt(m.mda_ft)}",
+                            field=f"{where}.straight_in.minimums.{m.category}.mda_ft")
+            for j, sector in enumerate(ap.not_authorised_sectors):
+                self._check_sector(sector, f"{where}.not_authorised_sectors[{j}]", designators)
+
+    def _check_sector(self, sector: Sector, where: str, designators: list[str]) -> None:
+        if sector.threshold is not None:
+            if sector.threshold not in designators:
+                raise InvariantError(f"no runway threshold '{sector.threshold}' at this airfield (thresholds: "
+                                     f"{', '.join(designators)})", field=f"{where}.threshold")
+            return
+        runway = next((rw for rw in self.runways if rw.matches(sector.runway or "")), None)
+        if runway is None:
+            raise InvariantError(f"no runway '{sector.runway}' at this airfield (runways: "
+                                 f"{', '.join(rw.designator for rw in self.runways)})", field=f"{where}.runway")
+        a, b = runway.threshold_a, runway.threshold_b
+        axis = _bearing_deg_true(a.lat_deg, a.lon_deg, b.lat_deg, b.lon_deg)
+        side = SIDE_BEARING_DEG_TRUE[sector.side]  # type: ignore[index]
+        off_axis = min(_angle_diff_deg(side, axis), _angle_diff_deg(side, axis + 180.0))
+        if off_axis < SIDE_MIN_ANGLE_TO_RUNWAY_DEG:
+            raise InvariantError(f"'{sector.side}' lies along runway {runway.designator} (axis {axis:03.0f} "
+                                 f"true), not to one side of it", field=f"{where}.side")
+
+    # -- look-ups ----------------------------------------------------------------------------
+    @property
+    def thresholds(self) -> tuple[Threshold, ...]:
+        """Every runway threshold of the airfield."""
+        return tuple(t for rw in self.runways for t in (rw.threshold_a, rw.threshold_b))
+
+    def runway(self, designator: str) -> Runway:
+        """The runway named '27', '09/27' or '27/09'."""
+        for rw in self.runways:
+            if rw.matches(designator):
+                return rw
+        raise DomainError(self._no_runway(designator))
+
+    def runway_by_designator(self, designator: str) -> tuple[Threshold, Threshold]:
+        """(landing threshold, opposite threshold) for a landing designator such as '27'."""
+        for rw in self.runways:
+            ends = rw.ends(designator)
+            if ends is not None:
+                return ends
+        raise DomainError(self._no_runway(designator))
+
+    def _no_runway(self, designator: str) -> str:
+        names = [t.designator for t in self.thresholds]
+        return (f"airfield {self.ident} has no runway '{designator}'{did_you_mean(str(designator), names)} "
+                f"(runways: {', '.join(rw.designator for rw in self.runways)})")
+
+    def approach(self, name: str) -> Approach:
+        """The approach called `name` (case, spaces and punctuation ignored)."""
+        wanted = _loose(name)
+        for ap in self.approaches:
+            if _loose(ap.name) == wanted:
+                return ap
+        names = [ap.name for ap in self.approaches]
+        raise DomainError(f"airfield {self.ident} has no approach '{name}'{did_you_mean(name, names)} "
+                          f"(approaches: {', '.join(names)})")
+
+    @classmethod
+    def from_mapping(cls, data: Any, *, path: str = "") -> Airfield:
+        if isinstance(data, Mapping):
+            _check_header(data, KIND_AIRFIELD, path)
+        return _Model.from_mapping.__func__(cls, data, path=path)  # type: ignore[attr-defined]
+
+    def to_mapping(self) -> dict[str, Any]:
+        return {"kind": KIND_AIRFIELD, "format_version": FORMAT_VERSION, **_Model.to_mapping(self)}
+
+
+Runway._nested = {"threshold_a": Threshold, "threshold_b": Threshold}
+Approach._nested = {"faf": Fix, "map_fix": Fix, "straight_in": StraightIn}
+Approach._nested_seq = {"not_authorised_sectors": Sector}
+Airfield._nested = {"reference_point": LatLon}
+Airfield._nested_seq = {"runways": Runway, "obstacles": Obstacle, "approaches": Approach}
+
+
+# --------------------------------------------------------------------------------------------
+# Weather and the request
+# --------------------------------------------------------------------------------------------
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Weather(_Model):
+    """Today's weather; every item optional (None = not reported).
+
+    ``wind_from_deg`` is the direction the wind blows from, in the reference ``wind_reference``
+    names ('true' for a METAR, 'magnetic' for a tower or ATIS report); None with a speed means a
+    variable wind. ``altimeter_hpa`` is QNH; the file form also accepts ``altimeter_inhg``.
+    ``ceiling_ft`` is above the airfield.
+    """
+
+    _what: ClassVar[str] = "weather"
+    _extra_keys: ClassVar[tuple[str, ...]] = ("altimeter_inhg",)
+
+    wind_from_deg: float | None = None
+    wind_speed_kt: float | None = None
+    wind_gust_kt: float | None = None
+    wind_reference: str = "true"
+    oat_c: float | None = None
+    altimeter_hpa: float | None = None
+    visibility_sm: float | None = None
+    ceiling_ft: float | None = None
+
+    def __post_init__(self) -> None:
+        _num(self, "wind_from_deg", COURSE_DEG, optional=True)
+        _num(self, "wind_speed_kt", WIND_SPEED_KT, optional=True)
+        _num(self, "wind_gust_kt", WIND_GUST_KT, optional=True)
+        _text(self, "wind_reference", choices=WIND_REFERENCES)
+        _num(self, "oat_c", OAT_C, optional=True)
+        _num(self, "altimeter_hpa", ALTIMETER_HPA, optional=True)
+        _num(self, "visibility_sm", WX_VISIBILITY_SM, optional=True)
+        _num(self, "ceiling_ft", CEILING_FT, optional=True)
+        if self.wind_from_deg is not None and self.wind_speed_kt is None:
+            raise InvariantError("missing required key 'wind_speed_kt' (wind_from_deg needs a speed)")
+        if self.wind_gust_kt is not None:
+            if self.wind_speed_kt is None:
+                raise InvariantError("missing required key 'wind_speed_kt' (wind_gust_kt needs a steady speed)")
+            if self.wind_gust_kt <= self.wind_speed_kt:
+                raise InvariantError(f"expected above wind_speed_kt ({_fmt(self.wind_speed_kt)}), "
+                                     f"got {_fmt(self.wind_gust_kt)}", field="wind_gust_kt")
+
+    @classmethod
+    def _read(cls, data: Mapping[str, Any], path: str) -> dict[str, Any]:
+        kwargs = _Model._read.__func__(cls, data, path)  # type: ignore[attr-defined]
+        if "altimeter_inhg" in data:
+            if "altimeter_hpa" in data:
+                raise FieldError("give either altimeter_hpa or altimeter_inhg, not both",
+                                 context=join_path(path, "altimeter_inhg"))
+            probe = _InHg(altimeter_inhg=data["altimeter_inhg"])
+            try:
+                probe.check()
+            except InvariantError as exc:
+                raise FieldError(exc.message, context=join_path(path, exc.field)) from None
+            kwargs["altimeter_hpa"] = probe.altimeter_inhg * units.INHG_TO_HPA
+        return kwargs
+
+    def wind_from_deg_true(self, magnetic_variation_deg: float) -> float | None:
+        """The wind direction referred to true north (None if not reported or variable) [deg]."""
+        if self.wind_from_deg is None:
+            return None
+        if self.wind_reference == "magnetic":
+            return (self.wind_from_deg + magnetic_variation_deg) % 360.0
+        return self.wind_from_deg
+
+    @property
+    def gust_increment_kt(self) -> float:
+        """Gust minus steady speed (0 without a gust) [kt]."""
+        if self.wind_gust_kt is None or self.wind_speed_kt is None:
+            return 0.0
+        return self.wind_gust_kt - self.wind_speed_kt
+
+
+@dataclass(slots=True, kw_only=True)
+class _InHg:
+    altimeter_inhg: Any
+
+    def check(self) -> None:
+        _num(self, "altimeter_inhg", ALTIMETER_INHG)
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class BriefOptions(_Model):
+    """Choices the crew makes that are not data: which criteria set to show (None = the
+    approach's own), which cold-temperature method, whether to add the wind additive."""
+
+    _what: ClassVar[str] = "options"
+
+    criteria: str | None = None
+    cold_temperature_method: str = "sea-level-table"
+    apply_wind_additive: bool = True
+
+    def __post_init__(self) -> None:
+        _text(self, "criteria", optional=True, choices=CRITERIA)
+        _text(self, "cold_temperature_method", choices=COLD_TEMPERATURE_METHODS)
+        _flag(self, "apply_wind_additive")
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class BriefRequest(_Model):
+    """Everything `build_brief` needs: aircraft, configuration, airfield, approach, landing
+    runway, weather and the crew's choices.
+
+    ``configuration`` None means the profile's default; ``weight_lb`` None means the maximum
+    landing weight; ``bank_deg`` overrides the configuration's planned bank;
+    ``stabilised_height_ft`` (above the threshold) defaults to 300 ft (common practice for a
+    visual manoeuvre).
+    """
+
+    _what: ClassVar[str] = "a brief request"
+
+    profile: AircraftProfile
+    configuration: str | None = None
+    airfield: Airfield
+    approach: str
+    landing_runway: str
+    weather: Weather = field(default_factory=Weather)
+    weight_lb: float | None = None
+    bank_deg: float | None = None
+    stabilised_height_ft: float = 300.0
+    options: BriefOptions = field(default_factory=BriefOptions)
+
+    def __post_init__(self) -> None:
+        _instance(self, "profile", AircraftProfile)
+        _instance(self, "airfield", Airfield)
+        _instance(self, "weather", Weather)
+        _instance(self, "options", BriefOptions)
+        _text(self, "configuration", optional=True)
+        _text(self, "approach")
+        _designator(self, "landing_runway")
+        _num(self, "weight_lb", WEIGHT_LB, optional=True)
+        _num(self, "bank_deg", BANK_DEG, optional=True)
+        _num(self, "stabilised_height_ft", STABILISED_HEIGHT_FT)
+        for name, look_up in (("configuration", lambda: self.profile.configuration(self.configuration)),
+                              ("approach", lambda: self.airfield.approach(self.approach)),
+                              ("landing_runway", lambda: self.airfield.runway_by_designator(self.landing_runway))):
+            try:
+                look_up()
+            except DomainError as exc:
+                raise InvariantError(str(exc), field=name) from None
+        if self.weight_lb is not None:
+            mlw = self.profile.max_landing_weight_lb
+            low = LANDING_WEIGHT_MIN_FRACTION * mlw
+            if not low <= self.weight_lb <= mlw:
+                raise InvariantError(f"expected a landing weight between {low:.0f} and the maximum landing "
+                                     f"weight {_fmt(mlw)}, got {_fmt(self.weight_lb)}", field="weight_lb")
+
+    @property
+    def landing_weight_lb(self) -> float:
+        """The weight to brief: ``weight_lb`` or the maximum landing weight [lb]."""
+        return self.weight_lb if self.weight_lb is not None else self.profile.max_landing_weight_lb
+
+    def selected_configuration(self) -> Configuration:
+        return self.profile.configuration(self.configuration)
+
+    def selected_approach(self) -> Approach:
+        return self.airfield.approach(self.approach)
+
+    def landing_threshold(self) -> Threshold:
+        return self.airfield.runway_by_designator(self.landing_runway)[0]
+
+
+BriefRequest._nested = {"profile": AircraftProfile, "airfield": Airfield, "weather": Weather,
+                        "options": BriefOptions}
