@@ -16,6 +16,8 @@ from __future__ import annotations
 
 import math
 from collections.abc import Iterable, Iterator, Sequence
+from itertools import groupby
+from operator import itemgetter
 from typing import TYPE_CHECKING, Any
 
 from briefer.render.scene import (
@@ -35,6 +37,7 @@ if TYPE_CHECKING:  # pragma: no cover
 __all__ = ["AsciiCanvas", "BrailleCanvas", "Canvas", "ROLE_DASH", "Viewport"]
 
 _BITS = ((0x01, 0x08), (0x02, 0x10), (0x04, 0x20), (0x40, 0x80))  # [dot row 0..3][dot col 0..1]
+_BRAILLE = [" "] + [chr(0x2800 + b) for b in range(1, 256)]            # blank cells are spaces
 _EMPTY = -1          # priority of an untouched cell
 _FILL = 0            # priority of hatch dots: anything drawn later takes the cell
 _PLAIN = 1           # priority of a dot drawn without a role
@@ -213,6 +216,17 @@ class Canvas:
             prio = ROLE_STYLES[role].priority if role is not None else _PLAIN
         if ch is None:
             ch = self._glyph_for(role, False)
+        if len(pts) > 2:
+            # drop points less than a dot from the last kept one: long tracks sampled finer than
+            # the canvas cost time and add nothing (the drawn line moves by under a dot)
+            kept = [pts[0]]
+            lx, ly = pts[0]
+            for x, y in pts[1:-1]:
+                if abs(x - lx) >= 1.0 or abs(y - ly) >= 1.0:
+                    kept.append((x, y))
+                    lx, ly = x, y
+            kept.append(pts[-1])
+            pts = kept
         plot, floor = self._plot, math.floor
         if dash is None:
             on = period = 0.0
@@ -236,13 +250,14 @@ class Canvas:
             plot(floor(x0 + 0.5), floor(y0 + 0.5), role, prio, ch)
 
     # --- output -------------------------------------------------------------------------
-    def _cell_char(self, c: int) -> str:
+    def _chars(self) -> list[str]:
+        """The character of every cell, row by row."""
         raise NotImplementedError
 
     def to_lines(self) -> list[str]:
         """The rows as strings of exactly `cols` characters."""
-        chars = [self._cell_char(c) for c in range(self.cols * self.rows)]
-        return ["".join(chars[r * self.cols:(r + 1) * self.cols]) for r in range(self.rows)]
+        chars, cols = self._chars(), self.cols
+        return ["".join(chars[r * cols:(r + 1) * cols]) for r in range(self.rows)]
 
     def to_text(self) -> str:
         """The rows joined by newlines, trailing spaces removed (for the text card)."""
@@ -254,20 +269,11 @@ class Canvas:
 
     def runs(self) -> Iterator[list[tuple[str, Role | None]]]:
         """Per row, the runs of equal role as (text, role)."""
-        cols = self.cols
+        chars, roles, cols = self._chars(), self._role, self.cols
         for r in range(self.rows):
-            base = r * cols
-            out: list[tuple[str, Role | None]] = []
-            buf: list[str] = []
-            cur = self._role[base]
-            for c in range(base, base + cols):
-                role = self._role[c]
-                if role is not cur:
-                    out.append(("".join(buf), cur))
-                    buf, cur = [], role
-                buf.append(self._cell_char(c))
-            out.append(("".join(buf), cur))
-            yield out
+            a, b = r * cols, (r + 1) * cols
+            yield [("".join(ch for _, ch in group), role)
+                   for role, group in groupby(zip(roles[a:b], chars[a:b]), key=itemgetter(0))]
 
     def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
         from rich.segment import Segment
@@ -316,12 +322,9 @@ class BrailleCanvas(Canvas):
             return False
         return bool(self._bits[(yi >> 2) * self.cols + (xi >> 1)] & _BITS[yi & 3][xi & 1])
 
-    def _cell_char(self, c: int) -> str:
-        ch = self._char[c]
-        if ch is not None:
-            return ch
-        b = self._bits[c]
-        return chr(0x2800 + b) if b else " "
+    def _chars(self) -> list[str]:
+        table = _BRAILLE
+        return [table[b] if ch is None else ch for ch, b in zip(self._char, self._bits)]
 
 
 class AsciiCanvas(Canvas):
@@ -355,8 +358,8 @@ class AsciiCanvas(Canvas):
         xi, yi = math.floor(x + 0.5), math.floor(y + 0.5)
         return 0 <= xi < self.cols and 0 <= yi < self.rows and self._char[yi * self.cols + xi] is not None
 
-    def _cell_char(self, c: int) -> str:
-        return self._char[c] or " "
+    def _chars(self) -> list[str]:
+        return [ch or " " for ch in self._char]
 
 
 def lit_dots(canvas: Canvas) -> Iterable[tuple[int, int]]:
