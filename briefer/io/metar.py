@@ -36,6 +36,7 @@ References
 from __future__ import annotations
 
 import re
+import string
 from dataclasses import dataclass, field
 from fractions import Fraction
 from typing import Any
@@ -89,28 +90,35 @@ ALTIMETER_MAX_HPA = 1100.0
 _MAX_GROUP_IN_MESSAGE = 40
 
 _SPEED_UNIT_TO_KT = {"KT": 1.0, "MPS": MPS_TO_KT, "KMH": KMH_TO_MPS * MPS_TO_KT}
+_ASCII_UPPER = str.maketrans(string.ascii_lowercase, string.ascii_uppercase)
 
-_STATION_RE = re.compile(r"[A-Z][A-Z0-9]{3}")
-_TIME_RE = re.compile(r"(\d{2})(\d{2})(\d{2})Z")
-_WIND_RE = re.compile(
+
+def _rx(pattern: str) -> re.Pattern[str]:
+    """Compile a group pattern; ASCII only, so that no other script's digits decode."""
+    return re.compile(pattern, re.ASCII)
+
+
+_STATION_RE = _rx(r"[A-Z][A-Z0-9]{3}")
+_TIME_RE = _rx(r"(\d{2})(\d{2})(\d{2})Z")
+_WIND_RE = _rx(
     r"(?P<dir>\d{3}|VRB|///)(?P<spd>\d{2,3}|//)(?:G(?P<gust>\d{2,3}|//))?(?P<unit>KT|MPS|KMH)")
-_VARIABLE_SECTOR_RE = re.compile(r"(\d{3})V(\d{3})")
-_SM_RE = re.compile(r"(?P<q>[MP])?(?:(?P<whole>\d{1,2}) )?(?:(?P<num>\d{1,2})/(?P<den>\d{1,2})|"
-                    r"(?P<int>\d{1,2}))SM")
-_SM_WHOLE_RE = re.compile(r"\d{1,2}")
-_SM_FRACTION_RE = re.compile(r"\d{1,2}/\d{1,2}SM")
-_METRIC_VIS_RE = re.compile(r"(\d{4})(NDV)?")
-_DIRECTIONAL_VIS_RE = re.compile(r"(\d{4})(N|NE|E|SE|S|SW|W|NW)")
-_RVR_RE = re.compile(r"R\d{2}[LCR]?/(?:[PM]?\d{4}(?:V[PM]?\d{4})?(?:FT)?/?[UDN]?|/{4,}(?:FT)?)")
+_VARIABLE_SECTOR_RE = _rx(r"(\d{3})V(\d{3})")
+_SM_RE = _rx(r"(?P<q>[MP])?(?:(?P<whole>\d{1,2}) )?(?:(?P<num>\d{1,2})/(?P<den>\d{1,2})|"
+             r"(?P<int>\d{1,2}))SM")
+_SM_WHOLE_RE = _rx(r"\d{1,2}")
+_SM_FRACTION_RE = _rx(r"\d{1,2}/\d{1,2}SM")
+_METRIC_VIS_RE = _rx(r"(\d{4})(NDV)?")
+_DIRECTIONAL_VIS_RE = _rx(r"(\d{4})(N|NE|E|SE|S|SW|W|NW)")
+_RVR_RE = _rx(r"R\d{2}[LCR]?/(?:[PM]?\d{4}(?:V[PM]?\d{4})?(?:FT)?/?[UDN]?|/{4,}(?:FT)?)")
 _PHENOMENA = "DZ|RA|SN|SG|IC|PL|GR|GS|UP|BR|FG|FU|VA|DU|SA|HZ|PY|PO|SQ|FC|SS|DS"
 _DESCRIPTORS = "MI|BC|PR|DR|BL|SH|TS|FZ"
-_WEATHER_RE = re.compile(rf"(?P<int>[-+]|VC)?(?P<desc>{_DESCRIPTORS})?(?P<ph>(?:{_PHENOMENA})*)")
-_RECENT_WEATHER_RE = re.compile(rf"RE(?:{_DESCRIPTORS})?(?:{_PHENOMENA})*")
-_CLOUD_RE = re.compile(r"(?P<amt>FEW|SCT|BKN|OVC|///)(?P<h>\d{3}|///)(?P<type>CB|TCU|///)?")
-_VV_RE = re.compile(r"VV(?P<h>\d{3}|///)")
-_TEMP_RE = re.compile(r"(?P<t>M?\d{2}|M|//)/(?P<d>M?\d{2}|M|//)?")
-_ALTIMETER_RE = re.compile(r"(?P<u>[AQ])(?P<v>\d{4}|////)")
-_RUNWAY_RE = re.compile(r"R(?:WY)?\d{2}[LCR]?")
+_WEATHER_RE = _rx(rf"(?P<int>[-+]|VC)?(?P<desc>{_DESCRIPTORS})?(?P<ph>(?:{_PHENOMENA})*)")
+_RECENT_WEATHER_RE = _rx(rf"RE(?:{_DESCRIPTORS})?(?:{_PHENOMENA})*")
+_CLOUD_RE = _rx(r"(?P<amt>FEW|SCT|BKN|OVC|///)(?P<h>\d{3}|///)(?P<type>CB|TCU|///)?")
+_VV_RE = _rx(r"VV(?P<h>\d{3}|///)")
+_TEMP_RE = _rx(r"(?P<t>M?\d{2}|M|//)/(?P<d>M?\d{2}|M|//)?")
+_ALTIMETER_RE = _rx(r"(?P<u>[AQ])(?P<v>\d{4}|////)")
+_RUNWAY_RE = _rx(r"R(?:WY)?\d{2}[LCR]?")
 
 
 # --- the result ----------------------------------------------------------------------------
@@ -627,8 +635,9 @@ def decode_metar(text: str) -> MetarReport:
     Parameters
     ----------
     text : str
-        One report; groups separated by white space, optionally ending with ``=``. Letters are
-        taken in upper case.
+        One report; groups separated by white space, optionally ending with ``=``. ASCII
+        letters are taken in upper case; any other character is left as it is (and so does not
+        decode).
 
     Returns
     -------
@@ -651,7 +660,7 @@ def decode_metar(text: str) -> MetarReport:
     if not isinstance(text, str):
         raise MetarError(f"cannot decode METAR: expected text, got {type(text).__name__}")
     raw = text.strip()
-    groups = raw.upper().split()
+    groups = raw.translate(_ASCII_UPPER).split()
     if groups and groups[-1].endswith("="):
         groups[-1] = groups[-1].rstrip("=")
         if not groups[-1]:
