@@ -95,7 +95,11 @@ _RULE_OF_THUMB_FT_PER_INHG = 1000.0                    # "1 inch = 1000 ft"
 
 def _checked(name: str, value: Numeric, lo: float, hi: float, unit: str, *,
              lo_open: bool = False, hi_open: bool = False) -> np.ndarray:
-    """Float array of `value`; DomainError naming the first element outside [lo, hi]."""
+    """Float array of `value`; DomainError naming the first element outside [lo, hi] (or NaN/inf).
+
+    The range check of the physics core (turn, wind and coldtemp import it too); `lo_open` and
+    `hi_open` exclude the ends. The message quotes the value and the valid range (STYLE E).
+    """
     arr = np.asarray(value, dtype=float)
     with np.errstate(invalid="ignore"):
         below = arr <= lo if lo_open else arr < lo
@@ -106,7 +110,7 @@ def _checked(name: str, value: Numeric, lo: float, hi: float, unit: str, *,
         lo_op = "<" if lo_open else "<="
         hi_op = "<" if hi_open else "<="
         raise DomainError(f"{name} = {first:g} {unit} is outside the valid range "
-                          f"{lo:g} {lo_op} {name} {hi_op} {hi:g} {unit}")
+                          f"{lo:g} {lo_op} {name} {hi_op} {hi:g} {unit}".replace("  ", " ").rstrip())
     return arr
 
 

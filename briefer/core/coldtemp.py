@@ -40,8 +40,9 @@ from typing import Literal
 
 import numpy as np
 
-from briefer.core._types import Numeric
 from briefer import units
+from briefer.core._types import Numeric
+from briefer.core.atmosphere import _checked  # the one range check of the physics core
 from briefer.errors import DomainError
 
 __all__ = [
@@ -64,17 +65,6 @@ ELEVATION_RANGE_FT = (-2000.0, 15000.0)
 OAT_RANGE_C = (-100.0, 60.0)
 # Float slack before rounding up, so an exact multiple of 10 ft is not pushed up by rounding.
 _ROUND_SLACK_FT = 1e-9
-
-
-def _checked(name: str, value: Numeric, lo: float, hi: float, unit: str) -> np.ndarray:
-    arr = np.asarray(value, dtype=float)
-    with np.errstate(invalid="ignore"):
-        bad = ~np.isfinite(arr) | (arr < lo) | (arr > hi)
-    if np.any(bad):
-        first = float(arr[bad].flat[0])
-        raise DomainError(f"{name} = {first:g} {unit} is outside the valid range "
-                          f"{lo:g} <= {name} <= {hi:g} {unit}")
-    return arr
 
 
 def sea_level_temperature_c(airport_oat_c: Numeric, *, airport_elevation_ft: Numeric) -> Numeric:

@@ -34,6 +34,7 @@ import numpy as np
 
 from briefer import units
 from briefer.core._types import Numeric
+from briefer.core.atmosphere import _checked  # the one range check of the physics core
 from briefer.errors import DomainError
 
 __all__ = [
@@ -64,23 +65,6 @@ SPEED_MAX_KT = 1000.0
 WEIGHT_RATIO_MAX = 10.0
 TURN_ANGLE_MAX_DEG = 3600.0
 STANDARD_RATE_DEG_PER_S = 3.0
-
-
-def _checked(name: str, value: Numeric, lo: float, hi: float, unit: str, *,
-             lo_open: bool = False, hi_open: bool = False) -> np.ndarray:
-    """Float array of `value`; DomainError naming the first element outside the range."""
-    arr = np.asarray(value, dtype=float)
-    with np.errstate(invalid="ignore"):
-        below = arr <= lo if lo_open else arr < lo
-        above = arr >= hi if hi_open else arr > hi
-        bad = ~np.isfinite(arr) | below | above
-    if np.any(bad):
-        first = float(arr[bad].flat[0])
-        lo_op = "<" if lo_open else "<="
-        hi_op = "<" if hi_open else "<="
-        raise DomainError(f"{name} = {first:g} {unit} is outside the valid range "
-                          f"{lo:g} {lo_op} {name} {hi_op} {hi:g} {unit}".rstrip())
-    return arr
 
 
 def _bank(bank_deg: Numeric, *, turning: bool) -> np.ndarray:

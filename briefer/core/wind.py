@@ -34,6 +34,7 @@ import numpy as np
 
 from briefer import units
 from briefer.core._types import Numeric
+from briefer.core.atmosphere import _checked  # the one range check of the physics core
 from briefer.errors import DomainError
 
 __all__ = [
@@ -54,23 +55,6 @@ WIND_SPEED_MAX_KT = 250.0
 TAS_MAX_KT = 1000.0
 Reference = Literal["true", "magnetic"]
 _REFERENCES = ("true", "magnetic")
-
-
-def _checked(name: str, value: Numeric, lo: float, hi: float, unit: str, *,
-             lo_open: bool = False, hi_open: bool = False) -> np.ndarray:
-    """Float array of `value`; DomainError naming the first element outside the range."""
-    arr = np.asarray(value, dtype=float)
-    with np.errstate(invalid="ignore"):
-        below = arr <= lo if lo_open else arr < lo
-        above = arr >= hi if hi_open else arr > hi
-        bad = ~np.isfinite(arr) | below | above
-    if np.any(bad):
-        first = float(arr[bad].flat[0])
-        lo_op = "<" if lo_open else "<="
-        hi_op = "<" if hi_open else "<="
-        raise DomainError(f"{name} = {first:g} {unit} is outside the valid range "
-                          f"{lo:g} {lo_op} {name} {hi_op} {hi:g} {unit}")
-    return arr
 
 
 def _finite(name: str, value: Numeric) -> np.ndarray:
