@@ -12,7 +12,6 @@ import sys
 
 import pytest
 from rich.console import Console
-from rich.segment import Segment
 
 from briefer.render.canvas import AsciiCanvas, BrailleCanvas, lit_dots
 from briefer.render.planview import (

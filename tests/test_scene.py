@@ -112,6 +112,10 @@ def test_marker_takes_its_roles_symbol():
     assert Marker((0, 0), Role.PLANNED_TRACK).symbol == "cross"  # a role without one
 
 
+def test_label_defaults_to_the_annotation_role():
+    assert Label((1, 2), "AREA").role is Role.ANNOTATION
+
+
 def test_scene_rejects_non_items():
     with pytest.raises(TypeError):
         Scene([((0, 0), (1, 1))])

@@ -21,7 +21,6 @@ from operator import itemgetter
 from typing import TYPE_CHECKING, Any
 
 from briefer.render.scene import (
-    GENERIC_DASH_DOTS,
     ROLE_STYLES,
     Point,
     Role,
