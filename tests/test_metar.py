@@ -259,6 +259,14 @@ def test_weather_from_metar_not_reported_is_none():
     assert w == dict.fromkeys(WEATHER_KEYS - {"wind_reference"}) | {"wind_reference": "true"}
 
 
+def test_weather_from_metar_wind_without_mean_speed_is_not_reported():
+    """FM 15 solidi for the speed only: a direction or gust without the mean is not a usable wind."""
+    r = decode_metar("Q4LM 121853Z 270//G25KT 10SM CLR 15/05 A2992")
+    assert (r.wind_from_deg_true, r.wind_speed_kt, r.wind_gust_kt) == (270.0, None, 25.0)
+    w = weather_from_metar(r)
+    assert (w["wind_from_deg"], w["wind_speed_kt"], w["wind_gust_kt"]) == (None, None, None)
+
+
 def test_weather_from_metar_mps_in_knots():
     """FM 15 MPS: 5 m/s x MPS_TO_KT."""
     w = weather_from_metar(decode_metar("X7PD 121850Z 24005MPS 9999 SCT040 15/10 Q1013"))

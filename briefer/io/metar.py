@@ -249,12 +249,14 @@ def weather_from_metar(report: MetarReport) -> dict[str, Any]:
     ``visibility_sm``, ``ceiling_ft``. ``None`` where not reported. Two readings need the report
     itself: ``visibility_sm`` is a bound when ``report.visibility_is_less_than`` or
     ``report.visibility_is_at_least``; ``ceiling_ft`` None means "no ceiling reported", which is
-    not "no ceiling" when ``report.ceiling_may_be_lower``.
+    not "no ceiling" when ``report.ceiling_may_be_lower``. A wind group whose mean speed is not
+    reported (``270//KT``) gives no wind at all: a direction or gust alone cannot be used.
     """
+    speed_kt = report.wind_speed_kt
     return {
-        "wind_from_deg": report.wind_from_deg_true,
-        "wind_speed_kt": report.wind_speed_kt,
-        "wind_gust_kt": report.wind_gust_kt,
+        "wind_from_deg": None if speed_kt is None else report.wind_from_deg_true,
+        "wind_speed_kt": speed_kt,
+        "wind_gust_kt": None if speed_kt is None else report.wind_gust_kt,
         "wind_reference": "true",
         "oat_c": report.temperature_c,
         "altimeter_hpa": report.altimeter_hpa,
