@@ -1250,15 +1250,16 @@ class Airfield(_Model):
                 if m.mda_ft is not None and m.mda_ft - self.elevation_ft not in CIRCLING_HAA_FT:
                     raise InvariantError(
                         f"expected {_fmt(CIRCLING_HAA_FT.lo)} to {_fmt(CIRCLING_HAA_FT.hi)} ft above the "
-                        f"airfield elevation ({_fmt(self.elevation_ft)}), got {_fmt(m.mda_ft)}",
-                        field=f"{where}.circling.{m.category}.mda_ft")
+                        f"airfield elevation ({_fmt(self.elevation_ft)}), got {_fmt(m.mda_ft)} "
+                        f"({_fmt(m.mda_ft - self.elevation_ft)} ft above)", field=f"{where}.circling.{m.category}.mda_ft")
             if ap.straight_in is not None:
                 landing, _ = self.runway_by_designator(ap.straight_in.runway)
                 for m in ap.straight_in.minimums:
                     if m.mda_ft is not None and m.mda_ft - landing.elevation_ft not in STRAIGHT_IN_HAT_FT:
                         raise InvariantError(
                             f"expected {_fmt(STRAIGHT_IN_HAT_FT.lo)} to {_fmt(STRAIGHT_IN_HAT_FT.hi)} ft above "
-                            f"the threshold elevation ({_fmt(landing.elevation_ft)}), got {_fmt(m.mda_ft)}",
+                            f"the threshold elevation ({_fmt(landing.elevation_ft)}), got {_fmt(m.mda_ft)} "
+                            f"({_fmt(m.mda_ft - landing.elevation_ft)} ft above)",
                             field=f"{where}.straight_in.minimums.{m.category}.mda_ft")
             for j, sector in enumerate(ap.not_authorised_sectors):
                 self._check_sector(sector, f"{where}.not_authorised_sectors[{j}]", designators)

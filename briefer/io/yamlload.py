@@ -52,6 +52,7 @@ _MAP_TAG = "tag:yaml.org,2002:map"
 _SEQ_TAG = "tag:yaml.org,2002:seq"
 _MERGE_TAG = "tag:yaml.org,2002:merge"
 _DECIMAL = re.compile(r"[-+]?[0-9]+")
+_SCALAR_TAGS = {f"tag:yaml.org,2002:{t}" for t in ("str", "int", "float", "bool", "null", "timestamp")}
 
 
 class _Loader(yaml.SafeLoader):
@@ -124,8 +125,7 @@ def parse_yaml_mapping(data: bytes, file: str) -> YamlDocument:
         raise DataFileError(f"the file is larger than {MAX_FILE_BYTES // 1_000_000} MB; "
                             "expected a small YAML file", file=file)
     if b"\x00" in data:
-        line = data[: data.index(b"\x00")].count(b"\n") + 1
-        raise DataFileError("expected a YAML text file, got binary data", file=file, line=line)
+        raise DataFileError("expected a YAML text file, got binary data", file=file)
     try:
         text = data.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
@@ -136,10 +136,8 @@ def parse_yaml_mapping(data: bytes, file: str) -> YamlDocument:
     try:
         node = loader.get_single_node()
     except yaml.MarkedYAMLError as exc:
-        mark = exc.problem_mark or exc.context_mark
-        problem = exc.problem or exc.context or "cannot parse"
-        raise DataFileError(f"not valid YAML: {problem}", file=file,
-                            line=mark.line + 1 if mark is not None else None) from None
+        raise DataFileError(f"not valid YAML: {_yaml_problem(exc)}", file=file,
+                            line=_mark_line(exc.problem_mark or exc.context_mark)) from None
     except yaml.reader.ReaderError as exc:
         line = text[: exc.position].count("\n") + 1
         raise DataFileError(f"not valid YAML: unacceptable character #x{exc.character:04x}" if isinstance(
@@ -160,6 +158,23 @@ def parse_yaml_mapping(data: bytes, file: str) -> YamlDocument:
     builder = _Builder(doc)
     doc.data = builder.convert(node, "")
     return doc
+
+
+def _mark_line(mark: Any) -> int | None:
+    return mark.line + 1 if mark is not None else None
+
+
+def _yaml_problem(exc: yaml.MarkedYAMLError) -> str:
+    """PyYAML's problem, with its context when that helps (and where it started)."""
+    problem, context = exc.problem or "", exc.context or ""
+    if not problem:
+        return context or "cannot parse the file"
+    if context and problem.startswith("but "):
+        return f"{context}, {problem}"
+    start, end = _mark_line(exc.context_mark), _mark_line(exc.problem_mark)
+    if context and start is not None and start != end:
+        return f"{problem} ({context} on line {start})"
+    return problem
 
 
 class _Builder:
@@ -220,6 +235,8 @@ class _Builder:
         return items
 
     def scalar(self, node: ScalarNode, path: str) -> Any:
+        if node.tag not in _SCALAR_TAGS:
+            raise self.fail(f"unsupported YAML tag {node.tag!r}", node, path)
         if node.tag == _INT_TAG and _DECIMAL.fullmatch(node.value):
             return int(node.value, 10)
         try:
