@@ -1304,9 +1304,8 @@ class Airfield(_Model):
         raise DomainError(self._no_runway(designator))
 
     def _no_runway(self, designator: str) -> str:
-        names = [t.designator for t in self.thresholds]
-        return (f"airfield {self.ident} has no runway '{designator}'{did_you_mean(str(designator), names)} "
-                f"(runways: {', '.join(rw.designator for rw in self.runways)})")
+        names = [rw.designator for rw in self.runways]
+        return f"airfield {self.ident} has no runway '{designator}' (runways: {', '.join(names)})"
 
     def approach(self, name: str) -> Approach:
         """The approach called `name` (case, spaces and punctuation ignored)."""
