@@ -1,0 +1,87 @@
+"""Circling manoeuvres: legs, ground tracks in wind, the standard plans, the solver, the
+candidates, their ranking, the missed approach from the circle and the wind envelope.
+
+This module gathers the public API of the ``maneuver_*`` modules:
+
+* :mod:`briefer.core.maneuver_legs` -- runway frame, wind vector, legs and closed-form tracks;
+* :mod:`briefer.core.maneuver_solver` -- inputs, plan shapes, descent geometry, vectorised solve;
+* :mod:`briefer.core.maneuver_plans` -- ``Plan``, candidates, ranking, missed-approach turns;
+* :mod:`briefer.core.maneuver_envelope` -- the wind envelope over a grid (vectorised).
+
+Runway frame: x metres along the landing direction from the landing threshold (final approach
+at negative x), y metres to the right of the centreline; headings 0 = landing direction,
+clockwise positive; wind as the velocity of the air in that frame (blowing toward).
+"""
+
+from __future__ import annotations
+
+from briefer.core.maneuver_envelope import (
+    DOES_NOT_FIT,
+    FITS,
+    MARGINAL,
+    REASON_AREA,
+    REASON_BANK,
+    REASON_VISIBILITY,
+    REASON_WIND,
+    Envelope,
+    wind_envelope,
+)
+from briefer.core.maneuver_legs import (
+    CALM,
+    Leg,
+    RunwayWind,
+    State,
+    Straight,
+    StraightTrack,
+    TrackSamples,
+    Turn,
+    crab_heading_deg,
+    ground_speed_kt,
+    leg_duration_s,
+    leg_end_state,
+    plan_end_state,
+    plan_time_s,
+    runway_wind_from,
+    sample_leg,
+    sample_legs,
+    turn_angle_deg,
+)
+from briefer.core.maneuver_plans import (
+    MARGINAL_AOA_DEG,
+    MARGINAL_AREA_FRACTION,
+    MARGINAL_BANK_DEG,
+    MARGINAL_VISIBILITY_FRACTION,
+    LeaveMda,
+    MarginFn,
+    MissedApproachGuide,
+    MissedTurnSegment,
+    Plan,
+    PlanChoice,
+    RankedPlan,
+    bank_levels_deg,
+    candidate_plans,
+    choose_plan,
+    missed_approach_turns,
+    plan_sample,
+    rank_plans,
+    solve_plan,
+)
+from briefer.core.maneuver_solver import (
+    SHAPES,
+    SIDES,
+    CircleInputs,
+    DescentGeometry,
+    applicable_candidates,
+    descent_geometry,
+)
+
+__all__ = [
+    "CALM", "DOES_NOT_FIT", "FITS", "MARGINAL", "MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION", "MARGINAL_BANK_DEG",
+    "MARGINAL_VISIBILITY_FRACTION", "REASON_AREA", "REASON_BANK", "REASON_VISIBILITY", "REASON_WIND", "SHAPES",
+    "SIDES", "CircleInputs", "DescentGeometry", "Envelope", "LeaveMda", "Leg", "MarginFn", "MissedApproachGuide",
+    "MissedTurnSegment", "Plan", "PlanChoice", "RankedPlan", "RunwayWind", "State", "Straight", "StraightTrack",
+    "TrackSamples", "Turn", "applicable_candidates", "bank_levels_deg", "candidate_plans", "choose_plan",
+    "crab_heading_deg", "descent_geometry", "ground_speed_kt", "leg_duration_s", "leg_end_state",
+    "missed_approach_turns", "plan_end_state", "plan_sample", "plan_time_s", "rank_plans", "runway_wind_from",
+    "sample_leg", "sample_legs", "solve_plan", "turn_angle_deg", "wind_envelope",
+]

@@ -1,0 +1,785 @@
+"""Solved circling plans, the candidates, their ranking and the missed approach from the circle.
+
+Runway frame, wind and plan shapes: see :mod:`briefer.core.maneuver_legs` and
+:mod:`briefer.core.maneuver_solver`. Situations that are valid inputs but cannot be flown give a
+``Plan`` with ``feasible=False`` and the reasons in words; nothing here raises for them.
+
+Ranking and verdict thresholds (shared with the envelope)
+---------------------------------------------------------
+A plan FAILS if it cannot be flown, needs more bank than the limit, leaves the protected area
+(area margin < 0), takes the runway beyond the visibility (max distance from the runway >
+visibility) or, if an angle-of-attack margin callable is given, has a negative margin. It is
+MARGINAL (our thresholds, documented here and in ``Envelope``) when the bank is within
+``MARGINAL_BANK_DEG`` = 5 deg of the limit, the area margin is below ``MARGINAL_AREA_FRACTION`` =
+10 % of the area radius R, the runway gets beyond ``MARGINAL_VISIBILITY_FRACTION`` = 90 % of the
+visibility, or the AoA margin is below ``MARGINAL_AOA_DEG`` = 3 deg. Candidates are ordered by
+(number of failures, bank, -min(area margin, visibility margin) to 1 m, -AoA margin, total time
+to 0.1 s); exact ties keep the candidate order.
+
+References
+----------
+.. [1] FAA, Aeronautical Information Manual, 5-4-21(c): missed approach while circling, an
+   initial climbing turn toward the landing runway.
+.. [2] ICAO Doc 8168 Vol I, Part I, Section 4, Chapter 7 (and Vol II 7.x): climbing turn within
+   the circling area toward the landing runway, 5th ed., 2006.
+.. [3] Operator technique summarised in ../shared/REFERENCES.md section 9 (break 45 deg / 30 s,
+   timing from abeam the threshold, ~3 deg descent, stabilised by 300 ft, common practice).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+from dataclasses import dataclass, field
+from typing import Callable, Literal
+
+import numpy as np
+import numpy.typing as npt
+
+from briefer.core.maneuver_legs import (
+    FloatArray,
+    Leg,
+    State,
+    Straight,
+    StraightTrack,
+    TrackSamples,
+    Turn,
+    sample_legs,
+)
+from briefer.core.maneuver_solver import (
+    R_BREAK_BACK,
+    R_INSIDE_TURN,
+    R_NEG_LEG,
+    R_NO_CONVERGE,
+    R_TOO_CLOSE,
+    R_WIND,
+    R_WRONG_SIDE,
+    SHAPES,
+    SIDES,
+    CircleInputs,
+    DescentGeometry,
+    Shape,
+    ShapeSolution,
+    Side,
+    SolutionTrack,
+    applicable_candidates,
+    descent_geometry,
+    sample_solution,
+    solve_inputs,
+)
+from briefer.errors import DomainError
+from briefer.units import wrap_180
+
+MARGINAL_BANK_DEG = 5.0
+MARGINAL_AREA_FRACTION = 0.10
+MARGINAL_VISIBILITY_FRACTION = 0.90
+MARGINAL_AOA_DEG = 3.0
+PLAN_TURN_STEP_DEG = 2.0          # a plan's track: a point every 2 deg of turn ...
+PLAN_STRAIGHT_STEP_M = 100.0      # ... and every 100 m of straight
+
+MarginFn = Callable[[npt.NDArray[np.float64]], "float | npt.NDArray[np.float64]"]
+"""margin_fn(track_xy) -> minimum area margin [m], positive inside. ``track_xy`` is a runway-frame
+array of shape (..., N, 2); the result has shape (...) (a float for one (N, 2) track)."""
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class LeaveMda:
+    """Where to leave the circling height (MDA) to descend on the glide path.
+
+    Attributes
+    ----------
+    x_m, y_m : float
+        Point in the runway frame. [m]
+    heading_deg : float
+        Heading there (runway frame, wrapped to [0, 360)). [deg]
+    in_turn : bool
+        True if the point is inside the final turn (the descent starts before the roll-out).
+    leg_name : str
+        Name of the leg holding the point ("final", "final turn", "downwind", ...).
+    along_track_to_threshold_m : float
+        Ground distance still to fly to the threshold from the point. [m]
+    time_s : float
+        Time from the start of the plan. [s]
+    """
+
+    x_m: float
+    y_m: float
+    heading_deg: float
+    in_turn: bool
+    leg_name: str
+    along_track_to_threshold_m: float
+    time_s: float
+
+    def __post_init__(self) -> None:
+        if not self.along_track_to_threshold_m >= 0.0:
+            raise DomainError("along_track_to_threshold_m must be >= 0")
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Plan:
+    """One solved circling plan (or an infeasible candidate with its reasons).
+
+    Attributes
+    ----------
+    shape : str
+        One of ``SHAPES``.
+    side : {"left", "right"}
+        Side of the runway of the downwind (or from which a direct turn joins), looking in the
+        landing direction; pattern turns are to that side.
+    bank_deg, tas_kt : float
+        Bank of every turn and TAS. [deg], [kt]
+    feasible : bool
+        False if the plan cannot be flown; then ``reasons`` says why and the numeric fields
+        are None.
+    reasons : tuple of str
+        Why it cannot be flown (empty when feasible).
+    notes : tuple of str
+        Things the crew should know about a feasible plan (e.g. descent starts in the turn).
+    inputs : CircleInputs
+        The inputs it was solved from (with this bank).
+    offset_m : float or None
+        Lateral distance of the downwind (or of the roll-in point) from the centreline. [m]
+    abeam_to_roll_in_s : float or None
+        Seconds from abeam (or over) the threshold to the roll-in into the final turn;
+        negative if the roll-in comes before abeam; None if the track never passes abeam. [s]
+    roll_in_distance_m : float or None
+        Roll-in point along the downwind past abeam the threshold (= -x of the roll-in;
+        negative before abeam). [m]
+    roll_in_xy_m : tuple of float or None
+        Roll-in point of the final turn in the runway frame. [m]
+    break_off_s : float or None
+        Solved time on the break leg (break-and-return), the crossing leg (downwind-join) or
+        the offset leg (teardrop); None for a direct turn. [s]
+    roll_out_distance_m : float or None
+        Roll-out (wings level on the centreline) distance before the threshold. [m]
+    descent_point_m : float
+        Where the glide path meets the circling height, before the threshold. [m]
+    final_heading_deg, downwind_heading_deg : float or None
+        Crab headings holding the final and the downwind tracks (runway frame). [deg]
+    leave_mda : LeaveMda or None
+        Where the descent from the circling height starts.
+    legs : tuple of Leg
+        The legs, the last one the final straight to the threshold; ``start`` is the arrival.
+    leg_names, leg_times_s : tuple
+        Name and duration of each leg. [s]
+    total_time_s : float or None
+        Arrival to threshold. [s]
+    start : State
+        Arrival state (heading crabbed on the arrival course).
+    track_xy_m : ndarray (N, 2)
+        Ground track, arrival to threshold, runway frame (empty when infeasible). [m]
+    track_time_s, track_heading_deg : ndarray (N,)
+        Time and heading of each track point. [s], [deg]
+    track_leg_index : ndarray (N,)
+        Leg of each track point.
+    max_distance_from_threshold_m : float or None
+        Largest distance from the landing threshold along the track. [m]
+    max_distance_from_runway_m : float or None
+        Largest distance from the runway (threshold to far end) along the track. [m]
+    """
+
+    shape: Shape
+    side: Side
+    bank_deg: float
+    tas_kt: float
+    feasible: bool
+    reasons: tuple[str, ...]
+    notes: tuple[str, ...]
+    inputs: CircleInputs
+    offset_m: float | None = None
+    abeam_to_roll_in_s: float | None = None
+    roll_in_distance_m: float | None = None
+    roll_in_xy_m: tuple[float, float] | None = None
+    break_off_s: float | None = None
+    roll_out_distance_m: float | None = None
+    descent_point_m: float = 0.0
+    final_heading_deg: float | None = None
+    downwind_heading_deg: float | None = None
+    leave_mda: LeaveMda | None = None
+    legs: tuple[Leg, ...] = ()
+    leg_names: tuple[str, ...] = ()
+    leg_times_s: tuple[float, ...] = ()
+    total_time_s: float | None = None
+    start: State | None = None
+    track_xy_m: FloatArray = field(default_factory=lambda: np.zeros((0, 2)), compare=False, repr=False)
+    track_time_s: FloatArray = field(default_factory=lambda: np.zeros(0), compare=False, repr=False)
+    track_heading_deg: FloatArray = field(default_factory=lambda: np.zeros(0), compare=False, repr=False)
+    track_leg_index: npt.NDArray[np.int_] = field(default_factory=lambda: np.zeros(0, dtype=int),
+                                                  compare=False, repr=False)
+    max_distance_from_threshold_m: float | None = None
+    max_distance_from_runway_m: float | None = None
+
+    def __post_init__(self) -> None:
+        if self.shape not in SHAPES:
+            raise DomainError(f"shape = {self.shape!r}: expected one of {SHAPES}")
+        if self.side not in SIDES:
+            raise DomainError(f"side = {self.side!r}: expected 'left' or 'right'")
+        if self.feasible:
+            if self.reasons:
+                raise DomainError("a feasible plan carries no reasons")
+            if (self.offset_m is None or self.roll_out_distance_m is None or not self.legs
+                    or self.track_xy_m.shape[0] < 2 or self.total_time_s is None):
+                raise DomainError("a feasible plan needs its numbers, legs and track")
+            if not (len(self.legs) == len(self.leg_names) == len(self.leg_times_s)):
+                raise DomainError("legs, leg_names and leg_times_s must have the same length")
+            if min(self.leg_times_s) < 0.0:
+                raise DomainError("leg times must be >= 0")
+        elif not self.reasons:
+            raise DomainError("an infeasible plan must say why")
+
+    @property
+    def sign(self) -> int:
+        """+1 for the right side (right-hand pattern), -1 for the left."""
+        return 1 if self.side == "right" else -1
+
+
+# --------------------------------------------------------------------------------------------
+# solving one plan
+# --------------------------------------------------------------------------------------------
+def _reason_texts(flags: int, shape: Shape, sol: ShapeSolution, inputs: CircleInputs,
+                  descent: DescentGeometry) -> tuple[str, ...]:
+    out = []
+    b = inputs.bank_deg
+    f = lambda a: float(np.asarray(a))  # noqa: E731
+    if flags & R_WIND:
+        out.append(f"the wind ({inputs.wind.speed_kt:.0f} kt) leaves no flyable crab on a leg: a crosswind "
+                   f"component reaches the TAS ({inputs.tas_kt:.0f} kt) or a ground speed is not positive")
+    if flags & R_BREAK_BACK:
+        out.append("the wind carries the break leg back toward the runway: no offset can be built "
+                   f"with a {inputs.break_angle_deg:g} deg break")
+    if flags & R_WRONG_SIDE:
+        out.append(f"the wind is too strong to make the roll-out with {b:g} deg bank: the final turn would "
+                   "need the downwind on the other side")
+    if flags & R_NO_CONVERGE:
+        out.append("the arrival course never converges with the centreline: no single turn joins the final")
+    if flags & R_NEG_LEG:
+        if shape == "downwind-join":
+            out.append(f"the arrival is already beyond the downwind offset ({f(sol.offset):.0f} m at {b:g} deg "
+                       f"bank): the crossing leg would last {f(sol.break_s):.0f} s")
+        elif shape == "break-and-return":
+            out.append(f"the break turns alone overshoot the downwind offset ({f(sol.offset):.0f} m at {b:g} deg "
+                       f"bank): the break leg would last {f(sol.break_s):.0f} s")
+        elif shape == "teardrop":
+            out.append(f"no teardrop fits at {b:g} deg bank: outbound {f(sol.legs[0].duration):.0f} s, "
+                       f"offset leg {f(sol.legs[2].duration):.0f} s")
+        else:
+            out.append("the arrival is already past the point where the turn onto final must start "
+                       f"(by {-f(sol.legs[0].duration):.0f} s)")
+    if flags & R_INSIDE_TURN:
+        dw = [lg for lg in sol.legs if lg.name == "downwind"][0]
+        gone = -f(dw.duration) * f(sol.gs_d)
+        out.append(f"the downwind is joined {gone:.0f} m past the roll-in point: the arrival is already "
+                   f"inside the final turn for {b:g} deg bank")
+    if flags & R_TOO_CLOSE:
+        out.append(f"the turn rolls out {f(sol.roll_out_d):.0f} m before the threshold, inside the "
+                   f"stabilised distance ({descent.stabilised_distance_m:.0f} m)")
+    return tuple(out)
+
+
+def _public_legs(sol: ShapeSolution, inputs: CircleInputs) -> tuple[Leg, ...]:
+    legs: list[Leg] = []
+    for lg in sol.legs:
+        t = float(np.asarray(lg.duration))
+        if lg.kind == "turn":
+            assert lg.prof is not None and lg.sign is not None
+            legs.append(Turn(angle_deg=math.degrees(float(np.asarray(lg.prof.angle))), bank_deg=inputs.bank_deg,
+                             direction="right" if float(np.asarray(lg.sign)) > 0 else "left",
+                             roll_rate_deg_per_s=inputs.roll_rate_deg_per_s, name=lg.name))
+        elif lg.track_rad is not None:
+            legs.append(StraightTrack(time_s=t, track_deg=math.degrees(lg.track_rad), name=lg.name))
+        else:
+            legs.append(Straight(time_s=t, heading_deg=math.degrees(float(np.asarray(lg.psi0))), name=lg.name))
+    return tuple(legs)
+
+
+def _distance_to_runway_m(x: FloatArray, y: FloatArray, length_m: float) -> FloatArray:
+    return np.hypot(x - np.minimum(np.maximum(x, 0.0), length_m), y)
+
+
+def _first_abeam_time_s(x: FloatArray, t: FloatArray) -> float | None:
+    """Time at which the track first goes from x > 0 to x <= 0 (linear between samples)."""
+    idx = np.nonzero((x[:-1] > 0.0) & (x[1:] <= 0.0))[0]
+    if idx.size == 0:
+        return None
+    i = int(idx[0])
+    return float(t[i] + (t[i + 1] - t[i]) * x[i] / (x[i] - x[i + 1]))
+
+
+def _leave_mda(trk: SolutionTrack, names: tuple[str, ...], final_turn: int, roll_out_d: float,
+               descent: DescentGeometry) -> tuple[LeaveMda, bool]:
+    """Point along the track, back from the roll-out, where the ground distance still to fly to
+    the threshold equals the descent-point distance. Returns (point, reached)."""
+    xy, hd, tm, li = trk.xy, trk.heading, trk.time, trk.leg_index
+    assert hd is not None and tm is not None
+    need = descent.descent_point_m - roll_out_d
+    last = len(names) - 1
+    if need <= 0.0:              # the descent point is on the final straight
+        fin = li == last
+        x_f, t_f = xy[fin, 0], tm[fin]
+        t = float(np.interp(-descent.descent_point_m, x_f, t_f))
+        return LeaveMda(x_m=-descent.descent_point_m, y_m=0.0, heading_deg=math.degrees(float(hd[fin][0])) % 360.0,
+                        in_turn=False, leg_name="final", along_track_to_threshold_m=descent.descent_point_m,
+                        time_s=t), True
+    keep = li < last                      # everything before the final straight, walked backwards
+    x, y = xy[keep, 0][::-1], xy[keep, 1][::-1]
+    s = np.concatenate([[0.0], np.cumsum(np.hypot(np.diff(x), np.diff(y)))])
+    lk, tt, hh = li[keep][::-1], tm[keep][::-1], hd[keep][::-1]
+    reached = bool(s[-1] >= need)
+    j = max(1, int(np.searchsorted(s, need)) if reached else len(s) - 1)
+    fr = 0.0 if s[j] == s[j - 1] else min(1.0, (need - s[j - 1]) / (s[j] - s[j - 1]))
+    lerp = lambda a: float(a[j - 1] + fr * (a[j] - a[j - 1]))  # noqa: E731
+    leg_i = int(lk[j])
+    return LeaveMda(x_m=lerp(x), y_m=lerp(y), heading_deg=math.degrees(lerp(hh)) % 360.0,
+                    in_turn=leg_i == final_turn, leg_name=names[leg_i],
+                    along_track_to_threshold_m=roll_out_d + min(need, float(s[-1])), time_s=lerp(tt)), reached
+
+
+def solve_plan(inputs: CircleInputs, *, shape: Shape, side: Side) -> Plan:
+    """Solve one plan shape on one side for the inputs' bank target.
+
+    Parameters
+    ----------
+    inputs : CircleInputs
+    shape : str
+        One of ``SHAPES``.
+    side : {"left", "right"}
+
+    Returns
+    -------
+    Plan
+        ``feasible=False`` with reasons if the plan cannot be flown (or does not apply to this
+        arrival); otherwise the roll-out is on the centreline, wings level, on the final crab
+        heading, at ``descent_geometry(inputs).roll_out_distance_m`` (the direct turn's
+        roll-out distance is a result instead).
+
+    Raises
+    ------
+    DomainError
+        If shape or side is not one of the known names.
+
+    Notes
+    -----
+    Closed-form solve of :func:`briefer.core.maneuver_solver.solve_shape`. If the roll-out is
+    closer than the descent point, the descent starts before the roll-out: ``leave_mda`` is
+    the point where the ground distance left to the threshold along the track equals the
+    descent-point distance (on a 3 deg path that distance sets the height) [3]_.
+
+    References
+    ----------
+    See the module references.
+    """
+    if shape not in SHAPES:
+        raise DomainError(f"shape = {shape!r}: expected one of {SHAPES}")
+    if side not in SIDES:
+        raise DomainError(f"side = {side!r}: expected 'left' or 'right'")
+    descent = descent_geometry(inputs)
+    base = dict(shape=shape, side=side, bank_deg=inputs.bank_deg, tas_kt=inputs.tas_kt, inputs=inputs,
+                descent_point_m=descent.descent_point_m)
+    if (shape, side) not in applicable_candidates(inputs.arrival_course_deg):
+        return Plan(**base, feasible=False, notes=(),
+                    reasons=(f"{shape} on the {side} does not suit an arrival course of "
+                             f"{float(wrap_180(inputs.arrival_course_deg)):.0f} deg to the runway",))
+    sigma = 1.0 if side == "right" else -1.0
+    wx, wy = inputs.wind.mps()
+    sol = solve_inputs(inputs, shape, sigma=sigma, wx_mps=wx, wy_mps=wy, bank_deg=inputs.bank_deg, descent=descent)
+    flags = int(sol.reasons)
+    if flags:
+        return Plan(**base, feasible=False, notes=(), reasons=_reason_texts(flags, shape, sol, inputs, descent))
+
+    legs = _public_legs(sol, inputs)
+    start = State(x_m=inputs.arrival_x_m, y_m=inputs.arrival_y_m,
+                  heading_deg=math.degrees(float(sol.legs[0].psi0)), time_s=0.0)
+    trk = sample_solution(sol, turn_step_deg=PLAN_TURN_STEP_DEG, n_straight=2, straight_step_m=PLAN_STRAIGHT_STEP_M,
+                          with_heading=True)
+    assert trk.heading is not None and trk.time is not None
+    times = tuple(float(lg.duration) for lg in sol.legs)
+    names = tuple(lg.name for lg in sol.legs)
+    roll_out_d = float(sol.roll_out_d)
+    notes: list[str] = []
+    if descent.clamped:
+        notes.append(f"roll-out moved out to the stabilised distance, {descent.stabilised_distance_m:.0f} m "
+                     f"({inputs.stabilised_height_ft:.0f} ft on the glide path)")
+    leave, reached = _leave_mda(trk, names, sol.final_turn, roll_out_d, descent)
+    if leave.in_turn:
+        notes.append(f"the glide path starts in the final turn: leave the circling height at heading "
+                     f"{leave.heading_deg:.0f} with {leave.along_track_to_threshold_m:.0f} m to fly")
+    elif leave.leg_name != "final":
+        notes.append(f"the glide path starts before the final turn, on the {leave.leg_name}")
+    if not reached:
+        notes.append("the glide path from the circling height starts before the circle begins: "
+                     "descend from the arrival")
+    if sol.abeam_s is not None:
+        abeam: float | None = float(sol.abeam_s)
+    else:       # teardrop, direct turn: from the first pass abeam/over the threshold, if before the roll-in
+        t_cross = _first_abeam_time_s(trk.xy[:, 0], trk.time)
+        t_roll_in = sum(times[: sol.final_turn])
+        abeam = None if t_cross is None or t_cross > t_roll_in else t_roll_in - t_cross
+    if shape in ("downwind-join", "break-and-return"):
+        dw_i = [lg.name for lg in sol.legs].index("downwind")
+        x_join = float(sol.legs[dw_i].x0)
+        if x_join < 0.0:
+            notes.append(f"the downwind is joined {-x_join:.0f} m past abeam the threshold: start the timing "
+                         f"from the join, {times[dw_i]:.0f} s to the roll-in")
+    x, y = trk.xy[:, 0], trk.xy[:, 1]
+    ri = (float(sol.x_ri), float(sol.y_ri))
+    return Plan(**base, feasible=True, reasons=(), notes=tuple(notes),
+                offset_m=float(sol.offset), abeam_to_roll_in_s=abeam, roll_in_distance_m=-ri[0], roll_in_xy_m=ri,
+                break_off_s=None if sol.break_s is None else float(sol.break_s), roll_out_distance_m=roll_out_d,
+                final_heading_deg=math.degrees(float(sol.psi_f)) % 360.0,
+                downwind_heading_deg=(math.degrees(float(sol.psi_d)) % 360.0
+                                      if shape in ("downwind-join", "break-and-return") else None),
+                leave_mda=leave, legs=legs, leg_names=names, leg_times_s=times,
+                total_time_s=float(sum(times)), start=start, track_xy_m=trk.xy, track_time_s=trk.time,
+                track_heading_deg=np.degrees(trk.heading), track_leg_index=trk.leg_index,
+                max_distance_from_threshold_m=float(np.sqrt(np.max(x * x + y * y))),
+                max_distance_from_runway_m=float(np.max(_distance_to_runway_m(x, y, inputs.runway_length_m))))
+
+
+def candidate_plans(inputs: CircleInputs) -> tuple[Plan, ...]:
+    """Every applicable (shape, side) for the arrival, solved at the inputs' bank.
+
+    Returns an empty tuple for an arrival aligned with the landing direction (a straight-in).
+    """
+    return tuple(solve_plan(inputs, shape=s, side=d) for s, d in applicable_candidates(inputs.arrival_course_deg))
+
+
+# --------------------------------------------------------------------------------------------
+# ranking
+# --------------------------------------------------------------------------------------------
+Verdict = Literal["fits", "marginal", "does not fit"]
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class RankedPlan:
+    """A plan with its checks, its verdict and why it is not first.
+
+    Attributes
+    ----------
+    plan : Plan
+    rank : int
+        1 = the recommended plan.
+    verdict : {"fits", "marginal", "does not fit"}
+    area_margin_m : float or None
+        Smallest distance inside the protected area along the track (negative = leaves). [m]
+    visibility_margin_m : float or None
+        Visibility minus the largest distance from the runway along the track. [m]
+    aoa_margin_deg : float or None
+        Angle-of-attack margin from the caller's callable (None if not given). [deg]
+    failures : tuple of str
+        Hard failures (the plan's own reasons if infeasible).
+    marginal : tuple of str
+        Why it is marginal.
+    why_not_first : str
+        Short reason it loses to rank 1 ("" for rank 1).
+    """
+
+    plan: Plan
+    rank: int
+    verdict: Verdict
+    area_margin_m: float | None
+    visibility_margin_m: float | None
+    aoa_margin_deg: float | None
+    failures: tuple[str, ...]
+    marginal: tuple[str, ...]
+    why_not_first: str
+
+    def __post_init__(self) -> None:
+        if self.rank < 1:
+            raise DomainError("rank starts at 1")
+        if self.verdict not in ("fits", "marginal", "does not fit"):
+            raise DomainError(f"verdict = {self.verdict!r}")
+        if (self.verdict == "does not fit") != bool(self.failures):
+            raise DomainError("'does not fit' exactly when there are failures")
+
+
+def _label(p: Plan) -> str:
+    return f"{p.shape} {p.side}"
+
+
+def rank_plans(plans: tuple[Plan, ...] | list[Plan], *, margin_fn: MarginFn, visibility_m: float,
+               bank_limit_deg: float, area_radius_m: float | None = None,
+               aoa_margin_fn: Callable[[float], float] | None = None) -> tuple[RankedPlan, ...]:
+    """Rank candidate plans and say why each loser loses.
+
+    Parameters
+    ----------
+    plans : sequence of Plan
+    margin_fn : callable
+        ``margin_fn(track_xy)`` -> smallest protected-area margin [m] along a runway-frame track
+        of shape (N, 2), positive inside (including not-authorised sectors).
+    visibility_m : float
+        Reported visibility, > 0. [m]
+    bank_limit_deg : float
+        Largest bank allowed, 0 < limit < 90. [deg]
+    area_radius_m : float, optional
+        Area radius R, for the 10 % marginal threshold (not used if None). [m]
+    aoa_margin_fn : callable, optional
+        ``aoa_margin_fn(bank_deg)`` -> angle-of-attack margin to the stall in that turn. [deg]
+
+    Returns
+    -------
+    tuple of RankedPlan
+        Best first. Never raises for an infeasible plan: it ranks last with its reasons.
+
+    Raises
+    ------
+    DomainError
+        If visibility or bank limit is out of range.
+
+    Notes
+    -----
+    Order key (lower is better): (number of failures, bank, -min(area margin, visibility
+    margin) rounded to 1 m, -AoA margin, total time rounded to 0.1 s); infeasible plans after
+    all others; exact ties keep the input order. Thresholds: see the
+    module docstring.
+    """
+    if not (math.isfinite(visibility_m) and visibility_m > 0.0):
+        raise DomainError(f"visibility_m = {visibility_m}: must be > 0")
+    if not 0.0 < bank_limit_deg < 90.0:
+        raise DomainError(f"bank_limit_deg = {bank_limit_deg}: valid range is (0, 90)")
+    rows = []
+    for p in plans:
+        if not p.feasible:
+            rows.append(((10**6, 0.0, 0.0, 0.0, 0.0), p, None, None, None, tuple(p.reasons), ()))
+            continue
+        area = float(np.asarray(margin_fn(p.track_xy_m)))
+        assert p.max_distance_from_runway_m is not None and p.total_time_s is not None
+        vis = visibility_m - p.max_distance_from_runway_m
+        aoa = None if aoa_margin_fn is None else float(aoa_margin_fn(p.bank_deg))
+        fails, marg = [], []
+        if p.bank_deg > bank_limit_deg:
+            fails.append(f"needs {p.bank_deg:g} deg bank, above the {bank_limit_deg:g} deg limit")
+        elif p.bank_deg > bank_limit_deg - MARGINAL_BANK_DEG:
+            marg.append(f"{p.bank_deg:g} deg bank is within {MARGINAL_BANK_DEG:g} deg of the limit")
+        if area < 0.0:
+            fails.append(f"leaves the protected area by {-area:.0f} m")
+        elif area_radius_m is not None and area < MARGINAL_AREA_FRACTION * area_radius_m:
+            marg.append(f"only {area:.0f} m inside the protected area (< 10 % of R)")
+        if vis < 0.0:
+            fails.append(f"the runway gets {p.max_distance_from_runway_m:.0f} m away, beyond the "
+                         f"{visibility_m:.0f} m visibility")
+        elif p.max_distance_from_runway_m > MARGINAL_VISIBILITY_FRACTION * visibility_m:
+            marg.append(f"the runway gets {p.max_distance_from_runway_m:.0f} m away, over 90 % of the visibility")
+        if aoa is not None:
+            if aoa < 0.0:
+                fails.append(f"angle-of-attack margin {aoa:.1f} deg: beyond the stall")
+            elif aoa < MARGINAL_AOA_DEG:
+                marg.append(f"angle-of-attack margin only {aoa:.1f} deg")
+        key = (len(fails), round(p.bank_deg, 3), -round(min(area, vis)), -(aoa or 0.0), round(p.total_time_s, 1))
+        rows.append((key, p, area, vis, aoa, tuple(fails), tuple(marg)))
+    rows.sort(key=lambda r: r[0])
+    out: list[RankedPlan] = []
+    for i, (key, p, area, vis, aoa, fails, marg) in enumerate(rows):
+        why = "" if i == 0 else _why_loses(rows[0], (key, p, area, vis, aoa, fails, marg))
+        verdict: Verdict = "does not fit" if fails else ("marginal" if marg else "fits")
+        out.append(RankedPlan(plan=p, rank=i + 1, verdict=verdict, area_margin_m=area, visibility_margin_m=vis,
+                              aoa_margin_deg=aoa, failures=fails, marginal=marg, why_not_first=why))
+    return tuple(out)
+
+
+def _why_loses(best: tuple, row: tuple) -> str:
+    bkey, bp, barea, bvis = best[0], best[1], best[2], best[3]
+    key, p, area, vis, aoa, fails = row[0], row[1], row[2], row[3], row[4], row[5]
+    if not p.feasible:
+        return "cannot be flown: " + p.reasons[0]
+    if key[0] > bkey[0]:
+        return "fails: " + "; ".join(fails)
+    if key[1] > bkey[1]:
+        return f"needs {p.bank_deg:g} deg bank against {bp.bank_deg:g} deg for {_label(bp)}"
+    if key[2] > bkey[2]:
+        if min(area, vis) == area:
+            return f"area margin {area:.0f} m against {min(barea, bvis):.0f} m for {_label(bp)}"
+        return f"the runway gets {p.max_distance_from_runway_m:.0f} m away (visibility margin {vis:.0f} m) " \
+               f"against a {min(barea, bvis):.0f} m margin for {_label(bp)}"
+    if key[3] > bkey[3]:
+        return f"angle-of-attack margin {aoa:.1f} deg against {-bkey[3]:.1f} deg for {_label(bp)}"
+    if round(p.total_time_s - bp.total_time_s, 1) == 0.0:
+        return f"ties with {_label(bp)}: either may be flown"
+    return f"takes {p.total_time_s - bp.total_time_s:.0f} s longer than {_label(bp)}"
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class PlanChoice:
+    """The candidates ranked at the lowest bank that makes the best of them fit.
+
+    Attributes
+    ----------
+    bank_needed_deg : float or None
+        Lowest bank level (target, then steps up to the limit) at which the best candidate has
+        no failure; None if none up to the limit. [deg]
+    banks_tried_deg : tuple of float
+        The bank levels tried. [deg]
+    ranked : tuple of RankedPlan
+        The ranking at ``bank_needed_deg`` (or at the last level tried).
+    """
+
+    bank_needed_deg: float | None
+    banks_tried_deg: tuple[float, ...]
+    ranked: tuple[RankedPlan, ...]
+
+    def __post_init__(self) -> None:
+        if not self.banks_tried_deg:
+            raise DomainError("at least one bank level is tried")
+
+
+def bank_levels_deg(bank_deg: float, bank_limit_deg: float, step_deg: float) -> tuple[float, ...]:
+    """Bank levels tried: the target, then every ``step_deg`` below the limit, then the limit."""
+    if not step_deg > 0.0:
+        raise DomainError(f"bank step_deg = {step_deg}: must be > 0")
+    levels = [float(bank_deg)]
+    b = bank_deg + step_deg
+    while b < bank_limit_deg - 1e-9:
+        levels.append(float(b))
+        b += step_deg
+    if bank_limit_deg > bank_deg + 1e-9:
+        levels.append(float(bank_limit_deg))
+    return tuple(levels)
+
+
+def choose_plan(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: float, bank_limit_deg: float,
+                area_radius_m: float | None = None, bank_step_deg: float = 5.0,
+                aoa_margin_fn: Callable[[float], float] | None = None) -> PlanChoice:
+    """Rank the candidates at the inputs' bank and, if the best one fails, at steeper banks.
+
+    The same rule as one cell of :func:`briefer.core.maneuver_envelope.wind_envelope`.
+    Banks above 60 deg are not tried (the solver's range).
+    """
+    levels = tuple(b for b in bank_levels_deg(inputs.bank_deg, bank_limit_deg, bank_step_deg) if b <= 60.0)
+    ranked: tuple[RankedPlan, ...] = ()
+    for b in levels:
+        plans = candidate_plans(dataclasses.replace(inputs, bank_deg=b))
+        ranked = rank_plans(plans, margin_fn=margin_fn, visibility_m=visibility_m, bank_limit_deg=bank_limit_deg,
+                            area_radius_m=area_radius_m, aoa_margin_fn=aoa_margin_fn)
+        if ranked and not ranked[0].failures:
+            return PlanChoice(bank_needed_deg=b, banks_tried_deg=levels[: levels.index(b) + 1], ranked=ranked)
+    return PlanChoice(bank_needed_deg=None, banks_tried_deg=levels, ranked=ranked)
+
+
+# --------------------------------------------------------------------------------------------
+# missed approach from the circle
+# --------------------------------------------------------------------------------------------
+MissedDirection = Literal["left", "right", "ahead", "either"]
+AHEAD_TOL_DEG = 5.0
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class MissedTurnSegment:
+    """A stretch of a leg over which the initial missed-approach turn has one direction.
+
+    Attributes
+    ----------
+    leg_name : str
+    start_s, end_s : float
+        Times from the start of the plan. [s]
+    direction : {"left", "right", "ahead", "either"}
+        Climbing turn toward the runway: "ahead" when the runway is within 5 deg of the nose,
+        "either" when it is within 5 deg of the tail.
+    """
+
+    leg_name: str
+    start_s: float
+    end_s: float
+    direction: MissedDirection
+
+    def __post_init__(self) -> None:
+        if self.end_s < self.start_s:
+            raise DomainError("end_s must not precede start_s")
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class MissedApproachGuide:
+    """Direction of the initial climbing turn toward the landing runway along a plan.
+
+    Attributes
+    ----------
+    reference_xy_m : tuple of float
+        The runway point turned toward (threshold or runway midpoint), runway frame. [m]
+    relative_bearing_deg : ndarray (N,)
+        Bearing of that point from the nose at each track point, (-180, 180], positive right. [deg]
+    direction : tuple of str
+        Per track point: "left" | "right" | "ahead" | "either".
+    segments : tuple of MissedTurnSegment
+        Compact summary per leg.
+    """
+
+    reference_xy_m: tuple[float, float]
+    relative_bearing_deg: FloatArray = field(compare=False, repr=False)
+    direction: tuple[MissedDirection, ...] = field(compare=False, repr=False)
+    segments: tuple[MissedTurnSegment, ...]
+
+    def __post_init__(self) -> None:
+        if len(self.direction) != len(self.relative_bearing_deg):
+            raise DomainError("one direction per track point")
+
+
+def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"] = "midpoint"
+                          ) -> MissedApproachGuide:
+    """Initial climbing-turn direction toward the landing runway at every point of a plan.
+
+    Parameters
+    ----------
+    plan : Plan
+        A feasible plan.
+    toward : {"threshold", "midpoint"}
+        Runway point turned toward (the midpoint needs ``inputs.runway_length_m`` > 0;
+        otherwise the threshold is used).
+
+    Returns
+    -------
+    MissedApproachGuide
+
+    Raises
+    ------
+    DomainError
+        If the plan is not feasible.
+
+    Notes
+    -----
+    "Make an initial climbing turn toward the landing runway" [1]_ [2]_: the side is the sign
+    of the cross product of the heading unit vector with the vector to the runway point
+    (positive = to the right in the runway frame, whose headings increase clockwise).
+    """
+    if not plan.feasible:
+        raise DomainError("missed_approach_turns needs a feasible plan")
+    ref = (plan.inputs.runway_length_m / 2.0 if toward == "midpoint" else 0.0, 0.0)
+    psi = np.radians(plan.track_heading_deg)
+    dx, dy = ref[0] - plan.track_xy_m[:, 0], ref[1] - plan.track_xy_m[:, 1]
+    cross = np.cos(psi) * dy - np.sin(psi) * dx          # > 0: runway to the right
+    dot = np.cos(psi) * dx + np.sin(psi) * dy
+    rel = np.degrees(np.arctan2(cross, dot))
+    dirs: list[MissedDirection] = []
+    for r in rel:
+        if abs(r) <= AHEAD_TOL_DEG:
+            dirs.append("ahead")
+        elif abs(r) >= 180.0 - AHEAD_TOL_DEG:
+            dirs.append("either")
+        else:
+            dirs.append("right" if r > 0 else "left")
+    segs: list[MissedTurnSegment] = []
+    for d, t, li in zip(dirs, plan.track_time_s, plan.track_leg_index):
+        name = plan.leg_names[int(li)]
+        if segs and segs[-1].leg_name == name and segs[-1].direction == d:
+            segs[-1] = dataclasses.replace(segs[-1], end_s=float(t))
+        else:
+            segs.append(MissedTurnSegment(leg_name=name, start_s=float(t), end_s=float(t), direction=d))
+    return MissedApproachGuide(reference_xy_m=ref, relative_bearing_deg=rel, direction=tuple(dirs),
+                               segments=tuple(segs))
+
+
+def plan_sample(plan: Plan, n: int) -> TrackSamples:
+    """Resample a feasible plan's legs at about ``n`` points in all (time-proportional per leg)."""
+    if not plan.feasible or plan.start is None:
+        raise DomainError("plan_sample needs a feasible plan")
+    if n < 2 * len(plan.legs):
+        raise DomainError(f"n = {n}: need at least 2 points per leg ({2 * len(plan.legs)})")
+    total = sum(plan.leg_times_s)
+    counts = tuple(max(2, int(round(n * t / total))) if total > 0 else 2 for t in plan.leg_times_s)
+    return sample_legs(plan.legs, plan.start, tas_kt=plan.tas_kt, wind=plan.inputs.wind, n_per_leg=counts)
+
+
+__all__ = [
+    "MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION", "MARGINAL_BANK_DEG", "MARGINAL_VISIBILITY_FRACTION",
+    "LeaveMda", "MarginFn", "MissedApproachGuide", "MissedTurnSegment", "Plan", "PlanChoice", "RankedPlan",
+    "bank_levels_deg", "candidate_plans", "choose_plan", "missed_approach_turns", "plan_sample", "rank_plans",
+    "solve_plan",
+]

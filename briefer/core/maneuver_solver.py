@@ -1,0 +1,611 @@
+"""The standard circling plan shapes and their solver, vectorised over winds, sides and banks.
+
+Runway frame and wind: see :mod:`briefer.core.maneuver_legs`. ``sigma`` = +1 puts the downwind
+on the right of the runway (y > 0) and all pattern turns to the right; -1 on the left.
+
+Plan shapes (names of our own)
+------------------------------
+``downwind-join``
+    Hold the arrival course (the "crossing" leg) for t_join, turn (same hand as the pattern)
+    onto the downwind, hold the downwind TRACK for t_dw, turn to final. For an arrival that
+    crosses toward the downwind side at 30 deg or more.
+``break-and-return``
+    Reciprocal arrival: turn away from the runway through the break angle (45 deg default),
+    hold that heading for t_break, turn onto the downwind, downwind, turn to final [3]_.
+``teardrop``
+    Reciprocal arrival: hold the arrival course for t_out (over and past the landing
+    threshold), turn away through the teardrop angle (30 deg default), hold that heading for
+    t_offset, then one turn of about 180 + angle onto final.
+``direct-turn``
+    Arrival at an angle of at most 90 deg to the landing direction: hold the arrival course
+    until one turn rolls out on the centreline. The roll-out distance is a result here.
+
+The unknowns and the equations
+------------------------------
+Every turn's ground displacement is D = R(psi_entry) D_air + w T (closed form, independent of
+where it starts) and every straight leg moves g t, so the end position is LINEAR in the leg
+times. The final turn (downwind crab heading -> final crab heading, pattern hand, target bank)
+fixes the roll-in point: (x_ri, y_ri) = (-d, 0) - D_final; the downwind offset is |y_ri|. The
+join leg time follows from y, the downwind time from x (two 1x1 solves); the teardrop solves a
+2x2 system. No iteration and no generic optimiser.
+
+References
+----------
+.. [1] ICAO Doc 8168 Vol II, Part I, Section 4, Chapter 7 (visual manoeuvring area, R = 2r + S;
+   wind throughout the turn), 5th ed., 2006.
+.. [2] FAA, Aeronautical Information Manual, 5-4-20 (circling: remain at the MDA until in a
+   position to descend with normal manoeuvres; shortest path to the base or downwind leg).
+.. [3] Operator circling technique summarised in ../shared/REFERENCES.md section 9: reciprocal
+   break 45 deg for about 30 s, timing from abeam the threshold, descent on a ~3 deg path,
+   stabilised by 300 ft above the airport (common practice).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from typing import Literal
+
+import numpy as np
+import numpy.typing as npt
+
+from briefer.core.maneuver_legs import (
+    BANK_MAX_DEG,
+    GL_NODES,
+    GL_WEIGHTS,
+    FloatArray,
+    RunwayWind,
+    TurnProfile,
+    crab,
+    turn_ground,
+    turn_profile,
+)
+from briefer.errors import DomainError
+from briefer.units import FT_TO_M, KT_TO_MPS, wrap_180
+
+Shape = Literal["downwind-join", "break-and-return", "teardrop", "direct-turn"]
+Side = Literal["left", "right"]
+SHAPES: tuple[Shape, ...] = ("downwind-join", "break-and-return", "teardrop", "direct-turn")
+SIDES: tuple[Side, ...] = ("left", "right")
+
+# --- feasibility reason flags (bit field) ----------------------------------------------------
+R_WIND = 1            # a crosswind component reaches the TAS, or a ground speed is not positive
+R_BREAK_BACK = 2      # the wind carries the break/offset leg back toward the runway
+R_NEG_LEG = 4         # a solved leg time is negative (the turns alone overshoot, or too late)
+R_INSIDE_TURN = 8     # joins the downwind past the roll-in point (already inside the turn)
+R_WRONG_SIDE = 16     # the final turn would need the downwind on the other side
+R_NO_CONVERGE = 32    # the arrival course never converges with the centreline
+R_TOO_CLOSE = 64      # rolls out closer than the stabilised distance (direct turn)
+R_NOT_APPLICABLE = 128
+
+# --- applicability of the shapes to the arrival course (track-based, wind-independent) -------
+JOIN_MIN_CROSSING_DEG = 30.0      # downwind-join: arrival crosses toward the side at >= 30 deg
+RECIPROCAL_MAX_DEG = 60.0         # break/teardrop: arrival within 60 deg of the reciprocal
+DIRECT_MAX_DEG = 90.0             # direct-turn: at most 90 deg to turn onto final
+ALIGNED_TOL_DEG = 0.5             # below this the arrival is already aligned (no direct turn)
+_SMALL_GS = 1e-6
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class CircleInputs:
+    """Everything the plan solver needs, in the runway frame.
+
+    Attributes
+    ----------
+    tas_kt : float
+        True airspeed flown in the circle, 0 < TAS <= 500. [kt]
+    bank_deg : float
+        Target bank for every turn, 0 < bank <= 60. [deg]
+    wind : RunwayWind
+        Wind vector in the runway frame (blowing toward).
+    arrival_x_m, arrival_y_m : float
+        Where the circle starts (missed approach point / visual point). [m]
+    arrival_course_deg : float
+        Ground track on arrival in the runway frame (180 = reciprocal). [deg]
+    circling_height_ft : float
+        Height of the circle above the threshold (HAA), > tch_ft. [ft]
+    glide_path_deg : float
+        Descent path angle to the threshold, 0 < gpa <= 10 (3 if the runway has none). [deg]
+    tch_ft : float
+        Threshold crossing height of that path, >= 0. [ft]
+    stabilised_height_ft : float
+        Height by which the aircraft is wings level on final (300 ft above the airport,
+        common practice), tch_ft < h. [ft]
+    roll_out_distance_m : float or None
+        Chosen roll-out distance before the threshold; None = where the glide path from the
+        circling height meets the final. Never closer than the stabilised distance. [m]
+    roll_rate_deg_per_s : float or None
+        Roll rate for the roll-in/roll-out ramps (None = instant bank). [deg/s]
+    break_angle_deg : float
+        Break-off angle of break-and-return, 0 < angle <= 90 (45 common practice). [deg]
+    teardrop_angle_deg : float
+        Offset angle of the teardrop, 0 < angle < 90 (30 our default). [deg]
+    runway_length_m : float
+        Landing runway length, >= 0 (0 = threshold only); used for the visibility distance and
+        the missed-approach reference point. [m]
+    """
+
+    tas_kt: float
+    bank_deg: float
+    wind: RunwayWind
+    arrival_x_m: float
+    arrival_y_m: float
+    arrival_course_deg: float
+    circling_height_ft: float
+    glide_path_deg: float = 3.0
+    tch_ft: float = 50.0
+    stabilised_height_ft: float = 300.0
+    roll_out_distance_m: float | None = None
+    roll_rate_deg_per_s: float | None = None
+    break_angle_deg: float = 45.0
+    teardrop_angle_deg: float = 30.0
+    runway_length_m: float = 0.0
+
+    def __post_init__(self) -> None:
+        def need(ok: bool, msg: str) -> None:
+            if not ok:
+                raise DomainError(msg)
+        fin = all(math.isfinite(v) for v in (self.tas_kt, self.bank_deg, self.arrival_x_m, self.arrival_y_m,
+                                              self.arrival_course_deg, self.circling_height_ft, self.glide_path_deg,
+                                              self.tch_ft, self.stabilised_height_ft, self.break_angle_deg,
+                                              self.teardrop_angle_deg, self.runway_length_m))
+        need(fin, "CircleInputs values must be finite")
+        need(0.0 < self.tas_kt <= 500.0, f"tas_kt = {self.tas_kt}: valid range is 0 < TAS <= 500 kt")
+        need(0.0 < self.bank_deg <= 60.0, f"bank_deg = {self.bank_deg}: valid range is 0 < bank <= 60")
+        need(0.0 < self.glide_path_deg <= 10.0, f"glide_path_deg = {self.glide_path_deg}: valid range is (0, 10]")
+        need(self.tch_ft >= 0.0, f"tch_ft = {self.tch_ft}: must be >= 0")
+        need(self.circling_height_ft > self.tch_ft,
+             f"circling_height_ft = {self.circling_height_ft}: must be above tch_ft = {self.tch_ft}")
+        need(self.stabilised_height_ft > self.tch_ft,
+             f"stabilised_height_ft = {self.stabilised_height_ft}: must be above tch_ft = {self.tch_ft}")
+        need(self.roll_out_distance_m is None or (math.isfinite(self.roll_out_distance_m)
+                                                  and self.roll_out_distance_m >= 0.0),
+             f"roll_out_distance_m = {self.roll_out_distance_m}: must be >= 0 (or None)")
+        need(self.roll_rate_deg_per_s is None or (math.isfinite(self.roll_rate_deg_per_s)
+                                                  and self.roll_rate_deg_per_s > 0.0),
+             f"roll_rate_deg_per_s = {self.roll_rate_deg_per_s}: must be > 0 (or None)")
+        need(0.0 < self.break_angle_deg <= 90.0, f"break_angle_deg = {self.break_angle_deg}: valid range (0, 90]")
+        need(0.0 < self.teardrop_angle_deg < 90.0,
+             f"teardrop_angle_deg = {self.teardrop_angle_deg}: valid range (0, 90)")
+        need(self.runway_length_m >= 0.0, f"runway_length_m = {self.runway_length_m}: must be >= 0")
+        need(isinstance(self.wind, RunwayWind), "wind must be a RunwayWind")
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class DescentGeometry:
+    """Where the descent from the circling height starts and where the roll-out is.
+
+    Attributes
+    ----------
+    descent_point_m : float
+        Distance before the threshold where the glide path meets the circling height,
+        (HAA - TCH) / tan(gpa). [m]
+    stabilised_distance_m : float
+        Distance where the glide path passes the stabilised-by height. [m]
+    roll_out_distance_m : float
+        Roll-out distance used by the downwind plans (the chosen one, or the descent point),
+        never closer than the stabilised distance. [m]
+    clamped : bool
+        True if a chosen distance was moved out to the stabilised distance.
+    """
+
+    descent_point_m: float
+    stabilised_distance_m: float
+    roll_out_distance_m: float
+    clamped: bool
+
+    def __post_init__(self) -> None:
+        if not (self.descent_point_m > 0 and self.stabilised_distance_m > 0
+                and self.roll_out_distance_m >= self.stabilised_distance_m - 1e-9):
+            raise DomainError("DescentGeometry: distances must be positive, roll-out >= stabilised distance")
+
+
+def descent_geometry(inputs: CircleInputs) -> DescentGeometry:
+    """Descent point, stabilised distance and roll-out distance along the final.
+
+    Parameters
+    ----------
+    inputs : CircleInputs
+
+    Returns
+    -------
+    DescentGeometry
+
+    Notes
+    -----
+    On a straight path of angle gpa crossing the threshold at TCH, the height at a distance d
+    before the threshold is TCH + d tan(gpa), so d(h) = (h - TCH) / tan(gpa). Descent starts at
+    d(HAA) "only when intercepting a normal ~3 deg path" and the aircraft is stabilised by
+    d(300 ft) [3]_.
+
+    References
+    ----------
+    See the module references [3]_.
+    """
+    tg = math.tan(math.radians(inputs.glide_path_deg))
+    d_glide = (inputs.circling_height_ft - inputs.tch_ft) * FT_TO_M / tg
+    d_stab = (inputs.stabilised_height_ft - inputs.tch_ft) * FT_TO_M / tg
+    chosen = d_glide if inputs.roll_out_distance_m is None else inputs.roll_out_distance_m
+    return DescentGeometry(descent_point_m=d_glide, stabilised_distance_m=d_stab,
+                           roll_out_distance_m=max(chosen, d_stab), clamped=chosen < d_stab)
+
+
+def applicable_candidates(arrival_course_deg: float) -> tuple[tuple[Shape, Side], ...]:
+    """Plan shapes and sides that suit an arrival course (in the runway frame).
+
+    Rules (our choices, after the techniques of [3]_): ``direct-turn`` when the course is
+    within 90 deg of the landing direction (and not aligned), on the side it converges from;
+    ``downwind-join`` when it crosses toward a side at 30 deg or more (that side only);
+    ``break-and-return`` and ``teardrop`` when it is within 60 deg of the reciprocal (both
+    sides). A course aligned with the landing direction gets no candidate (a straight-in).
+    """
+    c = float(wrap_180(arrival_course_deg))
+    delta = abs(c)
+    out: list[tuple[Shape, Side]] = []
+    s = math.sin(math.radians(c))
+    if ALIGNED_TOL_DEG < delta <= DIRECT_MAX_DEG:
+        out.append(("direct-turn", "left" if c > 0 else "right"))
+    if JOIN_MIN_CROSSING_DEG <= delta <= 180.0 - JOIN_MIN_CROSSING_DEG:
+        out.append(("downwind-join", "right" if s > 0 else "left"))
+    if delta >= 180.0 - RECIPROCAL_MAX_DEG:
+        out.extend([("break-and-return", "left"), ("break-and-return", "right"),
+                    ("teardrop", "left"), ("teardrop", "right")])
+    return tuple(out)
+
+
+def is_applicable(shape: str, side: str, arrival_course_deg: float) -> bool:
+    """Whether (shape, side) is among :func:`applicable_candidates`."""
+    return (shape, side) in applicable_candidates(arrival_course_deg)
+
+
+# --------------------------------------------------------------------------------------------
+# vectorised solution
+# --------------------------------------------------------------------------------------------
+@dataclass(slots=True)
+class LegArrays:
+    """One leg of a solved shape, as arrays over the broadcast shape of the solve."""
+
+    kind: Literal["straight", "turn"]
+    name: str
+    duration: FloatArray
+    x0: FloatArray = field(default=None)  # type: ignore[assignment]
+    y0: FloatArray = field(default=None)  # type: ignore[assignment]
+    psi0: FloatArray = field(default=None)  # type: ignore[assignment]
+    # straight legs
+    gx: FloatArray | None = None
+    gy: FloatArray | None = None
+    track_rad: float | None = None     # set when the leg holds a track (crabbed)
+    # turns
+    prof: TurnProfile | None = None
+    sign: FloatArray | None = None
+    dx: FloatArray | None = None        # ground displacement of the whole turn
+    dy: FloatArray | None = None
+    nominal_rad: float = 0.0            # the turn angle in calm wind (sets the sample count)
+
+
+@dataclass(slots=True)
+class ShapeSolution:
+    """Solved unknowns of one shape, as arrays over the broadcast shape (see :func:`solve_shape`)."""
+
+    shape: Shape
+    ok: npt.NDArray[np.bool_]
+    reasons: npt.NDArray[np.int_]
+    legs: list[LegArrays]
+    x_ri: FloatArray
+    y_ri: FloatArray
+    offset: FloatArray                  # sigma * y_ri: > 0 on the planned side
+    roll_out_d: FloatArray
+    abeam_s: FloatArray | None          # downwind shapes: from abeam the threshold to roll-in
+    break_s: FloatArray | None          # the solved join/break/offset leg time
+    psi_f: FloatArray
+    gs_f: FloatArray
+    psi_d: FloatArray
+    gs_d: FloatArray
+    final_turn: int                     # index of the final turn in legs
+    wx: FloatArray                      # wind (m/s), broadcast
+    wy: FloatArray
+
+
+def _wrap_2pi(a: FloatArray) -> FloatArray:
+    a = np.mod(a, 2.0 * np.pi)
+    return a * (a <= 2.0 * np.pi - 1e-9)          # a hair below 2 pi is a zero turn
+
+
+def _flag(ok: npt.NDArray[np.bool_], flag: int) -> npt.NDArray[np.int_]:
+    """``flag`` where ``ok`` is False, else 0."""
+    return np.logical_not(ok) * flag
+
+
+def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.ArrayLike, wy: npt.ArrayLike,
+                bank_rad: npt.ArrayLike, roll_rate_rad: float | None, x0: float, y0: float, c0_rad: float,
+                d_m: float, d_stab_m: float, break_rad: float, teardrop_rad: float) -> ShapeSolution:
+    """Solve one plan shape over broadcast arrays of sides, winds and banks (array kernel).
+
+    Parameters are in SI and radians; ``sigma`` = +1 right side, -1 left side. Every output
+    array has the broadcast shape of (sigma, wx, wy, bank_rad). Where ``ok`` is False the
+    numbers are not meaningful and ``reasons`` holds the R_* flags.
+
+    Notes
+    -----
+    See the module docstring: the turn displacements are closed form, the leg times come from
+    linear equations in y (and x for the teardrop).
+    """
+    sig = np.asarray(sigma, dtype=float)
+    wx = np.asarray(wx, dtype=float)
+    wy = np.asarray(wy, dtype=float)
+    bank = np.asarray(bank_rad, dtype=float)
+    shp = np.broadcast(sig, wx, wy, bank).shape
+    zero = np.zeros(shp)
+    sig, wx, wy, bank = sig + zero, wx + zero, wy + zero, bank + zero
+    v = float(tas_mps)
+
+    def turn(psi_a: FloatArray, angle: FloatArray, sgn: FloatArray, name: str, nominal: FloatArray) -> LegArrays:
+        prof = turn_profile(angle, bank, v, roll_rate_rad)
+        if roll_rate_rad is None:      # the trochoid: s r (sin psi_b - sin psi_a, cos psi_a - cos psi_b) + w T
+            sr = sgn * (v / prof.wp)
+            psi_b = psi_a + sgn * angle
+            dx = sr * (np.sin(psi_b) - np.sin(psi_a)) + wx * prof.total
+            dy = sr * (np.cos(psi_a) - np.cos(psi_b)) + wy * prof.total
+        else:
+            dx, dy, _ = turn_ground(prof.total, prof, x0=0.0, y0=0.0, psi0=psi_a, sign=sgn, wx=wx, wy=wy)
+        return LegArrays(kind="turn", name=name, duration=prof.total, psi0=psi_a + zero, prof=prof,
+                         sign=sgn + zero, dx=dx, dy=dy, nominal_rad=float(np.max(nominal)))
+
+    def straight(psi: FloatArray, gx: FloatArray, gy: FloatArray, t: FloatArray, name: str,
+                 track: float | None) -> LegArrays:
+        return LegArrays(kind="straight", name=name, duration=t + zero, psi0=psi + zero, gx=gx + zero,
+                         gy=gy + zero, track_rad=track)
+
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        psi_f, gs_f, ok_f = crab(0.0, v, wx, wy)
+        psi_d, gs_d, ok_d = crab(np.pi, v, wx, wy)
+        psi0, gs0, ok0 = crab(c0_rad, v, wx, wy)
+        g0x, g0y = gs0 * math.cos(c0_rad), gs0 * math.sin(c0_rad)
+        reasons = _flag(ok_f & ok_d & ok0, R_WIND)
+        final_leg = straight(psi_f, gs_f, zero, d_m / gs_f, "final", 0.0)
+        abeam_s = break_s = None
+
+        if shape in ("downwind-join", "break-and-return"):
+            t_fin = turn(psi_d, _wrap_2pi(sig * (psi_f - psi_d)), sig, "final turn", np.pi + zero)
+            x_ri, y_ri = -d_m - t_fin.dx, -t_fin.dy
+            offset = sig * y_ri
+            reasons = reasons | _flag(offset > 0.0, R_WRONG_SIDE)
+            if shape == "downwind-join":
+                t_join = turn(psi0, _wrap_2pi(sig * (psi_d - psi0)), sig, "turn downwind",
+                              _wrap_2pi(sig * (np.pi - c0_rad)))
+                t_j = (y_ri - y0 - t_join.dy) / g0y
+                x_j = x0 + g0x * t_j + t_join.dx
+                first = [straight(psi0, g0x, g0y, t_j, "arrival", c0_rad), t_join]
+                break_s = t_j
+            else:
+                psi_b = psi0 - sig * break_rad
+                t_brk = turn(psi0, break_rad + zero, -sig, "break turn", break_rad + zero)
+                gbx, gby = v * np.cos(psi_b) + wx, v * np.sin(psi_b) + wy
+                t_join = turn(psi_b, _wrap_2pi(sig * (psi_d - psi_b)), sig, "turn downwind",
+                              _wrap_2pi(sig * (np.pi - c0_rad) + break_rad))
+                reasons = reasons | _flag(sig * gby > _SMALL_GS, R_BREAK_BACK)
+                t_j = (y_ri - y0 - t_brk.dy - t_join.dy) / gby
+                x_j = x0 + t_brk.dx + gbx * t_j + t_join.dx
+                first = [t_brk, straight(psi_b, gbx, gby, t_j, "break leg", None), t_join]
+                break_s = t_j
+            t_dw = (x_j - x_ri) / gs_d
+            reasons = reasons | _flag(t_j >= 0.0, R_NEG_LEG) | _flag(t_dw >= 0.0, R_INSIDE_TURN)
+            legs = first + [straight(psi_d, -gs_d, zero, t_dw, "downwind", math.pi), t_fin, final_leg]
+            abeam_s = -x_ri / gs_d
+            roll_out = d_m + zero
+        elif shape == "teardrop":
+            psi_t = psi0 - sig * teardrop_rad
+            t_off = turn(psi0, teardrop_rad + zero, -sig, "offset turn", teardrop_rad + zero)
+            gtx, gty = v * np.cos(psi_t) + wx, v * np.sin(psi_t) + wy
+            t_fin = turn(psi_t, _wrap_2pi(sig * (psi_f - psi_t)), sig, "final turn",
+                         _wrap_2pi(-sig * c0_rad + teardrop_rad))
+            bx = -d_m - x0 - t_off.dx - t_fin.dx
+            by = -y0 - t_off.dy - t_fin.dy
+            det = g0x * gty - g0y * gtx
+            t1 = (bx * gty - by * gtx) / det                  # Cramer's rule, 2x2
+            t2 = (g0x * by - g0y * bx) / det
+            x_ri, y_ri = -d_m - t_fin.dx, -t_fin.dy
+            offset = sig * y_ri
+            reasons = (reasons | _flag(np.abs(det) > _SMALL_GS * v, R_NO_CONVERGE)
+                       | _flag((t1 >= 0.0) & (t2 >= 0.0), R_NEG_LEG) | _flag(offset > 0.0, R_WRONG_SIDE))
+            legs = [straight(psi0, g0x, g0y, t1, "outbound", c0_rad), t_off,
+                    straight(psi_t, gtx, gty, t2, "offset leg", None), t_fin, final_leg]
+            break_s = t2
+            roll_out = d_m + zero
+        elif shape == "direct-turn":
+            ang = _wrap_2pi(sig * (psi_f - psi0))
+            t_fin = turn(psi0, ang, sig, "final turn", _wrap_2pi(-sig * c0_rad))
+            t1 = -(y0 + t_fin.dy) / g0y
+            x_ri, y_ri = x0 + g0x * t1, y0 + g0y * t1
+            roll_out = -(x_ri + t_fin.dx)
+            offset = sig * y_ri
+            reasons = (reasons | _flag(np.abs(g0y) > _SMALL_GS * v, R_NO_CONVERGE) | _flag(ang <= np.pi, R_WRONG_SIDE)
+                       | _flag(t1 >= 0.0, R_NEG_LEG) | _flag(roll_out >= d_stab_m - 1e-6, R_TOO_CLOSE))
+            final_leg = straight(psi_f, gs_f, zero, roll_out / gs_f, "final", 0.0)
+            legs = [straight(psi0, g0x, g0y, t1, "arrival", c0_rad), t_fin, final_leg]
+        else:
+            raise DomainError(f"unknown plan shape {shape!r}; expected one of {SHAPES}")
+
+        # chain the start positions
+        x, y = x0 + zero, y0 + zero
+        for leg in legs:
+            leg.x0, leg.y0 = x, y
+            if leg.kind == "turn":
+                x, y = x + leg.dx, y + leg.dy
+            else:
+                x, y = x + leg.gx * leg.duration, y + leg.gy * leg.duration
+
+    reasons = np.asarray(reasons, dtype=np.int64) + np.zeros(shp, dtype=np.int64)
+    return ShapeSolution(shape=shape, ok=reasons == 0, reasons=reasons, legs=legs, x_ri=x_ri + zero,
+                         y_ri=y_ri + zero, offset=offset + zero, roll_out_d=roll_out + zero,
+                         abeam_s=None if abeam_s is None else abeam_s + zero,
+                         break_s=None if break_s is None else break_s + zero,
+                         psi_f=psi_f, gs_f=gs_f, psi_d=psi_d, gs_d=gs_d,
+                         final_turn=[i for i, lg in enumerate(legs) if lg.name == "final turn"][0], wx=wx, wy=wy)
+
+
+def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx_mps: npt.ArrayLike,
+                 wy_mps: npt.ArrayLike, bank_deg: npt.ArrayLike, descent: DescentGeometry | None = None
+                 ) -> ShapeSolution:
+    """:func:`solve_shape` with the fixed parts taken from ``inputs`` (winds, sides, banks vary)."""
+    b = np.asarray(bank_deg, dtype=float)
+    if not np.all((b > 0.0) & (b < BANK_MAX_DEG)):
+        raise DomainError(f"bank_deg = {bank_deg}: a turn needs 0 < bank < 90")
+    dg = descent if descent is not None else descent_geometry(inputs)
+    rr = None if inputs.roll_rate_deg_per_s is None else math.radians(inputs.roll_rate_deg_per_s)
+    return solve_shape(shape, sigma=sigma, tas_mps=inputs.tas_kt * KT_TO_MPS, wx=wx_mps, wy=wy_mps,
+                       bank_rad=np.radians(b), roll_rate_rad=rr, x0=inputs.arrival_x_m, y0=inputs.arrival_y_m,
+                       c0_rad=math.radians(inputs.arrival_course_deg), d_m=dg.roll_out_distance_m,
+                       d_stab_m=dg.stabilised_distance_m, break_rad=math.radians(inputs.break_angle_deg),
+                       teardrop_rad=math.radians(inputs.teardrop_angle_deg))
+
+
+N_RAMP = 3
+"""Samples per roll-in (and per roll-out) ramp when turns have roll ramps."""
+
+
+def turn_sample_count(nominal_rad: float, turn_step_deg: float) -> int:
+    """Samples of a turn's constant-bank arc: one per ``turn_step_deg`` of its calm-wind angle, >= 3."""
+    return max(3, int(math.ceil(math.degrees(nominal_rad) / turn_step_deg - 1e-9)) + 1)
+
+
+@dataclass(slots=True)
+class SolutionTrack:
+    """Sampled tracks of a solved shape: ``xy`` (..., N, 2) [m]; with headings: ``heading``
+    (..., N) [rad] and ``time`` (..., N) [s]; ``leg_index`` (N,) the leg of each sample."""
+
+    xy: FloatArray
+    heading: FloatArray | None
+    time: FloatArray | None
+    leg_index: npt.NDArray[np.int_]
+
+
+def _arc_count(lg: LegArrays, turn_step_deg: float, actual: bool) -> int:
+    nominal = lg.nominal_rad
+    if actual and lg.prof is not None:
+        nominal = max(nominal, float(np.max(lg.prof.angle - 2.0 * lg.prof.dp, initial=0.0)))
+    return turn_sample_count(nominal, turn_step_deg)
+
+
+def _leg_counts(sol: ShapeSolution, turn_step_deg: float, n_straight: int, straight_step_m: float | None
+                ) -> list[int]:
+    ramps = bool(sol.legs) and any(lg.prof is not None and lg.prof.k > 0.0 for lg in sol.legs)
+    out = []
+    for lg in sol.legs:
+        if lg.kind == "turn":
+            out.append(_arc_count(lg, turn_step_deg, straight_step_m is not None) + (2 * N_RAMP if ramps else 0))
+        elif straight_step_m is None:
+            out.append(n_straight)
+        else:
+            assert lg.gx is not None and lg.gy is not None
+            length = float(np.max(np.hypot(lg.gx, lg.gy) * lg.duration, initial=0.0))
+            out.append(max(n_straight, int(math.ceil(length / straight_step_m)) + 1))
+    return out
+
+
+def _ramp_q(tau: FloatArray, prof: TurnProfile) -> npt.NDArray[np.complex128]:
+    """C + i S: air path of a roll-in ramp at times tau (n, ...) (right turn from heading 0)."""
+    u = tau[..., None] * (0.5 * (GL_NODES + 1.0))
+    h = prof.c[..., None] * -np.log(np.cos(prof.k * u))
+    return (prof.tas * 0.5 * tau) * np.sum(GL_WEIGHTS * np.exp(1j * h), axis=-1)
+
+
+def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int, straight_step_m: float | None = None,
+                    with_heading: bool = False) -> SolutionTrack:
+    """Sample every leg of a solved shape (vectorised): tracks of shape (..., N, 2).
+
+    Each straight gets ``n_straight`` points, each turn :func:`turn_sample_count` points on its
+    constant-bank arc (from its calm-wind angle, so the count does not depend on the wind)
+    plus, with roll ramps, ``N_RAMP`` points at equal times in each ramp. Both ends of every
+    leg are included (joins appear twice); rows that are not ok hold garbage. With
+    ``straight_step_m`` (a single plan's track) straights get one point per that many metres of
+    their longest instance and arcs use the larger of the calm and the actual angle.
+
+    Notes
+    -----
+    Positions are built as complex numbers x + i y (time axis first, contiguous rows) and
+    returned as a float view. On the arc psi_k = psi_a + s (A - 2 dp) k/(n-1), so
+    exp(i psi_k) = exp(i psi_a) exp(i s (A - 2 dp)/(n-1))^k: a running product over the samples,
+    one complex multiply per point instead of two transcendental calls (rounding grows like
+    k eps). The air arc from heading h0 is -i r (exp(i h) - exp(i h0)) in a right-turn frame;
+    the ramps use the roll-in integral Q(tau) = C + i S and the roll-out its mirror
+    exp(i A) conj(Q); a left turn is the complex conjugate; the wind adds (wx + i wy) t.
+    """
+    counts = _leg_counts(sol, turn_step_deg, n_straight, straight_step_m)
+    shp = sol.ok.shape
+    nt = sum(counts)
+    out = np.empty((nt,) + shp, dtype=np.complex128)
+    hdg = np.empty((nt,) + shp) if with_heading else None
+    tim = np.empty((nt,) + shp) if with_heading else None
+    wind = sol.wx + 1j * sol.wy
+    lead = (1,) * len(shp)
+    j = 0
+    t_start = np.zeros(shp)
+    with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
+        for leg, n in zip(sol.legs, counts):
+            seg = out[j:j + n]
+            p0 = leg.x0 + 1j * leg.y0
+            if leg.kind == "turn":
+                assert leg.prof is not None and leg.sign is not None
+                pr = leg.prof
+                nr = N_RAMP if n > _arc_count(leg, turn_step_deg, straight_step_m is not None) else 0
+                na = n - 2 * nr
+                rot = np.exp(1j * leg.psi0)
+                sgn = leg.sign
+                r = pr.tas / np.maximum(pr.wp, 1e-12)
+                arc = pr.angle - 2.0 * pr.dp
+                # times and air positions (right-turn frame, entry heading 0)
+                fa = (np.arange(na) / (na - 1)).reshape((na,) + lead)
+                t_arc = pr.tr + pr.tc * fa
+                if nr:
+                    fr = (np.arange(nr) / nr).reshape((nr,) + lead)
+                    q_in = _ramp_q(pr.tr * fr, pr)
+                    q_tr = _ramp_q(pr.tr[None], pr)[0]
+                    q_out = _ramp_q(pr.tr * (1.0 - fr - 1.0 / nr), pr)          # tau3 = tr (nr-1-j)/nr
+                    e_a = np.exp(1j * pr.angle)
+                else:
+                    q_tr = np.zeros(shp, dtype=np.complex128)
+                a_seg = seg[nr:nr + na]
+                a_seg[0] = np.exp(1j * pr.dp)
+                step = np.exp(1j * arc / (na - 1)).reshape(-1)
+                rows = a_seg.reshape(na, -1)                 # a view: rows of the contiguous block
+                for k in range(1, na):                       # loop over samples, not cells
+                    np.multiply(rows[k - 1], step, out=rows[k])
+                a_end = a_seg[na - 1] - a_seg[0]
+                a_seg -= a_seg[0].copy()
+                a_seg *= -1j * r
+                a_seg += q_tr
+                if nr:
+                    seg[:nr] = q_in
+                    arc_end = q_tr - 1j * r * a_end
+                    seg[nr + na:] = arc_end + e_a * np.conj(q_tr) - e_a * np.conj(q_out)
+                    t_all = np.concatenate([pr.tr * fr, t_arc, pr.tr + pr.tc + pr.tr * (fr + 1.0 / nr)], axis=0)
+                else:
+                    t_all = t_arc
+                # left turns mirror (conjugate), then rotate to the entry heading, then drift
+                seg.imag *= sgn
+                seg *= rot
+                seg += p0 + wind * t_all
+                if hdg is not None and tim is not None:
+                    if nr:
+                        h_in = pr.c * -np.log(np.cos(pr.k * pr.tr * fr))
+                        h_out = pr.angle - pr.c * -np.log(np.cos(pr.k * pr.tr * (1.0 - fr - 1.0 / nr)))
+                        h_rel = np.concatenate([h_in, pr.dp + arc * fa, h_out], axis=0)
+                    else:
+                        h_rel = arc * fa
+                    hdg[j:j + n] = leg.psi0 + sgn * h_rel
+                    tim[j:j + n] = t_start + t_all
+            else:
+                assert leg.gx is not None and leg.gy is not None
+                f = (np.arange(n) / (n - 1)).reshape((n,) + lead)
+                seg[...] = p0 + ((leg.gx + 1j * leg.gy) * leg.duration) * f
+                if hdg is not None and tim is not None:
+                    hdg[j:j + n] = leg.psi0
+                    tim[j:j + n] = t_start + leg.duration * f
+            t_start = t_start + leg.duration
+            j += n
+    xy = np.ascontiguousarray(np.moveaxis(out, 0, -1)).view(np.float64).reshape(shp + (nt, 2))
+    leg_index = np.repeat(np.arange(len(counts)), counts)
+    if hdg is None or tim is None:
+        return SolutionTrack(xy=xy, heading=None, time=None, leg_index=leg_index)
+    return SolutionTrack(xy=xy, heading=np.moveaxis(hdg, 0, -1), time=np.moveaxis(tim, 0, -1), leg_index=leg_index)
