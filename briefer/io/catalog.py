@@ -219,12 +219,10 @@ def _find(kind: str, name_or_path: str | PathLike[str], dirs: Sequence[str | Pat
         path = os.path.expanduser(text)
         return load_profile(path) if kind == KIND_PROFILE else load_airfield(path)
     wanted = _loose(text)
-    sources = _sources(kind, dirs, use_config)
-    for source in sources:                       # the file name: no need to open every file
-        if _loose(source.stem) == wanted:
-            return _load(source, kind)
     available = []
-    for source in sources:
+    for source in _sources(kind, dirs, use_config):  # in priority order: the first match wins
+        if _loose(source.stem) == wanted:
+            return _load(source, kind)               # named by its file: a broken file says why
         try:
             model = _load(source, kind)
         except DataFileError:

@@ -1,0 +1,542 @@
+"""The invented demo data, the catalog, `briefer check` and the JSON Schemas.
+
+Every demo aircraft and airfield is invented. The checks on their content cite where the rule
+comes from (14 CFR 97.3 categories, AIM 5-4-20 alignment, TERPS 400 ft/NM) and use the core
+modules and geographiclib (a reference geodesic library) for the geometry, so the data are
+consistent with what the briefing will compute.
+"""
+
+from __future__ import annotations
+
+import json
+import re
+from pathlib import Path
+from typing import Any
+
+import pytest
+from geographiclib.geodesic import Geodesic
+
+from briefer.cli import main
+from briefer.core import criteria as cr
+from briefer.core import geometry as geo
+from briefer.errors import DataFileError
+from briefer.io.catalog import (
+    NotFoundError,
+    builtin_files,
+    config_path,
+    find_airfield,
+    find_profile,
+    list_airfields,
+    list_profiles,
+    load_config,
+)
+from briefer.io.yamlload import load_any, load_bytes, parse_yaml_mapping
+from briefer.model import (
+    KIND_AIRFIELD,
+    KIND_PROFILE,
+    AircraftProfile,
+    Airfield,
+    CirclingMinimum,
+    Configuration,
+    FamiliarPattern,
+    Fix,
+    LatLon,
+    Obstacle,
+    Runway,
+    Sector,
+    StraightIn,
+    Threshold,
+    WindAdditive,
+)
+from briefer.units import M_TO_NM
+
+ROOT = Path(__file__).resolve().parent.parent
+BAD = Path(__file__).parent / "bad_files"
+SCHEMAS = ROOT / "briefer" / "schemas"
+WGS84 = Geodesic.WGS84
+
+
+@pytest.fixture(autouse=True)
+def no_user_config(tmp_path_factory: pytest.TempPathFactory, monkeypatch: pytest.MonkeyPatch) -> Path:
+    """Keep the developer's own config file out of these tests."""
+    home = tmp_path_factory.mktemp("config-home")
+    monkeypatch.setenv("XDG_CONFIG_HOME", str(home))
+    return home
+
+
+def demo(kind: str) -> list[Any]:
+    return [load_bytes(t.read_bytes(), file=t.name, expected_kind=kind) for t in builtin_files(kind)]
+
+
+PROFILES = {p.name: p for p in demo(KIND_PROFILE)}
+AIRFIELDS = {a.ident: a for a in demo(KIND_AIRFIELD)}
+
+
+# --- every demo file loads and checks -------------------------------------------------------------
+def test_there_are_at_least_three_of_each() -> None:
+    assert sorted(PROFILES) == ["demo-bizjet", "demo-trainer", "demo-twin"]
+    assert sorted(AIRFIELDS) == ["Q7HM", "V2RL", "X4CD"]
+
+
+@pytest.mark.parametrize("kind", [KIND_PROFILE, KIND_AIRFIELD])
+def test_every_demo_file_round_trips(kind: str) -> None:
+    for model in demo(kind):
+        assert type(model).from_mapping(model.to_mapping()) == model
+
+
+def test_briefer_check_demo_exits_0(capsys: pytest.CaptureFixture[str]) -> None:
+    assert main(["check", "--demo"]) == 0
+    lines = capsys.readouterr().out.splitlines()
+    assert len(lines) == 7 and lines[-1] == "6 files checked, 0 failed"
+    assert all(": OK: " in line for line in lines[:-1])
+    assert any(line.endswith("demo-trainer.yaml: OK: aircraft profile 'demo-trainer' (1 configuration)")
+               for line in lines)
+    assert any(line.endswith("v2rl-ellisvane-valley.yaml: OK: airfield V2RL 'Ellisvane Valley' "
+                             "(1 runway, 2 approaches, 5 obstacles)") for line in lines)
+
+
+def test_briefer_check_bad_file_exits_2_with_one_line(capsys: pytest.CaptureFixture[str],
+                                                     monkeypatch: pytest.MonkeyPatch) -> None:
+    monkeypatch.chdir(BAD)
+    assert main(["check", "lemon.yaml"]) == 2
+    out = capsys.readouterr()
+    assert out.out == "lemon.yaml:16: runways[1].threshold_b.elevation_ft: expected a number in feet, got 'abc'\n"
+    assert out.err == ""
+
+
+def test_briefer_check_mixed_files(capsys: pytest.CaptureFixture[str], monkeypatch: pytest.MonkeyPatch) -> None:
+    monkeypatch.chdir(BAD)
+    assert main(["check", "good-profile.yaml", "g-empty.yaml", "good-airfield.yaml"]) == 2
+    assert capsys.readouterr().out.splitlines() == [
+        "good-profile.yaml: OK: aircraft profile 'test-single' (1 configuration)",
+        "g-empty.yaml: the file is empty; expected a YAML mapping starting with 'kind: aircraft-profile' or "
+        "'kind: airfield'",
+        "good-airfield.yaml: OK: airfield T1ST 'Testfield' (1 runway, 1 approach, 0 obstacles)",
+        "3 files checked, 1 failed",
+    ]
+
+
+def test_briefer_check_json(capsys: pytest.CaptureFixture[str], monkeypatch: pytest.MonkeyPatch) -> None:
+    monkeypatch.chdir(BAD)
+    assert main(["check", "--json", "good-profile.yaml", "p-wrong-type.yaml"]) == 2
+    payload = json.loads(capsys.readouterr().out)
+    assert payload["checked"] == 2 and payload["failed"] == 1 and payload["cautions"]
+    assert payload["files"][0] == {"file": "good-profile.yaml", "ok": True, "kind": "aircraft-profile",
+                                   "name": "test-single", "text": "aircraft profile 'test-single' (1 configuration)"}
+    assert payload["files"][1] == {"file": "p-wrong-type.yaml", "ok": False, "line": 13,
+                                   "field": "configurations[0].vref_kt",
+                                   "message": "expected a number in knots, got 'fast'",
+                                   "error": "p-wrong-type.yaml:13: configurations[0].vref_kt: expected a number "
+                                            "in knots, got 'fast'"}
+
+
+def test_briefer_check_needs_something(capsys: pytest.CaptureFixture[str]) -> None:
+    assert main(["check"]) == 2
+    assert capsys.readouterr().err == "briefer check: error: give at least one FILE, or --demo\n"
+
+
+# --- the catalog ------------------------------------------------------------------------------------
+@pytest.mark.parametrize("name", ["demo-twin", "DEMO-BIZJET", "demo trainer"])
+def test_catalog_finds_profiles_by_name(name: str) -> None:
+    assert find_profile(name).name == name.lower().replace(" ", "-")
+
+
+@pytest.mark.parametrize(("query", "ident"), [("V2RL", "V2RL"), ("q7hm", "Q7HM"), ("Tarnwick Coastal", "X4CD"),
+                                              ("ellisvane-valley", "V2RL"), ("x4cd-tarnwick-coastal", "X4CD")])
+def test_catalog_finds_airfields_by_ident_name_or_file(query: str, ident: str) -> None:
+    assert find_airfield(query).ident == ident
+
+
+def test_catalog_lists_the_built_ins() -> None:
+    profiles = list_profiles()
+    assert [(e.name, e.builtin, e.error) for e in profiles] == [
+        ("demo-bizjet", True, None), ("demo-trainer", True, None), ("demo-twin", True, None)]
+    assert [(e.name, e.title) for e in list_airfields()] == [
+        ("Q7HM", "Qorvel Mesa"), ("V2RL", "Ellisvane Valley"), ("X4CD", "Tarnwick Coastal")]
+    assert all(Path(e.source).name.endswith(".yaml") for e in profiles)
+
+
+def test_catalog_not_found_lists_what_exists() -> None:
+    with pytest.raises(NotFoundError) as info:
+        find_profile("demo-twn")
+    assert str(info.value) == ("no aircraft profile named 'demo-twn' (did you mean 'demo-twin'?); available: "
+                               "demo-bizjet, demo-trainer, demo-twin (or give a file path)")
+    with pytest.raises(NotFoundError, match=r"^no airfield named 'K1XX'; available: Q7HM, V2RL, X4CD"):
+        find_airfield("K1XX")
+
+
+def test_catalog_loads_paths(monkeypatch: pytest.MonkeyPatch) -> None:
+    monkeypatch.chdir(BAD)
+    assert find_profile("good-profile.yaml").name == "test-single"
+    assert find_airfield(BAD / "good-airfield.yaml").ident == "T1ST"
+    with pytest.raises(DataFileError, match="^missing.yaml: no such file$"):
+        find_airfield("missing.yaml")
+
+
+def test_user_folders_come_first_and_broken_files_are_listed(tmp_path: Path) -> None:
+    mine = tmp_path / "mine"
+    mine.mkdir()
+    text = (ROOT / "briefer" / "data" / "profiles" / "demo-twin.yaml").read_text()
+    (mine / "my-twin.yaml").write_text(text.replace("Invented light piston twin (", "My own copy ("))
+    (mine / "broken.yaml").write_text("kind: aircraft-profile\nname: [\n")
+    (mine / "notes.txt").write_text("not data")
+    assert find_profile("demo-twin", dirs=[mine]).description.startswith("My own copy")
+    assert find_profile("demo-twin").description.startswith("Invented")
+    entries = list_profiles(dirs=[mine])
+    assert [(e.name, e.builtin) for e in entries][:2] == [("broken", False), ("demo-twin", False)]
+    assert entries[0].error is not None and entries[0].error.startswith(f"{mine / 'broken.yaml'}:3: not valid YAML")
+    with pytest.raises(DataFileError, match="not valid YAML"):
+        find_profile("broken", dirs=[mine])   # asked for by its file name: the error is shown
+
+
+def test_config_file_adds_folders(tmp_path: Path, no_user_config: Path) -> None:
+    assert config_path() == no_user_config / "briefer" / "config.yaml"
+    assert load_config().profile_dirs == ()
+    fields_dir = tmp_path / "fields"
+    fields_dir.mkdir()
+    (fields_dir / "home.yaml").write_text((BAD / "good-airfield.yaml").read_text())
+    cfg = no_user_config / "briefer" / "config.yaml"
+    cfg.parent.mkdir(parents=True)
+    cfg.write_text(f"airfield_dirs: [{fields_dir}]\nprofile_dirs: []\n")
+    assert find_airfield("t1st").name == "Testfield"
+    assert find_airfield("home").ident == "T1ST"
+    assert [e.name for e in list_airfields()][0] == "T1ST"
+    with pytest.raises(NotFoundError):
+        find_airfield("T1ST", use_config=False)
+
+
+@pytest.mark.parametrize(("text", "message"), [
+    pytest.param("profile_dir: [a]\n", ":1: unknown key 'profile_dir' (did you mean 'profile_dirs'?)", id="typo"),
+    pytest.param("airfield_dirs: [./nowhere]\n", ":1: airfield_dirs[0]: no such folder: {dir}/nowhere", id="no-dir"),
+    pytest.param("airfield_dirs: 5\n", ":1: airfield_dirs: expected a list of folders, got int", id="type"),
+])
+def test_config_file_errors(no_user_config: Path, text: str, message: str) -> None:
+    cfg = no_user_config / "briefer" / "config.yaml"
+    cfg.parent.mkdir(parents=True, exist_ok=True)
+    cfg.write_text(text)
+    with pytest.raises(DataFileError) as info:
+        find_airfield("V2RL")
+    assert str(info.value) == f"{cfg}{message.format(dir=cfg.parent)}"
+
+
+def test_demo_data_ships_in_the_wheel() -> None:
+    """pyproject's package-data globs cover the demo files and schemas (so `pip install .` has them)."""
+    text = (ROOT / "pyproject.toml").read_text()
+    assert '"data/**/*.yaml"' in text and '"schemas/*.json"' in text
+
+
+# --- what the demo data must exercise ----------------------------------------------------------------
+def geodesic(a: Any, b: Any) -> tuple[float, float]:
+    """(distance m, initial azimuth deg true) on WGS-84 (geographiclib)."""
+    g = WGS84.Inverse(a.lat_deg, a.lon_deg, b.lat_deg, b.lon_deg)
+    return g["s12"], g["azi1"] % 360.0
+
+
+def angle_between(a: float, b: float) -> float:
+    return abs((a - b + 180.0) % 360.0 - 180.0)
+
+
+def test_profiles_cover_categories_a_c_e() -> None:
+    """14 CFR 97.3 bands (REFERENCES 1a): A < 91, B 91-120, C 121-140, D 141-165, E >= 166 kt."""
+    speeds = {n: p.approach_category_speed_kt() for n, p in PROFILES.items()}
+    assert {n: cr.category_from_speed(v) for n, v in speeds.items()} == {
+        "demo-twin": "A", "demo-bizjet": "C", "demo-trainer": "E"}
+    twin = PROFILES["demo-twin"]
+    assert 91 <= twin.configuration().circling_speed_kt < 121  # circles at category B speed
+    bizjet = PROFILES["demo-bizjet"]
+    assert 141 <= bizjet.configuration().circling_speed_kt * bizjet.weight_speed_factor(31000) < 166  # D speed
+    trainer = PROFILES["demo-trainer"]
+    assert (trainer.aoa_unit, trainer.aoa_indexer, trainer.stall_warning) == ("units", True, "none")
+    assert trainer.configuration().aoa_buffet is not None
+    heights = sorted(p.familiar_pattern.height_ft for p in PROFILES.values())
+    assert heights == [1000, 1500, 1500]
+
+
+def test_idents_cannot_be_real_icao_codes() -> None:
+    assert all(re.search(r"\d", ident) for ident in AIRFIELDS)
+
+
+def test_hot_high_and_cold_low_fields_and_all_criteria() -> None:
+    elevations = {a.ident: a.elevation_ft for a in AIRFIELDS.values()}
+    assert max(elevations.values()) >= 5500 and min(elevations.values()) <= 200
+    assert {ap.criteria for a in AIRFIELDS.values() for ap in a.approaches} == set(cr.CRITERIA_SETS)
+
+
+def test_runways_are_consistent_on_the_ellipsoid() -> None:
+    """Lengths 1500-3500 m; the bearing between thresholds fits the designator (magnetic) within 5 deg."""
+    for a in AIRFIELDS.values():
+        for rw in a.runways:
+            length_m, azimuth = geodesic(rw.threshold_a, rw.threshold_b)
+            assert 1500 <= length_m <= 3500, rw.designator
+            magnetic = azimuth - a.magnetic_variation_deg   # true = magnetic + variation
+            assert angle_between(magnetic, int(rw.threshold_a.designator) * 10) <= 5, (a.ident, rw.designator)
+
+
+def final_geometry(a: Airfield, ap: Any, designator: str) -> tuple[float, float]:
+    """(alignment deg, gradient ft/NM FAF to TCH) of an approach against one landing threshold."""
+    landing, opposite = a.runway_by_designator(designator)
+    _, runway_true = geodesic(landing, opposite)  # the landing course, from the threshold down the runway
+    runway_mag = runway_true - a.magnetic_variation_deg
+    distance_m, _ = geodesic(ap.faf, landing)
+    gradient = cr.descent_gradient_ft_per_nm(faf_altitude_ft=ap.faf.altitude_ft,
+                                             threshold_elevation_ft=landing.elevation_ft,
+                                             tch_ft=landing.tch_ft, distance_nm=distance_m * M_TO_NM)
+    return angle_between(ap.final_course_deg_mag, runway_mag), gradient
+
+
+def test_circling_only_by_alignment() -> None:
+    """Qorvel VOR-A: final course more than 30 deg off every runway (AIM 5-4-20 c)."""
+    a = AIRFIELDS["Q7HM"]
+    ap = a.approach("VOR-A")
+    assert ap.circling_only
+    offsets = [final_geometry(a, ap, t.designator)[0] for t in a.thresholds]
+    assert min(offsets) > 30
+    nearest = min(a.thresholds, key=lambda t: final_geometry(a, ap, t.designator)[0])
+    gradient = final_geometry(a, ap, nearest.designator)[1]
+    assessment = cr.straight_in_assessment(final_course_deg=ap.final_course_deg_mag,
+                                           runway_course_deg=ap.final_course_deg_mag + min(offsets),
+                                           gradient_ft_per_nm=gradient, category="A", criteria=ap.criteria)
+    assert [r.code for r in assessment.reasons] == ["alignment"]
+
+
+def test_circling_only_by_descent_gradient() -> None:
+    """Ellisvane NDB-B: aligned with 27, but FAF to TCH is more than 400 ft/NM (TERPS, REFERENCES 5)."""
+    a = AIRFIELDS["V2RL"]
+    ap = a.approach("NDB-B")
+    assert ap.circling_only
+    alignment, gradient = final_geometry(a, ap, "27")
+    assert alignment <= 5
+    assert gradient > 400   # (3300 - (1120 + 50)) / 3.4 NM = 626 ft/NM
+    assessment = cr.straight_in_assessment(final_course_deg=0.0, runway_course_deg=alignment,
+                                           gradient_ft_per_nm=gradient, category="B", criteria=ap.criteria,
+                                           rnav_gps=ap.rnav_gps)
+    assert [r.code for r in assessment.reasons] == ["gradient"]
+
+
+def test_straight_in_approaches_are_straight_in_geometry() -> None:
+    for a in AIRFIELDS.values():
+        for ap in a.approaches:
+            if ap.circling_only:
+                continue
+            alignment, gradient = final_geometry(a, ap, ap.runway)
+            assert alignment <= 5 and 300 <= gradient <= 400, (a.ident, ap.name, alignment, gradient)
+            assert ap.straight_in is not None
+
+
+def test_circle_to_the_reciprocal_runway_is_possible() -> None:
+    """Ellisvane RNAV (GPS) RWY 09 serves 09; runway 27 is its reciprocal, to land after circling."""
+    a = AIRFIELDS["V2RL"]
+    ap = a.approach("RNAV (GPS) RWY 09")
+    landing, opposite = a.runway_by_designator("27")
+    assert ap.runway == opposite.designator == "09" and landing.designator == "27"
+
+
+def test_not_authorised_category_and_sectors() -> None:
+    v2rl, x4cd = AIRFIELDS["V2RL"], AIRFIELDS["X4CD"]
+    assert v2rl.approach("RNAV (GPS) RWY 09").circling_not_authorised_reason("E") is not None
+    assert x4cd.approach("RNP RWY 15").circling_not_authorised_reason("E") == \
+        "no circling minimum published for category E"
+    kinds = {s.kind for a in AIRFIELDS.values() for ap in a.approaches for s in ap.not_authorised_sectors}
+    assert kinds == {"side", "bearings"}
+
+
+def core_sector(a: Airfield, frame: geo.LocalFrame, s: Sector) -> Any:
+    if s.kind == "bearings":
+        th, _ = a.runway_by_designator(s.threshold)
+        var = a.magnetic_variation_deg
+        return geo.BearingSector(centre_m=frame.to_local(th.lat_deg, th.lon_deg),
+                                 from_deg_true=s.from_deg_mag + var, to_deg_true=s.to_deg_mag + var)
+    rw = a.runway(s.runway)
+    return geo.side_of_centreline(frame.to_local(rw.threshold_a.lat_deg, rw.threshold_a.lon_deg),
+                                  frame.to_local(rw.threshold_b.lat_deg, rw.threshold_b.lon_deg), s.side)
+
+
+def test_sectors_hold_the_obstacles_that_explain_them() -> None:
+    """Each sector holds an obstacle that the published MDA of some category would not clear by the
+    required clearance: the reason circling there is not authorised."""
+    for a in AIRFIELDS.values():
+        frame = geo.LocalFrame(lat0_deg=a.reference_point.lat_deg, lon0_deg=a.reference_point.lon_deg)
+        for ap in a.approaches:
+            for s in ap.not_authorised_sectors:
+                sector = core_sector(a, frame, s)
+                inside = [o for o in a.obstacles if sector.contains(frame.to_local(o.lat_deg, o.lon_deg))]
+                assert any(o.elevation_ft + cr.circling_obstacle_clearance_ft(m.category, criteria=ap.criteria)
+                           .clearance_ft > m.mda_ft for o in inside for m in ap.circling
+                           if m.mda_ft is not None), (a.ident, ap.name)
+
+
+def test_circling_mdas_clear_the_obstacles_in_their_area() -> None:
+    """MDA >= highest obstacle in the published area (sectors cut out) + the required clearance,
+    and the height above the airport is at least the criteria's minimum (AIM 5-4-20; Doc 8168
+    Table I-4-7-3 via briefer.core.criteria), and between 400 and 900 ft (realistic demo values)."""
+    for a in AIRFIELDS.values():
+        frame = geo.LocalFrame(lat0_deg=a.reference_point.lat_deg, lon0_deg=a.reference_point.lon_deg)
+        centres = [frame.to_local(t.lat_deg, t.lon_deg) for t in a.thresholds]
+        obstacles = [(o, frame.to_local(o.lat_deg, o.lon_deg)) for o in a.obstacles]
+        for ap in a.approaches:
+            excluded = tuple(core_sector(a, frame, s) for s in ap.not_authorised_sectors)
+            for m in ap.circling:
+                if m.mda_ft is None:
+                    continue
+                radius = cr.circling_area_radius_nm(m.category, criteria=ap.criteria, mda_ft_msl=m.mda_ft,
+                                                    airport_elevation_ft=a.elevation_ft).radius_nm
+                area = geo.ProtectedArea(centres_m=centres, radius_m=radius / M_TO_NM, excluded=excluded)
+                inside = [o.elevation_ft for o, xy in obstacles if area.contains(xy)]
+                clearance = cr.circling_obstacle_clearance_ft(m.category, criteria=ap.criteria).clearance_ft
+                where = (a.ident, ap.name, m.category)
+                assert not inside or m.mda_ft >= max(inside) + clearance - 1, where  # 1 ft: metric MOC
+                haa = m.mda_ft - a.elevation_ft
+                assert haa >= cr.minimum_circling_height_ft(m.category, criteria=ap.criteria).height_ft, where
+                assert 400 <= haa <= 900, where
+
+
+def test_visibility_units_follow_the_criteria() -> None:
+    for a in AIRFIELDS.values():
+        for ap in a.approaches:
+            for m in ap.circling:
+                if m.authorised:
+                    assert (m.visibility_m is not None) == (ap.criteria == "icao"), (a.ident, ap.name)
+
+
+# --- JSON Schemas -------------------------------------------------------------------------------------
+def schema(kind: str) -> dict[str, Any]:
+    return json.loads((SCHEMAS / f"{kind}.schema.json").read_text())
+
+
+def resolve(root: dict[str, Any], node: dict[str, Any]) -> dict[str, Any]:
+    while "$ref" in node:
+        node = root["$defs"][node["$ref"].rsplit("/", 1)[1]]
+    return node
+
+
+def keys_not_in_schema(value: Any, node: dict[str, Any], root: dict[str, Any], path: str = "") -> list[str]:
+    node = resolve(root, node)
+    for branch in node.get("anyOf", []):
+        if "$ref" in branch and isinstance(value, dict):
+            return keys_not_in_schema(value, branch, root, path)
+    if isinstance(value, dict):
+        props = node.get("properties", {})
+        out = [f"{path}.{k}" for k in value if k not in props]
+        for k, v in value.items():
+            if k in props:
+                out += keys_not_in_schema(v, props[k], root, f"{path}.{k}")
+        return out
+    if isinstance(value, list) and "items" in node:
+        return [k for i, v in enumerate(value) for k in keys_not_in_schema(v, node["items"], root, f"{path}[{i}]")]
+    return []
+
+
+_TYPES = {"object": dict, "array": list, "string": str, "boolean": bool, "null": type(None)}
+
+
+def schema_errors(value: Any, node: dict[str, Any], root: dict[str, Any], path: str = "$") -> list[str]:
+    """A small validator for the subset of draft 2020-12 the two schemas use (jsonschema is not
+    a dependency): type, const, enum, minimum/maximum, minLength/maxLength/pattern, required,
+    properties, additionalProperties false, minProperties, items, minItems, oneOf, anyOf, not."""
+    node = resolve(root, node)
+    errs: list[str] = []
+    if "const" in node and value != node["const"]:
+        errs.append(f"{path}: not {node['const']!r}")
+    if "enum" in node and value not in node["enum"]:
+        errs.append(f"{path}: not one of {node['enum']}")
+    if "type" in node:
+        types = node["type"] if isinstance(node["type"], list) else [node["type"]]
+
+        def fits(t: str) -> bool:
+            if t == "number":
+                return isinstance(value, (int, float)) and not isinstance(value, bool)
+            if t == "integer":
+                return isinstance(value, int) and not isinstance(value, bool)
+            return isinstance(value, _TYPES[t]) and not (t != "boolean" and isinstance(value, bool))
+        if not any(fits(t) for t in types):
+            return errs + [f"{path}: not of type {types}"]
+    if isinstance(value, (int, float)) and not isinstance(value, bool):
+        if "minimum" in node and value < node["minimum"] or "maximum" in node and value > node["maximum"]:
+            errs.append(f"{path}: {value} outside {node.get('minimum')}..{node.get('maximum')}")
+    if isinstance(value, str):
+        if len(value) < node.get("minLength", 0) or len(value) > node.get("maxLength", 10**9):
+            errs.append(f"{path}: length")
+        if "pattern" in node and not re.search(node["pattern"], value):
+            errs.append(f"{path}: does not match {node['pattern']}")
+    if isinstance(value, dict):
+        errs += [f"{path}: missing {k}" for k in node.get("required", []) if k not in value]
+        props = node.get("properties", {})
+        if node.get("additionalProperties") is False:
+            errs += [f"{path}: unexpected {k}" for k in value if k not in props]
+        if len(value) < node.get("minProperties", 0):
+            errs.append(f"{path}: too few properties")
+        for k, v in value.items():
+            if k in props:
+                errs += schema_errors(v, props[k], root, f"{path}.{k}")
+    if isinstance(value, list):
+        if len(value) < node.get("minItems", 0):
+            errs.append(f"{path}: too few items")
+        if "items" in node:
+            for i, v in enumerate(value):
+                errs += schema_errors(v, node["items"], root, f"{path}[{i}]")
+    if "oneOf" in node:
+        passing = sum(not schema_errors(value, b, root, path) for b in node["oneOf"])
+        if passing != 1:
+            errs.append(f"{path}: matches {passing} of oneOf")
+    if "anyOf" in node and not any(not schema_errors(value, b, root, path) for b in node["anyOf"]):
+        errs.append(f"{path}: matches none of anyOf")
+    if "not" in node and not schema_errors(value, node["not"], root, path):
+        errs.append(f"{path}: matches not")
+    return errs
+
+
+def test_schemas_are_draft_2020_12() -> None:
+    for kind in (KIND_PROFILE, KIND_AIRFIELD):
+        s = schema(kind)
+        assert s["$schema"] == "https://json-schema.org/draft/2020-12/schema"
+        assert s["properties"]["kind"] == {"const": kind, "description": f"What the file holds: always '{kind}'."}
+
+
+@pytest.mark.parametrize("kind", [KIND_PROFILE, KIND_AIRFIELD])
+def test_every_demo_key_is_in_the_schema_and_the_files_validate(kind: str) -> None:
+    root = schema(kind)
+    for t in builtin_files(kind):
+        data = parse_yaml_mapping(t.read_bytes(), t.name).data
+        assert keys_not_in_schema(data, root, root) == [], t.name
+        assert schema_errors(data, root, root) == [], t.name
+
+
+SCHEMA_DEFS = {KIND_PROFILE: {"": AircraftProfile, "WindAdditive": WindAdditive, "FamiliarPattern": FamiliarPattern,
+                              "Configuration": Configuration},
+               KIND_AIRFIELD: {"": Airfield, "LatLon": LatLon, "Threshold": Threshold, "Runway": Runway,
+                               "Obstacle": Obstacle, "Fix": Fix, "FinalApproachFix": Fix,
+                               "CirclingMinimum": CirclingMinimum, "StraightInMinimum": CirclingMinimum,
+                               "StraightIn": StraightIn, "Sector": Sector}}
+
+
+@pytest.mark.parametrize("kind", [KIND_PROFILE, KIND_AIRFIELD])
+def test_schema_properties_are_exactly_the_model_keys(kind: str) -> None:
+    """The schemas and the loaders accept the same keys and require the same ones."""
+    from briefer.model import Approach
+
+    root = schema(kind)
+    defs = dict(SCHEMA_DEFS[kind])
+    if kind == KIND_AIRFIELD:
+        defs["Approach"] = Approach
+    for name, cls in defs.items():
+        node = root if not name else root["$defs"][name]
+        keys = [k for k in cls.keys() if k != "category"]
+        assert list(node["properties"]) == keys, name
+        required = [k for k in cls.required_keys() if k != "category"]
+        if name == "":
+            required = ["kind", *required]
+        if name == "FinalApproachFix":
+            required.append("altitude_ft")
+        assert node["required"] == required, name
+    assert set(root["$defs"]) == {n for n in defs if n}
+
+
+@pytest.mark.parametrize("name", ["p-unknown-key.yaml", "p-speed-range.yaml", "p-stall-warning.yaml",
+                                  "p-familiar-both.yaml", "a-elevation-range.yaml", "a-criteria.yaml",
+                                  "a-both-visibilities.yaml", "a-sector-both-forms.yaml", "a-faf-altitude.yaml"])
+def test_schema_also_rejects_what_the_loader_rejects(name: str) -> None:
+    data = parse_yaml_mapping((BAD / name).read_bytes(), name).data
+    root = schema(data["kind"])
+    assert schema_errors(data, root, root) != []
+    with pytest.raises(DataFileError):
+        load_any(BAD / name)
