@@ -221,10 +221,9 @@ def _set(obj: Any, name: str, value: Any) -> None:
     object.__setattr__(obj, name, value)
 
 
-def _num(obj: Any, name: str, rng: Range | None = None, *, optional: bool = False,
-         unit: str | None = None) -> float | None:
-    """Check a numeric field (type, finiteness, range); store it as a float."""
-    value = getattr(obj, name)
+def check_number(name: str, value: Any, rng: Range | None = None, *, optional: bool = False,
+                 unit: str | None = None) -> float | None:
+    """A number named `name` checked for type, finiteness and range; raises `InvariantError`."""
     what = _a_number(name, unit)
     if value is None:
         if optional:
@@ -239,6 +238,13 @@ def _num(obj: Any, name: str, rng: Range | None = None, *, optional: bool = Fals
         raise InvariantError(
             f"expected {what} between {_fmt(rng.lo)} and {_fmt(rng.hi)}, got {_fmt(number)}",
             field=name)
+    return number
+
+
+def _num(obj: Any, name: str, rng: Range | None = None, *, optional: bool = False,
+         unit: str | None = None) -> float | None:
+    """Check a numeric field of a model (see `check_number`); store it as a float."""
+    number = check_number(name, getattr(obj, name), rng, optional=optional, unit=unit)
     _set(obj, name, number)
     return number
 
@@ -372,6 +378,7 @@ class _Model:
     """
 
     __slots__ = ()
+    _kind: ClassVar[str | None] = None   # the file kind of a top-level model
     _what: ClassVar[str] = "value"
     _nested: ClassVar[dict[str, type]] = {}
     _nested_seq: ClassVar[dict[str, type]] = {}
@@ -380,7 +387,8 @@ class _Model:
     @classmethod
     def keys(cls) -> tuple[str, ...]:
         """Every key the file form of this model accepts, in the order files should use."""
-        return cls._extra_keys + tuple(f.name for f in fields(cls))  # type: ignore[arg-type]
+        header = ("kind", "format_version") if cls._kind else ()
+        return header + cls._extra_keys + tuple(f.name for f in fields(cls))  # type: ignore[arg-type]
 
     @classmethod
     def required_keys(cls) -> tuple[str, ...]:
@@ -392,6 +400,8 @@ class _Model:
         """Build the model from a mapping; errors are `FieldError` with the dotted path."""
         if not isinstance(data, Mapping):
             raise FieldError(f"expected a mapping ({cls._what}), got {_describe(data)}", context=path)
+        if cls._kind:
+            _check_header(data, cls._kind, path)
         allowed = cls.keys()
         for key in data:
             if key not in allowed:
@@ -412,7 +422,7 @@ class _Model:
                 continue
             value = data[f.name]
             sub = join_path(path, f.name)
-            if f.name in cls._nested and value is not None:
+            if f.name in cls._nested and not (value is None and f.default is None):
                 value = cls._nested[f.name].from_mapping(value, path=sub)
             elif f.name in cls._nested_seq:
                 item_cls = cls._nested_seq[f.name]
@@ -433,7 +443,7 @@ class _Model:
 
     def to_mapping(self) -> dict[str, Any]:
         """Plain dicts, lists and scalars; ``from_mapping(m.to_mapping()) == m``. None is left out."""
-        out: dict[str, Any] = {}
+        out: dict[str, Any] = {"kind": self._kind, "format_version": FORMAT_VERSION} if self._kind else {}
         for f in fields(self):  # type: ignore[arg-type]
             value = getattr(self, f.name)
             if value is None:
@@ -594,10 +604,10 @@ class AircraftProfile(_Model):
     1.3 VSO when asked (14 CFR 97.3: "1.3 VSO if VREF is not specified").
     """
 
+    _kind: ClassVar[str | None] = KIND_PROFILE
     _what: ClassVar[str] = "an aircraft profile"
-    _extra_keys: ClassVar[tuple[str, ...]] = ("kind", "format_version")
-    _nested: ClassVar[dict[str, type]] = {}
-    _nested_seq: ClassVar[dict[str, type]] = {}
+    _nested: ClassVar[dict[str, type]] = {"wind_additive": WindAdditive, "familiar_pattern": FamiliarPattern}
+    _nested_seq: ClassVar[dict[str, type]] = {"configurations": Configuration}
 
     name: str
     description: str = ""
@@ -700,18 +710,6 @@ class AircraftProfile(_Model):
         landing = min(self.configurations, key=lambda c: c.vref_kt)
         return self.vref_kt_at(self.max_landing_weight_lb, landing.name)
 
-    @classmethod
-    def from_mapping(cls, data: Any, *, path: str = "") -> AircraftProfile:
-        if isinstance(data, Mapping):
-            _check_header(data, KIND_PROFILE, path)
-        return _Model.from_mapping.__func__(cls, data, path=path)  # type: ignore[attr-defined]
-
-    def to_mapping(self) -> dict[str, Any]:
-        return {"kind": KIND_PROFILE, "format_version": FORMAT_VERSION, **_Model.to_mapping(self)}
-
-
-AircraftProfile._nested = {"wind_additive": WindAdditive, "familiar_pattern": FamiliarPattern}
-AircraftProfile._nested_seq = {"configurations": Configuration}
 
 
 # --------------------------------------------------------------------------------------------
@@ -769,6 +767,7 @@ class Runway(_Model):
     """A runway: its two thresholds (reciprocal designators, 300 m to 6 km apart)."""
 
     _what: ClassVar[str] = "a runway"
+    _nested: ClassVar[dict[str, type]] = {"threshold_a": Threshold, "threshold_b": Threshold}
 
     threshold_a: Threshold
     threshold_b: Threshold
@@ -1072,6 +1071,8 @@ class Approach(_Model):
     """
 
     _what: ClassVar[str] = "an approach"
+    _nested: ClassVar[dict[str, type]] = {"faf": Fix, "map_fix": Fix, "straight_in": StraightIn}
+    _nested_seq: ClassVar[dict[str, type]] = {"not_authorised_sectors": Sector}
 
     name: str
     runway: str | None = None
@@ -1152,8 +1153,10 @@ class Airfield(_Model):
     ``magnetic_variation_deg`` is east positive: true = magnetic + variation.
     """
 
+    _kind: ClassVar[str | None] = KIND_AIRFIELD
     _what: ClassVar[str] = "an airfield"
-    _extra_keys: ClassVar[tuple[str, ...]] = ("kind", "format_version")
+    _nested: ClassVar[dict[str, type]] = {"reference_point": LatLon}
+    _nested_seq: ClassVar[dict[str, type]] = {"runways": Runway, "obstacles": Obstacle, "approaches": Approach}
 
     ident: str
     name: str
@@ -1317,21 +1320,6 @@ class Airfield(_Model):
         raise DomainError(f"airfield {self.ident} has no approach '{name}'{did_you_mean(name, names)} "
                           f"(approaches: {', '.join(names)})")
 
-    @classmethod
-    def from_mapping(cls, data: Any, *, path: str = "") -> Airfield:
-        if isinstance(data, Mapping):
-            _check_header(data, KIND_AIRFIELD, path)
-        return _Model.from_mapping.__func__(cls, data, path=path)  # type: ignore[attr-defined]
-
-    def to_mapping(self) -> dict[str, Any]:
-        return {"kind": KIND_AIRFIELD, "format_version": FORMAT_VERSION, **_Model.to_mapping(self)}
-
-
-Runway._nested = {"threshold_a": Threshold, "threshold_b": Threshold}
-Approach._nested = {"faf": Fix, "map_fix": Fix, "straight_in": StraightIn}
-Approach._nested_seq = {"not_authorised_sectors": Sector}
-Airfield._nested = {"reference_point": LatLon}
-Airfield._nested_seq = {"runways": Runway, "obstacles": Obstacle, "approaches": Approach}
 
 
 # --------------------------------------------------------------------------------------------
@@ -1384,12 +1372,11 @@ class Weather(_Model):
             if "altimeter_hpa" in data:
                 raise FieldError("give either altimeter_hpa or altimeter_inhg, not both",
                                  context=join_path(path, "altimeter_inhg"))
-            probe = _InHg(altimeter_inhg=data["altimeter_inhg"])
             try:
-                probe.check()
+                inhg = check_number("altimeter_inhg", data["altimeter_inhg"], ALTIMETER_INHG)
             except InvariantError as exc:
                 raise FieldError(exc.message, context=join_path(path, exc.field)) from None
-            kwargs["altimeter_hpa"] = probe.altimeter_inhg * units.INHG_TO_HPA
+            kwargs["altimeter_hpa"] = inhg * units.INHG_TO_HPA  # type: ignore[operator]
         return kwargs
 
     def wind_from_deg_true(self, magnetic_variation_deg: float) -> float | None:
@@ -1406,14 +1393,6 @@ class Weather(_Model):
         if self.wind_gust_kt is None or self.wind_speed_kt is None:
             return 0.0
         return self.wind_gust_kt - self.wind_speed_kt
-
-
-@dataclass(slots=True, kw_only=True)
-class _InHg:
-    altimeter_inhg: Any
-
-    def check(self) -> None:
-        _num(self, "altimeter_inhg", ALTIMETER_INHG)
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -1445,6 +1424,8 @@ class BriefRequest(_Model):
     """
 
     _what: ClassVar[str] = "a brief request"
+    _nested: ClassVar[dict[str, type]] = {"profile": AircraftProfile, "airfield": Airfield, "weather": Weather,
+                                          "options": BriefOptions}
 
     profile: AircraftProfile
     configuration: str | None = None
@@ -1495,7 +1476,3 @@ class BriefRequest(_Model):
 
     def landing_threshold(self) -> Threshold:
         return self.airfield.runway_by_designator(self.landing_runway)[0]
-
-
-BriefRequest._nested = {"profile": AircraftProfile, "airfield": Airfield, "weather": Weather,
-                        "options": BriefOptions}

@@ -335,3 +335,24 @@ def test_designator_round_trip(number: int, suffix: str) -> None:
 def test_profile_yaml_round_trip_keeps_every_field(profile: AircraftProfile) -> None:
     changed = dataclasses.replace(profile, vso_kt=50, category_speed_kt=72, aoa_indexer=True, description="x")
     assert load_bytes(dump_yaml(changed).encode(), file="p.yaml") == changed
+
+
+@pytest.mark.parametrize(("key", "value", "message"), [
+    pytest.param("wind_additive", None, "wind_additive: expected a mapping (a wind additive), got an empty value",
+                 id="null-nested"),
+    pytest.param("familiar_pattern", 3, "familiar_pattern: expected a mapping (a familiar pattern), got 3",
+                 id="number-for-nested"),
+    pytest.param("kind", "airfield", "kind: expected 'aircraft-profile', got 'airfield'", id="kind"),
+])
+def test_nested_and_header_errors(profile: AircraftProfile, key: str, value: object, message: str) -> None:
+    data = profile.to_mapping()
+    data[key] = value
+    with pytest.raises(FieldError) as info:
+        AircraftProfile.from_mapping(data)
+    assert str(info.value) == message
+
+
+def test_optional_nested_may_be_null(airfield: Airfield) -> None:
+    data = airfield.to_mapping()
+    data["approaches"][0]["straight_in"] = None
+    assert Airfield.from_mapping(data).approaches[0].straight_in is None
