@@ -143,7 +143,7 @@ def builtin_files(kind: str) -> list[Any]:
 
 def search_dirs(kind: str, dirs: Sequence[str | PathLike[str]] = (), *, use_config: bool = True) -> list[Path]:
     """The user folders searched for a kind: `dirs`, then the config file's."""
-    out = [Path(d).expanduser() for d in dirs]
+    out = [Path(d).expanduser() for d in dirs or ()]
     for d in out:
         if not d.is_dir():
             raise DataFileError("no such folder", file=str(d))
