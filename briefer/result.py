@@ -183,7 +183,9 @@ class PlanInfo:
     leave_mda_distance_nm: float      # track distance to the threshold where descent starts
     leave_mda_heading_deg_mag: float
     inside_area: bool
-    area_margin_nm: float
+    area_margin_nm: float             # smallest margin, not-authorised sectors included
+    area_edge_margin_nm: float        # to the radius boundary alone
+    sector_clearance_nm: float | None  # to the nearest not-authorised sector (0 = on its edge)
     runway_within_visibility: bool | None
     max_distance_from_threshold_nm: float
     track_xy_m: np.ndarray            # (N, 2) local frame

@@ -101,6 +101,7 @@ def brief_to_dict(brief: Brief) -> dict[str, Any]:
             "leave_mda_distance_nm": pl.leave_mda_distance_nm,
             "leave_mda_heading_deg_mag": pl.leave_mda_heading_deg_mag,
             "inside_area": pl.inside_area, "area_margin_nm": pl.area_margin_nm,
+            "area_edge_margin_nm": pl.area_edge_margin_nm, "sector_clearance_nm": pl.sector_clearance_nm,
             "runway_within_visibility": pl.runway_within_visibility,
             "max_distance_from_threshold_nm": pl.max_distance_from_threshold_nm,
             "roll_in": _xy(pl.roll_in_xy_m)[0], "descent_point": _xy(pl.descent_xy_m)[0],

@@ -112,7 +112,11 @@ class PlanView:
         g.add_row("Bank", f"{p.bank_deg:.0f}° target, limit {pf.bank_limit_deg:.0f}°")
         g.add_row("Roll out", f"{p.roll_out_distance_nm:.2f} NM final, heading {p.final_heading_deg_mag:03.0f}° M")
         g.add_row("Leave MDA", p.leave_mda_text)
-        g.add_row("Area", ("inside" if p.inside_area else "OUTSIDE") + f", margin {p.area_margin_nm:+.2f} NM")
+        area = ("inside" if p.inside_area else "OUTSIDE") + f", {p.area_edge_margin_nm:.2f} NM from the area edge"
+        if p.sector_clearance_nm is not None:
+            area += ("; on the edge of the not-authorised sector" if abs(p.sector_clearance_nm) < 0.005
+                     else f"; {p.sector_clearance_nm:.2f} NM from the not-authorised sector")
+        g.add_row("Area", area)
         vis = {True: "stays within the reported visibility", False: "goes beyond the reported visibility",
                None: "visibility not reported"}[p.runway_within_visibility]
         g.add_row("Runway", f"{vis} (farthest {p.max_distance_from_threshold_nm:.2f} NM)")

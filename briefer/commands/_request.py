@@ -1,0 +1,115 @@
+"""Arguments that describe a briefing situation, shared by `brief`, `envelope` and `app`,
+and the one function that turns them into a BriefRequest."""
+
+from __future__ import annotations
+
+import argparse
+from typing import Any
+
+from briefer.commands._common import finite_float
+
+
+def add_situation_arguments(parser: argparse.ArgumentParser, *, demo: bool = True) -> None:
+    g = parser.add_argument_group("situation")
+    if demo:
+        g.add_argument("--demo", action="store_true",
+                       help="the built-in invented case (other options override its parts)")
+    g.add_argument("--profile", metavar="FILE|NAME", help="aircraft profile (a YAML file or a profile name)")
+    g.add_argument("--configuration", metavar="NAME", help="configuration of the profile (default: its own)")
+    g.add_argument("--airfield", metavar="FILE|NAME", help="airfield (a YAML file, ident or name)")
+    g.add_argument("--approach", metavar="NAME", help="approach name as in the airfield file")
+    g.add_argument("--runway", metavar="DES", help="landing runway, e.g. 27")
+    g.add_argument("--weight-lb", type=finite_float, metavar="W", help="landing weight (default: maximum)")
+    g.add_argument("--bank-deg", type=finite_float, metavar="B", help="planned bank (default: the profile's)")
+    g.add_argument("--criteria", choices=("terps-legacy", "terps-expanded", "icao"),
+                   help="criteria set (default: the approach's own)")
+    w = parser.add_argument_group("weather (values given here override a --metar report)")
+    w.add_argument("--metar", metavar="REPORT", help="a METAR/SPECI report to fill the weather")
+    w.add_argument("--wind", metavar="DDD/SS[GGG]", help="wind, e.g. 250/15G25 or VRB/5")
+    w.add_argument("--wind-is", choices=("true", "magnetic"), default="true",
+                   help="reference of --wind directions (METAR: true; tower/ATIS: magnetic)")
+    w.add_argument("--oat-c", type=finite_float, metavar="T", help="surface temperature")
+    alt = w.add_mutually_exclusive_group()
+    alt.add_argument("--altimeter-inhg", type=finite_float, metavar="X")
+    alt.add_argument("--altimeter-hpa", type=finite_float, metavar="X")
+    w.add_argument("--visibility-sm", type=finite_float, metavar="V", help="reported visibility")
+    w.add_argument("--ceiling-ft", type=finite_float, metavar="C", help="reported ceiling above the airport")
+    parser.add_argument("--profile-dir", action="append", default=[], metavar="DIR",
+                        help="also look for profiles here (repeatable)")
+    parser.add_argument("--airfield-dir", action="append", default=[], metavar="DIR",
+                        help="also look for airfields here (repeatable)")
+
+
+DEMO = {"profile": "demo-bizjet", "airfield": "V2RL", "approach": "RNAV (GPS) RWY 09", "runway": "27"}
+
+
+def weather_fields(args: argparse.Namespace) -> tuple[dict[str, Any], Any]:
+    """Weather model fields from --metar and the explicit options (explicit values win),
+    and the decoded report (or None)."""
+    from briefer import units
+    from briefer.core.wind import parse_wind
+
+    fields: dict[str, Any] = {}
+    report = None
+    if getattr(args, "metar", None):
+        from briefer.io.metar import decode_metar, weather_from_metar
+
+        report = decode_metar(args.metar)
+        fields.update({k: v for k, v in weather_from_metar(report).items() if v is not None})
+    if args.wind:
+        w = parse_wind(args.wind, reference=args.wind_is)
+        fields.update(wind_from_deg=w.from_deg, wind_speed_kt=w.speed_kt, wind_gust_kt=w.gust_kt,
+                      wind_reference=args.wind_is)
+    if args.oat_c is not None:
+        fields["oat_c"] = args.oat_c
+    if args.altimeter_hpa is not None:
+        fields["altimeter_hpa"] = args.altimeter_hpa
+    if args.altimeter_inhg is not None:
+        fields["altimeter_hpa"] = args.altimeter_inhg * units.INHG_TO_HPA
+    if args.visibility_sm is not None:
+        fields["visibility_sm"] = args.visibility_sm
+    if args.ceiling_ft is not None:
+        fields["ceiling_ft"] = args.ceiling_ft
+    return fields, report
+
+
+def request_from_args(args: argparse.Namespace):
+    """The BriefRequest the options describe (with --demo, the demo case with overrides).
+
+    Returns (request, decoded METAR report or None). Raises BriefingError with a clear message.
+    """
+    from briefer.brief import demo_request
+    from briefer.errors import DomainError
+    from briefer.io import catalog
+    from briefer.model import BriefOptions, BriefRequest, Weather
+
+    fields, report = weather_fields(args)
+    if getattr(args, "demo", False) or not any((args.profile, args.airfield, args.approach, args.runway)):
+        base = demo_request()
+        base_fields = {k: getattr(base.weather, k) for k in ("wind_from_deg", "wind_speed_kt", "wind_gust_kt",
+                       "wind_reference", "oat_c", "altimeter_hpa", "visibility_sm", "ceiling_ft")}
+        if fields:   # a report or typed weather replaces the demo weather wholesale, then overrides
+            base_fields = {k: None for k in base_fields} | {"wind_reference": "true"}
+        base_fields.update(fields)
+        fields = base_fields
+        names = dict(DEMO)
+    else:
+        missing = [o for o, v in (("--profile", args.profile), ("--airfield", args.airfield),
+                                  ("--approach", args.approach), ("--runway", args.runway)) if not v]
+        if missing:
+            raise DomainError("missing " + ", ".join(missing) + " (or use --demo)")
+        names = {}
+    profile = catalog.find_profile(args.profile or names["profile"], dirs=args.profile_dir)
+    airfield = catalog.find_airfield(args.airfield or names["airfield"], dirs=args.airfield_dir)
+    approach = args.approach or names.get("approach")
+    if approach is None:
+        raise DomainError("missing --approach")
+    try:
+        appr = airfield.approach(approach)
+    except DomainError:
+        raise
+    request = BriefRequest(
+        profile=profile, configuration=args.configuration, airfield=airfield, approach=appr.name,
+        landing_runway=args.runway or names["runway"], weather=Weather(**fields), weight_lb=args.weight_lb,
+        bank_deg=args.bank_deg, options=BriefOptions(criteria=args.criteria))
+    return request, report
