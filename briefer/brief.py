@@ -506,8 +506,8 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
         b = np.array(s.frame.to_local(rw.threshold_b.lat_deg, rw.threshold_b.lon_deg), dtype=float)
         runways.append(RunwayDrawing(designator=rw.designator, a_xy_m=frozen_array(a), b_xy_m=frozen_array(b),
                                      landing=rw.matches(request.landing_runway)))
-    sector_polys = tuple(frozen_array(sec.polygon(radius.radius_nm * units.NM_TO_M * 1.6))
-                         for sec in s.area.excluded)
+    clip_m = radius.radius_nm * units.NM_TO_M + s.runway.length_m / 2.0   # draw sectors within the area
+    sector_polys = tuple(frozen_array(sec.polygon(clip_m)) for sec in s.area.excluded)
     area_info = AreaInfo(criteria=crit, radius_nm=radius.radius_nm, basis=radius.basis,
                          provenance=criteria.provenance_label(radius.provenance),
                          required_radius_nm=required.radius_nm, centres_xy_m=frozen_array(s.area.centres_m),
