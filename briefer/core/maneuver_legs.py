@@ -371,15 +371,33 @@ def turn_profile(angle_rad: Numeric, bank_rad: Numeric, tas_mps: Numeric, roll_r
     return TurnProfile(angle=a + zero, tas=v + zero, tr=tr, tc=tc, dp=dp, wp=wp, c=c, k=k, total=2.0 * tr + tc)
 
 
+def ramp_q(tau: Numeric, c: Numeric, tas: Numeric, k: float) -> npt.NDArray[np.complex128]:
+    """Roll-in ramp air path Q(tau) = C + i S = integral over [0, tau] of V exp(i h_in(u)) du (kernel).
+
+    h_in(u) = c (-ln cos(k u)), right turn from heading 0; 8-point Gauss-Legendre. ``tau``, ``c``
+    and ``tas`` broadcast. When c and V are the same everywhere (one TAS and roll rate, as in
+    the envelope) Q is computed once per distinct tau, which are few (the ramp times of a level).
+    """
+    tau = np.asarray(tau, dtype=float)
+    c = np.asarray(c, dtype=float)
+    v = np.asarray(tas, dtype=float)
+    if tau.size > 64 and c.size and np.ptp(c) == 0.0 and np.ptp(v) == 0.0:
+        uniq, inv = np.unique(tau, return_inverse=True)
+        if uniq.size * 8 < tau.size:
+            q = ramp_q(uniq, c.flat[0], v.flat[0], k)
+            return q[inv].reshape(np.broadcast(tau, c, v).shape)
+    u = tau[..., None] * (0.5 * (GL_NODES + 1.0))
+    h = c[..., None] * -np.log(np.cos(k * u))
+    return (v * 0.5 * tau) * np.sum(GL_WEIGHTS * np.exp(1j * h), axis=-1)
+
+
 def _ramp_integrals(tau: FloatArray, prof: TurnProfile, expand: int) -> tuple[FloatArray, FloatArray]:
     """C(tau), S(tau) = integral over [0, tau] of V (cos h_in, sin h_in) (Gauss-Legendre)."""
     c, v = prof.c, prof.tas
     for _ in range(expand):
         c, v = c[..., None], v[..., None]
-    u = tau[..., None] * (0.5 * (GL_NODES + 1.0))
-    h = c[..., None] * -np.log(np.cos(prof.k * u))
-    wts = (0.5 * tau)[..., None] * GL_WEIGHTS
-    return v * np.sum(wts * np.cos(h), axis=-1), v * np.sum(wts * np.sin(h), axis=-1)
+    q = ramp_q(tau, c, v, prof.k)
+    return q.real, q.imag
 
 
 def turn_air_xyh(t: Numeric, prof: TurnProfile, *, expand: int = 0

@@ -236,11 +236,11 @@ class Plan:
 # --------------------------------------------------------------------------------------------
 # solving one plan
 # --------------------------------------------------------------------------------------------
-def _reason_texts(flags: int, shape: Shape, sol: ShapeSolution, inputs: CircleInputs,
+def _reason_texts(flags: int, shape: Shape, sol: ShapeSolution, k: int, inputs: CircleInputs,
                   descent: DescentGeometry) -> tuple[str, ...]:
     out = []
     b = inputs.bank_deg
-    f = lambda a: float(np.asarray(a))  # noqa: E731
+    f = lambda a: float(a[k])  # noqa: E731
     if flags & R_WIND:
         out.append(f"the wind ({inputs.wind.speed_kt:.0f} kt) leaves no flyable crab on a leg: a crosswind "
                    f"component reaches the TAS ({inputs.tas_kt:.0f} kt) or a ground speed is not positive")
@@ -276,19 +276,19 @@ def _reason_texts(flags: int, shape: Shape, sol: ShapeSolution, inputs: CircleIn
     return tuple(out)
 
 
-def _public_legs(sol: ShapeSolution, inputs: CircleInputs) -> tuple[Leg, ...]:
+def _public_legs(sol: ShapeSolution, k: int, inputs: CircleInputs) -> tuple[Leg, ...]:
     legs: list[Leg] = []
     for lg in sol.legs:
-        t = float(np.asarray(lg.duration))
+        t = float(lg.duration[k])
         if lg.kind == "turn":
             assert lg.prof is not None and lg.sign is not None
-            legs.append(Turn(angle_deg=math.degrees(float(np.asarray(lg.prof.angle))), bank_deg=inputs.bank_deg,
-                             direction="right" if float(np.asarray(lg.sign)) > 0 else "left",
+            legs.append(Turn(angle_deg=math.degrees(float(lg.prof.angle[k])), bank_deg=inputs.bank_deg,
+                             direction="right" if lg.sign[k] > 0 else "left",
                              roll_rate_deg_per_s=inputs.roll_rate_deg_per_s, name=lg.name))
         elif lg.track_rad is not None:
             legs.append(StraightTrack(time_s=t, track_deg=math.degrees(lg.track_rad), name=lg.name))
         else:
-            legs.append(Straight(time_s=t, heading_deg=math.degrees(float(np.asarray(lg.psi0))), name=lg.name))
+            legs.append(Straight(time_s=t, heading_deg=math.degrees(float(lg.psi0[k])), name=lg.name))
     return tuple(legs)
 
 
@@ -305,12 +305,10 @@ def _first_abeam_time_s(x: FloatArray, t: FloatArray) -> float | None:
     return float(t[i] + (t[i + 1] - t[i]) * x[i] / (x[i] - x[i + 1]))
 
 
-def _leave_mda(trk: SolutionTrack, names: tuple[str, ...], final_turn: int, roll_out_d: float,
-               descent: DescentGeometry) -> tuple[LeaveMda, bool]:
+def _leave_mda(xy: FloatArray, hd: FloatArray, tm: FloatArray, li: npt.NDArray[np.int_], names: tuple[str, ...],
+               final_turn: int, roll_out_d: float, descent: DescentGeometry) -> tuple[LeaveMda, bool]:
     """Point along the track, back from the roll-out, where the ground distance still to fly to
     the threshold equals the descent-point distance. Returns (point, reached)."""
-    xy, hd, tm, li = trk.xy, trk.heading, trk.time, trk.leg_index
-    assert hd is not None and tm is not None
     need = descent.descent_point_m - roll_out_d
     last = len(names) - 1
     if need <= 0.0:              # the descent point is on the final straight
@@ -372,34 +370,73 @@ def solve_plan(inputs: CircleInputs, *, shape: Shape, side: Side) -> Plan:
         raise DomainError(f"shape = {shape!r}: expected one of {SHAPES}")
     if side not in SIDES:
         raise DomainError(f"side = {side!r}: expected 'left' or 'right'")
+    return _solve_sides(inputs, shape, (side,))[0]
+
+
+def candidate_plans(inputs: CircleInputs) -> tuple[Plan, ...]:
+    """Every applicable (shape, side) for the arrival, solved at the inputs' bank.
+
+    Both sides of a shape are solved in one vectorised call. Returns an empty tuple for an
+    arrival aligned with the landing direction (a straight-in).
+    """
+    by_shape: dict[Shape, list[Side]] = {}
+    for s, d in applicable_candidates(inputs.arrival_course_deg):
+        by_shape.setdefault(s, []).append(d)
+    plans = {}
+    for s, sides in by_shape.items():
+        for d, p in zip(sides, _solve_sides(inputs, s, tuple(sides))):
+            plans[(s, d)] = p
+    return tuple(plans[c] for c in applicable_candidates(inputs.arrival_course_deg))
+
+
+def _solve_sides(inputs: CircleInputs, shape: Shape, sides: tuple[Side, ...]) -> list[Plan]:
     descent = descent_geometry(inputs)
+    applicable = applicable_candidates(inputs.arrival_course_deg)
+    out: list[Plan | None] = [None] * len(sides)
+    todo = []
+    for i, side in enumerate(sides):
+        if (shape, side) in applicable:
+            todo.append(i)
+        else:
+            out[i] = Plan(shape=shape, side=side, bank_deg=inputs.bank_deg, tas_kt=inputs.tas_kt, inputs=inputs,
+                          descent_point_m=descent.descent_point_m, feasible=False, notes=(),
+                          reasons=(f"{shape} on the {side} does not suit an arrival course of "
+                                   f"{float(wrap_180(inputs.arrival_course_deg)):.0f} deg to the runway",))
+    if todo:
+        sigma = np.array([1.0 if sides[i] == "right" else -1.0 for i in todo])
+        wx, wy = inputs.wind.mps()
+        sol = solve_inputs(inputs, shape, sigma=sigma, wx_mps=wx, wy_mps=wy, bank_deg=inputs.bank_deg,
+                           descent=descent)
+        trk = None
+        if sol.ok.any():
+            trk = sample_solution(sol, turn_step_deg=PLAN_TURN_STEP_DEG, n_straight=2,
+                                  straight_step_m=PLAN_STRAIGHT_STEP_M, with_heading=True)
+        for k, i in enumerate(todo):
+            out[i] = _plan_from_row(inputs, shape, sides[i], sol, trk, k, descent)
+    return [p for p in out if p is not None]
+
+
+def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSolution, trk: SolutionTrack | None,
+                   k: int, descent: DescentGeometry) -> Plan:
+    """Plan of row k of a solved batch."""
     base = dict(shape=shape, side=side, bank_deg=inputs.bank_deg, tas_kt=inputs.tas_kt, inputs=inputs,
                 descent_point_m=descent.descent_point_m)
-    if (shape, side) not in applicable_candidates(inputs.arrival_course_deg):
-        return Plan(**base, feasible=False, notes=(),
-                    reasons=(f"{shape} on the {side} does not suit an arrival course of "
-                             f"{float(wrap_180(inputs.arrival_course_deg)):.0f} deg to the runway",))
-    sigma = 1.0 if side == "right" else -1.0
-    wx, wy = inputs.wind.mps()
-    sol = solve_inputs(inputs, shape, sigma=sigma, wx_mps=wx, wy_mps=wy, bank_deg=inputs.bank_deg, descent=descent)
-    flags = int(sol.reasons)
+    flags = int(sol.reasons[k])
     if flags:
-        return Plan(**base, feasible=False, notes=(), reasons=_reason_texts(flags, shape, sol, inputs, descent))
-
-    legs = _public_legs(sol, inputs)
+        return Plan(**base, feasible=False, notes=(), reasons=_reason_texts(flags, shape, sol, k, inputs, descent))
+    assert trk is not None and trk.heading is not None and trk.time is not None
+    legs = _public_legs(sol, k, inputs)
     start = State(x_m=inputs.arrival_x_m, y_m=inputs.arrival_y_m,
-                  heading_deg=math.degrees(float(sol.legs[0].psi0)), time_s=0.0)
-    trk = sample_solution(sol, turn_step_deg=PLAN_TURN_STEP_DEG, n_straight=2, straight_step_m=PLAN_STRAIGHT_STEP_M,
-                          with_heading=True)
-    assert trk.heading is not None and trk.time is not None
-    times = tuple(float(lg.duration) for lg in sol.legs)
+                  heading_deg=math.degrees(float(sol.legs[0].psi0[k])), time_s=0.0)
+    xy, hdg, tim = trk.xy[k], trk.heading[k], trk.time[k]
+    times = tuple(float(lg.duration[k]) for lg in sol.legs)
     names = tuple(lg.name for lg in sol.legs)
-    roll_out_d = float(sol.roll_out_d)
+    roll_out_d = float(sol.roll_out_d[k])
     notes: list[str] = []
     if descent.clamped:
         notes.append(f"roll-out moved out to the stabilised distance, {descent.stabilised_distance_m:.0f} m "
                      f"({inputs.stabilised_height_ft:.0f} ft on the glide path)")
-    leave, reached = _leave_mda(trk, names, sol.final_turn, roll_out_d, descent)
+    leave, reached = _leave_mda(xy, hdg, tim, trk.leg_index, names, sol.final_turn, roll_out_d, descent)
     if leave.in_turn:
         notes.append(f"the glide path starts in the final turn: leave the circling height at heading "
                      f"{leave.heading_deg:.0f} with {leave.along_track_to_threshold_m:.0f} m to fly")
@@ -409,38 +446,30 @@ def solve_plan(inputs: CircleInputs, *, shape: Shape, side: Side) -> Plan:
         notes.append("the glide path from the circling height starts before the circle begins: "
                      "descend from the arrival")
     if sol.abeam_s is not None:
-        abeam: float | None = float(sol.abeam_s)
+        abeam: float | None = float(sol.abeam_s[k])
     else:       # teardrop, direct turn: from the first pass abeam/over the threshold, if before the roll-in
-        t_cross = _first_abeam_time_s(trk.xy[:, 0], trk.time)
+        t_cross = _first_abeam_time_s(xy[:, 0], tim)
         t_roll_in = sum(times[: sol.final_turn])
         abeam = None if t_cross is None or t_cross > t_roll_in else t_roll_in - t_cross
     if shape in ("downwind-join", "break-and-return"):
-        dw_i = [lg.name for lg in sol.legs].index("downwind")
-        x_join = float(sol.legs[dw_i].x0)
+        dw_i = names.index("downwind")
+        x_join = float(sol.legs[dw_i].x0[k])
         if x_join < 0.0:
             notes.append(f"the downwind is joined {-x_join:.0f} m past abeam the threshold: start the timing "
                          f"from the join, {times[dw_i]:.0f} s to the roll-in")
-    x, y = trk.xy[:, 0], trk.xy[:, 1]
-    ri = (float(sol.x_ri), float(sol.y_ri))
+    x, y = xy[:, 0], xy[:, 1]
+    ri = (float(sol.x_ri[k]), float(sol.y_ri[k]))
     return Plan(**base, feasible=True, reasons=(), notes=tuple(notes),
-                offset_m=float(sol.offset), abeam_to_roll_in_s=abeam, roll_in_distance_m=-ri[0], roll_in_xy_m=ri,
-                break_off_s=None if sol.break_s is None else float(sol.break_s), roll_out_distance_m=roll_out_d,
-                final_heading_deg=math.degrees(float(sol.psi_f)) % 360.0,
-                downwind_heading_deg=(math.degrees(float(sol.psi_d)) % 360.0
+                offset_m=float(sol.offset[k]), abeam_to_roll_in_s=abeam, roll_in_distance_m=-ri[0], roll_in_xy_m=ri,
+                break_off_s=None if sol.break_s is None else float(sol.break_s[k]), roll_out_distance_m=roll_out_d,
+                final_heading_deg=math.degrees(float(sol.psi_f[k])) % 360.0,
+                downwind_heading_deg=(math.degrees(float(sol.psi_d[k])) % 360.0
                                       if shape in ("downwind-join", "break-and-return") else None),
                 leave_mda=leave, legs=legs, leg_names=names, leg_times_s=times,
-                total_time_s=float(sum(times)), start=start, track_xy_m=trk.xy, track_time_s=trk.time,
-                track_heading_deg=np.degrees(trk.heading), track_leg_index=trk.leg_index,
+                total_time_s=float(sum(times)), start=start, track_xy_m=xy, track_time_s=tim,
+                track_heading_deg=np.degrees(hdg), track_leg_index=trk.leg_index,
                 max_distance_from_threshold_m=float(np.sqrt(np.max(x * x + y * y))),
                 max_distance_from_runway_m=float(np.max(_distance_to_runway_m(x, y, inputs.runway_length_m))))
-
-
-def candidate_plans(inputs: CircleInputs) -> tuple[Plan, ...]:
-    """Every applicable (shape, side) for the arrival, solved at the inputs' bank.
-
-    Returns an empty tuple for an arrival aligned with the landing direction (a straight-in).
-    """
-    return tuple(solve_plan(inputs, shape=s, side=d) for s, d in applicable_candidates(inputs.arrival_course_deg))
 
 
 # --------------------------------------------------------------------------------------------

@@ -51,12 +51,11 @@ import numpy.typing as npt
 
 from briefer.core.maneuver_legs import (
     BANK_MAX_DEG,
-    GL_NODES,
-    GL_WEIGHTS,
     FloatArray,
     RunwayWind,
     TurnProfile,
     crab,
+    ramp_q,
     turn_ground,
     turn_profile,
 )
@@ -461,6 +460,7 @@ def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx
 
 
 N_RAMP = 3
+_RUNNING_PRODUCT_MIN_CELLS = 16     # below this many tracks, exp() directly beats the running product
 """Samples per roll-in (and per roll-out) ramp when turns have roll ramps."""
 
 
@@ -480,10 +480,14 @@ class SolutionTrack:
     leg_index: npt.NDArray[np.int_]
 
 
-def _arc_count(lg: LegArrays, turn_step_deg: float, actual: bool) -> int:
+def _amax(a: FloatArray) -> float:
+    return float(a) if a.ndim == 0 else float(a.max(initial=0.0))
+
+
+def _arc_count(lg: LegArrays, turn_step_deg: float, actual: bool, ok: npt.NDArray[np.bool_]) -> int:
     nominal = lg.nominal_rad
     if actual and lg.prof is not None:
-        nominal = max(nominal, float(np.max(lg.prof.angle - 2.0 * lg.prof.dp, initial=0.0)))
+        nominal = max(nominal, _amax(np.where(ok, lg.prof.angle - 2.0 * lg.prof.dp, 0.0)))
     return turn_sample_count(nominal, turn_step_deg)
 
 
@@ -493,21 +497,20 @@ def _leg_counts(sol: ShapeSolution, turn_step_deg: float, n_straight: int, strai
     out = []
     for lg in sol.legs:
         if lg.kind == "turn":
-            out.append(_arc_count(lg, turn_step_deg, straight_step_m is not None) + (2 * N_RAMP if ramps else 0))
+            out.append(_arc_count(lg, turn_step_deg, straight_step_m is not None, sol.ok)
+                       + (2 * N_RAMP if ramps else 0))
         elif straight_step_m is None:
             out.append(n_straight)
         else:
             assert lg.gx is not None and lg.gy is not None
-            length = float(np.max(np.hypot(lg.gx, lg.gy) * lg.duration, initial=0.0))
+            length = _amax(np.where(sol.ok, np.hypot(lg.gx, lg.gy) * lg.duration, 0.0))
             out.append(max(n_straight, int(math.ceil(length / straight_step_m)) + 1))
     return out
 
 
 def _ramp_q(tau: FloatArray, prof: TurnProfile) -> npt.NDArray[np.complex128]:
     """C + i S: air path of a roll-in ramp at times tau (n, ...) (right turn from heading 0)."""
-    u = tau[..., None] * (0.5 * (GL_NODES + 1.0))
-    h = prof.c[..., None] * -np.log(np.cos(prof.k * u))
-    return (prof.tas * 0.5 * tau) * np.sum(GL_WEIGHTS * np.exp(1j * h), axis=-1)
+    return ramp_q(tau, prof.c, prof.tas, prof.k)
 
 
 def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int, straight_step_m: float | None = None,
@@ -539,6 +542,7 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     tim = np.empty((nt,) + shp) if with_heading else None
     wind = sol.wx + 1j * sol.wy
     lead = (1,) * len(shp)
+    cells = int(np.prod(shp))
     j = 0
     t_start = np.zeros(shp)
     with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
@@ -548,7 +552,7 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
             if leg.kind == "turn":
                 assert leg.prof is not None and leg.sign is not None
                 pr = leg.prof
-                nr = N_RAMP if n > _arc_count(leg, turn_step_deg, straight_step_m is not None) else 0
+                nr = N_RAMP if n > _arc_count(leg, turn_step_deg, straight_step_m is not None, sol.ok) else 0
                 na = n - 2 * nr
                 rot = np.exp(1j * leg.psi0)
                 sgn = leg.sign
@@ -566,11 +570,14 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                 else:
                     q_tr = np.zeros(shp, dtype=np.complex128)
                 a_seg = seg[nr:nr + na]
-                a_seg[0] = np.exp(1j * pr.dp)
-                step = np.exp(1j * arc / (na - 1)).reshape(-1)
-                rows = a_seg.reshape(na, -1)                 # a view: rows of the contiguous block
-                for k in range(1, na):                       # loop over samples, not cells
-                    np.multiply(rows[k - 1], step, out=rows[k])
+                if cells < _RUNNING_PRODUCT_MIN_CELLS:         # a few tracks: direct exponentials
+                    a_seg[...] = np.exp(1j * (pr.dp + arc * fa))
+                else:
+                    a_seg[0] = np.exp(1j * pr.dp)
+                    step = np.exp(1j * arc / (na - 1)).reshape(-1)
+                    rows = a_seg.reshape(na, -1)                 # a view: rows of the contiguous block
+                    for k in range(1, na):                       # loop over samples, not cells
+                        np.multiply(rows[k - 1], step, out=rows[k])
                 a_end = a_seg[na - 1] - a_seg[0]
                 a_seg -= a_seg[0].copy()
                 a_seg *= -1j * r
@@ -604,8 +611,9 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                     tim[j:j + n] = t_start + leg.duration * f
             t_start = t_start + leg.duration
             j += n
-    xy = np.ascontiguousarray(np.moveaxis(out, 0, -1)).view(np.float64).reshape(shp + (nt, 2))
+    last = (lambda a: a) if not shp else (lambda a: np.moveaxis(a, 0, -1))  # noqa: E731
+    xy = np.ascontiguousarray(last(out)).view(np.float64).reshape(shp + (nt, 2))
     leg_index = np.repeat(np.arange(len(counts)), counts)
     if hdg is None or tim is None:
         return SolutionTrack(xy=xy, heading=None, time=None, leg_index=leg_index)
-    return SolutionTrack(xy=xy, heading=np.moveaxis(hdg, 0, -1), time=np.moveaxis(tim, 0, -1), leg_index=leg_index)
+    return SolutionTrack(xy=xy, heading=last(hdg), time=last(tim), leg_index=leg_index)
