@@ -322,7 +322,7 @@ def crab(track_rad: Numeric, tas_mps: Numeric, wx_mps: Numeric, wy_mps: Numeric
     return psi, gs, ok & (gs > 0.0)
 
 
-@dataclass(frozen=True, slots=True)
+@dataclass(frozen=True, slots=True, kw_only=True)
 class TurnProfile:
     """Timing of a turn (array kernel output; radians, seconds, m/s).
 

@@ -42,6 +42,7 @@ References
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass, field
 from typing import Literal
@@ -252,17 +253,12 @@ def applicable_candidates(arrival_course_deg: float) -> tuple[tuple[Shape, Side]
     return tuple(out)
 
 
-def is_applicable(shape: str, side: str, arrival_course_deg: float) -> bool:
-    """Whether (shape, side) is among :func:`applicable_candidates`."""
-    return (shape, side) in applicable_candidates(arrival_course_deg)
-
-
 # --------------------------------------------------------------------------------------------
 # vectorised solution
 # --------------------------------------------------------------------------------------------
-@dataclass(slots=True)
+@dataclass(frozen=True, slots=True, kw_only=True)
 class LegArrays:
-    """One leg of a solved shape, as arrays over the broadcast shape of the solve."""
+    """One leg of a solved shape, as arrays over the broadcast shape of the solve (kernel output)."""
 
     kind: Literal["straight", "turn"]
     name: str
@@ -282,7 +278,7 @@ class LegArrays:
     nominal_rad: float = 0.0            # the turn angle in calm wind (sets the sample count)
 
 
-@dataclass(slots=True)
+@dataclass(frozen=True, slots=True, kw_only=True)
 class ShapeSolution:
     """Solved unknowns of one shape, as arrays over the broadcast shape (see :func:`solve_shape`)."""
 
@@ -427,12 +423,14 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
 
         # chain the start positions
         x, y = x0 + zero, y0 + zero
+        chained = []
         for leg in legs:
-            leg.x0, leg.y0 = x, y
+            chained.append(dataclasses.replace(leg, x0=x, y0=y))
             if leg.kind == "turn":
                 x, y = x + leg.dx, y + leg.dy
             else:
                 x, y = x + leg.gx * leg.duration, y + leg.gy * leg.duration
+        legs = chained
 
     reasons = np.asarray(reasons, dtype=np.int64) + np.zeros(shp, dtype=np.int64)
     return ShapeSolution(shape=shape, ok=reasons == 0, reasons=reasons, legs=legs, x_ri=x_ri + zero,
@@ -469,7 +467,7 @@ def turn_sample_count(nominal_rad: float, turn_step_deg: float) -> int:
     return max(3, int(math.ceil(math.degrees(nominal_rad) / turn_step_deg - 1e-9)) + 1)
 
 
-@dataclass(slots=True)
+@dataclass(frozen=True, slots=True, kw_only=True)
 class SolutionTrack:
     """Sampled tracks of a solved shape: ``xy`` (..., N, 2) [m]; with headings: ``heading``
     (..., N) [rad] and ``time`` (..., N) [s]; ``leg_index`` (N,) the leg of each sample."""
@@ -569,6 +567,22 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                     e_a = np.exp(1j * pr.angle)
                 else:
                     q_tr = np.zeros(shp, dtype=np.complex128)
+                if not nr and cells >= _RUNNING_PRODUCT_MIN_CELLS:
+                    # instant bank, many tracks: p_k = C - i s r exp(i psi_k) + w t_k with
+                    # C = p0 + i s r exp(i psi0); exp(i psi_k) by a running product
+                    sr = sgn * r
+                    seg[0] = -1j * sr * rot
+                    step = np.exp(1j * (sgn * arc / (na - 1))).reshape(-1)
+                    rows = seg.reshape(na, -1)
+                    for k in range(1, na):                       # loop over samples, not cells
+                        np.multiply(rows[k - 1], step, out=rows[k])
+                    seg += (p0 + 1j * sr * rot) + (wind * pr.tc) * fa
+                    if hdg is not None and tim is not None:
+                        hdg[j:j + n] = leg.psi0 + sgn * (arc * fa)
+                        tim[j:j + n] = t_start + t_arc
+                    t_start = t_start + leg.duration
+                    j += n
+                    continue
                 a_seg = seg[nr:nr + na]
                 if cells < _RUNNING_PRODUCT_MIN_CELLS:         # a few tracks: direct exponentials
                     a_seg[...] = np.exp(1j * (pr.dp + arc * fa))
