@@ -186,7 +186,7 @@ def solve(shape: str, sigma: float, c: dict) -> dict:
 
 def sample(legs: list[dict], c: dict, turn_step_deg: float, n_straight: int) -> list[tuple[float, float]]:
     """Track points: each turn's arc every turn_step_deg of its calm angle (plus N_RAMP points in
-    each roll ramp), each straight n_straight."""
+    each roll ramp), each straight n_straight (the final straight 2)."""
     pts = []
     x, y = c["x0"], c["y0"]
     for leg in legs:
@@ -202,8 +202,9 @@ def sample(legs: list[dict], c: dict, turn_step_deg: float, n_straight: int) -> 
                 pts.append((x + dx, y + dy))
             x, y = x + leg["dx"], y + leg["dy"]
         else:
-            for i in range(n_straight):
-                f = i / (n_straight - 1)
+            n = 2 if leg is legs[-1] else n_straight        # the final straight: its two ends
+            for i in range(n):
+                f = i / (n - 1)
                 pts.append((x + leg["gx"] * leg["t"] * f, y + leg["gy"] * leg["t"] * f))
             x, y = x + leg["gx"] * leg["t"], y + leg["gy"] * leg["t"]
     return pts

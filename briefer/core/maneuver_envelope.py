@@ -234,7 +234,8 @@ def wind_envelope(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: fl
             sol = solve_inputs(inputs, shape, sigma=1.0 if side == "right" else -1.0, wx_mps=wx, wy_mps=wy,
                                bank_deg=bank, descent=descent)
             xy = sample_solution(sol, turn_step_deg=turn_step_deg, n_straight=n_straight).xy
-            xy[~sol.ok] = 0.0
+            if not sol.ok.all():
+                xy[~sol.ok] = 0.0
             area[:, ci] = np.asarray(margin_fn(xy))
             x = xy[..., 0]
             d2 = np.max(np.square(x - np.minimum(np.maximum(x, 0.0), length)) + np.square(xy[..., 1]), axis=-1)

@@ -497,6 +497,8 @@ def _leg_counts(sol: ShapeSolution, turn_step_deg: float, n_straight: int, strai
         if lg.kind == "turn":
             out.append(_arc_count(lg, turn_step_deg, straight_step_m is not None, sol.ok)
                        + (2 * N_RAMP if ramps else 0))
+        elif lg.name == "final":
+            out.append(2)             # the centreline from the roll-out to the threshold: its two ends
         elif straight_step_m is None:
             out.append(n_straight)
         else:
@@ -515,7 +517,8 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                     with_heading: bool = False) -> SolutionTrack:
     """Sample every leg of a solved shape (vectorised): tracks of shape (..., N, 2).
 
-    Each straight gets ``n_straight`` points, each turn :func:`turn_sample_count` points on its
+    Each straight gets ``n_straight`` points (the final, on the centreline, only its two
+    ends), each turn :func:`turn_sample_count` points on its
     constant-bank arc (from its calm-wind angle, so the count does not depend on the wind)
     plus, with roll ramps, ``N_RAMP`` points at equal times in each ramp. Both ends of every
     leg are included (joins appear twice); rows that are not ok hold garbage. With
