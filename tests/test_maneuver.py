@@ -54,12 +54,14 @@ RUNWAY_M = 2500.0
 # --------------------------------------------------------------------------------------------
 # an independent integration of the equations of motion (runway frame, heading clockwise)
 # --------------------------------------------------------------------------------------------
-def rk4_turn(*, tas_kt, bank_deg, angle_deg, sign, wind, psi0_deg, roll_rate_deg_per_s=None, steps=4000):
+def rk4_turn(*, tas_kt, bank_deg, angle_deg, sign, wind, psi0_deg, roll_rate_deg_per_s=None, steps=4000,
+             fraction=1.0):
     """RK4 on dx/dt = V cos(psi) + wx, dy/dt = V sin(psi) + wy, dpsi/dt = s g tan(bank(t)) / V.
 
     The bank schedule is derived here: instant bank, or a linear ramp at k to the target,
     hold, and the mirror ramp out; the hold time makes the heading change equal the angle:
     ramp heading change = integral of g tan(k t)/V dt = g/(V k) * (-ln cos(bank)).
+    Integrates over ``fraction`` of the turn's time; returns (x, y, heading_deg, turn time).
     """
     v = tas_kt * KT_TO_MPS
     wx, wy = wind.toward_x_kt * KT_TO_MPS, wind.toward_y_kt * KT_TO_MPS
@@ -86,7 +88,7 @@ def rk4_turn(*, tas_kt, bank_deg, angle_deg, sign, wind, psi0_deg, roll_rate_deg
     def f(t, s):
         return (v * math.cos(s[2]) + wx, v * math.sin(s[2]) + wy, sign * G0_MPS2 * math.tan(bank(t)) / v)
 
-    h = total / steps
+    h = fraction * total / steps
     s = (0.0, 0.0, math.radians(psi0_deg))
     t = 0.0
     for _ in range(steps):
@@ -127,31 +129,15 @@ def test_trochoid_matches_rk4(tas, bank, angle, direction, wfrom, wspd, psi0, rr
 
 @pytest.mark.parametrize("rr", [None, 5.0])
 def test_trochoid_samples_match_rk4_midway(rr):
-    # the samples inside the turn follow the same integration (half-way point: RK4 over half the time)
+    # the samples inside the turn follow the same integration (half-way point: RK4 over half the time
+    # of the full turn's bank schedule)
     wind = runway_wind_from(45, 30)
     leg = Turn(angle_deg=180, bank_deg=25, direction="right", roll_rate_deg_per_s=rr)
     smp = sample_leg(leg, State(x_m=0.0, y_m=0.0, heading_deg=180.0), tas_kt=120, wind=wind, n=3)
-    total = leg_duration_s(leg, tas_kt=120)
-    # first half of a symmetric turn = ramp in + half the hold: integrate the full turn's schedule
-    # to half time by hand with RK4 (re-using the same schedule via angle/2 is not valid for ramps)
-    v, (wx, wy) = 120 * KT_TO_MPS, wind.mps()
-    phi, k = math.radians(25), (math.radians(rr) if rr else None)
-
-    def bank(t):
-        return phi if k is None else max(0.0, min(phi, k * t, k * (total - t)))
-
-    s, t, h = (0.0, 0.0, math.pi), 0.0, (total / 2) / 4000
-    for _ in range(4000):
-        def f(tt, ss):
-            return (v * math.cos(ss[2]) + wx, v * math.sin(ss[2]) + wy, G0_MPS2 * math.tan(bank(tt)) / v)
-        k1 = f(t, s)
-        k2 = f(t + h / 2, tuple(a + h / 2 * b for a, b in zip(s, k1)))
-        k3 = f(t + h / 2, tuple(a + h / 2 * b for a, b in zip(s, k2)))
-        k4 = f(t + h, tuple(a + h * b for a, b in zip(s, k3)))
-        s = tuple(a + h / 6 * (b1 + 2 * b2 + 2 * b3 + b4) for a, b1, b2, b3, b4 in zip(s, k1, k2, k3, k4))
-        t += h
-    np.testing.assert_allclose([smp.x_m[1], smp.y_m[1]], s[:2], atol=0.01)
-    assert smp.heading_deg[1] == pytest.approx(math.degrees(s[2]), abs=1e-4)   # ramp kinks, as above
+    x, y, h, _ = rk4_turn(tas_kt=120, bank_deg=25, angle_deg=180, sign=1, wind=wind, psi0_deg=180.0,
+                          roll_rate_deg_per_s=rr, fraction=0.5)
+    np.testing.assert_allclose([smp.x_m[1], smp.y_m[1]], [x, y], atol=0.01)
+    assert smp.heading_deg[1] == pytest.approx(h, abs=1e-4)   # ramp kinks, as above
 
 
 def test_calm_180_turn_displaces_exactly_two_radii():
