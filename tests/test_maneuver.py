@@ -125,6 +125,7 @@ def test_trochoid_matches_rk4(tas, bank, angle, direction, wfrom, wspd, psi0, rr
     # heading to 1e-4 deg: RK4 steps straddling the kinks of the bank ramps lose its 4th order
     assert end.heading_deg == pytest.approx(h, abs=1e-4)
     assert end.time_s == pytest.approx(total, rel=1e-12)
+    assert leg_duration_s(leg, tas_kt=tas) == pytest.approx(total, rel=1e-12)
 
 
 @pytest.mark.parametrize("rr", [None, 5.0])

@@ -5,7 +5,9 @@ This module gathers the public API of the ``maneuver_*`` modules:
 
 * :mod:`briefer.core.maneuver_legs` -- runway frame, wind vector, legs and closed-form tracks;
 * :mod:`briefer.core.maneuver_solver` -- inputs, plan shapes, descent geometry, vectorised solve;
-* :mod:`briefer.core.maneuver_plans` -- ``Plan``, candidates, ranking, missed-approach turns;
+* :mod:`briefer.core.maneuver_plans` -- ``Plan``, one solved plan, the candidates;
+* :mod:`briefer.core.maneuver_ranking` -- ranking, verdict thresholds, the bank needed;
+* :mod:`briefer.core.maneuver_missed` -- the missed-approach turn direction along a plan;
 * :mod:`briefer.core.maneuver_envelope` -- the wind envelope over a grid (vectorised).
 
 Runway frame: x metres along the landing direction from the landing threshold (final approach
@@ -46,25 +48,19 @@ from briefer.core.maneuver_legs import (
     sample_legs,
     turn_angle_deg,
 )
-from briefer.core.maneuver_plans import (
+from briefer.core.maneuver_missed import MissedApproachGuide, MissedTurnSegment, missed_approach_turns
+from briefer.core.maneuver_plans import LeaveMda, Plan, candidate_plans, plan_sample, solve_plan
+from briefer.core.maneuver_ranking import (
     MARGINAL_AOA_DEG,
     MARGINAL_AREA_FRACTION,
     MARGINAL_BANK_DEG,
     MARGINAL_VISIBILITY_FRACTION,
-    LeaveMda,
     MarginFn,
-    MissedApproachGuide,
-    MissedTurnSegment,
-    Plan,
     PlanChoice,
     RankedPlan,
     bank_levels_deg,
-    candidate_plans,
     choose_plan,
-    missed_approach_turns,
-    plan_sample,
     rank_plans,
-    solve_plan,
 )
 from briefer.core.maneuver_solver import (
     SHAPES,

@@ -4,9 +4,9 @@ Every cell x candidate x bank level is solved at once with numpy (no Python loop
 the closed-form solve of :mod:`briefer.core.maneuver_solver`, tracks sampled at fixed counts per
 leg, then ONE call of the caller's vectorised margin function on all tracks of a shape.
 
-Cell verdicts (the thresholds of :mod:`briefer.core.maneuver_plans`)
---------------------------------------------------------------------
-For each cell the candidates are ranked as :func:`~briefer.core.maneuver_plans.rank_plans`
+Cell verdicts (the thresholds of :mod:`briefer.core.maneuver_ranking`)
+----------------------------------------------------------------------
+For each cell the candidates are ranked as :func:`~briefer.core.maneuver_ranking.rank_plans`
 does (failures first, then the smaller of area margin and visibility margin). The bank is
 raised from the target in ``bank_step_deg`` steps up to the limit until the best candidate
 has no failure (a failure: cannot be flown, area margin < 0, runway farther than the
@@ -26,7 +26,7 @@ visibility, bank above the limit).
 Tracks in the envelope are sampled every ``turn_step_deg`` (7.5 deg) of each turn's calm-wind
 angle (chord error about r (1 - cos 3.75 deg), 0.2 % of r) and at ``n_straight`` (5) points per
 straight; a single plan's track is denser (2 deg), so a cell right at a threshold may differ by
-a metre or two from :func:`~briefer.core.maneuver_plans.choose_plan`.
+a metre or two from :func:`~briefer.core.maneuver_ranking.choose_plan`.
 
 References
 ----------
@@ -43,7 +43,7 @@ import numpy as np
 import numpy.typing as npt
 
 from briefer.core.maneuver_legs import FloatArray
-from briefer.core.maneuver_plans import (
+from briefer.core.maneuver_ranking import (
     MARGINAL_AREA_FRACTION,
     MARGINAL_BANK_DEG,
     MARGINAL_VISIBILITY_FRACTION,

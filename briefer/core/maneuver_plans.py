@@ -1,37 +1,24 @@
-"""Solved circling plans, the candidates, their ranking and the missed approach from the circle.
+"""Solved circling plans and the candidates for an arrival.
 
 Runway frame, wind and plan shapes: see :mod:`briefer.core.maneuver_legs` and
 :mod:`briefer.core.maneuver_solver`. Situations that are valid inputs but cannot be flown give a
 ``Plan`` with ``feasible=False`` and the reasons in words; nothing here raises for them.
-
-Ranking and verdict thresholds (shared with the envelope)
----------------------------------------------------------
-A plan FAILS if it cannot be flown, needs more bank than the limit, leaves the protected area
-(area margin < 0), takes the runway beyond the visibility (max distance from the runway >
-visibility) or, if an angle-of-attack margin callable is given, has a negative margin. It is
-MARGINAL (our thresholds, documented here and in ``Envelope``) when the bank is within
-``MARGINAL_BANK_DEG`` = 5 deg of the limit, the area margin is below ``MARGINAL_AREA_FRACTION`` =
-10 % of the area radius R, the runway gets beyond ``MARGINAL_VISIBILITY_FRACTION`` = 90 % of the
-visibility, or the AoA margin is below ``MARGINAL_AOA_DEG`` = 3 deg. Candidates are ordered by
-(number of failures, bank, -min(area margin, visibility margin) to 1 m, -AoA margin, total time
-to 0.1 s); exact ties keep the candidate order.
+Ranking is in :mod:`briefer.core.maneuver_ranking`, the missed approach from the circle in
+:mod:`briefer.core.maneuver_missed`.
 
 References
 ----------
-.. [1] FAA, Aeronautical Information Manual, 5-4-21(c): missed approach while circling, an
-   initial climbing turn toward the landing runway.
-.. [2] ICAO Doc 8168 Vol I, Part I, Section 4, Chapter 7 (and Vol II 7.x): climbing turn within
-   the circling area toward the landing runway, 5th ed., 2006.
+.. [1] ICAO Doc 8168 Vol II, Part I, Section 4, Chapter 7 (visual manoeuvring area), 5th ed., 2006.
+.. [2] FAA, Aeronautical Information Manual, 5-4-20 (circling: descend only when in a position to
+   land with normal manoeuvres).
 .. [3] Operator technique summarised in ../shared/REFERENCES.md section 9 (break 45 deg / 30 s,
    timing from abeam the threshold, ~3 deg descent, stabilised by 300 ft, common practice).
 """
 
 from __future__ import annotations
 
-import dataclasses
 import math
 from dataclasses import dataclass, field
-from typing import Callable, Literal
 
 import numpy as np
 import numpy.typing as npt
@@ -70,16 +57,8 @@ from briefer.core.maneuver_solver import (
 from briefer.errors import DomainError
 from briefer.units import wrap_180
 
-MARGINAL_BANK_DEG = 5.0
-MARGINAL_AREA_FRACTION = 0.10
-MARGINAL_VISIBILITY_FRACTION = 0.90
-MARGINAL_AOA_DEG = 3.0
 PLAN_TURN_STEP_DEG = 2.0          # a plan's track: a point every 2 deg of turn ...
 PLAN_STRAIGHT_STEP_M = 100.0      # ... and every 100 m of straight
-
-MarginFn = Callable[[npt.NDArray[np.float64]], "float | npt.NDArray[np.float64]"]
-"""margin_fn(track_xy) -> minimum area margin [m], positive inside. ``track_xy`` is a runway-frame
-array of shape (..., N, 2); the result has shape (...) (a float for one (N, 2) track)."""
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -472,329 +451,6 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
                 max_distance_from_runway_m=float(np.max(_distance_to_runway_m(x, y, inputs.runway_length_m))))
 
 
-# --------------------------------------------------------------------------------------------
-# ranking
-# --------------------------------------------------------------------------------------------
-Verdict = Literal["fits", "marginal", "does not fit"]
-
-
-@dataclass(frozen=True, slots=True, kw_only=True)
-class RankedPlan:
-    """A plan with its checks, its verdict and why it is not first.
-
-    Attributes
-    ----------
-    plan : Plan
-    rank : int
-        1 = the recommended plan.
-    verdict : {"fits", "marginal", "does not fit"}
-    area_margin_m : float or None
-        Smallest distance inside the protected area along the track (negative = leaves). [m]
-    visibility_margin_m : float or None
-        Visibility minus the largest distance from the runway along the track. [m]
-    aoa_margin_deg : float or None
-        Angle-of-attack margin from the caller's callable (None if not given). [deg]
-    failures : tuple of str
-        Hard failures (the plan's own reasons if infeasible).
-    marginal : tuple of str
-        Why it is marginal.
-    why_not_first : str
-        Short reason it loses to rank 1 ("" for rank 1).
-    """
-
-    plan: Plan
-    rank: int
-    verdict: Verdict
-    area_margin_m: float | None
-    visibility_margin_m: float | None
-    aoa_margin_deg: float | None
-    failures: tuple[str, ...]
-    marginal: tuple[str, ...]
-    why_not_first: str
-
-    def __post_init__(self) -> None:
-        if self.rank < 1:
-            raise DomainError("rank starts at 1")
-        if self.verdict not in ("fits", "marginal", "does not fit"):
-            raise DomainError(f"verdict = {self.verdict!r}")
-        if (self.verdict == "does not fit") != bool(self.failures):
-            raise DomainError("'does not fit' exactly when there are failures")
-
-
-def _label(p: Plan) -> str:
-    return f"{p.shape} {p.side}"
-
-
-def rank_plans(plans: tuple[Plan, ...] | list[Plan], *, margin_fn: MarginFn, visibility_m: float,
-               bank_limit_deg: float, area_radius_m: float | None = None,
-               aoa_margin_fn: Callable[[float], float] | None = None) -> tuple[RankedPlan, ...]:
-    """Rank candidate plans and say why each loser loses.
-
-    Parameters
-    ----------
-    plans : sequence of Plan
-    margin_fn : callable
-        ``margin_fn(track_xy)`` -> smallest protected-area margin [m] along a runway-frame track
-        of shape (N, 2), positive inside (including not-authorised sectors).
-    visibility_m : float
-        Reported visibility, > 0. [m]
-    bank_limit_deg : float
-        Largest bank allowed, 0 < limit < 90. [deg]
-    area_radius_m : float, optional
-        Area radius R, for the 10 % marginal threshold (not used if None). [m]
-    aoa_margin_fn : callable, optional
-        ``aoa_margin_fn(bank_deg)`` -> angle-of-attack margin to the stall in that turn. [deg]
-
-    Returns
-    -------
-    tuple of RankedPlan
-        Best first. Never raises for an infeasible plan: it ranks last with its reasons.
-
-    Raises
-    ------
-    DomainError
-        If visibility or bank limit is out of range.
-
-    Notes
-    -----
-    Order key (lower is better): (number of failures, bank, -min(area margin, visibility
-    margin) rounded to 1 m, -AoA margin, total time rounded to 0.1 s); infeasible plans after
-    all others; exact ties keep the input order. Thresholds: see the
-    module docstring.
-    """
-    if not (math.isfinite(visibility_m) and visibility_m > 0.0):
-        raise DomainError(f"visibility_m = {visibility_m}: must be > 0")
-    if not 0.0 < bank_limit_deg < 90.0:
-        raise DomainError(f"bank_limit_deg = {bank_limit_deg}: valid range is (0, 90)")
-    rows = []
-    for p in plans:
-        if not p.feasible:
-            rows.append(((10**6, 0.0, 0.0, 0.0, 0.0), p, None, None, None, tuple(p.reasons), ()))
-            continue
-        area = float(np.asarray(margin_fn(p.track_xy_m)))
-        assert p.max_distance_from_runway_m is not None and p.total_time_s is not None
-        vis = visibility_m - p.max_distance_from_runway_m
-        aoa = None if aoa_margin_fn is None else float(aoa_margin_fn(p.bank_deg))
-        fails, marg = [], []
-        if p.bank_deg > bank_limit_deg:
-            fails.append(f"needs {p.bank_deg:g} deg bank, above the {bank_limit_deg:g} deg limit")
-        elif p.bank_deg > bank_limit_deg - MARGINAL_BANK_DEG:
-            marg.append(f"{p.bank_deg:g} deg bank is within {MARGINAL_BANK_DEG:g} deg of the limit")
-        if area < 0.0:
-            fails.append(f"leaves the protected area by {-area:.0f} m")
-        elif area_radius_m is not None and area < MARGINAL_AREA_FRACTION * area_radius_m:
-            marg.append(f"only {area:.0f} m inside the protected area (< 10 % of R)")
-        if vis < 0.0:
-            fails.append(f"the runway gets {p.max_distance_from_runway_m:.0f} m away, beyond the "
-                         f"{visibility_m:.0f} m visibility")
-        elif p.max_distance_from_runway_m > MARGINAL_VISIBILITY_FRACTION * visibility_m:
-            marg.append(f"the runway gets {p.max_distance_from_runway_m:.0f} m away, over 90 % of the visibility")
-        if aoa is not None:
-            if aoa < 0.0:
-                fails.append(f"angle-of-attack margin {aoa:.1f} deg: beyond the stall")
-            elif aoa < MARGINAL_AOA_DEG:
-                marg.append(f"angle-of-attack margin only {aoa:.1f} deg")
-        key = (len(fails), round(p.bank_deg, 3), -round(min(area, vis)), -(aoa or 0.0), round(p.total_time_s, 1))
-        rows.append((key, p, area, vis, aoa, tuple(fails), tuple(marg)))
-    rows.sort(key=lambda r: r[0])
-    out: list[RankedPlan] = []
-    for i, (key, p, area, vis, aoa, fails, marg) in enumerate(rows):
-        why = "" if i == 0 else _why_loses(rows[0], (key, p, area, vis, aoa, fails, marg))
-        verdict: Verdict = "does not fit" if fails else ("marginal" if marg else "fits")
-        out.append(RankedPlan(plan=p, rank=i + 1, verdict=verdict, area_margin_m=area, visibility_margin_m=vis,
-                              aoa_margin_deg=aoa, failures=fails, marginal=marg, why_not_first=why))
-    return tuple(out)
-
-
-def _why_loses(best: tuple, row: tuple) -> str:
-    bkey, bp, barea, bvis = best[0], best[1], best[2], best[3]
-    key, p, area, vis, aoa, fails = row[0], row[1], row[2], row[3], row[4], row[5]
-    if not p.feasible:
-        return "cannot be flown: " + p.reasons[0]
-    if key[0] > bkey[0]:
-        return "fails: " + "; ".join(fails)
-    if key[1] > bkey[1]:
-        return f"needs {p.bank_deg:g} deg bank against {bp.bank_deg:g} deg for {_label(bp)}"
-    if key[2] > bkey[2]:
-        if min(area, vis) == area:
-            return f"area margin {area:.0f} m against {min(barea, bvis):.0f} m for {_label(bp)}"
-        return f"the runway gets {p.max_distance_from_runway_m:.0f} m away (visibility margin {vis:.0f} m) " \
-               f"against a {min(barea, bvis):.0f} m margin for {_label(bp)}"
-    if key[3] > bkey[3]:
-        return f"angle-of-attack margin {aoa:.1f} deg against {-bkey[3]:.1f} deg for {_label(bp)}"
-    if round(p.total_time_s - bp.total_time_s, 1) == 0.0:
-        return f"ties with {_label(bp)}: either may be flown"
-    return f"takes {p.total_time_s - bp.total_time_s:.0f} s longer than {_label(bp)}"
-
-
-@dataclass(frozen=True, slots=True, kw_only=True)
-class PlanChoice:
-    """The candidates ranked at the lowest bank that makes the best of them fit.
-
-    Attributes
-    ----------
-    bank_needed_deg : float or None
-        Lowest bank level (target, then steps up to the limit) at which the best candidate has
-        no failure; None if none up to the limit. [deg]
-    banks_tried_deg : tuple of float
-        The bank levels tried. [deg]
-    ranked : tuple of RankedPlan
-        The ranking at ``bank_needed_deg`` (or at the last level tried).
-    """
-
-    bank_needed_deg: float | None
-    banks_tried_deg: tuple[float, ...]
-    ranked: tuple[RankedPlan, ...]
-
-    def __post_init__(self) -> None:
-        if not self.banks_tried_deg:
-            raise DomainError("at least one bank level is tried")
-
-
-def bank_levels_deg(bank_deg: float, bank_limit_deg: float, step_deg: float) -> tuple[float, ...]:
-    """Bank levels tried: the target, then every ``step_deg`` below the limit, then the limit."""
-    if not step_deg > 0.0:
-        raise DomainError(f"bank step_deg = {step_deg}: must be > 0")
-    levels = [float(bank_deg)]
-    b = bank_deg + step_deg
-    while b < bank_limit_deg - 1e-9:
-        levels.append(float(b))
-        b += step_deg
-    if bank_limit_deg > bank_deg + 1e-9:
-        levels.append(float(bank_limit_deg))
-    return tuple(levels)
-
-
-def choose_plan(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: float, bank_limit_deg: float,
-                area_radius_m: float | None = None, bank_step_deg: float = 5.0,
-                aoa_margin_fn: Callable[[float], float] | None = None) -> PlanChoice:
-    """Rank the candidates at the inputs' bank and, if the best one fails, at steeper banks.
-
-    The same rule as one cell of :func:`briefer.core.maneuver_envelope.wind_envelope`.
-    Banks above 60 deg are not tried (the solver's range).
-    """
-    levels = tuple(b for b in bank_levels_deg(inputs.bank_deg, bank_limit_deg, bank_step_deg) if b <= 60.0)
-    ranked: tuple[RankedPlan, ...] = ()
-    for b in levels:
-        plans = candidate_plans(dataclasses.replace(inputs, bank_deg=b))
-        ranked = rank_plans(plans, margin_fn=margin_fn, visibility_m=visibility_m, bank_limit_deg=bank_limit_deg,
-                            area_radius_m=area_radius_m, aoa_margin_fn=aoa_margin_fn)
-        if ranked and not ranked[0].failures:
-            return PlanChoice(bank_needed_deg=b, banks_tried_deg=levels[: levels.index(b) + 1], ranked=ranked)
-    return PlanChoice(bank_needed_deg=None, banks_tried_deg=levels, ranked=ranked)
-
-
-# --------------------------------------------------------------------------------------------
-# missed approach from the circle
-# --------------------------------------------------------------------------------------------
-MissedDirection = Literal["left", "right", "ahead", "either"]
-AHEAD_TOL_DEG = 5.0
-
-
-@dataclass(frozen=True, slots=True, kw_only=True)
-class MissedTurnSegment:
-    """A stretch of a leg over which the initial missed-approach turn has one direction.
-
-    Attributes
-    ----------
-    leg_name : str
-    start_s, end_s : float
-        Times from the start of the plan. [s]
-    direction : {"left", "right", "ahead", "either"}
-        Climbing turn toward the runway: "ahead" when the runway is within 5 deg of the nose,
-        "either" when it is within 5 deg of the tail.
-    """
-
-    leg_name: str
-    start_s: float
-    end_s: float
-    direction: MissedDirection
-
-    def __post_init__(self) -> None:
-        if self.end_s < self.start_s:
-            raise DomainError("end_s must not precede start_s")
-
-
-@dataclass(frozen=True, slots=True, kw_only=True)
-class MissedApproachGuide:
-    """Direction of the initial climbing turn toward the landing runway along a plan.
-
-    Attributes
-    ----------
-    reference_xy_m : tuple of float
-        The runway point turned toward (threshold or runway midpoint), runway frame. [m]
-    relative_bearing_deg : ndarray (N,)
-        Bearing of that point from the nose at each track point, (-180, 180], positive right. [deg]
-    direction : tuple of str
-        Per track point: "left" | "right" | "ahead" | "either".
-    segments : tuple of MissedTurnSegment
-        Compact summary per leg.
-    """
-
-    reference_xy_m: tuple[float, float]
-    relative_bearing_deg: FloatArray = field(compare=False, repr=False)
-    direction: tuple[MissedDirection, ...] = field(compare=False, repr=False)
-    segments: tuple[MissedTurnSegment, ...]
-
-    def __post_init__(self) -> None:
-        if len(self.direction) != len(self.relative_bearing_deg):
-            raise DomainError("one direction per track point")
-
-
-def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"] = "midpoint"
-                          ) -> MissedApproachGuide:
-    """Initial climbing-turn direction toward the landing runway at every point of a plan.
-
-    Parameters
-    ----------
-    plan : Plan
-        A feasible plan.
-    toward : {"threshold", "midpoint"}
-        Runway point turned toward (the midpoint needs ``inputs.runway_length_m`` > 0;
-        otherwise the threshold is used).
-
-    Returns
-    -------
-    MissedApproachGuide
-
-    Raises
-    ------
-    DomainError
-        If the plan is not feasible.
-
-    Notes
-    -----
-    "Make an initial climbing turn toward the landing runway" [1]_ [2]_: the side is the sign
-    of the cross product of the heading unit vector with the vector to the runway point
-    (positive = to the right in the runway frame, whose headings increase clockwise).
-    """
-    if not plan.feasible:
-        raise DomainError("missed_approach_turns needs a feasible plan")
-    ref = (plan.inputs.runway_length_m / 2.0 if toward == "midpoint" else 0.0, 0.0)
-    psi = np.radians(plan.track_heading_deg)
-    dx, dy = ref[0] - plan.track_xy_m[:, 0], ref[1] - plan.track_xy_m[:, 1]
-    cross = np.cos(psi) * dy - np.sin(psi) * dx          # > 0: runway to the right
-    dot = np.cos(psi) * dx + np.sin(psi) * dy
-    rel = np.degrees(np.arctan2(cross, dot))
-    dirs: list[MissedDirection] = []
-    for r in rel:
-        if abs(r) <= AHEAD_TOL_DEG:
-            dirs.append("ahead")
-        elif abs(r) >= 180.0 - AHEAD_TOL_DEG:
-            dirs.append("either")
-        else:
-            dirs.append("right" if r > 0 else "left")
-    segs: list[MissedTurnSegment] = []
-    for d, t, li in zip(dirs, plan.track_time_s, plan.track_leg_index):
-        name = plan.leg_names[int(li)]
-        if segs and segs[-1].leg_name == name and segs[-1].direction == d:
-            segs[-1] = dataclasses.replace(segs[-1], end_s=float(t))
-        else:
-            segs.append(MissedTurnSegment(leg_name=name, start_s=float(t), end_s=float(t), direction=d))
-    return MissedApproachGuide(reference_xy_m=ref, relative_bearing_deg=rel, direction=tuple(dirs),
-                               segments=tuple(segs))
-
-
 def plan_sample(plan: Plan, n: int) -> TrackSamples:
     """Resample a feasible plan's legs at about ``n`` points in all (time-proportional per leg)."""
     if not plan.feasible or plan.start is None:
@@ -806,9 +462,4 @@ def plan_sample(plan: Plan, n: int) -> TrackSamples:
     return sample_legs(plan.legs, plan.start, tas_kt=plan.tas_kt, wind=plan.inputs.wind, n_per_leg=counts)
 
 
-__all__ = [
-    "MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION", "MARGINAL_BANK_DEG", "MARGINAL_VISIBILITY_FRACTION",
-    "LeaveMda", "MarginFn", "MissedApproachGuide", "MissedTurnSegment", "Plan", "PlanChoice", "RankedPlan",
-    "bank_levels_deg", "candidate_plans", "choose_plan", "missed_approach_turns", "plan_sample", "rank_plans",
-    "solve_plan",
-]
+__all__ = ["LeaveMda", "Plan", "candidate_plans", "plan_sample", "solve_plan"]

@@ -1,0 +1,131 @@
+"""The missed approach from the circle: which way the initial climbing turn goes.
+
+References
+----------
+.. [1] FAA, Aeronautical Information Manual, 5-4-21(c): missed approach while circling, an
+   initial climbing turn toward the landing runway.
+.. [2] ICAO Doc 8168 Vol I, Part I, Section 4, Chapter 7: climbing turn within the circling area
+   toward the landing runway, 5th ed., 2006 (../shared/REFERENCES.md 4d).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+from dataclasses import dataclass, field
+from typing import Literal
+
+import numpy as np
+
+from briefer.core.maneuver_legs import FloatArray
+from briefer.core.maneuver_plans import Plan
+from briefer.errors import DomainError
+
+MissedDirection = Literal["left", "right", "ahead", "either"]
+AHEAD_TOL_DEG = 5.0
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class MissedTurnSegment:
+    """A stretch of a leg over which the initial missed-approach turn has one direction.
+
+    Attributes
+    ----------
+    leg_name : str
+    start_s, end_s : float
+        Times from the start of the plan. [s]
+    direction : {"left", "right", "ahead", "either"}
+        Climbing turn toward the runway: "ahead" when the runway is within 5 deg of the nose,
+        "either" when it is within 5 deg of the tail.
+    """
+
+    leg_name: str
+    start_s: float
+    end_s: float
+    direction: MissedDirection
+
+    def __post_init__(self) -> None:
+        if self.end_s < self.start_s:
+            raise DomainError("end_s must not precede start_s")
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class MissedApproachGuide:
+    """Direction of the initial climbing turn toward the landing runway along a plan.
+
+    Attributes
+    ----------
+    reference_xy_m : tuple of float
+        The runway point turned toward (threshold or runway midpoint), runway frame. [m]
+    relative_bearing_deg : ndarray (N,)
+        Bearing of that point from the nose at each track point, (-180, 180], positive right. [deg]
+    direction : tuple of str
+        Per track point: "left" | "right" | "ahead" | "either".
+    segments : tuple of MissedTurnSegment
+        Compact summary per leg.
+    """
+
+    reference_xy_m: tuple[float, float]
+    relative_bearing_deg: FloatArray = field(compare=False, repr=False)
+    direction: tuple[MissedDirection, ...] = field(compare=False, repr=False)
+    segments: tuple[MissedTurnSegment, ...]
+
+    def __post_init__(self) -> None:
+        if len(self.direction) != len(self.relative_bearing_deg):
+            raise DomainError("one direction per track point")
+
+
+def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"] = "midpoint"
+                          ) -> MissedApproachGuide:
+    """Initial climbing-turn direction toward the landing runway at every point of a plan.
+
+    Parameters
+    ----------
+    plan : Plan
+        A feasible plan.
+    toward : {"threshold", "midpoint"}
+        Runway point turned toward (the midpoint needs ``inputs.runway_length_m`` > 0;
+        otherwise the threshold is used).
+
+    Returns
+    -------
+    MissedApproachGuide
+
+    Raises
+    ------
+    DomainError
+        If the plan is not feasible.
+
+    Notes
+    -----
+    "Make an initial climbing turn toward the landing runway" [1]_ [2]_: the side is the sign
+    of the cross product of the heading unit vector with the vector to the runway point
+    (positive = to the right in the runway frame, whose headings increase clockwise).
+    """
+    if not plan.feasible:
+        raise DomainError("missed_approach_turns needs a feasible plan")
+    ref = (plan.inputs.runway_length_m / 2.0 if toward == "midpoint" else 0.0, 0.0)
+    psi = np.radians(plan.track_heading_deg)
+    dx, dy = ref[0] - plan.track_xy_m[:, 0], ref[1] - plan.track_xy_m[:, 1]
+    cross = np.cos(psi) * dy - np.sin(psi) * dx          # > 0: runway to the right
+    dot = np.cos(psi) * dx + np.sin(psi) * dy
+    rel = np.degrees(np.arctan2(cross, dot))
+    dirs: list[MissedDirection] = []
+    for r in rel:
+        if abs(r) <= AHEAD_TOL_DEG:
+            dirs.append("ahead")
+        elif abs(r) >= 180.0 - AHEAD_TOL_DEG:
+            dirs.append("either")
+        else:
+            dirs.append("right" if r > 0 else "left")
+    segs: list[MissedTurnSegment] = []
+    for d, t, li in zip(dirs, plan.track_time_s, plan.track_leg_index):
+        name = plan.leg_names[int(li)]
+        if segs and segs[-1].leg_name == name and segs[-1].direction == d:
+            segs[-1] = dataclasses.replace(segs[-1], end_s=float(t))
+        else:
+            segs.append(MissedTurnSegment(leg_name=name, start_s=float(t), end_s=float(t), direction=d))
+    return MissedApproachGuide(reference_xy_m=ref, relative_bearing_deg=rel, direction=tuple(dirs),
+                               segments=tuple(segs))
+
+
+__all__ = ["MissedApproachGuide", "MissedTurnSegment", "missed_approach_turns"]
