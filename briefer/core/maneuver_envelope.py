@@ -1,8 +1,9 @@
 """The wind envelope: the plan solver over a grid of wind directions and speeds, vectorised.
 
-Every cell x candidate x bank level is solved at once with numpy (no Python loop over cells):
-the closed-form solve of :mod:`briefer.core.maneuver_solver`, tracks sampled at fixed counts per
-leg, then ONE call of the caller's vectorised margin function on all tracks of a shape.
+For each candidate (shape, side) and bank level, every cell of the grid is solved at once with
+numpy (no Python loop over cells): the closed-form solve of :mod:`briefer.core.maneuver_solver`,
+tracks sampled at fixed counts per leg, then ONE call of the caller's vectorised margin function
+on all the tracks of that candidate. Later bank levels only revisit the cells not yet fitting.
 
 Cell verdicts (the thresholds of :mod:`briefer.core.maneuver_ranking`)
 ----------------------------------------------------------------------

@@ -285,7 +285,7 @@ class ShapeSolution:
     shape: Shape
     ok: npt.NDArray[np.bool_]
     reasons: npt.NDArray[np.int_]
-    legs: list[LegArrays]
+    legs: tuple[LegArrays, ...]
     x_ri: FloatArray
     y_ri: FloatArray
     offset: FloatArray                  # sigma * y_ri: > 0 on the planned side
@@ -430,10 +430,9 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
                 x, y = x + leg.dx, y + leg.dy
             else:
                 x, y = x + leg.gx * leg.duration, y + leg.gy * leg.duration
-        legs = chained
 
     reasons = np.asarray(reasons, dtype=np.int64) + np.zeros(shp, dtype=np.int64)
-    return ShapeSolution(shape=shape, ok=reasons == 0, reasons=reasons, legs=legs, x_ri=x_ri + zero,
+    return ShapeSolution(shape=shape, ok=reasons == 0, reasons=reasons, legs=tuple(chained), x_ri=x_ri + zero,
                          y_ri=y_ri + zero, offset=offset + zero, roll_out_d=roll_out + zero,
                          abeam_s=None if abeam_s is None else abeam_s + zero,
                          break_s=None if break_s is None else break_s + zero,
