@@ -279,6 +279,10 @@ def _check_time(time_s: float) -> None:
 
 
 def _check_bank(bank_deg: Numeric) -> None:
+    if isinstance(bank_deg, (float, int)):
+        if not 0.0 < bank_deg < BANK_MAX_DEG:
+            raise DomainError(f"bank_deg = {bank_deg}: a turn needs 0 < bank < 90")
+        return
     b = np.asarray(bank_deg, dtype=float)
     if not np.all((b > 0.0) & (b < BANK_MAX_DEG)):
         raise DomainError(f"bank_deg = {bank_deg}: a turn needs 0 < bank < 90")

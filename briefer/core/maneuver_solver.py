@@ -42,7 +42,6 @@ References
 
 from __future__ import annotations
 
-import dataclasses
 import math
 from dataclasses import dataclass, field
 from typing import Literal
@@ -423,9 +422,10 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
 
         # chain the start positions
         x, y = x0 + zero, y0 + zero
-        chained = []
-        for leg in legs:
-            chained.append(dataclasses.replace(leg, x0=x, y0=y))
+        chained = legs
+        for leg in legs:        # the legs were made just above: set their start (no copy)
+            object.__setattr__(leg, "x0", x)
+            object.__setattr__(leg, "y0", y)
             if leg.kind == "turn":
                 x, y = x + leg.dx, y + leg.dy
             else:
