@@ -333,12 +333,21 @@ def test_plan_track_is_in_the_local_frame(demo_brief):
     assert_allclose(demo_brief.plan.track_xy_m[-1], s.runway.threshold_xy_m, atol=1e-6)
 
 
-def test_infeasible_plan_is_a_danger_finding():
-    """A landing on the approach's own runway: no circling shape applies."""
+def test_plan_that_does_not_fit_is_a_danger_finding():
+    """Hot day at the mesa (Q7HM, +32 degC): the bizjet's turn outgrows the 2.3 NM legacy Cat D
+    area even at the bank limit; the brief says so as danger findings, it does not raise."""
+    b = brief_of(request("demo-bizjet", "Q7HM", "RNAV (GPS) RWY 31", "13",
+                         weather=dict(wind_from_deg=150.0, wind_speed_kt=12.0, oat_c=32.0)))
+    assert {"no-plan-fits", "leaves-area"} <= {f.code for f in b.findings if f.severity == "danger"}
+
+
+def test_no_plan_leaves_nan_fields_not_an_exception():
+    """An arrival aligned with the landing runway: no circling shape applies; the plan's numbers
+    are NaN (null in JSON) and a finding says why."""
     b = brief_of(request("demo-bizjet", "V2RL", "RNAV (GPS) RWY 09", "09"))
-    assert b.plan.feasible is False
-    assert any(f.severity == "danger" for f in b.findings)
+    assert b.plan.feasible is False and b.plan.shape == "none"
     assert math.isnan(b.plan.offset_nm)
+    assert "no-plan-shape" in codes(b)
 
 
 # --- the sight picture -----------------------------------------------------------------------------
@@ -458,7 +467,8 @@ def test_build_brief_never_raises_over_the_demo_data():
             failures.append(f"{label}: {type(exc).__name__}: {exc}")
             continue
         assert b.cautions == CAUTIONS
-        if not b.plan.feasible or not b.minimums.authorised:
+        cannot_fly = not b.minimums.authorised or (not b.plan.feasible and not b.minimums.straight_in_available)
+        if cannot_fly:
             assert any(f.severity == "danger" for f in b.findings), label
     assert count >= 3 * 3 * 2 * 2 * 7     # profiles x airfields x approaches x runway ends x weathers
     assert failures == []
