@@ -1,0 +1,92 @@
+"""`briefer app` (and `briefer` alone): the interactive briefing app, on the demo case by default."""
+
+from __future__ import annotations
+
+import argparse
+
+NAME = "app"
+ORDER = 0
+HELP = "the interactive briefing app (the default command)"
+DESCRIPTION = ("Open the briefing app. With no situation options it opens on the built-in invented "
+               "demo case; --open reopens inputs saved from the app.")
+
+
+def add_arguments(parser: argparse.ArgumentParser) -> None:
+    from briefer.commands._request import add_situation_arguments
+
+    add_situation_arguments(parser)
+    a = parser.add_argument_group("app")
+    a.add_argument("--open", metavar="FILE", help="open inputs saved from the app (YAML)")
+    a.add_argument("--ascii", action="store_true",
+                   help="draw in plain ASCII (also BRIEFER_ASCII=1; automatic on the Linux console)")
+    a.add_argument("--night", action="store_true", help="start in the high-contrast night theme")
+
+
+def inputs_from_args(args: argparse.Namespace):
+    """(catalog, inputs, notice) for the app. Raises BriefingError for a bad option."""
+    from briefer import units
+    from briefer.brief import demo_request
+    from briefer.commands._request import DEMO
+    from briefer.core.wind import parse_wind
+    from briefer.errors import BriefingError, DomainError
+    from briefer.io import catalog as catalog_mod
+    from briefer.tui.state import AppCatalog, BriefingInputs, WeatherInputs, request_from_inputs
+
+    cat = AppCatalog.load(profile_dirs=args.profile_dir, airfield_dirs=args.airfield_dir)
+    notice = None
+    if args.open:
+        from briefer.tui.inputs_file import load_inputs
+
+        try:
+            inputs = load_inputs(args.open)
+            request_from_inputs(inputs, cat)
+            return cat, inputs, None
+        except BriefingError as exc:
+            notice = f"Could not open {args.open}: {exc}. Showing the demo case."
+            args = argparse.Namespace(**{**vars(args), "open": None})
+
+    situation = (args.profile, args.airfield, args.approach, args.runway)
+    use_demo = getattr(args, "demo", False) or not any(situation)
+    if not use_demo:
+        missing = [o for o, v in zip(("--profile", "--airfield", "--approach", "--runway"), situation) if not v]
+        if missing:
+            raise DomainError("missing " + ", ".join(missing) + " (or use --demo)")
+    names = dict(DEMO) if use_demo else {}
+    profile = catalog_mod.find_profile(args.profile or names["profile"], dirs=args.profile_dir)
+    airfield = catalog_mod.find_airfield(args.airfield or names["airfield"], dirs=args.airfield_dir)
+    cat = cat.with_models(profile=profile, airfield=airfield)
+    approach = airfield.approach(args.approach or names["approach"]).name
+
+    typed: dict = {}
+    if args.wind:
+        w = parse_wind(args.wind, reference=args.wind_is)
+        typed.update(wind_from_deg=w.from_deg, wind_speed_kt=w.speed_kt, wind_gust_kt=w.gust_kt,
+                     wind_reference=args.wind_is)
+    for key, value in (("oat_c", args.oat_c), ("visibility_sm", args.visibility_sm), ("ceiling_ft", args.ceiling_ft),
+                       ("altimeter_hpa", args.altimeter_hpa)):
+        if value is not None:
+            typed[key] = value
+    if args.altimeter_inhg is not None:
+        typed["altimeter_hpa"] = args.altimeter_inhg * units.INHG_TO_HPA
+    if args.metar or typed or not use_demo:
+        weather = WeatherInputs(report=(args.metar or "").strip(), **typed)
+    else:
+        wx = demo_request().weather
+        weather = WeatherInputs(**{k: getattr(wx, k) for k in (
+            "wind_from_deg", "wind_speed_kt", "wind_gust_kt", "wind_reference", "oat_c", "altimeter_hpa",
+            "visibility_sm", "ceiling_ft")})
+    inputs = BriefingInputs(profile=profile.name, configuration=args.configuration, airfield=airfield.ident,
+                            approach=approach, landing_runway=args.runway or names["runway"],
+                            weight_lb=args.weight_lb, bank_deg=args.bank_deg, criteria=args.criteria,
+                            weather=weather)
+    request_from_inputs(inputs, cat)      # a bad option is one line on stderr, before the app starts
+    return cat, inputs, notice
+
+
+def run(args: argparse.Namespace) -> int:
+    cat, inputs, notice = inputs_from_args(args)
+    from briefer.tui.app import BriefingApp
+
+    BriefingApp(cat, inputs, ascii=True if args.ascii else None, night=args.night,
+                inputs_path=args.open, notice=notice).run()
+    return 0

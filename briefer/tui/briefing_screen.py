@@ -1,0 +1,222 @@
+"""The main screen: the entry steps (aircraft, airfield, runway, weather) and the brief's views
+(brief, plan, sight picture, wind envelope). It only displays: the app pushes results down."""
+
+from __future__ import annotations
+
+from rich.text import Text
+from textual.app import ComposeResult
+from textual.message import Message
+from textual.containers import Horizontal, Vertical, VerticalScroll
+from textual.screen import Screen
+from textual.widgets import Footer, Label, RadioButton, RadioSet, Static, TabbedContent, TabPane
+
+from briefer.cautions import SHORT_CAUTION
+from briefer.render.views import BriefView
+from briefer.result import Brief
+from briefer.tui import views
+from briefer.tui.state import (
+    parse_altimeter_hpa,
+    parse_optional_number,
+    parse_wind_text,
+)
+from briefer.tui.widgets import Choice, ChoiceList, EnvelopePolar, FieldRow, PlanCanvas, SideView
+from briefer.tui.widgets._envelope_polar import legend_lines
+
+STEPS = (("aircraft", "1 Aircraft"), ("airfield", "2 Airfield"), ("runway", "3 Runway"),
+         ("weather", "4 Weather"), ("brief", "5 Brief"), ("plan", "6 Plan"), ("sight", "7 Sight"),
+         ("envelope", "8 Winds"))
+"""(pane id, tab label): entry steps first, then the brief's views."""
+
+
+def _report_parser(text: str) -> str:
+    from briefer.errors import BriefingError
+    from briefer.tui.state import decode_report
+
+    try:
+        decode_report(text)
+    except BriefingError as exc:
+        raise ValueError(str(exc)) from None
+    return text.strip()
+
+
+class BriefingScreen(Screen):
+    """Steps and views in tabs, the brief's summary and warnings on top, the caution below."""
+
+    def __init__(self, *, ascii: bool = False) -> None:
+        super().__init__(id="briefing")
+        self.ascii = ascii
+        self._wind_ref = "true"
+
+    def compose(self) -> ComposeResult:
+        yield Static("", id="summary")
+        yield Static("", id="warnings")
+        with TabbedContent(id="steps"):
+            with TabPane(STEPS[0][1], id="aircraft"):
+                with Horizontal(classes="step"):
+                    with Vertical(classes="step-inputs"):
+                        yield ChoiceList(id="profile")
+                        yield ChoiceList(id="configuration")
+                        yield FieldRow("weight", "Weight lb", lambda t: parse_optional_number(
+                            t, what="lb", lo=0, hi=2_000_000), placeholder="max landing")
+                        yield FieldRow("bank", "Bank °", lambda t: parse_optional_number(
+                            t, what="degrees", lo=5, hi=60), placeholder="profile's")
+                    with VerticalScroll(classes="implies"):
+                        yield Static("", id="implies-aircraft")
+            with TabPane(STEPS[1][1], id="airfield"):
+                with Horizontal(classes="step"):
+                    with Vertical(classes="step-inputs"):
+                        yield ChoiceList(id="airfield-list")
+                        yield ChoiceList(id="approach")
+                    with VerticalScroll(classes="implies"):
+                        yield Static("", id="implies-airfield")
+            with TabPane(STEPS[2][1], id="runway"):
+                with Horizontal(classes="step"):
+                    with Vertical(classes="step-inputs"):
+                        yield ChoiceList(id="runway-list")
+                    with VerticalScroll(classes="implies"):
+                        yield Static("", id="implies-runway")
+            with TabPane(STEPS[3][1], id="weather"):
+                with VerticalScroll(classes="weather-form"):
+                    yield FieldRow("report", "METAR/SPECI", _report_parser, placeholder="paste a report here",
+                                   input_classes="wide")
+                    yield FieldRow("wind", "Wind", lambda t: parse_wind_text(t, self._wind_ref),
+                                   placeholder="250/15G25")
+                    with Horizontal(classes="field-row", id="row-wind-ref"):
+                        yield Label("Wind is", classes="field-label")
+                        with RadioSet(id="wind-ref"):
+                            yield RadioButton("true (report)", value=True, id="ref-true")
+                            yield RadioButton("magnetic (tower)", id="ref-magnetic")
+                    yield FieldRow("oat", "Temp °C", lambda t: parse_optional_number(t, what="°C", lo=-90, hi=60))
+                    yield FieldRow("altimeter", "Altimeter", parse_altimeter_hpa, placeholder="1013 or 29.92")
+                    yield FieldRow("visibility", "Visibility SM", lambda t: parse_optional_number(
+                        t, what="SM", lo=0, hi=100))
+                    yield FieldRow("ceiling", "Ceiling ft", lambda t: parse_optional_number(
+                        t, what="ft above the field", lo=0, hi=50000))
+                    yield Static("", id="implies-weather", classes="implies-below")
+            with TabPane(STEPS[4][1], id="brief"):
+                with VerticalScroll(id="brief-scroll"):
+                    yield Static("", id="brief-full")
+            with TabPane(STEPS[5][1], id="plan"):
+                with Horizontal(classes="step"):
+                    with Vertical(id="plan-left"):
+                        yield PlanCanvas(ascii=self.ascii, id="plan-canvas")
+                        yield Static("", id="plan-legend")
+                    with VerticalScroll(id="plan-right"):
+                        yield Static("", id="plan-numbers")
+            with TabPane(STEPS[6][1], id="sight"):
+                with VerticalScroll(id="sight-scroll"):
+                    yield SideView(ascii=self.ascii, id="side-view")
+                    yield Static("", id="sight-legend")
+                    yield Static("", id="sight-table")
+            with TabPane(STEPS[7][1], id="envelope"):
+                with Horizontal(classes="step"):
+                    yield EnvelopePolar(unicode=not self.ascii, id="polar")
+                    with VerticalScroll(id="envelope-side"):
+                        yield Static("", id="envelope-legend")
+                        yield Static("", id="envelope-hover")
+        yield Static(SHORT_CAUTION, id="caution", markup=False)
+        yield Footer()
+
+    def on_mount(self) -> None:
+        self.query_one("#profile", ChoiceList).border_title = "Aircraft profile"
+        self.query_one("#configuration", ChoiceList).border_title = "Configuration"
+        self.query_one("#airfield-list", ChoiceList).border_title = "Airfield"
+        self.query_one("#approach", ChoiceList).border_title = "Approach"
+        self.query_one("#runway-list", ChoiceList).border_title = "Landing runway"
+        self.show_envelope_legend()
+        self.post_message(self.Ready())
+
+    class Ready(Message):
+        """The screen's widgets are mounted: the app may push the inputs down."""
+
+    # --- pushed down by the app -------------------------------------------------------------
+    def set_choices(self, list_id: str, choices: list[Choice], chosen: str | None) -> None:
+        self.query_one(f"#{list_id}", ChoiceList).set_choices(choices, chosen)
+
+    def set_field_text(self, name: str, text: str) -> None:
+        self.query_one(f"#row-{name}", FieldRow).set_text(text)
+
+    def set_placeholder(self, name: str, text: str) -> None:
+        self.query_one(f"#row-{name}", FieldRow).set_placeholder(text)
+
+    def set_note(self, name: str, text: str) -> None:
+        self.query_one(f"#row-{name}", FieldRow).show_note(text)
+
+    def set_field_error(self, name: str, message: str | None) -> None:
+        rows = self.query(f"#row-{name}")
+        if rows:
+            rows.first(FieldRow).show_error(message)
+
+    def set_wind_reference(self, reference: str) -> None:
+        self._wind_ref = reference
+        button = self.query_one("#ref-magnetic" if reference == "magnetic" else "#ref-true", RadioButton)
+        if not button.value:
+            button.value = True
+
+    def set_ascii(self, ascii: bool) -> None:
+        self.ascii = ascii
+        self.query_one(PlanCanvas).ascii = ascii
+        self.query_one(SideView).ascii = ascii
+        self.query_one(EnvelopePolar).unicode = not ascii
+        self.show_envelope_legend()
+        brief = self.query_one(PlanCanvas).brief
+        if brief is not None:
+            self.query_one("#plan-legend", Static).update(self.query_one(PlanCanvas).legend_text())
+            self.query_one("#sight-legend", Static).update(views.sight_legend(brief, ascii=ascii))
+
+    def show_brief(self, brief: Brief, stale: str | None) -> None:
+        """Show a brief everywhere (the last good one, marked when stale)."""
+        self.show_status(brief, stale)
+        self.query_one("#implies-aircraft", Static).update(views.aircraft_implies(brief))
+        self.query_one("#implies-airfield", Static).update(views.airfield_implies(brief))
+        self.query_one("#implies-runway", Static).update(views.runway_implies(brief))
+        self.query_one("#implies-weather", Static).update(views.weather_implies(brief))
+        self.query_one("#brief-full", Static).update(BriefView(brief))
+        canvas = self.query_one(PlanCanvas)
+        canvas.show(brief)
+        self.query_one("#plan-legend", Static).update(canvas.legend_text())
+        self.query_one("#plan-numbers", Static).update(views.plan_numbers(brief))
+        self.query_one(SideView).show(brief)
+        self.query_one("#sight-legend", Static).update(views.sight_legend(brief, ascii=self.ascii))
+        self.query_one("#sight-table", Static).update(views.sight_comparison(brief))
+
+    def show_status(self, brief: Brief | None, stale: str | None) -> None:
+        summary = self.query_one("#summary", Static)
+        warnings = self.query_one("#warnings", Static)
+        self.set_class(stale is not None, "-stale")
+        if brief is None:
+            summary.update(Text("No brief yet.", style="bold"))
+        else:
+            summary.update(views.summary_text(brief))
+        if stale is not None:
+            t = Text(no_wrap=True, overflow="ellipsis")
+            t.append(" STALE ", style="bold reverse")
+            t.append(" last good brief shown: " + stale, style="bold")
+            warnings.update(t)
+        elif brief is not None:
+            warnings.update(views.warnings_line(brief))
+
+    def show_envelope(self, envelope, brief: Brief | None) -> None:
+        self.query_one(EnvelopePolar).show(envelope, brief)
+        polar = self.query_one(EnvelopePolar)
+        text = ""
+        if envelope is not None and brief is not None and brief.wind.reported:
+            import math
+
+            w = brief.wind
+            rel = math.degrees(math.atan2(w.crosswind_from_right_kt, w.headwind_kt)) % 360.0
+            text = "Today's wind: " + polar.describe(rel, w.speed_kt)
+        self.query_one("#envelope-hover", Static).update(Text(text))
+
+    def show_hover(self, text: str) -> None:
+        self.query_one("#envelope-hover", Static).update(Text("Pointer: " + text))
+
+    def show_envelope_legend(self) -> None:
+        t = Text()
+        t.append("WIND ENVELOPE\n", style="bold underline")
+        t.append("Top: wind from ahead on final; right: from the right. Centre calm.\n")
+        for glyph, style, meaning in legend_lines(not self.ascii):
+            t.append(f" {glyph} ", style=style)
+            t.append(f"{meaning}\n")
+        t.append("Point at a cell for its verdict.")
+        self.query_one("#envelope-legend", Static).update(t)

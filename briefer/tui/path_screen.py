@@ -1,0 +1,72 @@
+"""A small dialog asking for a file path; the action runs inside it, so an error shows next to
+the field and the dialog stays open."""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+
+from rich.text import Text
+from textual import on
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import Horizontal, Vertical
+from textual.screen import ModalScreen
+from textual.widgets import Button, Checkbox, Input, Label, Static
+
+PathAction = Callable[[str, bool], "str | None"]
+"""(path, overwrite) -> None on success, else the error to show."""
+
+
+class PathScreen(ModalScreen["str | None"]):
+    """Ask for a path, run `action(path, overwrite)`, dismiss with the path on success."""
+
+    BINDINGS = [Binding("escape", "cancel", "Cancel")]
+
+    def __init__(self, title: str, default: str, action: PathAction, *, verb: str = "OK",
+                 can_overwrite: bool = True) -> None:
+        super().__init__(classes="path-screen")
+        self.title_text = title
+        self.default = default
+        self.action_fn = action
+        self.verb = verb
+        self.can_overwrite = can_overwrite
+
+    def compose(self) -> ComposeResult:
+        with Vertical(id="path-dialog"):
+            yield Label(self.title_text, id="path-title")
+            inp = Input(self.default, id="path-input")
+            inp.cursor_blink = False
+            yield inp
+            yield Static("", id="path-error", markup=False)
+            with Horizontal(id="path-buttons"):
+                if self.can_overwrite:
+                    yield Checkbox("replace an existing file", id="path-overwrite")
+                yield Button(self.verb, id="path-ok", variant="primary")
+                yield Button("Cancel", id="path-cancel")
+
+    def on_mount(self) -> None:
+        self.query_one("#path-input", Input).focus()
+
+    @on(Input.Submitted, "#path-input")
+    @on(Button.Pressed, "#path-ok")
+    def _run(self) -> None:
+        path = self.query_one("#path-input", Input).value.strip()
+        if not path:
+            self._error("give a file name")
+            return
+        overwrite = self.can_overwrite and self.query_one("#path-overwrite", Checkbox).value
+        try:
+            error = self.action_fn(path, overwrite)
+        except Exception as exc:  # never crash the app on a file problem; show it here
+            error = f"{type(exc).__name__}: {exc}"
+        if error:
+            self._error(error)
+        else:
+            self.dismiss(path)
+
+    def _error(self, message: str) -> None:
+        self.query_one("#path-error", Static).update(Text("✗ " + message, style="bold"))
+
+    @on(Button.Pressed, "#path-cancel")
+    def action_cancel(self) -> None:
+        self.dismiss(None)

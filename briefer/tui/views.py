@@ -1,0 +1,192 @@
+"""Compact Rich views of a Brief for the app's steps and views (each takes the brief and nothing
+else, as in `briefer.render.views`, whose larger views the app also reuses).
+
+Warnings are marked by words and symbols (!!, !, i), never by colour alone.
+"""
+
+from __future__ import annotations
+
+import math
+
+from rich.console import Group, RenderableType
+from rich.table import Table
+from rich.text import Text
+
+from briefer.render.views import MARK, STYLE, MinimumsView, PerformanceView, fmt, wind_text
+from briefer.result import Brief
+
+
+def _grid() -> Table:
+    t = Table.grid(padding=(0, 1))
+    t.add_column(style="bold", no_wrap=True)
+    t.add_column()
+    return t
+
+
+def _num(value: float | None, spec: str, unit: str = "") -> str:
+    if value is None or (isinstance(value, float) and not math.isfinite(value)):
+        return "n/a"
+    return f"{value:{spec}}{unit}"
+
+
+def summary_text(brief: Brief) -> Text:
+    """One line: where, what, category and minimums."""
+    h, c, m = brief.header, brief.category, brief.minimums
+    t = Text(no_wrap=True, overflow="ellipsis")
+    t.append(f"CAT {c.category}", style="bold")
+    if m.authorised:
+        t.append(f"  MDA {fmt(m.mda_ft)}  HAA {fmt(m.height_above_airport_ft)}", style="bold")
+    else:
+        t.append("  NOT AUTHORISED", style="bold reverse")
+    t.append(f"  | {h.airfield_ident} {h.approach_name} > circle {h.landing_runway}"
+             f" | {h.profile_name} {h.configuration_name}")
+    return t
+
+
+def warnings_line(brief: Brief) -> Text:
+    """One line: how many warnings, and the most severe one's text."""
+    ws = brief.warnings
+    n = {s: sum(1 for f in ws if f.severity == s) for s in ("danger", "warning", "info")}
+    t = Text(no_wrap=True, overflow="ellipsis")
+    if n["danger"] or n["warning"]:
+        top = ws[0]
+        label = (f"!! {n['danger']} DANGER" if n["danger"] else "") + (
+            (" " if n["danger"] else "") + f"! {n['warning']} WARNING{'S' if n['warning'] != 1 else ''}"
+            if n["warning"] else "")
+        t.append(label, style="bold reverse" if n["danger"] else "bold")
+        t.append(" " + top.text, style=STYLE[top.severity])
+    else:
+        t.append("No warnings.", style="bold")
+        if n["info"]:
+            t.append(f" i {n['info']} note{'s' if n['info'] != 1 else ''} (see Brief)")
+    return t
+
+
+def findings_short(brief: Brief, *, severities: tuple[str, ...] = ("danger", "warning")) -> RenderableType:
+    rows = [f for f in brief.warnings if f.severity in severities]
+    if not rows:
+        return Text("No warnings.", style="bold")
+    out = []
+    for f in rows:
+        t = Text()
+        t.append(f"{MARK[f.severity]} {f.severity.upper()}", style=STYLE[f.severity])
+        t.append(" " + f.text)
+        out.append(t)
+    return Group(*out)
+
+
+def aircraft_implies(brief: Brief) -> RenderableType:
+    """What the aircraft and configuration give: category, speeds, the turn."""
+    c, pf = brief.category, brief.performance
+    g = _grid()
+    cat = f"{c.category}"
+    if c.raised:
+        cat += f"  (certified {c.certified_category}; RAISED by the circling speed)"
+    g.add_row("Category", cat)
+    g.add_row("Speeds", f"VREF {c.vref_kt:.0f} kt; circle at {c.circling_speed_kt:.0f} kt IAS "
+                        f"(wind additive {c.wind_additive_kt:.0f} kt)")
+    g.add_row("Weight", f"{brief.header.weight_lb:.0f} lb")
+    return Group(Text("WHAT THIS GIVES", style="bold underline"), g, PerformanceView(brief))
+
+
+def airfield_implies(brief: Brief) -> RenderableType:
+    """Minimums, area and the circling-only reasons."""
+    return Group(Text("MINIMUMS AND AREA", style="bold underline"), MinimumsView(brief))
+
+
+def runway_implies(brief: Brief) -> RenderableType:
+    """The wind on the landing runway, why circling, and the plan it leads to."""
+    m, p, w = brief.minimums, brief.plan, brief.wind
+    g = _grid()
+    g.add_row("Land", f"runway {brief.header.landing_runway}, final heading {p.final_heading_deg_mag:03.0f}° M")
+    tail = "  TAILWIND" if w.headwind_kt < 0 else ""
+    g.add_row("Wind", f"{wind_text(brief)}: headwind {w.headwind_kt:+.0f} kt, "
+                      f"crosswind {w.crosswind_from_right_kt:+.0f} kt from the right{tail}")
+    if m.circling_only_reasons:
+        for r in m.circling_only_reasons:
+            g.add_row("Circling only", r.text)
+    g.add_row("Straight-in", "available to this runway" if m.straight_in_available else "not available")
+    g.add_row("Plan", p.shape_text + ("" if p.feasible else "  (NOT FLYABLE AS BRIEFED)")
+              + (f", downwind {p.side} of the runway" if p.feasible else ""))
+    return Group(Text("WHAT THIS GIVES", style="bold underline"), g)
+
+
+def weather_implies(brief: Brief) -> RenderableType:
+    """The weather the brief used and what it means for the minimums."""
+    wu, m, w, pf = brief.weather, brief.minimums, brief.wind, brief.performance
+    g = _grid()
+    g.add_row("Source", {"manual": "typed values", "report": "the report (typed values override it)",
+                         "standard": "nothing given: standard values"}.get(wu.source, wu.source))
+    g.add_row("Wind", f"{wind_text(brief)}: headwind {w.headwind_kt:+.0f}, crosswind "
+                      f"{w.crosswind_from_right_kt:+.0f} kt from the right")
+    g.add_row("Temp/alt", f"OAT {wu.oat_c:.0f} °C, altimeter {wu.altimeter_hpa:.1f} hPa; "
+                          f"TAS {pf.tas_kt:.0f} kt at the MDA")
+    vis = {True: "OK", False: "BELOW MINIMUM", None: "not checked"}[m.visibility_ok]
+    g.add_row("Visibility", f"{fmt(wu.visibility_sm, 'g', ' SM')} vs {fmt(m.visibility_required_sm, 'g', ' SM')} "
+                            f"required: {vis}")
+    ceil = {True: "OK", False: "BELOW THE MDA", None: "not checked"}[m.ceiling_ok]
+    g.add_row("Ceiling", f"{fmt(wu.ceiling_ft, '.0f', ' ft')} vs HAA {fmt(m.height_above_airport_ft, '.0f', ' ft')}: "
+                         f"{ceil}")
+    if m.cold is not None:
+        g.add_row("Cold temp", f"+{m.cold.correction_ft:.0f} ft: MDA {m.cold.corrected_mda_ft:.0f} ft")
+    return Group(Text("WHAT THIS GIVES", style="bold underline"), g)
+
+
+def plan_numbers(brief: Brief) -> RenderableType:
+    """The numbers to fly, narrow enough to sit beside the plan view."""
+    p, pf, ma = brief.plan, brief.performance, brief.missed_approach
+    g = _grid()
+    if not p.feasible:
+        g.add_row("PLAN", Text("NOT FLYABLE AS BRIEFED", style="bold reverse"))
+        for r in p.reasons[:3]:
+            g.add_row("", r)
+        return g
+    g.add_row("Plan", f"{p.shape_text} ({p.side})")
+    g.add_row("Offset", f"{p.offset_nm:.2f} NM")
+    if p.break_off_s is not None:
+        g.add_row("Break off", f"{_num(p.break_off_angle_deg, '.0f', '°')} for {p.break_off_s:.0f} s")
+    if p.downwind_heading_deg_mag is not None:
+        g.add_row("Downwind", f"{p.downwind_heading_deg_mag:03.0f}° M")
+    g.add_row("Abeam>roll", f"{_num(p.abeam_to_roll_in_s, '.0f', ' s')} ({_num(p.roll_in_distance_nm, '+.2f', ' NM')})")
+    g.add_row("Bank", f"{p.bank_deg:.0f}° (limit {pf.bank_limit_deg:.0f}°)")
+    g.add_row("Speed", f"{pf.ias_kt:.0f} IAS / {pf.tas_kt:.0f} TAS kt")
+    g.add_row("Roll out", f"{p.roll_out_distance_nm:.2f} NM, {p.final_heading_deg_mag:03.0f}° M")
+    g.add_row("Leave MDA", p.leave_mda_text)
+    g.add_row("Area", ("inside" if p.inside_area else "OUTSIDE") + f", {p.area_edge_margin_nm:.2f} NM to edge")
+    g.add_row("Missed", f"climbing turn {ma.turn_direction.upper()}")
+    return g
+
+
+def sight_comparison(brief: Brief) -> RenderableType:
+    """Planned picture vs the familiar one flown at circling height: bank, g, stall margin."""
+    s, pf = brief.sight_picture, brief.performance
+    t = Table(box=None, padding=(0, 1), show_edge=False, header_style="bold")
+    t.add_column("", style="bold", no_wrap=True)
+    t.add_column("Planned", justify="right", no_wrap=True)
+    t.add_column("Familiar picture", justify="right", no_wrap=True)
+    t.add_row("Runway below horizon", f"{s.planned_depression_deg:.1f}°", f"{s.familiar_depression_deg:.1f}°")
+    t.add_row("Offset at circling height", f"{s.planned_offset_nm:.2f} NM", f"{s.familiar_offset_at_circling_nm:.2f} NM")
+    if s.familiar_possible and s.familiar_bank_required_deg is not None:
+        over = " !" if s.familiar_exceeds_bank_limit else ""
+        t.add_row("Bank", f"{pf.bank_target_deg:.0f}°", f"{s.familiar_bank_required_deg:.0f}°{over}")
+        t.add_row("Load factor", f"{pf.load_factor:.2f} g", f"{_num(s.familiar_load_factor, '.2f', ' g')}")
+        t.add_row("Stall margin", f"{pf.stall_margin_pct:.0f} %", f"{_num(s.familiar_stall_margin_pct, '.0f', ' %')}")
+        t.add_row(f"AoA ({pf.aoa_unit})", f"{pf.aoa_in_turn:.1f}", _num(s.familiar_aoa, ".1f"))
+    else:
+        t.add_row("Bank", f"{pf.bank_target_deg:.0f}°", "STALLS FIRST")
+    out: list[RenderableType] = [t]
+    if s.familiar_exceeds_bank_limit:
+        out.append(Text(f"! the familiar picture needs more than the {pf.bank_limit_deg:.0f}° bank limit",
+                        style="bold"))
+    out.append(Text(f"Holding {pf.bank_target_deg:.0f}° there overshoots the centreline by {s.overshoot_nm:.2f} NM."))
+    return Group(*out)
+
+
+def sight_legend(brief: Brief, *, ascii: bool) -> Text:
+    s = brief.sight_picture
+    t = Text()
+    t.append("*" if ascii else "━", style="bold #4fc3f7")
+    t.append(f" planned {s.planned_depression_deg:.1f}° below the horizon   ")
+    t.append("o" if ascii else "┄", style="#a0a0a0")
+    t.append(f" familiar {s.familiar_depression_deg:.1f}° ({s.familiar_height_ft:.0f} ft pattern)")
+    return t
