@@ -1,0 +1,660 @@
+"""The kneeboard card as a one-page PDF (fpdf2's drawing API), from the shared `CardLayout`.
+
+Reading order, top to bottom: the header (airfield, approach, landing runway, aircraft, when
+briefed), MINIMUMS (big figures, then small print), THE PLAN (the numbers to fly in large type,
+then where to leave the MDA and the missed approach), the plan view (drawn from
+`scene_to_primitives`, the primitives the SVG is written from) beside a side view of the sight
+picture and the legend, wind and weather, the warnings (most severe first) and, at the foot, the
+CAUTIONS box.
+
+Fonts: the PDF core font Helvetica (Latin-1 only), so the card's text goes through
+`printable_text(..., "latin-1")`. Embedding a TTF would cost about 80 ms and 19 KB per card for
+characters the Brief never uses (its text is Latin-1; only a user's data file could bring others,
+which then print as their unaccented letter or '?').
+
+Greyscale only: roles and severities differ by line pattern, weight, hatching, symbol and word,
+never by colour. The page never breaks: the small print shrinks (down to `MIN_SCALE`) and the plan
+view gives way until everything fits. The creation date is fixed (the brief's time, else
+`FIXED_DATE`), so the same Brief gives the same bytes.
+
+fpdf is imported inside `layout_pdf_bytes` only: the import costs about 0.3 s.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import math
+from dataclasses import replace
+from typing import Any
+
+from briefer.errors import BriefingError
+from briefer.render.card_layout import (
+    CardLayout,
+    Figure,
+    Row,
+    Section,
+    SideView,
+    bind_units,
+    card_layout,
+    printable_text,
+)
+from briefer.render.scene import ROLE_STYLES, Label, Marker, Polygon, Polyline, Role, Scene
+from briefer.render.svg import (
+    HATCH_WIDTH_MM,
+    CirclePrim,
+    LinePrim,
+    PolygonPrim,
+    TextPrim,
+    paper_style,
+    scene_to_primitives,
+)
+from briefer.result import Brief
+from briefer.units import NM_TO_FT
+
+PAGE_SIZES_MM: dict[str, tuple[float, float]] = {
+    "half-letter": (139.7, 215.9),   # 5.5 x 8.5 in = 396 x 612 pt
+    "a5": (148.0, 210.0),            # ISO A5 = 419.5 x 595.3 pt
+}
+"""Portrait page sizes (width, height) in millimetres."""
+FIXED_DATE = dt.datetime(2000, 1, 1, tzinfo=dt.timezone.utc)
+"""Creation date when the brief's time cannot be read (keeps the bytes reproducible)."""
+
+MARGIN_MM = 6.0
+GAP_MM = 2.0
+FONT = "Helvetica"
+FIGURES_PER_ROW = 4
+SCALES = (1.0, 0.95, 0.9, 0.85)
+"""Scales of the small print tried in turn until the page fits (6.6 pt down to 5.6 pt)."""
+MIN_SCALE = SCALES[-1]
+PLAN_MIN_MM = 50.0
+"""The plan view is not made smaller than this while the small print can still shrink."""
+PLAN_FLOOR_MM = 38.0
+SIDE_VIEW_H_MM = 24.0
+LINE_SPACING = 1.2
+RIGHT_COLUMN = 0.45
+"""Share of the width taken by the sight picture and the legend, beside the plan view."""
+
+# sizes in points (the small print's at scale 1)
+TITLE_PT = 13.0
+SUBTITLE_PT = 9.5
+HEADER_PT = 6.8
+SECTION_PT = 6.8
+FIG_LABEL_PT = 5.6
+FIG_VALUE_PT = 14.0
+FIG_NOTE_PT = 5.6
+ROW_PT = 6.6
+CAUTION_PT = 6.4
+LABEL_PT = 5.6
+FOOTER_PT = 5.2
+
+
+def page_size_mm(page: str) -> tuple[float, float]:
+    """(width, height) of a page name ("half-letter" or "a5"); BriefingError for another name."""
+    key = str(page).strip().lower()
+    if key not in PAGE_SIZES_MM:
+        raise BriefingError(f"unknown page size {page!r}; expected one of {', '.join(PAGE_SIZES_MM)}")
+    return PAGE_SIZES_MM[key]
+
+
+def creation_date(briefed_utc: str) -> dt.datetime:
+    """The brief's time ('2000-01-01 12:00Z') as a UTC datetime, or `FIXED_DATE`."""
+    for fmt in ("%Y-%m-%d %H:%MZ", "%Y-%m-%d %H:%M:%SZ", "%Y-%m-%dT%H:%M:%SZ", "%Y-%m-%dT%H:%MZ"):
+        try:
+            return dt.datetime.strptime(briefed_utc.strip(), fmt).replace(tzinfo=dt.timezone.utc)
+        except ValueError:
+            continue
+    return FIXED_DATE
+
+
+def _t(text: str) -> str:
+    return printable_text(text, "latin-1")
+
+
+def _grey(level: float) -> int:
+    return max(0, min(255, round(level * 255)))
+
+
+class _Card:
+    """Draws (or, with `draw=False`, only measures) the card's blocks at one scale of small print."""
+
+    def __init__(self, pdf: Any, layout: CardLayout, page_w: float, page_h: float, scale: float,
+                 widths: dict[tuple[str, float, str], float] | None = None) -> None:
+        self.pdf = pdf
+        self.layout = layout
+        self.page_w, self.page_h = page_w, page_h
+        self.s = scale
+        self.x0 = MARGIN_MM
+        self.w = page_w - 2 * MARGIN_MM
+        self.draw = False
+        self.plan_h_used = 0.0
+        self._widths: dict[tuple[str, float, str], float] = widths if widths is not None else {}
+
+    # --- text helpers ------------------------------------------------------------------------
+
+    def font(self, style: str, size_pt: float) -> None:
+        self.pdf.set_font(FONT, style, size_pt)
+
+    def lh(self, size_pt: float) -> float:
+        """Line height in mm of a font size in points."""
+        return size_pt / self.pdf.k * LINE_SPACING
+
+    def width_of(self, text: str) -> float:
+        """Width in mm of `text` in the current font (cached per font, size and text)."""
+        key = (self.pdf.font_style, self.pdf.font_size_pt, text)
+        w = self._widths.get(key)
+        if w is None:
+            w = self._widths[key] = self.pdf.get_string_width(text)
+        return w
+
+    def lines(self, text: str, width: float) -> list[str]:
+        """`text` broken at spaces into lines that fit `width` in the current font (a word longer
+        than the line is cut). Own greedy breaking: fpdf's multi_cell(dry_run=True) measures
+        character by character and cost about 5 ms a paragraph."""
+        words = [w for w in bind_units(_t(text)).split(" ") if w]   # split(" "): the no-break space binds
+        if not words:
+            return [""]
+        space = self.width_of(" ")
+        out: list[str] = []
+        line: list[str] = []
+        used = 0.0
+        for word in words:
+            ww = self.width_of(word)
+            while ww > width and len(word) > 1:       # cut a word longer than the line
+                if line:
+                    out.append(" ".join(line))
+                    line, used = [], 0.0
+                n = len(word) - 1
+                while n > 1 and self.width_of(word[:n]) > width:
+                    n -= 1
+                out.append(word[:n])
+                word = word[n:]
+                ww = self.width_of(word)
+            if line and used + space + ww > width:
+                out.append(" ".join(line))
+                line, used = [], 0.0
+            used = ww if not line else used + space + ww
+            line.append(word)
+        if line:
+            out.append(" ".join(line))
+        return out
+
+    def text_at(self, x: float, y_top: float, text: str, size_pt: float, *, align: str = "L",
+                width: float = 0.0) -> None:
+        """One line whose top is `y_top` (L: starts at x; R: ends at x + width; C: centred)."""
+        if not self.draw:
+            return
+        t = _t(text)
+        if align != "L":
+            tw = self.pdf.get_string_width(t)
+            x = x + width - tw if align == "R" else x + (width - tw) / 2
+        # baseline: the cap height is about 0.72 em below the line's top with this line spacing
+        self.pdf.text(x, y_top + size_pt / self.pdf.k * 0.93, t)
+
+    def paragraph(self, x: float, y: float, width: float, text: str, style: str, size_pt: float) -> float:
+        """Wrapped text from `y`; returns the height used."""
+        self.font(style, size_pt)
+        lines = self.lines(text, width)
+        for i, ln in enumerate(lines):
+            self.text_at(x, y + i * self.lh(size_pt), ln, size_pt)
+        return len(lines) * self.lh(size_pt)
+
+    def fit_size(self, text: str, style: str, size_pt: float, width: float, floor_pt: float) -> float:
+        """The largest size up to `size_pt` at which `text` fits `width` on one line."""
+        self.font(style, size_pt)
+        tw = self.pdf.get_string_width(_t(text))
+        if tw <= width or tw == 0:
+            return size_pt
+        return max(floor_pt, size_pt * width / tw)
+
+    # --- blocks --------------------------------------------------------------------------------
+
+    def header(self, y: float) -> float:
+        L = self.layout
+        right_w = 40.0
+        size = self.fit_size(L.place, "B", TITLE_PT, self.w - right_w, 9.0)
+        self.font("B", size)
+        self.text_at(self.x0, y, L.place, size)
+        self.font("B", HEADER_PT)
+        self.text_at(self.x0, y + 0.3, L.title, HEADER_PT, align="R", width=self.w)
+        self.font("", HEADER_PT)
+        self.text_at(self.x0, y + 0.3 + self.lh(HEADER_PT), L.briefed, HEADER_PT, align="R", width=self.w)
+        y += self.lh(TITLE_PT)
+        y += self.paragraph(self.x0, y, self.w - right_w, L.approach, "B", SUBTITLE_PT)
+        y += self.paragraph(self.x0, y, self.w, f"{L.aircraft}; criteria {L.criteria}", "", HEADER_PT)
+        y += 0.6
+        if self.draw:
+            with self.pdf.local_context(line_width=0.6):
+                self.pdf.line(self.x0, y, self.x0 + self.w, y)
+        return y + 1.0
+
+    def bar(self, x: float, y: float, w: float, title: str) -> float:
+        """A section title on a light grey bar; returns the y below it."""
+        h = self.lh(SECTION_PT) + 0.3
+        if self.draw:
+            with self.pdf.local_context(fill_color=_grey(0.85)):
+                self.pdf.rect(x, y, w, h, style="F")
+            self.font("B", SECTION_PT)
+            self.text_at(x + 1.0, y + 0.25, title, SECTION_PT)
+        return y + h + 0.6
+
+    def status(self, y: float, sec: Section) -> float:
+        """The status line; an alert is boxed with a heavy border and '!!', so it reads in grey."""
+        size = SECTION_PT + 0.4
+        text = ("!! " if sec.alert else "") + sec.status
+        pad = 0.9 if sec.alert else 0.0
+        self.font("B", size)
+        lines = self.lines(text, self.w - 2 * pad - 0.5)
+        h = len(lines) * self.lh(size) + 2 * pad
+        if self.draw:
+            if sec.alert:
+                with self.pdf.local_context(line_width=0.7):
+                    self.pdf.rect(self.x0, y, self.w, h, style="D")
+            self.font("B", size)
+            for i, ln in enumerate(lines):
+                self.text_at(self.x0 + pad, y + pad + i * self.lh(size), ln, size)
+        return y + h + 0.6
+
+    def figures(self, y: float, figures: tuple[Figure, ...]) -> float:
+        """The numbers to fly in large type, four to a row, each boxed: label, value, note."""
+        cw = self.w / FIGURES_PER_ROW
+        ch = self.lh(FIG_LABEL_PT) + self.lh(FIG_VALUE_PT) * 0.92 + self.lh(FIG_NOTE_PT) + 0.3
+        for start in range(0, len(figures), FIGURES_PER_ROW):
+            for i, f in enumerate(figures[start:start + FIGURES_PER_ROW]):
+                x = self.x0 + i * cw
+                if not self.draw:
+                    continue
+                with self.pdf.local_context(line_width=0.25):
+                    self.pdf.rect(x, y, cw, ch, style="D")
+                self.font("B", FIG_LABEL_PT)
+                self.text_at(x + 1.0, y + 0.3, f.label, FIG_LABEL_PT)
+                vs = self.fit_size(f.value, "B", FIG_VALUE_PT, cw - 2.0, 8.0)
+                self.font("B", vs)
+                self.text_at(x + 0.8, y + self.lh(FIG_LABEL_PT) + (self.lh(FIG_VALUE_PT) - self.lh(vs)) / 2 - 0.4,
+                             f.value, vs)
+                ns = self.fit_size(f.note, "", FIG_NOTE_PT, cw - 2.0, 4.5)
+                self.font("", ns)
+                self.text_at(x + 1.0, y + ch - self.lh(FIG_NOTE_PT) - 0.1, f.note, ns)
+            y += ch
+        return y + 0.8
+
+    def rows(self, y: float, rows: tuple[Row, ...], x: float | None = None, width: float | None = None,
+             label_w: float = 15.0, size: float | None = None) -> float:
+        """Labelled lines of small print; returns the y below them."""
+        x = self.x0 if x is None else x
+        width = self.w if width is None else width
+        size = (ROW_PT * self.s) if size is None else size
+        lh = self.lh(size)
+        for r in rows:
+            self.font("", size)
+            lines = self.lines(r.text, width - label_w)
+            if self.draw:
+                self.font("B", size)
+                self.text_at(x, y, r.label, size)
+                self.font("", size)
+                for i, ln in enumerate(lines):
+                    self.text_at(x + label_w, y + i * lh, ln, size)
+            y += len(lines) * lh
+        return y + 0.6
+
+    def section(self, y: float, sec: Section) -> float:
+        y = self.bar(self.x0, y, self.w, sec.title)
+        if sec.status:
+            y = self.status(y, sec)
+        if sec.figures:
+            y = self.figures(y, sec.figures)
+        return self.rows(y, sec.rows)
+
+    # --- the drawings --------------------------------------------------------------------------
+
+    def right_column_w(self) -> float:
+        return self.w * RIGHT_COLUMN
+
+    def right_column(self, y: float) -> float:
+        """The side view of the sight picture, its captions and the plan view's legend."""
+        sv = self.layout.side_view
+        w = self.right_column_w()
+        x = self.x0 + self.w - w
+        y = self.bar(x, y, w, "SIGHT PICTURE, abeam the threshold")
+        if self.draw:
+            self.side_view(sv, (x, y, w, SIDE_VIEW_H_MM))
+        y += SIDE_VIEW_H_MM + 0.8
+        size = ROW_PT * self.s
+        y = self.captions(x, y, w, sv, size)
+        return self.rows(y, sv.rows[3:], x=x, width=w, label_w=11.0, size=size)
+
+    def captions(self, x: float, y: float, w: float, sv: SideView, size: float) -> float:
+        """A sample of each sight line with its angle and offsets."""
+        sample_w = 6.0
+        lh = self.lh(size)
+        for text, dashed, weight in ((f"{sv.planned_label} out at {sv.circling_height_ft:.0f} ft", False, 0.5),
+                                     (f"{sv.familiar_label} out at {sv.circling_height_ft:.0f} ft (the trap); "
+                                      f"{sv.usual_label}", True, 0.4)):
+            self.font("", size)
+            lines = self.lines(text, w - sample_w)
+            if self.draw:
+                mid = y + lh * 0.5
+                with self.pdf.local_context(line_width=weight, draw_color=_grey(0.3 if dashed else 0.0)):
+                    if dashed:
+                        self.pdf.set_dash_pattern(dash=1.2, gap=0.8)
+                    self.pdf.line(x, mid, x + sample_w - 1.0, mid)
+                self.font("", size)
+                for i, ln in enumerate(lines):
+                    self.text_at(x + sample_w, y + i * lh, ln, size)
+            y += len(lines) * lh
+        return y + 0.3
+
+    def legend(self, x: float, y: float, w: float, size: float, columns: int = 4) -> float:
+        """One entry per role on the plan view, with a sample drawn in that role's pen."""
+        sample_w = 6.0
+        col_w = w / columns
+        entries = self.layout.legend
+        per_col = max(1, math.ceil(len(entries) / columns))
+        lh = max(self.lh(size), 2.8)
+        for i, entry in enumerate(entries):
+            cx = x + (i // per_col) * col_w
+            cy = y + (i % per_col) * lh
+            if self.draw:
+                self.role_sample(entry.role, cx + 0.3, cy + lh / 2, sample_w - 1.6)
+                self.font("", size)
+                t = _t(entry.text)
+                while t and self.width_of(t) > col_w - sample_w - 0.5:
+                    t = t[:-1]
+                self.text_at(cx + sample_w, cy + (lh - self.lh(size)) / 2, t, size)
+        return y + per_col * lh + 0.6
+
+    def role_sample(self, role: Any, x: float, y: float, w: float) -> None:
+        """A sample of a role drawn by `scene_to_primitives` itself (a marker, a hatched patch or
+        a stretch of line), so the legend shows exactly the plan view's pen."""
+        rs = ROLE_STYLES[role]
+        if rs.marker_symbol is not None:
+            item: Any = Marker((0.0, 0.0), role)
+        elif rs.paper.hatch_spacing_mm:
+            item = Polygon(((0.0, -1.0), (4.0, -1.0), (4.0, 1.0), (0.0, 1.0)), role)
+        else:
+            item = Polyline(((0.0, 0.0), (4.0, 0.0)), role, dashed=role is Role.FAMILIAR_TRACK)
+        half = 1.3
+        for p in scene_to_primitives(Scene(items=(item,)), (x, y - half, w, 2 * half), margin_mm=0.0,
+                                     decorations=False):
+            self.primitive(p)
+
+    def primitive(self, p: Any) -> None:
+        pdf = self.pdf
+        ps = paper_style(p.style)
+        if isinstance(p, TextPrim):
+            size_pt = p.size_mm * pdf.k
+            self.font("", size_pt)
+            t = _t(p.text)
+            tw = pdf.get_string_width(t)
+            x = p.point_mm[0] - {"start": 0.0, "middle": tw / 2, "end": tw}[p.anchor]
+            # a tight white ground keeps a label legible where a line crosses it (a white outline
+            # drawn as stroked text would read twice in the PDF's text)
+            with pdf.local_context(fill_color=255):
+                pdf.rect(x - 0.25, p.point_mm[1] - p.size_mm * 0.74, tw + 0.5, p.size_mm * 0.92, style="F")
+            pdf.set_text_color(0)
+            pdf.text(x, p.point_mm[1], t)
+            return
+        kwargs: dict[str, Any] = dict(line_width=ps.stroke_width_mm, draw_color=_grey(ps.stroke_grey))
+        if ps.round_cap:
+            kwargs["stroke_cap_style"] = "ROUND"
+        with pdf.local_context(**kwargs):
+            if p.dash_mm:
+                pdf.set_dash_pattern(dash=p.dash_mm[0], gap=p.dash_mm[1])
+            if isinstance(p, LinePrim):
+                pdf.polyline(list(p.points_mm), polygon=p.closed, style="D")
+            elif isinstance(p, CirclePrim):
+                filled = p.filled and ps.fill_grey is not None
+                if filled:
+                    pdf.set_fill_color(_grey(ps.fill_grey))
+                pdf.circle(p.centre_mm[0], p.centre_mm[1], p.radius_mm, style="DF" if filled else "D")
+            elif isinstance(p, PolygonPrim):
+                filled = p.filled and ps.fill_grey is not None
+                if filled:
+                    pdf.set_fill_color(_grey(ps.fill_grey))
+                pdf.polygon(list(p.points_mm), style="DF" if filled else "D")
+                if p.hatch_mm:
+                    pdf.set_dash_pattern()
+                    pdf.set_line_width(HATCH_WIDTH_MM)
+                    for a, b in p.hatch_mm:
+                        pdf.line(a[0], a[1], b[0], b[1])
+
+    def plan_view(self, box: tuple[float, float, float, float]) -> None:
+        prims = _threshold_labels_outside(self.layout.plan_view, scene_to_primitives(self.layout.plan_view, box),
+                                          self.pdf, self.width_of)
+        x, y, w, h = box
+        with self.pdf.rect_clip(x, y, w, h):
+            for p in prims:
+                self.primitive(p)
+
+    def side_view(self, sv: SideView, box: tuple[float, float, float, float]) -> None:
+        """Abeam the threshold, looking along the runway: the runway at the left, the aircraft at
+        circling height to the right, the sight lines to the runway (heights exaggerated)."""
+        pdf = self.pdf
+        x, y, w, h = box
+        pl, pr, pt, pb = 3.0, 3.0, 3.0, 4.0
+        d_max = max(sv.planned_offset_nm, sv.familiar_offset_nm, sv.familiar_offset_at_circling_nm, 0.1) * 1.1
+        h_max = max(sv.circling_height_ft, sv.familiar_height_ft, 1.0) * 1.1
+        sx = (w - pl - pr) / d_max            # mm per NM
+        sy = (h - pt - pb) / h_max            # mm per ft
+        xg, yg = x + pl, y + h - pb
+
+        def at(d_nm: float, h_ft: float) -> tuple[float, float]:
+            return (xg + d_nm * sx, yg - h_ft * sy)
+
+        with pdf.local_context(line_width=0.2):
+            pdf.rect(x, y, w, h, style="D")
+        size = 5.6
+        with pdf.local_context(line_width=0.35):
+            pdf.line(x, yg, x + w, yg)                              # the ground
+        with pdf.local_context(fill_color=0):
+            pdf.rect(xg - 1.2, yg - 0.7, 2.4, 0.7, style="F")       # the runway, end on
+        self.font("", size)
+        self.text_at(xg - 1.5, yg + 0.4, "RWY", size)
+        hc = sv.circling_height_ft
+        with pdf.local_context(line_width=0.2, draw_color=_grey(0.4), stroke_cap_style="ROUND"):
+            pdf.set_dash_pattern(dash=0.1, gap=0.8)
+            pdf.line(xg, at(0, hc)[1], x + w - 1, at(0, hc)[1])     # circling height
+        self.text_at(xg + 3.0, at(0, hc)[1] - self.lh(size) - 0.2, f"{hc:.0f} ft", size)
+        p = at(sv.planned_offset_nm, hc)
+        t = at(sv.familiar_offset_at_circling_nm, hc)
+        u = at(sv.familiar_offset_nm, sv.familiar_height_ft)
+        far = u if sv.familiar_offset_nm >= sv.familiar_offset_at_circling_nm else t
+        with pdf.local_context(line_width=0.4, draw_color=_grey(0.3)):
+            pdf.set_dash_pattern(dash=1.2, gap=0.8)
+            pdf.line(xg, yg, far[0], far[1])                        # the usual picture's sight line
+        with pdf.local_context(line_width=0.5):
+            pdf.line(xg, yg, p[0], p[1])                            # the planned sight line
+        with pdf.local_context(fill_color=0, line_width=0.3):
+            pdf.circle(p[0], p[1], 0.9, style="DF")                 # you, as planned
+        with pdf.local_context(fill_color=255, line_width=0.3):
+            pdf.circle(t[0], t[1], 0.9, style="DF")                 # the trap
+            pdf.rect(u[0] - 0.8, u[1] - 0.8, 1.6, 1.6, style="DF")  # the usual pattern
+        self.text_at(p[0] - 2.0, p[1] + 1.2, "plan", size)
+        self.text_at(t[0] - 1.5, t[1] + 1.2, "trap", size)
+        lab = f"usual {sv.familiar_height_ft:.0f} ft"
+        self.font("", size)
+        tw = pdf.get_string_width(lab)
+        self.text_at(max(x + 1.0, u[0] - tw - 1.5), u[1] - self.lh(size) / 2, lab, size)
+        exaggeration = sy / (sx / NM_TO_FT)
+        self.text_at(x, y + h - self.lh(size) - 0.3, f"heights x{exaggeration:.0f}", size, align="R", width=w - 1.0)
+
+    def warnings(self, y: float, limit: int | None = None) -> float:
+        """The findings, most severe first: DANGER reversed (white on black), WARNING boxed,
+        NOTE plain, each with its symbol, so that no colour is needed."""
+        y = self.bar(self.x0, y, self.w, "WARNINGS, most severe first")
+        size = ROW_PT * max(self.s, 0.9)
+        lh = self.lh(size)
+        tag_w = 14.0
+        if not self.layout.warnings:
+            return y + self.paragraph(self.x0, y, self.w, "No warnings.", "", size) + 0.4
+        items = self.layout.warnings if limit is None else self.layout.warnings[:limit]
+        for wl in items:
+            self.font("", size)
+            lines = self.lines(wl.text, self.w - tag_w)
+            if self.draw:
+                tag, ts = f"{wl.mark} {wl.word}", size * 0.9
+                self.font("B", ts)
+                box = (self.x0, y + 0.15, tag_w - 1.5, lh - 0.1)
+                if wl.severity == "danger":
+                    with self.pdf.local_context(fill_color=0):
+                        self.pdf.rect(*box, style="F")
+                    self.pdf.set_text_color(255)
+                elif wl.severity == "warning":
+                    with self.pdf.local_context(line_width=0.3):
+                        self.pdf.rect(*box, style="D")
+                self.text_at(self.x0 + 0.6, y + 0.15 + (lh - self.lh(ts)) / 2, tag, ts)
+                self.pdf.set_text_color(0)
+                self.font("", size)
+                for i, ln in enumerate(lines):
+                    self.text_at(self.x0 + tag_w, y + i * lh, ln, size)
+            y += len(lines) * lh + 0.35
+        if limit is not None and limit < len(self.layout.warnings):
+            more = len(self.layout.warnings) - limit
+            y += self.paragraph(self.x0 + tag_w, y, self.w - tag_w,
+                                f"... and {more} more not shown here: see the brief on screen.", "B", size)
+        return y + 0.4
+
+    def cautions(self, y: float) -> float:
+        """The CAUTIONS box: heavy border, light grey ground; returns its height."""
+        size = CAUTION_PT * max(self.s, 0.92)
+        lh = self.lh(size)
+        pad = 1.2
+        bullet = 2.2
+        inner = self.w - 2 * pad - bullet
+        self.font("", size)
+        blocks = [self.lines(c, inner) for c in self.layout.cautions]
+        h = pad + self.lh(SECTION_PT) + sum(len(b) for b in blocks) * lh + pad - 0.4
+        if not self.draw:
+            return h
+        with self.pdf.local_context(line_width=0.7, fill_color=_grey(0.93)):
+            self.pdf.rect(self.x0, y, self.w, h, style="DF")
+        self.font("B", SECTION_PT)
+        self.text_at(self.x0 + pad, y + pad - 0.2, "CAUTIONS", SECTION_PT)
+        yy = y + pad + self.lh(SECTION_PT) - 0.2
+        self.font("", size)
+        for b in blocks:
+            self.text_at(self.x0 + pad, yy, "-", size)
+            for i, ln in enumerate(b):
+                self.text_at(self.x0 + pad + bullet, yy + i * lh, ln, size)
+            yy += len(b) * lh
+        return h
+
+    def footer_height(self) -> float:
+        return self.lh(FOOTER_PT) + 0.6
+
+    def footer(self) -> None:
+        if not self.draw:
+            return
+        y = self.page_h - MARGIN_MM - self.lh(FOOTER_PT) + 1.0
+        self.font("", FOOTER_PT)
+        self.text_at(self.x0, y, self.layout.footer, FOOTER_PT)
+
+    # --- the page ------------------------------------------------------------------------------
+
+    def cautions_top(self) -> float:
+        draw, self.draw = self.draw, False
+        try:
+            return self.page_h - MARGIN_MM - self.footer_height() - self.cautions(0.0)
+        finally:
+            self.draw = draw
+
+    def run(self, plan_h: float, warn_limit: int | None = None) -> float:
+        """Lay the page out from the top (the plan view at least `plan_h` tall); returns the bottom
+        of the content above the cautions."""
+        y = self.header(MARGIN_MM)
+        y = self.section(y, self.layout.minimums)
+        y = self.section(y, self.layout.plan)
+        top = y
+        h = max(plan_h, self.right_column(top) - top)
+        self.plan_h_used = h
+        if self.draw:
+            self.plan_view((self.x0, top, self.w - self.right_column_w() - GAP_MM, h))
+        y = self.legend(self.x0, top + h + 0.4, self.w, ROW_PT * self.s)
+        y = self.section(y, self.layout.wind)
+        return self.warnings(y, warn_limit)
+
+
+def _threshold_labels_outside(scene: Scene, prims: list[Any], pdf: Any, width_of: Any) -> list[Any]:
+    """Move each runway designator from the middle of its threshold to just beyond the runway's
+    end, along the runway, so that it neither hides the runway nor is hidden by it."""
+    ends: list[tuple[tuple[float, float], tuple[float, float]]] = []
+    for p in prims:
+        if isinstance(p, LinePrim) and p.style == Role.RUNWAY.value and len(p.points_mm) == 2:
+            a, b = p.points_mm
+            ends += [(a, b), (b, a)]
+    out = []
+    for p in prims:
+        if isinstance(p, TextPrim) and p.item is not None and isinstance(scene.items[p.item], Label):
+            x, y = p.point_mm[0], p.point_mm[1] - p.size_mm * 0.35      # the point the label is centred on
+            for (ex, ey), (ox, oy) in ends:
+                length = math.hypot(ex - ox, ey - oy)
+                if length > 0 and math.hypot(ex - x, ey - y) < 0.3:
+                    ux, uy = (ex - ox) / length, (ey - oy) / length
+                    pdf.set_font(FONT, "", p.size_mm * pdf.k)
+                    half_w, half_h = width_of(_t(p.text)) / 2, p.size_mm * 0.4
+                    reach = 1.0 + min(half_w / max(abs(ux), 1e-9), half_h / max(abs(uy), 1e-9))
+                    p = replace(p, point_mm=(ex + ux * reach, ey + uy * reach + p.size_mm * 0.35))
+                    break
+        out.append(p)
+    return out
+
+
+def _spare(card: _Card, plan_h: float, warn_limit: int | None = None) -> tuple[float, float]:
+    """(millimetres left over, negative for an overflow; the plan view's height) with this
+    least plan height and these warnings."""
+    draw, card.draw = card.draw, False
+    try:
+        return card.cautions_top() - GAP_MM - card.run(plan_h, warn_limit), card.plan_h_used
+    finally:
+        card.draw = draw
+
+
+def _fit(pdf: Any, layout: CardLayout, page_w: float, page_h: float,
+         widths: dict[tuple[str, float, str], float]) -> tuple[float, float, int | None]:
+    """(scale of the small print, plan view height, how many warnings to show or None for all):
+    the largest print and plan view that fit. At the smallest print the plan view gives way, and
+    only past its floor are warnings left off (a line then says how many)."""
+    for sc in SCALES:
+        card = _Card(pdf, layout, page_w, page_h, sc, widths)
+        spare, used = _spare(card, PLAN_MIN_MM)
+        if spare >= 0:
+            return sc, min(used + spare, card.w * (1 - RIGHT_COLUMN)), None
+    card = _Card(pdf, layout, page_w, page_h, MIN_SCALE, widths)
+    for lim in [None, *range(len(layout.warnings) - 1, -1, -1)]:
+        spare, used = _spare(card, PLAN_FLOOR_MM, lim)
+        if spare >= 0:
+            return MIN_SCALE, used + spare, lim
+    return MIN_SCALE, PLAN_FLOOR_MM, 0
+
+
+def layout_pdf_bytes(layout: CardLayout, *, page: str = "half-letter") -> bytes:
+    """The one-page PDF card of a layout (see the module docstring)."""
+    page_w, page_h = page_size_mm(page)
+    from fpdf import FPDF   # about 0.3 s to import: only when a PDF is made
+
+    pdf = FPDF(orientation="P", unit="mm", format=(page_w, page_h))
+    pdf.set_auto_page_break(False)
+    pdf.set_margins(MARGIN_MM, MARGIN_MM, MARGIN_MM)
+    pdf.set_creation_date(creation_date(layout.briefed.removeprefix("briefed ")))
+    pdf.set_title(_t(f"{layout.title}: {layout.place}, {layout.approach}"))
+    pdf.set_subject(_t(layout.footer))
+    pdf.set_creator("briefer")
+    pdf.add_page()
+    widths: dict[tuple[str, float, str], float] = {}
+
+    scale, plan_h, limit = _fit(pdf, layout, page_w, page_h, widths)
+    card = _Card(pdf, layout, page_w, page_h, scale, widths)
+    card.draw = True
+    pdf.set_text_color(0)
+    pdf.set_draw_color(0)
+    card.run(plan_h, limit)
+    card.cautions(card.cautions_top())
+    card.footer()
+    return bytes(pdf.output())
+
+
+def card_pdf_bytes(brief: Brief, *, page: str = "half-letter") -> bytes:
+    """The one-page PDF kneeboard card of a Brief (half-letter or A5, portrait)."""
+    return layout_pdf_bytes(card_layout(brief), page=page)
+
+
+__all__ = ["FIXED_DATE", "PAGE_SIZES_MM", "card_pdf_bytes", "creation_date", "layout_pdf_bytes", "page_size_mm"]
