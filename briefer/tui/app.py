@@ -128,7 +128,8 @@ class BriefingApp(App[None]):
     @property
     def settled(self) -> bool:
         """True when what is shown answers the current inputs (or they cannot be briefed)."""
-        return self._timer is None and not self.computing
+        return self._timer is None and not self.computing and (
+            self.brief_inputs == self.inputs or self.stale is not None)
 
     # --- pushing inputs into the widgets ---------------------------------------------------
     def _push_inputs(self, inputs: BriefingInputs) -> None:
@@ -397,14 +398,25 @@ class BriefingApp(App[None]):
         self.main.show_envelope(env, brief)
 
     # --- actions ---------------------------------------------------------------------------
+    FIRST_LIST = {"aircraft": "#profile", "airfield": "#airfield-list", "runway": "#runway-list"}
+
     def action_step(self, pane_id: str) -> None:
-        self.main.query_one("#steps", TabbedContent).active = pane_id
+        """Show a step or view. Focus leaves the old pane first (a focused widget in a hidden
+        pane would pull its pane back); an entry step's first list then takes the focus."""
+        from textual.widgets import Tabs
+
+        tabs = self.main.query_one("#steps", TabbedContent)
+        self.main.set_focus(tabs.query_one(Tabs))
+        tabs.active = pane_id
+        first = self.FIRST_LIST.get(pane_id)
+        if first is not None:
+            self.main.query_one(first).focus()
 
     def _move_step(self, delta: int) -> None:
         tabs = self.main.query_one("#steps", TabbedContent)
         ids = [pid for pid, _ in STEPS]
         i = ids.index(tabs.active) if tabs.active in ids else 0
-        tabs.active = ids[(i + delta) % len(ids)]
+        self.action_step(ids[(i + delta) % len(ids)])
 
     def action_next_step(self) -> None:
         self._move_step(1)
