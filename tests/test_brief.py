@@ -60,6 +60,10 @@ def finding(b, code: str):
     return found[0]
 
 
+# A wind faster than the aircraft (twin, about 104 kt TAS at V2RL): no plan can be flown.
+NO_PLAN = request("demo-twin", "V2RL", "RNAV (GPS) RWY 09", "27", weather=dict(wind_from_deg=263.0, wind_speed_kt=110.0))
+
+
 @pytest.fixture(scope="module")
 def demo_brief():
     return brief_of(demo_request())
@@ -342,12 +346,12 @@ def test_plan_that_does_not_fit_is_a_danger_finding():
 
 
 def test_no_plan_leaves_nan_fields_not_an_exception():
-    """An arrival aligned with the landing runway: no circling shape applies; the plan's numbers
-    are NaN (null in JSON) and a finding says why."""
-    b = brief_of(request("demo-bizjet", "V2RL", "RNAV (GPS) RWY 09", "09"))
-    assert b.plan.feasible is False and b.plan.shape == "none"
-    assert math.isnan(b.plan.offset_nm)
-    assert "no-plan-shape" in codes(b)
+    """A 110 kt wind down the runway, faster than the twin's circling TAS: no plan can be flown;
+    the plan's numbers are NaN (null in JSON) and a danger finding says why."""
+    b = brief_of(NO_PLAN)
+    assert b.plan.feasible is False
+    assert math.isnan(b.plan.offset_nm) and len(b.plan.track_xy_m) == 0
+    assert "no-plan-fits" in codes(b) and finding(b, "no-plan-fits").severity == "danger"
 
 
 # --- the sight picture -----------------------------------------------------------------------------
@@ -410,7 +414,7 @@ def test_json_values_are_the_brief_values(demo_brief):
 
 @pytest.mark.parametrize("req", [
     pytest.param(demo_request(), id="demo"),
-    pytest.param(request("demo-bizjet", "V2RL", "RNAV (GPS) RWY 09", "09"), id="no-plan-NaN-fields"),
+    pytest.param(NO_PLAN, id="no-plan-NaN-fields"),
     pytest.param(request("demo-trainer", "V2RL", "RNAV (GPS) RWY 09", "27"), id="not-authorised-None-fields"),
 ])
 def test_json_is_strict_json_with_the_cautions(req):
