@@ -49,6 +49,7 @@ SHAPE_TEXT = {
     "break-and-return": "Break off, fly downwind, 180° turn to final",
     "teardrop": "Pass the field, teardrop turn back to final",
     "direct-turn": "Turn directly onto final",
+    "overfly-circuit": "Overfly, turn onto a downwind, 180° turn to final",
 }
 
 
@@ -207,11 +208,24 @@ def situation(request: BriefRequest) -> Situation:
 
 
 def envelope_for(request: BriefRequest, **kwargs) -> maneuver.Envelope:
-    """The wind envelope of the request's situation (every 10° x 0-40 kt by default)."""
+    """The wind envelope of the request's situation (every 10° x 0-40 kt by default).
+
+    Same rule as the brief: cells where nothing fits at the descent point are solved again
+    with the roll-out closer (roll_out_steps_m), and take the first verdict that fits.
+    """
     s = situation(request)
-    return maneuver.wind_envelope(s.inputs, margin_fn=s.margins_fn, visibility_m=s.visibility_m,
-                                  bank_limit_deg=s.bank_limit_deg,
-                                  area_radius_m=s.area_radius.radius_nm * units.NM_TO_M, **kwargs)
+    common = dict(margin_fn=s.margins_fn, visibility_m=s.visibility_m, bank_limit_deg=min(s.bank_limit_deg, 60.0),
+                  area_radius_m=s.area_radius.radius_nm * units.NM_TO_M, **kwargs)
+    env = maneuver.wind_envelope(s.inputs, **common)
+    for d in roll_out_steps_m(s.inputs):
+        if not np.any(env.status == maneuver.DOES_NOT_FIT):
+            break
+        closer = maneuver.wind_envelope(replace(s.inputs, roll_out_distance_m=d), **common)
+        take = (env.status == maneuver.DOES_NOT_FIT) & (closer.status != maneuver.DOES_NOT_FIT)
+        env = replace(env, **{name: np.where(take, getattr(closer, name), getattr(env, name))
+                              for name in ("status", "reasons", "bank_needed_deg", "best_candidate",
+                                           "area_margin_m", "max_distance_from_runway_m")})
+    return env
 
 
 def _circling_only(request: BriefRequest, appr: Approach, s: Situation, category: str,
@@ -322,14 +336,18 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
     mda = s.mda_ft
     haa = None if mda is None else mda - elev
     vis_req = None
+    vis_charted = None
     if entry is not None:
+        vis_charted = (f"{entry.visibility_sm:g} SM" if entry.visibility_sm is not None
+                       else f"{entry.visibility_m:.0f} m" if entry.visibility_m is not None else None)
         vis_req = entry.visibility_sm if entry.visibility_sm is not None else (
             entry.visibility_as_charted_m * units.M_TO_SM if entry.visibility_as_charted_m is not None else None)
     vis_ok = None if (wx.visibility_sm is None or vis_req is None) else wx.visibility_sm >= vis_req - 1e-9
     ceil_ok = None if (wx.ceiling_ft is None or haa is None) else wx.ceiling_ft >= haa
     if vis_ok is False:
         add("danger", "visibility-below-minimum",
-            f"Reported visibility {wx.visibility_sm:g} SM is below the required {vis_req:.2g} SM.")
+            f"Reported visibility {wx.visibility_sm:g} SM is below the required {vis_charted} "
+            f"({vis_req:.2f} SM).")
     if ceil_ok is False:
         add("danger", "ceiling-below-mda",
             f"Reported ceiling {wx.ceiling_ft:.0f} ft is below the circling height ({haa:.0f} ft HAA).")
@@ -342,6 +360,10 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
     reasons, straight_in = _circling_only(request, appr, s, cat, crit)
     for r in reasons:
         add("info", f"circling-only-{r.code}", f"Circling only: {r.text.rstrip('.')}.")
+    if straight_in:
+        add("info", "straight-in-published",
+            f"Straight-in minimums are published for runway {request.landing_runway}: circle only if you "
+            "cannot descend straight in (the plan below is for that case).")
 
     cold = None
     if wx.oat_c is not None and wx.oat_c <= COLD_CORRECTION_AT_OR_BELOW_C and haa is not None:
@@ -438,9 +460,14 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
     plan_info, missed = _plan_info(s, choice, best, request, appr, var)
     feasible = plan_info.feasible
     if best is None:
-        add("danger", "no-plan-shape",
-            "No circling plan applies: the arrival is aligned with the landing runway. Descend straight in "
-            "if the runway is in sight in time for a normal descent; otherwise fly the missed approach.")
+        if straight_in:
+            add("info", "straight-in",
+                "The arrival is aligned with the landing runway and straight-in minimums are published: "
+                "fly the straight-in; no circle is planned.")
+        else:
+            add("danger", "no-plan-shape",
+                "No circling plan applies: the arrival is aligned with the landing runway. Descend straight in "
+                "if the runway is in sight in time for a normal descent; otherwise fly the missed approach.")
     elif choice.bank_needed_deg is None:
         add("danger", "no-plan-fits",
             f"No plan fits up to the bank limit of {s.bank_limit_deg:.0f}°: "
@@ -516,7 +543,7 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
 
     minimums = MinimumsInfo(
         authorised=authorised, not_authorised_reason=na_reason, mda_ft=mda, height_above_airport_ft=haa,
-        visibility_required_sm=vis_req, visibility_reported_sm=wx.visibility_sm, ceiling_reported_ft=wx.ceiling_ft,
+        visibility_required_sm=vis_req, visibility_required_text=vis_charted, visibility_reported_sm=wx.visibility_sm, ceiling_reported_ft=wx.ceiling_ft,
         visibility_ok=vis_ok, ceiling_ok=ceil_ok, lowest_height_ft=lowest.height_ft,
         lowest_height_provenance=criteria.provenance_label(lowest.provenance),
         obstacle_clearance_ft=roc.clearance_ft,
@@ -562,23 +589,30 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
                  cautions=CAUTIONS, computed_utc=computed_utc)
 
 
-ROLL_OUT_FRACTIONS = (0.66, 0.33, 0.0)   # of the way from the descent point to the stabilised distance
+ROLL_OUT_STEPS = (0.66, 0.33, 0.0)   # of the way from the stabilised distance to the descent point
+
+
+def roll_out_steps_m(inputs: maneuver.CircleInputs) -> tuple[float, ...]:
+    """The closer roll-outs tried, in order, when no plan fits at the descent point: steps
+    toward the stabilised distance (descending in the final turn). The brief and the envelope
+    use the same steps."""
+    geo = maneuver.descent_geometry(inputs)
+    return tuple(geo.stabilised_distance_m + f * (geo.roll_out_distance_m - geo.stabilised_distance_m)
+                 for f in ROLL_OUT_STEPS)
 
 
 def _choose(s: Situation, area_radius_m: float) -> tuple[maneuver.PlanChoice, bool]:
     """Rank the plans at the default roll-out (the descent point); if none fits, roll out
-    closer (descending in the turn), never closer than the stabilised distance."""
+    closer, step by step (roll_out_steps_m)."""
     kwargs = dict(margin_fn=s.margin_fn, visibility_m=s.visibility_m, bank_limit_deg=min(s.bank_limit_deg, 60.0),
                   area_radius_m=area_radius_m, aoa_margin_fn=s.aoa_margin_fn)
     first = maneuver.choose_plan(s.inputs, **kwargs)
-    if first.bank_needed_deg is not None:
+    if first.bank_needed_deg is not None or not first.ranked:
         return first, False
-    geo = maneuver.descent_geometry(s.inputs)
-    for frac in ROLL_OUT_FRACTIONS:
-        d = geo.stabilised_distance_m + frac * (geo.roll_out_distance_m - geo.stabilised_distance_m)
-        choice = maneuver.choose_plan(replace(s.inputs, roll_out_distance_m=d), **kwargs)
-        if choice.bank_needed_deg is not None:
-            return choice, True
+    for d in roll_out_steps_m(s.inputs):
+        closer = maneuver.choose_plan(replace(s.inputs, roll_out_distance_m=d), **kwargs)
+        if closer.bank_needed_deg is not None:
+            return closer, True
     return first, False
 
 
@@ -608,7 +642,7 @@ def _plan_info(s: Situation, choice: maneuver.PlanChoice, best: maneuver.RankedP
             runway_within_visibility=None, max_distance_from_threshold_nm=nan, track_xy_m=_empty_xy(),
             roll_in_xy_m=frozen_array([[nan, nan]]), descent_xy_m=frozen_array([[nan, nan]]),
             reasons=reasons, alternatives=alts)
-        return info, MissedApproachInfo(turn_direction="toward the runway", by_leg=(),
+        return info, MissedApproachInfo(turn_direction="", by_leg=(),
                                         instruction=appr.missed_approach)
     lm = plan.leave_mda
     lm_hdg_mag = _mag(course + lm.heading_deg, var)
@@ -673,7 +707,7 @@ def _main_missed_direction(guide: maneuver.MissedApproachGuide, plan: maneuver.P
     pool = dirs[on_down] if on_down.any() else dirs
     counts = {d: int(np.sum(pool == d)) for d in ("left", "right")}
     if not any(counts.values()):
-        return "toward the runway"
+        return ""
     return max(counts, key=counts.get)
 
 

@@ -89,6 +89,7 @@ class MinimumsInfo:
     mda_ft: float | None
     height_above_airport_ft: float | None
     visibility_required_sm: float | None
+    visibility_required_text: str | None   # as charted, with its unit ("1 1/4 SM" style or "3700 m")
     visibility_reported_sm: float | None
     ceiling_reported_ft: float | None
     visibility_ok: bool | None        # None: not reported

@@ -47,6 +47,7 @@ def brief_to_dict(brief: Brief) -> dict[str, Any]:
         "mda_ft": m.mda_ft,
         "height_above_airport_ft": m.height_above_airport_ft,
         "visibility_required_sm": m.visibility_required_sm,
+        "visibility_required_as_charted": m.visibility_required_text,
         "visibility_reported_sm": m.visibility_reported_sm,
         "ceiling_reported_ft": m.ceiling_reported_ft,
         "visibility_ok": m.visibility_ok,

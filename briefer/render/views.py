@@ -72,7 +72,7 @@ class MinimumsView:
         g.add_row("Category", cat + f"  VREF {c.vref_kt:.0f} kt, circling {c.circling_speed_kt:.0f} kt IAS")
         if m.authorised:
             g.add_row("MDA", f"{fmt(m.mda_ft)} ft   HAA {fmt(m.height_above_airport_ft)} ft")
-            vis = f"required {fmt(m.visibility_required_sm, 'g')} SM, reported {fmt(m.visibility_reported_sm, 'g')} SM"
+            vis = f"required {m.visibility_required_text or 'n/a'}, reported {fmt(m.visibility_reported_sm, 'g', ' SM')}"
             vis += {True: "  OK", False: "  BELOW MINIMUM", None: ""}[m.visibility_ok]
             g.add_row("Visibility", vis)
             ceil = f"reported {fmt(m.ceiling_reported_ft)} ft"
@@ -102,8 +102,18 @@ class PlanView:
         b = self.brief
         p, pf = b.plan, b.performance
         g = _kv_grid()
-        status = "" if p.feasible else "  (NOT FLYABLE AS BRIEFED)"
-        g.add_row("Plan", f"{p.shape_text}, downwind {p.side} of the runway{status}")
+        if not p.feasible:
+            g.add_row("Plan", f"{p.shape_text}: NOT FLYABLE AS BRIEFED")
+            for r in p.reasons:
+                g.add_row("", r)
+            g.add_row("Missed appr", f"climbing turn toward the runway, then {b.missed_approach.instruction}")
+            yield g
+            if p.alternatives:
+                yield Text("Other plans:", style="bold")
+                for alt in p.alternatives:
+                    yield Text(f"  {alt.shape} ({alt.side}): {alt.why_not}")
+            return
+        g.add_row("Plan", f"{p.shape_text}, downwind {p.side} of the runway")
         g.add_row("Offset", f"{p.offset_nm:.2f} NM from the centreline")
         if p.break_off_s is not None:
             g.add_row("Break-off", f"{p.break_off_angle_deg:.0f}° for {p.break_off_s:.0f} s")
@@ -120,8 +130,9 @@ class PlanView:
         vis = {True: "stays within the reported visibility", False: "goes beyond the reported visibility",
                None: "visibility not reported"}[p.runway_within_visibility]
         g.add_row("Runway", f"{vis} (farthest {p.max_distance_from_threshold_nm:.2f} NM)")
-        g.add_row("Missed appr", f"climbing turn {b.missed_approach.turn_direction.upper()} toward the runway, "
-                                 f"then {b.missed_approach.instruction}")
+        turn_dir = b.missed_approach.turn_direction
+        g.add_row("Missed appr", (f"climbing turn {turn_dir.upper()} " if turn_dir else "climbing turn ")
+                  + f"toward the runway, then {b.missed_approach.instruction}")
         yield g
         if p.alternatives:
             yield Text("Other plans:", style="bold")
