@@ -80,8 +80,8 @@ class WarningLine:
 
 @dataclass(frozen=True, slots=True, kw_only=True)
 class SideView:
-    """The sight picture seen from behind the aircraft, abeam the threshold: the runway on the
-    left, the aircraft at circling height on the right, and the two sight lines to the runway.
+    """The sight picture seen along the runway from abeam the threshold: the runway on the left,
+    the aircraft at circling height on the right, and the sight lines to the runway.
 
     Attributes:
         circling_height_ft: Height of the circle above the runway.
@@ -91,8 +91,8 @@ class SideView:
         familiar_depression_deg: The usual picture's angle below the horizon.
         familiar_offset_at_circling_nm: Where the usual picture puts the aircraft at circling
             height (the trap).
-        planned_label, familiar_label, usual_label: Text beside each line or point.
-        rows: The same comparison in words (under the drawing, and on the text card).
+        rows: The comparison in words: "Planned", "Usual", "The trap", "It needs" (beside the
+            drawing on the PDF, alone on the text card).
     """
 
     circling_height_ft: float
@@ -102,9 +102,6 @@ class SideView:
     familiar_offset_nm: float
     familiar_depression_deg: float
     familiar_offset_at_circling_nm: float
-    planned_label: str
-    familiar_label: str
-    usual_label: str
     rows: tuple[Row, ...]
 
 
@@ -181,6 +178,9 @@ _REPLACEMENTS = {
 }
 
 
+_NOT_PLAIN = re.compile("[^\n -~°]")
+
+
 def printable_text(text: str, charset: Literal["latin-1", "ascii+degree"]) -> str:
     """`text` narrowed to a character set: known symbols spelled out (an em dash as '-', an arrow
     as '->'), accents dropped where the set lacks the letter, braille cells as spaces, anything
@@ -190,12 +190,14 @@ def printable_text(text: str, charset: Literal["latin-1", "ascii+degree"]) -> st
         text: Any text.
         charset: "latin-1" (the PDF core fonts) or "ascii+degree" (the text card: ASCII and °).
     """
+    if not _NOT_PLAIN.search(text):
+        return text
     out = []
     for ch in text:
         if ch == "°" or ch == "\n" or (" " <= ch <= "~"):
             out.append(ch)
             continue
-        if charset == "latin-1" and "\u00a0" < ch <= "\u00ff" and ch not in ("\u00d7", "\u00b1", "\u00b7", "\u00ba"):
+        if charset == "latin-1" and "\u00a0" < ch <= "\u00ff":
             out.append(ch)
             continue
         if ch in _REPLACEMENTS:
@@ -372,12 +374,13 @@ def _wind(brief: Brief) -> Section:
 
 def _side_view(brief: Brief) -> SideView:
     s = brief.sight_picture
+    h = f"{s.circling_height_ft:.0f} ft"
     rows = [
         Row(label="Planned", text=(f"runway {s.planned_depression_deg:.1f}° below the horizon, "
-                                   f"{s.planned_offset_nm:.2f} NM out at {s.circling_height_ft:.0f} ft")),
+                                   f"{s.planned_offset_nm:.2f} NM out at {h}")),
         Row(label="Usual", text=(f"{s.familiar_depression_deg:.1f}° below the horizon, {s.familiar_offset_nm:.2f} NM "
                                  f"out at {s.familiar_height_ft:.0f} ft (your everyday pattern)")),
-        Row(label="The trap", text=(f"the usual picture at {s.circling_height_ft:.0f} ft puts you only "
+        Row(label="The trap", text=(f"the usual picture at {h} puts you only "
                                     f"{s.familiar_offset_at_circling_nm:.2f} NM out")),
     ]
     if s.familiar_possible and s.familiar_bank_required_deg is not None:
@@ -393,11 +396,7 @@ def _side_view(brief: Brief) -> SideView:
         circling_height_ft=s.circling_height_ft, planned_offset_nm=s.planned_offset_nm,
         planned_depression_deg=s.planned_depression_deg, familiar_height_ft=s.familiar_height_ft,
         familiar_offset_nm=s.familiar_offset_nm, familiar_depression_deg=s.familiar_depression_deg,
-        familiar_offset_at_circling_nm=s.familiar_offset_at_circling_nm,
-        planned_label=f"planned {s.planned_depression_deg:.1f}°, {s.planned_offset_nm:.2f} NM",
-        familiar_label=f"usual picture {s.familiar_depression_deg:.1f}°: {s.familiar_offset_at_circling_nm:.2f} NM",
-        usual_label=f"usual {s.familiar_height_ft:.0f} ft, {s.familiar_offset_nm:.2f} NM",
-        rows=tuple(rows))
+        familiar_offset_at_circling_nm=s.familiar_offset_at_circling_nm, rows=tuple(rows))
 
 
 def _warning(f: Finding) -> WarningLine:

@@ -87,7 +87,7 @@ def _section(sec: Section) -> list[str]:
 
 
 def _side_view(sv: SideView) -> list[str]:
-    return [_rule("SIGHT PICTURE (runway below the horizon, abeam the threshold)")] + _rows(sv.rows)
+    return [_rule("SIGHT PICTURE, abeam the threshold")] + _rows(sv.rows)
 
 
 def _plan_view(layout: CardLayout) -> list[str]:

@@ -41,6 +41,7 @@ from briefer.render.card_layout import (
 from briefer.render.scene import ROLE_STYLES, Label, Marker, Polygon, Polyline, Role, Scene
 from briefer.render.svg import (
     HATCH_WIDTH_MM,
+    MARKER_SIZE_MM,
     CirclePrim,
     LinePrim,
     PolygonPrim,
@@ -71,7 +72,7 @@ PLAN_MIN_MM = 50.0
 PLAN_FLOOR_MM = 38.0
 SIDE_VIEW_H_MM = 24.0
 LINE_SPACING = 1.2
-RIGHT_COLUMN = 0.45
+RIGHT_COLUMN = 0.5
 """Share of the width taken by the sight picture and the legend, beside the plan view."""
 
 # sizes in points (the small print's at scale 1)
@@ -127,12 +128,29 @@ class _Card:
         self.w = page_w - 2 * MARGIN_MM
         self.draw = False
         self.plan_h_used = 0.0
+        self._font: tuple[str, float] | None = None
         self._widths: dict[tuple[str, float, str], float] = widths if widths is not None else {}
 
     # --- text helpers ------------------------------------------------------------------------
 
     def font(self, style: str, size_pt: float) -> None:
-        self.pdf.set_font(FONT, style, size_pt)
+        if (style, size_pt) != self._font:      # set_font() costs ~0.1 ms even when nothing changes
+            self.pdf.set_font(FONT, style, size_pt)
+            self._font = (style, size_pt)
+
+    def pen(self, width: float = 0.2, grey: float = 0.0, *, fill: float | None = None,
+            dash: tuple[float, float] | None = None) -> None:
+        """Set the whole pen before each drawing (fpdf writes only what changes): line width [mm],
+        stroke grey and fill grey (0 black, 1 white), dash (dash, gap) [mm] or solid."""
+        pdf = self.pdf
+        pdf.set_line_width(width)
+        pdf.set_draw_color(_grey(grey))
+        if fill is not None:
+            pdf.set_fill_color(_grey(fill))
+        if dash:
+            pdf.set_dash_pattern(dash=dash[0], gap=dash[1])
+        else:
+            pdf.set_dash_pattern()
 
     def lh(self, size_pt: float) -> float:
         """Line height in mm of a font size in points."""
@@ -140,10 +158,13 @@ class _Card:
 
     def width_of(self, text: str) -> float:
         """Width in mm of `text` in the current font (cached per font, size and text)."""
-        key = (self.pdf.font_style, self.pdf.font_size_pt, text)
+        pdf = self.pdf
+        key = (pdf.font_style, pdf.font_size_pt, text)
         w = self._widths.get(key)
         if w is None:
-            w = self._widths[key] = self.pdf.get_string_width(text)
+            # the core font's own metrics: get_string_width() gives the same number but parses
+            # the text into styled fragments first, which cost ~0.4 ms a call
+            w = self._widths[key] = pdf.current_font.get_text_width(text, pdf.font_size_pt, None)[1] / pdf.k
         return w
 
     def lines(self, text: str, width: float) -> list[str]:
@@ -185,7 +206,7 @@ class _Card:
             return
         t = _t(text)
         if align != "L":
-            tw = self.pdf.get_string_width(t)
+            tw = self.width_of(t)
             x = x + width - tw if align == "R" else x + (width - tw) / 2
         # baseline: the cap height is about 0.72 em below the line's top with this line spacing
         self.pdf.text(x, y_top + size_pt / self.pdf.k * 0.93, t)
@@ -201,7 +222,7 @@ class _Card:
     def fit_size(self, text: str, style: str, size_pt: float, width: float, floor_pt: float) -> float:
         """The largest size up to `size_pt` at which `text` fits `width` on one line."""
         self.font(style, size_pt)
-        tw = self.pdf.get_string_width(_t(text))
+        tw = self.width_of(_t(text))
         if tw <= width or tw == 0:
             return size_pt
         return max(floor_pt, size_pt * width / tw)
@@ -223,35 +244,28 @@ class _Card:
         y += self.paragraph(self.x0, y, self.w, f"{L.aircraft}; criteria {L.criteria}", "", HEADER_PT)
         y += 0.6
         if self.draw:
-            with self.pdf.local_context(line_width=0.6):
-                self.pdf.line(self.x0, y, self.x0 + self.w, y)
+            self.pen(0.6)
+            self.pdf.line(self.x0, y, self.x0 + self.w, y)
         return y + 1.0
 
-    def bar(self, x: float, y: float, w: float, title: str) -> float:
-        """A section title on a light grey bar; returns the y below it."""
-        h = self.lh(SECTION_PT) + 0.3
+    def bar(self, x: float, y: float, w: float, title: str, status: str = "", alert: bool = False) -> float:
+        """A section title on a light grey bar, the section's status beside it (wrapped); an alert
+        is reversed, white on black, and starts with '!!', so it stands out without colour.
+        Returns the y below the bar."""
+        self.font("B", SECTION_PT)
+        title_w = self.width_of(_t(title)) + 3.0
+        lines = self.lines(("!! " if alert else "") + status, w - title_w - 1.0) if status else [""]
+        lh = self.lh(SECTION_PT)
+        h = len(lines) * lh + 0.3
         if self.draw:
-            with self.pdf.local_context(fill_color=_grey(0.85)):
-                self.pdf.rect(x, y, w, h, style="F")
-            self.font("B", SECTION_PT)
+            self.pen(fill=0.0 if alert else 0.85)
+            self.pdf.rect(x, y, w, h, style="F")
+            if alert:
+                self.pdf.set_text_color(255)
             self.text_at(x + 1.0, y + 0.25, title, SECTION_PT)
-        return y + h + 0.6
-
-    def status(self, y: float, sec: Section) -> float:
-        """The status line; an alert is boxed with a heavy border and '!!', so it reads in grey."""
-        size = SECTION_PT + 0.4
-        text = ("!! " if sec.alert else "") + sec.status
-        pad = 0.9 if sec.alert else 0.0
-        self.font("B", size)
-        lines = self.lines(text, self.w - 2 * pad - 0.5)
-        h = len(lines) * self.lh(size) + 2 * pad
-        if self.draw:
-            if sec.alert:
-                with self.pdf.local_context(line_width=0.7):
-                    self.pdf.rect(self.x0, y, self.w, h, style="D")
-            self.font("B", size)
             for i, ln in enumerate(lines):
-                self.text_at(self.x0 + pad, y + pad + i * self.lh(size), ln, size)
+                self.text_at(x + title_w, y + 0.25 + i * lh, ln, SECTION_PT)
+            self.pdf.set_text_color(0)
         return y + h + 0.6
 
     def figures(self, y: float, figures: tuple[Figure, ...]) -> float:
@@ -263,8 +277,8 @@ class _Card:
                 x = self.x0 + i * cw
                 if not self.draw:
                     continue
-                with self.pdf.local_context(line_width=0.25):
-                    self.pdf.rect(x, y, cw, ch, style="D")
+                self.pen(0.25)
+                self.pdf.rect(x, y, cw, ch, style="D")
                 self.font("B", FIG_LABEL_PT)
                 self.text_at(x + 1.0, y + 0.3, f.label, FIG_LABEL_PT)
                 vs = self.fit_size(f.value, "B", FIG_VALUE_PT, cw - 2.0, 8.0)
@@ -278,18 +292,23 @@ class _Card:
         return y + 0.8
 
     def rows(self, y: float, rows: tuple[Row, ...], x: float | None = None, width: float | None = None,
-             label_w: float = 15.0, size: float | None = None) -> float:
+             label_w: float = 15.0, size: float | None = None, sample_rows: tuple[int, ...] = ()) -> float:
         """Labelled lines of small print; returns the y below them."""
         x = self.x0 if x is None else x
         width = self.w if width is None else width
         size = (ROW_PT * self.s) if size is None else size
         lh = self.lh(size)
-        for r in rows:
+        for i, r in enumerate(rows):
             self.font("", size)
             lines = self.lines(r.text, width - label_w)
             if self.draw:
+                lx = x
+                if i in sample_rows:    # a sample of the side view's line before the label
+                    self.pen(0.5, 0.0) if i == 0 else self.pen(0.4, 0.3, dash=(0.9, 0.6))
+                    self.pdf.line(x, y + lh * 0.55, x + 3.0, y + lh * 0.55)
+                    lx = x + 3.6
                 self.font("B", size)
-                self.text_at(x, y, r.label, size)
+                self.text_at(lx, y, r.label, size)
                 self.font("", size)
                 for i, ln in enumerate(lines):
                     self.text_at(x + label_w, y + i * lh, ln, size)
@@ -297,9 +316,7 @@ class _Card:
         return y + 0.6
 
     def section(self, y: float, sec: Section) -> float:
-        y = self.bar(self.x0, y, self.w, sec.title)
-        if sec.status:
-            y = self.status(y, sec)
+        y = self.bar(self.x0, y, self.w, sec.title, sec.status, sec.alert)
         if sec.figures:
             y = self.figures(y, sec.figures)
         return self.rows(y, sec.rows)
@@ -310,7 +327,7 @@ class _Card:
         return self.w * RIGHT_COLUMN
 
     def right_column(self, y: float) -> float:
-        """The side view of the sight picture, its captions and the plan view's legend."""
+        """The side view of the sight picture and the comparison in words."""
         sv = self.layout.side_view
         w = self.right_column_w()
         x = self.x0 + self.w - w
@@ -318,30 +335,8 @@ class _Card:
         if self.draw:
             self.side_view(sv, (x, y, w, SIDE_VIEW_H_MM))
         y += SIDE_VIEW_H_MM + 0.8
-        size = ROW_PT * self.s
-        y = self.captions(x, y, w, sv, size)
-        return self.rows(y, sv.rows[3:], x=x, width=w, label_w=11.0, size=size)
-
-    def captions(self, x: float, y: float, w: float, sv: SideView, size: float) -> float:
-        """A sample of each sight line with its angle and offsets."""
-        sample_w = 6.0
-        lh = self.lh(size)
-        for text, dashed, weight in ((f"{sv.planned_label} out at {sv.circling_height_ft:.0f} ft", False, 0.5),
-                                     (f"{sv.familiar_label} out at {sv.circling_height_ft:.0f} ft (the trap); "
-                                      f"{sv.usual_label}", True, 0.4)):
-            self.font("", size)
-            lines = self.lines(text, w - sample_w)
-            if self.draw:
-                mid = y + lh * 0.5
-                with self.pdf.local_context(line_width=weight, draw_color=_grey(0.3 if dashed else 0.0)):
-                    if dashed:
-                        self.pdf.set_dash_pattern(dash=1.2, gap=0.8)
-                    self.pdf.line(x, mid, x + sample_w - 1.0, mid)
-                self.font("", size)
-                for i, ln in enumerate(lines):
-                    self.text_at(x + sample_w, y + i * lh, ln, size)
-            y += len(lines) * lh
-        return y + 0.3
+        label_w = 15.0
+        return self.rows(y, self.layout.side_view.rows, x=x, width=w, label_w=label_w, sample_rows=(0, 1))
 
     def legend(self, x: float, y: float, w: float, size: float, columns: int = 4) -> float:
         """One entry per role on the plan view, with a sample drawn in that role's pen."""
@@ -384,46 +379,46 @@ class _Card:
             size_pt = p.size_mm * pdf.k
             self.font("", size_pt)
             t = _t(p.text)
-            tw = pdf.get_string_width(t)
+            tw = self.width_of(t)
             x = p.point_mm[0] - {"start": 0.0, "middle": tw / 2, "end": tw}[p.anchor]
             # a tight white ground keeps a label legible where a line crosses it (a white outline
             # drawn as stroked text would read twice in the PDF's text)
-            with pdf.local_context(fill_color=255):
-                pdf.rect(x - 0.25, p.point_mm[1] - p.size_mm * 0.74, tw + 0.5, p.size_mm * 0.92, style="F")
+            self.pen(fill=1.0)
+            pdf.rect(x - 0.25, p.point_mm[1] - p.size_mm * 0.74, tw + 0.5, p.size_mm * 0.92, style="F")
             pdf.set_text_color(0)
             pdf.text(x, p.point_mm[1], t)
             return
-        kwargs: dict[str, Any] = dict(line_width=ps.stroke_width_mm, draw_color=_grey(ps.stroke_grey))
-        if ps.round_cap:
-            kwargs["stroke_cap_style"] = "ROUND"
-        with pdf.local_context(**kwargs):
-            if p.dash_mm:
-                pdf.set_dash_pattern(dash=p.dash_mm[0], gap=p.dash_mm[1])
-            if isinstance(p, LinePrim):
-                pdf.polyline(list(p.points_mm), polygon=p.closed, style="D")
-            elif isinstance(p, CirclePrim):
-                filled = p.filled and ps.fill_grey is not None
-                if filled:
-                    pdf.set_fill_color(_grey(ps.fill_grey))
-                pdf.circle(p.centre_mm[0], p.centre_mm[1], p.radius_mm, style="DF" if filled else "D")
-            elif isinstance(p, PolygonPrim):
-                filled = p.filled and ps.fill_grey is not None
-                if filled:
-                    pdf.set_fill_color(_grey(ps.fill_grey))
-                pdf.polygon(list(p.points_mm), style="DF" if filled else "D")
-                if p.hatch_mm:
-                    pdf.set_dash_pattern()
-                    pdf.set_line_width(HATCH_WIDTH_MM)
-                    for a, b in p.hatch_mm:
-                        pdf.line(a[0], a[1], b[0], b[1])
+        filled = not isinstance(p, LinePrim) and p.filled and ps.fill_grey is not None
+        self.pen(ps.stroke_width_mm, ps.stroke_grey, fill=ps.fill_grey if filled else None, dash=p.dash_mm)
+        if ps.round_cap:    # rare (the dotted area boundary): the one case worth a graphics state
+            with pdf.local_context(stroke_cap_style="ROUND"):
+                self.shape(p, filled)
+        else:
+            self.shape(p, filled)
+        if isinstance(p, PolygonPrim) and p.hatch_mm:
+            self.pen(HATCH_WIDTH_MM, ps.stroke_grey)
+            for a, b in p.hatch_mm:
+                pdf.line(a[0], a[1], b[0], b[1])
+
+    def shape(self, p: Any, filled: bool) -> None:
+        """A line, circle or polygon primitive in the current pen."""
+        pdf = self.pdf
+        if isinstance(p, LinePrim):
+            pdf.polyline(list(p.points_mm), polygon=p.closed, style="D")
+        elif isinstance(p, CirclePrim):
+            pdf.circle(p.centre_mm[0], p.centre_mm[1], p.radius_mm, style="DF" if filled else "D")
+        else:
+            pdf.polygon(list(p.points_mm), style="DF" if filled else "D")
 
     def plan_view(self, box: tuple[float, float, float, float]) -> None:
-        prims = _threshold_labels_outside(self.layout.plan_view, scene_to_primitives(self.layout.plan_view, box),
-                                          self.pdf, self.width_of)
+        prims = _place_labels(self, scene_to_primitives(self.layout.plan_view, box))
         x, y, w, h = box
-        with self.pdf.rect_clip(x, y, w, h):
+        # local_context around the clip: the PDF's state returns to the outside one at the end of
+        # the clip, and so must fpdf's record of it (pen and font)
+        with self.pdf.local_context(), self.pdf.rect_clip(x, y, w, h):
             for p in prims:
                 self.primitive(p)
+        self._font = None
 
     def side_view(self, sv: SideView, box: tuple[float, float, float, float]) -> None:
         """Abeam the threshold, looking along the runway: the runway at the left, the aircraft at
@@ -440,39 +435,37 @@ class _Card:
         def at(d_nm: float, h_ft: float) -> tuple[float, float]:
             return (xg + d_nm * sx, yg - h_ft * sy)
 
-        with pdf.local_context(line_width=0.2):
-            pdf.rect(x, y, w, h, style="D")
+        self.pen(0.2)
+        pdf.rect(x, y, w, h, style="D")
         size = 5.6
-        with pdf.local_context(line_width=0.35):
-            pdf.line(x, yg, x + w, yg)                              # the ground
-        with pdf.local_context(fill_color=0):
-            pdf.rect(xg - 1.2, yg - 0.7, 2.4, 0.7, style="F")       # the runway, end on
+        self.pen(0.35, fill=0.0)
+        pdf.line(x, yg, x + w, yg)                                  # the ground
+        pdf.rect(xg - 1.2, yg - 0.7, 2.4, 0.7, style="F")           # the runway, end on
         self.font("", size)
         self.text_at(xg - 1.5, yg + 0.4, "RWY", size)
         hc = sv.circling_height_ft
-        with pdf.local_context(line_width=0.2, draw_color=_grey(0.4), stroke_cap_style="ROUND"):
-            pdf.set_dash_pattern(dash=0.1, gap=0.8)
-            pdf.line(xg, at(0, hc)[1], x + w - 1, at(0, hc)[1])     # circling height
+        self.pen(0.2, 0.4, dash=(0.1, 0.8))
+        with pdf.local_context(stroke_cap_style="ROUND"):
+            pdf.line(xg, at(0, hc)[1], x + w - 1, at(0, hc)[1])     # circling height (dotted)
         self.text_at(xg + 3.0, at(0, hc)[1] - self.lh(size) - 0.2, f"{hc:.0f} ft", size)
         p = at(sv.planned_offset_nm, hc)
         t = at(sv.familiar_offset_at_circling_nm, hc)
         u = at(sv.familiar_offset_nm, sv.familiar_height_ft)
         far = u if sv.familiar_offset_nm >= sv.familiar_offset_at_circling_nm else t
-        with pdf.local_context(line_width=0.4, draw_color=_grey(0.3)):
-            pdf.set_dash_pattern(dash=1.2, gap=0.8)
-            pdf.line(xg, yg, far[0], far[1])                        # the usual picture's sight line
-        with pdf.local_context(line_width=0.5):
-            pdf.line(xg, yg, p[0], p[1])                            # the planned sight line
-        with pdf.local_context(fill_color=0, line_width=0.3):
-            pdf.circle(p[0], p[1], 0.9, style="DF")                 # you, as planned
-        with pdf.local_context(fill_color=255, line_width=0.3):
-            pdf.circle(t[0], t[1], 0.9, style="DF")                 # the trap
-            pdf.rect(u[0] - 0.8, u[1] - 0.8, 1.6, 1.6, style="DF")  # the usual pattern
+        self.pen(0.4, 0.3, dash=(1.2, 0.8))
+        pdf.line(xg, yg, far[0], far[1])                            # the usual picture's sight line
+        self.pen(0.5)
+        pdf.line(xg, yg, p[0], p[1])                                # the planned sight line
+        self.pen(0.3, fill=0.0)
+        pdf.circle(p[0], p[1], 0.9, style="DF")                     # you, as planned
+        self.pen(0.3, fill=1.0)
+        pdf.circle(t[0], t[1], 0.9, style="DF")                     # the trap
+        pdf.rect(u[0] - 0.8, u[1] - 0.8, 1.6, 1.6, style="DF")      # the usual pattern
         self.text_at(p[0] - 2.0, p[1] + 1.2, "plan", size)
         self.text_at(t[0] - 1.5, t[1] + 1.2, "trap", size)
         lab = f"usual {sv.familiar_height_ft:.0f} ft"
         self.font("", size)
-        tw = pdf.get_string_width(lab)
+        tw = self.width_of(lab)
         self.text_at(max(x + 1.0, u[0] - tw - 1.5), u[1] - self.lh(size) / 2, lab, size)
         exaggeration = sy / (sx / NM_TO_FT)
         self.text_at(x, y + h - self.lh(size) - 0.3, f"heights x{exaggeration:.0f}", size, align="R", width=w - 1.0)
@@ -495,12 +488,12 @@ class _Card:
                 self.font("B", ts)
                 box = (self.x0, y + 0.15, tag_w - 1.5, lh - 0.1)
                 if wl.severity == "danger":
-                    with self.pdf.local_context(fill_color=0):
-                        self.pdf.rect(*box, style="F")
+                    self.pen(fill=0.0)
+                    self.pdf.rect(*box, style="F")
                     self.pdf.set_text_color(255)
                 elif wl.severity == "warning":
-                    with self.pdf.local_context(line_width=0.3):
-                        self.pdf.rect(*box, style="D")
+                    self.pen(0.3)
+                    self.pdf.rect(*box, style="D")
                 self.text_at(self.x0 + 0.6, y + 0.15 + (lh - self.lh(ts)) / 2, tag, ts)
                 self.pdf.set_text_color(0)
                 self.font("", size)
@@ -525,8 +518,8 @@ class _Card:
         h = pad + self.lh(SECTION_PT) + sum(len(b) for b in blocks) * lh + pad - 0.4
         if not self.draw:
             return h
-        with self.pdf.local_context(line_width=0.7, fill_color=_grey(0.93)):
-            self.pdf.rect(self.x0, y, self.w, h, style="DF")
+        self.pen(0.7, fill=0.93)
+        self.pdf.rect(self.x0, y, self.w, h, style="DF")
         self.font("B", SECTION_PT)
         self.text_at(self.x0 + pad, y + pad - 0.2, "CAUTIONS", SECTION_PT)
         yy = y + pad + self.lh(SECTION_PT) - 0.2
@@ -573,28 +566,67 @@ class _Card:
         return self.warnings(y, warn_limit)
 
 
-def _threshold_labels_outside(scene: Scene, prims: list[Any], pdf: Any, width_of: Any) -> list[Any]:
-    """Move each runway designator from the middle of its threshold to just beyond the runway's
-    end, along the runway, so that it neither hides the runway nor is hidden by it."""
+Box = tuple[float, float, float, float]   # x0, y0, x1, y1 in page mm
+
+
+def _text_box(p: Any, width: float) -> Box:
+    """The page box a TextPrim covers (from its anchor and baseline)."""
+    x = p.point_mm[0] - {"start": 0.0, "middle": width / 2, "end": width}[p.anchor]
+    return (x, p.point_mm[1] - p.size_mm * 0.74, x + width, p.point_mm[1] + p.size_mm * 0.18)
+
+
+def _overlap(a: Box, b: Box) -> bool:
+    return a[0] < b[2] and b[0] < a[2] and a[1] < b[3] and b[1] < a[3]
+
+
+def _place_labels(card: _Card, prims: list[Any]) -> list[Any]:
+    """Move the plan view's text off the drawing's key lines and off other text.
+
+    A runway designator goes just beyond its runway's end, along the runway (not on the runway,
+    where it would hide it); a marker's label tries up-right, up-left, down-right, down-left of
+    the marker. The first place free of the text already placed wins; if none is, the first.
+    The geometry itself is `scene_to_primitives`'s; only where the words sit changes.
+    """
+    scene, pdf = card.layout.plan_view, card.pdf
     ends: list[tuple[tuple[float, float], tuple[float, float]]] = []
     for p in prims:
         if isinstance(p, LinePrim) and p.style == Role.RUNWAY.value and len(p.points_mm) == 2:
             a, b = p.points_mm
             ends += [(a, b), (b, a)]
+    placed: list[Box] = []
     out = []
     for p in prims:
-        if isinstance(p, TextPrim) and p.item is not None and isinstance(scene.items[p.item], Label):
-            x, y = p.point_mm[0], p.point_mm[1] - p.size_mm * 0.35      # the point the label is centred on
+        if not (isinstance(p, TextPrim) and p.item is not None):
+            out.append(p)
+            continue
+        item = scene.items[p.item]
+        card.font("", p.size_mm * pdf.k)
+        tw = card.width_of(_t(p.text))
+        size = p.size_mm
+        candidates = [p]
+        if isinstance(item, Label):
+            x, y = p.point_mm[0], p.point_mm[1] - size * 0.35      # the point the label is centred on
             for (ex, ey), (ox, oy) in ends:
                 length = math.hypot(ex - ox, ey - oy)
                 if length > 0 and math.hypot(ex - x, ey - y) < 0.3:
                     ux, uy = (ex - ox) / length, (ey - oy) / length
-                    pdf.set_font(FONT, "", p.size_mm * pdf.k)
-                    half_w, half_h = width_of(_t(p.text)) / 2, p.size_mm * 0.4
-                    reach = 1.0 + min(half_w / max(abs(ux), 1e-9), half_h / max(abs(uy), 1e-9))
-                    p = replace(p, point_mm=(ex + ux * reach, ey + uy * reach + p.size_mm * 0.35))
+                    reach = 1.0 + min(tw / 2 / max(abs(ux), 1e-9), size * 0.4 / max(abs(uy), 1e-9))
+                    candidates = [replace(p, point_mm=(ex + ux * r + px * side, ey + uy * r + py * side + size * 0.35))
+                                  for r, px, py, side in ((reach, 0, 0, 0), (reach + size, 0, 0, 0),
+                                                          (reach, -uy, ux, size), (reach, uy, -ux, size))]
                     break
-        out.append(p)
+        elif isinstance(item, Marker):
+            # the marker's centre (scene_to_primitives puts its label up and to the right of it)
+            mx, my = p.point_mm[0] - MARKER_SIZE_MM * 0.7, p.point_mm[1] + MARKER_SIZE_MM * 0.3
+            dx, up, down = MARKER_SIZE_MM * 0.7, -MARKER_SIZE_MM * 0.3, MARKER_SIZE_MM * 0.3 + size * 0.8
+            candidates = [replace(p, point_mm=(mx + dx, my + up)),
+                          replace(p, point_mm=(mx - dx, my + up), anchor="end"),
+                          replace(p, point_mm=(mx + dx, my + down)),
+                          replace(p, point_mm=(mx - dx, my + down), anchor="end")]
+        choice = next((c for c in candidates if not any(_overlap(_text_box(c, tw), q) for q in placed)),
+                      candidates[0])
+        placed.append(_text_box(choice, tw))
+        out.append(choice)
     return out
 
 
