@@ -113,12 +113,12 @@ def grading_tolerances(brief: Any) -> tuple[Tolerance, ...]:
     m, pf, a = brief.minimums, brief.performance, brief.area
     out = []
     if m.mda_ft is not None:
-        out.append(Tolerance(item="Altitude in the circle",
+        out.append(Tolerance(item="Altitude",
                              band=f"{m.mda_ft:.0f} to {m.mda_ft + ALTITUDE_ABOVE_MDA_FT:.0f} ft "
                                   f"(MDA -0/+{ALTITUDE_ABOVE_MDA_FT:.0f}); never below the MDA until in a position "
                                   "to land", source=TOLERANCE_SOURCE))
         if m.cold is not None:
-            out.append(Tolerance(item="Altitude, cold corrected",
+            out.append(Tolerance(item="Cold alt",
                                  band=f"{m.cold.corrected_mda_ft:.0f} to "
                                       f"{m.cold.corrected_mda_ft + ALTITUDE_ABOVE_MDA_FT:.0f} ft",
                                  source=TOLERANCE_SOURCE))

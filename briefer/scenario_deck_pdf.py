@@ -1,0 +1,299 @@
+"""The instructor deck as one PDF: per scenario a student page, then its answer page.
+
+Drawn with the kneeboard card's own pieces (briefer.render.pdf and briefer.render.card_layout),
+so the deck and the card print the same numbers the same way:
+
+* the answer page IS the card (`card_layout(brief)` drawn by the card's painter), titled
+  "ANSWER n/N", followed by three more sections in the card's style: the sight-picture trap in
+  large figures, why the case exercises its emphasis, and the grading tolerances;
+* the student page uses the card's header, section bars and rows, and its plan view of the chart
+  (runways, obstacles, not-authorised sectors, the final approach course; no protected area and no
+  plan, which are answers), drawn by `scene_to_primitives` like every plan view.
+
+The document's creation date is fixed, so the same deck gives the same bytes.
+
+The card's painter (`briefer.render.pdf._Card`) is private to that module; this module subclasses
+it to add the answer sections. If the card's module grows a public hook for extra sections, use
+that instead.
+"""
+
+from __future__ import annotations
+
+from dataclasses import replace
+from typing import Any
+
+import numpy as np
+
+from briefer.render import pdf as card_pdf
+from briefer.render.card_layout import CardLayout, Figure, Row, Section, card_layout, num
+from briefer.render.scene import Bounds, Label, Marker, Polygon, Polyline, Role, Scene
+from briefer.scenario_deck import (
+    EMPHASIS_PROMPTS,
+    PRACTICE_LINE,
+    WHAT_TO_BRIEF,
+    Deck,
+    DeckCase,
+    grading_tolerances,
+)
+from briefer.scenarios import EMPHASIS_TITLES
+
+DECK_PAGE_SIZES_MM: dict[str, tuple[float, float]] = {
+    "letter": (215.9, 279.4),
+    "a4": (210.0, 297.0),
+    "half-letter": card_pdf.PAGE_SIZES_MM["half-letter"],
+    "a5": card_pdf.PAGE_SIZES_MM["a5"],
+}
+REPORT_PT = 11.0
+NOTE_LINES = 6
+
+
+# --------------------------------------------------------------------------------------------
+# The answer page: the card, then the trap, why, and the tolerances
+# --------------------------------------------------------------------------------------------
+def answer_sections(case: DeckCase) -> tuple[Section, ...]:
+    """The sections the answer page adds below the card."""
+    b = case.brief
+    s = b.sight_picture
+    if s.familiar_possible and s.familiar_bank_required_deg is not None:
+        need = Figure(label="IT NEEDS", value=num(s.familiar_bank_required_deg, ".0f", "°"),
+                      note=("BEYOND THE LIMIT" if s.familiar_exceeds_bank_limit else f"limit "
+                            f"{b.performance.bank_limit_deg:.0f}°") + f", {num(s.familiar_load_factor, '.2f', ' g')}")
+    else:
+        need = Figure(label="IT NEEDS", value="NO BANK", note="the wing stalls first")
+    trap = Section(key="trap", title="THE SIGHT-PICTURE TRAP", figures=(
+        Figure(label="USUAL PICTURE", value=num(s.familiar_depression_deg, ".1f", "°"),
+               note=f"{s.familiar_height_ft:.0f} ft, {s.familiar_offset_nm:.2f} NM out"),
+        Figure(label="AT CIRCLING HEIGHT", value=num(s.familiar_offset_at_circling_nm, ".2f", " NM"),
+               note=f"out, at {s.circling_height_ft:.0f} ft (plan {s.planned_offset_nm:.2f} NM)"),
+        need,
+        Figure(label="OR OVERSHOOT", value=num(s.overshoot_nm, ".2f", " NM"), note="holding the planned bank"),
+    ))
+    why_rows = tuple(Row(label="Why" if i == 0 else "", text=t) for i, t in enumerate(case.checks))
+    why = Section(key="why", title=f"WHY THIS CASE: {EMPHASIS_TITLES[case.scenario.emphasis].upper()}",
+                  rows=why_rows or (Row(label="Notes", text=case.scenario.notes or "-"),))
+    tol = grading_tolerances(b)
+    grading = Section(key="grading", title="GRADING TOLERANCES",
+                      status=f"altitude, airspeed and bank bands: {tol[0].source}",
+                      rows=tuple(Row(label=t.item, text=t.band + ("" if "common practice" in t.source
+                                                                 else f" ({t.source})")) for t in tol))
+    return (trap, why, grading)
+
+
+class _AnswerCard(card_pdf._Card):
+    """The card's painter, with the answer sections after the card's own."""
+
+    extra: tuple[Section, ...] = ()
+
+    def run(self, plan_h: float, warn_limit: int | None = None) -> float:
+        y = super().run(plan_h, warn_limit)
+        for sec in self.extra:
+            y = self.section(y, sec)
+        return y
+
+
+def _fit_answer(pdf: Any, layout: CardLayout, extra: tuple[Section, ...], page_w: float, page_h: float,
+                widths: dict) -> tuple[float, float, int | None]:
+    """The card's own fitting (largest print and plan view that fit), with the extra sections."""
+
+    def card(scale: float) -> _AnswerCard:
+        c = _AnswerCard(pdf, layout, page_w, page_h, scale, widths)
+        c.extra = extra
+        return c
+
+    for sc in card_pdf.SCALES:
+        c = card(sc)
+        spare, used = card_pdf._spare(c, card_pdf.PLAN_MIN_MM)
+        if spare >= 0:
+            return sc, min(used + spare, c.w * (1 - card_pdf.RIGHT_COLUMN)), None
+    c = card(card_pdf.MIN_SCALE)
+    for lim in [None, *range(len(layout.warnings) - 1, -1, -1)]:
+        spare, used = card_pdf._spare(c, card_pdf.PLAN_FLOOR_MM, lim)
+        if spare >= 0:
+            return card_pdf.MIN_SCALE, used + spare, lim
+    return card_pdf.MIN_SCALE, card_pdf.PLAN_FLOOR_MM, 0
+
+
+def _answer_page(pdf: Any, case: DeckCase, index: int, total: int, page_w: float, page_h: float,
+                 widths: dict) -> None:
+    layout = replace(card_layout(case.brief), title=f"ANSWER {index}/{total}",
+                     briefed=f"scenario seed {case.scenario.seed}" if case.scenario.seed is not None else "scenario")
+    extra = answer_sections(case)
+    scale, plan_h, limit = _fit_answer(pdf, layout, extra, page_w, page_h, widths)
+    c = _AnswerCard(pdf, layout, page_w, page_h, scale, widths)
+    c.extra = extra
+    c.draw = True
+    pdf.set_text_color(0)
+    pdf.set_draw_color(0)
+    c.run(plan_h, limit)
+    c.cautions(c.cautions_top())
+    c.footer()
+
+
+# --------------------------------------------------------------------------------------------
+# The student page
+# --------------------------------------------------------------------------------------------
+def _xy(arr: Any) -> list[tuple[float, float]]:
+    a = np.asarray(arr, dtype=float).reshape(-1, 2)
+    a = a[np.all(np.isfinite(a), axis=1)]
+    return [(float(x), float(y)) for x, y in a]
+
+
+def chart_scene(case: DeckCase) -> Scene:
+    """What the student's chart shows: runways with designators, obstacles with elevations, the
+    not-authorised sectors and the final approach course; framed like the answer's plan view, but
+    without the protected area or any plan."""
+    from briefer.core import geometry
+
+    b = case.brief
+    req = case.loaded.request
+    af, appr = req.airfield, req.selected_approach()
+    items: list[Any] = []
+    for poly in b.area.sectors_xy_m:
+        p = _xy(poly)
+        if len(p) >= 3:
+            items.append(Polygon(points=p, role=Role.EXCLUDED_SECTOR, filled=True))
+    frame = geometry.LocalFrame(lat0_deg=af.reference_point.lat_deg, lon0_deg=af.reference_point.lon_deg)
+    faf = frame.to_local(appr.faf.lat_deg, appr.faf.lon_deg)
+    mapt = frame.to_local(appr.map_fix.lat_deg, appr.map_fix.lon_deg)
+    items.append(Polyline(points=(tuple(map(float, faf)), tuple(map(float, mapt))), role=Role.FINAL_APPROACH))
+    for ob in b.obstacles:
+        items.append(Marker(point=_xy(ob.xy_m)[0], role=Role.OBSTACLE, label=f"{ob.elevation_ft:.0f}"))
+    for rw in b.runways:
+        a_xy, b_xy = _xy(rw.a_xy_m)[0], _xy(rw.b_xy_m)[0]
+        items.append(Polyline(points=(a_xy, b_xy), role=Role.RUNWAY))
+        des_a, des_b = rw.designator.split("/")
+        items.append(Label(point=a_xy, text=des_a))
+        items.append(Label(point=b_xy, text=des_b))
+    pts = np.asarray(b.area.boundary_xy_m, dtype=float).reshape(-1, 2)
+    (x0, y0), (x1, y1) = pts.min(axis=0), pts.max(axis=0)
+    cx, cy, hx, hy = (x0 + x1) / 2, (y0 + y1) / 2, (x1 - x0) / 2 * 1.08, (y1 - y0) / 2 * 1.08
+    return Scene(items=tuple(items), bounds=Bounds(cx - hx, cy - hy, cx + hx, cy + hy))
+
+
+def _chart_rows(case: DeckCase) -> tuple[Row, ...]:
+    req = case.loaded.request
+    af, appr = req.airfield, req.selected_approach()
+    rows = [Row(label="Approach", text=(f"{appr.name}: final course {appr.final_course_deg_mag:03.0f}° M, FAF "
+                                        f"{appr.faf.name} at {appr.faf.altitude_ft:.0f} ft, MAP {appr.map_fix.name}; "
+                                        f"criteria {appr.criteria}"))]
+    lines = []
+    for m in appr.circling:
+        if m.not_authorised:
+            lines.append(f"{m.category}: NA")
+        else:
+            v = f"{m.visibility_sm:g} SM" if m.visibility_sm is not None else f"{m.visibility_m:.0f} m"
+            lines.append(f"{m.category}: {m.mda_ft:.0f} ft / {v}")
+    rows.append(Row(label="Circling", text="; ".join(lines)))
+    for s in appr.not_authorised_sectors:
+        where = (f"from threshold {s.threshold}, {s.from_deg_mag:03.0f}°-{s.to_deg_mag:03.0f}° M"
+                 if s.kind == "bearings" else f"{s.side} of runway {s.runway}")
+        rows.append(Row(label="Sector", text=f"circling not authorised {where}"))
+    if appr.missed_approach:
+        rows.append(Row(label="Missed appr", text=appr.missed_approach))
+    rows.append(Row(label="Elevation", text=(f"airfield {af.elevation_ft:.0f} ft; magnetic variation "
+                                             f"{abs(af.magnetic_variation_deg):.1f}° "
+                                             f"{'E' if af.magnetic_variation_deg >= 0 else 'W'}")))
+    return tuple(rows)
+
+
+def _aircraft_rows(case: DeckCase) -> tuple[Row, ...]:
+    req = case.loaded.request
+    prof, cfg = req.profile, req.selected_configuration()
+    f = prof.weight_speed_factor(req.landing_weight_lb)
+    wa, fp = prof.wind_additive, prof.familiar_pattern
+    usual = (f"{fp.height_ft:.0f} ft, downwind {fp.offset_nm:.2f} NM out" if fp.offset_nm is not None else
+             f"{fp.height_ft:.0f} ft, a continuous 180° turn at {fp.speed_kt:.0f} kt and {fp.bank_deg:.0f}° bank")
+    return (
+        Row(label="Aircraft", text=prof.name),   # not the description: it may give the category away
+        Row(label="Weight", text=f"{req.landing_weight_lb:.0f} lb (maximum landing {prof.max_landing_weight_lb:.0f} lb)"),
+        Row(label="Speeds", text=(f"{cfg.name}: VREF {cfg.vref_kt * f:.0f} kt, circling {cfg.circling_speed_kt * f:.0f} kt "
+                                  f"at this weight; category speed {prof.approach_category_speed_kt():.0f} kt")),
+        Row(label="Wind additive", text=(f"{wa.headwind_fraction:g} x headwind + {wa.gust_fraction:g} x gust increment, "
+                                         f"{wa.min_kt:.0f} to {wa.max_kt:.0f} kt")),
+        Row(label="Bank", text=f"target {cfg.bank_target_deg:.0f}°, limit {cfg.bank_limit_deg:.0f}°"),
+        Row(label="Usual pattern", text=usual),
+    )
+
+
+def _student_page(pdf: Any, case: DeckCase, index: int, total: int, page_w: float, page_h: float,
+                  widths: dict) -> None:
+    sc = case.scenario
+    layout = replace(card_layout(case.brief), title=f"STUDENT PAGE {index}/{total}",
+                     briefed=f"emphasis: {EMPHASIS_TITLES[sc.emphasis]}", plan_view=chart_scene(case))
+    c = card_pdf._Card(pdf, layout, page_w, page_h, 1.0, widths)
+    c.draw = True
+    pdf.set_text_color(0)
+    pdf.set_draw_color(0)
+    y = c.header(card_pdf.MARGIN_MM)
+    y = c.paragraph(c.x0, y, c.w, sc.title, "B", card_pdf.SUBTITLE_PT) + y + 0.6
+    # the weather report, large and in a fixed-pitch face, as a report is read
+    y = c.bar(c.x0, y, c.w, "WEATHER REPORT")
+    saved = (pdf.font_family, pdf.font_style, pdf.font_size_pt)   # the painter remembers its font
+    pdf.set_font("Courier", "B", REPORT_PT)
+    report = card_pdf._t(sc.weather.report or "(no report: values only)")
+    words, line, lines = report.split(" "), "", []
+    for w in words:
+        cand = f"{line} {w}".strip()
+        if pdf.get_string_width(cand) > c.w - 2.0 and line:
+            lines.append(line)
+            line = w
+        else:
+            line = cand
+    lines.append(line)
+    lh = REPORT_PT / pdf.k * card_pdf.LINE_SPACING
+    for i, ln in enumerate(lines):
+        pdf.text(c.x0 + 1.0, y + (i + 0.8) * lh, ln)
+    pdf.set_font(*saved)
+    y += len(lines) * lh + 1.5
+    # the chart: the plan view beside the approach's own data
+    y = c.bar(c.x0, y, c.w, "THE CHART (invented)")
+    plan_w = c.w * 0.5 - card_pdf.GAP_MM
+    plan_h = min(plan_w, page_h * 0.33)
+    c.plan_view((c.x0, y, plan_w, plan_h))
+    rx = c.x0 + plan_w + card_pdf.GAP_MM
+    ry = c.rows(y, _chart_rows(case), x=rx, width=c.w - plan_w - card_pdf.GAP_MM, label_w=16.0)
+    y = max(y + plan_h, ry) + 1.0
+    y = c.bar(c.x0, y, c.w, "THE AIRCRAFT")
+    y = c.rows(y, _aircraft_rows(case), label_w=22.0)
+    y = c.bar(c.x0, y, c.w, "BRIEF THE CIRCLE")
+    items = WHAT_TO_BRIEF + EMPHASIS_PROMPTS.get(sc.emphasis, ())
+    y = c.rows(y, tuple(Row(label=f"{i}.", text=t) for i, t in enumerate(items, 1)), label_w=5.0)
+    # room for notes, down to the cautions
+    bottom = c.cautions_top() - card_pdf.GAP_MM
+    y = c.bar(c.x0, y, c.w, "NOTES")
+    step = max(6.0, (bottom - y) / (NOTE_LINES + 1))
+    with pdf.local_context(line_width=0.15, draw_color=170):
+        yy = y + step
+        while yy < bottom - 1.0:
+            pdf.line(c.x0, yy, c.x0 + c.w, yy)
+            yy += step
+    c.cautions(c.cautions_top())
+    c.footer()
+
+
+# --------------------------------------------------------------------------------------------
+# The document
+# --------------------------------------------------------------------------------------------
+def deck_pdf_bytes(deck: Deck, *, page: str = "letter") -> bytes:
+    """Student page then answer page for every case; fixed metadata, so reproducible."""
+    from fpdf import FPDF   # imported only when a PDF is made
+
+    page_w, page_h = DECK_PAGE_SIZES_MM[page]
+    pdf = FPDF(orientation="P", unit="mm", format=(page_w, page_h))
+    pdf.set_auto_page_break(False)
+    pdf.set_margins(card_pdf.MARGIN_MM, card_pdf.MARGIN_MM, card_pdf.MARGIN_MM)
+    pdf.set_creation_date(card_pdf.FIXED_DATE)
+    pdf.set_title(card_pdf._t(f"briefer practice deck, seed {deck.seed}, {len(deck.cases)} scenarios"))
+    pdf.set_subject(card_pdf._t(PRACTICE_LINE))
+    pdf.set_creator("briefer")
+    widths: dict = {}
+    total = len(deck.cases)
+    for i, case in enumerate(deck.cases, 1):
+        pdf.add_page()
+        _student_page(pdf, case, i, total, page_w, page_h, widths)
+        pdf.add_page()
+        _answer_page(pdf, case, i, total, page_w, page_h, widths)
+    return bytes(pdf.output())
+
+
+__all__ = ["DECK_PAGE_SIZES_MM", "answer_sections", "chart_scene", "deck_pdf_bytes"]
