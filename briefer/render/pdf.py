@@ -24,7 +24,7 @@ from __future__ import annotations
 
 import datetime as dt
 import math
-from dataclasses import replace
+from dataclasses import dataclass, replace
 from typing import Any
 
 from briefer.errors import BriefingError
@@ -71,6 +71,8 @@ PLAN_MIN_MM = 50.0
 """The plan view is not made smaller than this while the small print can still shrink."""
 PLAN_FLOOR_MM = 38.0
 SIDE_VIEW_H_MM = 24.0
+SIDE_VIEW_STEPS_MM = (SIDE_VIEW_H_MM, 20.0, 16.0)
+"""Heights the side view may take when the page is tight, largest first."""
 LINE_SPACING = 1.2
 RIGHT_COLUMN = 0.5
 """Share of the width taken by the sight picture and the legend, beside the plan view."""
@@ -119,7 +121,7 @@ class _Card:
     """Draws (or, with `draw=False`, only measures) the card's blocks at one scale of small print."""
 
     def __init__(self, pdf: Any, layout: CardLayout, page_w: float, page_h: float, scale: float,
-                 widths: dict[tuple[str, float, str], float] | None = None) -> None:
+                 widths: dict[tuple[str, float, str], float] | None = None, side_h: float = SIDE_VIEW_H_MM) -> None:
         self.pdf = pdf
         self.layout = layout
         self.page_w, self.page_h = page_w, page_h
@@ -128,6 +130,7 @@ class _Card:
         self.w = page_w - 2 * MARGIN_MM
         self.draw = False
         self.plan_h_used = 0.0
+        self.side_h = side_h
         self._font: tuple[str, float] | None = None
         self._widths: dict[tuple[str, float, str], float] = widths if widths is not None else {}
 
@@ -333,8 +336,8 @@ class _Card:
         x = self.x0 + self.w - w
         y = self.bar(x, y, w, "SIGHT PICTURE, abeam the threshold")
         if self.draw:
-            self.side_view(sv, (x, y, w, SIDE_VIEW_H_MM))
-        y += SIDE_VIEW_H_MM + 0.8
+            self.side_view(sv, (x, y, w, self.side_h))
+        y += self.side_h + 0.8
         label_w = 15.0
         return self.rows(y, self.layout.side_view.rows, x=x, width=w, label_w=label_w, sample_rows=(0, 1))
 
@@ -640,22 +643,36 @@ def _spare(card: _Card, plan_h: float, warn_limit: int | None = None) -> tuple[f
         card.draw = draw
 
 
+@dataclass(frozen=True, slots=True)
+class _Fit:
+    """How the page is filled: scale of the small print, least plan-view height [mm], side-view
+    height [mm], and how many warnings are shown (None: all)."""
+
+    scale: float
+    plan_h: float
+    side_h: float = SIDE_VIEW_H_MM
+    limit: int | None = None
+
+
 def _fit(pdf: Any, layout: CardLayout, page_w: float, page_h: float,
-         widths: dict[tuple[str, float, str], float]) -> tuple[float, float, int | None]:
-    """(scale of the small print, plan view height, how many warnings to show or None for all):
-    the largest print and plan view that fit. At the smallest print the plan view gives way, and
-    only past its floor are warnings left off (a line then says how many)."""
+         widths: dict[tuple[str, float, str], float]) -> _Fit:
+    """The largest print and plan view that fit. At the smallest print the plan view gives way to
+    its floor, then the side view shrinks; only then are warnings left off (a line says how many)."""
     for sc in SCALES:
         card = _Card(pdf, layout, page_w, page_h, sc, widths)
         spare, used = _spare(card, PLAN_MIN_MM)
         if spare >= 0:
-            return sc, min(used + spare, card.w * (1 - RIGHT_COLUMN)), None
-    card = _Card(pdf, layout, page_w, page_h, MIN_SCALE, widths)
-    for lim in [None, *range(len(layout.warnings) - 1, -1, -1)]:
+            return _Fit(sc, min(used + spare, card.w * (1 - RIGHT_COLUMN)))
+    for side_h in SIDE_VIEW_STEPS_MM:
+        card = _Card(pdf, layout, page_w, page_h, MIN_SCALE, widths, side_h=side_h)
+        spare, used = _spare(card, PLAN_FLOOR_MM)
+        if spare >= 0:
+            return _Fit(MIN_SCALE, used + spare, side_h)
+    for lim in range(len(layout.warnings) - 1, -1, -1):
         spare, used = _spare(card, PLAN_FLOOR_MM, lim)
         if spare >= 0:
-            return MIN_SCALE, used + spare, lim
-    return MIN_SCALE, PLAN_FLOOR_MM, 0
+            return _Fit(MIN_SCALE, used + spare, SIDE_VIEW_STEPS_MM[-1], lim)
+    return _Fit(MIN_SCALE, PLAN_FLOOR_MM, SIDE_VIEW_STEPS_MM[-1], 0)
 
 
 def layout_pdf_bytes(layout: CardLayout, *, page: str = "half-letter") -> bytes:
@@ -673,12 +690,12 @@ def layout_pdf_bytes(layout: CardLayout, *, page: str = "half-letter") -> bytes:
     pdf.add_page()
     widths: dict[tuple[str, float, str], float] = {}
 
-    scale, plan_h, limit = _fit(pdf, layout, page_w, page_h, widths)
-    card = _Card(pdf, layout, page_w, page_h, scale, widths)
+    fit = _fit(pdf, layout, page_w, page_h, widths)
+    card = _Card(pdf, layout, page_w, page_h, fit.scale, widths, side_h=fit.side_h)
     card.draw = True
     pdf.set_text_color(0)
     pdf.set_draw_color(0)
-    card.run(plan_h, limit)
+    card.run(fit.plan_h, fit.limit)
     card.cautions(card.cautions_top())
     card.footer()
     return bytes(pdf.output())
