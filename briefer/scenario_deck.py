@@ -299,17 +299,28 @@ def deck_pdf_bytes(deck: Deck, *, page: str = "letter") -> bytes:
     return _pdf(deck, page=page)
 
 
-def write_deck(path: str | PathLike[str], deck: Deck, *, page: str = "letter", overwrite: bool = False) -> Path:
-    """Write the deck PDF atomically (refuses to overwrite unless asked)."""
+def check_deck_target(path: str | PathLike[str], *, page: str = "letter", overwrite: bool = False) -> Path:
+    """The deck's file, checked before the work of making it: a .pdf name, a known page size, and
+    no existing file unless `overwrite`."""
     import os
 
-    from briefer.io.atomic import FileWriteError, write_bytes_atomic
+    from briefer.io.atomic import FileWriteError
 
     target = Path(os.path.expanduser(os.fspath(path)))
     if target.suffix.lower() != ".pdf":
         raise BriefingError(f"cannot write {path}: a deck is a PDF; name it .pdf")
+    if page not in DECK_PAGES:
+        raise BriefingError(f"unknown page size {page!r}; expected one of {', '.join(DECK_PAGES)}")
     if not overwrite and os.path.lexists(target) and not target.is_dir():
         raise FileWriteError(target, "the file already exists; not overwritten (overwrite it with --force)")
+    return target
+
+
+def write_deck(path: str | PathLike[str], deck: Deck, *, page: str = "letter", overwrite: bool = False) -> Path:
+    """Write the deck PDF atomically (refuses to overwrite unless asked)."""
+    from briefer.io.atomic import write_bytes_atomic
+
+    target = check_deck_target(path, page=page, overwrite=overwrite)
     return write_bytes_atomic(target, deck_pdf_bytes(deck, page=page), overwrite=overwrite)
 
 
@@ -321,6 +332,7 @@ __all__ = [
     "WHAT_TO_BRIEF",
     "answer_text",
     "build_deck",
+    "check_deck_target",
     "deck_pdf_bytes",
     "grading_tolerances",
     "student_text",

@@ -119,12 +119,17 @@ def _print_case(generated_or_loaded: Any, brief: Any, *, checks: tuple[str, ...]
 
 
 def _new(args: argparse.Namespace) -> int:
+    import os
     from pathlib import Path
 
     from briefer.io import catalog
     from briefer.scenario_generate import generate_scenario, new_seed
     from briefer.scenarios import reference_for, scenario_yaml, write_scenario
 
+    if args.out and not args.force and os.path.lexists(args.out):
+        from briefer.io.atomic import FileWriteError
+
+        raise FileWriteError(args.out, "the file already exists (not overwritten; overwrite it with --force)")
     airfield = catalog.find_airfield(args.airfield, dirs=args.airfield_dir)
     profile = catalog.find_profile(args.profile, dirs=args.profile_dir)
     seed = args.seed if args.seed is not None else new_seed()
@@ -167,9 +172,10 @@ def _show(args: argparse.Namespace) -> int:
 
 
 def _deck(args: argparse.Namespace) -> int:
-    from briefer.scenario_deck import build_deck, write_deck
+    from briefer.scenario_deck import build_deck, check_deck_target, write_deck
     from briefer.scenario_generate import new_seed
 
+    check_deck_target(args.out, page=args.page, overwrite=args.force)   # before the work
     seed = args.seed if args.seed is not None else new_seed()
     deck = build_deck(count=args.count, airfields=args.airfield, profiles=args.profile, emphases=args.emphasis,
                       seed=seed, profile_dirs=args.profile_dir, airfield_dirs=args.airfield_dir)
