@@ -63,6 +63,7 @@ from briefer.core.maneuver_ranking import (
     rank_plans,
 )
 from briefer.core.maneuver_solver import (
+    DOWNWIND_SHAPES,
     SHAPES,
     SIDES,
     CircleInputs,
@@ -72,12 +73,12 @@ from briefer.core.maneuver_solver import (
 )
 
 __all__ = [
-    "CALM", "DOES_NOT_FIT", "FITS", "MARGINAL", "MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION", "MARGINAL_BANK_DEG",
-    "MARGINAL_VISIBILITY_FRACTION", "REASON_AREA", "REASON_BANK", "REASON_VISIBILITY", "REASON_WIND", "SHAPES",
-    "SIDES", "CircleInputs", "DescentGeometry", "Envelope", "LeaveMda", "Leg", "MarginFn", "MissedApproachGuide",
-    "MissedTurnSegment", "Plan", "PlanChoice", "RankedPlan", "RunwayWind", "State", "Straight", "StraightTrack",
-    "TrackSamples", "Turn", "applicable_candidates", "bank_levels_deg", "candidate_plans", "choose_plan",
-    "crab_heading_deg", "descent_geometry", "ground_speed_kt", "leg_duration_s", "leg_end_state",
-    "missed_approach_turns", "plan_end_state", "plan_sample", "plan_time_s", "rank_plans", "runway_wind_from",
-    "sample_leg", "sample_legs", "solve_plan", "turn_angle_deg", "wind_envelope",
+    "CALM", "DOES_NOT_FIT", "DOWNWIND_SHAPES", "FITS", "MARGINAL", "MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION",
+    "MARGINAL_BANK_DEG", "MARGINAL_VISIBILITY_FRACTION", "REASON_AREA", "REASON_BANK", "REASON_VISIBILITY",
+    "REASON_WIND", "SHAPES", "SIDES", "CircleInputs", "DescentGeometry", "Envelope", "LeaveMda", "Leg", "MarginFn",
+    "MissedApproachGuide", "MissedTurnSegment", "Plan", "PlanChoice", "RankedPlan", "RunwayWind", "State",
+    "Straight", "StraightTrack", "TrackSamples", "Turn", "applicable_candidates", "bank_levels_deg",
+    "candidate_plans", "choose_plan", "crab_heading_deg", "descent_geometry", "ground_speed_kt", "leg_duration_s",
+    "leg_end_state", "missed_approach_turns", "plan_end_state", "plan_sample", "plan_time_s", "rank_plans",
+    "runway_wind_from", "sample_leg", "sample_legs", "solve_plan", "turn_angle_deg", "wind_envelope",
 ]

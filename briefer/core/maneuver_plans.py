@@ -39,8 +39,10 @@ from briefer.core.maneuver_solver import (
     R_NEG_LEG,
     R_NO_CONVERGE,
     R_TOO_CLOSE,
+    R_TURN_REVERSED,
     R_WIND,
     R_WRONG_SIDE,
+    DOWNWIND_SHAPES,
     SHAPES,
     SIDES,
     CircleInputs,
@@ -59,6 +61,7 @@ from briefer.units import wrap_180
 
 PLAN_TURN_STEP_DEG = 2.0          # a plan's track: a point every 2 deg of turn ...
 PLAN_STRAIGHT_STEP_M = 100.0      # ... and every 100 m of straight
+CONTINUOUS_TURN_S = 0.5           # a circuit leg shorter than this: the turns either side are one turn
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -72,7 +75,8 @@ class LeaveMda:
     heading_deg : float
         Heading there (runway frame, wrapped to [0, 360)). [deg]
     in_turn : bool
-        True if the point is inside the final turn (the descent starts before the roll-out).
+        True if the point is inside the turn onto final (the descent starts before the
+        roll-out): the final turn, or an overfly circuit's base turn (``leg_name`` says which).
     leg_name : str
         Name of the leg holding the point ("final", "final turn", "downwind", ...).
     along_track_to_threshold_m : float
@@ -119,16 +123,17 @@ class Plan:
     offset_m : float or None
         Lateral distance of the downwind (or of the roll-in point) from the centreline. [m]
     abeam_to_roll_in_s : float or None
-        Seconds from abeam (or over) the threshold to the roll-in into the final turn;
-        negative if the roll-in comes before abeam; None if the track never passes abeam. [s]
+        Seconds from abeam (or over) the threshold to the roll-in into the final turn (the
+        base turn of an overfly circuit: the turn off the downwind); negative if the roll-in
+        comes before abeam; None if the track never passes abeam. [s]
     roll_in_distance_m : float or None
         Roll-in point along the downwind past abeam the threshold (= -x of the roll-in;
         negative before abeam). [m]
     roll_in_xy_m : tuple of float or None
-        Roll-in point of the final turn in the runway frame. [m]
+        Roll-in point of the final turn (circuit: of the base turn) in the runway frame. [m]
     break_off_s : float or None
-        Solved time on the break leg (break-and-return), the crossing leg (downwind-join) or
-        the offset leg (teardrop); None for a direct turn. [s]
+        Solved time on the break leg (break-and-return), the crossing leg (downwind-join), the
+        offset leg (teardrop) or the upwind leg (overfly-circuit); None for a direct turn. [s]
     roll_out_distance_m : float or None
         Roll-out (wings level on the centreline) distance before the threshold. [m]
     descent_point_m : float
@@ -230,7 +235,13 @@ def _reason_texts(flags: int, shape: Shape, sol: ShapeSolution, k: int, inputs: 
         out.append(f"the wind is too strong to make the roll-out with {b:g} deg bank: the final turn would "
                    "need the downwind on the other side")
     if flags & R_NO_CONVERGE:
-        out.append("the arrival course never converges with the centreline: no single turn joins the final")
+        if shape == "overfly-circuit":
+            out.append("the arrival makes no progress along the landing direction: no upwind leg to fly")
+        else:
+            out.append("the arrival course never converges with the centreline: no single turn joins the final")
+    if flags & R_TURN_REVERSED:
+        out.append(f"the wind ({inputs.wind.speed_kt:.0f} kt) needs crab angles so large that a 90 deg "
+                   "circuit turn would last 180 deg or more")
     if flags & R_NEG_LEG:
         if shape == "downwind-join":
             out.append(f"the arrival is already beyond the downwind offset ({f(sol.offset):.0f} m at {b:g} deg "
@@ -265,7 +276,8 @@ def _public_legs(sol: ShapeSolution, k: int, inputs: CircleInputs) -> tuple[Leg,
                              direction="right" if lg.sign[k] > 0 else "left",
                              roll_rate_deg_per_s=inputs.roll_rate_deg_per_s, name=lg.name))
         elif lg.track_rad is not None:
-            legs.append(StraightTrack(time_s=t, track_deg=math.degrees(lg.track_rad), name=lg.name))
+            trk = lg.track_rad if np.ndim(lg.track_rad) == 0 else lg.track_rad[k]  # type: ignore[index]
+            legs.append(StraightTrack(time_s=t, track_deg=math.degrees(float(trk)), name=lg.name))
         else:
             legs.append(Straight(time_s=t, heading_deg=math.degrees(float(lg.psi0[k])), name=lg.name))
     return tuple(legs)
@@ -285,7 +297,7 @@ def _first_abeam_time_s(x: FloatArray, t: FloatArray) -> float | None:
 
 
 def _leave_mda(xy: FloatArray, hd: FloatArray, tm: FloatArray, li: npt.NDArray[np.int_], names: tuple[str, ...],
-               final_turn: int, roll_out_d: float, descent: DescentGeometry) -> tuple[LeaveMda, bool]:
+               turns_to_final: tuple[int, ...], roll_out_d: float, descent: DescentGeometry) -> tuple[LeaveMda, bool]:
     """Point along the track, back from the roll-out, where the ground distance still to fly to
     the threshold equals the descent-point distance. Returns (point, reached)."""
     need = descent.descent_point_m - roll_out_d
@@ -307,7 +319,7 @@ def _leave_mda(xy: FloatArray, hd: FloatArray, tm: FloatArray, li: npt.NDArray[n
     lerp = lambda a: float(a[j - 1] + fr * (a[j] - a[j - 1]))  # noqa: E731
     leg_i = int(lk[j])
     return LeaveMda(x_m=lerp(x), y_m=lerp(y), heading_deg=math.degrees(lerp(hh)) % 360.0,
-                    in_turn=leg_i == final_turn, leg_name=names[leg_i],
+                    in_turn=leg_i in turns_to_final, leg_name=names[leg_i],
                     along_track_to_threshold_m=roll_out_d + min(need, float(s[-1])), time_s=lerp(tt)), reached
 
 
@@ -415,9 +427,9 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
     if descent.clamped:
         notes.append(f"roll-out moved out to the stabilised distance, {descent.stabilised_distance_m:.0f} m "
                      f"({inputs.stabilised_height_ft:.0f} ft on the glide path)")
-    leave, reached = _leave_mda(xy, hdg, tim, trk.leg_index, names, sol.final_turn, roll_out_d, descent)
+    leave, reached = _leave_mda(xy, hdg, tim, trk.leg_index, names, sol.turns_to_final, roll_out_d, descent)
     if leave.in_turn:
-        notes.append(f"the glide path starts in the final turn: leave the circling height at heading "
+        notes.append(f"the glide path starts in the {leave.leg_name}: leave the circling height at heading "
                      f"{leave.heading_deg:.0f} with {leave.along_track_to_threshold_m:.0f} m to fly")
     elif leave.leg_name != "final":
         notes.append(f"the glide path starts before the final turn, on the {leave.leg_name}")
@@ -430,20 +442,27 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
         t_cross = _first_abeam_time_s(xy[:, 0], tim)
         t_roll_in = sum(times[: sol.final_turn])
         abeam = None if t_cross is None or t_cross > t_roll_in else t_roll_in - t_cross
-    if shape in ("downwind-join", "break-and-return"):
+    if shape in DOWNWIND_SHAPES:
         dw_i = names.index("downwind")
         x_join = float(sol.legs[dw_i].x0[k])
         if x_join < 0.0:
             notes.append(f"the downwind is joined {-x_join:.0f} m past abeam the threshold: start the timing "
                          f"from the join, {times[dw_i]:.0f} s to the roll-in")
+    if shape == "overfly-circuit":
+        t_xw, t_base = times[names.index("crosswind")], times[names.index("base")]
+        if t_xw < CONTINUOUS_TURN_S and t_base < CONTINUOUS_TURN_S:
+            notes.append("no crosswind or base leg: two continuous 180 deg turns")
+        elif t_xw < CONTINUOUS_TURN_S:
+            notes.append(f"no crosswind leg: one continuous turn onto the downwind; a {t_base:.0f} s base leg")
+        else:
+            notes.append(f"a {t_xw:.0f} s crosswind leg; no base leg: one continuous turn onto final")
     x, y = xy[:, 0], xy[:, 1]
     ri = (float(sol.x_ri[k]), float(sol.y_ri[k]))
     return Plan(**base, feasible=True, reasons=(), notes=tuple(notes),
                 offset_m=float(sol.offset[k]), abeam_to_roll_in_s=abeam, roll_in_distance_m=-ri[0], roll_in_xy_m=ri,
                 break_off_s=None if sol.break_s is None else float(sol.break_s[k]), roll_out_distance_m=roll_out_d,
                 final_heading_deg=math.degrees(float(sol.psi_f[k])) % 360.0,
-                downwind_heading_deg=(math.degrees(float(sol.psi_d[k])) % 360.0
-                                      if shape in ("downwind-join", "break-and-return") else None),
+                downwind_heading_deg=(math.degrees(float(sol.psi_d[k])) % 360.0 if shape in DOWNWIND_SHAPES else None),
                 leave_mda=leave, legs=legs, leg_names=names, leg_times_s=times,
                 total_time_s=float(sum(times)), start=start, track_xy_m=xy, track_time_s=tim,
                 track_heading_deg=np.degrees(hdg), track_leg_index=trk.leg_index,

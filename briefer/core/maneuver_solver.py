@@ -19,6 +19,15 @@ Plan shapes (names of our own)
 ``direct-turn``
     Arrival at an angle of at most 90 deg to the landing direction: hold the arrival course
     until one turn rolls out on the centreline. The roll-out distance is a result here.
+``overfly-circuit``
+    Arrival within 30 deg of the landing direction, aligned included (an approach that is
+    circling-only because its descent is too steep arrives aligned and too high): hold the
+    arrival course over the runway (the "upwind" leg) to the crosswind turn point, then a
+    rectangular circuit on the chosen side -- crosswind turn, crosswind leg, downwind turn,
+    downwind, base turn, base leg, final turn -- every turn to the pattern side, the crosswind,
+    downwind and base legs holding their TRACKS (90, 180 and 270 deg from the landing
+    direction, crabbed). At most one of the crosswind and base legs is longer than zero; with
+    no leg the two turns either side make one continuous 180 deg turn [2]_.
 
 The unknowns and the equations
 ------------------------------
@@ -29,12 +38,29 @@ fixes the roll-in point: (x_ri, y_ri) = (-d, 0) - D_final; the downwind offset i
 join leg time follows from y, the downwind time from x (two 1x1 solves); the teardrop solves a
 2x2 system. No iteration and no generic optimiser.
 
+The overfly circuit has four unknowns. The upwind time is a rule, not a solve: fly on to the
+crosswind turn point x_t (``circuit_turn_past_threshold_m``, 0 = over the landing threshold)
+or turn at once if already past it, t_up = max(0, (x_t - x0) / g0x). The two turns to the
+downwind, flown with no crosswind leg, put the downwind at y_a; the base and final turns, with
+no base leg, need it at y_b = -(D_base + D_final)_y. In calm air both are one turn diameter out
+(2r), but in a crosswind they differ by about 2 pi w_y / omega (the drift over 360 deg of
+turning; 220 m per 5 kt at 25 deg bank and 120 kt), one way or the other, so no pair of 180 deg
+turns closes by itself: the downwind offset is the smallest one both ends can reach,
+Y = max(sigma y_a, sigma y_b), the crosswind leg takes Y - sigma y_a and the base leg
+Y - sigma y_b (so one of them is zero), and the downwind time follows from x as above. The
+offset then closes on both sides in any crosswind the crabs allow; what can still fail is x:
+a headwind on final drifts the four turns back (w_x 2 pi / omega) past a short roll-out, and
+the downwind would start beyond the base turn (R_INSIDE_TURN). With roll ramps the two 90 deg
+turns with no leg between are a little wider than one 180 deg turn (wings level for an
+instant: about V times the roll-in time), on both ends alike.
+
 References
 ----------
 .. [1] ICAO Doc 8168 Vol II, Part I, Section 4, Chapter 7 (visual manoeuvring area, R = 2r + S;
    wind throughout the turn), 5th ed., 2006.
 .. [2] FAA, Aeronautical Information Manual, 5-4-20 (circling: remain at the MDA until in a
-   position to descend with normal manoeuvres; shortest path to the base or downwind leg).
+   position to descend with normal manoeuvres; shortest path to the base or downwind leg,
+   passing over the airport or other runways allowed).
 .. [3] Operator circling technique summarised in ../shared/REFERENCES.md section 9: reciprocal
    break 45 deg for about 30 s, timing from abeam the threshold, descent on a ~3 deg path,
    stabilised by 300 ft above the airport (common practice).
@@ -62,9 +88,11 @@ from briefer.core.maneuver_legs import (
 from briefer.errors import DomainError
 from briefer.units import FT_TO_M, KT_TO_MPS, wrap_180
 
-Shape = Literal["downwind-join", "break-and-return", "teardrop", "direct-turn"]
+Shape = Literal["downwind-join", "break-and-return", "teardrop", "direct-turn", "overfly-circuit"]
 Side = Literal["left", "right"]
-SHAPES: tuple[Shape, ...] = ("downwind-join", "break-and-return", "teardrop", "direct-turn")
+SHAPES: tuple[Shape, ...] = ("downwind-join", "break-and-return", "teardrop", "direct-turn", "overfly-circuit")
+DOWNWIND_SHAPES: tuple[Shape, ...] = ("downwind-join", "break-and-return", "overfly-circuit")
+"""Shapes with a downwind leg held on the reciprocal track (timed from abeam the threshold)."""
 SIDES: tuple[Side, ...] = ("left", "right")
 
 # --- feasibility reason flags (bit field) ----------------------------------------------------
@@ -76,12 +104,14 @@ R_WRONG_SIDE = 16     # the final turn would need the downwind on the other side
 R_NO_CONVERGE = 32    # the arrival course never converges with the centreline
 R_TOO_CLOSE = 64      # rolls out closer than the stabilised distance (direct turn)
 R_NOT_APPLICABLE = 128
+R_TURN_REVERSED = 256  # the crab angles make a 90 deg pattern turn 180 deg or more (wind near the TAS)
 
 # --- applicability of the shapes to the arrival course (track-based, wind-independent) -------
 JOIN_MIN_CROSSING_DEG = 30.0      # downwind-join: arrival crosses toward the side at >= 30 deg
 RECIPROCAL_MAX_DEG = 60.0         # break/teardrop: arrival within 60 deg of the reciprocal
 DIRECT_MAX_DEG = 90.0             # direct-turn: at most 90 deg to turn onto final
 ALIGNED_TOL_DEG = 0.5             # below this the arrival is already aligned (no direct turn)
+CIRCUIT_MAX_DEG = 30.0            # overfly-circuit: arrival within 30 deg of the landing direction
 _SMALL_GS = 1e-6
 
 
@@ -122,6 +152,11 @@ class CircleInputs:
     runway_length_m : float
         Landing runway length, >= 0 (0 = threshold only); used for the visibility distance and
         the missed-approach reference point. [m]
+    circuit_turn_past_threshold_m : float
+        Overfly circuit: the crosswind turn starts no earlier than this far past the landing
+        threshold along the landing direction (0 = over the threshold, our default: the
+        shortest path to the downwind [2]_; ``runway_length_m`` = over the far end; negative =
+        before the threshold). An arrival already past it turns at once. [m]
     """
 
     tas_kt: float
@@ -139,6 +174,7 @@ class CircleInputs:
     break_angle_deg: float = 45.0
     teardrop_angle_deg: float = 30.0
     runway_length_m: float = 0.0
+    circuit_turn_past_threshold_m: float = 0.0
 
     def __post_init__(self) -> None:
         def need(ok: bool, msg: str) -> None:
@@ -147,7 +183,8 @@ class CircleInputs:
         fin = all(math.isfinite(v) for v in (self.tas_kt, self.bank_deg, self.arrival_x_m, self.arrival_y_m,
                                               self.arrival_course_deg, self.circling_height_ft, self.glide_path_deg,
                                               self.tch_ft, self.stabilised_height_ft, self.break_angle_deg,
-                                              self.teardrop_angle_deg, self.runway_length_m))
+                                              self.teardrop_angle_deg, self.runway_length_m,
+                                              self.circuit_turn_past_threshold_m))
         need(fin, "CircleInputs values must be finite")
         need(0.0 < self.tas_kt <= 500.0, f"tas_kt = {self.tas_kt}: valid range is 0 < TAS <= 500 kt")
         need(0.0 < self.bank_deg <= 60.0, f"bank_deg = {self.bank_deg}: valid range is 0 < bank <= 60")
@@ -234,9 +271,12 @@ def applicable_candidates(arrival_course_deg: float) -> tuple[tuple[Shape, Side]
 
     Rules (our choices, after the techniques of [3]_): ``direct-turn`` when the course is
     within 90 deg of the landing direction (and not aligned), on the side it converges from;
-    ``downwind-join`` when it crosses toward a side at 30 deg or more (that side only);
-    ``break-and-return`` and ``teardrop`` when it is within 60 deg of the reciprocal (both
-    sides). A course aligned with the landing direction gets no candidate (a straight-in).
+    ``overfly-circuit`` when it is within 30 deg of the landing direction, aligned included
+    (both sides; 30 deg is the FAA straight-in alignment limit, so an approach that is
+    circling-only for its descent gradient alone arrives within it, ../shared/REFERENCES.md
+    section 5); ``downwind-join`` when it crosses toward a side at 30 deg or more (that side
+    only); ``break-and-return`` and ``teardrop`` when it is within 60 deg of the reciprocal
+    (both sides). Every course has a candidate.
     """
     c = float(wrap_180(arrival_course_deg))
     delta = abs(c)
@@ -244,6 +284,8 @@ def applicable_candidates(arrival_course_deg: float) -> tuple[tuple[Shape, Side]
     s = math.sin(math.radians(c))
     if ALIGNED_TOL_DEG < delta <= DIRECT_MAX_DEG:
         out.append(("direct-turn", "left" if c > 0 else "right"))
+    if delta <= CIRCUIT_MAX_DEG:
+        out.extend([("overfly-circuit", "left"), ("overfly-circuit", "right")])
     if JOIN_MIN_CROSSING_DEG <= delta <= 180.0 - JOIN_MIN_CROSSING_DEG:
         out.append(("downwind-join", "right" if s > 0 else "left"))
     if delta >= 180.0 - RECIPROCAL_MAX_DEG:
@@ -268,7 +310,7 @@ class LegArrays:
     # straight legs
     gx: FloatArray | None = None
     gy: FloatArray | None = None
-    track_rad: float | None = None     # set when the leg holds a track (crabbed)
+    track_rad: float | FloatArray | None = None   # set when the leg holds a track (crabbed); per row if an array
     # turns
     prof: TurnProfile | None = None
     sign: FloatArray | None = None
@@ -290,12 +332,13 @@ class ShapeSolution:
     offset: FloatArray                  # sigma * y_ri: > 0 on the planned side
     roll_out_d: FloatArray
     abeam_s: FloatArray | None          # downwind shapes: from abeam the threshold to roll-in
-    break_s: FloatArray | None          # the solved join/break/offset leg time
+    break_s: FloatArray | None          # the solved join/break/offset leg time (circuit: the upwind time)
     psi_f: FloatArray
     gs_f: FloatArray
     psi_d: FloatArray
     gs_d: FloatArray
     final_turn: int                     # index of the final turn in legs
+    turns_to_final: tuple[int, ...]     # the turn(s) that end on final (circuit: base and final turn)
     wx: FloatArray                      # wind (m/s), broadcast
     wy: FloatArray
 
@@ -312,17 +355,20 @@ def _flag(ok: npt.NDArray[np.bool_], flag: int) -> npt.NDArray[np.int_]:
 
 def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.ArrayLike, wy: npt.ArrayLike,
                 bank_rad: npt.ArrayLike, roll_rate_rad: float | None, x0: float, y0: float, c0_rad: float,
-                d_m: float, d_stab_m: float, break_rad: float, teardrop_rad: float) -> ShapeSolution:
+                d_m: float, d_stab_m: float, break_rad: float, teardrop_rad: float,
+                circuit_turn_x_m: float = 0.0) -> ShapeSolution:
     """Solve one plan shape over broadcast arrays of sides, winds and banks (array kernel).
 
     Parameters are in SI and radians; ``sigma`` = +1 right side, -1 left side. Every output
     array has the broadcast shape of (sigma, wx, wy, bank_rad). Where ``ok`` is False the
-    numbers are not meaningful and ``reasons`` holds the R_* flags.
+    numbers are not meaningful and ``reasons`` holds the R_* flags. ``circuit_turn_x_m`` is
+    the overfly circuit's earliest crosswind turn point, x past the landing threshold.
 
     Notes
     -----
     See the module docstring: the turn displacements are closed form, the leg times come from
-    linear equations in y (and x for the teardrop).
+    linear equations in y (and x for the teardrop); the circuit's crosswind and base legs from
+    a maximum of two such solutions.
     """
     sig = np.asarray(sigma, dtype=float)
     wx = np.asarray(wx, dtype=float)
@@ -417,6 +463,36 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
                        | _flag(t1 >= 0.0, R_NEG_LEG) | _flag(roll_out >= d_stab_m - 1e-6, R_TOO_CLOSE))
             final_leg = straight(psi_f, gs_f, zero, roll_out / gs_f, "final", 0.0)
             legs = [straight(psi0, g0x, g0y, t1, "arrival", c0_rad), t_fin, final_leg]
+        elif shape == "overfly-circuit":
+            # tracks: crosswind sigma*90 (outward), downwind 180, base -sigma*90 (inward)
+            trk_x, trk_b = sig * (0.5 * np.pi), -sig * (0.5 * np.pi)
+            psi_x, gs_x, ok_x = crab(trk_x, v, wx, wy)
+            psi_b, gs_b, ok_b = crab(trk_b, v, wx, wy)
+            t_up = np.maximum((circuit_turn_x_m - x0) / g0x, 0.0)
+            t_cw = turn(psi0, _wrap_2pi(sig * (psi_x - psi0)), sig, "crosswind turn",
+                        _wrap_2pi(0.5 * np.pi - sig * c0_rad))
+            t_dwt = turn(psi_x, _wrap_2pi(sig * (psi_d - psi_x)), sig, "downwind turn", 0.5 * np.pi + zero)
+            t_bt = turn(psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero)
+            t_fin = turn(psi_b, _wrap_2pi(sig * (psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero)
+            y_a = y0 + g0y * t_up + t_cw.dy + t_dwt.dy            # downwind y with no crosswind leg
+            y_b = -(t_bt.dy + t_fin.dy)                            # downwind y with no base leg
+            offset = np.maximum(sig * y_a, sig * y_b)               # the smaller offset both ends reach
+            t_xw = (offset - sig * y_a) / gs_x
+            t_bl = (offset - sig * y_b) / gs_b
+            x_j = x0 + g0x * t_up + t_cw.dx + t_dwt.dx
+            x_ri, y_ri = -d_m - t_fin.dx - t_bt.dx, sig * offset
+            t_dw = (x_j - x_ri) / gs_d
+            reversed_ = (t_dwt.prof.angle < np.pi) & (t_bt.prof.angle < np.pi) & (t_fin.prof.angle < np.pi)
+            reasons = (reasons | _flag(ok_x & ok_b, R_WIND) | _flag(g0x > _SMALL_GS * v, R_NO_CONVERGE)
+                       | _flag(reversed_, R_TURN_REVERSED) | _flag(offset > 0.0, R_WRONG_SIDE)
+                       | _flag(t_dw >= 0.0, R_INSIDE_TURN))
+            legs = [straight(psi0, g0x, g0y, t_up, "upwind", c0_rad), t_cw,
+                    straight(psi_x, zero, sig * gs_x, t_xw, "crosswind", trk_x), t_dwt,
+                    straight(psi_d, -gs_d, zero, t_dw, "downwind", math.pi), t_bt,
+                    straight(psi_b, zero, -sig * gs_b, t_bl, "base", trk_b), t_fin, final_leg]
+            abeam_s = -x_ri / gs_d
+            break_s = t_up
+            roll_out = d_m + zero
         else:
             raise DomainError(f"unknown plan shape {shape!r}; expected one of {SHAPES}")
 
@@ -437,7 +513,9 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
                          abeam_s=None if abeam_s is None else abeam_s + zero,
                          break_s=None if break_s is None else break_s + zero,
                          psi_f=psi_f, gs_f=gs_f, psi_d=psi_d, gs_d=gs_d,
-                         final_turn=[i for i, lg in enumerate(legs) if lg.name == "final turn"][0], wx=wx, wy=wy)
+                         final_turn=[i for i, lg in enumerate(legs) if lg.name == "final turn"][0],
+                         turns_to_final=tuple(i for i, lg in enumerate(legs) if lg.name in ("base turn", "final turn")),
+                         wx=wx, wy=wy)
 
 
 def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx_mps: npt.ArrayLike,
@@ -453,7 +531,8 @@ def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx
                        bank_rad=np.radians(b), roll_rate_rad=rr, x0=inputs.arrival_x_m, y0=inputs.arrival_y_m,
                        c0_rad=math.radians(inputs.arrival_course_deg), d_m=dg.roll_out_distance_m,
                        d_stab_m=dg.stabilised_distance_m, break_rad=math.radians(inputs.break_angle_deg),
-                       teardrop_rad=math.radians(inputs.teardrop_angle_deg))
+                       teardrop_rad=math.radians(inputs.teardrop_angle_deg),
+                       circuit_turn_x_m=inputs.circuit_turn_past_threshold_m)
 
 
 N_RAMP = 3
