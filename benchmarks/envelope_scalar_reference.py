@@ -171,6 +171,29 @@ def solve(shape: str, sigma: float, c: dict) -> dict:
             t2 = (g0x * by - g0y * bx) / det
             ok = ok and t1 >= 0.0 and t2 >= 0.0 and sigma * (-fin["dy"]) > 0.0
             legs = [straight(g0x, g0y, t1), off, straight(gtx, gty, t2), fin, straight(gs_f, 0.0, d / gs_f)]
+        elif shape == "overfly-circuit":
+            # upwind to the crosswind turn point, then a rectangular circuit: crosswind, downwind and
+            # base tracks held; the downwind offset is the smaller one both ends reach (see the core)
+            psi_x, gs_x, ok_x = crab(sigma * math.pi / 2.0, v, wx, wy)
+            psi_b, gs_b, ok_b = crab(-sigma * math.pi / 2.0, v, wx, wy)
+            ok = ok and ok_x and ok_b and g0x > 1e-6 * v
+            t_up = max((c["turn_x"] - x0) / g0x, 0.0)
+            cw = turn(psi0, wrap_2pi(sigma * (psi_x - psi0)), sigma, wrap_2pi(math.pi / 2.0 - sigma * c0))
+            dwt = turn(psi_x, wrap_2pi(sigma * (psi_d - psi_x)), sigma, math.pi / 2.0)
+            bt = turn(psi_d, wrap_2pi(sigma * (psi_b - psi_d)), sigma, math.pi / 2.0)
+            fin = turn(psi_b, wrap_2pi(sigma * (psi_f - psi_b)), sigma, math.pi / 2.0)
+            ok = ok and all(leg["turn"].a < math.pi for leg in (dwt, bt, fin))
+            y_a = y0 + g0y * t_up + cw["dy"] + dwt["dy"]
+            y_b = -(bt["dy"] + fin["dy"])
+            offset = max(sigma * y_a, sigma * y_b)
+            t_xw = (offset - sigma * y_a) / gs_x
+            t_base = (offset - sigma * y_b) / gs_b
+            x_j = x0 + g0x * t_up + cw["dx"] + dwt["dx"]
+            x_ri = -d - fin["dx"] - bt["dx"]
+            t_dw = (x_j - x_ri) / gs_d
+            ok = ok and offset > 0.0 and t_dw >= 0.0
+            legs = [straight(g0x, g0y, t_up), cw, straight(0.0, sigma * gs_x, t_xw), dwt, straight(-gs_d, 0.0, t_dw),
+                    bt, straight(0.0, -sigma * gs_b, t_base), fin, straight(gs_f, 0.0, d / gs_f)]
         else:  # direct-turn
             ang = wrap_2pi(sigma * (psi_f - psi0))
             fin = turn(psi0, ang, sigma, wrap_2pi(-sigma * c0))
@@ -215,6 +238,8 @@ def candidates(course_deg: float) -> list[tuple[str, str]]:
     delta, out = abs(c), []
     if 0.5 < delta <= 90.0:
         out.append(("direct-turn", "left" if c > 0 else "right"))
+    if delta <= 30.0:
+        out += [("overfly-circuit", "left"), ("overfly-circuit", "right")]
     if 30.0 <= delta <= 150.0:
         out.append(("downwind-join", "right" if math.sin(math.radians(c)) > 0 else "left"))
     if delta >= 120.0:
@@ -259,7 +284,8 @@ def envelope_scalar(inputs, *, margin_track_fn: Callable[[list[tuple[float, floa
                 ctx = {"v": inputs.tas_kt * KT_TO_MPS, "wx": wx, "wy": wy, "bank": math.radians(bank), "k": k,
                        "x0": inputs.arrival_x_m, "y0": inputs.arrival_y_m,
                        "c0": math.radians(inputs.arrival_course_deg), "d": d, "d_stab": d_stab,
-                       "beta": math.radians(inputs.break_angle_deg), "theta": math.radians(inputs.teardrop_angle_deg)}
+                       "beta": math.radians(inputs.break_angle_deg), "theta": math.radians(inputs.teardrop_angle_deg),
+                       "turn_x": inputs.circuit_turn_past_threshold_m}
                 best = None
                 for ci, (shape, side) in enumerate(cands):
                     sol = solve(shape, 1.0 if side == "right" else -1.0, ctx)
