@@ -67,6 +67,11 @@ def reciprocal(**kw):
     return CircleInputs(**base)
 
 
+def aligned(**kw):
+    """Arrival aligned with the landing runway, 1100 m past its threshold (the overfly circuit)."""
+    return reciprocal(**{**dict(arrival_x_m=1100.0, arrival_course_deg=0.0), **kw})
+
+
 SCENARIOS = [
     pytest.param(reciprocal(), R_CAT_B_M, 4000.0, id="reciprocal"),
     pytest.param(reciprocal(roll_rate_deg_per_s=5.0, roll_out_distance_m=1800.0), R_CAT_B_M, 4500.0,
@@ -76,6 +81,11 @@ SCENARIOS = [
                  id="crossing"),
     pytest.param(reciprocal(arrival_x_m=-6000.0, arrival_y_m=-900.0, arrival_course_deg=20.0,
                             circling_height_ft=450.0), R_CAT_B_M, 7000.0, id="direct"),
+    pytest.param(aligned(), R_CAT_B_M, 5000.0, id="aligned"),
+    pytest.param(aligned(roll_rate_deg_per_s=5.0, roll_out_distance_m=1800.0, arrival_y_m=200.0), R_CAT_B_M, 4000.0,
+                 id="aligned-ramps"),
+    pytest.param(aligned(bank_deg=20.0, arrival_x_m=-2500.0, arrival_y_m=-600.0, arrival_course_deg=-25.0,
+                         circuit_turn_past_threshold_m=RUNWAY_M), 4200.0, 9000.0, id="near-aligned-bank-steps"),
 ]
 DIRS = [0.0, 40.0, 90.0, 135.0, 180.0, 230.0, 300.0]
 SPEEDS = [0.0, 8.0, 20.0, 33.0]
@@ -111,11 +121,12 @@ def test_the_scenarios_exercise_every_verdict():
     assert seen == {FITS, MARGINAL, DOES_NOT_FIT}
 
 
-def test_zero_wind_symmetric_left_right():
+@pytest.mark.parametrize("make", [reciprocal, aligned])
+def test_zero_wind_symmetric_left_right(make):
     # hand-derived: calm + arrival on the centreline + a symmetric area: left and right mirror, so every
     # direction at 0 kt gives the same cell, and a wind from +a mirrors one from -a
     dirs = np.arange(0.0, 360.0, 10.0)
-    env = wind_envelope(reciprocal(), margin_fn=stadium(R_CAT_B_M), visibility_m=4500.0, bank_limit_deg=30.0,
+    env = wind_envelope(make(), margin_fn=stadium(R_CAT_B_M), visibility_m=4500.0, bank_limit_deg=30.0,
                         area_radius_m=R_CAT_B_M, wind_from_relative_deg=dirs, wind_speed_kt=[0.0, 15.0, 30.0])
     assert len(set(env.status[:, 0])) == 1 and len(set(env.reasons[:, 0])) == 1
     np.testing.assert_allclose(env.area_margin_m[:, 0], env.area_margin_m[0, 0], atol=1e-6)
@@ -173,11 +184,12 @@ def test_visibility_reason():
     assert "runway beyond the visibility" in env.reason_texts(0, 0)
 
 
+@pytest.mark.parametrize("make", [reciprocal, aligned])
 @pytest.mark.parametrize("wdir, wspd", [(0.0, 0.0), (70.0, 15.0), (200.0, 25.0), (320.0, 35.0)])
-def test_envelope_cell_agrees_with_choose_plan(wdir, wspd):
+def test_envelope_cell_agrees_with_choose_plan(make, wdir, wspd):
     # the vectorised cell and the single-plan path rank the same way; their tracks are sampled at
     # different densities (7.5 vs 2 deg of turn), so margins agree to a few metres only
-    inp = reciprocal(wind=runway_wind_from(wdir, wspd))
+    inp = make(wind=runway_wind_from(wdir, wspd))
     kw = dict(visibility_m=5000.0, bank_limit_deg=30.0, area_radius_m=R_CAT_B_M)
     env = wind_envelope(inp, margin_fn=stadium(R_CAT_B_M), wind_from_relative_deg=[wdir], wind_speed_kt=[wspd], **kw)
     choice = choose_plan(inp, margin_fn=stadium(R_CAT_B_M), **kw)
@@ -189,6 +201,16 @@ def test_envelope_cell_agrees_with_choose_plan(wdir, wspd):
     shape, _side = env.candidates[env.best_candidate[0, 0]]
     assert shape == best.plan.shape or abs(best.area_margin_m - env.area_margin_m[0, 0]) < 10.0
     assert env.area_margin_m[0, 0] == pytest.approx(best.area_margin_m, abs=10.0)
+
+
+def test_aligned_arrival_has_an_envelope():
+    # an arrival aligned with the landing runway used to get no candidate (every cell "no plan"); the overfly
+    # circuit covers it: both sides are compared in every cell, and in calm air it fits (regression value, no
+    # published source: R = 2.66 NM, 5000 m visibility)
+    env = wind_envelope(aligned(), margin_fn=stadium(R_CAT_B_M), visibility_m=5000.0, bank_limit_deg=30.0,
+                        area_radius_m=R_CAT_B_M, wind_from_relative_deg=DIRS, wind_speed_kt=SPEEDS)
+    assert env.candidates == (("overfly-circuit", "left"), ("overfly-circuit", "right"))
+    assert env.status[0, 0] != DOES_NOT_FIT and np.all(env.best_candidate >= 0)
 
 
 def test_envelope_domain():

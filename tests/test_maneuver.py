@@ -271,8 +271,17 @@ def test_applicable_candidates():
     # crossing from the left at 90 deg -> direct turn (left) and downwind join on the right
     assert {s for s, _ in applicable_candidates(180.0)} == {"break-and-return", "teardrop"}
     assert set(applicable_candidates(90.0)) == {("direct-turn", "left"), ("downwind-join", "right")}
-    assert applicable_candidates(0.0) == ()
-    assert applicable_candidates(-20.0) == (("direct-turn", "right"),)
+    # overfly-circuit within 30 deg of the landing direction, aligned included, both sides: 30 deg is the
+    # FAA straight-in alignment limit (AIM 5-4-20(c), REFERENCES.md 5), so a circling-only-by-gradient
+    # approach arrives within it
+    assert applicable_candidates(0.0) == (("overfly-circuit", "left"), ("overfly-circuit", "right"))
+    assert applicable_candidates(0.3) == (("overfly-circuit", "left"), ("overfly-circuit", "right"))
+    assert applicable_candidates(-20.0) == (("direct-turn", "right"), ("overfly-circuit", "left"),
+                                            ("overfly-circuit", "right"))
+    assert ("overfly-circuit", "left") in applicable_candidates(30.0)
+    assert applicable_candidates(31.0) == (("direct-turn", "left"), ("downwind-join", "right"))
+    # every arrival course now gets at least one candidate
+    assert all(applicable_candidates(float(c)) for c in range(0, 360, 5))
 
 
 def test_calm_break_time_hand_derived_and_near_common_practice():
@@ -432,6 +441,170 @@ def test_plan_sample_resamples_the_legs():
 
 
 # --------------------------------------------------------------------------------------------
+# overfly circuit (an arrival aligned with the landing runway, or within 30 deg of it)
+# --------------------------------------------------------------------------------------------
+CIRCUIT_LEGS = ("upwind", "crosswind turn", "crosswind", "downwind turn", "downwind", "base turn", "base",
+                "final turn", "final")
+
+
+def aligned(**kw):
+    # an aligned arrival 1100 m past the landing threshold, like a steep circling-only approach whose
+    # missed approach point lies over the runway (the V2RL NDB-B demo: 626 ft/NM, REFERENCES.md 5)
+    base = dict(tas_kt=120.0, bank_deg=25.0, wind=CALM, arrival_x_m=1100.0, arrival_y_m=0.0,
+                arrival_course_deg=0.0, circling_height_ft=600.0, runway_length_m=RUNWAY_M)
+    base.update(kw)
+    return CircleInputs(**base)
+
+
+def test_aligned_arrival_gets_candidates():
+    plans = candidate_plans(aligned())
+    assert [(p.shape, p.side) for p in plans] == [("overfly-circuit", "left"), ("overfly-circuit", "right")]
+    assert all(p.feasible for p in plans)
+    assert plans[0].leg_names == CIRCUIT_LEGS
+    choice = choose_plan(aligned(), margin_fn=stadium(2.66 * NM_TO_M), visibility_m=8000.0, bank_limit_deg=30.0)
+    assert choice.bank_needed_deg == 25.0 and choice.ranked[0].plan.shape == "overfly-circuit"
+
+
+@pytest.mark.parametrize("side", ["left", "right"])
+def test_calm_circuit_is_two_half_turns_one_diameter_out(side):
+    # hand-derived, calm, instant bank, aligned on the centreline: the two turns to the downwind reverse the
+    # heading and move exactly 2r sideways and 0 along (a 180 deg turn returns abeam its start), and so do
+    # the two turns to final; so no crosswind or base leg, the downwind at 2r = 2 V^2 / (g tan 25) =
+    # 2 x 833.4 m, the base turn rolls in abeam the roll-out (x = -d), and from abeam the threshold to the
+    # roll-in is d / V. The arrival 1000 m BEFORE the threshold flies on to it: upwind 1000 / V s.
+    v = 120 * KT_TO_MPS
+    r = v * v / (G0_MPS2 * math.tan(math.radians(25)))
+    inp = aligned(arrival_x_m=-1000.0)
+    d = descent_geometry(inp).roll_out_distance_m
+    p = solve_plan(inp, shape="overfly-circuit", side=side)
+    assert p.feasible, p.reasons
+    assert p.offset_m == pytest.approx(2 * r, rel=1e-9)
+    assert p.sign * p.roll_in_xy_m[1] == pytest.approx(2 * r, rel=1e-9)
+    times = dict(zip(p.leg_names, p.leg_times_s))
+    assert times["crosswind"] == pytest.approx(0.0, abs=1e-9) and times["base"] == pytest.approx(0.0, abs=1e-9)
+    assert times["upwind"] == pytest.approx(1000.0 / v, rel=1e-12)
+    assert p.break_off_s == pytest.approx(1000.0 / v, rel=1e-12)          # the upwind time
+    assert p.roll_in_distance_m == pytest.approx(d, abs=1e-6)
+    assert p.abeam_to_roll_in_s == pytest.approx(d / v, rel=1e-9)
+    assert p.downwind_heading_deg == pytest.approx(180.0)
+    # the four 90 deg turns take 2 pi / omega in all, omega = g tan(bank) / V
+    turns = sum(t for n, t in times.items() if n.endswith("turn"))
+    assert turns == pytest.approx(2 * math.pi * v / (G0_MPS2 * math.tan(math.radians(25))), rel=1e-12)
+    assert all(lg.direction == side for lg in p.legs if isinstance(lg, Turn))
+    assert any("two continuous 180 deg turns" in n for n in p.notes)
+
+
+def test_circuit_turns_at_once_when_past_the_turn_point():
+    # the arrival 1100 m past the threshold is past the default turn point (over the threshold): no upwind leg;
+    # with the turn point set at the far end (2500 m) it flies 1400 m more (hand: 1400 / V)
+    assert solve_plan(aligned(), shape="overfly-circuit", side="right").leg_times_s[0] == 0.0
+    p = solve_plan(aligned(circuit_turn_past_threshold_m=RUNWAY_M), shape="overfly-circuit", side="right")
+    assert p.leg_times_s[0] == pytest.approx(1400.0 / (120 * KT_TO_MPS), rel=1e-12)
+
+
+@pytest.mark.parametrize("side, toward_pattern", [("right", True), ("left", False)])
+def test_circuit_crosswind_needs_a_base_or_a_crosswind_leg(side, toward_pattern):
+    # hand-derived, instant bank, a 20 kt wind from the left (blowing toward +y at w), aligned arrival:
+    # crab delta = asin(w/V). Right-hand circuit: the turns to the downwind (from -delta to 180 + delta, pi + 2 delta
+    # of turning) move 2r cos(delta) + w (pi + 2 delta)/omega out; the turns to final (pi - 2 delta) need
+    # 2r cos(delta) - w (pi - 2 delta)/omega. The difference, 2 pi w / omega (the drift over 360 deg of turning), is
+    # flown on the base (ground speed V - w, the base track into the wind) when the wind blows toward the
+    # pattern side, and on the crosswind leg (ground speed V - w as well) when it blows toward the runway
+    # (the left circuit is the mirror image: the same numbers). The downwind is at the wider of the two.
+    v = 120 * KT_TO_MPS
+    w = 20 * KT_TO_MPS
+    omega = G0_MPS2 * math.tan(math.radians(25)) / v
+    r = v / omega
+    delta = math.asin(w / v)
+    p = solve_plan(aligned(wind=RunwayWind(toward_x_kt=0.0, toward_y_kt=20.0)), shape="overfly-circuit", side=side)
+    assert p.feasible, p.reasons
+    times = dict(zip(p.leg_names, p.leg_times_s))
+    leg = 2 * math.pi * w / (omega * (v - w))                      # 16.97 s
+    assert leg == pytest.approx(16.97, abs=0.01)
+    if toward_pattern:
+        assert times["base"] == pytest.approx(leg, rel=1e-9) and times["crosswind"] == 0.0
+    else:
+        assert times["crosswind"] == pytest.approx(leg, rel=1e-9) and times["base"] == 0.0
+    assert p.offset_m == pytest.approx(2 * r * math.cos(delta) + w * (math.pi + 2 * delta) / omega, rel=1e-9)
+
+
+@settings(max_examples=150, deadline=None)
+@given(side=st.sampled_from(["left", "right"]), course=st.floats(-30.0, 30.0), x0=st.floats(-3000.0, 2000.0),
+       y0=st.floats(-600.0, 600.0), wind_from=st.floats(0.0, 360.0), wind_kt=st.floats(0.0, 40.0),
+       bank=st.floats(15.0, 30.0), tas=st.floats(90.0, 160.0), rr=st.sampled_from([None, 4.0, 10.0, 45.0]),
+       roll_out=st.sampled_from([None, 1500.0, 4000.0]))
+def test_circuit_rolls_out_on_the_centreline(side, course, x0, y0, wind_from, wind_kt, bank, tas, rr, roll_out):
+    # the solver's contract through the public legs (a separate code path): roll-out on the centreline within
+    # 1 m, on the final crab heading within 0.5 deg, at the chosen distance within 1 m; times >= 0; at most one of
+    # the crosswind and base legs is flown; the downwind holds the reciprocal track on the chosen side
+    inp = aligned(arrival_course_deg=course, arrival_x_m=x0, arrival_y_m=y0, wind=runway_wind_from(wind_from, wind_kt),
+                  bank_deg=bank, tas_kt=tas, roll_rate_deg_per_s=rr, roll_out_distance_m=roll_out)
+    p = solve_plan(inp, shape="overfly-circuit", side=side)
+    if not p.feasible:
+        assert p.reasons and p.track_xy_m.shape == (0, 2)
+        # aligned, from over the runway, in a wind under a fifth of the TAS, the offset always closes on both sides
+        # (module docstring); only a headwind drifting the four turns back past the short roll-out can stop it
+        if abs(course) < 1.0 and x0 >= 0.0 and abs(y0) < 100.0 and wind_kt < 0.2 * tas:
+            assert len(p.reasons) == 1 and "inside the final turn" in p.reasons[0], p.reasons
+        return
+    ro = plan_end_state(p.legs[:-1], p.start, tas_kt=tas, wind=inp.wind)
+    crab = crab_heading_deg(0.0, tas_kt=tas, wind=inp.wind)
+    assert abs(ro.y_m) < 1.0
+    assert abs((ro.heading_deg - crab + 180.0) % 360.0 - 180.0) < 0.5
+    assert abs(-ro.x_m - descent_geometry(inp).roll_out_distance_m) < 1.0
+    assert min(p.leg_times_s) >= 0.0
+    times = dict(zip(p.leg_names, p.leg_times_s))
+    assert min(times["crosswind"], times["base"]) < 1e-6
+    dw = p.leg_names.index("downwind")
+    dw_start = plan_end_state(p.legs[:dw], p.start, tas_kt=tas, wind=inp.wind)
+    dw_end = leg_end_state(p.legs[dw], dw_start, tas_kt=tas, wind=inp.wind)
+    assert abs(dw_end.y_m - dw_start.y_m) < 1e-6 and p.sign * dw_start.y_m > 0.0
+    assert dw_start.y_m == pytest.approx(p.roll_in_xy_m[1], abs=1e-6)
+    assert p.total_time_s == pytest.approx(plan_time_s(p.legs, tas_kt=tas), rel=1e-9)
+
+
+def test_zero_wind_circuit_left_right_symmetry():
+    # hand-derived: no wind and an arrival on the centreline: the left circuit mirrors the right one
+    left = solve_plan(aligned(roll_rate_deg_per_s=5.0), shape="overfly-circuit", side="left")
+    right = solve_plan(aligned(roll_rate_deg_per_s=5.0), shape="overfly-circuit", side="right")
+    assert left.leg_times_s == pytest.approx(right.leg_times_s, rel=1e-12)
+    np.testing.assert_allclose(left.track_xy_m[:, 0], right.track_xy_m[:, 0], atol=1e-6)
+    np.testing.assert_allclose(left.track_xy_m[:, 1], -right.track_xy_m[:, 1], atol=1e-6)
+
+
+def test_circuit_leave_mda_in_the_base_turn():
+    # hand-derived, calm, instant bank: roll-out chosen at 1500 m, descent point 3198.8 m, so the path starts
+    # 1698.8 m of track before the roll-out; the final turn (90 deg) is r pi/2 = 1309.1 m of arc and there is
+    # no base leg, so the point is 389.7 m of arc into the base turn, counted back from its end
+    inp = aligned(roll_out_distance_m=1500.0)
+    p = solve_plan(inp, shape="overfly-circuit", side="right")
+    lm = p.leave_mda
+    assert p.feasible and lm is not None and lm.in_turn and lm.leg_name == "base turn"
+    v = 120 * KT_TO_MPS
+    r = v * v / (G0_MPS2 * math.tan(math.radians(25)))
+    back = 3198.76 - 1500.0 - r * math.pi / 2
+    assert back == pytest.approx(389.7, abs=0.1)
+    # the base turn starts abeam x = -1500 at y = 2r (calm): the point is back/r rad into it from its end,
+    # i.e. at heading 270 - deg(back / r) (right turn from 180 to 270)
+    assert lm.heading_deg == pytest.approx(270.0 - math.degrees(back / r), abs=0.2)   # 2 deg chords
+    assert any("starts in the base turn" in n for n in p.notes)
+
+
+def test_circuit_reports_what_cannot_be_flown():
+    # a 45 kt headwind on final at 90 kt and 15 deg: the four turns (2 pi / omega = 113 s) drift back 2.6 km,
+    # more than the arrival over the threshold plus the stabilised roll-out: the downwind starts past the
+    # base turn's roll-in
+    p = solve_plan(aligned(arrival_x_m=0.0, tas_kt=90.0, bank_deg=15.0, wind=runway_wind_from(0.0, 45.0),
+                           roll_out_distance_m=1400.0), shape="overfly-circuit", side="left")
+    assert not p.feasible and any("inside the final turn" in r for r in p.reasons)
+    # an arrival going the wrong way along the runway is reported, not raised
+    from briefer.core.maneuver_solver import solve_inputs
+    sol = solve_inputs(aligned(arrival_course_deg=180.0), "overfly-circuit", sigma=1.0, wx_mps=0.0, wy_mps=0.0,
+                       bank_deg=25.0)
+    assert not bool(sol.ok)
+
+
+# --------------------------------------------------------------------------------------------
 # ranking
 # --------------------------------------------------------------------------------------------
 def stadium(radius_m):
@@ -506,3 +679,19 @@ def test_missed_approach_turns_toward_the_runway(side):
     assert len(g.direction) == len(p.track_xy_m)
     with pytest.raises(DomainError):
         missed_approach_turns(solve_plan(crossing(), shape="teardrop", side="left"))
+
+
+@pytest.mark.parametrize("side", ["left", "right"])
+def test_missed_approach_turns_on_the_circuit(side):
+    # AIM 5-4-21(c): climbing turn toward the landing runway. Hand-derived for a circuit on the right: on the
+    # downwind (heading ~180, y > 0) and on the base (heading ~270, the runway ahead-right) the runway is on the
+    # right; at the arrival over the runway, short of its midpoint and on the centreline, it is ahead.
+    inp = aligned(arrival_x_m=300.0, wind=runway_wind_from(200.0, 12.0))
+    p = solve_plan(inp, shape="overfly-circuit", side=side)
+    g = missed_approach_turns(p)
+    assert g.direction[0] == "ahead"
+    for leg in ("downwind", "base"):
+        segs = [s for s in g.segments if s.leg_name == leg]
+        assert segs and all(s.direction == side for s in segs), leg
+    assert g.direction[-2] == "ahead"
+    assert len(g.direction) == len(p.track_xy_m)
