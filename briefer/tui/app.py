@@ -335,7 +335,7 @@ class BriefingApp(App[None]):
                 self.main.set_field_error(name, None)
         self._refresh_stale(show=False)
         self.main.show_brief(brief, self.stale)
-        if self.envelope_request is not None or self._envelope_visible():
+        if self._envelope_visible():        # else when the envelope view is next shown
             self._want_envelope()
 
     def _brief_failed(self, inputs: BriefingInputs, message: str, field: str | None) -> None:

@@ -159,31 +159,50 @@ class BriefingScreen(Screen):
         self.query_one(SideView).ascii = ascii
         self.query_one(EnvelopePolar).unicode = not ascii
         self.show_envelope_legend()
-        brief = self.query_one(PlanCanvas).brief
-        if brief is not None:
-            self.query_one("#plan-legend", Static).update(self.query_one(PlanCanvas).legend_text())
-            self.query_one("#sight-legend", Static).update(views.sight_legend(brief, ascii=ascii))
+        self._dirty |= {"plan", "sight"}
+        self._draw_pane(self.query_one("#steps", TabbedContent).active)
 
     def show_brief(self, brief: Brief, stale: str | None) -> None:
-        """Show a brief everywhere (the last good one, marked when stale)."""
+        """Show a brief (the last good one, marked when stale): the status lines and the visible
+        pane now, the other panes when they are shown (less work per keystroke)."""
+        self.brief = brief
         self.show_status(brief, stale)
-        self.query_one("#implies-aircraft", Static).update(views.aircraft_implies(brief))
-        self.query_one("#implies-airfield", Static).update(views.airfield_implies(brief))
-        self.query_one("#implies-runway", Static).update(views.runway_implies(brief))
-        self.query_one("#implies-weather", Static).update(views.weather_implies(brief))
-        self.query_one("#brief-full", Static).update(BriefView(brief))
-        canvas = self.query_one(PlanCanvas)
-        canvas.show(brief)
-        self.query_one("#plan-legend", Static).update(canvas.legend_text())
-        self.query_one("#plan-numbers", Static).update(views.plan_numbers(brief))
-        self.query_one(SideView).show(brief)
-        self.query_one("#sight-legend", Static).update(views.sight_legend(brief, ascii=self.ascii))
-        self.query_one("#sight-table", Static).update(views.sight_comparison(brief))
+        self._dirty = {pid for pid, _ in STEPS}
+        self._draw_pane(self.query_one("#steps", TabbedContent).active)
+
+    brief: Brief | None = None
+    _dirty: set[str] = set()
+
+    def on_tabbed_content_tab_activated(self, event: TabbedContent.TabActivated) -> None:
+        self._draw_pane(event.pane.id or "")
+
+    def _draw_pane(self, pane_id: str) -> None:
+        brief = self.brief
+        if brief is None or pane_id not in self._dirty:
+            return
+        self._dirty.discard(pane_id)
+        if pane_id in ("aircraft", "airfield", "runway", "weather"):
+            fn = {"aircraft": views.aircraft_implies, "airfield": views.airfield_implies,
+                  "runway": views.runway_implies, "weather": views.weather_implies}[pane_id]
+            self.query_one(f"#implies-{pane_id}", Static).update(fn(brief))
+        elif pane_id == "brief":
+            self.query_one("#brief-full", Static).update(BriefView(brief))
+        elif pane_id == "plan":
+            canvas = self.query_one(PlanCanvas)
+            canvas.show(brief)
+            self.query_one("#plan-legend", Static).update(canvas.legend_text())
+            self.query_one("#plan-numbers", Static).update(views.plan_numbers(brief))
+        elif pane_id == "sight":
+            self.query_one(SideView).show(brief)
+            self.query_one("#sight-legend", Static).update(views.sight_legend(brief, ascii=self.ascii))
+            self.query_one("#sight-table", Static).update(views.sight_comparison(brief))
 
     def show_status(self, brief: Brief | None, stale: str | None) -> None:
         summary = self.query_one("#summary", Static)
         warnings = self.query_one("#warnings", Static)
-        self.set_class(stale is not None, "-stale")
+        if warnings.has_class("-stale") != (stale is not None):
+            warnings.set_class(stale is not None, "-stale")
+            summary.set_class(stale is not None, "-stale")
         if brief is None:
             summary.update(Text("No brief yet.", style="bold"))
         else:

@@ -87,8 +87,11 @@ class FieldRow(Widget):
 
     def show_error(self, message: str | None) -> None:
         """An error beside the field (None clears it and shows the note again)."""
+        if message == self.error and self.is_mounted:
+            return
         self.error = message
-        self.set_class(message is not None, "-invalid")
+        if self.has_class("-invalid") != (message is not None):
+            self.set_class(message is not None, "-invalid")
         note = self.query_one(".field-note", Static)
         if message is None:
             note.update(self._note)
