@@ -200,6 +200,33 @@ def test_many_warnings_still_one_page(demo_brief):
     assert all(f"Invented warning number {i} " in card for i in range(30))
 
 
+def test_draw_card_page_with_extra_sections(demo_brief):
+    """The public hook for documents of several cards (the instructor deck): each page fitted with
+    its extra sections, the cautions still on it."""
+    from fpdf import FPDF
+
+    from briefer.render.card_layout import Row, Section
+    from briefer.render.pdf import MARGIN_MM, PAGE_SIZES_MM, draw_card_page
+
+    layout = card_layout(demo_brief)
+    extra = (Section(key="extra", title="INVENTED EXTRA", rows=(Row(label="Note", text="an added line of text"),)),)
+    pdf = FPDF(unit="mm", format=PAGE_SIZES_MM["half-letter"])
+    pdf.set_auto_page_break(False)
+    pdf.set_margins(MARGIN_MM, MARGIN_MM, MARGIN_MM)
+    widths: dict = {}
+    for _ in range(2):
+        pdf.add_page()
+        draw_card_page(pdf, layout, extra=extra, widths=widths)
+    pages = pdf_pages(bytes(pdf.output()))
+    assert len(pages) == 2
+    for page in pages:
+        text = flat(page.extract_text())
+        assert "INVENTED EXTRA Note an added line of text" in text
+        assert text.index("WARNINGS") < text.index("INVENTED EXTRA") < text.index("CAUTIONS")
+        for caution in CAUTIONS:
+            assert flat(caution) in text
+
+
 # --- the text card ----------------------------------------------------------------------------
 
 

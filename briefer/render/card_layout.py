@@ -122,6 +122,7 @@ class CardLayout:
     approach: str                     # "RNAV (GPS) RWY 09, circle to land runway 27"
     aircraft: str                     # profile, configuration, weight
     briefed: str                      # "briefed 2000-01-01 00:00Z"
+    briefed_utc: str                  # the Brief's computed_utc, as it is
     criteria: str
     minimums: Section
     plan: Section
@@ -424,6 +425,7 @@ def card_layout(brief: Brief) -> CardLayout:
         aircraft=(f"{h.profile_name}, {h.configuration_name}, {h.weight_lb:.0f} lb; elevation "
                   f"{h.airfield_elevation_ft:.0f} ft"),
         briefed=f"briefed {brief.computed_utc}" if brief.computed_utc else "briefed (time not recorded)",
+        briefed_utc=brief.computed_utc,
         criteria=h.criteria,
         minimums=_minimums(brief),
         plan=_plan(brief),

@@ -2,20 +2,21 @@
 
 Reading order, top to bottom: the header (airfield, approach, landing runway, aircraft, when
 briefed), MINIMUMS (big figures, then small print), THE PLAN (the numbers to fly in large type,
-then where to leave the MDA and the missed approach), the plan view (drawn from
-`scene_to_primitives`, the primitives the SVG is written from) beside a side view of the sight
-picture and the legend, wind and weather, the warnings (most severe first) and, at the foot, the
-CAUTIONS box.
+then the missed approach and the track), the plan view (drawn from `scene_to_primitives`, the
+primitives the SVG is written from) beside the side view of the sight picture, the plan view's
+legend, wind and weather, the warnings (most severe first) and, at the foot, the CAUTIONS box.
 
 Fonts: the PDF core font Helvetica (Latin-1 only), so the card's text goes through
 `printable_text(..., "latin-1")`. Embedding a TTF would cost about 80 ms and 19 KB per card for
 characters the Brief never uses (its text is Latin-1; only a user's data file could bring others,
 which then print as their unaccented letter or '?').
 
-Greyscale only: roles and severities differ by line pattern, weight, hatching, symbol and word,
-never by colour. The page never breaks: the small print shrinks (down to `MIN_SCALE`) and the plan
-view gives way until everything fits. The creation date is fixed (the brief's time, else
-`FIXED_DATE`), so the same Brief gives the same bytes.
+Sizes: the numbers to fly 14 pt bold, the title 13 pt, section bars 6.8 pt, the small print 6.6 pt
+at most. Greyscale only: roles and severities differ by line pattern, weight, hatching, symbol and
+word, never by colour. The page never breaks: the small print shrinks (to 5.6 pt at least), then
+the plan view and the side view give way; only a page still too full leaves warnings off, with a
+line saying how many. The creation date is fixed (the brief's time, else `FIXED_DATE`), so the
+same Brief gives the same bytes.
 
 fpdf is imported inside `layout_pdf_bytes` only: the import costs about 0.3 s.
 """
@@ -87,7 +88,6 @@ FIG_VALUE_PT = 14.0
 FIG_NOTE_PT = 5.6
 ROW_PT = 6.6
 CAUTION_PT = 6.4
-LABEL_PT = 5.6
 FOOTER_PT = 5.2
 
 
@@ -121,7 +121,8 @@ class _Card:
     """Draws (or, with `draw=False`, only measures) the card's blocks at one scale of small print."""
 
     def __init__(self, pdf: Any, layout: CardLayout, page_w: float, page_h: float, scale: float,
-                 widths: dict[tuple[str, float, str], float] | None = None, side_h: float = SIDE_VIEW_H_MM) -> None:
+                 widths: dict[tuple[str, float, str], float] | None = None, side_h: float = SIDE_VIEW_H_MM,
+                 extra: tuple[Section, ...] = ()) -> None:
         self.pdf = pdf
         self.layout = layout
         self.page_w, self.page_h = page_w, page_h
@@ -131,6 +132,7 @@ class _Card:
         self.draw = False
         self.plan_h_used = 0.0
         self.side_h = side_h
+        self.extra_sections: tuple[Section, ...] = extra
         self._font: tuple[str, float] | None = None
         self._widths: dict[tuple[str, float, str], float] = widths if widths is not None else {}
 
@@ -566,7 +568,10 @@ class _Card:
             self.plan_view((self.x0, top, self.w - self.right_column_w() - GAP_MM, h))
         y = self.legend(self.x0, top + h + 0.4, self.w, ROW_PT * self.s)
         y = self.section(y, self.layout.wind)
-        return self.warnings(y, warn_limit)
+        y = self.warnings(y, warn_limit)
+        for sec in self.extra_sections:
+            y = self.section(y, sec)
+        return y
 
 
 Box = tuple[float, float, float, float]   # x0, y0, x1, y1 in page mm
@@ -655,24 +660,51 @@ class _Fit:
 
 
 def _fit(pdf: Any, layout: CardLayout, page_w: float, page_h: float,
-         widths: dict[tuple[str, float, str], float]) -> _Fit:
+         widths: dict[tuple[str, float, str], float], extra: tuple[Section, ...] = ()) -> _Fit:
     """The largest print and plan view that fit. At the smallest print the plan view gives way to
     its floor, then the side view shrinks; only then are warnings left off (a line says how many)."""
+    def card(scale: float, side_h: float = SIDE_VIEW_H_MM) -> _Card:
+        return _Card(pdf, layout, page_w, page_h, scale, widths, side_h=side_h, extra=extra)
+
     for sc in SCALES:
-        card = _Card(pdf, layout, page_w, page_h, sc, widths)
-        spare, used = _spare(card, PLAN_MIN_MM)
+        c = card(sc)
+        spare, used = _spare(c, PLAN_MIN_MM)
         if spare >= 0:
-            return _Fit(sc, min(used + spare, card.w * (1 - RIGHT_COLUMN)))
+            return _Fit(sc, min(used + spare, c.w * (1 - RIGHT_COLUMN)))
     for side_h in SIDE_VIEW_STEPS_MM:
-        card = _Card(pdf, layout, page_w, page_h, MIN_SCALE, widths, side_h=side_h)
-        spare, used = _spare(card, PLAN_FLOOR_MM)
+        c = card(MIN_SCALE, side_h)
+        spare, used = _spare(c, PLAN_FLOOR_MM)
         if spare >= 0:
             return _Fit(MIN_SCALE, used + spare, side_h)
     for lim in range(len(layout.warnings) - 1, -1, -1):
-        spare, used = _spare(card, PLAN_FLOOR_MM, lim)
+        spare, used = _spare(c, PLAN_FLOOR_MM, lim)
         if spare >= 0:
             return _Fit(MIN_SCALE, used + spare, SIDE_VIEW_STEPS_MM[-1], lim)
     return _Fit(MIN_SCALE, PLAN_FLOOR_MM, SIDE_VIEW_STEPS_MM[-1], 0)
+
+
+def draw_card_page(pdf: Any, layout: CardLayout, *, extra: tuple[Section, ...] = (),
+                   widths: dict[tuple[str, float, str], float] | None = None) -> None:
+    """Fit and draw the card on the current page of `pdf` (an fpdf2 FPDF in millimetres, a page
+    added; the page's own size is used).
+
+    Args:
+        pdf: The document (e.g. a deck that prints several cards).
+        layout: What to print.
+        extra: Sections printed after the warnings in the card's style (the page is fitted with
+            them, so they never push the cautions off the page).
+        widths: A text-width cache to share between pages.
+    """
+    widths = {} if widths is None else widths
+    page_w, page_h = pdf.w, pdf.h
+    fit = _fit(pdf, layout, page_w, page_h, widths, extra)
+    card = _Card(pdf, layout, page_w, page_h, fit.scale, widths, side_h=fit.side_h, extra=extra)
+    card.draw = True
+    pdf.set_text_color(0)
+    pdf.set_draw_color(0)
+    card.run(fit.plan_h, fit.limit)
+    card.cautions(card.cautions_top())
+    card.footer()
 
 
 def layout_pdf_bytes(layout: CardLayout, *, page: str = "half-letter") -> bytes:
@@ -683,21 +715,12 @@ def layout_pdf_bytes(layout: CardLayout, *, page: str = "half-letter") -> bytes:
     pdf = FPDF(orientation="P", unit="mm", format=(page_w, page_h))
     pdf.set_auto_page_break(False)
     pdf.set_margins(MARGIN_MM, MARGIN_MM, MARGIN_MM)
-    pdf.set_creation_date(creation_date(layout.briefed.removeprefix("briefed ")))
+    pdf.set_creation_date(creation_date(layout.briefed_utc))
     pdf.set_title(_t(f"{layout.title}: {layout.place}, {layout.approach}"))
     pdf.set_subject(_t(layout.footer))
     pdf.set_creator("briefer")
     pdf.add_page()
-    widths: dict[tuple[str, float, str], float] = {}
-
-    fit = _fit(pdf, layout, page_w, page_h, widths)
-    card = _Card(pdf, layout, page_w, page_h, fit.scale, widths, side_h=fit.side_h)
-    card.draw = True
-    pdf.set_text_color(0)
-    pdf.set_draw_color(0)
-    card.run(fit.plan_h, fit.limit)
-    card.cautions(card.cautions_top())
-    card.footer()
+    draw_card_page(pdf, layout)
     return bytes(pdf.output())
 
 
@@ -706,4 +729,5 @@ def card_pdf_bytes(brief: Brief, *, page: str = "half-letter") -> bytes:
     return layout_pdf_bytes(card_layout(brief), page=page)
 
 
-__all__ = ["FIXED_DATE", "PAGE_SIZES_MM", "card_pdf_bytes", "creation_date", "layout_pdf_bytes", "page_size_mm"]
+__all__ = ["FIXED_DATE", "PAGE_SIZES_MM", "card_pdf_bytes", "creation_date", "draw_card_page", "layout_pdf_bytes",
+           "page_size_mm"]
