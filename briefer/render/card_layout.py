@@ -365,7 +365,7 @@ def _wind(brief: Brief) -> Section:
         rows.append(Row(label="Report", text=wx.report))
     rows.append(Row(label="At the MDA", text=(
         f"{pf.ias_kt:.0f} kt IAS = {pf.tas_kt:.0f} kt TAS, OAT {pf.oat_at_mda_c:.0f} °C "
-        f"(ISA{pf.isa_deviation_c:+.0f}), "
+        f"(ISA{round(pf.isa_deviation_c):+d}), "
         f"DA {pf.density_altitude_ft:.0f} ft")))
     rows.append(Row(label="Turn", text=(
         f"{pf.bank_target_deg:.0f}° bank: radius {pf.turn_radius_nm:.2f} NM, 180° in {pf.time_180_s:.0f} s, "
