@@ -5,7 +5,7 @@ category, the minimums line, why an approach is circling-only, which side the ci
 on, which way the missed-approach turn goes, the cold correction. Facts come from the demo data
 files (their header comments say what each one exercises) and from hand geometry shown in the
 comments. Where the brief looks wrong to a pilot, the test states the right behaviour and is
-marked xfail(strict=True) with the reason; those are listed for the core owner to fix.
+marked xfail(strict=True) with the reason, for the core owner to fix (and unmarked once fixed).
 """
 
 from __future__ import annotations
@@ -127,16 +127,14 @@ def test_v2rl_ndb_b_to_09_circles_north():
     assert b.minimums.mda_ft == 1900.0                   # V2RL file, NDB-B circling D
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "NDB-B is circling-only because its final is too steep (626 ft/NM) and its MAP (VRL NDB) lies "
-    "about 1.1 km past threshold 27 at 780 ft HAA, so no normal straight-in descent to 27 exists; "
-    "yet an arrival aligned with the landing runway gets no plan candidate "
-    "(maneuver_solver.applicable_candidates) and the brief only says 'descend straight in ... "
-    "otherwise fly the missed approach'. A pilot circles: overfly, north downwind, 180 to final."))
 def test_v2rl_ndb_b_to_27_offers_a_circuit():
+    """NDB-B is circling-only because its final is too steep, and its MAP (VRL NDB) lies about
+    1.1 km past threshold 27 at 780 ft HAA: no normal straight-in descent exists. A pilot circles:
+    overfly, north downwind (the right of 27), 180 to final, missed-approach turn right."""
     b = brief_of(request("demo-bizjet", "V2RL", "NDB-B", "27"))
     assert "no-plan-shape" not in codes(b)
     assert b.plan.feasible and b.plan.side == "right"    # the north side of 27
+    assert b.missed_approach.turn_direction == "right"
 
 
 def test_v2rl_trainer_category_e_not_authorised():
@@ -308,13 +306,10 @@ STRAIGHT_IN = [
 ]
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "Landing on the runway the approach serves, with straight-in minima published and the final "
-    "aligned (straight_in_available is True), the brief raises a 'danger' no-plan-shape finding; "
-    "for the crew this is the normal straight-in, not a case that cannot be flown: it should be "
-    "'info' pointing to the straight-in minima (build_brief, the 'if best is None' branch)."))
 @pytest.mark.parametrize("case", STRAIGHT_IN)
 def test_straight_in_landing_is_not_a_danger(case):
+    """Landing on the runway the approach serves, with straight-in minima published and the final
+    aligned: the normal straight-in, not a case that cannot be flown."""
     b = brief_of(request("demo-bizjet", *case))
     assert b.minimums.straight_in_available is True
     assert not codes(b, "danger")

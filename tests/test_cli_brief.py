@@ -168,30 +168,23 @@ def test_bad_inputs_are_one_line_exit_2(capsys, argv, words):
     assert line.startswith("briefer brief: error:")
 
 
-# --- how the text reads (renderer; xfail where it reads wrong) -------------------------------------
+# --- how the text reads for a pilot -----------------------------------------------------------------
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "render/views.py PlanView prints the NaN fields of a plan that cannot be flown: 'Offset nan NM', "
-    "'nan s from abeam', 'OUTSIDE, nan NM from the area edge'; it should print a dash or omit them."))
 def test_text_of_a_brief_without_a_plan_prints_no_nan(capsys):
+    """A plan that cannot be flown has no offset or timing: no 'nan' on the screen."""
     out = run_text(capsys, NO_PLAN)
     assert "nan" not in out.lower()
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "render/views.py PlanView: with no flyable plan, turn_direction is 'toward the runway' and the "
-    "line reads 'climbing turn TOWARD THE RUNWAY toward the runway'."))
 def test_missed_approach_line_does_not_repeat_itself(capsys):
     out = flat(run_text(capsys, NO_PLAN))
     assert "toward the runway toward the runway" not in out.lower()
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "X4CD (ICAO) charts its circling visibility in metres (Cat C 3700 m); the Brief keeps only "
-    "visibility_required_sm and views.py prints it with 'g' as '2.29907 SM'. A pilot compares "
-    "with the chart: show the charted value and unit (MinimumsInfo needs the as-charted value)."))
 def test_icao_visibility_is_shown_as_charted(capsys):
+    """X4CD (ICAO) charts Cat C circling visibility as 3700 m (X4CD file): the pilot compares with
+    the chart, so the brief shows the charted value and unit."""
     out = run_text(capsys, ["brief", "--profile", "demo-bizjet", "--airfield", "X4CD", "--approach",
                             "VOR RWY 33", "--runway", "15", "--wind", "calm"])
     assert "3700 m" in out

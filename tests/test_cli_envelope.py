@@ -159,12 +159,9 @@ def test_bad_inputs_are_one_line_exit_2(capsys, argv, words):
 
 
 # --- envelope and brief agree ----------------------------------------------------------------------
-@pytest.mark.xfail(strict=True, reason=(
-    "briefer.brief.envelope_for solves the plans at the default roll-out (the descent point) only, "
-    "while build_brief (_choose) retries closer roll-outs (ROLL_OUT_FRACTIONS) when nothing fits: "
-    "with the demo weather (240/10G16, 3 SM) the brief flies a marginal plan, but the envelope "
-    "calls the same wind 'does not fit' (runway beyond the visibility). The crew sees two answers."))
 def test_envelope_agrees_with_the_brief_at_todays_wind():
+    """The crew must not get two answers: where the brief flies a plan (the demo wind, 3 SM), the
+    envelope's cell for that wind is not 'does not fit'."""
     req = demo_request(wind_gust_kt=None)
     b = build_brief(req, computed_utc="2000-01-01 00:00Z")
     assert b.plan.feasible and b.plan.inside_area
