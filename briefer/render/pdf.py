@@ -466,8 +466,13 @@ class _Card:
         self.pen(0.3, fill=1.0)
         pdf.circle(t[0], t[1], 0.9, style="DF")                     # the trap
         pdf.rect(u[0] - 0.8, u[1] - 0.8, 1.6, 1.6, style="DF")      # the usual pattern
-        self.text_at(p[0] - 2.0, p[1] + 1.2, "plan", size)
-        self.text_at(t[0] - 1.5, t[1] + 1.2, "trap", size)
+        self.font("", size)
+        plan_w, trap_w = self.width_of("plan"), self.width_of("trap")
+        self.text_at(p[0] - plan_w / 2, p[1] + 1.2, "plan", size)
+        trap_x = t[0] - trap_w / 2
+        # under its point unless that runs into "plan"; then above the circling height
+        trap_y = t[1] + 1.2 if trap_x + trap_w + 0.8 < p[0] - plan_w / 2 else t[1] - 1.2 - self.lh(size)
+        self.text_at(trap_x, trap_y, "trap", size)
         lab = f"usual {sv.familiar_height_ft:.0f} ft"
         self.font("", size)
         tw = self.width_of(lab)
