@@ -62,17 +62,13 @@ TOLERANCE_SOURCE = "common practice for practice checks (not a published standar
 # --------------------------------------------------------------------------------------------
 # The pages as text
 # --------------------------------------------------------------------------------------------
-def _weight_text(scenario: Scenario, brief: Any) -> str:
-    return f"{brief.header.weight_lb:.0f} lb"
-
-
 def student_lines(scenario: Scenario, brief: Any) -> list[str]:
     """The student page, line by line (no answers on it)."""
     h = brief.header
     lines = [PRACTICE_LINE, "", scenario.title, ""]
     lines.append(f"Airfield      {h.airfield_ident} {h.airfield_name}, elevation {h.airfield_elevation_ft:.0f} ft")
     lines.append(f"Approach      {h.approach_name}, then circle to land runway {h.landing_runway}")
-    lines.append(f"Aircraft      {h.profile_name}, {h.configuration_name}, landing weight {_weight_text(scenario, brief)}")
+    lines.append(f"Aircraft      {h.profile_name}, {h.configuration_name}, landing weight {h.weight_lb:.0f} lb")
     lines.append(f"Criteria      {h.criteria}")
     lines.append("")
     lines.append("Weather report")
@@ -212,7 +208,12 @@ def _load_all(kind: str, names: Sequence[str] | None, dirs: Sequence[Any]) -> li
 
     if names:
         find = catalog.find_airfield if kind == "airfield" else catalog.find_profile
-        return [find(n, dirs=dirs) for n in dict.fromkeys(names)]
+        out = []
+        for n in names:                       # names, files, or models already loaded
+            model = find(n, dirs=dirs) if isinstance(n, (str, PathLike)) else n
+            if all(m is not model and m != model for m in out):
+                out.append(model)
+        return out
     listing = catalog.list_airfields(dirs=dirs) if kind == "airfield" else catalog.list_profiles(dirs=dirs)
     out, seen = [], set()
     for entry in listing:
@@ -235,14 +236,15 @@ def _preferred(emphasis: str, airfields: list[Any]) -> list[Any]:
     return airfields
 
 
-def build_deck(*, count: int, seed: int, airfields: Sequence[str] | None = None,
-               profiles: Sequence[str] | None = None, emphases: Sequence[str] | None = None,
+def build_deck(*, count: int, seed: int, airfields: Sequence[Any] | None = None,
+               profiles: Sequence[Any] | None = None, emphases: Sequence[str] | None = None,
                profile_dirs: Sequence[Any] = (), airfield_dirs: Sequence[Any] = ()) -> Deck:
     """N varied scenarios from one seed: the emphases in turn (shuffled), each on an airfield
     and profile that can exercise it (the highest field for hot-high, the coldest for cold).
 
     Each scenario has its own seed, drawn from the deck's, so that `briefer scenario new` with
-    that airfield, profile, emphasis and seed makes it again.
+    that airfield, profile, emphasis and seed makes it again. `airfields` and `profiles` are
+    names, files or models already loaded (default: every one the catalog finds).
 
     Raises:
         DomainError: for a count outside 1-50, an unknown emphasis, or when no combination can

@@ -3,18 +3,17 @@
 Drawn with the kneeboard card's own pieces (briefer.render.pdf and briefer.render.card_layout),
 so the deck and the card print the same numbers the same way:
 
-* the answer page IS the card (`card_layout(brief)` drawn by the card's painter), titled
-  "ANSWER n/N", followed by three more sections in the card's style: the sight-picture trap in
-  large figures, why the case exercises its emphasis, and the grading tolerances;
+* the answer page IS the card (`card_layout(brief)` drawn by `draw_card_page`), titled
+  "ANSWER n/N", with three more sections in the card's style: the sight-picture trap in large
+  figures, why the case exercises its emphasis, and the grading tolerances;
 * the student page uses the card's header, section bars and rows, and its plan view of the chart
   (runways, obstacles, not-authorised sectors, the final approach course; no protected area and no
   plan, which are answers), drawn by `scene_to_primitives` like every plan view.
 
 The document's creation date is fixed, so the same deck gives the same bytes.
 
-The card's painter (`briefer.render.pdf._Card`) is private to that module; this module subclasses
-it to add the answer sections. If the card's module grows a public hook for extra sections, use
-that instead.
+The student page borrows the card's painter (`briefer.render.pdf._Card`, private to that module)
+for its header, bars, rows and plan view, so that both pages share one typography.
 """
 
 from __future__ import annotations
@@ -26,7 +25,7 @@ import numpy as np
 
 from briefer.render import pdf as card_pdf
 from briefer.render.card_layout import CardLayout, Figure, Row, Section, card_layout, num
-from briefer.render.scene import Bounds, Label, Marker, Polygon, Polyline, Role, Scene
+from briefer.render.scene import Marker, Polyline, Role, Scene
 from briefer.scenario_deck import (
     EMPHASIS_PROMPTS,
     PRACTICE_LINE,
@@ -79,54 +78,12 @@ def answer_sections(case: DeckCase) -> tuple[Section, ...]:
     return (trap, why, grading)
 
 
-class _AnswerCard(card_pdf._Card):
-    """The card's painter, with the answer sections after the card's own."""
-
-    extra: tuple[Section, ...] = ()
-
-    def run(self, plan_h: float, warn_limit: int | None = None) -> float:
-        y = super().run(plan_h, warn_limit)
-        for sec in self.extra:
-            y = self.section(y, sec)
-        return y
-
-
-def _fit_answer(pdf: Any, layout: CardLayout, extra: tuple[Section, ...], page_w: float, page_h: float,
-                widths: dict) -> tuple[float, float, int | None]:
-    """The card's own fitting (largest print and plan view that fit), with the extra sections."""
-
-    def card(scale: float) -> _AnswerCard:
-        c = _AnswerCard(pdf, layout, page_w, page_h, scale, widths)
-        c.extra = extra
-        return c
-
-    for sc in card_pdf.SCALES:
-        c = card(sc)
-        spare, used = card_pdf._spare(c, card_pdf.PLAN_MIN_MM)
-        if spare >= 0:
-            return sc, min(used + spare, c.w * (1 - card_pdf.RIGHT_COLUMN)), None
-    c = card(card_pdf.MIN_SCALE)
-    for lim in [None, *range(len(layout.warnings) - 1, -1, -1)]:
-        spare, used = card_pdf._spare(c, card_pdf.PLAN_FLOOR_MM, lim)
-        if spare >= 0:
-            return card_pdf.MIN_SCALE, used + spare, lim
-    return card_pdf.MIN_SCALE, card_pdf.PLAN_FLOOR_MM, 0
-
-
-def _answer_page(pdf: Any, case: DeckCase, index: int, total: int, page_w: float, page_h: float,
-                 widths: dict) -> None:
+def _answer_page(pdf: Any, case: DeckCase, index: int, total: int, widths: dict) -> None:
+    """The card itself (the card module's own painter, fitted to this page) with the answer
+    sections after its warnings."""
     layout = replace(card_layout(case.brief), title=f"ANSWER {index}/{total}",
                      briefed=f"scenario seed {case.scenario.seed}" if case.scenario.seed is not None else "scenario")
-    extra = answer_sections(case)
-    scale, plan_h, limit = _fit_answer(pdf, layout, extra, page_w, page_h, widths)
-    c = _AnswerCard(pdf, layout, page_w, page_h, scale, widths)
-    c.extra = extra
-    c.draw = True
-    pdf.set_text_color(0)
-    pdf.set_draw_color(0)
-    c.run(plan_h, limit)
-    c.cautions(c.cautions_top())
-    c.footer()
+    card_pdf.draw_card_page(pdf, layout, extra=answer_sections(case), widths=widths)
 
 
 # --------------------------------------------------------------------------------------------
@@ -138,36 +95,34 @@ def _xy(arr: Any) -> list[tuple[float, float]]:
     return [(float(x), float(y)) for x, y in a]
 
 
+ANSWER_ROLES = frozenset({Role.PROTECTED_AREA, Role.PLANNED_TRACK, Role.ROLL_IN, Role.DESCENT_POINT,
+                          Role.FAMILIAR_TRACK, Role.MISSED_APPROACH})
+"""What the answer's plan view shows and the student's chart must not: the area and the plan."""
+
+
 def chart_scene(case: DeckCase) -> Scene:
-    """What the student's chart shows: runways with designators, obstacles with elevations, the
-    not-authorised sectors and the final approach course; framed like the answer's plan view, but
-    without the protected area or any plan."""
+    """What the student's chart shows: the answer's plan view (`scene_from_brief`, same frame and
+    scale) without the protected area or the plan, every obstacle labelled with its elevation,
+    and the final approach course from the FAF to the MAP."""
     from briefer.core import geometry
+    from briefer.render.brief_scene import scene_from_brief
 
     b = case.brief
+    scene = scene_from_brief(b, familiar=False)
+    elevation = {tuple(_xy(ob.xy_m)[0]): ob.elevation_ft for ob in b.obstacles}
+    items: list[Any] = []
+    for item in scene.items:
+        if item.role in ANSWER_ROLES:
+            continue
+        if isinstance(item, Marker) and item.role is Role.OBSTACLE and item.point in elevation:
+            item = replace(item, label=f"{elevation[item.point]:.0f}")
+        items.append(item)
     req = case.loaded.request
     af, appr = req.airfield, req.selected_approach()
-    items: list[Any] = []
-    for poly in b.area.sectors_xy_m:
-        p = _xy(poly)
-        if len(p) >= 3:
-            items.append(Polygon(points=p, role=Role.EXCLUDED_SECTOR, filled=True))
     frame = geometry.LocalFrame(lat0_deg=af.reference_point.lat_deg, lon0_deg=af.reference_point.lon_deg)
-    faf = frame.to_local(appr.faf.lat_deg, appr.faf.lon_deg)
-    mapt = frame.to_local(appr.map_fix.lat_deg, appr.map_fix.lon_deg)
-    items.append(Polyline(points=(tuple(map(float, faf)), tuple(map(float, mapt))), role=Role.FINAL_APPROACH))
-    for ob in b.obstacles:
-        items.append(Marker(point=_xy(ob.xy_m)[0], role=Role.OBSTACLE, label=f"{ob.elevation_ft:.0f}"))
-    for rw in b.runways:
-        a_xy, b_xy = _xy(rw.a_xy_m)[0], _xy(rw.b_xy_m)[0]
-        items.append(Polyline(points=(a_xy, b_xy), role=Role.RUNWAY))
-        des_a, des_b = rw.designator.split("/")
-        items.append(Label(point=a_xy, text=des_a))
-        items.append(Label(point=b_xy, text=des_b))
-    pts = np.asarray(b.area.boundary_xy_m, dtype=float).reshape(-1, 2)
-    (x0, y0), (x1, y1) = pts.min(axis=0), pts.max(axis=0)
-    cx, cy, hx, hy = (x0 + x1) / 2, (y0 + y1) / 2, (x1 - x0) / 2 * 1.08, (y1 - y0) / 2 * 1.08
-    return Scene(items=tuple(items), bounds=Bounds(cx - hx, cy - hy, cx + hx, cy + hy))
+    fixes = [tuple(float(v) for v in frame.to_local(f.lat_deg, f.lon_deg)) for f in (appr.faf, appr.map_fix)]
+    items.append(Polyline(points=tuple(fixes), role=Role.FINAL_APPROACH))
+    return replace(scene, items=tuple(items))
 
 
 def _chart_rows(case: DeckCase) -> tuple[Row, ...]:
@@ -292,7 +247,7 @@ def deck_pdf_bytes(deck: Deck, *, page: str = "letter") -> bytes:
         pdf.add_page()
         _student_page(pdf, case, i, total, page_w, page_h, widths)
         pdf.add_page()
-        _answer_page(pdf, case, i, total, page_w, page_h, widths)
+        _answer_page(pdf, case, i, total, widths)
     return bytes(pdf.output())
 
 
