@@ -22,7 +22,7 @@ from rich.text import Text
 from textual import on, work
 from textual.app import ComposeResult
 from textual.binding import Binding
-from textual.containers import Horizontal, Vertical, VerticalScroll
+from textual.containers import Horizontal, ScrollableContainer, Vertical, VerticalScroll
 from textual.screen import Screen
 from textual.widgets import Button, Checkbox, Footer, Input, Label, Select, Static, TabbedContent, TabPane
 
@@ -44,12 +44,15 @@ class InstructorScreen(Screen[None]):
     """
 
     DEFAULT_CSS = """
-    InstructorScreen #instructor-form { width: 38; padding: 0 1; }
+    InstructorScreen #instructor-form { width: 32; padding: 0 1; }
     InstructorScreen #instructor-form Label { margin-top: 1; }
     InstructorScreen #instructor-form Button { width: 100%; margin-top: 1; }
-    InstructorScreen #instructor-status { height: auto; padding: 0 1; }
+    InstructorScreen #instructor-status { height: auto; max-height: 3; padding: 0 1; }
+    InstructorScreen #instructor-tabs { height: 1fr; }
+    InstructorScreen #instructor-tabs TabPane { padding: 0; }
+    InstructorScreen .preview-scroll { overflow-x: auto; overflow-y: auto; }
+    InstructorScreen .preview { width: auto; padding: 0 1; }
     InstructorScreen #instructor-caution { height: 1; padding: 0 1; text-style: bold; }
-    InstructorScreen .preview { padding: 0 1; }
     """
 
     BINDINGS = [
@@ -88,7 +91,7 @@ class InstructorScreen(Screen[None]):
 
     # --- layout -----------------------------------------------------------------------------
     def compose(self) -> ComposeResult:
-        fields = [(f"{n}  {i.title}"[:34], n) for n, i in self.airfields.items()]
+        fields = [(f"{n} {i.title}"[:22], n) for n, i in self.airfields.items()]
         profs = [(n, n) for n in self.profiles]
         emph = [("any (drawn from the seed)", ANY_EMPHASIS)] + [(EMPHASIS_TITLES[e], e) for e in EMPHASES]
         with Horizontal():
@@ -114,10 +117,10 @@ class InstructorScreen(Screen[None]):
                 yield Static("Choose, then Generate.", id="instructor-status")
                 with TabbedContent(id="instructor-tabs"):
                     with TabPane("Student page", id="student-tab"):
-                        with VerticalScroll():
+                        with ScrollableContainer(classes="preview-scroll"):
                             yield Static("", id="student", classes="preview")
                     with TabPane("Answer key", id="answer-tab"):
-                        with VerticalScroll():
+                        with ScrollableContainer(classes="preview-scroll"):
                             yield Static("", id="answer", classes="preview")
                 yield Static(SHORT_CAUTION, id="instructor-caution")
         yield Footer()
@@ -215,8 +218,9 @@ class InstructorScreen(Screen[None]):
                 self._status(f"Could not generate: {error}")
             return
         self.generated, self.stale = gen, None
-        self.query_one("#student", Static).update(Text(pages[0]))
-        self.query_one("#answer", Static).update(Text(pages[1]))
+        # 78-80 columns as printed (the answer's plan view must not wrap): scroll sideways if narrower
+        self.query_one("#student", Static).update(Text(pages[0], no_wrap=True, overflow="ignore"))
+        self.query_one("#answer", Static).update(Text(pages[1], no_wrap=True, overflow="ignore"))
         s = gen.scenario
         name = f"scenario-{gen.brief.header.airfield_ident.lower()}-{s.emphasis}-{s.seed}.yaml"
         self.query_one("#scenario-path", Input).value = str(self.out_dir / name)
