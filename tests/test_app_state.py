@@ -1,0 +1,87 @@
+"""The app's state without a terminal: inputs -> request, field parsers, the saved-inputs file."""
+
+from __future__ import annotations
+
+import pytest
+from test_app_support import METAR, demo_catalog, demo_inputs
+
+from briefer.errors import DataFileError
+from briefer.tui.inputs_file import dump_inputs, inputs_from_bytes, load_inputs, save_inputs
+from briefer.tui.state import (
+    InputError,
+    WeatherInputs,
+    parse_altimeter_hpa,
+    parse_wind_text,
+    request_from_inputs,
+)
+
+
+def test_typed_values_override_the_report():
+    inputs = demo_inputs().with_weather(report=METAR)
+    inputs = inputs.with_weather(**{k: None for k in ("wind_from_deg", "wind_speed_kt", "wind_gust_kt",
+                                                       "altimeter_hpa", "visibility_sm", "ceiling_ft")})
+    request, report = request_from_inputs(inputs, demo_catalog())
+    assert report is not None
+    assert request.weather.wind_speed_kt == 12      # from the report (30012KT)
+    assert request.weather.oat_c == 9               # typed (the report says -2)
+
+
+def test_bad_inputs_name_their_field():
+    cat = demo_catalog()
+    with pytest.raises(InputError) as e:
+        request_from_inputs(demo_inputs().with_weather(report="XX"), cat)
+    assert e.value.field == "report"
+    with pytest.raises(InputError) as e:
+        request_from_inputs(demo_inputs().with_weather(wind_gust_kt=5.0), cat)
+    assert e.value.field == "wind"
+
+
+@pytest.mark.parametrize(("text", "hpa"), [
+    ("1013", 1013.0), ("Q0998", 998.0),
+    pytest.param("29.92", 29.92 * 33.8638866667, id="inHg"),   # 1 inHg = 33.8639 hPa (units.INHG_TO_HPA)
+    pytest.param("A2992", 29.92 * 33.8638866667, id="A-group"),
+    ("", None)])
+def test_altimeter_in_either_unit(text, hpa):
+    got = parse_altimeter_hpa(text)
+    assert got == (None if hpa is None else pytest.approx(hpa, rel=1e-6))
+
+
+@pytest.mark.parametrize("text", ["12", "500", "abc", "Q12345"])
+def test_altimeter_rejects_nonsense(text):
+    with pytest.raises(ValueError):
+        parse_altimeter_hpa(text)
+
+
+def test_wind_text():
+    assert parse_wind_text("250/15G25", "true") == (250.0, 15.0, 25.0)
+    assert parse_wind_text("calm", "true") == (None, 0.0, None)
+    assert parse_wind_text("", "true") is None
+    with pytest.raises(ValueError):
+        parse_wind_text("westerly", "true")
+
+
+def test_file_round_trip(tmp_path):
+    inputs = demo_inputs().with_weather(report=METAR, wind_reference="magnetic")
+    path = save_inputs(inputs, tmp_path / "b.yaml")
+    assert load_inputs(path) == inputs
+    assert "kind: briefing-inputs" in dump_inputs(inputs)
+
+
+@pytest.mark.parametrize(("text", "message"), [
+    ("kind: airfield\n", "b.yaml:1: kind: expected kind: briefing-inputs, got 'airfield'"),
+    ("kind: briefing-inputs\nprofile: x\nairfield: y\napproach: z\nlanding_runway: '27'\nwether: {}\n",
+     "b.yaml:6: wether: unknown key 'wether' (did you mean 'weather'?)"),
+    ("kind: briefing-inputs\nprofile: x\nairfield: y\napproach: z\nlanding_runway: '27'\n"
+     "weather:\n  oat_c: warm\n", "b.yaml:7: weather.oat_c: expected a number, got 'warm'"),
+])
+def test_file_errors_name_file_line_and_key(text, message):
+    with pytest.raises(DataFileError) as e:
+        inputs_from_bytes(text.encode(), file="b.yaml")
+    assert str(e.value) == message
+
+
+def test_weather_explicit_only_typed_values():
+    assert WeatherInputs().explicit() == {}
+    w = WeatherInputs(wind_speed_kt=0.0)
+    assert w.explicit() == {"wind_speed_kt": 0.0, "wind_from_deg": None, "wind_gust_kt": None,
+                            "wind_reference": "true"}
