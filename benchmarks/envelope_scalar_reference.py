@@ -173,7 +173,7 @@ def solve(shape: str, sigma: float, c: dict) -> dict:
             legs = [straight(g0x, g0y, t1), off, straight(gtx, gty, t2), fin, straight(gs_f, 0.0, d / gs_f)]
         elif shape == "overfly-circuit":
             # upwind to the crosswind turn point, then a rectangular circuit: crosswind, downwind and
-            # base tracks held; the downwind offset is the smaller one both ends reach (see the core)
+            # base tracks held; the downwind offset is the smallest one both ends reach (see the core)
             psi_x, gs_x, ok_x = crab(sigma * math.pi / 2.0, v, wx, wy)
             psi_b, gs_b, ok_b = crab(-sigma * math.pi / 2.0, v, wx, wy)
             ok = ok and ok_x and ok_b and g0x > 1e-6 * v
