@@ -177,7 +177,7 @@ class BriefingApp(App[None]):
         except BriefingError:
             report = None
         rep = weather_from_metar(report) if report is not None else {}
-        given = "from the report: "
+        given = "report: "
         none = "not given"
         wind = format_wind(rep.get("wind_from_deg"), rep.get("wind_speed_kt"), rep.get("wind_gust_kt"))
         self.main.set_placeholder("wind", given + wind if wind else "250/15G25 or calm")
@@ -398,7 +398,8 @@ class BriefingApp(App[None]):
         self.main.show_envelope(env, brief)
 
     # --- actions ---------------------------------------------------------------------------
-    FIRST_LIST = {"aircraft": "#profile", "airfield": "#airfield-list", "runway": "#runway-list"}
+    FIRST_LIST = {"aircraft": "#profile", "airfield": "#airfield-list", "runway": "#runway-list",
+                  "weather": "#report"}
 
     def action_step(self, pane_id: str) -> None:
         """Show a step or view. Focus leaves the old pane first (a focused widget in a hidden

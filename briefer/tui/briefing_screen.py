@@ -28,6 +28,14 @@ STEPS = (("aircraft", "1 Aircraft"), ("airfield", "2 Airfield"), ("runway", "3 R
 """(pane id, tab label): entry steps first, then the brief's views."""
 
 
+class MarkedRadioButton(RadioButton):
+    """A radio button whose mark is a different glyph when on (●) and off (○), not only a colour."""
+
+    @property
+    def BUTTON_INNER(self) -> str:  # type: ignore[override]
+        return "●" if self.value else "○"
+
+
 def _report_parser(text: str) -> str:
     from briefer.errors import BriefingError
     from briefer.tui.state import decode_report
@@ -84,8 +92,8 @@ class BriefingScreen(Screen):
                     with Horizontal(classes="field-row", id="row-wind-ref"):
                         yield Label("Wind is", classes="field-label")
                         with RadioSet(id="wind-ref"):
-                            yield RadioButton("true (report)", value=True, id="ref-true")
-                            yield RadioButton("magnetic (tower)", id="ref-magnetic")
+                            yield MarkedRadioButton("true (report)", value=True, id="ref-true")
+                            yield MarkedRadioButton("magnetic (tower)", id="ref-magnetic")
                     yield FieldRow("oat", "Temp °C", lambda t: parse_optional_number(t, what="°C", lo=-90, hi=60))
                     yield FieldRow("altimeter", "Altimeter", parse_altimeter_hpa, placeholder="1013 or 29.92")
                     yield FieldRow("visibility", "Visibility SM", lambda t: parse_optional_number(
