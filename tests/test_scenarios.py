@@ -243,6 +243,20 @@ def test_schema_matches_the_model():
     assert schema["additionalProperties"] is False and weather["additionalProperties"] is False
 
 
+def test_shipped_examples_load_and_brief():
+    """The example scenarios shipped in briefer/data/scenarios load, resolve and brief."""
+    from importlib import resources
+
+    folder = resources.files("briefer") / "data" / "scenarios"
+    files = sorted(f for f in folder.iterdir() if f.name.endswith(".yaml"))
+    assert files
+    for f in files:
+        loaded = load_scenario(str(f))
+        brief = loaded.brief()
+        assert brief.header.airfield_ident == loaded.request.airfield.ident
+        assert brief.weather.report == loaded.scenario.weather.report
+
+
 def test_command_choices_match():
     from briefer.commands import scenario as cmd
 
