@@ -52,9 +52,14 @@ def inputs_from_args(args: argparse.Namespace):
         if missing:
             raise DomainError("missing " + ", ".join(missing) + " (or use --demo)")
     names = dict(DEMO) if use_demo else {}
-    profile = catalog_mod.find_profile(args.profile or names["profile"], dirs=args.profile_dir)
-    airfield = catalog_mod.find_airfield(args.airfield or names["airfield"], dirs=args.airfield_dir)
-    cat = cat.with_models(profile=profile, airfield=airfield)
+    profile = cat.profile(args.profile or names["profile"])
+    if profile is None:                   # a file path, or a name the catalog explains
+        profile = catalog_mod.find_profile(args.profile or names["profile"], dirs=args.profile_dir)
+        cat = cat.with_models(profile=profile)
+    airfield = cat.airfield(args.airfield or names["airfield"])
+    if airfield is None:
+        airfield = catalog_mod.find_airfield(args.airfield or names["airfield"], dirs=args.airfield_dir)
+        cat = cat.with_models(airfield=airfield)
     approach = airfield.approach(args.approach or names["approach"]).name
 
     typed: dict = {}

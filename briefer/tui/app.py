@@ -523,7 +523,7 @@ class BriefingApp(App[None]):
             self.notify("The instructor screen is not in this version yet.", severity="warning")
             return
         try:
-            self.push_screen(InstructorScreen(self.catalog))
+            self.push_screen(InstructorScreen(self.catalog.loaded()))
         except Exception as exc:  # another engineer's screen: keep the app up
             self.notify(f"Instructor screen: {type(exc).__name__}: {exc}", severity="error")
 

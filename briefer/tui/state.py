@@ -90,6 +90,8 @@ class AppCatalog:
 
     profiles: tuple[CatalogItem, ...]
     airfields: tuple[CatalogItem, ...]
+    loaders: dict = field(default_factory=dict, compare=False, repr=False)
+    _models: dict = field(default_factory=dict, compare=False, repr=False)
 
     @classmethod
     def load(cls, *, profile_dirs=(), airfield_dirs=(), use_config: bool = True) -> AppCatalog:
@@ -98,26 +100,21 @@ class AppCatalog:
         from briefer.io import catalog
         from briefer.io.yamlload import load_airfield, load_profile
 
-        def items(entries, loader) -> tuple[CatalogItem, ...]:
+        def items(entries) -> tuple[CatalogItem, ...]:
             out: list[CatalogItem] = []
             seen: set[str] = set()
             for e in entries:
                 key = e.name.lower()
-                if key in seen:
-                    continue
-                seen.add(key)
-                model, error = None, e.error
-                if error is None:
-                    try:
-                        model = loader(e.source)
-                    except BriefingError as exc:
-                        error = str(exc)
-                out.append(CatalogItem(name=e.name, title=e.title, source=e.source, builtin=e.builtin,
-                                       model=model, error=error))
+                if key not in seen:        # the first of a name wins, as in the catalog
+                    seen.add(key)
+                    out.append(CatalogItem(name=e.name, title=e.title, source=e.source, builtin=e.builtin,
+                                           error=e.error))
             return tuple(out)
 
-        return cls(profiles=items(catalog.list_profiles(dirs=profile_dirs, use_config=use_config), load_profile),
-                   airfields=items(catalog.list_airfields(dirs=airfield_dirs, use_config=use_config), load_airfield))
+        # Models are read when first needed (the lists only need names).
+        return cls(profiles=items(catalog.list_profiles(dirs=profile_dirs, use_config=use_config)),
+                   airfields=items(catalog.list_airfields(dirs=airfield_dirs, use_config=use_config)),
+                   loaders={"profile": load_profile, "airfield": load_airfield})
 
     @classmethod
     def of(cls, profiles: list[AircraftProfile], airfields: list[Airfield]) -> AppCatalog:
@@ -141,25 +138,49 @@ class AppCatalog:
         return cat
 
     def profile(self, name: str) -> AircraftProfile | None:
-        return _find(self.profiles, name)
+        return self._find("profile", self.profiles, name)
 
     def airfield(self, name: str) -> Airfield | None:
-        return _find(self.airfields, name)
+        return self._find("airfield", self.airfields, name)
+
+    def model_of(self, kind: str, item: CatalogItem) -> Any:
+        """The item's model, read on first use (None for a broken file)."""
+        if item.model is not None or item.error is not None:
+            return item.model
+        key = (kind, item.source)
+        if key not in self._models:
+            try:
+                self._models[key] = self.loaders[kind](item.source)
+            except BriefingError:
+                self._models[key] = None
+        return self._models[key]
+
+    def loaded(self) -> AppCatalog:
+        """This catalog with every model read (`CatalogItem.model` set; a file that fails gets
+        its `error`). For screens that want all models at once."""
+        def fill(kind: str, items: tuple[CatalogItem, ...]) -> tuple[CatalogItem, ...]:
+            out = []
+            for it in items:
+                model = self.model_of(kind, it)
+                err = it.error if model is not None or it.error else "cannot be read"
+                out.append(replace(it, model=model, error=None if model is not None else err))
+            return tuple(out)
+
+        return replace(self, profiles=fill("profile", self.profiles), airfields=fill("airfield", self.airfields))
+
+    def _find(self, kind: str, items: tuple[CatalogItem, ...], name: str) -> Any:
+        wanted = _loose(name)
+        for it in items:                    # by list name (profile name, airfield ident) first
+            if _loose(it.name) == wanted:
+                return self.model_of(kind, it)
+        for it in items:                    # then an airfield's full name
+            if kind == "airfield" and it.error is None and _loose(it.title) == wanted:
+                return self.model_of(kind, it)
+        return None
 
 
 def _loose(text: str) -> str:
     return re.sub(r"[^a-z0-9]", "", text.lower())
-
-
-def _find(items: tuple[CatalogItem, ...], name: str) -> Any:
-    wanted = _loose(name)
-    for it in items:
-        if it.model is None:
-            continue
-        names = [it.name] + ([it.model.name] if isinstance(it.model, Airfield) else [])
-        if any(_loose(n) == wanted for n in names):
-            return it.model
-    return None
 
 
 # --------------------------------------------------------------------------------------------
