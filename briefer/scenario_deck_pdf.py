@@ -24,7 +24,7 @@ from typing import Any
 import numpy as np
 
 from briefer.render import pdf as card_pdf
-from briefer.render.card_layout import CardLayout, Figure, Row, Section, card_layout, num
+from briefer.render.card_layout import Figure, Row, Section, card_layout, num
 from briefer.render.scene import Marker, Polyline, Role, Scene
 from briefer.scenario_deck import (
     EMPHASIS_PROMPTS,
