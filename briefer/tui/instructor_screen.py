@@ -75,6 +75,8 @@ class InstructorScreen(Screen[None]):
             from briefer.tui.state import AppCatalog
 
             catalog = AppCatalog.load()
+        if hasattr(catalog, "loaded"):        # the app's catalog reads models on first use
+            catalog = catalog.loaded()
         from briefer.scenario_generate import new_seed
 
         self.catalog = catalog
