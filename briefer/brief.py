@@ -61,6 +61,7 @@ class Situation:
     frame: geometry.LocalFrame
     runway: geometry.RunwayFrame
     area: geometry.ProtectedArea
+    area_rw: geometry.ProtectedArea   # the same area in runway axes: (right_m, along_m) as (east, north)
     area_radius: criteria.AreaRadius
     inputs: maneuver.CircleInputs
     visibility_m: float
@@ -94,11 +95,10 @@ class Situation:
         final is flown) does not shrink the margin.
         """
         tracks_rw = np.asarray(tracks_rw, dtype=float)
-        flat = tracks_rw.reshape(-1, 2)
-        local = self.runway.from_runway_coords(flat[:, 0], flat[:, 1])
-        margin = self.area.radius_m - np.asarray(self.area.distance_to_hull_m(local), dtype=float)
-        for sec in self.area.excluded:
-            clear = np.asarray(sec.clearance_m(local), dtype=float)
+        pts = tracks_rw.reshape(-1, 2)[:, ::-1]          # (right, along): runway axes as (east, north)
+        margin = self.area_rw.radius_m - np.asarray(self.area_rw.distance_to_hull_m(pts), dtype=float)
+        for sec in self.area_rw.excluded:
+            clear = np.asarray(sec.clearance_m(pts), dtype=float)
             margin = np.where(clear < -EDGE_TOLERANCE_M, np.minimum(margin, clear), margin)
         return margin.reshape(tracks_rw.shape[:-1]).min(axis=-1)
 
@@ -127,6 +127,29 @@ def _sector_text(sector: Sector) -> str:
     else:
         where = f"{sector.side} of runway {sector.runway}"
     return f"Circling not authorised {where}" + (f": {sector.reason}" if sector.reason else "")
+
+
+def _area_in_runway_axes(area: geometry.ProtectedArea, rf: geometry.RunwayFrame) -> geometry.ProtectedArea:
+    """The protected area rotated into runway axes, with (right_m, along_m) playing (east_m,
+    north_m): a rotation (both frames have 'right' clockwise of 'ahead'), so distances, sides
+    and clockwise bearing ranges carry over, bearings measured from the landing course. The
+    envelope measures its many tracks here without converting each point back."""
+    def pseudo(p) -> tuple[float, float]:
+        along, right = rf.to_runway_coords(np.asarray(p, dtype=float))
+        return float(right), float(along)
+
+    course = rf.landing_course_deg_true
+    sectors: list[geometry.Sector] = []
+    for sec in area.excluded:
+        if isinstance(sec, geometry.BearingSector):
+            sectors.append(geometry.BearingSector(centre_m=pseudo(sec.centre_m),
+                                                  from_deg_true=float(units.wrap_360(sec.from_deg_true - course)),
+                                                  to_deg_true=float(units.wrap_360(sec.to_deg_true - course))))
+        else:
+            sectors.append(geometry.SideSector(line_a_m=pseudo(sec.line_a_m), line_b_m=pseudo(sec.line_b_m),
+                                               side=sec.side))
+    return geometry.ProtectedArea(centres_m=[pseudo(c) for c in area.centres_m], radius_m=area.radius_m,
+                                  excluded=tuple(sectors))
 
 
 def situation(request: BriefRequest) -> Situation:
@@ -170,6 +193,8 @@ def situation(request: BriefRequest) -> Situation:
     area = geometry.ProtectedArea(centres_m=np.array(list(xy.values())), radius_m=radius.radius_nm * units.NM_TO_M,
                                   excluded=sectors)
 
+    area_rw = _area_in_runway_axes(area, rf)
+
     oat = wx.oat_c if wx.oat_c is not None else float(atmosphere.isa_temperature_c(af.elevation_ft))
     alt_hpa = wx.altimeter_hpa if wx.altimeter_hpa is not None else STANDARD_ALTIMETER_HPA
     pa = float(atmosphere.pressure_altitude_ft(plan_mda, altimeter_hpa=alt_hpa))
@@ -200,7 +225,8 @@ def situation(request: BriefRequest) -> Situation:
             circling_ias, bank_deg, vref_kt=cfg.vref_kt, vs1g_kt=cfg.vs1g_kt, aoa_ref=cfg.aoa_ref,
             aoa_stall=cfg.aoa_stall, weight_ratio=weight_ratio))
 
-    return Situation(request=request, frame=frame, runway=rf, area=area, area_radius=radius, inputs=inputs,
+    return Situation(request=request, frame=frame, runway=rf, area=area, area_rw=area_rw, area_radius=radius,
+                     inputs=inputs,
                      visibility_m=float(vis_m), visibility_reported=vis_reported,
                      bank_limit_deg=cfg.bank_limit_deg, aoa_margin_fn=aoa_margin, category=det, mda_ft=mda,
                      plan_mda_ft=plan_mda, circling_ias_kt=circling_ias, wind_additive_kt=additive,
@@ -211,20 +237,32 @@ def envelope_for(request: BriefRequest, **kwargs) -> maneuver.Envelope:
     """The wind envelope of the request's situation (every 10° x 0-40 kt by default).
 
     Same rule as the brief: cells where nothing fits at the descent point are solved again
-    with the roll-out closer (roll_out_steps_m), and take the first verdict that fits.
+    with the roll-out closer (roll_out_steps_m), and take the first verdict that fits. The
+    envelope is an overview: its turns are solved with instant bank (no roll-in ramps), which
+    moves a roll-out by a few metres; the brief's own plan keeps the profile's roll rate.
     """
     s = situation(request)
+    s = replace(s, inputs=replace(s.inputs, roll_rate_deg_per_s=None))
     common = dict(margin_fn=s.margins_fn, visibility_m=s.visibility_m, bank_limit_deg=min(s.bank_limit_deg, 60.0),
-                  area_radius_m=s.area_radius.radius_nm * units.NM_TO_M, **kwargs)
+                  area_radius_m=s.area_radius.radius_nm * units.NM_TO_M)
+    common.update(kwargs)
     env = maneuver.wind_envelope(s.inputs, **common)
+    fields = ("status", "reasons", "bank_needed_deg", "best_candidate", "area_margin_m",
+              "max_distance_from_runway_m")
     for d in roll_out_steps_m(s.inputs):
-        if not np.any(env.status == maneuver.DOES_NOT_FIT):
+        rows = np.flatnonzero(np.any(env.status == maneuver.DOES_NOT_FIT, axis=1))
+        if not rows.size:
             break
-        closer = maneuver.wind_envelope(replace(s.inputs, roll_out_distance_m=d), **common)
-        take = (env.status == maneuver.DOES_NOT_FIT) & (closer.status != maneuver.DOES_NOT_FIT)
-        env = replace(env, **{name: np.where(take, getattr(closer, name), getattr(env, name))
-                              for name in ("status", "reasons", "bank_needed_deg", "best_candidate",
-                                           "area_margin_m", "max_distance_from_runway_m")})
+        sub = dict(common, wind_from_relative_deg=env.wind_from_relative_deg[rows], wind_speed_kt=env.wind_speed_kt)
+        closer = maneuver.wind_envelope(replace(s.inputs, roll_out_distance_m=d), **sub)
+        merged = {}
+        for name in fields:
+            arr = np.array(getattr(env, name), copy=True)
+            old_rows, new_rows = arr[rows], getattr(closer, name)
+            take = (env.status[rows] == maneuver.DOES_NOT_FIT) & (closer.status != maneuver.DOES_NOT_FIT)
+            arr[rows] = np.where(take, new_rows, old_rows)
+            merged[name] = arr
+        env = replace(env, **merged)
     return env
 
 

@@ -433,8 +433,18 @@ def distance_to_segments_m(points: ArrayLike, starts: ArrayLike, ends: ArrayLike
     ndarray, shape (...)
         Distance to the nearest segment. [m]
     """
-    p = _points(points)[..., None, :]                          # (..., 1, 2)
     a = np.asarray(starts, dtype=float)
+    if a.shape[0] == 1:                                         # one segment: no (..., K, 2) temporaries
+        q = _points(points)
+        (ax, ay), (bx, by) = a[0], np.asarray(ends, dtype=float)[0]
+        sx, sy = bx - ax, by - ay
+        ss = sx * sx + sy * sy
+        rx, ry = q[..., 0] - ax, q[..., 1] - ay
+        if ss > 0.0:
+            t = np.clip((rx * sx + ry * sy) / ss, 0.0, 1.0)
+            rx, ry = rx - t * sx, ry - t * sy
+        return np.sqrt(rx * rx + ry * ry)
+    p = _points(points)[..., None, :]                          # (..., 1, 2)
     d = np.asarray(ends, dtype=float) - a                      # (K, 2)
     dd = np.sum(d * d, axis=-1)
     t = np.sum((p - a) * d, axis=-1) / np.where(dd > 0.0, dd, 1.0)
@@ -780,6 +790,8 @@ class ProtectedArea:
 
     def _edges(self) -> tuple[npt.NDArray[np.float64], npt.NDArray[np.float64]]:
         h = np.asarray(self.hull_m)
+        if len(h) == 2:               # a stadium: one segment (a->b and b->a are the same)
+            return h[:1], h[1:]
         return h, np.roll(h, -1, axis=0)
 
     def distance_to_hull_m(self, points: ArrayLike) -> Numeric:
