@@ -32,6 +32,8 @@ References
 
 from __future__ import annotations
 
+import math
+
 from dataclasses import dataclass
 
 import numpy as np
@@ -100,6 +102,10 @@ def _checked(name: str, value: Numeric, lo: float, hi: float, unit: str, *,
     The range check of the physics core (turn, wind and coldtemp import it too); `lo_open` and
     `hi_open` exclude the ends. The message quotes the value and the valid range (STYLE E).
     """
+    if type(value) is float or type(value) is int:     # scalar fast path, same rule as below
+        v = float(value)
+        if math.isfinite(v) and (v > lo if lo_open else v >= lo) and (v < hi if hi_open else v <= hi):
+            return np.asarray(v)
     arr = np.asarray(value, dtype=float)
     with np.errstate(invalid="ignore"):
         below = arr <= lo if lo_open else arr < lo
