@@ -94,13 +94,17 @@ def request_from_args(args: argparse.Namespace):
         fields = base_fields
         names = dict(DEMO)
     else:
+        base = None
         missing = [o for o, v in (("--profile", args.profile), ("--airfield", args.airfield),
                                   ("--approach", args.approach), ("--runway", args.runway)) if not v]
         if missing:
             raise DomainError("missing " + ", ".join(missing) + " (or use --demo)")
         names = {}
-    profile = catalog.find_profile(args.profile or names["profile"], dirs=args.profile_dir)
-    airfield = catalog.find_airfield(args.airfield or names["airfield"], dirs=args.airfield_dir)
+    demo = names and base   # the demo's own models, unless an option names another
+    profile = (base.profile if demo and not args.profile
+               else catalog.find_profile(args.profile or names["profile"], dirs=args.profile_dir))
+    airfield = (base.airfield if demo and not args.airfield
+                else catalog.find_airfield(args.airfield or names["airfield"], dirs=args.airfield_dir))
     approach = args.approach or names.get("approach")
     if approach is None:
         raise DomainError("missing --approach")
