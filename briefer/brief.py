@@ -111,22 +111,8 @@ def _mag(deg_true: float, variation_deg: float) -> float:
     return float(units.wrap_360(deg_true - variation_deg))
 
 
-def _sector_geometry(sector: Sector, request: BriefRequest, xy: dict[str, np.ndarray]) -> geometry.Sector:
-    af = request.airfield
-    if sector.kind == "bearings":
-        return geometry.BearingSector(centre_m=tuple(xy[sector.threshold]),
-                                      from_deg_true=_true(sector.from_deg_mag, af.magnetic_variation_deg),
-                                      to_deg_true=_true(sector.to_deg_mag, af.magnetic_variation_deg))
-    rw = af.runway(sector.runway)
-    return geometry.side_of_centreline(xy[rw.threshold_a.designator], xy[rw.threshold_b.designator], sector.side)
-
-
 def _sector_text(sector: Sector) -> str:
-    if sector.kind == "bearings":
-        where = f"from threshold {sector.threshold}, {sector.from_deg_mag:03.0f}°-{sector.to_deg_mag:03.0f}° M"
-    else:
-        where = f"{sector.side} of runway {sector.runway}"
-    return f"Circling not authorised {where}" + (f": {sector.reason}" if sector.reason else "")
+    return f"Circling not authorised {sector.where_text()}" + (f": {sector.reason}" if sector.reason else "")
 
 
 def _area_in_runway_axes(area: geometry.ProtectedArea, rf: geometry.RunwayFrame) -> geometry.ProtectedArea:
@@ -189,7 +175,7 @@ def situation(request: BriefRequest) -> Situation:
 
     radius = criteria.circling_area_radius_nm(det.category, criteria=crit, mda_ft_msl=plan_mda,
                                               airport_elevation_ft=af.elevation_ft)
-    sectors = tuple(_sector_geometry(s, request, xy) for s in appr.not_authorised_sectors)
+    sectors = tuple(geometry.charted_sector(sec, af, xy) for sec in appr.not_authorised_sectors)
     area = geometry.ProtectedArea(centres_m=np.array(list(xy.values())), radius_m=radius.radius_nm * units.NM_TO_M,
                                   excluded=sectors)
 

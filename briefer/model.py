@@ -1059,6 +1059,12 @@ class Sector(_Model):
         """'bearings' or 'side'."""
         return "bearings" if self.threshold is not None else "side"
 
+    def where_text(self) -> str:
+        """'from threshold 15, 040°-110° M' or 'south of runway 09/27'."""
+        if self.kind == "bearings":
+            return f"from threshold {self.threshold}, {self.from_deg_mag:03.0f}°-{self.to_deg_mag:03.0f}° M"
+        return f"{self.side} of runway {self.runway}"
+
 
 @dataclass(frozen=True, slots=True, kw_only=True)
 class Approach(_Model):

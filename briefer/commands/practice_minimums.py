@@ -135,7 +135,7 @@ def plan_scene(airfield: Any, result: Any) -> Any:
     import numpy as np
 
     from briefer.core import geometry
-    from briefer.core.minimums import _sector_geometry
+
     from briefer.render.scene import Bounds, Label, Marker, Polygon, Polyline, Role, Scene
     from briefer.units import NM_TO_M
 
@@ -156,7 +156,7 @@ def plan_scene(airfield: Any, result: Any) -> Any:
         appr = airfield.approach(result.approach_name)
         clip = largest + max(rw.length_m for rw in airfield.runways) / 2.0
         for s in appr.not_authorised_sectors:
-            poly = _sector_geometry(s, airfield, xy).polygon(clip)
+            poly = geometry.charted_sector(s, airfield, xy).polygon(clip)
             if len(poly) >= 3:
                 items.append(Polygon(points=[tuple(p) for p in poly], role=Role.EXCLUDED_SECTOR, filled=True))
     controlling: dict[str, list[str]] = {}

@@ -27,7 +27,8 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field
-from typing import Literal, Union
+from collections.abc import Mapping
+from typing import Any, Literal, Union
 
 import numpy as np
 import numpy.typing as npt
@@ -861,3 +862,31 @@ class ProtectedArea:
             pieces.append(h[i] + self.radius_m * np.stack([np.cos(ang), np.sin(ang)], axis=-1))
         poly = np.vstack(pieces)
         return np.vstack([poly, poly[:1]])
+
+
+def charted_sector(sector: Any, airfield: Any, thresholds_xy: Mapping[str, ArrayLike]) -> Sector:
+    """The geometry of a charted not-authorised sector.
+
+    Parameters
+    ----------
+    sector : briefer.model.Sector (duck-typed)
+        ``kind`` "bearings" (``threshold``, ``from_deg_mag``, ``to_deg_mag``, clockwise) or
+        "side" (``runway``, ``side``: north/east/south/west).
+    airfield : briefer.model.Airfield (duck-typed)
+        For ``magnetic_variation_deg`` (east positive: true = magnetic + variation) and
+        ``runway(designator)``.
+    thresholds_xy : mapping
+        Threshold designator -> local position. [m]
+
+    Returns
+    -------
+    BearingSector or SideSector
+    """
+    var = airfield.magnetic_variation_deg
+    if sector.kind == "bearings":
+        return BearingSector(centre_m=tuple(np.asarray(thresholds_xy[sector.threshold], dtype=float)),
+                             from_deg_true=float(wrap_360(sector.from_deg_mag + var)),
+                             to_deg_true=float(wrap_360(sector.to_deg_mag + var)))
+    rw = airfield.runway(sector.runway)
+    return side_of_centreline(thresholds_xy[rw.threshold_a.designator], thresholds_xy[rw.threshold_b.designator],
+                              sector.side)

@@ -41,7 +41,7 @@ import numpy as np
 from briefer.core import criteria as cr
 from briefer.core import geometry
 from briefer.errors import DomainError
-from briefer.units import M_TO_NM, M_TO_SM, NM_TO_M, wrap_360
+from briefer.units import M_TO_NM, M_TO_SM, NM_TO_M
 
 if TYPE_CHECKING:   # pragma: no cover - the model is only read, never imported at run time
     from briefer.model import Airfield, Approach
@@ -474,23 +474,8 @@ def practice_minimums(*, criteria: str, centres_m: Any, airport_elevation_ft: fl
 # --------------------------------------------------------------------------------------------
 # From the airfield model
 # --------------------------------------------------------------------------------------------
-def _sector_geometry(sector: Any, airfield: Any, xy: dict[str, np.ndarray]) -> geometry.Sector:
-    """A model Sector as geometry (the same construction as `briefer.brief`)."""
-    var = airfield.magnetic_variation_deg
-    if sector.kind == "bearings":
-        return geometry.BearingSector(centre_m=tuple(xy[sector.threshold]),
-                                      from_deg_true=float(wrap_360(sector.from_deg_mag + var)),
-                                      to_deg_true=float(wrap_360(sector.to_deg_mag + var)))
-    rw = airfield.runway(sector.runway)
-    return geometry.side_of_centreline(xy[rw.threshold_a.designator], xy[rw.threshold_b.designator], sector.side)
-
-
 def _sector_text(sector: Any) -> str:
-    if sector.kind == "bearings":
-        where = f"from threshold {sector.threshold}, {sector.from_deg_mag:03.0f}°-{sector.to_deg_mag:03.0f}° M"
-    else:
-        where = f"{sector.side} of runway {sector.runway}"
-    return f"not authorised {where}" + (f" ({sector.reason})" if sector.reason else "")
+    return f"not authorised {sector.where_text()}" + (f" ({sector.reason})" if sector.reason else "")
 
 
 def practice_minimums_for_airfield(airfield: Airfield, *, criteria: str | None = None,
@@ -542,7 +527,7 @@ def practice_minimums_for_airfield(airfield: Airfield, *, criteria: str | None =
     obstacles = tuple(ObstaclePoint(name=ob.name, xy_m=tuple(float(v) for v in frame.to_local(ob.lat_deg, ob.lon_deg)),
                                     elevation_ft=ob.elevation_ft) for ob in airfield.obstacles)
     sectors = tuple(appr.not_authorised_sectors) if appr is not None else ()
-    excluded = tuple(_sector_geometry(s, airfield, xy) for s in sectors)
+    excluded = tuple(geometry.charted_sector(s, airfield, xy) for s in sectors)
     results = []
     for cat in categories:
         res = practice_minimum(cr.check_category(cat.upper()), criteria=crit, centres_m=centres,
