@@ -43,6 +43,7 @@ _TINY = 1e-12
 # Gauss-Legendre nodes on [-1, 1] for the roll-in/roll-out integrals (8 nodes integrate the
 # smooth ramp integrands to ~1e-12 relative; checked against RK4 in tests/test_maneuver.py).
 GL_NODES, GL_WEIGHTS = np.polynomial.legendre.leggauss(8)
+_GL_U = 0.5 * (GL_NODES + 1.0)          # the nodes mapped to [0, 1]
 
 
 # --------------------------------------------------------------------------------------------
@@ -390,9 +391,17 @@ def ramp_q(tau: Numeric, c: Numeric, tas: Numeric, k: float) -> npt.NDArray[np.c
         if uniq.size * 8 < tau.size:
             q = ramp_q(uniq, c.flat[0], v.flat[0], k)
             return q[inv].reshape(np.broadcast(tau, c, v).shape)
-    u = tau[..., None] * (0.5 * (GL_NODES + 1.0))
+    u = tau[..., None] * _GL_U
     h = c[..., None] * -np.log(np.cos(k * u))
-    return (v * 0.5 * tau) * np.sum(GL_WEIGHTS * np.exp(1j * h), axis=-1)
+    return (v * 0.5 * tau) * np.add.reduce(GL_WEIGHTS * np.exp(1j * h), axis=-1)
+
+
+def _ramp_q_expanded(tau: FloatArray, prof: TurnProfile, expand: int) -> npt.NDArray[np.complex128]:
+    """Q(tau) = C + i S with the profile given ``expand`` trailing axes (see :func:`ramp_q`)."""
+    c, v = prof.c, prof.tas
+    for _ in range(expand):
+        c, v = c[..., None], v[..., None]
+    return ramp_q(tau, c, v, prof.k)
 
 
 def _ramp_integrals(tau: FloatArray, prof: TurnProfile, expand: int) -> tuple[FloatArray, FloatArray]:
@@ -433,9 +442,9 @@ def turn_air_xyh(t: Numeric, prof: TurnProfile, *, expand: int = 0
         total = 2.0 * tr + tc
         t1 = np.minimum(t, tr) + 0.0 * t
         t3 = np.clip(total - t, 0.0, tr)
-        c1, s1 = _ramp_integrals(t1, prof, expand)
-        cr, sr = _ramp_integrals(tr + 0.0 * t, prof, expand)
-        c3, s3 = _ramp_integrals(t3, prof, expand)
+        t1, t_r, t3 = np.broadcast_arrays(t1, tr + 0.0 * t, t3)
+        q = _ramp_q_expanded(np.stack([t1, t_r, t3]), prof, expand)     # one quadrature call for the three
+        c1, s1, cr, sr, c3, s3 = q[0].real, q[0].imag, q[1].real, q[1].imag, q[2].real, q[2].imag
         ca, sa = np.cos(a), np.sin(a)
         x = x + c1 + ca * (cr - c3) + sa * (sr - s3)
         y = y + s1 + sa * (cr - c3) - ca * (sr - s3)

@@ -10,7 +10,6 @@ References
 
 from __future__ import annotations
 
-import dataclasses
 from dataclasses import dataclass, field
 from typing import Literal
 
@@ -22,6 +21,7 @@ from briefer.errors import DomainError
 
 MissedDirection = Literal["left", "right", "ahead", "either"]
 AHEAD_TOL_DEG = 5.0
+_DIRECTIONS: tuple[MissedDirection, ...] = ("ahead", "either", "right", "left")
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -109,21 +109,23 @@ def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"
     cross = np.cos(psi) * dy - np.sin(psi) * dx          # > 0: runway to the right
     dot = np.cos(psi) * dx + np.sin(psi) * dy
     rel = np.degrees(np.arctan2(cross, dot))
-    dirs: list[MissedDirection] = []
-    for r in rel:
-        if abs(r) <= AHEAD_TOL_DEG:
-            dirs.append("ahead")
-        elif abs(r) >= 180.0 - AHEAD_TOL_DEG:
-            dirs.append("either")
-        else:
-            dirs.append("right" if r > 0 else "left")
+    a = np.abs(rel)
+    codes = np.where(a <= AHEAD_TOL_DEG, 0, np.where(a >= 180.0 - AHEAD_TOL_DEG, 1, np.where(rel > 0, 2, 3)))
+    dirs: list[MissedDirection] = [_DIRECTIONS[c] for c in codes.tolist()]
+    # segments: runs of one (leg, direction), from the first point's time to the last's
+    times = np.asarray(plan.track_time_s, dtype=float).tolist()
+    legs = np.asarray(plan.track_leg_index).tolist()
+    names = plan.leg_names
     segs: list[MissedTurnSegment] = []
-    for d, t, li in zip(dirs, plan.track_time_s, plan.track_leg_index):
-        name = plan.leg_names[int(li)]
-        if segs and segs[-1].leg_name == name and segs[-1].direction == d:
-            segs[-1] = dataclasses.replace(segs[-1], end_s=float(t))
-        else:
-            segs.append(MissedTurnSegment(leg_name=name, start_s=float(t), end_s=float(t), direction=d))
+    n = min(len(dirs), len(times), len(legs))
+    i = 0
+    while i < n:
+        name, d = names[int(legs[i])], dirs[i]
+        j = i + 1
+        while j < n and dirs[j] == d and names[int(legs[j])] == name:
+            j += 1
+        segs.append(MissedTurnSegment(leg_name=name, start_s=float(times[i]), end_s=float(times[j - 1]), direction=d))
+        i = j
     return MissedApproachGuide(reference_xy_m=ref, relative_bearing_deg=rel, direction=tuple(dirs),
                                segments=tuple(segs))
 

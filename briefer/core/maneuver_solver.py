@@ -614,6 +614,7 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     exp(i A) conj(Q); a left turn is the complex conjugate; the wind adds (wx + i wy) t.
     """
     counts = _leg_counts(sol, turn_step_deg, n_straight, straight_step_m)
+    ramps = bool(sol.legs) and any(lg.prof is not None and lg.prof.k > 0.0 for lg in sol.legs)
     shp = sol.ok.shape
     nt = sum(counts)
     out = np.empty((nt,) + shp, dtype=np.complex128)
@@ -631,7 +632,7 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
             if leg.kind == "turn":
                 assert leg.prof is not None and leg.sign is not None
                 pr = leg.prof
-                nr = N_RAMP if n > _arc_count(leg, turn_step_deg, straight_step_m is not None, sol.ok) else 0
+                nr = N_RAMP if ramps else 0        # _leg_counts added 2 N_RAMP ramp samples
                 na = n - 2 * nr
                 rot = np.exp(1j * leg.psi0)
                 sgn = leg.sign
@@ -642,9 +643,11 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                 t_arc = pr.tr + pr.tc * fa
                 if nr:
                     fr = (np.arange(nr) / nr).reshape((nr,) + lead)
-                    q_in = _ramp_q(pr.tr * fr, pr)
-                    q_tr = _ramp_q(pr.tr[None], pr)[0]
-                    q_out = _ramp_q(pr.tr * (1.0 - fr - 1.0 / nr), pr)          # tau3 = tr (nr-1-j)/nr
+                    tau_in = pr.tr * fr
+                    tau_out = pr.tr * (1.0 - fr - 1.0 / nr)                    # tau3 = tr (nr-1-j)/nr
+                    # one quadrature call for the roll-in samples, the full ramp and the roll-out samples
+                    q_all = _ramp_q(np.concatenate([tau_in, pr.tr[None] + 0.0 * tau_in[:1], tau_out], axis=0), pr)
+                    q_in, q_tr, q_out = q_all[:nr], q_all[nr], q_all[nr + 1:]
                     e_a = np.exp(1j * pr.angle)
                 else:
                     q_tr = np.zeros(shp, dtype=np.complex128)
@@ -681,7 +684,7 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                     seg[:nr] = q_in
                     arc_end = q_tr - 1j * r * a_end
                     seg[nr + na:] = arc_end + e_a * np.conj(q_tr) - e_a * np.conj(q_out)
-                    t_all = np.concatenate([pr.tr * fr, t_arc, pr.tr + pr.tc + pr.tr * (fr + 1.0 / nr)], axis=0)
+                    t_all = np.concatenate([tau_in, t_arc, pr.tr + pr.tc + pr.tr * (fr + 1.0 / nr)], axis=0)
                 else:
                     t_all = t_arc
                 # left turns mirror (conjugate), then rotate to the entry heading, then drift
@@ -690,8 +693,9 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                 seg += p0 + wind * t_all
                 if hdg is not None and tim is not None:
                     if nr:
-                        h_in = pr.c * -np.log(np.cos(pr.k * pr.tr * fr))
-                        h_out = pr.angle - pr.c * -np.log(np.cos(pr.k * pr.tr * (1.0 - fr - 1.0 / nr)))
+                        kt = pr.k * pr.tr
+                        h_ramp = pr.c * -np.log(np.cos(np.concatenate([kt * fr, kt * (1.0 - fr - 1.0 / nr)], axis=0)))
+                        h_in, h_out = h_ramp[:nr], pr.angle - h_ramp[nr:]
                         h_rel = np.concatenate([h_in, pr.dp + arc * fa, h_out], axis=0)
                     else:
                         h_rel = arc * fa
