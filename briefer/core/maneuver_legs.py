@@ -428,6 +428,12 @@ def turn_air_xyh(t: Numeric, prof: TurnProfile, *, expand: int = 0
     arc runs from heading dp to A - dp; the roll-out ramp is the roll-in mirrored, whose
     integral is the roll-in integral rotated by A.
     """
+    return _turn_air(t, prof, expand, True)
+
+
+def _turn_air(t: Numeric, prof: TurnProfile, expand: int, heading: bool
+              ) -> tuple[FloatArray, FloatArray, FloatArray | None]:
+    """:func:`turn_air_xyh`; the heading change only if ``heading`` (None otherwise)."""
     t = np.asarray(t, dtype=float)
     tr, tc, dp, wp, v, a = prof.tr, prof.tc, prof.dp, prof.wp, prof.tas, prof.angle
     for _ in range(expand):
@@ -437,7 +443,7 @@ def turn_air_xyh(t: Numeric, prof: TurnProfile, *, expand: int = 0
     hb = dp + wp * tc_
     x = rp * (np.sin(hb) - np.sin(dp))
     y = rp * (np.cos(dp) - np.cos(hb))
-    h = wp * tc_
+    h = wp * tc_ if heading else None
     if prof.k > 0.0:
         total = 2.0 * tr + tc
         t1 = np.minimum(t, tr) + 0.0 * t
@@ -448,12 +454,24 @@ def turn_air_xyh(t: Numeric, prof: TurnProfile, *, expand: int = 0
         ca, sa = np.cos(a), np.sin(a)
         x = x + c1 + ca * (cr - c3) + sa * (sr - s3)
         y = y + s1 + sa * (cr - c3) - ca * (sr - s3)
-        cc = prof.c
-        for _ in range(expand):
-            cc = cc[..., None]
-        h_in = lambda s: cc * -np.log(np.cos(prof.k * s))  # noqa: E731
-        h = h + h_in(t1) + (dp - h_in(t3))
+        if heading:
+            cc = prof.c
+            for _ in range(expand):
+                cc = cc[..., None]
+            h_in = lambda s: cc * -np.log(np.cos(prof.k * s))  # noqa: E731
+            h = h + h_in(t1) + (dp - h_in(t3))
     return x, y, h
+
+
+def turn_end_displacement(prof: TurnProfile, *, psi0: FloatArray, sign: FloatArray, wx: FloatArray,
+                          wy: FloatArray) -> tuple[FloatArray, FloatArray]:
+    """Ground displacement over a whole turn: ``turn_ground(prof.total, prof, x0=0, y0=0, ...)[:2]``
+    without the heading (array kernel, arrays of one shape; the solver's turn legs)."""
+    t = prof.total
+    big_x, big_y, _ = _turn_air(t, prof, 0, False)
+    c0, s0 = np.cos(psi0), np.sin(psi0)
+    sy = sign * big_y
+    return 0.0 + big_x * c0 - sy * s0 + wx * t, 0.0 + big_x * s0 + sy * c0 + wy * t
 
 
 def turn_ground(t: Numeric, prof: TurnProfile, *, x0: Numeric, y0: Numeric, psi0: Numeric, sign: Numeric,

@@ -82,7 +82,7 @@ from briefer.core.maneuver_legs import (
     TurnProfile,
     crab,
     ramp_q,
-    turn_ground,
+    turn_end_displacement,
     turn_profile,
 )
 from briefer.errors import DomainError
@@ -387,7 +387,7 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
             dx = sr * (np.sin(psi_b) - np.sin(psi_a)) + wx * prof.total
             dy = sr * (np.cos(psi_a) - np.cos(psi_b)) + wy * prof.total
         else:
-            dx, dy, _ = turn_ground(prof.total, prof, x0=0.0, y0=0.0, psi0=psi_a, sign=sgn, wx=wx, wy=wy)
+            dx, dy = turn_end_displacement(prof, psi0=psi_a, sign=sgn, wx=wx, wy=wy)
         return LegArrays(kind="turn", name=name, duration=prof.total, psi0=psi_a + zero, prof=prof,
                          sign=sgn + zero, dx=dx, dy=dy, nominal_rad=float(np.max(nominal)))
 
