@@ -25,6 +25,7 @@ References
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass, field
 from collections.abc import Mapping
@@ -104,6 +105,16 @@ def _ecef_m(lat_deg: Numeric, lon_deg: Numeric) -> tuple[Numeric, Numeric, Numer
     return n_m * c * cosd(lon_deg), n_m * c * sind(lon_deg), n_m * (1.0 - _E2) * s   # [1] X, Y, Z
 
 
+@functools.lru_cache(maxsize=64)
+def _frame_axes(lat0_deg: float, lon0_deg: float, *_signs: float) -> tuple[npt.NDArray[np.float64], ...]:
+    """Origin (ECEF) and east/north/up unit vectors of a local frame, computed once per reference
+    point (read-only arrays)."""
+    out = LocalFrame._axes_uncached(LocalFrame(lat0_deg=lat0_deg, lon0_deg=lon0_deg))
+    for a in out:
+        a.flags.writeable = False
+    return out
+
+
 @dataclass(frozen=True, slots=True, kw_only=True)
 class LocalFrame:
     """East/north metres on the tangent plane of the WGS-84 ellipsoid at a reference point.
@@ -146,6 +157,10 @@ class LocalFrame:
             raise DomainError(f"lon0_deg must be finite; got {self.lon0_deg}")
 
     def _axes(self) -> tuple[npt.NDArray[np.float64], ...]:
+        lat0, lon0 = self.lat0_deg, self.lon0_deg         # the signs keep -0.0 apart from 0.0 in the cache
+        return _frame_axes(lat0, lon0, math.copysign(1.0, lat0), math.copysign(1.0, lon0))
+
+    def _axes_uncached(self) -> tuple[npt.NDArray[np.float64], ...]:
         sp, cp = float(sind(self.lat0_deg)), float(cosd(self.lat0_deg))
         sl, cl = float(sind(self.lon0_deg)), float(cosd(self.lon0_deg))
         east = np.array([-sl, cl, 0.0])                      # [2] ENU rotation, row 1
@@ -177,13 +192,23 @@ class LocalFrame:
         """
         lat = np.asarray(lat_deg, dtype=float)
         lon = np.asarray(lon_deg, dtype=float)
-        if not (np.all(np.isfinite(lat)) and np.all(np.isfinite(lon))):
-            raise DomainError("lat_deg and lon_deg must be finite")
-        if np.any(np.abs(lat) > 90.0):
-            raise DomainError(f"lat_deg must be within -90..90; got {lat[np.abs(lat) > 90.0].ravel()[:3]}")
+        one = lat.ndim == 0 and lon.ndim == 0           # one point: plain float checks, no broadcast
+        if one:
+            if not (math.isfinite(lat) and math.isfinite(lon)):
+                raise DomainError("lat_deg and lon_deg must be finite")
+            if abs(float(lat)) > 90.0:
+                raise DomainError(f"lat_deg must be within -90..90; got {lat[np.abs(lat) > 90.0].ravel()[:3]}")
+        else:
+            if not (np.all(np.isfinite(lat)) and np.all(np.isfinite(lon))):
+                raise DomainError("lat_deg and lon_deg must be finite")
+            if np.any(np.abs(lat) > 90.0):
+                raise DomainError(f"lat_deg must be within -90..90; got {lat[np.abs(lat) > 90.0].ravel()[:3]}")
         origin, east, north, up = self._axes()
         x, y, z = _ecef_m(lat, lon)
-        d = np.stack(np.broadcast_arrays(x, y, z), axis=-1) - origin
+        if one:
+            d = np.array([x, y, z], dtype=float) - origin
+        else:
+            d = np.stack(np.broadcast_arrays(x, y, z), axis=-1) - origin
         e_m, n_m, u_m = d @ east, d @ north, d @ up
         reach = np.maximum(np.hypot(e_m, n_m), -u_m)
         if np.any(reach > MAX_FRAME_RANGE_M):
