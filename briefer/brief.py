@@ -206,10 +206,15 @@ def situation(request: BriefRequest) -> Situation:
         vis_m, vis_reported = UNREPORTED_VISIBILITY_FACTOR * radius.radius_nm * units.NM_TO_M, False
     weight_ratio = request.landing_weight_lb / prof.reference_weight_lb
 
+    aoa_by_bank: dict[float, float] = {}     # ranked once per plan at a few bank levels: computed once each
+
     def aoa_margin(bank_deg: float) -> float:
-        return cfg.aoa_stall - float(turn.angle_of_attack_in_turn(
-            circling_ias, bank_deg, vref_kt=cfg.vref_kt, vs1g_kt=cfg.vs1g_kt, aoa_ref=cfg.aoa_ref,
-            aoa_stall=cfg.aoa_stall, weight_ratio=weight_ratio))
+        m = aoa_by_bank.get(bank_deg)
+        if m is None:
+            m = aoa_by_bank[bank_deg] = cfg.aoa_stall - float(turn.angle_of_attack_in_turn(
+                circling_ias, bank_deg, vref_kt=cfg.vref_kt, vs1g_kt=cfg.vs1g_kt, aoa_ref=cfg.aoa_ref,
+                aoa_stall=cfg.aoa_stall, weight_ratio=weight_ratio))
+        return m
 
     return Situation(request=request, frame=frame, runway=rf, area=area, area_rw=area_rw, area_radius=radius,
                      inputs=inputs,
@@ -724,12 +729,12 @@ def _plan_info(s: Situation, choice: maneuver.PlanChoice, best: maneuver.RankedP
 
 def _main_missed_direction(guide: maneuver.MissedApproachGuide, plan: maneuver.Plan) -> str:
     """The turn direction that holds longest on the downwind (or over the whole plan)."""
-    legs = np.asarray(plan.track_leg_index)
-    names = [plan.leg_names[int(i)] for i in legs]
-    dirs = np.array(guide.direction)
-    on_down = np.array(["downwind" in n for n in names])
-    pool = dirs[on_down] if on_down.any() else dirs
-    counts = {d: int(np.sum(pool == d)) for d in ("left", "right")}
+    down_legs = {i for i, n in enumerate(plan.leg_names) if "downwind" in n}
+    dirs = guide.direction
+    if len(dirs) != len(plan.track_leg_index):
+        raise IndexError("one missed-approach direction per track point")
+    pool = [d for d, i in zip(dirs, np.asarray(plan.track_leg_index).tolist()) if i in down_legs] or dirs
+    counts = {d: pool.count(d) for d in ("left", "right")}
     if not any(counts.values()):
         return ""
     return max(counts, key=counts.get)
