@@ -20,6 +20,7 @@ Choices made here where the issues are silent (said again in the output where it
 from __future__ import annotations
 
 import math
+import re
 from collections.abc import Callable
 from dataclasses import dataclass, replace
 from datetime import datetime, timezone
@@ -361,7 +362,9 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
     authorised = entry is not None
     na_reason = "" if authorised else (appr.circling_not_authorised_reason(cat) or "not authorised")
     if not authorised:
-        add("danger", "not-authorised", f"Circling is not authorised for category {cat}: {na_reason}.")
+        names_it = re.search(rf"\bcategory\s+{cat}\b", na_reason, flags=re.IGNORECASE) is not None
+        lead = "Circling is not authorised" + ("" if names_it else f" for category {cat}")
+        add("danger", "not-authorised", f"{lead}: {na_reason.rstrip('.')}.")
     mda = s.mda_ft
     haa = None if mda is None else mda - elev
     vis_req = None
@@ -499,8 +502,8 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
                 "if the runway is in sight in time for a normal descent; otherwise fly the missed approach.")
     elif choice.bank_needed_deg is None:
         add("danger", "no-plan-fits",
-            f"No plan fits up to the bank limit of {s.bank_limit_deg:.0f}°: "
-            + "; ".join(best.failures or plan.reasons or ("see the alternatives",)) + ".")
+            f"No plan passes every check up to the bank limit of {s.bank_limit_deg:.0f}°; the best one, shown, "
+            + "fails: " + "; ".join(best.failures or plan.reasons or ("see the alternatives",)) + ".")
     elif choice.bank_needed_deg > bank_target + 1e-6:
         add("warning", "bank-raised",
             f"The plan needs {choice.bank_needed_deg:.0f}° bank, more than the {bank_target:.0f}° target.")
