@@ -44,6 +44,10 @@ _TINY = 1e-12
 # smooth ramp integrands to ~1e-12 relative; checked against RK4 in tests/test_maneuver.py).
 GL_NODES, GL_WEIGHTS = np.polynomial.legendre.leggauss(8)
 _GL_U = 0.5 * (GL_NODES + 1.0)          # the nodes mapped to [0, 1]
+try:                                    # the ufunc np.clip calls, without its Python wrapper
+    from numpy._core.umath import clip as _uclip
+except ImportError:                     # pragma: no cover - older numpy
+    _uclip = np.clip
 
 
 # --------------------------------------------------------------------------------------------
@@ -438,7 +442,7 @@ def _turn_air(t: Numeric, prof: TurnProfile, expand: int, heading: bool
     tr, tc, dp, wp, v, a = prof.tr, prof.tc, prof.dp, prof.wp, prof.tas, prof.angle
     for _ in range(expand):
         tr, tc, dp, wp, v, a = tr[..., None], tc[..., None], dp[..., None], wp[..., None], v[..., None], a[..., None]
-    tc_ = np.clip(t - tr, 0.0, tc)
+    tc_ = _uclip(t - tr, 0.0, tc)
     rp = v / np.maximum(wp, _TINY)
     hb = dp + wp * tc_
     x = rp * (np.sin(hb) - np.sin(dp))
@@ -447,9 +451,9 @@ def _turn_air(t: Numeric, prof: TurnProfile, expand: int, heading: bool
     if prof.k > 0.0:
         total = 2.0 * tr + tc
         t1 = np.minimum(t, tr) + 0.0 * t
-        t3 = np.clip(total - t, 0.0, tr)
-        t1, t_r, t3 = np.broadcast_arrays(t1, tr + 0.0 * t, t3)
-        q = _ramp_q_expanded(np.stack([t1, t_r, t3]), prof, expand)     # one quadrature call for the three
+        t3 = _uclip(total - t, 0.0, tr)
+        # one quadrature call for the three (t1, tr + 0 t and t3 share the shape of t broadcast with tr)
+        q = _ramp_q_expanded(np.concatenate([t1[None], (tr + 0.0 * t)[None], t3[None]]), prof, expand)
         c1, s1, cr, sr, c3, s3 = q[0].real, q[0].imag, q[1].real, q[1].imag, q[2].real, q[2].imag
         ca, sa = np.cos(a), np.sin(a)
         x = x + c1 + ca * (cr - c3) + sa * (sr - s3)

@@ -523,7 +523,7 @@ def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx
                  ) -> ShapeSolution:
     """:func:`solve_shape` with the fixed parts taken from ``inputs`` (winds, sides, banks vary)."""
     b = np.asarray(bank_deg, dtype=float)
-    if not np.all((b > 0.0) & (b < BANK_MAX_DEG)):
+    if not ((b > 0.0) & (b < BANK_MAX_DEG)).all():
         raise DomainError(f"bank_deg = {bank_deg}: a turn needs 0 < bank < 90")
     dg = descent if descent is not None else descent_geometry(inputs)
     rr = None if inputs.roll_rate_deg_per_s is None else math.radians(inputs.roll_rate_deg_per_s)
