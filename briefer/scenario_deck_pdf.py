@@ -12,7 +12,7 @@ so the deck and the card print the same numbers the same way:
 
 The document's creation date is fixed, so the same deck gives the same bytes.
 
-The student page borrows the card's painter (`briefer.render.pdf._Card`, private to that module)
+The student page uses the card's painter (`briefer.render.pdf.CardPainter`)
 for its header, bars, rows and plan view, so that both pages share one typography.
 """
 
@@ -175,7 +175,7 @@ def _student_page(pdf: Any, case: DeckCase, index: int, total: int, page_w: floa
     sc = case.scenario
     layout = replace(card_layout(case.brief), title=f"STUDENT PAGE {index}/{total}",
                      briefed=f"emphasis: {EMPHASIS_TITLES[sc.emphasis]}", plan_view=chart_scene(case))
-    c = card_pdf._Card(pdf, layout, page_w, page_h, 1.0, widths)
+    c = card_pdf.CardPainter(pdf, layout, page_w, page_h, 1.0, widths)
     c.draw = True
     pdf.set_text_color(0)
     pdf.set_draw_color(0)

@@ -117,7 +117,7 @@ def _grey(level: float) -> int:
     return max(0, min(255, round(level * 255)))
 
 
-class _Card:
+class CardPainter:
     """Draws (or, with `draw=False`, only measures) the card's blocks at one scale of small print."""
 
     def __init__(self, pdf: Any, layout: CardLayout, page_w: float, page_h: float, scale: float,
@@ -592,7 +592,7 @@ def _overlap(a: Box, b: Box) -> bool:
     return a[0] < b[2] and b[0] < a[2] and a[1] < b[3] and b[1] < a[3]
 
 
-def _place_labels(card: _Card, prims: list[Any]) -> list[Any]:
+def _place_labels(card: CardPainter, prims: list[Any]) -> list[Any]:
     """Move the plan view's text off the drawing's key lines and off other text.
 
     A runway designator goes just beyond its runway's end, along the runway (not on the runway,
@@ -643,7 +643,7 @@ def _place_labels(card: _Card, prims: list[Any]) -> list[Any]:
     return out
 
 
-def _spare(card: _Card, plan_h: float, warn_limit: int | None = None) -> tuple[float, float]:
+def _spare(card: CardPainter, plan_h: float, warn_limit: int | None = None) -> tuple[float, float]:
     """(millimetres left over, negative for an overflow; the plan view's height) with this
     least plan height and these warnings."""
     draw, card.draw = card.draw, False
@@ -668,8 +668,8 @@ def _fit(pdf: Any, layout: CardLayout, page_w: float, page_h: float,
          widths: dict[tuple[str, float, str], float], extra: tuple[Section, ...] = ()) -> _Fit:
     """The largest print and plan view that fit. At the smallest print the plan view gives way to
     its floor, then the side view shrinks; only then are warnings left off (a line says how many)."""
-    def card(scale: float, side_h: float = SIDE_VIEW_H_MM) -> _Card:
-        return _Card(pdf, layout, page_w, page_h, scale, widths, side_h=side_h, extra=extra)
+    def card(scale: float, side_h: float = SIDE_VIEW_H_MM) -> CardPainter:
+        return CardPainter(pdf, layout, page_w, page_h, scale, widths, side_h=side_h, extra=extra)
 
     for sc in SCALES:
         c = card(sc)
@@ -703,7 +703,7 @@ def draw_card_page(pdf: Any, layout: CardLayout, *, extra: tuple[Section, ...] =
     widths = {} if widths is None else widths
     page_w, page_h = pdf.w, pdf.h
     fit = _fit(pdf, layout, page_w, page_h, widths, extra)
-    card = _Card(pdf, layout, page_w, page_h, fit.scale, widths, side_h=fit.side_h, extra=extra)
+    card = CardPainter(pdf, layout, page_w, page_h, fit.scale, widths, side_h=fit.side_h, extra=extra)
     card.draw = True
     pdf.set_text_color(0)
     pdf.set_draw_color(0)
