@@ -645,7 +645,7 @@ def test_rank_visibility_and_aoa():
     inp = reciprocal()
     ranked = rank_plans(candidate_plans(inp), margin_fn=stadium(9000.0), visibility_m=3000.0, bank_limit_deg=35.0,
                         aoa_margin_fn=lambda bank: 10.0 - bank / 5.0)
-    assert all("beyond the 3000 m visibility" in " ".join(r.failures) for r in ranked)
+    assert all("beyond the 1.9 SM visibility" in " ".join(r.failures) for r in ranked)   # 3000 m = 1.86 SM
     assert ranked[0].aoa_margin_deg == pytest.approx(5.0)
 
 

@@ -33,6 +33,7 @@ import numpy.typing as npt
 from briefer.core.maneuver_plans import Plan, candidate_plans
 from briefer.core.maneuver_solver import CircleInputs
 from briefer.errors import DomainError
+from briefer.units import M_TO_NM, M_TO_SM
 
 MARGINAL_BANK_DEG = 5.0
 MARGINAL_AREA_FRACTION = 0.10
@@ -88,6 +89,11 @@ class RankedPlan:
             raise DomainError(f"verdict = {self.verdict!r}")
         if (self.verdict == "does not fit") != bool(self.failures):
             raise DomainError("'does not fit' exactly when there are failures")
+
+
+def _nm(distance_m: float) -> str:
+    """A distance for the crew: nautical miles, two decimals."""
+    return f"{distance_m * M_TO_NM:.2f} NM"
 
 
 def _label(p: Plan) -> str:
@@ -150,14 +156,15 @@ def rank_plans(plans: tuple[Plan, ...] | list[Plan], *, margin_fn: MarginFn, vis
         elif p.bank_deg > bank_limit_deg - MARGINAL_BANK_DEG:
             marg.append(f"{p.bank_deg:g} deg bank is within {MARGINAL_BANK_DEG:g} deg of the limit")
         if area < 0.0:
-            fails.append(f"leaves the protected area by {-area:.0f} m")
+            fails.append(f"leaves the protected area by {_nm(-area)}")
         elif area_radius_m is not None and area < MARGINAL_AREA_FRACTION * area_radius_m:
-            marg.append(f"only {area:.0f} m inside the protected area (< 10 % of R)")
+            marg.append(f"only {_nm(area)} inside the protected area (< 10 % of R)")
         if vis < 0.0:
-            fails.append(f"the runway gets {p.max_distance_from_runway_m:.0f} m away, beyond the "
-                         f"{visibility_m:.0f} m visibility")
+            fails.append(f"the runway gets {_nm(p.max_distance_from_runway_m)} away, beyond the "
+                         f"{visibility_m * M_TO_SM:.1f} SM visibility")
         elif p.max_distance_from_runway_m > MARGINAL_VISIBILITY_FRACTION * visibility_m:
-            marg.append(f"the runway gets {p.max_distance_from_runway_m:.0f} m away, over 90 % of the visibility")
+            marg.append(f"the runway gets {_nm(p.max_distance_from_runway_m)} away, over 90 % of the "
+                        f"{visibility_m * M_TO_SM:.1f} SM visibility")
         if aoa is not None:
             if aoa < 0.0:
                 fails.append(f"angle-of-attack margin {aoa:.1f} deg: beyond the stall")
@@ -186,9 +193,9 @@ def _why_loses(best: tuple, row: tuple) -> str:
         return f"needs {p.bank_deg:g} deg bank against {bp.bank_deg:g} deg for {_label(bp)}"
     if key[2] > bkey[2]:
         if min(area, vis) == area:
-            return f"area margin {area:.0f} m against {min(barea, bvis):.0f} m for {_label(bp)}"
-        return f"the runway gets {p.max_distance_from_runway_m:.0f} m away (visibility margin {vis:.0f} m) " \
-               f"against a {min(barea, bvis):.0f} m margin for {_label(bp)}"
+            return f"area margin {_nm(area)} against {_nm(min(barea, bvis))} for {_label(bp)}"
+        return f"the runway gets {_nm(p.max_distance_from_runway_m)} away (visibility margin {_nm(vis)}) " \
+               f"against a {_nm(min(barea, bvis))} margin for {_label(bp)}"
     if key[3] > bkey[3]:
         return f"angle-of-attack margin {aoa:.1f} deg against {-bkey[3]:.1f} deg for {_label(bp)}"
     if round(p.total_time_s - bp.total_time_s, 1) == 0.0:
