@@ -379,7 +379,12 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
     sig, wx, wy, bank = sig + zero, wx + zero, wy + zero, bank + zero
     v = float(tas_mps)
 
-    def turn(psi_a: FloatArray, angle: FloatArray, sgn: FloatArray, name: str, nominal: FloatArray) -> LegArrays:
+    def turns(*specs: tuple[FloatArray, FloatArray, FloatArray, str, FloatArray]) -> list[LegArrays]:
+        """Turn legs from (entry heading, angle, sign, name, calm-wind angle) specs, all computed in
+        one call of the (elementwise) kernels: the specs are stacked on a new leading axis."""
+        psi_a = np.concatenate([(sp[0] + zero)[None] for sp in specs])
+        angle = np.concatenate([(sp[1] + zero)[None] for sp in specs])
+        sgn = np.concatenate([(sp[2] + zero)[None] for sp in specs])
         prof = turn_profile(angle, bank, v, roll_rate_rad)
         if roll_rate_rad is None:      # the trochoid: s r (sin psi_b - sin psi_a, cos psi_a - cos psi_b) + w T
             sr = sgn * (v / prof.wp)
@@ -388,8 +393,16 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
             dy = sr * (np.cos(psi_a) - np.cos(psi_b)) + wy * prof.total
         else:
             dx, dy = turn_end_displacement(prof, psi0=psi_a, sign=sgn, wx=wx, wy=wy)
-        return LegArrays(kind="turn", name=name, duration=prof.total, psi0=psi_a + zero, prof=prof,
-                         sign=sgn + zero, dx=dx, dy=dy, nominal_rad=float(np.max(nominal)))
+        out = []
+        for i, sp in enumerate(specs):
+            p_i = TurnProfile(angle=prof.angle[i], tas=prof.tas[i], tr=prof.tr[i], tc=prof.tc[i], dp=prof.dp[i],
+                              wp=prof.wp[i], c=prof.c[i], k=prof.k, total=prof.total[i])
+            out.append(LegArrays(kind="turn", name=sp[3], duration=p_i.total, psi0=psi_a[i], prof=p_i,
+                                 sign=sgn[i], dx=dx[i], dy=dy[i], nominal_rad=float(np.max(sp[4]))))
+        return out
+
+    def turn(psi_a: FloatArray, angle: FloatArray, sgn: FloatArray, name: str, nominal: FloatArray) -> LegArrays:
+        return turns((psi_a, angle, sgn, name, nominal))[0]
 
     def straight(psi: FloatArray, gx: FloatArray, gy: FloatArray, t: FloatArray, name: str,
                  track: float | None) -> LegArrays:
@@ -406,23 +419,26 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
         abeam_s = break_s = None
 
         if shape in ("downwind-join", "break-and-return"):
-            t_fin = turn(psi_d, _wrap_2pi(sig * (psi_f - psi_d)), sig, "final turn", np.pi + zero)
+            fin_spec = (psi_d, _wrap_2pi(sig * (psi_f - psi_d)), sig, "final turn", np.pi + zero)
+            if shape == "downwind-join":
+                t_fin, t_join = turns(fin_spec, (psi0, _wrap_2pi(sig * (psi_d - psi0)), sig, "turn downwind",
+                                                 _wrap_2pi(sig * (np.pi - c0_rad))))
+            else:
+                psi_b = psi0 - sig * break_rad
+                t_fin, t_brk, t_join = turns(
+                    fin_spec, (psi0, break_rad + zero, -sig, "break turn", break_rad + zero),
+                    (psi_b, _wrap_2pi(sig * (psi_d - psi_b)), sig, "turn downwind",
+                     _wrap_2pi(sig * (np.pi - c0_rad) + break_rad)))
             x_ri, y_ri = -d_m - t_fin.dx, -t_fin.dy
             offset = sig * y_ri
             reasons = reasons | _flag(offset > 0.0, R_WRONG_SIDE)
             if shape == "downwind-join":
-                t_join = turn(psi0, _wrap_2pi(sig * (psi_d - psi0)), sig, "turn downwind",
-                              _wrap_2pi(sig * (np.pi - c0_rad)))
                 t_j = (y_ri - y0 - t_join.dy) / g0y
                 x_j = x0 + g0x * t_j + t_join.dx
                 first = [straight(psi0, g0x, g0y, t_j, "arrival", c0_rad), t_join]
                 break_s = t_j
             else:
-                psi_b = psi0 - sig * break_rad
-                t_brk = turn(psi0, break_rad + zero, -sig, "break turn", break_rad + zero)
                 gbx, gby = v * np.cos(psi_b) + wx, v * np.sin(psi_b) + wy
-                t_join = turn(psi_b, _wrap_2pi(sig * (psi_d - psi_b)), sig, "turn downwind",
-                              _wrap_2pi(sig * (np.pi - c0_rad) + break_rad))
                 reasons = reasons | _flag(sig * gby > _SMALL_GS, R_BREAK_BACK)
                 t_j = (y_ri - y0 - t_brk.dy - t_join.dy) / gby
                 x_j = x0 + t_brk.dx + gbx * t_j + t_join.dx
@@ -435,10 +451,10 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
             roll_out = d_m + zero
         elif shape == "teardrop":
             psi_t = psi0 - sig * teardrop_rad
-            t_off = turn(psi0, teardrop_rad + zero, -sig, "offset turn", teardrop_rad + zero)
+            t_off, t_fin = turns((psi0, teardrop_rad + zero, -sig, "offset turn", teardrop_rad + zero),
+                                 (psi_t, _wrap_2pi(sig * (psi_f - psi_t)), sig, "final turn",
+                                  _wrap_2pi(-sig * c0_rad + teardrop_rad)))
             gtx, gty = v * np.cos(psi_t) + wx, v * np.sin(psi_t) + wy
-            t_fin = turn(psi_t, _wrap_2pi(sig * (psi_f - psi_t)), sig, "final turn",
-                         _wrap_2pi(-sig * c0_rad + teardrop_rad))
             bx = -d_m - x0 - t_off.dx - t_fin.dx
             by = -y0 - t_off.dy - t_fin.dy
             det = g0x * gty - g0y * gtx
@@ -469,11 +485,11 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
             psi_x, gs_x, ok_x = crab(trk_x, v, wx, wy)
             psi_b, gs_b, ok_b = crab(trk_b, v, wx, wy)
             t_up = np.maximum((circuit_turn_x_m - x0) / g0x, 0.0)
-            t_cw = turn(psi0, _wrap_2pi(sig * (psi_x - psi0)), sig, "crosswind turn",
-                        _wrap_2pi(0.5 * np.pi - sig * c0_rad))
-            t_dwt = turn(psi_x, _wrap_2pi(sig * (psi_d - psi_x)), sig, "downwind turn", 0.5 * np.pi + zero)
-            t_bt = turn(psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero)
-            t_fin = turn(psi_b, _wrap_2pi(sig * (psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero)
+            t_cw, t_dwt, t_bt, t_fin = turns(
+                (psi0, _wrap_2pi(sig * (psi_x - psi0)), sig, "crosswind turn", _wrap_2pi(0.5 * np.pi - sig * c0_rad)),
+                (psi_x, _wrap_2pi(sig * (psi_d - psi_x)), sig, "downwind turn", 0.5 * np.pi + zero),
+                (psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
+                (psi_b, _wrap_2pi(sig * (psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero))
             y_a = y0 + g0y * t_up + t_cw.dy + t_dwt.dy            # downwind y with no crosswind leg
             y_b = -(t_bt.dy + t_fin.dy)                            # downwind y with no base leg
             offset = np.maximum(sig * y_a, sig * y_b)               # the smaller offset both ends reach
