@@ -410,9 +410,10 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
                          gy=gy + zero, track_rad=track)
 
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        psi_f, gs_f, ok_f = crab(0.0, v, wx, wy)
-        psi_d, gs_d, ok_d = crab(np.pi, v, wx, wy)
-        psi0, gs0, ok0 = crab(c0_rad, v, wx, wy)
+        # final (0), downwind (pi) and arrival tracks in one call of the (elementwise) kernel
+        trk3 = np.array([0.0, np.pi, float(c0_rad)]).reshape((3,) + (1,) * len(shp))
+        psi3, gs3, ok3 = crab(trk3, v, wx, wy)
+        (psi_f, psi_d, psi0), (gs_f, gs_d, gs0), (ok_f, ok_d, ok0) = psi3, gs3, ok3
         g0x, g0y = gs0 * math.cos(c0_rad), gs0 * math.sin(c0_rad)
         reasons = _flag(ok_f & ok_d & ok0, R_WIND)
         final_leg = straight(psi_f, gs_f, zero, d_m / gs_f, "final", 0.0)
