@@ -466,8 +466,8 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
                 leave_mda=leave, legs=legs, leg_names=names, leg_times_s=times,
                 total_time_s=float(sum(times)), start=start, track_xy_m=xy, track_time_s=tim,
                 track_heading_deg=np.degrees(hdg), track_leg_index=trk.leg_index,
-                max_distance_from_threshold_m=float(np.sqrt(np.max(x * x + y * y))),
-                max_distance_from_runway_m=float(np.max(_distance_to_runway_m(x, y, inputs.runway_length_m))))
+                max_distance_from_threshold_m=float(np.sqrt((x * x + y * y).max())),
+                max_distance_from_runway_m=float(_distance_to_runway_m(x, y, inputs.runway_length_m).max()))
 
 
 def plan_sample(plan: Plan, n: int) -> TrackSamples:

@@ -639,7 +639,7 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     tim = np.empty((nt,) + shp) if with_heading else None
     wind = sol.wx + 1j * sol.wy
     lead = (1,) * len(shp)
-    cells = int(np.prod(shp))
+    cells = math.prod(shp)
     j = 0
     t_start = np.zeros(shp)
     with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
@@ -727,7 +727,8 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                     tim[j:j + n] = t_start + leg.duration * f
             t_start = t_start + leg.duration
             j += n
-    last = (lambda a: a) if not shp else (lambda a: np.moveaxis(a, 0, -1))  # noqa: E731
+    order = tuple(range(1, len(shp) + 1)) + (0,)      # the sample axis last (np.moveaxis(a, 0, -1))
+    last = (lambda a: a) if not shp else (lambda a: a.transpose(order))  # noqa: E731
     xy = np.ascontiguousarray(last(out)).view(np.float64).reshape(shp + (nt, 2))
     leg_index = np.repeat(np.arange(len(counts)), counts)
     if hdg is None or tim is None:
