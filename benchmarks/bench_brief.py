@@ -8,7 +8,8 @@ Targets (issue 4): build_brief(demo_request()) <= 5 ms; envelope_for(demo_reques
 default 36 x 41 grid <= 50 ms. The whole-process time has no target; it is printed so that start-up
 regressions show.
 
-Timings depend on the machine and its load: compare runs on the same machine, quiet.
+Timings depend on the machine and its load: compare runs on the same machine, quiet; on a loaded
+machine compare the minimum and the CPU median of interleaved runs (old tree, new tree, old, new).
 """
 
 from __future__ import annotations
@@ -31,16 +32,18 @@ TARGET_ENVELOPE_MS = 50.0
 COMPUTED_UTC = "2000-01-01 00:00Z"     # fixed, so the clock is not timed
 
 
-def median_ms(fn: Callable[[], object], *, repeat: int, warmup: int) -> tuple[float, float, float]:
-    """(median, min, max) wall time of fn() in ms, after `warmup` untimed calls."""
+def median_ms(fn: Callable[[], object], *, repeat: int, warmup: int) -> tuple[float, float, float, float]:
+    """(median, min, max) wall time of fn() in ms, after `warmup` untimed calls, and the median
+    CPU time of this process (less sensitive than wall time to other processes on a loaded machine)."""
     for _ in range(warmup):
         fn()
-    times = []
+    times, cpu = [], []
     for _ in range(repeat):
-        t0 = time.perf_counter()
+        t0, c0 = time.perf_counter(), time.process_time()
         fn()
         times.append((time.perf_counter() - t0) * 1e3)
-    return statistics.median(times), min(times), max(times)
+        cpu.append((time.process_time() - c0) * 1e3)
+    return statistics.median(times), min(times), max(times), statistics.median(cpu)
 
 
 def process_ms(argv: list[str], *, repeat: int) -> tuple[float, float, float]:
@@ -76,10 +79,11 @@ def profile_top(fn: Callable[[], object], *, calls: int, top: int) -> str:
     return out.getvalue()
 
 
-def line(label: str, stats: tuple[float, float, float], target: float | None = None) -> str:
-    med, lo, hi = stats
+def line(label: str, stats: tuple[float, ...], target: float | None = None) -> str:
+    med, lo, hi = stats[:3]
+    cpu = f", cpu median {stats[3]:.2f}" if len(stats) > 3 else ""
     verdict = "" if target is None else f"  target <= {target:g} ms: {'OK' if med <= target else 'MISSED'}"
-    return f"{label:<44} median {med:8.2f} ms (min {lo:.2f}, max {hi:.2f}){verdict}"
+    return f"{label:<44} median {med:8.2f} ms (min {lo:.2f}, max {hi:.2f}{cpu}){verdict}"
 
 
 def main(argv: list[str] | None = None) -> int:
