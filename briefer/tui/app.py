@@ -11,7 +11,7 @@ from __future__ import annotations
 
 from collections.abc import Iterable
 from dataclasses import replace
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from textual import on, work
 from textual.app import App, SystemCommand
@@ -21,7 +21,6 @@ from textual.screen import Screen
 from textual.widgets import RadioSet, TabbedContent
 
 from briefer.errors import BriefingError
-from briefer.result import Brief
 from briefer.tui.briefing_screen import STEPS, BriefingScreen
 from briefer.tui.state import (
     AppCatalog,
@@ -33,6 +32,9 @@ from briefer.tui.state import (
 )
 from briefer.tui.themes import NIGHT_THEME, THEMES
 from briefer.tui.widgets import Choice, ChoiceList, EnvelopePolar, FieldRow
+
+if TYPE_CHECKING:   # numpy and the brief are imported by the first brief's worker, after the first frame
+    from briefer.result import Brief
 
 DEBOUNCE_S = 0.1
 ENVELOPE_DIRECTIONS_DEG = tuple(range(0, 360, 10))
@@ -121,14 +123,24 @@ class BriefingApp(App[None]):
     @on(BriefingScreen.Ready)
     def _screen_ready(self) -> None:
         self._push_inputs(self.inputs)
-        self._schedule(0.0)
+        # The first brief (and the numpy/core imports it needs) starts once the first frame is
+        # painted: the screen shows "computing the brief..." until then.
+        self._starting = True
+        self.call_after_refresh(self._first_compute)
         if self._notice:
             self.notify(self._notice, severity="error", timeout=10)
+
+    _starting = False
+
+    def _first_compute(self) -> None:
+        self._starting = False
+        if self._timer is None and not self.computing:
+            self._schedule(0.0)
 
     @property
     def settled(self) -> bool:
         """True when what is shown answers the current inputs (or they cannot be briefed)."""
-        return self._timer is None and not self.computing and (
+        return self._timer is None and not self.computing and not self._starting and (
             self.brief_inputs == self.inputs or self.stale is not None)
 
     # --- pushing inputs into the widgets ---------------------------------------------------

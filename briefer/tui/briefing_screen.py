@@ -3,6 +3,8 @@
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 from rich.text import Text
 from textual.app import ComposeResult
 from textual.message import Message
@@ -11,16 +13,15 @@ from textual.screen import Screen
 from textual.widgets import Footer, Label, RadioButton, RadioSet, Static, TabbedContent, TabPane
 
 from briefer.cautions import SHORT_CAUTION
-from briefer.render.views import BriefView
-from briefer.result import Brief
-from briefer.tui import views
 from briefer.tui.state import (
     parse_altimeter_hpa,
     parse_optional_number,
     parse_wind_text,
 )
 from briefer.tui.widgets import Choice, ChoiceList, EnvelopePolar, FieldRow, PlanCanvas, SideView
-from briefer.tui.widgets._envelope_polar import legend_lines
+
+if TYPE_CHECKING:   # the views import numpy and the result model: imported with the first brief
+    from briefer.result import Brief
 
 STEPS = (("aircraft", "1 Aircraft"), ("airfield", "2 Airfield"), ("runway", "3 Runway"),
          ("weather", "4 Weather"), ("brief", "5 Brief"), ("plan", "6 Plan"), ("sight", "7 Sight"),
@@ -131,7 +132,6 @@ class BriefingScreen(Screen):
         self.query_one("#airfield-list", ChoiceList).border_title = "Airfield"
         self.query_one("#approach", ChoiceList).border_title = "Approach"
         self.query_one("#runway-list", ChoiceList).border_title = "Landing runway"
-        self.show_envelope_legend()
         self.post_message(self.Ready())
 
     class Ready(Message):
@@ -166,7 +166,8 @@ class BriefingScreen(Screen):
         self.query_one(PlanCanvas).ascii = ascii
         self.query_one(SideView).ascii = ascii
         self.query_one(EnvelopePolar).unicode = not ascii
-        self.show_envelope_legend()
+        if self._legend_shown:
+            self.show_envelope_legend()
         self._dirty |= {"plan", "sight"}
         self._draw_pane(self.query_one("#steps", TabbedContent).active)
 
@@ -185,15 +186,20 @@ class BriefingScreen(Screen):
         self._draw_pane(event.pane.id or "")
 
     def _draw_pane(self, pane_id: str) -> None:
+        if pane_id == "envelope" and not self._legend_shown:
+            self.show_envelope_legend()
         brief = self.brief
         if brief is None or pane_id not in self._dirty:
             return
         self._dirty.discard(pane_id)
+        from briefer.tui import views
         if pane_id in ("aircraft", "airfield", "runway", "weather"):
             fn = {"aircraft": views.aircraft_implies, "airfield": views.airfield_implies,
                   "runway": views.runway_implies, "weather": views.weather_implies}[pane_id]
             self.query_one(f"#implies-{pane_id}", Static).update(fn(brief))
         elif pane_id == "brief":
+            from briefer.render.views import BriefView
+
             self.query_one("#brief-full", Static).update(BriefView(brief))
         elif pane_id == "plan":
             canvas = self.query_one(PlanCanvas)
@@ -214,6 +220,8 @@ class BriefingScreen(Screen):
         if brief is None:
             summary.update(Text("No brief yet.", style="bold"))
         else:
+            from briefer.tui import views
+
             summary.update(views.summary_text(brief))
         if stale is not None:
             t = Text(no_wrap=True, overflow="ellipsis")
@@ -221,6 +229,8 @@ class BriefingScreen(Screen):
             t.append(" last good brief shown: " + stale, style="bold")
             warnings.update(t)
         elif brief is not None:
+            from briefer.tui import views
+
             warnings.update(views.warnings_line(brief))
 
     def show_envelope(self, envelope, brief: Brief | None) -> None:
@@ -238,7 +248,13 @@ class BriefingScreen(Screen):
     def show_hover(self, text: str) -> None:
         self.query_one("#envelope-hover", Static).update(Text("Pointer: " + text))
 
+    _legend_shown = False
+
     def show_envelope_legend(self) -> None:
+        """The envelope's legend (drawn when its view is first shown: it reads the core's tables)."""
+        from briefer.tui.widgets._envelope_polar import legend_lines
+
+        self._legend_shown = True
         t = Text()
         t.append("WIND ENVELOPE\n", style="bold underline")
         t.append("Top: wind from ahead on final; right: from the right. Centre calm.\n")

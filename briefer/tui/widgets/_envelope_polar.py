@@ -4,25 +4,37 @@ calm in the centre, rings every 10 kt, one glyph per cell (fits / marginal / doe
 from __future__ import annotations
 
 import math
+from functools import cache
+from typing import TYPE_CHECKING
 
-import numpy as np
 from rich.text import Text
 from textual import events
 from textual.message import Message
 from textual.reactive import reactive
 from textual.widget import Widget
 
-from briefer.core.maneuver_envelope import DOES_NOT_FIT, FITS, MARGINAL, STATUS_TEXT, Envelope
-from briefer.result import Brief
+if TYPE_CHECKING:               # numpy and the core are imported on first use (start-up time)
+    from briefer.core.maneuver_envelope import Envelope
+    from briefer.result import Brief
 
 RING_STEP_KT = 10.0
-GLYPHS = {True: {FITS: " ", MARGINAL: "░", DOES_NOT_FIT: "▓"}, False: {FITS: " ", MARGINAL: "+", DOES_NOT_FIT: "#"}}
 RING = {True: "·", False: "."}
-STYLES = {FITS: "green", MARGINAL: "bold yellow", DOES_NOT_FIT: "bold red"}
+
+
+@cache
+def _tables():
+    """(FITS, MARGINAL, DOES_NOT_FIT, STATUS_TEXT, GLYPHS, STYLES), read from the core on first use
+    (importing it pulls numpy, which the first frame does not need)."""
+    from briefer.core.maneuver_envelope import DOES_NOT_FIT, FITS, MARGINAL, STATUS_TEXT
+
+    glyphs = {True: {FITS: " ", MARGINAL: "░", DOES_NOT_FIT: "▓"}, False: {FITS: " ", MARGINAL: "+", DOES_NOT_FIT: "#"}}
+    styles = {FITS: "green", MARGINAL: "bold yellow", DOES_NOT_FIT: "bold red"}
+    return FITS, MARGINAL, DOES_NOT_FIT, STATUS_TEXT, glyphs, styles
 
 
 def legend_lines(unicode: bool) -> list[tuple[str, str, str]]:
     """(glyph, style, meaning) for the legend."""
+    _, MARGINAL, DOES_NOT_FIT, _, GLYPHS, STYLES = _tables()
     g = GLYPHS[unicode]
     return [(RING[unicode], "green", f"fits (dots: rings every {RING_STEP_KT:.0f} kt; edge = top speed)"),
             (g[MARGINAL], STYLES[MARGINAL], "marginal"),
@@ -63,6 +75,8 @@ class EnvelopePolar(Widget):
         """(centre col, centre row, radius in rows, top speed in kt)."""
         w, h = self.size.width, self.size.height
         r_rows = max(2.0, min((h - 3) / 2.0, (w - 8) / 4.0))
+        import numpy as np
+
         speed_max = float(np.max(self.envelope.wind_speed_kt)) if self.envelope is not None else 40.0
         return (w - 1) / 2.0, (h - 1) / 2.0, r_rows, speed_max
 
@@ -76,6 +90,8 @@ class EnvelopePolar(Widget):
         return math.degrees(math.atan2(dx, dy)) % 360.0, speed
 
     def _index(self, rel_deg: float, speed_kt: float) -> tuple[int, int]:
+        import numpy as np
+
         env = self.envelope
         dirs = np.asarray(env.wind_from_relative_deg, dtype=float)
         diff = np.abs((dirs - rel_deg + 180.0) % 360.0 - 180.0)
@@ -93,6 +109,7 @@ class EnvelopePolar(Widget):
         side = "ahead" if d in (0.0, 360.0) else "behind" if d == 180.0 else (
             f"{d:.0f}° right" if d < 180 else f"{360 - d:.0f}° left")
         st = int(env.status[i, j])
+        STATUS_TEXT = _tables()[3]
         why = "; ".join(env.reason_texts(i, j))
         return f"wind from {side}, {s:.0f} kt: {STATUS_TEXT[st].upper()}" + (f" ({why})" if why else "")
 
@@ -106,6 +123,7 @@ class EnvelopePolar(Widget):
         return self._cache[1]
 
     def _draw(self) -> Text:
+        FITS, _, _, _, GLYPHS, STYLES = _tables()
         env = self.envelope
         w, h = self.size.width, self.size.height
         cx, cy, r_rows, smax = self._frame()

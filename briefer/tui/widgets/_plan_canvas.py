@@ -2,24 +2,28 @@
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 from rich.style import Style
 from rich.text import Text
 from textual.reactive import reactive
 from textual.widget import Widget
 
-from briefer.render.brief_scene import scene_from_brief
-from briefer.render.planview import legend, render_plan
-from briefer.render.scene import ROLE_STYLES, Role
-from briefer.result import Brief
+if TYPE_CHECKING:        # the drawing code (numpy, the scene) is imported when the first brief is drawn
+    from briefer.render.scene import Role
+    from briefer.result import Brief
 
-SHORT_LEGEND = {Role.PROTECTED_AREA: "area", Role.EXCLUDED_SECTOR: "no circling", Role.OBSTACLE: "obstacle",
-                Role.FAMILIAR_TRACK: "familiar-picture turn", Role.PLANNED_TRACK: "planned track",
-                Role.ROLL_IN: "roll in", Role.DESCENT_POINT: "leave MDA", Role.RUNWAY: "runway",
-                Role.FINAL_APPROACH: "final", Role.MISSED_APPROACH: "missed", Role.THRESHOLD: "threshold"}
+SHORT_LEGEND_BY_NAME = {"PROTECTED_AREA": "area", "EXCLUDED_SECTOR": "no circling", "OBSTACLE": "obstacle",
+                        "FAMILIAR_TRACK": "familiar-picture turn", "PLANNED_TRACK": "planned track",
+                        "ROLL_IN": "roll in", "DESCENT_POINT": "leave MDA", "RUNWAY": "runway",
+                        "FINAL_APPROACH": "final", "MISSED_APPROACH": "missed", "THRESHOLD": "threshold"}
+"""Short legend texts by `Role` member name (the Role enum is imported on first use)."""
 
 
 def role_style(role: Role) -> Style:
     """The on-screen style of a role (colour plus bold/dim, which survive NO_COLOR)."""
+    from briefer.render.scene import ROLE_STYLES
+
     rs = ROLE_STYLES[role]
     return Style(color=rs.term_colour, bold=rs.term_bold or None, dim=rs.term_dim or None)
 
@@ -39,6 +43,8 @@ class PlanCanvas(Widget):
     def show(self, brief: Brief) -> None:
         """Draw this brief (the scene is built once per brief)."""
         if brief is not self.brief:
+            from briefer.render.brief_scene import scene_from_brief
+
             self.brief = brief
             self.scene = scene_from_brief(brief)
             self._cache = None
@@ -49,11 +55,13 @@ class PlanCanvas(Widget):
         t = Text()
         if self.scene is None:
             return t
+        from briefer.render.planview import legend
+
         for entry in legend(self.scene, ascii=self.ascii):
             if t:
                 t.append("  ")
             t.append(entry.sample.strip() or entry.sample, style=role_style(entry.role))
-            t.append(" " + SHORT_LEGEND.get(entry.role, entry.text))
+            t.append(" " + SHORT_LEGEND_BY_NAME.get(entry.role.name, entry.text))
         return t
 
     def render(self):
@@ -62,5 +70,7 @@ class PlanCanvas(Widget):
         w, h = self.size.width, self.size.height
         key = (w, h, self.ascii)
         if self._cache is None or self._cache[0] != key:
+            from briefer.render.planview import render_plan
+
             self._cache = (key, render_plan(self.scene, max(w, 4), max(h, 2), ascii=self.ascii))
         return self._cache[1]

@@ -4,15 +4,17 @@ lines down to the runway: at the planned offset, and at the familiar pattern's a
 from __future__ import annotations
 
 import math
+from typing import TYPE_CHECKING
 
 from rich.text import Text
 from textual.reactive import reactive
 from textual.widget import Widget
 
 from briefer import units
-from briefer.render.canvas import AsciiCanvas, BrailleCanvas, Canvas
-from briefer.render.scene import Role
-from briefer.result import Brief
+
+if TYPE_CHECKING:        # the drawing code is imported when the first brief is drawn
+    from briefer.render.canvas import Canvas
+    from briefer.result import Brief
 
 LABEL_COLS = 4
 
@@ -33,6 +35,9 @@ class SideView(Widget):
         self.refresh()
 
     def draw(self, cols: int, rows: int) -> Canvas:
+        from briefer.render.canvas import AsciiCanvas, BrailleCanvas
+        from briefer.render.scene import Role
+
         s = self.brief.sight_picture  # type: ignore[union-attr]
         canvas: Canvas = AsciiCanvas(cols, rows) if self.ascii else BrailleCanvas(cols, rows)
         dx, dy = canvas.dots_per_cell
