@@ -102,7 +102,7 @@ def _checked(name: str, value: Numeric, lo: float, hi: float, unit: str, *,
     The range check of the physics core (turn, wind and coldtemp import it too); `lo_open` and
     `hi_open` exclude the ends. The message quotes the value and the valid range (STYLE E).
     """
-    if type(value) is float or type(value) is int:     # scalar fast path, same rule as below
+    if type(value) is float or type(value) is int or type(value) is np.float64:  # scalar fast path, same rule as below
         v = float(value)
         if math.isfinite(v) and (v > lo if lo_open else v >= lo) and (v < hi if hi_open else v <= hi):
             return np.asarray(v)
@@ -111,7 +111,7 @@ def _checked(name: str, value: Numeric, lo: float, hi: float, unit: str, *,
         below = arr <= lo if lo_open else arr < lo
         above = arr >= hi if hi_open else arr > hi
         bad = ~np.isfinite(arr) | below | above
-    if np.any(bad):
+    if bad.any():
         first = float(arr[bad].flat[0]) if arr.ndim else float(arr)
         lo_op = "<" if lo_open else "<="
         hi_op = "<" if hi_open else "<="
@@ -460,7 +460,7 @@ def _altitude_ft_from_density_ratio(sigma: np.ndarray) -> np.ndarray:
     h_tropo = T0_K * (theta - 1.0) / LAPSE_K_PER_M
     h_strat = TROPOPAUSE_M - (R_J_PER_KG_K * T11_K / units.G0_MPS2) * np.log(sigma / SIGMA11)  # [1] isothermal
     h_m = np.where(sigma >= SIGMA11, h_tropo, h_strat)
-    if np.any(h_m > STRATOSPHERE_TOP_M):
+    if (h_m > STRATOSPHERE_TOP_M).any():
         raise DomainError("density altitude above 65,617 ft (20 km) is outside the modelled "
                           "atmosphere (troposphere and isothermal lower stratosphere)")
     return h_m * units.M_TO_FT
@@ -509,7 +509,7 @@ def _tas_from_cas(cas_kt: np.ndarray, p_pa: np.ndarray, t_k: np.ndarray) -> np.n
     a0_kt = A0_MPS * units.MPS_TO_KT
     qc = P0_PA * ((1.0 + 0.2 * (cas_kt / a0_kt) ** 2) ** 3.5 - 1.0)    # [3] eq. qc(CAS), sea-level standard
     mach = np.sqrt(5.0 * ((qc / p_pa + 1.0) ** (2.0 / 7.0) - 1.0))     # [3] eq. qc/p = (1 + 0.2 M^2)^3.5 - 1, inverted
-    if np.any(mach >= 1.0):
+    if (mach >= 1.0).any():
         raise DomainError("the calibrated airspeed gives a true Mach number of 1 or more at this "
                           "altitude; only subsonic flight is modelled")
     a_kt = np.sqrt(GAMMA * R_J_PER_KG_K * t_k) * units.MPS_TO_KT

@@ -79,7 +79,7 @@ def _points(points: ArrayLike, name: str = "points") -> npt.NDArray[np.float64]:
     arr = np.asarray(points, dtype=float)
     if arr.ndim == 0 or arr.shape[-1] != 2:
         raise DomainError(f"{name} must have a last axis of length 2 (east_m, north_m); got shape {arr.shape}")
-    if not np.all(np.isfinite(arr)):
+    if not np.isfinite(arr).all():
         raise DomainError(f"{name} must be finite; got {arr[~np.isfinite(arr)].ravel()[:3]}")
     return arr
 
@@ -199,9 +199,9 @@ class LocalFrame:
             if abs(float(lat)) > 90.0:
                 raise DomainError(f"lat_deg must be within -90..90; got {lat[np.abs(lat) > 90.0].ravel()[:3]}")
         else:
-            if not (np.all(np.isfinite(lat)) and np.all(np.isfinite(lon))):
+            if not (np.isfinite(lat).all() and np.isfinite(lon).all()):
                 raise DomainError("lat_deg and lon_deg must be finite")
-            if np.any(np.abs(lat) > 90.0):
+            if (np.abs(lat) > 90.0).any():
                 raise DomainError(f"lat_deg must be within -90..90; got {lat[np.abs(lat) > 90.0].ravel()[:3]}")
         origin, east, north, up = self._axes()
         x, y, z = _ecef_m(lat, lon)
@@ -211,7 +211,7 @@ class LocalFrame:
             d = np.stack(np.broadcast_arrays(x, y, z), axis=-1) - origin
         e_m, n_m, u_m = d @ east, d @ north, d @ up
         reach = np.maximum(np.hypot(e_m, n_m), -u_m)
-        if np.any(reach > MAX_FRAME_RANGE_M):
+        if (reach > MAX_FRAME_RANGE_M).any():
             raise DomainError(f"position is {float(np.max(reach)):.0f} m from the reference point; "
                               f"the local frame is valid within {MAX_FRAME_RANGE_M:.0f} m")
         return as_float(e_m), as_float(n_m)

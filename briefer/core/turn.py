@@ -314,7 +314,7 @@ def stall_bank_deg(speed_kt: Numeric, vs1g_kt: Numeric, *, weight_ratio: Numeric
     vs_w = vs * np.sqrt(w)
     # a relative slack of 1e-12 so that V equal to VS1G sqrt(w) up to rounding gives 0 deg
     below = v < vs_w * (1.0 - 1e-12)
-    if np.any(below):
+    if below.any():
         bad = np.broadcast_arrays(v, vs_w)
         idx = int(np.argmax(np.ravel(np.broadcast_to(below, bad[0].shape))))
         v_bad = float(np.ravel(bad[0])[idx])
@@ -496,9 +496,9 @@ def angle_of_attack_in_turn(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Nume
     w = _weight_ratio(weight_ratio)
     a_ref = _checked("aoa_ref", aoa_ref, -1e6, 1e6, "")
     a_stall = _checked("aoa_stall", aoa_stall, -1e6, 1e6, "")
-    if np.any(vref <= vs):
+    if (vref <= vs).any():
         raise DomainError("vref_kt must be greater than vs1g_kt for the angle-of-attack model")
-    if np.any(a_stall <= a_ref):
+    if (a_stall <= a_ref).any():
         raise DomainError("aoa_stall must be greater than aoa_ref for the angle-of-attack model")
     n = np.asarray(load_factor(bank_deg))
     a0 = _alpha_zero_lift(vref_kt=vref, vs1g_kt=vs, aoa_ref=a_ref, aoa_stall=a_stall)
