@@ -242,7 +242,7 @@ class BriefingApp(App[None]):
     def _field(self, event: FieldRow.Changed) -> None:
         name, value = event.name, event.value
         pushed = self._pushed.get(name)
-        row = self.main.query_one(f"#row-{name}", FieldRow)
+        row = self.main.node(f"#row-{name}", FieldRow)
         if pushed is not None and pushed[0] == row.text:
             value = pushed[1]            # the text we showed: keep the exact value behind it
         self.field_errors.pop(name, None)
@@ -379,7 +379,7 @@ class BriefingApp(App[None]):
     # --- the envelope (worker) -------------------------------------------------------------
     def _envelope_visible(self) -> bool:
         try:
-            return self.main.query_one("#steps", TabbedContent).active == "envelope"
+            return self.main.node("#steps", TabbedContent).active == "envelope"
         except Exception:
             return False
 
@@ -418,15 +418,15 @@ class BriefingApp(App[None]):
         pane would pull its pane back); an entry step's first list then takes the focus."""
         from textual.widgets import Tabs
 
-        tabs = self.main.query_one("#steps", TabbedContent)
+        tabs = self.main.node("#steps", TabbedContent)
         self.main.set_focus(tabs.query_one(Tabs))
         tabs.active = pane_id
         first = self.FIRST_LIST.get(pane_id)
         if first is not None:
-            self.main.query_one(first).focus()
+            self.main.node(first).focus()
 
     def _move_step(self, delta: int) -> None:
-        tabs = self.main.query_one("#steps", TabbedContent)
+        tabs = self.main.node("#steps", TabbedContent)
         ids = [pid for pid, _ in STEPS]
         i = ids.index(tabs.active) if tabs.active in ids else 0
         self.action_step(ids[(i + delta) % len(ids)])
@@ -440,7 +440,7 @@ class BriefingApp(App[None]):
     def action_leave_field(self) -> None:
         from textual.widgets import Tabs
 
-        self.main.query_one("#steps", TabbedContent).query_one(Tabs).focus()
+        self.main.node("#steps", TabbedContent).query_one(Tabs).focus()
 
     def action_toggle_night(self) -> None:
         if self.theme == NIGHT_THEME.name:

@@ -9,6 +9,7 @@ from rich.text import Text
 from textual.app import ComposeResult
 from textual.message import Message
 from textual.containers import Horizontal, Vertical, VerticalScroll
+from textual.css.query import NoMatches
 from textual.screen import Screen
 from textual.widgets import Footer, Label, RadioButton, RadioSet, Static, TabbedContent, TabPane
 
@@ -55,6 +56,24 @@ class BriefingScreen(Screen):
         super().__init__(id="briefing")
         self.ascii = ascii
         self._wind_ref = "true"
+        self._node_cache: dict = {}           # selector -> widget (the DOM never changes: no re-query per keystroke)
+        self._shown: dict[str, object] = {}   # Static id -> the Text it shows (unchanged text: no update)
+
+    def node(self, selector, expect_type=None):
+        """`query_one`, remembered (a query walks the whole DOM; this screen's widgets stay put)."""
+        w = self._node_cache.get(selector)
+        if w is None:
+            w = self.query_one(selector) if expect_type is None else self.query_one(selector, expect_type)
+            self._node_cache[selector] = w
+        return w
+
+    def _update(self, static_id: str, content, *, layout: bool = True) -> None:
+        """Update a Static, unless it already shows this very Text (no refresh, no layout)."""
+        old = self._shown.get(static_id)
+        if isinstance(content, Text) and isinstance(old, Text) and old == content:
+            return
+        self._shown[static_id] = content
+        self.node(f"#{static_id}", Static).update(content, layout=layout)
 
     def compose(self) -> ComposeResult:
         yield Static("", id="summary")
@@ -127,11 +146,11 @@ class BriefingScreen(Screen):
         yield Footer()
 
     def on_mount(self) -> None:
-        self.query_one("#profile", ChoiceList).border_title = "Aircraft profile"
-        self.query_one("#configuration", ChoiceList).border_title = "Configuration"
-        self.query_one("#airfield-list", ChoiceList).border_title = "Airfield"
-        self.query_one("#approach", ChoiceList).border_title = "Approach"
-        self.query_one("#runway-list", ChoiceList).border_title = "Landing runway"
+        self.node("#profile", ChoiceList).border_title = "Aircraft profile"
+        self.node("#configuration", ChoiceList).border_title = "Configuration"
+        self.node("#airfield-list", ChoiceList).border_title = "Airfield"
+        self.node("#approach", ChoiceList).border_title = "Approach"
+        self.node("#runway-list", ChoiceList).border_title = "Landing runway"
         self.post_message(self.Ready())
 
     class Ready(Message):
@@ -139,37 +158,39 @@ class BriefingScreen(Screen):
 
     # --- pushed down by the app -------------------------------------------------------------
     def set_choices(self, list_id: str, choices: list[Choice], chosen: str | None) -> None:
-        self.query_one(f"#{list_id}", ChoiceList).set_choices(choices, chosen)
+        self.node(f"#{list_id}", ChoiceList).set_choices(choices, chosen)
 
     def set_field_text(self, name: str, text: str) -> None:
-        self.query_one(f"#row-{name}", FieldRow).set_text(text)
+        self.node(f"#row-{name}", FieldRow).set_text(text)
 
     def set_placeholder(self, name: str, text: str) -> None:
-        self.query_one(f"#row-{name}", FieldRow).set_placeholder(text)
+        self.node(f"#row-{name}", FieldRow).set_placeholder(text)
 
     def set_note(self, name: str, text: str) -> None:
-        self.query_one(f"#row-{name}", FieldRow).show_note(text)
+        self.node(f"#row-{name}", FieldRow).show_note(text)
 
     def set_field_error(self, name: str, message: str | None) -> None:
-        rows = self.query(f"#row-{name}")
-        if rows:
-            rows.first(FieldRow).show_error(message)
+        try:
+            row = self.node(f"#row-{name}", FieldRow)
+        except NoMatches:
+            return
+        row.show_error(message)
 
     def set_wind_reference(self, reference: str) -> None:
         self._wind_ref = reference
-        button = self.query_one("#ref-magnetic" if reference == "magnetic" else "#ref-true", RadioButton)
+        button = self.node("#ref-magnetic" if reference == "magnetic" else "#ref-true", RadioButton)
         if not button.value:
             button.value = True
 
     def set_ascii(self, ascii: bool) -> None:
         self.ascii = ascii
-        self.query_one(PlanCanvas).ascii = ascii
-        self.query_one(SideView).ascii = ascii
-        self.query_one(EnvelopePolar).unicode = not ascii
+        self.node(PlanCanvas).ascii = ascii
+        self.node(SideView).ascii = ascii
+        self.node(EnvelopePolar).unicode = not ascii
         if self._legend_shown:
             self.show_envelope_legend()
         self._dirty |= {"plan", "sight"}
-        self._draw_pane(self.query_one("#steps", TabbedContent).active)
+        self._draw_pane(self.node("#steps", TabbedContent).active)
 
     def show_brief(self, brief: Brief, stale: str | None) -> None:
         """Show a brief (the last good one, marked when stale): the status lines and the visible
@@ -177,7 +198,7 @@ class BriefingScreen(Screen):
         self.brief = brief
         self.show_status(brief, stale)
         self._dirty = {pid for pid, _ in STEPS}
-        self._draw_pane(self.query_one("#steps", TabbedContent).active)
+        self._draw_pane(self.node("#steps", TabbedContent).active)
 
     brief: Brief | None = None
     _dirty: set[str] = set()
@@ -196,46 +217,46 @@ class BriefingScreen(Screen):
         if pane_id in ("aircraft", "airfield", "runway", "weather"):
             fn = {"aircraft": views.aircraft_implies, "airfield": views.airfield_implies,
                   "runway": views.runway_implies, "weather": views.weather_implies}[pane_id]
-            self.query_one(f"#implies-{pane_id}", Static).update(fn(brief))
+            self._update(f"implies-{pane_id}", fn(brief))
         elif pane_id == "brief":
             from briefer.render.views import BriefView
 
-            self.query_one("#brief-full", Static).update(BriefView(brief))
+            self._update("brief-full", BriefView(brief))
         elif pane_id == "plan":
-            canvas = self.query_one(PlanCanvas)
+            canvas = self.node(PlanCanvas)
             canvas.show(brief)
-            self.query_one("#plan-legend", Static).update(canvas.legend_text())
-            self.query_one("#plan-numbers", Static).update(views.plan_numbers(brief))
+            self._update("plan-legend", canvas.legend_text())
+            self._update("plan-numbers", views.plan_numbers(brief))
         elif pane_id == "sight":
-            self.query_one(SideView).show(brief)
-            self.query_one("#sight-legend", Static).update(views.sight_legend(brief, ascii=self.ascii))
-            self.query_one("#sight-table", Static).update(views.sight_comparison(brief))
+            self.node(SideView).show(brief)
+            self._update("sight-legend", views.sight_legend(brief, ascii=self.ascii))
+            self._update("sight-table", views.sight_comparison(brief))
 
     def show_status(self, brief: Brief | None, stale: str | None) -> None:
-        summary = self.query_one("#summary", Static)
-        warnings = self.query_one("#warnings", Static)
+        summary = self.node("#summary", Static)
+        warnings = self.node("#warnings", Static)
         if warnings.has_class("-stale") != (stale is not None):
             warnings.set_class(stale is not None, "-stale")
             summary.set_class(stale is not None, "-stale")
         if brief is None:
-            summary.update(Text("No brief yet.", style="bold"))
+            self._update("summary", Text("No brief yet.", style="bold"), layout=False)   # one line, always
         else:
             from briefer.tui import views
 
-            summary.update(views.summary_text(brief))
+            self._update("summary", views.summary_text(brief), layout=False)
         if stale is not None:
             t = Text(no_wrap=True, overflow="ellipsis")
             t.append(" STALE ", style="bold reverse")
             t.append(" last good brief shown: " + stale, style="bold")
-            warnings.update(t)
+            self._update("warnings", t, layout=False)
         elif brief is not None:
             from briefer.tui import views
 
-            warnings.update(views.warnings_line(brief))
+            self._update("warnings", views.warnings_line(brief), layout=False)
 
     def show_envelope(self, envelope, brief: Brief | None) -> None:
-        self.query_one(EnvelopePolar).show(envelope, brief)
-        polar = self.query_one(EnvelopePolar)
+        self.node(EnvelopePolar).show(envelope, brief)
+        polar = self.node(EnvelopePolar)
         text = ""
         if envelope is not None and brief is not None and brief.wind.reported:
             import math
@@ -243,10 +264,10 @@ class BriefingScreen(Screen):
             w = brief.wind
             rel = math.degrees(math.atan2(w.crosswind_from_right_kt, w.headwind_kt)) % 360.0
             text = "Today's wind: " + polar.describe(rel, w.speed_kt)
-        self.query_one("#envelope-hover", Static).update(Text(text))
+        self._update("envelope-hover", Text(text))
 
     def show_hover(self, text: str) -> None:
-        self.query_one("#envelope-hover", Static).update(Text("Pointer: " + text))
+        self._update("envelope-hover", Text("Pointer: " + text))
 
     _legend_shown = False
 
@@ -262,4 +283,4 @@ class BriefingScreen(Screen):
             t.append(f" {glyph} ", style=style)
             t.append(f"{meaning}\n")
         t.append("Point at a cell for its verdict.")
-        self.query_one("#envelope-legend", Static).update(t)
+        self._update("envelope-legend", t)
