@@ -15,6 +15,7 @@ import pytest
 
 from briefer.cautions import CAUTIONS
 from briefer.cli import main
+from cli_helpers import run_error
 
 # Invented reports for the demo airfield (wind true, as a METAR gives it).
 METAR = "METAR V2RL 121250Z 30008KT 5SM BKN014 M02/M05 A2992"
@@ -37,19 +38,6 @@ def run_json(capsys, argv: list[str]) -> dict:
     return json.loads(out, parse_constant=lambda c: pytest.fail(f"non-standard JSON constant {c}"))
 
 
-def run_error(capsys, argv: list[str]) -> str:
-    """Run a failing command; return its single stderr line."""
-    try:
-        code = main(argv)
-    except SystemExit as exc:      # argparse usage errors exit through parser.exit(2, ...)
-        code = exc.code
-    out, err = capsys.readouterr()
-    assert code == 2
-    assert out == ""
-    lines = err.strip().splitlines()
-    assert len(lines) == 1, err
-    assert "Traceback" not in err
-    return lines[0]
 
 
 def flat(text: str) -> str:

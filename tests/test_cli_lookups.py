@@ -13,6 +13,7 @@ from numpy.testing import assert_allclose
 from briefer.cautions import CAUTIONS
 from briefer.cli import main
 from briefer.core import atmosphere, coldtemp, turn
+from cli_helpers import run_error
 
 
 def run_json(capsys, argv: list[str]) -> dict:
@@ -25,19 +26,6 @@ def run_json(capsys, argv: list[str]) -> dict:
     return data
 
 
-def run_error(capsys, argv: list[str]) -> str:
-    """Run a failing command; return its single stderr line."""
-    try:
-        code = main(argv)
-    except SystemExit as exc:      # argparse usage errors exit through parser.exit(2, ...)
-        code = exc.code
-    out, err = capsys.readouterr()
-    assert code == 2
-    assert out == ""
-    lines = err.strip().splitlines()
-    assert len(lines) == 1, err
-    assert "Traceback" not in err
-    return lines[0]
 
 
 # --- turn ------------------------------------------------------------------------------------------
