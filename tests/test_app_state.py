@@ -85,3 +85,25 @@ def test_weather_explicit_only_typed_values():
     w = WeatherInputs(wind_speed_kt=0.0)
     assert w.explicit() == {"wind_speed_kt": 0.0, "wind_from_deg": None, "wind_gust_kt": None,
                             "wind_reference": "true"}
+
+
+def test_app_command_demo_weather_is_the_demo_requests():
+    # The app command keeps a copy of the demo weather so that it opens without importing
+    # briefer.brief; it must stay the same as the demo request's. (regression value, no published source)
+    from briefer.brief import demo_request
+    from briefer.commands.app import DEMO_WEATHER
+
+    wx = demo_request().weather
+    assert DEMO_WEATHER == {k: getattr(wx, k) for k in DEMO_WEATHER}
+
+
+def test_app_command_demo_inputs_do_not_import_the_brief():
+    # The first frame must not wait for the brief and the core: inputs_from_args for the demo
+    # case leaves briefer.brief unimported (checked in a fresh process).
+    import subprocess
+    import sys
+
+    code = ("import sys; from briefer.cli import build_parser; from briefer.commands.app import inputs_from_args; "
+            "p, _ = build_parser(); inputs_from_args(p.parse_args(['app'])); print('briefer.brief' in sys.modules)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout.split()
+    assert out[-1] == "False"

@@ -22,12 +22,16 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     a.add_argument("--night", action="store_true", help="start in the high-contrast night theme")
 
 
+DEMO_WEATHER = dict(wind_from_deg=240.0, wind_speed_kt=10.0, wind_gust_kt=16.0, wind_reference="true", oat_c=9.0,
+                    altimeter_hpa=1009.0, visibility_sm=3.0, ceiling_ft=1100.0)
+"""The weather of `briefer.brief.demo_request()` (a test keeps them equal). Kept here so that the
+app opens without importing the brief and the core (about 0.2 s): they load after the first frame."""
+
+
 def inputs_from_args(args: argparse.Namespace):
     """(catalog, inputs, notice) for the app. Raises BriefingError for a bad option."""
     from briefer import units
-    from briefer.brief import demo_request
     from briefer.commands._request import DEMO
-    from briefer.core.wind import parse_wind
     from briefer.errors import BriefingError, DomainError
     from briefer.io import catalog as catalog_mod
     from briefer.tui.state import AppCatalog, BriefingInputs, WeatherInputs, request_from_inputs
@@ -64,6 +68,8 @@ def inputs_from_args(args: argparse.Namespace):
 
     typed: dict = {}
     if args.wind:
+        from briefer.core.wind import parse_wind
+
         w = parse_wind(args.wind, reference=args.wind_is)
         typed.update(wind_from_deg=w.from_deg, wind_speed_kt=w.speed_kt, wind_gust_kt=w.gust_kt,
                      wind_reference=args.wind_is)
@@ -76,10 +82,7 @@ def inputs_from_args(args: argparse.Namespace):
     if args.metar or typed or not use_demo:
         weather = WeatherInputs(report=(args.metar or "").strip(), **typed)
     else:
-        wx = demo_request().weather
-        weather = WeatherInputs(**{k: getattr(wx, k) for k in (
-            "wind_from_deg", "wind_speed_kt", "wind_gust_kt", "wind_reference", "oat_c", "altimeter_hpa",
-            "visibility_sm", "ceiling_ft")})
+        weather = WeatherInputs(**DEMO_WEATHER)
     inputs = BriefingInputs(profile=profile.name, configuration=args.configuration, airfield=airfield.ident,
                             approach=approach, landing_runway=args.runway or names["runway"],
                             weight_lb=args.weight_lb, bank_deg=args.bank_deg, criteria=args.criteria,
