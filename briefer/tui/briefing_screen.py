@@ -10,7 +10,9 @@ from textual.app import ComposeResult
 from textual.message import Message
 from textual.containers import Horizontal, Vertical, VerticalScroll
 from textual.css.query import NoMatches
+from textual.lazy import Lazy
 from textual.screen import Screen
+from textual.widget import Widget
 from textual.widgets import Footer, Label, RadioButton, RadioSet, Static, TabbedContent, TabPane
 
 from briefer.cautions import SHORT_CAUTION
@@ -47,6 +49,21 @@ def _report_parser(text: str) -> str:
     except BriefingError as exc:
         raise ValueError(str(exc)) from None
     return text.strip()
+
+
+class _LazyPane(Lazy):
+    """`textual.lazy.Lazy` that tells its screen once its widget is mounted."""
+
+    async def mount_composed_widgets(self, widgets: list[Widget]) -> None:
+        parent, screen = self.parent, self.screen
+
+        async def mount() -> None:
+            await parent.mount(self._replace_widget, after=self)
+            await self.remove()
+            screen._lazy_mounted()
+
+        if parent is not None:
+            self.call_after_refresh(mount)
 
 
 class BriefingScreen(Screen):
@@ -91,20 +108,20 @@ class BriefingScreen(Screen):
                     with VerticalScroll(classes="implies"):
                         yield Static("", id="implies-aircraft")
             with TabPane(STEPS[1][1], id="airfield"):
-                with Horizontal(classes="step"):
+                with self._lazy(Horizontal(classes="step")):
                     with Vertical(classes="step-inputs"):
                         yield ChoiceList(id="airfield-list")
                         yield ChoiceList(id="approach")
                     with VerticalScroll(classes="implies"):
                         yield Static("", id="implies-airfield")
             with TabPane(STEPS[2][1], id="runway"):
-                with Horizontal(classes="step"):
+                with self._lazy(Horizontal(classes="step")):
                     with Vertical(classes="step-inputs"):
                         yield ChoiceList(id="runway-list")
                     with VerticalScroll(classes="implies"):
                         yield Static("", id="implies-runway")
             with TabPane(STEPS[3][1], id="weather"):
-                with VerticalScroll(classes="weather-form"):
+                with self._lazy(VerticalScroll(classes="weather-form")):
                     yield FieldRow("report", "METAR/SPECI", _report_parser, placeholder="paste a report here",
                                    input_classes="wide")
                     yield FieldRow("wind", "Wind", lambda t: parse_wind_text(t, self._wind_ref),
@@ -122,22 +139,22 @@ class BriefingScreen(Screen):
                         t, what="ft above the field", lo=0, hi=50000))
                     yield Static("", id="implies-weather", classes="implies-below")
             with TabPane(STEPS[4][1], id="brief"):
-                with VerticalScroll(id="brief-scroll"):
+                with self._lazy(VerticalScroll(id="brief-scroll")):
                     yield Static("", id="brief-full")
             with TabPane(STEPS[5][1], id="plan"):
-                with Horizontal(classes="step"):
+                with self._lazy(Horizontal(classes="step")):
                     with Vertical(id="plan-left"):
                         yield PlanCanvas(ascii=self.ascii, id="plan-canvas")
                         yield Static("", id="plan-legend")
                     with VerticalScroll(id="plan-right"):
                         yield Static("", id="plan-numbers")
             with TabPane(STEPS[6][1], id="sight"):
-                with VerticalScroll(id="sight-scroll"):
+                with self._lazy(VerticalScroll(id="sight-scroll")):
                     yield SideView(ascii=self.ascii, id="side-view")
                     yield Static("", id="sight-legend")
                     yield Static("", id="sight-table")
             with TabPane(STEPS[7][1], id="envelope"):
-                with Horizontal(classes="step"):
+                with self._lazy(Horizontal(classes="step")):
                     yield EnvelopePolar(unicode=not self.ascii, id="polar")
                     with VerticalScroll(id="envelope-side"):
                         yield Static("", id="envelope-legend")
@@ -145,7 +162,24 @@ class BriefingScreen(Screen):
         yield Static(SHORT_CAUTION, id="caution", markup=False)
         yield Footer()
 
+    def _lazy(self, widget):
+        """`widget`, mounted after the first frame (the hidden steps and views: fewer widgets to
+        style and lay out before the screen first shows)."""
+        self._lazy_pending += 1
+        return _LazyPane(widget)
+
+    _lazy_pending = 0
+
+    def _lazy_mounted(self) -> None:
+        self._lazy_pending -= 1
+        if self._lazy_pending == 0:
+            self._all_mounted()
+
     def on_mount(self) -> None:
+        if self._lazy_pending == 0:
+            self._all_mounted()
+
+    def _all_mounted(self) -> None:
         self.node("#profile", ChoiceList).border_title = "Aircraft profile"
         self.node("#configuration", ChoiceList).border_title = "Configuration"
         self.node("#airfield-list", ChoiceList).border_title = "Airfield"
@@ -154,7 +188,8 @@ class BriefingScreen(Screen):
         self.post_message(self.Ready())
 
     class Ready(Message):
-        """The screen's widgets are mounted: the app may push the inputs down."""
+        """The screen's widgets are mounted (the hidden panes' too, after the first frame): the
+        app may push the inputs down."""
 
     # --- pushed down by the app -------------------------------------------------------------
     def set_choices(self, list_id: str, choices: list[Choice], chosen: str | None) -> None:
