@@ -30,11 +30,22 @@ app opens without importing the brief and the core (about 0.2 s): they load afte
 
 def inputs_from_args(args: argparse.Namespace):
     """(catalog, inputs, notice) for the app. Raises BriefingError for a bad option."""
-    from briefer import units
     from briefer.commands._request import DEMO
     from briefer.errors import BriefingError, DomainError
+    from briefer.tui.state import AppCatalog, BriefingInputs, LazyCatalog, WeatherInputs, request_from_inputs
+
+    options = (args.open, args.profile, args.airfield, args.approach, args.runway, args.configuration,
+               args.weight_lb, args.bank_deg, args.criteria, args.metar, args.wind, args.oat_c,
+               args.altimeter_inhg, args.altimeter_hpa, args.visibility_sm, args.ceiling_ft)
+    if all(o is None or o == "" for o in options):
+        # The plain demo case (`briefer` alone): nothing to check before the app starts, so the
+        # catalog is read when the app first needs it, after its first frame.
+        cat = LazyCatalog(profile_dirs=args.profile_dir, airfield_dirs=args.airfield_dir)
+        inputs = BriefingInputs(profile=DEMO["profile"], airfield=DEMO["airfield"], approach=DEMO["approach"],
+                                landing_runway=DEMO["runway"], weather=WeatherInputs(**DEMO_WEATHER))
+        return cat, inputs, None
+    from briefer import units
     from briefer.io import catalog as catalog_mod
-    from briefer.tui.state import AppCatalog, BriefingInputs, WeatherInputs, request_from_inputs
 
     cat = AppCatalog.load(profile_dirs=args.profile_dir, airfield_dirs=args.airfield_dir)
     notice = None

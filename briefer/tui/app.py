@@ -89,10 +89,8 @@ class BriefingApp(App[None]):
             notice: A message to show once the app is up (e.g. a file that could not be opened).
         """
         super().__init__()
-        if ascii is None:
-            from briefer.render.planview import braille_supported
-
-            ascii = not braille_supported()
+        self._ascii_auto = ascii is None     # decided once the first frame is up (the check imports
+        ascii = bool(ascii)                  # the drawing code, which imports numpy)
         self.catalog = catalog
         self.ascii = ascii
         self.debounce_s = debounce_s
@@ -122,6 +120,12 @@ class BriefingApp(App[None]):
 
     @on(BriefingScreen.Ready)
     def _screen_ready(self) -> None:
+        if self._ascii_auto:
+            from briefer.render.planview import braille_supported
+
+            self._ascii_auto = False
+            if self.ascii != (not braille_supported()):
+                self.action_toggle_ascii()
         self._push_inputs(self.inputs)
         # The first brief (and the numpy/core imports it needs) starts once the first frame is
         # painted: the screen shows "computing the brief..." until then.

@@ -8,11 +8,12 @@ from __future__ import annotations
 
 import re
 from dataclasses import dataclass, field, replace
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
-from briefer import units
 from briefer.errors import BriefingError, DomainError
-from briefer.model import AircraftProfile, Airfield
+
+if TYPE_CHECKING:   # the model (and numpy, through briefer.units) load with the catalog, after the first frame
+    from briefer.model import AircraftProfile, Airfield
 
 WEATHER_KEYS = ("wind_from_deg", "wind_speed_kt", "wind_gust_kt", "oat_c", "altimeter_hpa",
                 "visibility_sm", "ceiling_ft")
@@ -179,6 +180,26 @@ class AppCatalog:
         return None
 
 
+class LazyCatalog:
+    """An `AppCatalog` read on first use (`AppCatalog.load(**kwargs)`), so that the app's first
+    frame does not wait for the files, the YAML reader and numpy. Reads like the catalog."""
+
+    def __init__(self, **load_kwargs: Any) -> None:
+        self._load_kwargs = load_kwargs
+        self._catalog: AppCatalog | None = None
+
+    @property
+    def catalog(self) -> AppCatalog:
+        if self._catalog is None:
+            self._catalog = AppCatalog.load(**self._load_kwargs)
+        return self._catalog
+
+    def __getattr__(self, name: str) -> Any:
+        if name.startswith("_"):
+            raise AttributeError(name)
+        return getattr(self.catalog, name)
+
+
 def _loose(text: str) -> str:
     return re.sub(r"[^a-z0-9]", "", text.lower())
 
@@ -294,6 +315,8 @@ def parse_altimeter_hpa(text: str) -> float | None:
     except ValueError:
         raise ValueError(f"expected hPa (1013) or inHg (29.92), got '{text.strip()}'") from None
     if value in ALTIMETER_INHG:
+        from briefer import units
+
         return value * units.INHG_TO_HPA
     if value in ALTIMETER_HPA:
         return value

@@ -10,8 +10,6 @@ from rich.text import Text
 from textual.reactive import reactive
 from textual.widget import Widget
 
-from briefer import units
-
 if TYPE_CHECKING:        # the drawing code is imported when the first brief is drawn
     from briefer.render.canvas import Canvas
     from briefer.result import Brief
@@ -35,6 +33,7 @@ class SideView(Widget):
         self.refresh()
 
     def draw(self, cols: int, rows: int) -> Canvas:
+        from briefer import units
         from briefer.render.canvas import AsciiCanvas, BrailleCanvas
         from briefer.render.scene import Role
 
