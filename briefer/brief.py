@@ -744,16 +744,17 @@ def _main_missed_direction(guide: maneuver.MissedApproachGuide, plan: maneuver.P
 
 
 def demo_request(**weather_overrides) -> BriefRequest:
-    """The built-in invented case: the business-jet-like demo profile circling from the RNAV
-    approach to runway 09 to land on runway 27 at the valley airfield, in a westerly wind."""
+    """The built-in invented case (briefer.demo): the business-jet-like demo profile circling from
+    the RNAV approach to runway 09 to land on runway 27 at the valley airfield, in a westerly wind."""
+    from briefer import demo
     from briefer.io import catalog
     from briefer.model import Weather
 
-    wx = dict(wind_from_deg=240.0, wind_speed_kt=10.0, wind_gust_kt=16.0, wind_reference="true", oat_c=9.0,
-              altimeter_hpa=1009.0, visibility_sm=3.0, ceiling_ft=1100.0)
+    wx = dict(demo.WEATHER)
     wx.update(weather_overrides)
-    return BriefRequest(profile=catalog.find_profile("demo-bizjet"), airfield=catalog.find_airfield("V2RL"),
-                        approach="RNAV (GPS) RWY 09", landing_runway="27", weather=Weather(**wx))
+    sit = demo.SITUATION
+    return BriefRequest(profile=catalog.find_profile(sit["profile"]), airfield=catalog.find_airfield(sit["airfield"]),
+                        approach=sit["approach"], landing_runway=sit["runway"], weather=Weather(**wx))
 
 
 __all__ = ["Situation", "build_brief", "demo_request", "envelope_for", "situation"]

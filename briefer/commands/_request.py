@@ -7,6 +7,7 @@ import argparse
 from typing import Any
 
 from briefer.commands._common import finite_float
+from briefer.demo import SITUATION as DEMO
 
 
 def add_situation_arguments(parser: argparse.ArgumentParser, *, demo: bool = True) -> None:
@@ -40,7 +41,6 @@ def add_situation_arguments(parser: argparse.ArgumentParser, *, demo: bool = Tru
                         help="also look for airfields here (repeatable)")
 
 
-DEMO = {"profile": "demo-bizjet", "airfield": "V2RL", "approach": "RNAV (GPS) RWY 09", "runway": "27"}
 
 
 def weather_fields(args: argparse.Namespace) -> tuple[dict[str, Any], Any]:

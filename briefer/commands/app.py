@@ -4,6 +4,9 @@ from __future__ import annotations
 
 import argparse
 
+from briefer.demo import SITUATION as DEMO
+from briefer.demo import WEATHER as DEMO_WEATHER
+
 NAME = "app"
 ORDER = 0
 HELP = "the interactive briefing app (the default command)"
@@ -22,15 +25,9 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     a.add_argument("--night", action="store_true", help="start in the high-contrast night theme")
 
 
-DEMO_WEATHER = dict(wind_from_deg=240.0, wind_speed_kt=10.0, wind_gust_kt=16.0, wind_reference="true", oat_c=9.0,
-                    altimeter_hpa=1009.0, visibility_sm=3.0, ceiling_ft=1100.0)
-"""The weather of `briefer.brief.demo_request()` (a test keeps them equal). Kept here so that the
-app opens without importing the brief and the core (about 0.2 s): they load after the first frame."""
-
 
 def inputs_from_args(args: argparse.Namespace):
     """(catalog, inputs, notice) for the app. Raises BriefingError for a bad option."""
-    from briefer.commands._request import DEMO
     from briefer.errors import BriefingError, DomainError
     from briefer.tui.state import AppCatalog, BriefingInputs, LazyCatalog, WeatherInputs, request_from_inputs
 
