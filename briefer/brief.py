@@ -476,10 +476,6 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
         add("warning", "tailwind", f"Tailwind of {-hw:.0f} kt on runway {request.landing_runway}.")
     if s.wind_from_true is None and s.wind_speed_kt > 0:
         add("warning", "variable-wind", "Variable wind: planned as calm; see the wind envelope for every direction.")
-    if s.wind_from_true is not None and s.wind_speed_kt > 0:
-        hw_circle = -s.wind_speed_kt * math.cos(math.radians(s.wind_from_true - course_true))
-        if hw_circle < -TAILWIND_WARNING_KT:
-            pass  # the tailwind on final is flagged above
     wind_info = WindInfo(reported=wx.wind_speed_kt is not None and s.wind_speed_kt > 0,
                          from_deg_true=s.wind_from_true, speed_kt=s.wind_speed_kt, gust_kt=wx.wind_gust_kt,
                          headwind_kt=hw, crosswind_from_right_kt=xw, gust_headwind_kt=ghw,
