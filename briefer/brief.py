@@ -467,7 +467,7 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
         comp = wind.wind_components_kt(s.wind_from_true, s.wind_speed_kt, course_deg=course_true)
         hw, xw = float(comp.headwind_kt), float(comp.crosswind_from_right_kt)
     else:
-        hw, xw = -s.wind_speed_kt, 0.0
+        hw, xw = 0.0 - s.wind_speed_kt, 0.0      # 0 - 0 = +0: no "-0 kt" for calm
     ghw = gxw = None
     if wx.wind_gust_kt is not None and s.wind_from_true is not None:
         gc = wind.wind_components_kt(s.wind_from_true, wx.wind_gust_kt, course_deg=course_true)
