@@ -42,6 +42,7 @@ STANDARD_ALTIMETER_HPA = 1013.25
 COLD_CORRECTION_AT_OR_BELOW_C = 0.0
 TAILWIND_WARNING_KT = 2.0
 EDGE_TOLERANCE_M = 1.0
+CENTRELINE_BAND_M = 30.0   # points this close to the extended centreline are "on the final"
 UNREPORTED_VISIBILITY_FACTOR = 3.0   # x area radius: a visibility that never limits a plan     # a track on a sector's edge (e.g. the centreline of a side sector) is authorised
 STALL_MARGIN_WARNING_PCT = 15.0
 
@@ -695,8 +696,11 @@ def _plan_info(s: Situation, choice: maneuver.PlanChoice, best: maneuver.RankedP
     track_pts = np.asarray(track_local)
     edge_margin = float(s.area.radius_m - np.max(s.area.distance_to_hull_m(track_pts)))
     sector_clear = None
-    if s.area.excluded:
-        sector_clear = float(min(np.min(sec.clearance_m(track_pts)) for sec in s.area.excluded)) * nm
+    # The clearance shown is the manoeuvre's: flying on the extended centreline (the final, or a
+    # straight-in arrival) passes a side sector's edge or a sector's apex at the threshold by design.
+    off_line = np.abs(np.asarray(plan.track_xy_m)[:, 1]) > CENTRELINE_BAND_M
+    if s.area.excluded and off_line.any():
+        sector_clear = float(min(np.min(sec.clearance_m(track_pts[off_line])) for sec in s.area.excluded)) * nm
     info = PlanInfo(
         feasible=True, shape=plan.shape, shape_text=SHAPE_TEXT.get(plan.shape, plan.shape), side=plan.side,
         bank_deg=plan.bank_deg, offset_nm=(plan.offset_m or 0.0) * nm,
