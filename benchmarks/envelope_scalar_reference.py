@@ -138,13 +138,30 @@ def solve(shape: str, sigma: float, c: dict) -> dict:
         if shape in ("downwind-join", "break-and-return"):
             fin = turn(psi_d, wrap_2pi(sigma * (psi_f - psi_d)), sigma, math.pi)
             x_ri, y_ri = -d - fin["dx"], -fin["dy"]
-            ok = ok and sigma * y_ri > 0.0
+            final_side = [fin]
             if shape == "downwind-join":
+                # offset: the larger of what the 180 deg final turn needs and what the join reaches
+                # with no crossing leg; if the join reaches further, base turn + base leg + final turn
                 jn = turn(psi0, wrap_2pi(sigma * (psi_d - psi0)), sigma, wrap_2pi(sigma * (math.pi - c0)))
-                tj = (y_ri - y0 - jn["dy"]) / g0y
+                y_a = y0 + jn["dy"]
+                psi_b, gs_b, ok_b = crab(-sigma * math.pi / 2.0, v, wx, wy)
+                if sigma * y_a > sigma * y_ri:
+                    bt = turn(psi_d, wrap_2pi(sigma * (psi_b - psi_d)), sigma, math.pi / 2.0)
+                    fin = turn(psi_b, wrap_2pi(sigma * (psi_f - psi_b)), sigma, math.pi)
+                    ok = ok and ok_b and bt["turn"].a < math.pi and fin["turn"].a < math.pi
+                    offset = max(sigma * y_a, -sigma * (bt["dy"] + fin["dy"]))
+                    t_base = (offset + sigma * (bt["dy"] + fin["dy"])) / gs_b
+                    x_ri, y_ri = -d - fin["dx"] - bt["dx"], sigma * offset
+                else:
+                    bt = turn(psi_d, 0.0, sigma, math.pi / 2.0)      # no base turn: one 180 deg final turn
+                    offset, t_base = sigma * y_ri, 0.0
+                final_side = [bt, straight(0.0, -sigma * gs_b, t_base), fin]
+                ok = ok and offset > 0.0
+                tj = (offset - sigma * y_a) / (sigma * g0y)
                 xj = x0 + g0x * tj + jn["dx"]
                 legs = [straight(g0x, g0y, tj), jn]
             else:
+                ok = ok and sigma * y_ri > 0.0
                 beta = c["beta"]
                 psi_b = psi0 - sigma * beta
                 br = turn(psi0, beta, -sigma, beta)
@@ -156,7 +173,7 @@ def solve(shape: str, sigma: float, c: dict) -> dict:
                 legs = [br, straight(gbx, gby, tj), jn]
             tdw = (xj - x_ri) / gs_d
             ok = ok and tj >= 0.0 and tdw >= 0.0
-            legs += [straight(-gs_d, 0.0, tdw), fin, straight(gs_f, 0.0, d / gs_f)]
+            legs += [straight(-gs_d, 0.0, tdw)] + final_side + [straight(gs_f, 0.0, d / gs_f)]
         elif shape == "teardrop":
             th = c["theta"]
             psi_t = psi0 - sigma * th

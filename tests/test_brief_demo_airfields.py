@@ -184,12 +184,6 @@ def test_q7hm_vor_a_circles_to_the_other_runways(runway):
     assert b.minimums.mda_ft == 6640.0                    # Q7HM file, VOR-A circling B
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "VOR-A to 36: the MAP (the VOR) is 0.84 NM right of runway 36, 1.1 NM past its threshold, "
-    "heading 042 relative; the only candidates (direct-turn left, downwind-join right) fail because "
-    "the join's right turn puts the downwind beyond the 2r offset ('crossing leg would last -17 s'). "
-    "A pilot flies a wider right downwind (or crosses midfield to a left one): the Cat E legacy "
-    "area is 4.5 NM, ample for this trainer at 30 deg bank."))
 def test_q7hm_vor_a_to_36_has_a_plan():
     b = brief_of(request("demo-trainer", "Q7HM", "VOR-A", "36"))
     assert "no-plan-fits" not in codes(b)

@@ -314,7 +314,13 @@ def test_break_and_return_returns_to_the_centreline(side):
     assert p.sign * p.roll_in_xy_m[1] > 0
 
 
-DOWNWIND_SHAPES = [("break-and-return", reciprocal), ("teardrop", reciprocal), ("downwind-join", crossing)]
+def crossing_wide(**kw):
+    """A crossing arrival already on the downwind side: the join alone carries it beyond 2r."""
+    return crossing(**{**dict(arrival_x_m=2000.0, arrival_y_m=1550.0, arrival_course_deg=42.0), **kw})
+
+
+DOWNWIND_SHAPES = [("break-and-return", reciprocal), ("teardrop", reciprocal), ("downwind-join", crossing),
+                   ("downwind-join", crossing_wide)]
 
 
 @settings(max_examples=150, deadline=None)
@@ -376,6 +382,61 @@ def test_downwind_join_timing_from_abeam():
     assert p.feasible, p.reasons
     assert p.abeam_to_roll_in_s == pytest.approx(p.roll_in_distance_m / (120 * KT_TO_MPS), rel=1e-9)
     assert p.downwind_heading_deg == pytest.approx(180.0)
+
+
+@settings(max_examples=150, deadline=None)
+@given(wind_from=st.floats(0.0, 360.0), wind_kt=st.floats(0.0, 30.0), bank=st.floats(15.0, 30.0),
+       tas=st.floats(90.0, 160.0), rr=st.sampled_from([None, 4.0, 10.0]), y0=st.floats(900.0, 2500.0))
+def test_downwind_join_wider_downwind_rolls_out_on_the_centreline(wind_from, wind_kt, bank, tas, rr, y0):
+    # the solver's contract when the join reaches beyond what the final turn needs (a base leg),
+    # checked through the public legs: on the centreline within 1 m, on the final crab heading
+    # within 0.5 deg, at the chosen distance within 1 m; the offset is what the join reaches
+    inp = crossing_wide(wind=runway_wind_from(wind_from, wind_kt), bank_deg=bank, tas_kt=tas,
+                        roll_rate_deg_per_s=rr, arrival_y_m=y0)
+    p = solve_plan(inp, shape="downwind-join", side="right")
+    if not p.feasible:
+        assert p.reasons and not any("crossing leg would last" in r for r in p.reasons)
+        return
+    assert p.leg_names == ("arrival", "turn downwind", "downwind", "base turn", "base", "final turn", "final")
+    ro = plan_end_state(p.legs[:-1], p.start, tas_kt=tas, wind=inp.wind)
+    crab = crab_heading_deg(0.0, tas_kt=tas, wind=inp.wind)
+    assert abs(ro.y_m) < 1.0
+    assert abs((ro.heading_deg - crab + 180.0) % 360.0 - 180.0) < 0.5
+    assert abs(-ro.x_m - descent_geometry(inp).roll_out_distance_m) < 1.0
+    assert min(p.leg_times_s) >= 0.0
+    # the roll-in point reported is the start of the base turn (the end of the downwind)
+    dw = plan_end_state(p.legs[:3], p.start, tas_kt=tas, wind=inp.wind)
+    assert (dw.x_m, dw.y_m) == pytest.approx(p.roll_in_xy_m, abs=1.0)
+    if p.leg_times_s[4] > 0.0:          # a base leg: the crossing leg is zero (turn at once)
+        assert p.leg_times_s[0] == 0.0
+        assert p.legs[3].angle_deg > 0.0
+
+
+def test_downwind_join_wider_downwind_calm_hand_derived():
+    # hand-derived, calm air, instant bank: r = V^2 / (g tan 25 deg). Arrival on course 090 at
+    # y0 = 1.5 r: the 90 deg right turn onto the downwind moves (-r, +r), so the downwind is at
+    # 2.5 r, beyond the 2r of one 180 deg final turn. The base turn moves (-r, -r), the final
+    # turn (+r, -r): the base leg is 2.5 r - 2 r = 0.5 r long, the roll-in (base turn start) at
+    # x = -d, and the timing from abeam is d / V.
+    v = 120.0 * KT_TO_MPS
+    r = v * v / (G0_MPS2 * math.tan(math.radians(25.0)))
+    inp = crossing(arrival_x_m=800.0, arrival_y_m=1.5 * r, arrival_course_deg=90.0)
+    d = descent_geometry(inp).roll_out_distance_m
+    p = solve_plan(inp, shape="downwind-join", side="right")
+    assert p.feasible, p.reasons
+    assert p.leg_names == ("arrival", "turn downwind", "downwind", "base turn", "base", "final turn", "final")
+    t = dict(zip(p.leg_names, p.leg_times_s))
+    assert t["arrival"] == pytest.approx(0.0, abs=1e-9)
+    assert t["base"] * v == pytest.approx(0.5 * r, rel=1e-9)
+    assert t["downwind"] * v == pytest.approx(800.0 - r + d, rel=1e-9)
+    assert p.offset_m == pytest.approx(2.5 * r, rel=1e-9)
+    assert p.roll_in_xy_m == pytest.approx((-d, 2.5 * r), rel=1e-9)
+    assert p.abeam_to_roll_in_s == pytest.approx(d / v, rel=1e-9)
+    assert [lg.angle_deg for lg in p.legs if hasattr(lg, "angle_deg")] == pytest.approx([90.0, 90.0, 90.0])
+    # without the overshoot (the usual join) the base turn is nil and the final turn 180 deg
+    q = solve_plan(crossing(), shape="downwind-join", side="right")
+    assert q.feasible and q.leg_times_s[3] == 0.0 and q.leg_times_s[4] == 0.0
+    assert q.legs[5].angle_deg == pytest.approx(180.0) and q.offset_m == pytest.approx(2.0 * r, rel=1e-9)
 
 
 def test_leave_mda_in_the_turn_when_the_roll_out_is_close():

@@ -8,7 +8,11 @@ Plan shapes (names of our own)
 ``downwind-join``
     Hold the arrival course (the "crossing" leg) for t_join, turn (same hand as the pattern)
     onto the downwind, hold the downwind TRACK for t_dw, turn to final. For an arrival that
-    crosses toward the downwind side at 30 deg or more.
+    crosses toward the downwind side at 30 deg or more. When the turn onto the downwind alone
+    (no crossing leg) already carries the arrival beyond the offset one 180 deg final turn
+    needs, the downwind is flown wider: base turn, base leg (track 90 deg to the runway,
+    crabbed) and final turn, as on the final side of the overfly circuit. Otherwise the base
+    turn and base leg are nil (0 deg, 0 s) and the final turn is one 180 deg turn.
 ``break-and-return``
     Reciprocal arrival: turn away from the runway through the break angle (45 deg default),
     hold that heading for t_break, turn onto the downwind, downwind, turn to final [3]_.
@@ -34,8 +38,10 @@ The unknowns and the equations
 Every turn's ground displacement is D = R(psi_entry) D_air + w T (closed form, independent of
 where it starts) and every straight leg moves g t, so the end position is LINEAR in the leg
 times. The final turn (downwind crab heading -> final crab heading, pattern hand, target bank)
-fixes the roll-in point: (x_ri, y_ri) = (-d, 0) - D_final; the downwind offset is |y_ri|. The
-join leg time follows from y, the downwind time from x (two 1x1 solves); the teardrop solves a
+fixes the roll-in point: (x_ri, y_ri) = (-d, 0) - D_final; the downwind offset is |y_ri|
+(downwind-join: the larger of that and the join's own reach with no crossing leg, y_a; when
+y_a is larger the base and final turns as in the circuit below fix x_ri, the base leg takes
+Y - sigma y_b and the crossing leg is zero). The join leg time follows from y, the downwind time from x (two 1x1 solves); the teardrop solves a
 2x2 system. No iteration and no generic optimiser.
 
 The overfly circuit has four unknowns. The upwind time is a rule, not a solve: fly on to the
@@ -348,6 +354,29 @@ def _wrap_2pi(a: FloatArray) -> FloatArray:
     return a * (a <= 2.0 * np.pi - 1e-9)          # a hair below 2 pi is a zero turn
 
 
+def _pick_turn(mask: npt.NDArray[np.bool_], a: LegArrays, b: LegArrays | None, name: str,
+               nominal_rad: float) -> LegArrays:
+    """Turn ``a`` where ``mask``, else ``b`` (None: no turn, angle 0, at ``a``'s rate), row by row."""
+    pa = a.prof
+    assert pa is not None and a.dx is not None and a.dy is not None and a.sign is not None
+
+    def pick(fa: FloatArray, fb: FloatArray | float) -> FloatArray:
+        return np.where(mask, fa, fb)
+
+    if b is None:
+        prof = TurnProfile(angle=pick(pa.angle, 0.0), tas=pa.tas, tr=pick(pa.tr, 0.0), tc=pick(pa.tc, 0.0),
+                           dp=pick(pa.dp, 0.0), wp=pa.wp, c=pa.c, k=pa.k, total=pick(pa.total, 0.0))
+        return LegArrays(kind="turn", name=name, duration=prof.total, psi0=a.psi0, prof=prof, sign=a.sign,
+                         dx=pick(a.dx, 0.0), dy=pick(a.dy, 0.0), nominal_rad=nominal_rad)
+    pb = b.prof
+    assert pb is not None and b.dx is not None and b.dy is not None
+    prof = TurnProfile(angle=pick(pa.angle, pb.angle), tas=pa.tas, tr=pick(pa.tr, pb.tr), tc=pick(pa.tc, pb.tc),
+                       dp=pick(pa.dp, pb.dp), wp=pick(pa.wp, pb.wp), c=pa.c, k=pa.k,
+                       total=pick(pa.total, pb.total))
+    return LegArrays(kind="turn", name=name, duration=prof.total, psi0=pick(a.psi0, b.psi0), prof=prof,
+                     sign=a.sign, dx=pick(a.dx, b.dx), dy=pick(a.dy, b.dy), nominal_rad=nominal_rad)
+
+
 def _flag(ok: npt.NDArray[np.bool_], flag: int) -> npt.NDArray[np.int_]:
     """``flag`` where ``ok`` is False, else 0."""
     return np.logical_not(ok) * flag
@@ -422,21 +451,45 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
         if shape in ("downwind-join", "break-and-return"):
             fin_spec = (psi_d, _wrap_2pi(sig * (psi_f - psi_d)), sig, "final turn", np.pi + zero)
             if shape == "downwind-join":
-                t_fin, t_join = turns(fin_spec, (psi0, _wrap_2pi(sig * (psi_d - psi0)), sig, "turn downwind",
-                                                 _wrap_2pi(sig * (np.pi - c0_rad))))
+                # the circuit's final side: base turn (downwind -> base track), base leg, final turn
+                trk_b = -sig * (0.5 * np.pi)
+                psi_b, gs_b, ok_b = crab(trk_b, v, wx, wy)
+                t_f180, t_join, t_bt90, t_f90 = turns(
+                    fin_spec, (psi0, _wrap_2pi(sig * (psi_d - psi0)), sig, "turn downwind",
+                               _wrap_2pi(sig * (np.pi - c0_rad))),
+                    (psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
+                    (psi_b, _wrap_2pi(sig * (psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero))
             else:
                 psi_b = psi0 - sig * break_rad
                 t_fin, t_brk, t_join = turns(
                     fin_spec, (psi0, break_rad + zero, -sig, "break turn", break_rad + zero),
                     (psi_b, _wrap_2pi(sig * (psi_d - psi_b)), sig, "turn downwind",
                      _wrap_2pi(sig * (np.pi - c0_rad) + break_rad)))
-            x_ri, y_ri = -d_m - t_fin.dx, -t_fin.dy
-            offset = sig * y_ri
+            if shape == "downwind-join":
+                # the downwind offset is the larger of what the final turn needs (one 180 deg turn,
+                # no base leg) and what the join reaches with no crossing leg (y_a); when the join
+                # reaches further, a wider downwind: base turn, base leg (taking up the difference
+                # to what the base and final turns need, y_b) and final turn, as in the circuit
+                y_a = y0 + t_join.dy
+                wide = sig * y_a > -sig * t_f180.dy
+                offset = np.where(wide, np.maximum(sig * y_a, -sig * (t_bt90.dy + t_f90.dy)), -sig * t_f180.dy)
+                t_bl = np.where(wide, (offset + sig * (t_bt90.dy + t_f90.dy)) / gs_b, 0.0)
+                t_bt = _pick_turn(wide, t_bt90, None, "base turn", 0.5 * np.pi)
+                t_fin = _pick_turn(wide, t_f90, t_f180, "final turn", np.pi)
+                reasons = (reasons | _flag(ok_b | ~wide, R_WIND)
+                           | _flag(~wide | ((t_bt90.prof.angle < np.pi) & (t_f90.prof.angle < np.pi)),
+                                   R_TURN_REVERSED))
+                x_ri, y_ri = -d_m - t_fin.dx - t_bt.dx, sig * offset
+            else:
+                x_ri, y_ri = -d_m - t_fin.dx, -t_fin.dy
+                offset = sig * y_ri
             reasons = reasons | _flag(offset > 0.0, R_WRONG_SIDE)
             if shape == "downwind-join":
-                t_j = (y_ri - y0 - t_join.dy) / g0y
+                t_j = (offset - sig * y_a) / (sig * g0y)
                 x_j = x0 + g0x * t_j + t_join.dx
                 first = [straight(psi0, g0x, g0y, t_j, "arrival", c0_rad), t_join]
+                final_side = [t_bt, straight(np.where(wide, psi_b, psi_d), zero, -sig * gs_b, t_bl, "base",
+                                                  np.where(wide, trk_b, np.pi)), t_fin]
                 break_s = t_j
             else:
                 gbx, gby = v * np.cos(psi_b) + wx, v * np.sin(psi_b) + wy
@@ -444,10 +497,11 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
                 t_j = (y_ri - y0 - t_brk.dy - t_join.dy) / gby
                 x_j = x0 + t_brk.dx + gbx * t_j + t_join.dx
                 first = [t_brk, straight(psi_b, gbx, gby, t_j, "break leg", None), t_join]
+                final_side = [t_fin]
                 break_s = t_j
             t_dw = (x_j - x_ri) / gs_d
             reasons = reasons | _flag(t_j >= 0.0, R_NEG_LEG) | _flag(t_dw >= 0.0, R_INSIDE_TURN)
-            legs = first + [straight(psi_d, -gs_d, zero, t_dw, "downwind", math.pi), t_fin, final_leg]
+            legs = first + [straight(psi_d, -gs_d, zero, t_dw, "downwind", math.pi)] + final_side + [final_leg]
             abeam_s = -x_ri / gs_d
             roll_out = d_m + zero
         elif shape == "teardrop":
