@@ -12,7 +12,9 @@ visibility, a
 stadium-shaped area of R = 2.66 NM about the runway (one R about both thresholds).
 Two more arrivals time the overfly circuit: ALIGNED with the landing runway 1250 m past its
 threshold (both circuit sides), and 20 deg off it, 2 km before the threshold (the direct turn
-and both circuit sides).
+and both circuit sides). A fourth crosses at 42 deg from 1550 m right of the runway, 2 km past
+its threshold: the downwind join reaches beyond one final turn's offset (the wider downwind
+with a base leg) and the direct turn.
 
 The machine may be shared: each timing prints the median and the best run (the best is the
 figure least disturbed by other load).
@@ -112,7 +114,9 @@ def main() -> None:
     print(f"cells: {counts}")
 
     for label, arr in (("aligned", scenario(arrival_x_m=1250.0, arrival_course_deg=0.0)),
-                       ("20 deg off", scenario(arrival_x_m=-2000.0, arrival_y_m=-700.0, arrival_course_deg=20.0))):
+                       ("20 deg off", scenario(arrival_x_m=-2000.0, arrival_y_m=-700.0, arrival_course_deg=20.0)),
+                       ("42 deg crossing, wide join", scenario(arrival_x_m=2000.0, arrival_y_m=1550.0,
+                                                               arrival_course_deg=42.0))):
         def vec_arr(arr=arr):
             return wind_envelope(arr, margin_fn=stadium_margin, wind_from_relative_deg=dirs, wind_speed_kt=spds, **kw)
         e = vec_arr()
