@@ -701,8 +701,12 @@ def _plan_info(s: Situation, choice: maneuver.PlanChoice, best: maneuver.RankedP
     off_line = np.abs(np.asarray(plan.track_xy_m)[:, 1]) > CENTRELINE_BAND_M
     if s.area.excluded and off_line.any():
         sector_clear = float(min(np.min(sec.clearance_m(track_pts[off_line])) for sec in s.area.excluded)) * nm
+    shape_text = SHAPE_TEXT.get(plan.shape, plan.shape)
+    base_s = dict(zip(plan.leg_names, plan.leg_times_s)).get("base", 0.0)
+    if plan.shape == "downwind-join" and base_s >= 1.0:
+        shape_text = f"Join a wide downwind, base leg {base_s:.0f} s, turn to final"
     info = PlanInfo(
-        feasible=True, shape=plan.shape, shape_text=SHAPE_TEXT.get(plan.shape, plan.shape), side=plan.side,
+        feasible=True, shape=plan.shape, shape_text=shape_text, side=plan.side,
         bank_deg=plan.bank_deg, offset_nm=(plan.offset_m or 0.0) * nm,
         abeam_to_roll_in_s=nan if plan.abeam_to_roll_in_s is None else plan.abeam_to_roll_in_s,
         roll_in_distance_nm=nan if plan.roll_in_distance_m is None else plan.roll_in_distance_m * nm,
