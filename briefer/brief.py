@@ -79,6 +79,10 @@ class Situation:
     wind_speed_kt: float
     oat_c: float
     altimeter_hpa: float
+    thresholds_xy: dict[str, np.ndarray]   # every threshold's local position, by designator
+    pressure_altitude_ft: float            # at the MDA (or the plan's height when not authorised)
+    oat_at_mda_c: float
+    headwind_kt: float                     # steady, on the landing runway; a variable wind counts as tailwind
 
     def track_local(self, track_rw: np.ndarray) -> np.ndarray:
         track_rw = np.asarray(track_rw, dtype=float).reshape(-1, 2)
@@ -223,7 +227,8 @@ def situation(request: BriefRequest) -> Situation:
                      visibility_m=float(vis_m), visibility_reported=vis_reported,
                      bank_limit_deg=cfg.bank_limit_deg, aoa_margin_fn=aoa_margin, category=det, mda_ft=mda,
                      plan_mda_ft=plan_mda, circling_ias_kt=circling_ias, wind_additive_kt=additive,
-                     wind_from_true=wind_from, wind_speed_kt=speed, oat_c=oat, altimeter_hpa=alt_hpa)
+                     wind_from_true=wind_from, wind_speed_kt=speed, oat_c=oat, altimeter_hpa=alt_hpa,
+                     thresholds_xy=xy, pressure_altitude_ft=pa, oat_at_mda_c=oat_mda, headwind_kt=headwind)
 
 
 def envelope_for(request: BriefRequest, **kwargs) -> maneuver.Envelope:
@@ -271,8 +276,7 @@ def _circling_only(request: BriefRequest, appr: Approach, s: Situation, category
             if appr.runway is not None and des != appr.runway:
                 continue
             thr, opp = af.runway_by_designator(des)
-            a = np.array(s.frame.to_local(thr.lat_deg, thr.lon_deg))
-            b = np.array(s.frame.to_local(opp.lat_deg, opp.lon_deg))
+            a, b = s.thresholds_xy[thr.designator], s.thresholds_xy[opp.designator]
             course = geometry.runway_axes(a, b).landing_course_deg_true
             diff = abs(float(units.wrap_180(final_true - course)))
             if best is None or diff < best[0]:
@@ -296,14 +300,6 @@ def _circling_only(request: BriefRequest, appr: Approach, s: Situation, category
     straight_in = (assess.straight_in_allowed and appr.straight_in is not None
                    and appr.straight_in.runway == request.landing_runway)
     return reasons, straight_in
-
-
-def _headwind(s: Situation) -> float:
-    """Headwind on the landing runway (negative = tailwind; a variable wind counts as tailwind)."""
-    if s.wind_from_true is None:
-        return -s.wind_speed_kt
-    return float(wind.wind_components_kt(s.wind_from_true, s.wind_speed_kt,
-                                         course_deg=s.runway.landing_course_deg_true).headwind_kt)
 
 
 def _familiar_track(plan: maneuver.Plan, offset_m: float, radius_m: float) -> np.ndarray:
@@ -347,7 +343,7 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
 
     # --- category and minimums ---------------------------------------------------------
     if wx.gust_increment_kt > 0 and request.options.apply_wind_additive:
-        steady = prof.wind_additive.additive_kt(headwind_kt=_headwind(s), gust_increment_kt=0.0)
+        steady = prof.wind_additive.additive_kt(headwind_kt=s.headwind_kt, gust_increment_kt=0.0)
         steady_ias = s.circling_ias_kt - s.wind_additive_kt + steady
         steady_cat = criteria.category_for_approach(vref_kt=prof.approach_category_speed_kt(),
                                                     circling_speed_kt=steady_ias, criteria=crit).category
@@ -434,8 +430,7 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
     # --- performance -------------------------------------------------------------------
     ias = s.circling_ias_kt
     tas = s.inputs.tas_kt
-    pa = float(atmosphere.pressure_altitude_ft(s.plan_mda_ft, altimeter_hpa=s.altimeter_hpa))
-    oat_mda = float(atmosphere.oat_at_altitude_c(s.oat_c, surface_elevation_ft=elev, altitude_ft=s.plan_mda_ft))
+    pa, oat_mda = s.pressure_altitude_ft, s.oat_at_mda_c
     isa_dev = oat_mda - float(atmosphere.isa_temperature_c(pa))
     bank_target = s.inputs.bank_deg
     tp = turn.turn_performance(tas, bank_target)
@@ -558,8 +553,7 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
     # --- drawings ------------------------------------------------------------------------
     runways = []
     for rw in af.runways:
-        a = np.array(s.frame.to_local(rw.threshold_a.lat_deg, rw.threshold_a.lon_deg), dtype=float)
-        b = np.array(s.frame.to_local(rw.threshold_b.lat_deg, rw.threshold_b.lon_deg), dtype=float)
+        a, b = s.thresholds_xy[rw.threshold_a.designator], s.thresholds_xy[rw.threshold_b.designator]
         runways.append(RunwayDrawing(designator=rw.designator, a_xy_m=frozen_array(a), b_xy_m=frozen_array(b),
                                      landing=rw.matches(request.landing_runway)))
     clip_m = radius.radius_nm * units.NM_TO_M + s.runway.length_m / 2.0   # draw sectors within the area
