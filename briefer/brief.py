@@ -182,8 +182,9 @@ def situation(request: BriefRequest) -> Situation:
     radius = criteria.circling_area_radius_nm(det.category, criteria=crit, mda_ft_msl=plan_mda,
                                               airport_elevation_ft=af.elevation_ft)
     sectors = tuple(geometry.charted_sector(sec, af, xy) for sec in appr.not_authorised_sectors)
-    area = geometry.ProtectedArea(centres_m=np.array(list(xy.values())), radius_m=radius.radius_nm * units.NM_TO_M,
-                                  excluded=sectors)
+    on_ends = criteria.circling_arc_centre(crit).centre == criteria.ARC_CENTRE_RUNWAY_END
+    area = geometry.ProtectedArea(centres_m=geometry.circling_centres_m(af, xy, on_runway_ends=on_ends),
+                                  radius_m=radius.radius_nm * units.NM_TO_M, excluded=sectors)
 
     area_rw = _area_in_runway_axes(area, rf)
 
@@ -340,6 +341,12 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
 
     def add(severity: str, code: str, text: str) -> None:
         findings.append(Finding(severity=severity, code=code, text=text))
+
+    displaced = [t for t in af.thresholds if t.displaced_m > 0]
+    if displaced:
+        which = ", ".join(f"{t.designator} by {t.displaced_m:.0f} m" for t in displaced)
+        add("info", "displaced-threshold", f"Displaced threshold ({which}). "
+            + criteria.circling_arc_centre(crit).text)
 
     # --- category and minimums ---------------------------------------------------------
     if wx.gust_increment_kt > 0 and request.options.apply_wind_additive:

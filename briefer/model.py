@@ -79,6 +79,7 @@ TCH_FT = Range(20, 120)
 GLIDE_PATH_DEG = Range(2, 7)
 RUNWAY_WIDTH_M = Range(10, 100)
 RUNWAY_LENGTH_M = Range(300, 6000)
+DISPLACED_THRESHOLD_M = Range(0, 3000)
 VARIATION_DEG = Range(-90, 90)
 COURSE_DEG = Range(0, 360)
 ALTITUDE_FT = Range(-1500, 30000)
@@ -732,7 +733,14 @@ class LatLon(_Model):
 @dataclass(frozen=True, slots=True, kw_only=True)
 class Threshold(_Model):
     """One runway threshold (landing end): position, elevation, threshold crossing height and
-    the glide path the visual approach aids (or the crew) fly to it."""
+    the glide path the visual approach aids (or the crew) fly to it.
+
+    ``lat_deg``/``lon_deg`` and ``elevation_ft`` are the *landing* threshold (where the glide path
+    aims). ``displaced_threshold_m`` (optional) is how far that threshold lies inside the runway:
+    the distance along the centreline from the runway end (the start of the pavement, behind the
+    threshold as seen on final) to the landing threshold. Absent or 0: the threshold is at the
+    runway end. The runway end itself is derived, never stored twice (see `Runway`).
+    """
 
     _what: ClassVar[str] = "a runway threshold"
 
@@ -742,6 +750,7 @@ class Threshold(_Model):
     elevation_ft: float
     tch_ft: float = 50.0
     glide_path_deg: float = 3.0
+    displaced_threshold_m: float | None = None
 
     def __post_init__(self) -> None:
         _designator(self, "designator")
@@ -750,6 +759,12 @@ class Threshold(_Model):
         _num(self, "elevation_ft", ELEVATION_FT)
         _num(self, "tch_ft", TCH_FT)
         _num(self, "glide_path_deg", GLIDE_PATH_DEG)
+        _num(self, "displaced_threshold_m", DISPLACED_THRESHOLD_M, optional=True)
+
+    @property
+    def displaced_m(self) -> float:
+        """The displacement of the landing threshold from the runway end, 0 when not displaced [m]."""
+        return self.displaced_threshold_m or 0.0
 
 
 _RECIPROCAL_SUFFIX = {"": "", "L": "R", "R": "L", "C": "C"}
@@ -799,6 +814,17 @@ class Runway(_Model):
         """Threshold-to-threshold distance (spherical; for display and plausibility) [m]."""
         a, b = self.threshold_a, self.threshold_b
         return _distance_m(a.lat_deg, a.lon_deg, b.lat_deg, b.lon_deg)
+
+    @property
+    def end_to_end_m(self) -> float:
+        """Runway-end-to-runway-end length: the landing thresholds' distance plus both
+        displacements (the ends lie on the centreline behind their thresholds) [m]."""
+        return self.length_m + self.threshold_a.displaced_m + self.threshold_b.displaced_m
+
+    @property
+    def displaced(self) -> bool:
+        """True when either landing threshold lies inside the runway (displaced)."""
+        return self.threshold_a.displaced_m > 0 or self.threshold_b.displaced_m > 0
 
     def ends(self, designator: str) -> tuple[Threshold, Threshold] | None:
         """(landing threshold, opposite threshold) for a designator of this runway, else None."""

@@ -140,8 +140,11 @@ def plan_scene(airfield: Any, result: Any) -> Any:
     from briefer.units import NM_TO_M
 
     frame = geometry.LocalFrame(lat0_deg=airfield.reference_point.lat_deg, lon0_deg=airfield.reference_point.lon_deg)
+    from briefer.core import criteria as cr
+
     xy = {t.designator: np.array(frame.to_local(t.lat_deg, t.lon_deg), dtype=float) for t in airfield.thresholds}
-    centres = np.array(list(xy.values()))
+    on_ends = cr.circling_arc_centre(result.criteria).centre == cr.ARC_CENTRE_RUNWAY_END
+    centres = geometry.circling_centres_m(airfield, xy, on_runway_ends=on_ends)
     items: list[Any] = []
     largest = max(c.radius_nm for c in result.categories) * NM_TO_M
     outer = None

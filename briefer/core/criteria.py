@@ -987,6 +987,74 @@ def circling_area_radius_nm(category: str, *, criteria: str, mda_ft_msl: float |
                       provenance="C", source=_ICAO_AREA_SOURCE, icao=c)
 
 
+# --------------------------------------------------------------------------------------------
+# Where the area's arcs are centred: runway ends or landing thresholds
+# --------------------------------------------------------------------------------------------
+ARC_CENTRE_RUNWAY_END = "runway-end"
+ARC_CENTRE_THRESHOLD = "landing-threshold"
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class ArcCentreRule:
+    """Which point of each usable runway the circling-area arcs are drawn about.
+
+    Attributes:
+        criteria: the criteria set.
+        centre: ``"runway-end"`` or ``"landing-threshold"``; the two differ only where a threshold
+            is displaced.
+        text: one sentence for the brief.
+        provenance: "V" / "V2" / "M" (see the module docstring).
+        source: where the rule is published.
+    """
+
+    criteria: str
+    centre: str
+    text: str
+    provenance: str
+    source: str
+
+
+_ARC_SOURCE_TERPS = ("AIM 5-4-20(b)(1): circling protected areas are the tangential connection of arcs "
+                     "drawn from each runway end (read); FAA Order 8260.3 circling area construction, "
+                     "'an arc from the center of the end of each usable runway' (from memory, not read)")
+_ARC_SOURCE_ICAO = ("ICAO Doc 8168 Vol I Part I Sec 4 Ch 7, 7.2.3: arcs centred on each runway threshold "
+                    "(read in a verbatim quotation); Vol II Part I Sec 4 Ch 7, 7.2.1.1 a) arc centred on "
+                    "the threshold of each usable runway (items b and c read in the primary text, item a in "
+                    "a reproduction); threshold: the beginning of the part of the runway usable for "
+                    "landing, ICAO Annex 14 Vol I, Ch 1 (from memory)")
+
+
+def circling_arc_centre(criteria: str) -> ArcCentreRule:
+    """Whether a criteria set centres the circling-area arcs on the runway ends or on the landing
+    thresholds (they differ only where a threshold is displaced).
+
+    * FAA TERPS (both radius tables): the runway ends [1]_. The AIM's wording ("arcs drawn from
+      each runway end") is the one read in the primary text; the Order's own construction text
+      is recalled, not read.
+    * ICAO PANS-OPS: the runway thresholds [2]_ [3]_, and a threshold is where the part of the
+      runway usable for landing begins, so a displaced threshold is the centre.
+
+    On a runway with a displaced threshold the TERPS area is therefore larger than the ICAO-style
+    construction about the same points would be: the end lies behind the landing threshold.
+
+    References
+    ----------
+    .. [1] FAA, Aeronautical Information Manual, 5-4-20(b)(1).
+    .. [2] ICAO Doc 8168 Vol I, 5th ed., Part I Section 4 Chapter 7, 7.2.3.
+    .. [3] ICAO Doc 8168 Vol II, 5th ed., 2006, Part I Section 4 Chapter 7, 7.2.1.1.
+    """
+    check_criteria(criteria)
+    if criteria in TERPS_CRITERIA:
+        return ArcCentreRule(criteria=criteria, centre=ARC_CENTRE_RUNWAY_END, provenance="V",
+                             text="TERPS: the circling-area arcs are centred on the runway ends, "
+                                  "not on a displaced threshold (AIM 5-4-20).",
+                             source=_ARC_SOURCE_TERPS)
+    return ArcCentreRule(criteria=criteria, centre=ARC_CENTRE_THRESHOLD, provenance="V2",
+                         text="PANS-OPS: the circling-area arcs are centred on the landing thresholds, "
+                              "a displaced threshold included (Doc 8168 Vol II Part I Sec 4 Ch 7).",
+                         source=_ARC_SOURCE_ICAO)
+
+
 @dataclass(frozen=True, slots=True, kw_only=True)
 class RequiredRadius:
     """The 2r + S radius this aircraft needs today, built as the ICAO design builds its own.

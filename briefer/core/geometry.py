@@ -47,6 +47,8 @@ __all__ = [
     "distance_m",
     "RunwayFrame",
     "runway_axes",
+    "runway_end_xy",
+    "circling_centres_m",
     "BearingSector",
     "SideSector",
     "Sector",
@@ -439,6 +441,72 @@ def runway_axes(threshold_xy: ArrayLike, opposite_threshold_xy: ArrayLike) -> Ru
     return RunwayFrame(threshold_xy_m=t, opposite_threshold_xy_m=o,
                        landing_course_deg_true=float(wrap_360(atand2(de, dn))),
                        along_unit=(ue, un), right_unit=(un, -ue), length_m=length)
+
+
+def runway_end_xy(threshold_xy: ArrayLike, opposite_threshold_xy: ArrayLike,
+                  displaced_m: float) -> npt.NDArray[np.float64]:
+    """The runway end behind a displaced landing threshold.
+
+    The end lies on the centreline, `displaced_m` behind the threshold as seen on final, i.e.
+    away from the opposite threshold: ``T + d (T - O) / |T - O|``.
+
+    Parameters
+    ----------
+    threshold_xy, opposite_threshold_xy : array_like, shape (2,)
+        The landing threshold and the opposite one (east, north). [m]
+    displaced_m : float
+        Distance from the runway end to the landing threshold (>= 0). [m]
+
+    Returns
+    -------
+    ndarray, shape (2,)
+        The runway end (east, north); the threshold itself when `displaced_m` is 0. [m]
+    """
+    t = _point(threshold_xy, "threshold_xy")
+    if displaced_m == 0.0:
+        return np.array(t, dtype=float)
+    if not (math.isfinite(displaced_m) and displaced_m > 0.0):
+        raise DomainError(f"displaced_m must be a non-negative number of metres, got {displaced_m!r}")
+    o = _point(opposite_threshold_xy, "opposite_threshold_xy")
+    de, dn = t[0] - o[0], t[1] - o[1]
+    length = math.hypot(de, dn)
+    if length < _COINCIDENT_M:
+        raise DomainError(f"runway thresholds coincide at {t}")
+    return np.array((t[0] + displaced_m * de / length, t[1] + displaced_m * dn / length), dtype=float)
+
+
+def circling_centres_m(airfield: Any, thresholds_xy: Mapping[str, ArrayLike], *,
+                       on_runway_ends: bool) -> npt.NDArray[np.float64]:
+    """The centres of the circling-area arcs, one per runway threshold, in the order of
+    ``airfield.thresholds``.
+
+    With `on_runway_ends` (FAA [3]_), a displaced threshold's centre is its runway end (see
+    `runway_end_xy`); otherwise (ICAO [4]_), and wherever no threshold is displaced, the centres
+    are the landing thresholds themselves. Which one a criteria set uses is
+    `briefer.core.criteria.circling_arc_centre`.
+
+    Parameters
+    ----------
+    airfield : Airfield
+        Its runways' thresholds (``designator``, ``displaced_m``).
+    thresholds_xy : mapping
+        Landing threshold positions (east, north) by designator. [m]
+    on_runway_ends : bool
+        Centre the arcs on the runway ends rather than the landing thresholds.
+
+    Returns
+    -------
+    ndarray, shape (N, 2)
+        [m]
+    """
+    centres = []
+    for rw in airfield.runways:
+        for thr, opp in ((rw.threshold_a, rw.threshold_b), (rw.threshold_b, rw.threshold_a)):
+            p = np.asarray(thresholds_xy[thr.designator], dtype=float)
+            if on_runway_ends and thr.displaced_m > 0.0:
+                p = runway_end_xy(p, thresholds_xy[opp.designator], thr.displaced_m)
+            centres.append(p)
+    return np.array(centres, dtype=float)
 
 
 # --------------------------------------------------------------------------------------------

@@ -523,7 +523,8 @@ def practice_minimums_for_airfield(airfield: Airfield, *, criteria: str | None =
         crit, basis = cr.check_criteria(criteria), "chosen"
     frame = geometry.LocalFrame(lat0_deg=airfield.reference_point.lat_deg, lon0_deg=airfield.reference_point.lon_deg)
     xy = {t.designator: np.array(frame.to_local(t.lat_deg, t.lon_deg), dtype=float) for t in airfield.thresholds}
-    centres = np.array(list(xy.values()))
+    on_ends = cr.circling_arc_centre(crit).centre == cr.ARC_CENTRE_RUNWAY_END
+    centres = geometry.circling_centres_m(airfield, xy, on_runway_ends=on_ends)
     obstacles = tuple(ObstaclePoint(name=ob.name, xy_m=tuple(float(v) for v in frame.to_local(ob.lat_deg, ob.lon_deg)),
                                     elevation_ft=ob.elevation_ft) for ob in airfield.obstacles)
     sectors = tuple(appr.not_authorised_sectors) if appr is not None else ()
@@ -549,6 +550,8 @@ def practice_minimums_for_airfield(airfield: Airfield, *, criteria: str | None =
         "judgement, so its minimums may be higher.",
         "Every runway threshold is taken as usable for the circling area.",
     ]
+    if any(rw.displaced for rw in airfield.runways):
+        notes.append("A threshold is displaced: " + cr.circling_arc_centre(crit).text)
     if crit == "terps-expanded":
         notes.append("The expanded radius depends on the MDA itself: the MDA was iterated until the radius "
                      "band settled (the least self-consistent MDA).")
