@@ -56,6 +56,9 @@ __all__ = [
     "ProtectedArea",
     "convex_hull",
     "distance_to_segments_m",
+    "area_in_runway_axes",
+    "true_from_magnetic_deg",
+    "magnetic_from_true_deg",
 ]
 
 ArrayLike = npt.ArrayLike
@@ -72,6 +75,16 @@ meridian convergence (see `bearing_deg`); a circling area is under 15 km across.
 
 _COINCIDENT_M = 1e-6                  # two points closer than this are one point
 _CONTAINS_TOL_M = 1e-6                # boundary points count as inside within this tolerance
+
+
+def true_from_magnetic_deg(deg_mag: float, variation_deg: float) -> float:
+    """A true direction from a magnetic one; variation east positive (true = magnetic + variation). [deg]"""
+    return float(wrap_360(deg_mag + variation_deg))
+
+
+def magnetic_from_true_deg(deg_true: float, variation_deg: float) -> float:
+    """A magnetic direction from a true one; variation east positive (magnetic = true - variation). [deg]"""
+    return float(wrap_360(deg_true - variation_deg))
 
 
 # --------------------------------------------------------------------------------------------
@@ -983,3 +996,40 @@ def charted_sector(sector: Any, airfield: Any, thresholds_xy: Mapping[str, Array
     rw = airfield.runway(sector.runway)
     return side_of_centreline(thresholds_xy[rw.threshold_a.designator], thresholds_xy[rw.threshold_b.designator],
                               sector.side)
+
+
+def area_in_runway_axes(area: ProtectedArea, runway: RunwayFrame) -> ProtectedArea:
+    """The protected area rotated into runway axes, with (right_m, along_m) playing (east_m, north_m).
+
+    Both frames have "right" clockwise of "ahead", so this is a rotation (and a shift): distances,
+    sides and clockwise bearing ranges carry over, bearings measured from the landing course. The
+    plan solver and the envelope measure their many runway-frame tracks here without converting
+    each point back.
+
+    Parameters
+    ----------
+    area : ProtectedArea
+        The area in the local frame (east, north). [m]
+    runway : RunwayFrame
+        The landing runway's axes.
+
+    Returns
+    -------
+    ProtectedArea
+        The same area, points as (right_m, along_m). [m]
+    """
+    def pseudo(p: ArrayLike) -> tuple[float, float]:
+        along, right = runway.to_runway_coords(np.asarray(p, dtype=float))
+        return float(right), float(along)
+
+    course = runway.landing_course_deg_true
+    sectors: list[Sector] = []
+    for sec in area.excluded:
+        if isinstance(sec, BearingSector):
+            sectors.append(BearingSector(centre_m=pseudo(sec.centre_m),
+                                         from_deg_true=float(wrap_360(sec.from_deg_true - course)),
+                                         to_deg_true=float(wrap_360(sec.to_deg_true - course))))
+        else:
+            sectors.append(SideSector(line_a_m=pseudo(sec.line_a_m), line_b_m=pseudo(sec.line_b_m), side=sec.side))
+    return ProtectedArea(centres_m=[pseudo(c) for c in area.centres_m], radius_m=area.radius_m,
+                         excluded=tuple(sectors))

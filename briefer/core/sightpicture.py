@@ -36,6 +36,7 @@ from briefer.core.turn import (
 from briefer.errors import DomainError
 
 __all__ = [
+    "familiar_turn_track_m",
     "SightPictureComparison",
     "compare_sight_picture",
     "depression_angle_deg",
@@ -394,3 +395,41 @@ def compare_sight_picture(*, circling_height_ft: float, planned_offset_nm: float
         familiar_possible=possible, familiar_beyond_stall=beyond_stall, familiar_exceeds_bank_limit=exceeds,
         overshoot_m=overshoot_m, overshoot_nm=overshoot_m * units.M_TO_NM, **turn,
     )
+
+
+def familiar_turn_track_m(*, side: str, roll_in_along_m: float, offset_m: float, radius_m: float) -> np.ndarray:
+    """The turn the familiar picture gives, in still air and runway axes.
+
+    A downwind at the familiar offset, the planned bank (radius) held from the planned roll-in
+    point through 180 deg, then straight ahead: the track the crew would fly by holding their
+    everyday picture at circling height (drawn beside the plan; the overshoot is in
+    `SightPictureComparison`).
+
+    Parameters
+    ----------
+    side : {"left", "right"}
+        Side of the runway the downwind is flown on (right: positive ``y``).
+    roll_in_along_m : float
+        Along-track position of the planned roll-in (runway axes, ``x``). [m]
+    offset_m : float
+        Familiar offset at circling height. [m]
+    radius_m : float
+        Turn radius at the planned bank. [m]
+
+    Returns
+    -------
+    ndarray, shape (51, 2)
+        Points (x along the landing direction, y to the right of it). [m]
+
+    Notes
+    -----
+    Circle geometry [3]_: a 180 deg turn of radius r moves the track 2 r sideways.
+    """
+    sign = 1.0 if side == "right" else -1.0
+    x_ri = roll_in_along_m
+    down = np.column_stack([np.linspace(x_ri + 2500.0, x_ri, 8), np.full(8, sign * offset_m)])
+    th = np.linspace(0.0, math.pi, 37)
+    turn_pts = np.column_stack([x_ri - radius_m * np.sin(th), sign * (offset_m - radius_m * (1 - np.cos(th)))])
+    y_end = sign * (offset_m - 2 * radius_m)
+    final = np.column_stack([np.linspace(x_ri, x_ri + 1500.0, 6), np.full(6, y_end)])
+    return np.vstack([down, turn_pts, final])

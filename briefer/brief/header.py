@@ -1,0 +1,28 @@
+"""The brief's header (what was briefed) and the runways as drawn."""
+
+from __future__ import annotations
+
+from briefer.brief.situation_inputs import Situation
+from briefer.result import BriefHeader, RunwayDrawing, frozen_array
+
+
+def brief_header(s: Situation) -> BriefHeader:
+    """Airfield, approach, landing runway, profile, configuration, criteria and weight briefed."""
+    request = s.request
+    prof, cfg, af, appr = (request.profile, request.selected_configuration(), request.airfield,
+                           request.selected_approach())
+    return BriefHeader(airfield_ident=af.ident, airfield_name=af.name, approach_name=appr.name,
+                       landing_runway=request.landing_runway, profile_name=prof.name,
+                       configuration_name=cfg.name, criteria=request.options.criteria or appr.criteria,
+                       airfield_elevation_ft=af.elevation_ft, magnetic_variation_deg=af.magnetic_variation_deg,
+                       weight_lb=request.landing_weight_lb)
+
+
+def runway_drawings(s: Situation) -> tuple[RunwayDrawing, ...]:
+    """Every runway's two thresholds in the local frame; the landing one marked."""
+    runways = []
+    for rw in s.request.airfield.runways:
+        a, b = s.thresholds_xy[rw.threshold_a.designator], s.thresholds_xy[rw.threshold_b.designator]
+        runways.append(RunwayDrawing(designator=rw.designator, a_xy_m=frozen_array(a), b_xy_m=frozen_array(b),
+                                     landing=rw.matches(s.request.landing_runway)))
+    return tuple(runways)
