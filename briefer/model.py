@@ -389,12 +389,12 @@ class _Model:
     def keys(cls) -> tuple[str, ...]:
         """Every key the file form of this model accepts, in the order files should use."""
         header = ("kind", "format_version") if cls._kind else ()
-        return header + cls._extra_keys + tuple(f.name for f in fields(cls))  # type: ignore[arg-type]
+        return header + cls._extra_keys + tuple(f.name for f in fields(cls) if f.init)  # type: ignore[arg-type]
 
     @classmethod
     def required_keys(cls) -> tuple[str, ...]:
         return tuple(f.name for f in fields(cls)  # type: ignore[arg-type]
-                     if f.default is MISSING and f.default_factory is MISSING)
+                     if f.init and f.default is MISSING and f.default_factory is MISSING)
 
     @classmethod
     def from_mapping(cls, data: Any, *, path: str = "") -> Any:
@@ -447,7 +447,7 @@ class _Model:
         out: dict[str, Any] = {"kind": self._kind, "format_version": FORMAT_VERSION} if self._kind else {}
         for f in fields(self):  # type: ignore[arg-type]
             value = getattr(self, f.name)
-            if value is None:
+            if value is None or not f.init:     # init=False fields are derived, not part of the file
                 continue
             if isinstance(value, _Model):
                 value = value.to_mapping()
@@ -1182,7 +1182,11 @@ class Approach(_Model):
 class Airfield(_Model):
     """An airfield: reference point, elevation, magnetic variation, runways, obstacles, approaches.
 
-    ``magnetic_variation_deg`` is east positive: true = magnetic + variation.
+    ``magnetic_variation_deg`` is east positive: true = magnetic + variation. A file may leave it
+    out: it is then computed from the World Magnetic Model at the reference point for today's date
+    (`briefer.core.magvar`), ``variation_model`` keeps that computation (None when the file gave
+    the variation), and `to_mapping` leaves it out again, so a saved file keeps following the model.
+    Without a reference point the model cannot be used and the variation is required.
     """
 
     _kind: ClassVar[str | None] = KIND_AIRFIELD
@@ -1194,10 +1198,11 @@ class Airfield(_Model):
     name: str
     reference_point: LatLon
     elevation_ft: float
-    magnetic_variation_deg: float
+    magnetic_variation_deg: float | None = None
     runways: tuple[Runway, ...]
     obstacles: tuple[Obstacle, ...] = ()
     approaches: tuple[Approach, ...]
+    variation_model: Any = field(default=None, init=False, compare=False, repr=False)
 
     def __post_init__(self) -> None:
         ident = _text(self, "ident")
@@ -1207,13 +1212,39 @@ class Airfield(_Model):
         _text(self, "name")
         _instance(self, "reference_point", LatLon)
         _num(self, "elevation_ft", ELEVATION_FT)
-        _num(self, "magnetic_variation_deg", VARIATION_DEG)
+        if self.magnetic_variation_deg is None:
+            self._variation_from_model()
+        else:
+            _num(self, "magnetic_variation_deg", VARIATION_DEG)
         runways = _items(self, "runways", Runway, min_items=1, what="runway")
         obstacles = _items(self, "obstacles", Obstacle, what="obstacle")
         approaches = _items(self, "approaches", Approach, min_items=1, what="approach")
         self._check_runways(runways)
         self._check_obstacles(obstacles)
         self._check_approaches(approaches)
+
+    def _variation_from_model(self) -> None:
+        """Fill the variation from the World Magnetic Model (the file gives none)."""
+        rp = getattr(self, "reference_point", None)
+        if rp is None:
+            raise InvariantError("missing: without a reference point the World Magnetic Model cannot be "
+                                 "used; give the chart's magnetic variation", field="magnetic_variation_deg")
+        from briefer.core import magvar   # imports the model's package only when needed
+
+        try:
+            mv = magvar.model_variation(rp.lat_deg, rp.lon_deg, magvar.today_utc())
+        except DomainError as exc:
+            raise InvariantError(f"not given, and the World Magnetic Model cannot give it: {exc}",
+                                 field="magnetic_variation_deg") from None
+        _set(self, "magnetic_variation_deg", mv.variation_deg)
+        _set(self, "variation_model", mv)
+
+    def to_mapping(self) -> dict[str, Any]:
+        """As `_Model.to_mapping`; a variation computed from the model is left out again."""
+        out = super(Airfield, self).to_mapping()
+        if self.variation_model is not None:
+            out.pop("magnetic_variation_deg", None)
+        return out
 
     # -- cross-field rules -------------------------------------------------------------------
     def _from_arp_m(self, lat_deg: float, lon_deg: float) -> float:

@@ -18,6 +18,7 @@ from briefer import units
 from briefer.brief.circling_only import circling_only_reasons
 from briefer.brief.findings import FindingList
 from briefer.brief.situation_inputs import Situation
+from briefer.brief.variation import variation_findings
 from briefer.core import coldtemp, criteria
 from briefer.model import Sector
 from briefer.result import (
@@ -47,6 +48,7 @@ def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
     cat = det.category
     wx = request.weather
     found = FindingList()
+    variation_findings(af, found)
     displaced = [t for t in af.thresholds if t.displaced_m > 0]
     if displaced:
         which = ", ".join(f"{t.designator} by {t.displaced_m:.0f} m" for t in displaced)
