@@ -10,6 +10,7 @@ from typing import Any
 
 import numpy as np
 
+from briefer.render.words import crosswind_side, crosswind_words, wind_components_text
 from briefer.result import Brief
 
 SCHEMA = "briefer.brief/1"
@@ -81,6 +82,9 @@ def brief_to_dict(brief: Brief) -> dict[str, Any]:
         "wind": {"reported": w.reported, "from_deg_true": w.from_deg_true, "speed_kt": w.speed_kt,
                  "gust_kt": w.gust_kt, "headwind_kt": w.headwind_kt,
                  "crosswind_from_right_kt": w.crosswind_from_right_kt,
+                 "crosswind_side": crosswind_side(w.crosswind_from_right_kt),
+                 "crosswind_text": crosswind_words(w.crosswind_from_right_kt),
+                 "components_text": wind_components_text(w),
                  "gust_headwind_kt": w.gust_headwind_kt,
                  "gust_crosswind_from_right_kt": w.gust_crosswind_from_right_kt,
                  "variable_from_deg_true": w.variable_from_deg_true,

@@ -25,6 +25,7 @@ from briefer import __version__
 from briefer.cautions import CAUTIONS, SHORT_CAUTION
 from briefer.render.brief_scene import scene_from_brief
 from briefer.render.scene import ROLE_STYLES, Role, Scene
+from briefer.render.words import wind_components_text
 from briefer.result import Brief, Finding
 
 DASH = "--"
@@ -162,10 +163,6 @@ def vis(value_sm: float | None) -> str:
 
 def heading(value_deg: float | None) -> str:
     return num(value_deg, "03.0f", "° M")
-
-
-def _side_words(value_kt: float, right: str, left: str) -> str:
-    return f"{abs(value_kt):.0f} kt {right if value_kt >= 0 else left}"
 
 
 # --- narrowing text to what a printer can show ----------------------------------------------
@@ -349,11 +346,7 @@ def wind_text(brief: Brief) -> str:
 
 def _wind(brief: Brief) -> Section:
     w, wx, pf, h = brief.wind, brief.weather, brief.performance, brief.header
-    comp = (f"rwy {h.landing_runway}: {_side_words(w.headwind_kt, 'headwind', 'TAILWIND')}, "
-            f"{_side_words(w.crosswind_from_right_kt, 'from the right', 'from the left')}")
-    if w.gust_headwind_kt is not None and w.gust_crosswind_from_right_kt is not None:
-        comp += (f" (gusts {_side_words(w.gust_headwind_kt, 'headwind', 'TAILWIND')}, "
-                 f"{_side_words(w.gust_crosswind_from_right_kt, 'from the right', 'from the left')})")
+    comp = f"rwy {h.landing_runway}: {wind_components_text(w)}"
     source = {"manual": "as entered", "report": "from the report", "report+manual": "report and entries",
               "standard": "none given: standard day"}.get(wx.source, wx.source)
     weather = (f"OAT {wx.oat_c:.0f} °C, altimeter {wx.altimeter_hpa:.0f} hPa, visibility "

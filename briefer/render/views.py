@@ -12,6 +12,7 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
+from briefer.render.words import wind_components_text
 from briefer.result import Brief, Finding
 
 MARK = {"danger": "!!", "warning": "! ", "info": "i "}
@@ -154,11 +155,7 @@ class PerformanceView:
         sb = "n/a" if pf.stall_bank_deg is None else f"{pf.stall_bank_deg:.0f}°"
         g.add_row("Stall", f"{pf.stall_speed_kt:.0f} kt in the turn (margin {pf.stall_margin_pct:.0f} %); "
                            f"AoA {pf.aoa_in_turn:.1f} of {pf.aoa_stall:.1f} {pf.aoa_unit}; wing stalls at {sb} bank")
-        gust = ""
-        if w.gust_headwind_kt is not None:
-            gust = f"; gust {w.gust_headwind_kt:+.0f}/{w.gust_crosswind_from_right_kt:+.0f}"
-        g.add_row("Wind", f"{wind_text(self.brief)}: headwind {w.headwind_kt:+.0f} kt, "
-                          f"crosswind {w.crosswind_from_right_kt:+.0f} kt from the right{gust}")
+        g.add_row("Wind", f"{wind_text(self.brief)}: {wind_components_text(w)}")
         yield g
 
 

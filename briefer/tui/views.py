@@ -13,6 +13,7 @@ from rich.table import Table
 from rich.text import Text
 
 from briefer.render.views import MARK, STYLE, MinimumsView, PerformanceView, fmt, wind_text
+from briefer.render.words import wind_components_text
 from briefer.result import Brief
 
 
@@ -99,9 +100,7 @@ def runway_implies(brief: Brief) -> RenderableType:
     m, p, w = brief.minimums, brief.plan, brief.wind
     g = _grid()
     g.add_row("Land", f"runway {brief.header.landing_runway}, final heading {p.final_heading_deg_mag:03.0f}° M")
-    tail = "  TAILWIND" if w.headwind_kt < 0 else ""
-    g.add_row("Wind", f"{wind_text(brief)}: headwind {w.headwind_kt:+.0f} kt, "
-                      f"crosswind {w.crosswind_from_right_kt:+.0f} kt from the right{tail}")
+    g.add_row("Wind", f"{wind_text(brief)}: {wind_components_text(w)}")
     if m.circling_only_reasons:
         for r in m.circling_only_reasons:
             g.add_row("Circling only", r.text)
@@ -117,8 +116,7 @@ def weather_implies(brief: Brief) -> RenderableType:
     g = _grid()
     g.add_row("Source", {"manual": "typed values", "report": "the report (typed values override it)",
                          "standard": "nothing given: standard values"}.get(wu.source, wu.source))
-    g.add_row("Wind", f"{wind_text(brief)}: headwind {w.headwind_kt:+.0f}, crosswind "
-                      f"{w.crosswind_from_right_kt:+.0f} kt from the right")
+    g.add_row("Wind", f"{wind_text(brief)}: {wind_components_text(w)}")
     g.add_row("Temp/alt", f"OAT {wu.oat_c:.0f} °C, altimeter {wu.altimeter_hpa:.1f} hPa; "
                           f"TAS {pf.tas_kt:.0f} kt at the MDA")
     vis = {True: "OK", False: "BELOW MINIMUM", None: "not checked"}[m.visibility_ok]
