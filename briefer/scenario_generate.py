@@ -107,6 +107,15 @@ def _sm_text(v: Fraction) -> str:
     return f"{int(whole)} {frac}SM" if whole else f"{frac}SM"
 
 
+def _difference_text(diff, unit: str) -> str:
+    """'1/8 SM above it', '300 m below it', 'exactly the minimum' (a Fraction in SM, or metres)."""
+    if diff == 0:
+        return "exactly the minimum"
+    mag = abs(diff)
+    text = _sm_text(Fraction(mag))[:-2] if isinstance(diff, Fraction) else f"{mag:.0f}"
+    return f"{text}{unit} {'above' if diff > 0 else 'below'} it"
+
+
 def _temp_text(t: int) -> str:
     return f"M{-t:02d}" if t < 0 else f"{t:02d}"
 
@@ -404,14 +413,16 @@ def _low_visibility(ctx: _Ctx, pairs: list[Pair]) -> _Case:
             vis_m = ctx.rng.choice(pool)
             case.plan.visibility_m, case.plan.visibility_sm = vis_m, None
             case.plan.weather = ("BR",) if vis_m >= 1000 else ("FG",)
-            text = f"{vis_m} m against the required {req_m} m (margin {LOW_VIS_MARGIN_M:.0f} m)"
+            text = f"{vis_m} m against the required {req_m} m ({_difference_text(vis_m - req_m, ' m')})"
         else:
             steps = [v for v in SM_STEPS if abs(float(v) - req_sm) <= LOW_VIS_MARGIN_SM + 1e-9]
             pool = [v for v in steps if (float(v) < req_sm - 1e-9) == below] or steps
             vis = ctx.rng.choice(pool)
             case.plan.visibility_sm, case.plan.visibility_m = vis, None
             case.plan.weather = ("BR",) if vis >= Fraction(5, 8) else ("FG",)
-            text = f"{_sm_text(vis)[:-2]} SM against the required {req_sm:g} SM (margin {LOW_VIS_MARGIN_SM:g} SM)"
+            req = Fraction(req_sm).limit_denominator(16)
+            text = (f"{_sm_text(vis)[:-2]} SM against the required {_sm_text(req)[:-2]} SM "
+                    f"({_difference_text(vis - req, ' SM')})")
         case.build(ctx)
         ok = case.brief.minimums.visibility_ok
         ctx.checks.append(f"Reported visibility {text}: "
@@ -478,7 +489,7 @@ def _temperature(ctx: _Ctx, pairs: list[Pair], *, hot: bool) -> _Case:
         case.build(ctx)
         pf = case.brief.performance
         word = "above" if hot else "below"
-        ctx.checks.append(f"{t} °C at {elev:.0f} ft is {abs(t - isa):.0f} °C {word} ISA ({isa:.0f} °C); at the MDA "
+        ctx.checks.append(f"{t} °C at {elev:.0f} ft is {abs(t - round(isa)):.0f} °C {word} ISA ({round(isa):.0f} °C); at the MDA "
                           f"ISA{pf.isa_deviation_c:+.0f}: {pf.ias_kt:.0f} kt IAS is {pf.tas_kt:.0f} kt TAS, turn "
                           f"radius {pf.turn_radius_nm:.2f} NM.")
         cold = case.brief.minimums.cold
