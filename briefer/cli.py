@@ -63,6 +63,16 @@ def build_parser() -> tuple[argparse.ArgumentParser, dict[str, ModuleType]]:
     return parser, commands
 
 
+def _as_typed(message: str, argv: list[str]) -> str:
+    """A message that starts with a field name ('altitude_ft = 99999 ft is outside ...') names
+    the option the user typed instead ('--altitude-ft = 99999 ft ...'), when there is one."""
+    head = message.split(" ", 1)[0].rstrip(":")
+    option = "--" + head.replace("_", "-")
+    if "_" in head and head.isidentifier() and any(a == option or a.startswith(option + "=") for a in argv):
+        return message.replace(head, option)
+    return message
+
+
 def main(argv: list[str] | None = None) -> int:
     argv = sys.argv[1:] if argv is None else argv
     # `--version` answers before any command module is imported (fast start).
@@ -79,7 +89,7 @@ def main(argv: list[str] | None = None) -> int:
     try:
         return int(commands[args.command].run(args) or 0)
     except BriefingError as exc:
-        print(f"briefer {args.command}: error: {exc}", file=sys.stderr)
+        print(f"briefer {args.command}: error: {_as_typed(str(exc), argv)}", file=sys.stderr)
         return 2
     except KeyboardInterrupt:
         return 130

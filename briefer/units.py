@@ -30,6 +30,10 @@ NM_TO_FT = NM_TO_M / FT_TO_M          # 6076.115... ft
 SM_TO_NM = SM_TO_M / NM_TO_M
 KM_TO_M = 1000.0
 
+# --- mass -----------------------------------------------------------------------------
+LB_TO_KG = 0.45359237                 # [1] exact (avoirdupois pound)
+KG_TO_LB = 1.0 / LB_TO_KG
+
 # --- speed ----------------------------------------------------------------------------
 KT_TO_MPS = NM_TO_M / 3600.0          # [1] exact: 1 kt = 1852 m / 3600 s
 MPS_TO_KT = 1.0 / KT_TO_MPS

@@ -69,8 +69,8 @@ def test_turn_table_output_has_caution(capsys):
 
 
 @pytest.mark.parametrize("argv, fragment", [
-    pytest.param(["turn", "--speed-kt", "120", "--bank-deg", "95"], "bank_deg", id="bank-95"),
-    pytest.param(["turn", "--speed-kt", "120", "--bank-deg", "0"], "bank_deg", id="bank-0"),
+    pytest.param(["turn", "--speed-kt", "120", "--bank-deg", "95"], "--bank-deg", id="bank-95"),
+    pytest.param(["turn", "--speed-kt", "120", "--bank-deg", "0"], "--bank-deg", id="bank-0"),
     pytest.param(["turn", "--speed-kt", "-5", "--bank-deg", "30"], "tas_kt", id="negative-speed"),
     pytest.param(["turn", "--speed-kt", "abc", "--bank-deg", "30"], "expected a number", id="not-a-number"),
     pytest.param(["turn", "--speed-kt", "nan", "--bank-deg", "30"], "finite", id="nan"),
@@ -118,10 +118,10 @@ def test_atmosphere_inhg_equals_hpa(capsys):
 
 
 @pytest.mark.parametrize("argv, fragment", [
-    pytest.param(["atmosphere", "--altitude-ft", "70000"], "altitude_ft", id="too-high"),
-    pytest.param(["atmosphere", "--altitude-ft", "1000", "--altimeter-hpa", "29.92"], "altimeter_hpa",
+    pytest.param(["atmosphere", "--altitude-ft", "70000"], "--altitude-ft", id="too-high"),
+    pytest.param(["atmosphere", "--altitude-ft", "1000", "--altimeter-hpa", "29.92"], "--altimeter-hpa",
                  id="inhg-given-as-hpa"),
-    pytest.param(["atmosphere", "--altitude-ft", "1000", "--oat-c", "-150"], "oat_c", id="too-cold"),
+    pytest.param(["atmosphere", "--altitude-ft", "1000", "--oat-c", "-150"], "--oat-c", id="too-cold"),
     pytest.param(["atmosphere", "--altitude-ft", "1000", "--ias-kt", "0"], "cas_kt", id="zero-speed"),
     pytest.param(["atmosphere"], "--altitude-ft", id="missing-altitude"),
 ])

@@ -4,6 +4,7 @@ and the one function that turns them into a BriefRequest."""
 from __future__ import annotations
 
 import argparse
+import math
 from typing import Any
 
 from briefer.commands._common import finite_float
@@ -20,7 +21,9 @@ def add_situation_arguments(parser: argparse.ArgumentParser, *, demo: bool = Tru
     g.add_argument("--airfield", metavar="FILE|NAME", help="airfield (a YAML file, ident or name)")
     g.add_argument("--approach", metavar="NAME", help="approach name as in the airfield file")
     g.add_argument("--runway", metavar="DES", help="landing runway, e.g. 27")
-    g.add_argument("--weight-lb", type=finite_float, metavar="W", help="landing weight (default: maximum)")
+    wt = g.add_mutually_exclusive_group()
+    wt.add_argument("--weight-lb", type=finite_float, metavar="W", help="landing weight (default: maximum)")
+    wt.add_argument("--weight-kg", type=finite_float, metavar="W", help="landing weight in kilograms")
     g.add_argument("--bank-deg", type=finite_float, metavar="B", help="planned bank (default: the profile's)")
     g.add_argument("--criteria", choices=("terps-legacy", "terps-expanded", "icao"),
                    help="criteria set (default: the approach's own)")
@@ -33,14 +36,71 @@ def add_situation_arguments(parser: argparse.ArgumentParser, *, demo: bool = Tru
     alt = w.add_mutually_exclusive_group()
     alt.add_argument("--altimeter-inhg", type=finite_float, metavar="X")
     alt.add_argument("--altimeter-hpa", type=finite_float, metavar="X")
-    w.add_argument("--visibility-sm", type=finite_float, metavar="V", help="reported visibility")
-    w.add_argument("--ceiling-ft", type=finite_float, metavar="C", help="reported ceiling above the airport")
+    vis = w.add_mutually_exclusive_group()
+    vis.add_argument("--visibility-sm", type=finite_float, metavar="V", help="reported visibility")
+    vis.add_argument("--visibility-m", type=finite_float, metavar="V", help="reported visibility in metres")
+    ceil = w.add_mutually_exclusive_group()
+    ceil.add_argument("--ceiling-ft", type=finite_float, metavar="C", help="reported ceiling above the airport")
+    ceil.add_argument("--ceiling-m", type=finite_float, metavar="C", help="reported ceiling in metres")
     parser.add_argument("--profile-dir", action="append", default=[], metavar="DIR",
                         help="also look for profiles here (repeatable)")
     parser.add_argument("--airfield-dir", action="append", default=[], metavar="DIR",
                         help="also look for airfields here (repeatable)")
 
 
+
+
+def _option_ranges() -> dict[str, tuple[str, Any, str]]:
+    """Each numeric situation option: (option as typed, its range in its own unit, unit words).
+    The ranges are the model's, converted to the option's unit."""
+    from briefer import model, units
+
+    def scaled(rng, factor):            # whole units inward, so the message reads plainly
+        return model.Range(math.ceil(rng.lo * factor), math.floor(rng.hi * factor))
+
+    return {
+        "weight_lb": ("--weight-lb", model.WEIGHT_LB, "pounds"),
+        "weight_kg": ("--weight-kg", scaled(model.WEIGHT_LB, units.LB_TO_KG), "kilograms"),
+        "bank_deg": ("--bank-deg", model.BANK_DEG, "degrees"),
+        "oat_c": ("--oat-c", model.OAT_C, "degrees Celsius"),
+        "altimeter_hpa": ("--altimeter-hpa", model.ALTIMETER_HPA, "hectopascals"),
+        "altimeter_inhg": ("--altimeter-inhg", model.ALTIMETER_INHG, "inches of mercury"),
+        "visibility_sm": ("--visibility-sm", model.WX_VISIBILITY_SM, "statute miles"),
+        "visibility_m": ("--visibility-m", scaled(model.WX_VISIBILITY_SM, units.SM_TO_M), "metres"),
+        "ceiling_ft": ("--ceiling-ft", model.CEILING_FT, "feet"),
+        "ceiling_m": ("--ceiling-m", scaled(model.CEILING_FT, units.FT_TO_M), "metres"),
+    }
+
+
+def _hint(dest: str, value: float, rng: Any) -> str:
+    """A likely slip: an altimeter setting typed without its decimal point (3012 for 30.12)."""
+    for factor in (0.01, 0.1):
+        if dest == "altimeter_inhg" and (value * factor) in rng:
+            return f" (did you mean {value * factor:.2f}?)"
+    return ""
+
+
+def check_options(args: argparse.Namespace) -> None:
+    """Every numeric option typed, checked in its own unit before any conversion: the message
+    names the option as typed ('--altimeter-inhg: expected a number in inches of mercury between
+    25.7 and 32.2, got 3012'), never the model field it feeds."""
+    from briefer.errors import DomainError
+    from briefer.model import _fmt
+
+    for dest, (option, rng, unit) in _option_ranges().items():
+        value = getattr(args, dest, None)
+        if value is not None and value not in rng:
+            raise DomainError(f"{option}: expected a number in {unit} between {_fmt(rng.lo)} and {_fmt(rng.hi)}, "
+                              f"got {_fmt(value)}{_hint(dest, value, rng)}")
+
+
+def weight_lb_from_args(args: argparse.Namespace) -> float | None:
+    """The landing weight in pounds from --weight-lb or --weight-kg (None: the profile's maximum)."""
+    from briefer import units
+
+    if getattr(args, "weight_kg", None) is not None:
+        return args.weight_kg * units.KG_TO_LB
+    return args.weight_lb
 
 
 def weather_fields(args: argparse.Namespace) -> tuple[dict[str, Any], Any]:
@@ -68,8 +128,12 @@ def weather_fields(args: argparse.Namespace) -> tuple[dict[str, Any], Any]:
         fields["altimeter_hpa"] = args.altimeter_inhg * units.INHG_TO_HPA
     if args.visibility_sm is not None:
         fields["visibility_sm"] = args.visibility_sm
+    if getattr(args, "visibility_m", None) is not None:
+        fields["visibility_sm"] = args.visibility_m * units.M_TO_SM
     if args.ceiling_ft is not None:
         fields["ceiling_ft"] = args.ceiling_ft
+    if getattr(args, "ceiling_m", None) is not None:
+        fields["ceiling_ft"] = args.ceiling_m * units.M_TO_FT
     return fields, report
 
 
@@ -83,6 +147,7 @@ def request_from_args(args: argparse.Namespace):
     from briefer.io import catalog
     from briefer.model import BriefOptions, BriefRequest, Weather
 
+    check_options(args)
     fields, report = weather_fields(args)
     if getattr(args, "demo", False) or not any((args.profile, args.airfield, args.approach, args.runway)):
         base = demo_request()
@@ -114,6 +179,6 @@ def request_from_args(args: argparse.Namespace):
         raise
     request = BriefRequest(
         profile=profile, configuration=args.configuration, airfield=airfield, approach=appr.name,
-        landing_runway=args.runway or names["runway"], weather=Weather(**fields), weight_lb=args.weight_lb,
+        landing_runway=args.runway or names["runway"], weather=Weather(**fields), weight_lb=weight_lb_from_args(args),
         bank_deg=args.bank_deg, options=BriefOptions(criteria=args.criteria))
     return request, report

@@ -33,7 +33,8 @@ def inputs_from_args(args: argparse.Namespace):
 
     options = (args.open, args.profile, args.airfield, args.approach, args.runway, args.configuration,
                args.weight_lb, args.bank_deg, args.criteria, args.metar, args.wind, args.oat_c,
-               args.altimeter_inhg, args.altimeter_hpa, args.visibility_sm, args.ceiling_ft)
+               args.altimeter_inhg, args.altimeter_hpa, args.visibility_sm, args.ceiling_ft,
+               args.weight_kg, args.visibility_m, args.ceiling_m)
     if all(o is None or o == "" for o in options):
         # The plain demo case (`briefer` alone): nothing to check before the app starts, so the
         # catalog is read when the app first needs it, after its first frame.
@@ -42,7 +43,10 @@ def inputs_from_args(args: argparse.Namespace):
                                 landing_runway=DEMO["runway"], weather=WeatherInputs(**DEMO_WEATHER))
         return cat, inputs, None
     from briefer import units
+    from briefer.commands._request import check_options, weight_lb_from_args
     from briefer.io import catalog as catalog_mod
+
+    check_options(args)
 
     cat = AppCatalog.load(profile_dirs=args.profile_dir, airfield_dirs=args.airfield_dir)
     notice = None
@@ -87,14 +91,18 @@ def inputs_from_args(args: argparse.Namespace):
             typed[key] = value
     if args.altimeter_inhg is not None:
         typed["altimeter_hpa"] = args.altimeter_inhg * units.INHG_TO_HPA
+    if args.visibility_m is not None:
+        typed["visibility_sm"] = args.visibility_m * units.M_TO_SM
+    if args.ceiling_m is not None:
+        typed["ceiling_ft"] = args.ceiling_m * units.M_TO_FT
     if args.metar or typed or not use_demo:
         weather = WeatherInputs(report=(args.metar or "").strip(), **typed)
     else:
         weather = WeatherInputs(**DEMO_WEATHER)
     inputs = BriefingInputs(profile=profile.name, configuration=args.configuration, airfield=airfield.ident,
                             approach=approach, landing_runway=args.runway or names["runway"],
-                            weight_lb=args.weight_lb, bank_deg=args.bank_deg, criteria=args.criteria,
-                            weather=weather)
+                            weight_lb=weight_lb_from_args(args), bank_deg=args.bank_deg,
+                            criteria=args.criteria, weather=weather)
     request_from_inputs(inputs, cat)      # a bad option is one line on stderr, before the app starts
     return cat, inputs, notice
 
