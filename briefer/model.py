@@ -96,6 +96,8 @@ FIX_FROM_ARP_NM = 30.0
 DESIGNATOR_TOLERANCE_DEG = 15.0
 SIDE_MIN_ANGLE_TO_RUNWAY_DEG = 30.0
 WIND_SPEED_KT = Range(0, 150)
+CROSSWIND_LIMIT_KT = Range(5, 60)
+TAILWIND_LIMIT_KT = Range(0, 30)
 WIND_GUST_KT = Range(1, 200)
 OAT_C = Range(-90, 60)
 ALTIMETER_HPA = Range(870, 1090)
@@ -547,7 +549,9 @@ class Configuration(_Model):
     Angles of attack are in the profile's ``aoa_unit``: ``aoa_ref`` at VREF (1 g, reference
     weight), ``aoa_stall`` at the stall, ``aoa_buffet`` (optional) at the onset of buffet.
     ``bank_target_deg`` is the bank the crew plans to fly when circling, ``bank_limit_deg`` the
-    most the operator or the flight manual allows.
+    most the operator or the flight manual allows. ``max_demonstrated_crosswind_kt`` (optional) is
+    the flight manual's demonstrated crosswind for landing (14 CFR 25.237(a)), and
+    ``tailwind_limit_kt`` (optional) its tailwind limit for landing.
     """
 
     _what: ClassVar[str] = "a configuration"
@@ -561,9 +565,13 @@ class Configuration(_Model):
     aoa_buffet: float | None = None
     bank_target_deg: float
     bank_limit_deg: float
+    max_demonstrated_crosswind_kt: float | None = None
+    tailwind_limit_kt: float | None = None
 
     def __post_init__(self) -> None:
         _text(self, "name")
+        _num(self, "max_demonstrated_crosswind_kt", CROSSWIND_LIMIT_KT, optional=True)
+        _num(self, "tailwind_limit_kt", TAILWIND_LIMIT_KT, optional=True)
         _num(self, "vref_kt", SPEED_KT)
         _num(self, "circling_speed_kt", SPEED_KT)
         _num(self, "vs1g_kt", SPEED_KT)
