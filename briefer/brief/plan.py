@@ -15,6 +15,7 @@ from briefer.brief.findings import FindingList
 from briefer.brief.roll_out import choose_with_closer_roll_out
 from briefer.brief.situation_inputs import Situation
 from briefer.core import geometry, maneuver
+from briefer.core.maneuver_missed import headline_missed_direction
 from briefer.result import Alternative, Finding, MissedApproachInfo, PlanInfo, frozen_array
 
 CENTRELINE_BAND_M = 30.0   # points this close to the extended centreline are "on the final"
@@ -188,19 +189,6 @@ def _missed_approach(s: Situation, plan: maneuver.Plan) -> MissedApproachInfo:
                 by_leg[-1] = (seg.leg_name, by_leg[-1][1] + "/" + seg.direction)
             continue
         by_leg.append((seg.leg_name, seg.direction))
-    main = _main_missed_direction(guide, plan)
+    main = headline_missed_direction(plan, guide)
     return MissedApproachInfo(turn_direction=main, by_leg=tuple(by_leg),
                               instruction=s.request.selected_approach().missed_approach)
-
-
-def _main_missed_direction(guide: maneuver.MissedApproachGuide, plan: maneuver.Plan) -> str:
-    """The turn direction that holds longest on the downwind (or over the whole plan)."""
-    down_legs = {i for i, n in enumerate(plan.leg_names) if "downwind" in n}
-    dirs = guide.direction
-    if len(dirs) != len(plan.track_leg_index):
-        raise IndexError("one missed-approach direction per track point")
-    pool = [d for d, i in zip(dirs, np.asarray(plan.track_leg_index).tolist()) if i in down_legs] or dirs
-    counts = {d: pool.count(d) for d in ("left", "right")}
-    if not any(counts.values()):
-        return ""
-    return max(counts, key=counts.get)

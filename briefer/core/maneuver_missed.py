@@ -130,4 +130,31 @@ def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"
                                segments=tuple(segs))
 
 
-__all__ = ["MissedApproachGuide", "MissedTurnSegment", "missed_approach_turns"]
+def headline_missed_direction(plan: Plan, guide: MissedApproachGuide) -> str:
+    """The one direction to brief: the side of the landing runway along the manoeuvre, weighted
+    by time ("left", "right", or "" when neither side holds any time).
+
+    Each track point's direction (`missed_approach_turns`) counts for the time to the next
+    point, from leaving the approach course to the roll-out: the "arrival" leg (still on the
+    published approach course) and the final straight (the runway ahead) do not count, nor
+    points with the runway within 5 deg of the nose or the tail. A tie goes to the pattern side
+    (`plan.side`).
+    """
+    times = np.asarray(plan.track_time_s, dtype=float)
+    if len(times) < 2:
+        return ""
+    dt = np.diff(times)
+    legs = np.asarray(plan.track_leg_index)[:-1]
+    skip = {i for i, name in enumerate(plan.leg_names) if name == "arrival"}
+    if plan.leg_names and plan.leg_names[-1] == "final":
+        skip.add(len(plan.leg_names) - 1)
+    weight = {"left": 0.0, "right": 0.0}
+    for d, t, leg in zip(guide.direction[:-1], dt.tolist(), legs.tolist()):
+        if d in weight and leg not in skip:
+            weight[d] += t
+    if weight["left"] == weight["right"]:
+        return plan.side if weight["left"] > 0 else ""
+    return "left" if weight["left"] > weight["right"] else "right"
+
+
+__all__ = ["MissedApproachGuide", "MissedTurnSegment", "headline_missed_direction", "missed_approach_turns"]
