@@ -756,3 +756,23 @@ def test_missed_approach_turns_on_the_circuit(side):
         assert segs and all(s.direction == side for s in segs), leg
     assert g.direction[-2] == "ahead"
     assert len(g.direction) == len(p.track_xy_m)
+
+
+def test_no_join_note_for_a_join_at_abeam():
+    """A downwind joined less than a second's flight past abeam changes no whole-second timing:
+    no 'joined 1 m past abeam' note (it came from rounding, and flipped with metres of geometry).
+    A join far past abeam keeps its note. Our own wording rule; the cases are demo briefs."""
+    from briefer.brief import build_brief
+    from briefer.io import catalog
+    from briefer.model import BriefRequest, Weather
+
+    prof = catalog.find_profile("demo-trainer", use_config=False)
+    af = catalog.find_airfield("V2RL", use_config=False)
+    calm = build_brief(BriefRequest(profile=prof, airfield=af, approach="RNAV (GPS) RWY 09", landing_runway="09",
+                                    weather=Weather()))
+    assert calm.plan.shape == "overfly-circuit"
+    assert not [r for r in calm.plan.reasons if "past abeam" in r]
+    far = build_brief(BriefRequest(profile=catalog.find_profile("demo-bizjet", use_config=False),
+                                   airfield=catalog.find_airfield("Q7HM", use_config=False),
+                                   approach="VOR-A", landing_runway="13", weather=Weather()))
+    assert [r for r in far.plan.reasons if "m past abeam the threshold" in r]

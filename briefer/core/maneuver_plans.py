@@ -57,11 +57,12 @@ from briefer.core.maneuver_solver import (
     solve_inputs,
 )
 from briefer.errors import DomainError
-from briefer.units import wrap_180
+from briefer.units import KT_TO_MPS, wrap_180
 
 PLAN_TURN_STEP_DEG = 2.0          # a plan's track: a point every 2 deg of turn ...
 PLAN_STRAIGHT_STEP_M = 100.0      # ... and every 100 m of straight
 CONTINUOUS_TURN_S = 0.5           # a circuit leg shorter than this: the turns either side are one turn
+JOIN_PAST_ABEAM_S = 1.0           # a join less than this much flight past abeam changes no whole-second timing
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -445,7 +446,8 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
     if shape in DOWNWIND_SHAPES:
         dw_i = names.index("downwind")
         x_join = float(sol.legs[dw_i].x0[k])
-        if x_join < 0.0:
+        downwind_gs_kt = inputs.tas_kt - inputs.wind.toward_x_kt     # flown against the landing direction
+        if -x_join > JOIN_PAST_ABEAM_S * downwind_gs_kt * KT_TO_MPS:   # else the same whole-second timings
             notes.append(f"the downwind is joined {-x_join:.0f} m past abeam the threshold: start the timing "
                          f"from the join, {times[dw_i]:.0f} s to the roll-in")
     if shape == "overfly-circuit":
