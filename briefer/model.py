@@ -105,6 +105,17 @@ ALTIMETER_INHG = Range(25.7, 32.2)
 WX_VISIBILITY_SM = Range(0, 100)
 CEILING_FT = Range(0, 50000)
 STABILISED_HEIGHT_FT = Range(100, 1500)
+CHART_DISTANCE_NM = Range(0, 30)
+CHART_DISTANCE_FT = Range(0, 180000)
+CHART_DISTANCE_M = Range(0, 55000)
+RUNWAY_LENGTH_FT = Range(984, 19685)       # RUNWAY_LENGTH_M in feet, rounded inward
+DISTANCE_UNITS = (("distance_nm", CHART_DISTANCE_NM), ("distance_ft", CHART_DISTANCE_FT),
+                  ("distance_m", CHART_DISTANCE_M))
+BEARING_UNITS = (("bearing_deg_mag", COURSE_DEG), ("bearing_deg_true", COURSE_DEG))
+HEADING_UNITS = (("heading_deg_mag", COURSE_DEG), ("heading_deg_true", COURSE_DEG))
+LENGTH_UNITS = (("length_ft", RUNWAY_LENGTH_FT), ("length_m", RUNWAY_LENGTH_M))
+ARP = "ARP"
+"""How a chart placement names the airfield reference point (``from_point: ARP``)."""
 LANDING_WEIGHT_MIN_FRACTION = 0.4
 WEIGHT_RATIO_LIMIT = 2.0
 TEXT_MAX = 500
@@ -421,7 +432,7 @@ class _Model:
     def _read(cls, data: Mapping[str, Any], path: str) -> dict[str, Any]:
         kwargs: dict[str, Any] = {}
         for f in fields(cls):  # type: ignore[arg-type]
-            if f.name not in data:
+            if f.name not in data or not f.init:
                 continue
             value = data[f.name]
             sub = join_path(path, f.name)
@@ -724,6 +735,109 @@ class AircraftProfile(_Model):
 # --------------------------------------------------------------------------------------------
 # Airfield, runways, obstacles, approaches
 # --------------------------------------------------------------------------------------------
+# -- chart numbers: one value in one of several units -----------------------------------------
+def _one_unit(obj: Any, options: tuple[tuple[str, Range], ...], what: str, *,
+              required: bool = False, hint: str = "") -> str | None:
+    """Check a quantity the file may give in one of several units (``distance_nm``, ``distance_ft``,
+    ``distance_m``): at most one of them; each in its range, and a range error names the other
+    accepted forms. Returns the key given, or None."""
+    names = [n for n, _ in options]
+    given = [n for n in names if getattr(obj, n) is not None]
+    if len(given) > 1:
+        raise InvariantError(f"give either {given[0]} or {given[1]}, not both", field=given[1])
+    if not given:
+        if required:
+            raise InvariantError(f"missing the {what}: give {_one_of(names).replace(chr(39), '')}{hint}")
+        return None
+    key = given[0]
+    rng = dict(options)[key]
+    others = [n for n in names if n != key]
+    try:
+        _num(obj, key, rng)
+    except InvariantError as exc:
+        raise InvariantError(f"{exc.message} (or give {_one_of(others).replace(chr(39), '')})",
+                             field=exc.field) from None
+    return key
+
+
+def _from_point(obj: Any) -> str | None:
+    """``from_point``: a threshold designator, or the airfield reference point ('ARP')."""
+    value = obj.from_point
+    if value is None:
+        return None
+    if isinstance(value, str) and value.strip().lower().replace("_", " ") in ("arp", "reference point"):
+        _set(obj, "from_point", ARP)
+        return ARP
+    norm = normalise_designator(value)
+    if norm is None:
+        raise InvariantError(f"expected a runway threshold such as '09' or 'ARP' (the reference point), "
+                             f"got {_describe(value)}", field="from_point")
+    _set(obj, "from_point", norm)
+    return norm
+
+
+class _Placed:
+    """Mixin of the chart placements: a distance (NM, ft or m) and a bearing (magnetic or true)."""
+
+    __slots__ = ()
+
+    @property
+    def distance_as_m(self) -> float | None:
+        """The distance given, in metres (None if none). [m]"""
+        for key, factor in (("distance_nm", units.NM_TO_M), ("distance_ft", units.FT_TO_M), ("distance_m", 1.0)):
+            value = getattr(self, key)
+            if value is not None:
+                return value * factor
+        return None
+
+    def true_bearing_deg(self, magnetic_variation_deg: float) -> float:
+        """The bearing given, referred to true north (true = magnetic + variation, east positive). [deg]"""
+        if self.bearing_deg_true is not None:  # type: ignore[attr-defined]
+            return float(self.bearing_deg_true) % 360.0  # type: ignore[attr-defined]
+        return (self.bearing_deg_mag + magnetic_variation_deg) % 360.0  # type: ignore[attr-defined]
+
+    def _check_distance(self, *, required: bool) -> str | None:
+        return _one_unit(self, DISTANCE_UNITS, "distance", required=required)
+
+    def _check_bearing(self, *, required: bool) -> str | None:
+        return _one_unit(self, BEARING_UNITS, "bearing", required=required,
+                         hint=" (from the point named in from_point)")
+
+    def _check_from_bearing(self) -> None:
+        """from_point with a distance and a bearing, all three or none of them."""
+        _from_point(self)
+        bearing = self._check_bearing(required=False)
+        if self.from_point is not None:  # type: ignore[attr-defined]
+            self._check_distance(required=True)
+            if bearing is None:
+                raise InvariantError("missing the bearing: give bearing_deg_mag or bearing_deg_true "
+                                     "(from the point named in from_point)")
+        elif bearing is not None:
+            raise InvariantError(f"{bearing} needs from_point (the threshold or ARP it is measured from)",
+                                 field=bearing)
+
+
+def _coordinates(obj: Any) -> bool:
+    """Optional lat_deg/lon_deg, both or neither; True when given."""
+    lat, lon = obj.lat_deg is not None, obj.lon_deg is not None
+    if lat != lon:
+        missing = "lon_deg" if lat else "lat_deg"
+        raise InvariantError(f"missing required key '{missing}' (latitude and longitude go together)")
+    if lat:
+        _num(obj, "lat_deg", LAT_DEG)
+        _num(obj, "lon_deg", LON_DEG)
+    return lat
+
+
+def _no_coordinates_with(obj: Any, keys: tuple[str, ...], form: str) -> None:
+    given = [k for k in keys if getattr(obj, k) not in (None, ())]
+    if given:
+        raise InvariantError(f"give either lat_deg/lon_deg or {form}, not both", field=given[0])
+
+
+_PLACE_KEYS = ("from_point", "distance_nm", "distance_ft", "distance_m", "bearing_deg_mag", "bearing_deg_true")
+
+
 @dataclass(frozen=True, slots=True, kw_only=True)
 class LatLon(_Model):
     """A point on the WGS-84 ellipsoid [degrees; north and east positive]."""
@@ -748,23 +862,35 @@ class Threshold(_Model):
     the distance along the centreline from the runway end (the start of the pavement, behind the
     threshold as seen on final) to the landing threshold. Absent or 0: the threshold is at the
     runway end. The runway end itself is derived, never stored twice (see `Runway`).
+
+    The position is ``lat_deg``/``lon_deg``, or left out when the runway is given by the chart's
+    heading and length (`Runway`). The elevation is ``elevation_ft`` (the threshold elevation)
+    or ``tdze_ft`` when the chart prints the touchdown zone elevation instead (then used as the
+    threshold's elevation; the file keeps the key it was given).
     """
 
     _what: ClassVar[str] = "a runway threshold"
 
     designator: str
-    lat_deg: float
-    lon_deg: float
-    elevation_ft: float
+    lat_deg: float | None = None
+    lon_deg: float | None = None
+    elevation_ft: float | None = None
+    tdze_ft: float | None = None
     tch_ft: float = 50.0
     glide_path_deg: float = 3.0
     displaced_threshold_m: float | None = None
 
     def __post_init__(self) -> None:
         _designator(self, "designator")
-        _num(self, "lat_deg", LAT_DEG)
-        _num(self, "lon_deg", LON_DEG)
-        _num(self, "elevation_ft", ELEVATION_FT)
+        _coordinates(self)
+        _num(self, "tdze_ft", ELEVATION_FT, optional=True)
+        _num(self, "elevation_ft", ELEVATION_FT, optional=True)
+        if self.elevation_ft is None and self.tdze_ft is None:
+            raise InvariantError("missing required key 'elevation_ft' (or tdze_ft, the touchdown zone elevation)")
+        if self.tdze_ft is not None:
+            if self.elevation_ft is not None and self.elevation_ft != self.tdze_ft:
+                raise InvariantError("give either elevation_ft or tdze_ft, not both", field="tdze_ft")
+            _set(self, "elevation_ft", self.tdze_ft)
         _num(self, "tch_ft", TCH_FT)
         _num(self, "glide_path_deg", GLIDE_PATH_DEG)
         _num(self, "displaced_threshold_m", DISPLACED_THRESHOLD_M, optional=True)
@@ -773,6 +899,16 @@ class Threshold(_Model):
     def displaced_m(self) -> float:
         """The displacement of the landing threshold from the runway end, 0 when not displaced [m]."""
         return self.displaced_threshold_m or 0.0
+
+    @property
+    def has_coordinates(self) -> bool:
+        return self.lat_deg is not None
+
+    def to_mapping(self) -> dict[str, Any]:
+        out = _Model.to_mapping(self)
+        if self.tdze_ft is not None:
+            del out["elevation_ft"]
+        return out
 
 
 _RECIPROCAL_SUFFIX = {"": "", "L": "R", "R": "L", "C": "C"}
@@ -786,26 +922,113 @@ def reciprocal_designator(designator: str) -> str:
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
+class RunwayPosition(_Placed, _Model):
+    """Where a runway given by heading and length lies: its threshold ``threshold`` (default
+    threshold A) at a distance and a bearing from ``from_point`` (a threshold of a runway listed
+    before it, or ARP, the reference point)."""
+
+    _what: ClassVar[str] = "a runway position"
+
+    threshold: str | None = None
+    from_point: str
+    distance_nm: float | None = None
+    distance_ft: float | None = None
+    distance_m: float | None = None
+    bearing_deg_mag: float | None = None
+    bearing_deg_true: float | None = None
+
+    def __post_init__(self) -> None:
+        _designator(self, "threshold", optional=True)
+        self._check_from_bearing()
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class CrossingPoint(_Model):
+    """One half of 'the centrelines cross ``distance`` from threshold ``threshold``'."""
+
+    _what: ClassVar[str] = "a crossing distance"
+
+    threshold: str
+    distance_nm: float | None = None
+    distance_ft: float | None = None
+    distance_m: float | None = None
+
+    def __post_init__(self) -> None:
+        _designator(self, "threshold")
+        _one_unit(self, DISTANCE_UNITS, "distance", required=True)
+
+    distance_as_m = _Placed.distance_as_m
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
 class Runway(_Model):
-    """A runway: its two thresholds (reciprocal designators, 300 m to 6 km apart)."""
+    """A runway: its two thresholds (reciprocal designators, 300 m to 6 km apart).
+
+    Two forms. Coordinates: both thresholds carry ``lat_deg``/``lon_deg``. Chart: the thresholds
+    carry no coordinates; ``heading_deg_mag`` (or ``heading_deg_true``) is the heading from
+    threshold A toward threshold B as the airport diagram prints it, ``length_ft`` (or
+    ``length_m``) the runway's length as printed, end to end (the landing thresholds lie
+    ``displaced_threshold_m`` inside the ends, when given); the runway is placed by ``position`` (one threshold
+    at a distance and a bearing from a threshold of a runway listed before it, or from ARP) or by
+    ``crossing`` (the two centrelines cross at the given distances from a threshold of each
+    runway). The first chart runway of an airfield without a reference point needs neither: its
+    threshold A is the origin of the local frame (`briefer.core.layout`).
+    """
 
     _what: ClassVar[str] = "a runway"
-    _nested: ClassVar[dict[str, type]] = {"threshold_a": Threshold, "threshold_b": Threshold}
+    _nested: ClassVar[dict[str, type]] = {"threshold_a": Threshold, "threshold_b": Threshold,
+                                          "position": RunwayPosition}
+    _nested_seq: ClassVar[dict[str, type]] = {"crossing": CrossingPoint}
 
     threshold_a: Threshold
     threshold_b: Threshold
+    heading_deg_mag: float | None = None
+    heading_deg_true: float | None = None
+    length_ft: float | None = None
+    length_m: float | None = None
     width_m: float | None = None
+    position: RunwayPosition | None = None
+    crossing: tuple[CrossingPoint, ...] = ()
 
     def __post_init__(self) -> None:
         _instance(self, "threshold_a", Threshold)
         _instance(self, "threshold_b", Threshold)
         _num(self, "width_m", RUNWAY_WIDTH_M, optional=True)
+        _instance(self, "position", RunwayPosition, optional=True)
+        crossing = _items(self, "crossing", CrossingPoint, what="crossing distance")
         a, b = self.threshold_a, self.threshold_b
         if b.designator != reciprocal_designator(a.designator):
             raise InvariantError(
                 f"expected '{reciprocal_designator(a.designator)}' (the reciprocal of '{a.designator}'), "
                 f"got '{b.designator}'", field="threshold_b.designator")
-        length_m = self.length_m
+        if a.has_coordinates != b.has_coordinates:
+            bare = "threshold_b" if a.has_coordinates else "threshold_a"
+            other = "threshold_a" if a.has_coordinates else "threshold_b"
+            raise InvariantError(f"missing lat_deg and lon_deg ({other} has them): give both thresholds' "
+                                 f"coordinates, or neither and the runway's heading and length", field=bare)
+        if a.has_coordinates:
+            _no_coordinates_with(self, ("heading_deg_mag", "heading_deg_true", "length_ft", "length_m",
+                                        "position", "crossing"), "the chart's heading and length")
+        else:
+            _one_unit(self, HEADING_UNITS, "heading", required=True,
+                      hint=" (from threshold A toward threshold B, as the airport diagram prints it)")
+            _one_unit(self, LENGTH_UNITS, "length", required=True)
+            if self.position is not None and crossing:
+                raise InvariantError("give either position or crossing, not both", field="crossing")
+            if self.position is not None and self.position.threshold not in (None, a.designator, b.designator):
+                raise InvariantError(f"expected '{a.designator}' or '{b.designator}' (a threshold of this runway), "
+                                     f"got '{self.position.threshold}'", field="position.threshold")
+            if crossing and len(crossing) != 2:
+                raise InvariantError(f"expected 2 crossing distances (one from a threshold of this runway, one "
+                                     f"from a threshold of a runway before it), got {len(crossing)}",
+                                     field="crossing")
+        length_m = self.threshold_distance_m
+        if self.chart_form and self.displaced and length_m < RUNWAY_LENGTH_M.lo:
+            raise InvariantError(
+                f"the displaced thresholds ({_fmt(a.displaced_m)} m and {_fmt(b.displaced_m)} m) leave "
+                f"{length_m:.0f} m between the landing thresholds of a {self.end_to_end_m:.0f} m runway; "
+                f"expected at least {_fmt(RUNWAY_LENGTH_M.lo)} m", field="threshold_b.displaced_threshold_m"
+                if b.displaced_m else "threshold_a.displaced_threshold_m")
         if length_m not in RUNWAY_LENGTH_M:
             raise InvariantError(
                 f"thresholds '{a.designator}' and '{b.designator}' are {length_m:.0f} m apart; expected "
@@ -813,26 +1036,49 @@ class Runway(_Model):
                 field="threshold_b")
 
     @property
+    def chart_form(self) -> bool:
+        """True when the runway is given by heading and length (no coordinates)."""
+        return not self.threshold_a.has_coordinates
+
+    @property
     def designator(self) -> str:
         """'09/27'."""
         return f"{self.threshold_a.designator}/{self.threshold_b.designator}"
 
     @property
-    def length_m(self) -> float:
-        """Threshold-to-threshold distance (spherical; for display and plausibility) [m]."""
+    def threshold_distance_m(self) -> float:
+        """Landing-threshold-to-landing-threshold distance: the charted length less the displaced
+        thresholds, or from the coordinates (spherical; for display and plausibility). [m]"""
         a, b = self.threshold_a, self.threshold_b
-        return _distance_m(a.lat_deg, a.lon_deg, b.lat_deg, b.lon_deg)
+        if self.length_ft is not None or self.length_m is not None:
+            end_to_end = self.length_m if self.length_m is not None else self.length_ft * units.FT_TO_M  # type: ignore[operator]
+            return end_to_end - a.displaced_m - b.displaced_m
+        return _distance_m(a.lat_deg, a.lon_deg, b.lat_deg, b.lon_deg)  # type: ignore[arg-type]
 
     @property
     def end_to_end_m(self) -> float:
         """Runway-end-to-runway-end length: the landing thresholds' distance plus both
         displacements (the ends lie on the centreline behind their thresholds) [m]."""
-        return self.length_m + self.threshold_a.displaced_m + self.threshold_b.displaced_m
+        return self.threshold_distance_m + self.threshold_a.displaced_m + self.threshold_b.displaced_m
 
     @property
     def displaced(self) -> bool:
         """True when either landing threshold lies inside the runway (displaced)."""
         return self.threshold_a.displaced_m > 0 or self.threshold_b.displaced_m > 0
+
+    def true_heading_deg(self, magnetic_variation_deg: float) -> float:
+        """The charted heading from threshold A toward B, referred to true north. [deg]"""
+        if self.heading_deg_true is not None:
+            return float(self.heading_deg_true) % 360.0
+        if self.heading_deg_mag is None:
+            raise DomainError(f"runway {self.designator} is given by coordinates, not by a charted heading")
+        return (self.heading_deg_mag + magnetic_variation_deg) % 360.0
+
+    def to_mapping(self) -> dict[str, Any]:
+        out = _Model.to_mapping(self)
+        if not self.crossing:
+            del out["crossing"]
+        return out
 
     def ends(self, designator: str) -> tuple[Threshold, Threshold] | None:
         """(landing threshold, opposite threshold) for a designator of this runway, else None."""
@@ -853,23 +1099,37 @@ class Runway(_Model):
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
-class Obstacle(_Model):
-    """A charted obstacle. ``elevation_ft`` is the top, above mean sea level."""
+class Obstacle(_Placed, _Model):
+    """A charted obstacle. ``elevation_ft`` is the top, above mean sea level. Its position is
+    ``lat_deg``/``lon_deg``, or ``from_point`` (a threshold or ARP) with a distance
+    (``distance_nm``, ``distance_ft`` or ``distance_m``) and a bearing (``bearing_deg_mag`` or
+    ``bearing_deg_true``) from it."""
 
     _what: ClassVar[str] = "an obstacle"
 
     name: str
     kind: str = "other"
-    lat_deg: float
-    lon_deg: float
+    lat_deg: float | None = None
+    lon_deg: float | None = None
+    from_point: str | None = None
+    distance_nm: float | None = None
+    distance_ft: float | None = None
+    distance_m: float | None = None
+    bearing_deg_mag: float | None = None
+    bearing_deg_true: float | None = None
     elevation_ft: float
     height_agl_ft: float | None = None
 
     def __post_init__(self) -> None:
         _text(self, "name")
         _text(self, "kind", choices=OBSTACLE_KINDS)
-        _num(self, "lat_deg", LAT_DEG)
-        _num(self, "lon_deg", LON_DEG)
+        if _coordinates(self):
+            _no_coordinates_with(self, _PLACE_KEYS, "from_point, distance and bearing")
+        else:
+            self._check_from_bearing()
+            if self.from_point is None:
+                raise InvariantError("missing the position: give lat_deg and lon_deg, or from_point (a threshold "
+                                     "or ARP) with distance_nm and bearing_deg_mag")
         _num(self, "elevation_ft", ALTITUDE_FT)
         _num(self, "height_agl_ft", OBSTACLE_HEIGHT_AGL_FT, optional=True)
         if self.height_agl_ft is not None and self.elevation_ft - self.height_agl_ft not in ELEVATION_FT:
@@ -880,21 +1140,58 @@ class Obstacle(_Model):
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
-class Fix(_Model):
-    """A named point of the approach (final approach fix, missed approach point)."""
+class Fix(_Placed, _Model):
+    """A named point of the approach (final approach fix, missed approach point).
+
+    Its position is one of: ``lat_deg``/``lon_deg``; ``threshold`` (at that threshold, or a
+    distance before it on the final approach course); ``from_point`` (a threshold or ARP) with a
+    distance and a bearing from it (an off-field facility); or, for the final approach fix only, a
+    distance alone: that far before the missed approach point along the final approach course.
+    Distances are ``distance_nm``, ``distance_ft`` or ``distance_m``; bearings ``bearing_deg_mag``
+    or ``bearing_deg_true``.
+    """
 
     _what: ClassVar[str] = "a fix"
 
     name: str
-    lat_deg: float
-    lon_deg: float
+    lat_deg: float | None = None
+    lon_deg: float | None = None
+    threshold: str | None = None
+    from_point: str | None = None
+    distance_nm: float | None = None
+    distance_ft: float | None = None
+    distance_m: float | None = None
+    bearing_deg_mag: float | None = None
+    bearing_deg_true: float | None = None
     altitude_ft: float | None = None
 
     def __post_init__(self) -> None:
         _text(self, "name")
-        _num(self, "lat_deg", LAT_DEG)
-        _num(self, "lon_deg", LON_DEG)
+        if _coordinates(self):
+            _no_coordinates_with(self, ("threshold", *_PLACE_KEYS), "a position from the chart")
+        else:
+            _designator(self, "threshold", optional=True)
+            self._check_from_bearing()
+            if self.threshold is not None and self.from_point is not None:
+                raise InvariantError("give either threshold (at it or a distance before it on the final course) "
+                                     "or from_point with a distance and a bearing, not both", field="from_point")
+            if self.threshold is not None:
+                self._check_distance(required=False)
+            elif self.from_point is None and self._check_distance(required=False) is None:
+                raise InvariantError("missing the position: give lat_deg and lon_deg; threshold (at it, or "
+                                     "distance_nm before it on the final course); from_point with distance_nm "
+                                     "and bearing_deg_mag; or, for the final approach fix, distance_nm before "
+                                     "the missed approach point")
         _num(self, "altitude_ft", ALTITUDE_FT, optional=True)
+
+    @property
+    def has_coordinates(self) -> bool:
+        return self.lat_deg is not None
+
+    @property
+    def before_map_only(self) -> bool:
+        """True when the position is a distance alone (before the missed approach point)."""
+        return self.lat_deg is None and self.threshold is None and self.from_point is None
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -1195,6 +1492,13 @@ class Airfield(_Model):
     (`briefer.core.magvar`), ``variation_model`` keeps that computation (None when the file gave
     the variation), and `to_mapping` leaves it out again, so a saved file keeps following the model.
     Without a reference point the model cannot be used and the variation is required.
+
+    ``reference_point`` may be left out when every position is given by chart numbers
+    (headings, lengths, distances and bearings): the airfield then lives in a local frame with
+    its origin at the first runway's threshold A, tied to no place on the earth.
+
+    ``layout`` (derived, not a file key) holds every threshold, fix and obstacle in the local frame
+    (`briefer.core.layout.Layout`); it is computed once, when the airfield is built.
     """
 
     _kind: ClassVar[str | None] = KIND_AIRFIELD
@@ -1204,13 +1508,14 @@ class Airfield(_Model):
 
     ident: str
     name: str
-    reference_point: LatLon
+    reference_point: LatLon | None = None
     elevation_ft: float
     magnetic_variation_deg: float | None = None
     runways: tuple[Runway, ...]
     obstacles: tuple[Obstacle, ...] = ()
     approaches: tuple[Approach, ...]
     variation_model: Any = field(default=None, init=False, compare=False, repr=False)
+    layout: Any = field(default=None, init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
         ident = _text(self, "ident")
@@ -1218,7 +1523,7 @@ class Airfield(_Model):
             raise InvariantError(f"expected 2 to 8 letters or digits, got {_describe(ident)}", field="ident")
         _set(self, "ident", self.ident.upper())
         _text(self, "name")
-        _instance(self, "reference_point", LatLon)
+        _instance(self, "reference_point", LatLon, optional=True)
         _num(self, "elevation_ft", ELEVATION_FT)
         if self.magnetic_variation_deg is None:
             self._variation_from_model()
@@ -1230,6 +1535,17 @@ class Airfield(_Model):
         self._check_runways(runways)
         self._check_obstacles(obstacles)
         self._check_approaches(approaches)
+        from briefer.core import layout as _layout   # pure computation; imported here, not at start-up
+
+        try:
+            _set(self, "layout", _layout.layout_airfield(self))
+        except _layout.LayoutError as exc:
+            raise InvariantError(exc.message, field=exc.field) from None
+        self._check_chart_distances()
+        for i, ap in enumerate(approaches):
+            for j, sector in enumerate(ap.not_authorised_sectors):
+                if sector.kind == "side":
+                    self._check_side(sector, f"approaches[{i}].not_authorised_sectors[{j}]")
 
     def _variation_from_model(self) -> None:
         """Fill the variation from the World Magnetic Model (the file gives none)."""
@@ -1255,8 +1571,40 @@ class Airfield(_Model):
         return out
 
     # -- cross-field rules -------------------------------------------------------------------
-    def _from_arp_m(self, lat_deg: float, lon_deg: float) -> float:
+    def _from_arp_m(self, lat_deg: float | None, lon_deg: float | None) -> float:
+        """Distance of a position given by coordinates from the reference point (0 when there is
+        none: the layout then refuses the coordinates with its own message). [m]"""
+        if self.reference_point is None or lat_deg is None or lon_deg is None:
+            return 0.0
         return _distance_m(self.reference_point.lat_deg, self.reference_point.lon_deg, lat_deg, lon_deg)
+
+    def _check_chart_distances(self) -> None:
+        """Positions from chart numbers lie where the airfield's plausibility limits allow (one
+        clear message for a MAP 40 NM away or a runway placed 20 km off)."""
+        lay = self.layout
+        origin = lay.origin
+        for i, rw in enumerate(self.runways):
+            if not rw.chart_form:
+                continue
+            for key in ("threshold_a", "threshold_b"):
+                th = getattr(rw, key)
+                km = lay.distance_from_origin_m(lay.thresholds_m[th.designator]) / units.KM_TO_M
+                if km > THRESHOLD_FROM_ARP_KM:
+                    raise InvariantError(f"the threshold would be {km:.1f} km from {origin}; expected within "
+                                         f"{_fmt(THRESHOLD_FROM_ARP_KM)} km (check the runway's position)",
+                                         field=f"runways[{i}].{key}")
+        for i, ob in enumerate(self.obstacles):
+            km = lay.distance_from_origin_m(lay.obstacles_m[i]) / units.KM_TO_M
+            if ob.lat_deg is None and km > OBSTACLE_FROM_ARP_KM:
+                raise InvariantError(f"the obstacle would be {km:.1f} km from {origin}; expected within "
+                                     f"{_fmt(OBSTACLE_FROM_ARP_KM)} km", field=f"obstacles[{i}]")
+        for i, ap in enumerate(self.approaches):
+            for fix_key, xy in zip(("faf", "map_fix"), lay.fixes_m[ap.name]):
+                nm = lay.distance_from_origin_m(xy) * units.M_TO_NM
+                if not getattr(ap, fix_key).has_coordinates and nm > FIX_FROM_ARP_NM:
+                    raise InvariantError(f"the fix would be {nm:.1f} NM from {origin}; expected within "
+                                         f"{_fmt(FIX_FROM_ARP_NM)} NM (check its distance, its bearing and the "
+                                         f"final course)", field=f"approaches[{i}].{fix_key}")
 
     def _check_runways(self, runways: tuple[Runway, ...]) -> None:
         seen: dict[str, int] = {}
@@ -1278,9 +1626,23 @@ class Airfield(_Model):
             seen[rw.threshold_a.designator] = i
             seen[rw.threshold_b.designator] = i
             a, b = rw.threshold_a, rw.threshold_b
-            true_deg = _bearing_deg_true(a.lat_deg, a.lon_deg, b.lat_deg, b.lon_deg)
-            mag_deg = (true_deg - self.magnetic_variation_deg) % 360.0
             nominal = int(a.designator[:2]) * 10.0
+            if rw.chart_form:
+                true_deg = rw.true_heading_deg(self.magnetic_variation_deg)
+                mag_deg = (true_deg - self.magnetic_variation_deg) % 360.0
+                if _angle_diff_deg(mag_deg, nominal) > DESIGNATOR_TOLERANCE_DEG:
+                    key = "heading_deg_mag" if rw.heading_deg_mag is not None else "heading_deg_true"
+                    given = rw.heading_deg_mag if rw.heading_deg_mag is not None else rw.heading_deg_true
+                    other = " (that is the heading of the other end, '" + b.designator + "')" if _angle_diff_deg(
+                        mag_deg, nominal + 180.0) <= DESIGNATOR_TOLERANCE_DEG else ""
+                    raise InvariantError(
+                        f"expected a heading within {_fmt(DESIGNATOR_TOLERANCE_DEG)} degrees of {nominal:03.0f} "
+                        f"magnetic for designator '{a.designator}' (threshold_a), got {_fmt(given)}"  # type: ignore[arg-type]
+                        f"{' true (' + format(mag_deg, '05.1f') + ' magnetic)' if key == 'heading_deg_true' else ''}"
+                        f"{other}", field=f"runways[{i}].{key}")
+                continue
+            true_deg = _bearing_deg_true(a.lat_deg, a.lon_deg, b.lat_deg, b.lon_deg)  # type: ignore[arg-type]
+            mag_deg = (true_deg - self.magnetic_variation_deg) % 360.0
             if _angle_diff_deg(mag_deg, nominal) > DESIGNATOR_TOLERANCE_DEG:
                 raise InvariantError(
                     f"the bearing from threshold '{a.designator}' to '{b.designator}' is {mag_deg:03.0f} "
@@ -1335,6 +1697,11 @@ class Airfield(_Model):
                             f"the threshold elevation ({_fmt(landing.elevation_ft)}), got {_fmt(m.mda_ft)} "
                             f"({_fmt(m.mda_ft - landing.elevation_ft)} ft above)",
                             field=f"{where}.straight_in.minimums.{m.category}.mda_ft")
+            if ap.map_fix.before_map_only:
+                raise InvariantError("a distance alone places the final approach fix before the missed approach "
+                                     "point; give the missed approach point by threshold (at it, or distance_nm "
+                                     "before it) or by from_point with distance_nm and bearing_deg_mag",
+                                     field=f"{where}.map_fix")
             for j, sector in enumerate(ap.not_authorised_sectors):
                 self._check_sector(sector, f"{where}.not_authorised_sectors[{j}]", designators)
 
@@ -1348,8 +1715,11 @@ class Airfield(_Model):
         if runway is None:
             raise InvariantError(f"no runway '{sector.runway}' at this airfield (runways: "
                                  f"{', '.join(rw.designator for rw in self.runways)})", field=f"{where}.runway")
-        a, b = runway.threshold_a, runway.threshold_b
-        axis = _bearing_deg_true(a.lat_deg, a.lon_deg, b.lat_deg, b.lon_deg)
+
+    def _check_side(self, sector: Sector, where: str) -> None:
+        """A side sector lies to one side of its runway (checked on the layout)."""
+        runway = self.runway(sector.runway or "")
+        axis = self.layout.headings_deg[runway.threshold_a.designator]
         side = SIDE_BEARING_DEG_TRUE[sector.side]  # type: ignore[index]
         off_axis = min(_angle_diff_deg(side, axis), _angle_diff_deg(side, axis + 180.0))
         if off_axis < SIDE_MIN_ANGLE_TO_RUNWAY_DEG:

@@ -232,7 +232,7 @@ def _preferred(emphasis: str, airfields: list[Any]) -> list[Any]:
     if emphasis == "hot-high":
         return sorted(airfields, key=lambda a: -a.elevation_ft)
     if emphasis == "cold":
-        return sorted(airfields, key=lambda a: -abs(a.reference_point.lat_deg))
+        return sorted(airfields, key=lambda a: -abs(a.reference_point.lat_deg) if a.reference_point else 0.0)
     return airfields
 
 

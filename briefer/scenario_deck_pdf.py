@@ -104,7 +104,6 @@ def chart_scene(case: DeckCase) -> Scene:
     """What the student's chart shows: the answer's plan view (`scene_from_brief`, same frame and
     scale) without the protected area or the plan, every obstacle labelled with its elevation,
     and the final approach course from the FAF to the MAP."""
-    from briefer.core import geometry
     from briefer.render.brief_scene import scene_from_brief
 
     b = case.brief
@@ -119,8 +118,7 @@ def chart_scene(case: DeckCase) -> Scene:
         items.append(item)
     req = case.loaded.request
     af, appr = req.airfield, req.selected_approach()
-    frame = geometry.LocalFrame(lat0_deg=af.reference_point.lat_deg, lon0_deg=af.reference_point.lon_deg)
-    fixes = [tuple(float(v) for v in frame.to_local(f.lat_deg, f.lon_deg)) for f in (appr.faf, appr.map_fix)]
+    fixes = [tuple(float(v) for v in p) for p in af.layout.fixes_m[appr.name]]
     items.append(Polyline(points=tuple(fixes), role=Role.FINAL_APPROACH))
     return replace(scene, items=tuple(items))
 

@@ -172,10 +172,9 @@ def landing_course_deg_true(airfield: Airfield, designator: str) -> float:
     """The landing course of a runway end, true (as `briefer.brief` computes it)."""
     from briefer.core import geometry
 
-    frame = geometry.LocalFrame(lat0_deg=airfield.reference_point.lat_deg, lon0_deg=airfield.reference_point.lon_deg)
     land, opp = airfield.runway_by_designator(designator)
-    a = frame.to_local(land.lat_deg, land.lon_deg)
-    b = frame.to_local(opp.lat_deg, opp.lon_deg)
+    a = airfield.layout.thresholds_m[land.designator]
+    b = airfield.layout.thresholds_m[opp.designator]
     return float(geometry.runway_axes(a, b).landing_course_deg_true)
 
 

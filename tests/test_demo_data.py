@@ -43,6 +43,8 @@ from briefer.model import (
     LatLon,
     Obstacle,
     Runway,
+    RunwayPosition,
+    CrossingPoint,
     Sector,
     StraightIn,
     Threshold,
@@ -432,7 +434,8 @@ _TYPES = {"object": dict, "array": list, "string": str, "boolean": bool, "null":
 def schema_errors(value: Any, node: dict[str, Any], root: dict[str, Any], path: str = "$") -> list[str]:
     """A small validator for the subset of draft 2020-12 the two schemas use (jsonschema is not
     a dependency): type, const, enum, minimum/maximum, minLength/maxLength/pattern, required,
-    properties, additionalProperties false, minProperties, items, minItems, oneOf, anyOf, not."""
+    properties, additionalProperties false, minProperties, items, minItems/maxItems, dependentRequired,
+    oneOf, anyOf, allOf, not."""
     node = resolve(root, node)
     errs: list[str] = []
     if "const" in node and value != node["const"]:
@@ -465,12 +468,16 @@ def schema_errors(value: Any, node: dict[str, Any], root: dict[str, Any], path: 
             errs += [f"{path}: unexpected {k}" for k in value if k not in props]
         if len(value) < node.get("minProperties", 0):
             errs.append(f"{path}: too few properties")
+        errs += [f"{path}: {k} needs {need}" for k, needs in node.get("dependentRequired", {}).items()
+                 if k in value for need in needs if need not in value]
         for k, v in value.items():
             if k in props:
                 errs += schema_errors(v, props[k], root, f"{path}.{k}")
     if isinstance(value, list):
         if len(value) < node.get("minItems", 0):
             errs.append(f"{path}: too few items")
+        if len(value) > node.get("maxItems", 10**9):
+            errs.append(f"{path}: too many items")
         if "items" in node:
             for i, v in enumerate(value):
                 errs += schema_errors(v, node["items"], root, f"{path}[{i}]")
@@ -480,6 +487,8 @@ def schema_errors(value: Any, node: dict[str, Any], root: dict[str, Any], path: 
             errs.append(f"{path}: matches {passing} of oneOf")
     if "anyOf" in node and not any(not schema_errors(value, b, root, path) for b in node["anyOf"]):
         errs.append(f"{path}: matches none of anyOf")
+    for b in node.get("allOf", []):
+        errs += schema_errors(value, b, root, path)
     if "not" in node and not schema_errors(value, node["not"], root, path):
         errs.append(f"{path}: matches not")
     return errs
@@ -504,6 +513,7 @@ def test_every_demo_key_is_in_the_schema_and_the_files_validate(kind: str) -> No
 SCHEMA_DEFS = {KIND_PROFILE: {"": AircraftProfile, "WindAdditive": WindAdditive, "FamiliarPattern": FamiliarPattern,
                               "Configuration": Configuration},
                KIND_AIRFIELD: {"": Airfield, "LatLon": LatLon, "Threshold": Threshold, "Runway": Runway,
+                               "RunwayPosition": RunwayPosition, "CrossingPoint": CrossingPoint,
                                "Obstacle": Obstacle, "Fix": Fix, "FinalApproachFix": Fix,
                                "CirclingMinimum": CirclingMinimum, "StraightInMinimum": CirclingMinimum,
                                "StraightIn": StraightIn, "Sector": Sector}}

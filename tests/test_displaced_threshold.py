@@ -59,7 +59,7 @@ def test_the_field_round_trips_and_absent_means_not_displaced() -> None:
     assert rw.threshold_a.displaced_threshold_m is None and rw.threshold_a.displaced_m == 0.0
     assert rw.displaced
     # end to end = threshold to threshold + the displacement
-    assert rw.end_to_end_m == pytest.approx(rw.length_m + 600.0)
+    assert rw.end_to_end_m == pytest.approx(rw.threshold_distance_m + 600.0)
     # a file without the key writes none back (demo files unchanged)
     plain = catalog.find_airfield("V2RL")
     assert "displaced_threshold_m" not in plain.to_mapping()["runways"][0]["threshold_a"]

@@ -149,7 +149,7 @@ def test_runway_by_designator(airfield: Airfield) -> None:
     assert airfield.runway("27/09") is airfield.runways[0]
     # 0.030 deg of longitude at 45 N on the mean sphere: 6371008.8 * radians(0.03) * cos(45) = 2358.7 m
     # along the parallel; the great circle between the ends is shorter by far less than 1e-6
-    assert airfield.runways[0].length_m == pytest.approx(6371008.8 * math.radians(0.03) * math.cos(math.radians(45)),
+    assert airfield.runways[0].threshold_distance_m == pytest.approx(6371008.8 * math.radians(0.03) * math.cos(math.radians(45)),
                                                          rel=1e-6)
     with pytest.raises(DomainError) as info:
         airfield.runway_by_designator("26")

@@ -31,7 +31,7 @@ def circling_only_reasons(s: Situation, category: str, crit: str) -> tuple[tuple
             if best is None or diff < best[0]:
                 best = (diff, thr, a, course)
     _, thr, a, course = best
-    faf = np.array(s.frame.to_local(appr.faf.lat_deg, appr.faf.lon_deg))
+    faf = np.array(s.layout.fixes_m[appr.name][0])
     dist_nm = float(np.hypot(*(faf - a))) * units.M_TO_NM
     gradient = 0.0
     if appr.faf.altitude_ft is not None and dist_nm > 0:

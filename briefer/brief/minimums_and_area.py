@@ -168,8 +168,8 @@ def _obstacles(s: Situation):
     """Every obstacle as drawn (inside the area or not) and the controlling one (the highest inside)."""
     obstacles = []
     controlling = None
-    for ob in s.request.airfield.obstacles:
-        oxy = np.array(s.frame.to_local(ob.lat_deg, ob.lon_deg), dtype=float)
+    for ob, ob_xy in zip(s.request.airfield.obstacles, s.layout.obstacles_m):
+        oxy = np.array(ob_xy, dtype=float)
         inside = bool(s.area.contains(oxy))
         obstacles.append(ObstacleDrawing(name=ob.name, xy_m=frozen_array(oxy), elevation_ft=ob.elevation_ft,
                                          inside_area=inside))

@@ -19,6 +19,7 @@ import numpy as np
 
 from briefer import units
 from briefer.core import atmosphere, criteria, geometry, maneuver, turn, wind
+from briefer.core.layout import Layout
 from briefer.model import BriefRequest
 
 STANDARD_ALTIMETER_HPA = 1013.25
@@ -31,7 +32,7 @@ class Situation:
     """What the plan solver and the envelope share: the composed inputs of one request."""
 
     request: BriefRequest
-    frame: geometry.LocalFrame
+    layout: Layout                    # every threshold, fix and obstacle in the local frame
     runway: geometry.RunwayFrame
     area: geometry.ProtectedArea
     area_rw: geometry.ProtectedArea   # the same area in runway axes: (right_m, along_m) as (east, north)
@@ -89,8 +90,8 @@ def situation(request: BriefRequest) -> Situation:
     crit = request.options.criteria or appr.criteria
     weight_factor = prof.weight_speed_factor(request.landing_weight_lb)
 
-    frame = geometry.LocalFrame(lat0_deg=af.reference_point.lat_deg, lon0_deg=af.reference_point.lon_deg)
-    xy = {t.designator: np.array(frame.to_local(t.lat_deg, t.lon_deg), dtype=float) for t in af.thresholds}
+    layout = af.layout
+    xy = {d: np.array(p, dtype=float) for d, p in layout.thresholds_m.items()}
     land, opp = af.runway_by_designator(request.landing_runway)
     rf = geometry.runway_axes(xy[land.designator], xy[opp.designator])
 
@@ -131,7 +132,7 @@ def situation(request: BriefRequest) -> Situation:
     tas = float(atmosphere.tas_from_cas_kt(circling_ias, pressure_altitude_ft=pa, oat_c=oat_mda))
     bank = request.bank_deg if request.bank_deg is not None else cfg.bank_target_deg
 
-    map_xy = np.array(frame.to_local(appr.map_fix.lat_deg, appr.map_fix.lon_deg), dtype=float)
+    map_xy = np.array(layout.fixes_m[appr.name][1], dtype=float)
     ax, ay = rf.to_runway_coords(map_xy)
     arrival_course = float(units.wrap_360(geometry.true_from_magnetic_deg(appr.final_course_deg_mag, var)
                                           - rf.landing_course_deg_true))
@@ -160,7 +161,7 @@ def situation(request: BriefRequest) -> Situation:
                 aoa_stall=cfg.aoa_stall, weight_ratio=weight_ratio))
         return m
 
-    return Situation(request=request, frame=frame, runway=rf, area=area, area_rw=area_rw, area_radius=radius,
+    return Situation(request=request, layout=layout, runway=rf, area=area, area_rw=area_rw, area_radius=radius,
                      inputs=inputs,
                      visibility_m=float(vis_m), visibility_reported=vis_reported,
                      bank_limit_deg=cfg.bank_limit_deg, aoa_margin_fn=aoa_margin, category=det, mda_ft=mda,

@@ -23,10 +23,12 @@ def variation_findings(af: Any, found: FindingList) -> None:
                   f"No magnetic variation in the airfield file: {af.variation_model.text()} used.")
         return
     rp = getattr(af, "reference_point", None)
-    if rp is None:
-        found.add("info", "variation-model-unavailable",
-                  "No reference point (local frame): the World Magnetic Model cannot check the file's "
-                  f"magnetic variation {magvar.format_variation(af.magnetic_variation_deg)}, used as given.")
+    if rp is None:   # one note says both: where the positions are, and that the variation is unchecked
+        found.add("info", "local-frame",
+                  f"Airfield in a local frame from the chart's numbers (no reference point): positions are "
+                  f"measured from {af.layout.origin}, not tied to the earth; the chart's magnetic variation "
+                  f"{magvar.format_variation(af.magnetic_variation_deg)} is used as given (the World Magnetic "
+                  f"Model needs a position to check it).")
         return
     try:
         mv = magvar.model_variation(rp.lat_deg, rp.lon_deg, magvar.today_utc())

@@ -139,10 +139,9 @@ def plan_scene(airfield: Any, result: Any) -> Any:
     from briefer.render.scene import Bounds, Label, Marker, Polygon, Polyline, Role, Scene
     from briefer.units import NM_TO_M
 
-    frame = geometry.LocalFrame(lat0_deg=airfield.reference_point.lat_deg, lon0_deg=airfield.reference_point.lon_deg)
     from briefer.core import criteria as cr
 
-    xy = {t.designator: np.array(frame.to_local(t.lat_deg, t.lon_deg), dtype=float) for t in airfield.thresholds}
+    xy = {d: np.array(p, dtype=float) for d, p in airfield.layout.thresholds_m.items()}
     on_ends = cr.circling_arc_centre(result.criteria).centre == cr.ARC_CENTRE_RUNWAY_END
     centres = geometry.circling_centres_m(airfield, xy, on_runway_ends=on_ends)
     items: list[Any] = []
@@ -157,7 +156,7 @@ def plan_scene(airfield: Any, result: Any) -> Any:
             outer = boundary
     if result.approach_name:
         appr = airfield.approach(result.approach_name)
-        clip = largest + max(rw.length_m for rw in airfield.runways) / 2.0
+        clip = largest + max(rw.threshold_distance_m for rw in airfield.runways) / 2.0
         for s in appr.not_authorised_sectors:
             poly = geometry.charted_sector(s, airfield, xy).polygon(clip)
             if len(poly) >= 3:
@@ -166,8 +165,7 @@ def plan_scene(airfield: Any, result: Any) -> Any:
     for c in result.categories:
         if c.controlling is not None:
             controlling.setdefault(c.controlling.name, []).append(c.category)
-    for ob in airfield.obstacles:
-        p = tuple(float(v) for v in frame.to_local(ob.lat_deg, ob.lon_deg))
+    for ob, p in zip(airfield.obstacles, airfield.layout.obstacles_m):
         cats = controlling.get(ob.name)
         label = f"{ob.elevation_ft:.0f} {''.join(cats)}" if cats else ""
         items.append(Marker(point=p, role=Role.OBSTACLE, label=label))

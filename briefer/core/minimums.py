@@ -521,12 +521,12 @@ def practice_minimums_for_airfield(airfield: Airfield, *, criteria: str | None =
             crit, basis = first.criteria, f"the criteria of the airfield's first approach ({first.name})"
     else:
         crit, basis = cr.check_criteria(criteria), "chosen"
-    frame = geometry.LocalFrame(lat0_deg=airfield.reference_point.lat_deg, lon0_deg=airfield.reference_point.lon_deg)
-    xy = {t.designator: np.array(frame.to_local(t.lat_deg, t.lon_deg), dtype=float) for t in airfield.thresholds}
+    layout = airfield.layout          # every position in the local frame (briefer.core.layout)
+    xy = {d: np.array(p, dtype=float) for d, p in layout.thresholds_m.items()}
     on_ends = cr.circling_arc_centre(crit).centre == cr.ARC_CENTRE_RUNWAY_END
     centres = geometry.circling_centres_m(airfield, xy, on_runway_ends=on_ends)
-    obstacles = tuple(ObstaclePoint(name=ob.name, xy_m=tuple(float(v) for v in frame.to_local(ob.lat_deg, ob.lon_deg)),
-                                    elevation_ft=ob.elevation_ft) for ob in airfield.obstacles)
+    obstacles = tuple(ObstaclePoint(name=ob.name, xy_m=(float(p[0]), float(p[1])), elevation_ft=ob.elevation_ft)
+                      for ob, p in zip(airfield.obstacles, layout.obstacles_m))
     sectors = tuple(appr.not_authorised_sectors) if appr is not None else ()
     excluded = tuple(geometry.charted_sector(s, airfield, xy) for s in sectors)
     results = []
