@@ -318,10 +318,54 @@ def test_the_skeleton_filled_in_passes_check_and_briefs(tmp_path: Path, capsys: 
     path = tmp_path / "t3sk.yaml"
     path.write_text(fill_skeleton(AIRFIELD_SKELETON))
     assert main(["check", str(path)]) == 0, capsys.readouterr().out
-    assert "OK: airfield T3SK 'Skeleton Field' (1 runway, 1 approach, 1 obstacle)" in capsys.readouterr().out
+    assert capsys.readouterr().out.strip() == (f"{path}: OK: airfield T3SK 'Skeleton Field' (1 runway, 1 approach, "
+                                               "1 obstacle), in a local frame from threshold 04")
     af = load_airfield(path)
     assert af.reference_point is None and af.approaches[0].circling_only
     assert af.layout.fixes_m["VOR-A"][1] == pytest.approx((0.0, 0.0))
     assert main(["brief", "--profile", "demo-trainer", "--airfield", str(path), "--approach", "VOR-A",
                  "--runway", "22"]) == 0
     assert "local frame" in capsys.readouterr().out
+
+
+def test_positions_and_fixes_of_the_example_by_hand() -> None:
+    """The forms' example airfield (variation 4 E): 09/27 on 090 true from the origin, 7000 ft;
+    threshold 04 1500 ft from threshold 27 on 204 true; the MAP 0.5 NM before threshold 27 on the
+    final course 270 true (so 0.5 NM east of it), the FAF 5 NM before that; the NDB 2500 ft from
+    threshold 09 on 124 true."""
+    af = Airfield.from_mapping(filled_example("airfield"))
+    t, fixes = af.layout.thresholds_m, af.layout.fixes_m
+    t27 = (7000 * FT_TO_M, 0.0)
+    assert t["27"] == pytest.approx(t27, abs=1e-6)
+    b = math.radians(204.0)
+    assert t["04"] == pytest.approx((t27[0] + 1500 * FT_TO_M * math.sin(b), 1500 * FT_TO_M * math.cos(b)), abs=1e-6)
+    faf, mapf = fixes["VOR RWY 27"]
+    assert mapf == pytest.approx((t27[0] + 0.5 * NM_TO_M, 0.0), abs=1e-6)
+    assert faf == pytest.approx((t27[0] + 5.5 * NM_TO_M, 0.0), abs=1e-6)
+    b = math.radians(124.0)
+    assert fixes["NDB-A"][1] == pytest.approx((2500 * FT_TO_M * math.sin(b), 2500 * FT_TO_M * math.cos(b)), abs=1e-6)
+
+
+def test_position_may_place_the_far_threshold_and_the_length_is_end_to_end() -> None:
+    """A runway placed by its threshold B; its charted length is end to end, so a displaced
+    threshold A (300 m) sits 300 m inside the runway end: the landing thresholds are
+    length - 300 m apart, and the runway end (core.geometry.runway_end_xy) is where the chart's
+    length puts it."""
+    from briefer.core.geometry import runway_end_xy
+
+    data = filled_example("airfield")
+    rw = data["runways"][2]
+    rw["position"] = {"threshold": "22", "from_point": "27", "distance_ft": 1500, "bearing_deg_mag": 200.0}
+    rw["threshold_a"]["displaced_threshold_m"] = 300
+    af = Airfield.from_mapping(data)
+    t = af.layout.thresholds_m
+    t27 = (7000 * FT_TO_M, 0.0)
+    b = math.radians(204.0)
+    assert t["22"] == pytest.approx((t27[0] + 1500 * FT_TO_M * math.sin(b), 1500 * FT_TO_M * math.cos(b)), abs=1e-6)
+    assert math.dist(t["04"], t["22"]) == pytest.approx(4000 * FT_TO_M - 300.0, abs=1e-6)
+    assert af.runways[2].end_to_end_m == pytest.approx(4000 * FT_TO_M)
+    end = runway_end_xy(t["04"], t["22"], 300.0)
+    assert math.dist(end, t["22"]) == pytest.approx(4000 * FT_TO_M, abs=1e-6)
+    h = math.radians(44.0)     # 040 M + 4 E: from 04 toward 22
+    assert (t["22"][0] - t["04"][0], t["22"][1] - t["04"][1]) == pytest.approx(
+        ((4000 * FT_TO_M - 300) * math.sin(h), (4000 * FT_TO_M - 300) * math.cos(h)), abs=1e-6)

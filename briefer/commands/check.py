@@ -31,7 +31,8 @@ def _summary(model: Any) -> tuple[str, str, str]:
     counts = [(len(model.runways), "runway"), (len(model.approaches), "approach"),
               (len(model.obstacles), "obstacle")]
     parts = ", ".join(f"{n} {w}{('es' if w.endswith('ch') else 's') * (n != 1)}" for n, w in counts)
-    return "airfield", model.ident, f"airfield {model.ident} '{model.name}' ({parts})"
+    frame = "" if model.reference_point is not None else f", in a local frame from {model.layout.origin}"
+    return "airfield", model.ident, f"airfield {model.ident} '{model.name}' ({parts}){frame}"
 
 
 def run(args: argparse.Namespace) -> int:
