@@ -49,6 +49,7 @@ ACTIONS: tuple[tuple[str, str, str], ...] = (
     ("export_card", "Export card", "Write the kneeboard card (PDF or text)"),
     ("toggle_night", "Night theme", "Switch the high-contrast night theme on or off"),
     ("toggle_ascii", "ASCII drawings", "Draw the plan, side view and envelope in plain ASCII (or braille)"),
+    ("warnings", "All warnings", "List every warning of the brief, most severe first"),
     ("instructor", "Instructor", "Open the instructor screen"),
     ("help", "Help and cautions", "Keys, how the steps work, and the full cautions"),
 ) + tuple((f"step('{pid}')", f"Go to: {label[2:]}", f"Show step {label}") for pid, label in STEPS)
@@ -70,8 +71,9 @@ class BriefingApp(App[None]):
         Binding("ctrl+t", "toggle_night", "Night"),
         Binding("ctrl+g", "toggle_ascii", "ASCII", show=False),
         Binding("ctrl+l", "instructor", "Instructor", show=False),
+        Binding("w", "warnings", "All warnings", show=False),
         Binding("f1,question_mark", "help", "Help"),
-        Binding("escape", "leave_field", "Leave field", show=False),
+        Binding("escape", "leave_field", "Leave a field (then digits switch steps)", show=False),
     ]
 
     inputs: reactive[BriefingInputs] = reactive(None, init=False, always_update=False)  # type: ignore[arg-type]
@@ -373,12 +375,30 @@ class BriefingApp(App[None]):
         if self.field_errors:
             name, msg = next(iter(self.field_errors.items()))
             reason = f"{name}: {msg}"
+            shown = self._shown_value(name)
+            if shown is not None:
+                reason += f" (the brief shown has {name} {shown})"
         elif self._model_error is not None:
             field, msg = self._model_error
             reason = f"{field}: {msg}" if field else msg
         self.stale = reason
         if show:
             self.main.show_status(self.brief, reason)
+
+    def _shown_value(self, name: str) -> str | None:
+        """The value of field `name` that the brief on screen was built from, as typed text
+        ("not given" when empty); None when no brief is shown yet."""
+        shown = self.brief_inputs
+        if shown is None:
+            return None
+        w = shown.weather
+        text = {"weight": format_number(shown.weight_lb), "bank": format_number(shown.bank_deg),
+                "report": w.report, "wind": format_wind(w.wind_from_deg, w.wind_speed_kt, w.wind_gust_kt),
+                "oat": format_number(w.oat_c), "altimeter": format_number(w.altimeter_hpa, ".6g"),
+                "visibility": format_number(w.visibility_sm), "ceiling": format_number(w.ceiling_ft)}.get(name)
+        if text is None:
+            return None
+        return text if text else "not given"
 
     # --- the envelope (worker) -------------------------------------------------------------
     def _envelope_visible(self) -> bool:
@@ -414,18 +434,22 @@ class BriefingApp(App[None]):
         self.main.show_envelope(env, brief)
 
     # --- actions ---------------------------------------------------------------------------
-    FIRST_LIST = {"aircraft": "#profile", "airfield": "#airfield-list", "runway": "#runway-list",
-                  "weather": "#report"}
+    FIRST_FOCUS = {"aircraft": "#profile", "airfield": "#airfield-list", "runway": "#runway-list",
+                   "weather": "#weather-form", "brief": "#brief-scroll", "plan": "#plan-right",
+                   "sight": "#sight-scroll", "envelope": "#envelope-side"}
+    """What takes the focus when a step is shown: a list, or the pane's scrolling body (so that
+    PageDown scrolls it); never a text field, so the next digit still switches steps."""
 
     def action_step(self, pane_id: str) -> None:
         """Show a step or view. Focus leaves the old pane first (a focused widget in a hidden
-        pane would pull its pane back); an entry step's first list then takes the focus."""
+        pane would pull its pane back); the step's list or scrolling body then takes the focus.
+        A text field takes it only when clicked or tabbed into."""
         from textual.widgets import Tabs
 
         tabs = self.main.node("#steps", TabbedContent)
         self.main.set_focus(tabs.query_one(Tabs))
         tabs.active = pane_id
-        first = self.FIRST_LIST.get(pane_id)
+        first = self.FIRST_FOCUS.get(pane_id)
         if first is not None:
             self.main.node(first).focus()
 
@@ -460,11 +484,23 @@ class BriefingApp(App[None]):
     def action_help(self) -> None:
         from briefer.tui.help_screen import HelpScreen
 
-        keys = [(b.key_display or b.key, b.description) for b in self.BINDINGS if isinstance(b, Binding)
-                and b.description and b.key != "2"]
+        steps = ", ".join(label for _, label in STEPS)
+        keys = [("1-8", f"Go to a step or view: {steps}")]
+        keys += [(key_name(b.key_display or b.key), b.description) for b in self.BINDINGS
+                 if isinstance(b, Binding) and b.description and not b.key.isdigit()]
         keys += [("ctrl+p", "Command palette (every action)"), ("ctrl+q", "Quit"),
-                 ("tab / shift+tab", "Next / previous field"), ("esc", "Leave a field (then digits jump)")]
+                 ("tab / shift+tab", "Next / previous field or list")]
         self.push_screen(HelpScreen(keys))
+
+    def action_warnings(self) -> None:
+        from briefer.tui.views import findings_short
+        from briefer.tui.warnings_screen import WarningsScreen
+
+        if self.brief is None:
+            self.notify("No brief yet.", severity="warning")
+            return
+        title = "WARNINGS, most severe first" + (" (of the last good brief: STALE)" if self.stale else "")
+        self.push_screen(WarningsScreen(findings_short(self.brief, severities=("danger", "warning", "info")), title))
 
     def action_save(self) -> None:
         from briefer.tui.path_screen import PathScreen
@@ -539,14 +575,37 @@ class BriefingApp(App[None]):
             self.notify("The instructor screen is not in this version yet.", severity="warning")
             return
         try:
-            self.push_screen(InstructorScreen(self.catalog.loaded()))
+            self.push_screen(InstructorScreen(self.catalog.loaded(), airfield=self.inputs.airfield,
+                                              profile=self.inputs.profile))
         except Exception as exc:  # another engineer's screen: keep the app up
             self.notify(f"Instructor screen: {type(exc).__name__}: {exc}", severity="error")
 
+    MAIN_SCREEN_ACTIONS = frozenset({"step", "next_step", "previous_step", "leave_field", "warnings"})
+    """Actions on the main screen's steps: off while another screen is shown (its own keys, e.g.
+    the instructor screen's 1-3, must not switch the hidden steps)."""
+
+    def check_action(self, action: str, parameters: tuple[object, ...]) -> bool | None:
+        if action in self.MAIN_SCREEN_ACTIONS and self.screen is not self.main:
+            return False
+        return True
+
     def get_system_commands(self, screen: Screen) -> Iterable[SystemCommand]:
         yield from super().get_system_commands(screen)
+        own = getattr(screen, "system_commands", None)
+        if own is not None:
+            for title, help_text, action in own():
+                yield SystemCommand(title, help_text, lambda a=action, s=screen: s.run_action(a))
+            return
         for action, title, help_text in ACTIONS:
             yield SystemCommand(title, help_text, lambda a=action: self.run_action(a))
+
+
+_KEY_WORDS = {"question_mark": "?", "escape": "Esc", "f1": "F1", "f2": "F2"}
+
+
+def key_name(keys: str) -> str:
+    """A binding's keys as a crew reads them: 'f1,question_mark' -> 'F1 or ?'."""
+    return " or ".join(_KEY_WORDS.get(k.strip(), k.strip()) for k in keys.split(","))
 
 
 def run_app(catalog: AppCatalog, inputs: BriefingInputs, **kwargs: Any) -> None:

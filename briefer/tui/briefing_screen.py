@@ -121,7 +121,7 @@ class BriefingScreen(Screen):
                     with VerticalScroll(classes="implies"):
                         yield Static("", id="implies-runway")
             with TabPane(STEPS[3][1], id="weather"):
-                with self._lazy(VerticalScroll(classes="weather-form")):
+                with self._lazy(VerticalScroll(classes="weather-form", id="weather-form")):
                     yield FieldRow("report", "METAR/SPECI", _report_parser, placeholder="paste a report here",
                                    input_classes="wide")
                     yield FieldRow("wind", "Wind", lambda t: parse_wind_text(t, self._wind_ref),
@@ -280,14 +280,14 @@ class BriefingScreen(Screen):
 
             self._update("summary", views.summary_text(brief), layout=False)
         if stale is not None:
-            t = Text(no_wrap=True, overflow="ellipsis")
+            t = Text()
             t.append(" STALE ", style="bold reverse")
             t.append(" last good brief shown: " + stale, style="bold")
-            self._update("warnings", t, layout=False)
+            self._update("warnings", t)      # it wraps (up to 3 lines): a new text may change its height
         elif brief is not None:
             from briefer.tui import views
 
-            self._update("warnings", views.warnings_line(brief), layout=False)
+            self._update("warnings", views.warnings_line(brief))
 
     def show_envelope(self, envelope, brief: Brief | None) -> None:
         self.node(EnvelopePolar).show(envelope, brief)

@@ -1,10 +1,11 @@
 """The instructor screen: build a practice scenario, preview both pages, write the file and a deck.
 
-Choose the airfield, the profile, the emphasis (or let the seed draw it) and the seed, then
-Generate (ctrl+g): the screen shows the student page and the answer key as text (the same text
-`briefer scenario new` prints; the answer key is the kneeboard card's text plus the trap, why
-this case and the grading tolerances). Write the scenario file (ctrl+w) or a deck of varied
-scenarios from the same seed (ctrl+d). Esc goes back.
+Three tabs (keys 1, 2, 3, and the command palette): Choose the airfield, the profile (the
+brief's own at first), the emphasis (or let the seed draw it) and the seed, then Generate
+(ctrl+g): the student page and the answer key show as text (the same text `briefer scenario new`
+prints, prose lines wrapped to the screen; the answer key is the kneeboard card's text plus the
+trap, why this case and the grading tolerances). Write the scenario file (ctrl+w) or a deck of
+varied scenarios from the same seed (ctrl+d). Esc goes back.
 
 `InstructorScreen()` needs nothing: without a catalog it loads one (`briefer.tui.state.AppCatalog`,
 i.e. `briefer.io.catalog`). The app pushes it with its own catalog: `InstructorScreen(catalog)`.
@@ -22,7 +23,7 @@ from rich.text import Text
 from textual import on, work
 from textual.app import ComposeResult
 from textual.binding import Binding
-from textual.containers import Horizontal, ScrollableContainer, Vertical, VerticalScroll
+from textual.containers import Horizontal, ScrollableContainer, VerticalScroll
 from textual.screen import Screen
 from textual.widgets import Button, Checkbox, Footer, Input, Label, Select, Static, TabbedContent, TabPane
 
@@ -31,6 +32,23 @@ from briefer.errors import BriefingError
 from briefer.scenarios import EMPHASES, EMPHASIS_TITLES
 
 ANY_EMPHASIS = "any"
+
+
+def fit_lines(text: str, width: int) -> str:
+    """`text` with each prose line longer than `width` wrapped under its own indent (+2); lines
+    that are mostly not letters (drawings, rules, boxes) stay whole."""
+    import textwrap
+
+    out: list[str] = []
+    for line in text.splitlines():
+        body = line.strip()
+        if len(line) <= width or sum(ch.isalpha() for ch in body) < 0.5 * len(body):
+            out.append(line)
+            continue
+        indent = line[:len(line) - len(line.lstrip())]
+        out.extend(textwrap.wrap(body, width, initial_indent=indent, subsequent_indent=indent + "  ",
+                                 break_on_hyphens=False) or [line])
+    return "\n".join(out)
 DEFAULT_DECK_COUNT = 6
 
 
@@ -44,29 +62,42 @@ class InstructorScreen(Screen[None]):
     """
 
     DEFAULT_CSS = """
-    InstructorScreen #instructor-form { width: 32; padding: 0 1; }
-    InstructorScreen #instructor-form Label { margin-top: 1; }
-    InstructorScreen #instructor-form Button { width: 100%; margin-top: 1; }
     InstructorScreen #instructor-status { height: auto; max-height: 3; padding: 0 1; }
     InstructorScreen #instructor-tabs { height: 1fr; }
     InstructorScreen #instructor-tabs TabPane { padding: 0; }
-    InstructorScreen .preview-scroll { overflow-x: auto; overflow-y: auto; }
-    InstructorScreen .preview { width: auto; padding: 0 1; }
-    InstructorScreen #instructor-caution { height: 1; padding: 0 1; text-style: bold; }
+    InstructorScreen #instructor-form { padding: 0 1; scrollbar-gutter: stable; }
+    InstructorScreen .form-row { height: auto; margin-bottom: 1; }
+    InstructorScreen .form-row Label { width: 26; padding-top: 1; }
+    InstructorScreen .form-row Select, InstructorScreen .form-row Input { width: 1fr; max-width: 60; }
+    InstructorScreen .form-row Checkbox { width: auto; }
+    InstructorScreen .form-row Button { width: auto; min-width: 28; margin-right: 2; }
+    InstructorScreen .preview-scroll { overflow-x: auto; overflow-y: auto; scrollbar-gutter: stable;
+                                       scrollbar-size-vertical: 1; }
+    InstructorScreen .preview { width: auto; padding: 0; }
+    InstructorScreen #instructor-caution { height: auto; padding: 0 1; text-style: bold; }
     """
 
     BINDINGS = [
         Binding("ctrl+g", "generate", "Generate"),
         Binding("ctrl+w", "write_scenario", "Write scenario"),
         Binding("ctrl+d", "write_deck", "Write deck"),
+        Binding("1", "show_tab('choose-tab')", "Choose"),
+        Binding("2", "show_tab('student-tab')", "Student"),
+        Binding("3", "show_tab('answer-tab')", "Answer"),
         Binding("escape", "close", "Back"),
     ]
 
+    TABS = (("choose-tab", "Choose"), ("student-tab", "Student page"), ("answer-tab", "Answer key"))
+    """(pane id, title) of the screen's tabs, in order (keys 1, 2, 3)."""
+
     def __init__(self, catalog: Any = None, *, seed: int | None = None, out_dir: str | os.PathLike[str] | None = None,
-                 deck_count: int = DEFAULT_DECK_COUNT) -> None:
+                 deck_count: int = DEFAULT_DECK_COUNT, airfield: str | None = None,
+                 profile: str | None = None) -> None:
         """Args:
             catalog: An `AppCatalog` (profiles and airfields); None loads the default one.
             seed: The seed to start with (None: a fresh one).
+            airfield, profile: The names chosen at first (the brief's own, from the app); None
+                or a name not in the catalog: the first one.
             out_dir: Where files are written by default (None: the current folder).
             deck_count: How many scenarios a deck has by default.
         """
@@ -85,6 +116,8 @@ class InstructorScreen(Screen[None]):
         self.seed = new_seed() if seed is None else int(seed)
         self.out_dir = Path(out_dir) if out_dir is not None else Path.cwd()
         self.deck_count = deck_count
+        self.first_airfield = airfield if airfield in self.airfields else next(iter(self.airfields), None)
+        self.first_profile = profile if profile in self.profiles else next(iter(self.profiles), None)
         self.generated: Any = None
         self.stale: str | None = None
         self.written: Path | None = None
@@ -93,39 +126,83 @@ class InstructorScreen(Screen[None]):
 
     # --- layout -----------------------------------------------------------------------------
     def compose(self) -> ComposeResult:
-        fields = [(f"{n} {i.title}"[:22], n) for n, i in self.airfields.items()]
+        fields = [(f"{n} {i.title}", n) for n, i in self.airfields.items()]
         profs = [(n, n) for n in self.profiles]
         emph = [("any (drawn from the seed)", ANY_EMPHASIS)] + [(EMPHASIS_TITLES[e], e) for e in EMPHASES]
-        with Horizontal():
-            with VerticalScroll(id="instructor-form"):
-                yield Label("Airfield")
-                yield Select(fields, id="airfield", allow_blank=False, value=fields[0][1] if fields else Select.BLANK)
-                yield Label("Aircraft profile")
-                yield Select(profs, id="profile", allow_blank=False, value=profs[0][1] if profs else Select.BLANK)
-                yield Label("Emphasis")
-                yield Select(emph, id="emphasis", allow_blank=False, value=ANY_EMPHASIS)
-                yield Label("Seed")
-                yield Input(str(self.seed), id="seed", type="integer")
-                yield Button("Generate (ctrl+g)", id="generate", variant="primary")
-                yield Label("Scenario file")
-                yield Input("", id="scenario-path", placeholder="scenario.yaml")
-                yield Button("Write scenario (ctrl+w)", id="write-scenario")
-                yield Label("Deck: how many scenarios, and the PDF")
-                yield Input(str(self.deck_count), id="deck-count", type="integer")
-                yield Input(str(self.out_dir / f"deck-{self.seed}.pdf"), id="deck-path")
-                yield Checkbox("Overwrite existing files", id="overwrite")
-                yield Button("Write deck (ctrl+d)", id="write-deck")
-            with Vertical():
-                yield Static("Choose, then Generate.", id="instructor-status")
-                with TabbedContent(id="instructor-tabs"):
-                    with TabPane("Student page", id="student-tab"):
-                        with ScrollableContainer(classes="preview-scroll"):
-                            yield Static("", id="student", classes="preview")
-                    with TabPane("Answer key", id="answer-tab"):
-                        with ScrollableContainer(classes="preview-scroll"):
-                            yield Static("", id="answer", classes="preview")
-                yield Static(SHORT_CAUTION, id="instructor-caution")
+
+        def row(label: str, *widgets: Any) -> Horizontal:
+            return Horizontal(Label(label), *widgets, classes="form-row")
+
+        yield Static("Choose, then Generate (ctrl+g).", id="instructor-status")
+        with TabbedContent(id="instructor-tabs", initial="choose-tab"):
+            with TabPane("1 Choose", id="choose-tab"):
+                with VerticalScroll(id="instructor-form"):
+                    yield row("Airfield", Select(fields, id="airfield", allow_blank=False,
+                                                 value=self.first_airfield or Select.BLANK))
+                    yield row("Aircraft profile", Select(profs, id="profile", allow_blank=False,
+                                                         value=self.first_profile or Select.BLANK))
+                    yield row("Emphasis", Select(emph, id="emphasis", allow_blank=False, value=ANY_EMPHASIS))
+                    yield row("Seed", Input(str(self.seed), id="seed", type="integer"))
+                    yield row("", Button("Generate (ctrl+g)", id="generate", variant="primary"))
+                    yield row("Scenario file", Input("", id="scenario-path", placeholder="scenario.yaml"))
+                    yield row("", Button("Write scenario (ctrl+w)", id="write-scenario"))
+                    yield row("Deck: how many scenarios", Input(str(self.deck_count), id="deck-count", type="integer"))
+                    yield row("Deck PDF", Input(str(self.out_dir / f"deck-{self.seed}.pdf"), id="deck-path"))
+                    yield row("", Checkbox("Overwrite existing files", id="overwrite"))
+                    yield row("", Button("Write deck (ctrl+d)", id="write-deck"))
+            with TabPane("2 Student page", id="student-tab"):
+                with ScrollableContainer(classes="preview-scroll", id="student-scroll"):
+                    yield Static("Generate a scenario first (1 Choose, then ctrl+g).", id="student", classes="preview")
+            with TabPane("3 Answer key", id="answer-tab"):
+                with ScrollableContainer(classes="preview-scroll", id="answer-scroll"):
+                    yield Static("Generate a scenario first (1 Choose, then ctrl+g).", id="answer", classes="preview")
+        yield Static(SHORT_CAUTION, id="instructor-caution")
         yield Footer()
+
+    pages: tuple[str, str] | None = None
+    _shown_width = 0
+
+    def _preview_width(self) -> int:
+        """Columns a preview line can take (the screen's width less the scrollbar)."""
+        return max(40, self.size.width - 1)
+
+    def _show_pages(self) -> None:
+        """The pages as printed (78-80 columns), prose lines longer than the screen wrapped (the
+        drawings never: scroll sideways for them)."""
+        if self.pages is None:
+            return
+        width = self._shown_width = self._preview_width()
+        for sel, page in (("#student", self.pages[0]), ("#answer", self.pages[1])):
+            self.query_one(sel, Static).update(Text(fit_lines(page, width), no_wrap=True, overflow="ignore"))
+
+    def on_resize(self) -> None:
+        if self.pages is not None and self._preview_width() != self._shown_width:
+            self._show_pages()
+
+    def action_show_tab(self, pane_id: str) -> None:
+        """Show a tab: the form, the student page or the answer key (keys 1, 2, 3)."""
+        tabs = self.query_one("#instructor-tabs", TabbedContent)
+        tabs.active = pane_id
+        target = {"choose-tab": "#airfield", "student-tab": "#student-scroll",
+                  "answer-tab": "#answer-scroll"}[pane_id]
+        self.query_one(target).focus()
+
+    @on(TabbedContent.TabActivated, "#instructor-tabs")
+    def _tab_shown(self, event: TabbedContent.TabActivated) -> None:
+        # a preview updated while its tab was hidden is laid out again now that it has a size
+        for scroll in event.pane.query(".preview-scroll"):
+            scroll.refresh(layout=True)
+            for child in scroll.children:
+                child.refresh(layout=True)
+
+    def system_commands(self) -> list[tuple[str, str, str]]:
+        """(title, help, action) entries for the app's command palette while this screen shows."""
+        return [("Instructor: choose", "Show the scenario choices", "show_tab('choose-tab')"),
+                ("Instructor: student page", "Show the student page", "show_tab('student-tab')"),
+                ("Instructor: answer key", "Show the answer key", "show_tab('answer-tab')"),
+                ("Instructor: generate", "Generate a scenario from the choices", "generate"),
+                ("Instructor: write scenario", "Write the scenario file", "write_scenario"),
+                ("Instructor: write deck", "Write a deck of scenarios", "write_deck")]
 
     # --- reading the form -------------------------------------------------------------------
     def _value(self, selector: str) -> str:
@@ -221,8 +298,10 @@ class InstructorScreen(Screen[None]):
             return
         self.generated, self.stale = gen, None
         # 78-80 columns as printed (the answer's plan view must not wrap): scroll sideways if narrower
-        self.query_one("#student", Static).update(Text(pages[0], no_wrap=True, overflow="ignore"))
-        self.query_one("#answer", Static).update(Text(pages[1], no_wrap=True, overflow="ignore"))
+        self.pages = pages
+        self._show_pages()
+        if self.query_one("#instructor-tabs", TabbedContent).active == "choose-tab":
+            self.action_show_tab("student-tab")
         s = gen.scenario
         name = f"scenario-{gen.brief.header.airfield_ident.lower()}-{s.emphasis}-{s.seed}.yaml"
         self.query_one("#scenario-path", Input).value = str(self.out_dir / name)

@@ -3,6 +3,7 @@ the field and the dialog stays open."""
 
 from __future__ import annotations
 
+import os
 from collections.abc import Callable
 
 from rich.text import Text
@@ -12,6 +13,14 @@ from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
 from textual.screen import ModalScreen
 from textual.widgets import Button, Checkbox, Input, Label, Static
+
+REPLACE_LABEL = "replace an existing file"
+
+
+def _exists(path: str) -> bool:
+    target = os.path.expanduser(path)
+    return os.path.lexists(target) and not os.path.isdir(target)
+
 
 PathAction = Callable[[str, bool], "str | None"]
 """(path, overwrite) -> None on success, else the error to show."""
@@ -40,7 +49,7 @@ class PathScreen(ModalScreen["str | None"]):
             yield Static("", id="path-error", markup=False)
             with Horizontal(id="path-buttons"):
                 if self.can_overwrite:
-                    yield Checkbox("replace an existing file", id="path-overwrite")
+                    yield Checkbox(REPLACE_LABEL, id="path-overwrite")
                 yield Button(self.verb, id="path-ok", variant="primary")
                 yield Button("Cancel", id="path-cancel")
 
@@ -55,6 +64,9 @@ class PathScreen(ModalScreen["str | None"]):
             self._error("give a file name")
             return
         overwrite = self.can_overwrite and self.query_one("#path-overwrite", Checkbox).value
+        if self.can_overwrite and not overwrite and _exists(path):
+            self._error(f"{path} already exists: tick '{REPLACE_LABEL}' to write over it, or give another name")
+            return
         try:
             error = self.action_fn(path, overwrite)
         except Exception as exc:  # never crash the app on a file problem; show it here

@@ -45,21 +45,22 @@ def summary_text(brief: Brief) -> Text:
 
 
 def warnings_line(brief: Brief) -> Text:
-    """One line: how many warnings, and the most severe one's text."""
+    """How many warnings, and the most severe one's text whole (it wraps; `w` lists them all)."""
     ws = brief.warnings
     n = {s: sum(1 for f in ws if f.severity == s) for s in ("danger", "warning", "info")}
-    t = Text(no_wrap=True, overflow="ellipsis")
+    t = Text()
     if n["danger"] or n["warning"]:
         top = ws[0]
         label = (f"!! {n['danger']} DANGER" if n["danger"] else "") + (
             (" " if n["danger"] else "") + f"! {n['warning']} WARNING{'S' if n['warning'] != 1 else ''}"
             if n["warning"] else "")
         t.append(label, style="bold reverse" if n["danger"] else "bold")
+        t.append(" (w lists all)" if len(ws) > 1 else "")
         t.append(" " + top.text, style=STYLE[top.severity])
     else:
         t.append("No warnings.", style="bold")
         if n["info"]:
-            t.append(f" i {n['info']} note{'s' if n['info'] != 1 else ''} (see Brief)")
+            t.append(f" i {n['info']} note{'s' if n['info'] != 1 else ''} (w lists them)")
     return t
 
 
