@@ -226,9 +226,11 @@ class MissedApproachInfo:
 @dataclass(frozen=True, slots=True, kw_only=True)
 class RunwayDrawing:
     designator: str
-    a_xy_m: np.ndarray
+    a_xy_m: np.ndarray                # threshold A (the landing threshold, displaced or not)
     b_xy_m: np.ndarray
     landing: bool
+    a_end_xy_m: np.ndarray | None = None   # runway end behind a displaced threshold A; None if not displaced
+    b_end_xy_m: np.ndarray | None = None
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

@@ -153,3 +153,21 @@ def test_practice_minimums_use_the_same_rule() -> None:
     af = displaced_airfield("27", 600.0)
     res = practice_minimums_for_airfield(af, categories=("C",), criteria="terps-legacy")
     assert any("runway ends" in n for n in res.notes)
+
+
+def test_the_runway_end_behind_a_displaced_threshold_is_drawn() -> None:
+    from briefer.render.brief_json import brief_to_dict
+    from briefer.render.brief_scene import scene_from_brief
+    from briefer.render.scene import Polyline, Role
+
+    b = build_brief(request(displaced_airfield("27", 600.0)), computed_utc=UTC)
+    (rw,) = b.runways
+    assert rw.a_end_xy_m is None
+    # the end: 600 m behind threshold 27, away from 09
+    assert np.hypot(*(rw.b_end_xy_m - rw.a_xy_m)) == pytest.approx(np.hypot(*(rw.b_xy_m - rw.a_xy_m)) + 600.0)
+    d = brief_to_dict(b)["runways"][0]
+    assert "a_end" not in d and d["b_end"] == pytest.approx(list(rw.b_end_xy_m))
+    dashed = [i for i in scene_from_brief(b).items if isinstance(i, Polyline) and i.role == Role.RUNWAY and i.dashed]
+    assert len(dashed) == 1
+    plain = build_brief(request(catalog.find_airfield("V2RL")), computed_utc=UTC)
+    assert "b_end" not in brief_to_dict(plain)["runways"][0]

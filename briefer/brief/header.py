@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from briefer.brief.situation_inputs import Situation
+from briefer.core import geometry
 from briefer.result import BriefHeader, RunwayDrawing, frozen_array
 
 
@@ -19,10 +20,14 @@ def brief_header(s: Situation) -> BriefHeader:
 
 
 def runway_drawings(s: Situation) -> tuple[RunwayDrawing, ...]:
-    """Every runway's two thresholds in the local frame; the landing one marked."""
+    """Every runway's two thresholds in the local frame, the landing one marked; the runway end
+    behind a displaced threshold too."""
     runways = []
     for rw in s.request.airfield.runways:
         a, b = s.thresholds_xy[rw.threshold_a.designator], s.thresholds_xy[rw.threshold_b.designator]
+        ends = [frozen_array(geometry.runway_end_xy(p, q, th.displaced_m)) if th.displaced_m > 0 else None
+                for p, q, th in ((a, b, rw.threshold_a), (b, a, rw.threshold_b))]
         runways.append(RunwayDrawing(designator=rw.designator, a_xy_m=frozen_array(a), b_xy_m=frozen_array(b),
-                                     landing=rw.matches(s.request.landing_runway)))
+                                     landing=rw.matches(s.request.landing_runway),
+                                     a_end_xy_m=ends[0], b_end_xy_m=ends[1]))
     return tuple(runways)

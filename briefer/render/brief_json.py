@@ -20,6 +20,16 @@ def _xy(arr: np.ndarray) -> list[list[float]]:
     return [[float(x), float(y)] for x, y in np.asarray(arr, dtype=float).reshape(-1, 2)]
 
 
+def _runway(r: Any) -> dict[str, Any]:
+    """A runway as drawn; the runway end behind a displaced threshold only when there is one."""
+    out: dict[str, Any] = {"designator": r.designator, "a": _xy(r.a_xy_m)[0], "b": _xy(r.b_xy_m)[0],
+                           "landing": r.landing}
+    for key, end in (("a_end", r.a_end_xy_m), ("b_end", r.b_end_xy_m)):
+        if end is not None:
+            out[key] = _xy(end)[0]
+    return out
+
+
 def brief_to_dict(brief: Brief) -> dict[str, Any]:
     """The JSON-ready mapping of a Brief."""
     h, c, m, a, p, w, pl, sp, ma = (brief.header, brief.category, brief.minimums, brief.area,
@@ -135,8 +145,7 @@ def brief_to_dict(brief: Brief) -> dict[str, Any]:
         "missed_approach": {"turn_direction": ma.turn_direction,
                             "by_leg": [{"leg": leg, "turn": d} for leg, d in ma.by_leg],
                             "instruction": ma.instruction},
-        "runways": [{"designator": r.designator, "a": _xy(r.a_xy_m)[0], "b": _xy(r.b_xy_m)[0],
-                     "landing": r.landing} for r in brief.runways],
+        "runways": [_runway(r) for r in brief.runways],
         "obstacles": [{"name": o.name, "xy_m": _xy(o.xy_m)[0], "elevation_ft": o.elevation_ft,
                        "inside_area": o.inside_area} for o in brief.obstacles],
         "warnings": [{"severity": f.severity, "code": f.code, "text": f.text} for f in brief.warnings],

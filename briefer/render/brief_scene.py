@@ -51,6 +51,9 @@ def scene_from_brief(brief: Brief, *, familiar: bool = True, labels: bool = True
     for rw in brief.runways:
         a_xy, b_xy = _pts(rw.a_xy_m)[0], _pts(rw.b_xy_m)[0]
         items.append(Polyline(points=(a_xy, b_xy), role=Role.RUNWAY))
+        for end, thr in ((rw.a_end_xy_m, a_xy), (rw.b_end_xy_m, b_xy)):
+            if end is not None:     # the pavement behind a displaced threshold: not for landing
+                items.append(Polyline(points=(_pts(end)[0], thr), role=Role.RUNWAY, dashed=True))
         if labels:
             des_a, des_b = rw.designator.split("/")
             # a designator is painted at its own threshold, read on the approach to it
