@@ -183,6 +183,7 @@ class _Builder:
         self.headings: dict[str, float] = {}
         self.lengths: dict[str, float] = {}      # designator -> length of its runway [m]
         self.runway_of: dict[str, str] = {}      # designator -> '09/27'
+        self.convergence: dict[Point, float] = {}  # point -> meridian convergence there [deg]
 
     # -- helpers --------------------------------------------------------------------------------
     def geodetic(self, lat_deg: float, lon_deg: float, where: str) -> Point:
@@ -221,9 +222,11 @@ class _Builder:
         everywhere (nothing is on the earth). [deg]"""
         if self.frame is None or at_m == (0.0, 0.0):
             return true_deg
-        _, lon = self.frame.to_geodetic(at_m[0], at_m[1])
-        gamma = ((float(lon) - self.frame.lon0_deg + 180.0) % 360.0 - 180.0) * math.sin(
-            math.radians(self.frame.lat0_deg))
+        gamma = self.convergence.get(at_m)
+        if gamma is None:
+            _, lon = self.frame.to_geodetic(at_m[0], at_m[1])
+            gamma = self.convergence[at_m] = ((float(lon) - self.frame.lon0_deg + 180.0) % 360.0 - 180.0) * (
+                math.sin(math.radians(self.frame.lat0_deg)))
         return (true_deg - gamma) % 360.0
 
     # -- runways --------------------------------------------------------------------------------
