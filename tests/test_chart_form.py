@@ -47,6 +47,8 @@ def test_point_at_and_before_on_course_by_hand() -> None:
     assert lay.before_on_course((10.0, 20.0), 2 * NM_TO_M, 180.0) == pytest.approx((10.0, 20.0 + 2 * NM_TO_M))
     # far threshold of a 3000 m runway on 045: 3000 / sqrt(2) each way
     assert lay.far_threshold((0.0, 0.0), 3000.0, 45.0) == pytest.approx((3000 / math.sqrt(2),) * 2)
+    # centrelines crossing 1000 m along 090 from K at the origin and 500 m along 360 from N: N = (1000, -500)
+    assert lay.crossing_threshold((0.0, 0.0), 90.0, 1000.0, 0.0, 500.0) == pytest.approx((1000.0, -500.0))
 
 
 def test_crossing_runways_by_hand(in_chart_files: Path) -> None:
