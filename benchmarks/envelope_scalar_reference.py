@@ -18,7 +18,8 @@ from typing import Callable
 from briefer.units import FT_TO_M, G0_MPS2, KT_TO_MPS
 
 FITS, MARGINAL, DOES_NOT_FIT = 2, 1, 0
-REASON_BANK, REASON_AREA, REASON_VISIBILITY, REASON_WIND = 1, 2, 4, 8
+REASON_BANK, REASON_AREA, REASON_VISIBILITY, REASON_WIND, REASON_SECTOR, REASON_STALL = 1, 2, 4, 8, 16, 32
+ROLL_OUT_STEPS = (0.66, 0.33, 0.0)     # of the way from the stabilised distance to the descent point
 TWO_PI = 2.0 * math.pi
 N_RAMP = 3
 
@@ -275,72 +276,106 @@ def bank_levels(bank: float, limit: float, step: float) -> list[float]:
     return [x for x in levels if x <= 60.0]
 
 
-def envelope_scalar(inputs, *, margin_track_fn: Callable[[list[tuple[float, float]]], float], visibility_m: float,
-                    bank_limit_deg: float, area_radius_m: float, wind_from_relative_deg: list[float],
-                    wind_speed_kt: list[float], bank_step_deg: float = 5.0, turn_step_deg: float = 7.5,
-                    n_straight: int = 5) -> dict:
+def checks(area: float, sector: bool, dist: float, bank: float, aoa: float | None, *, limit: float,
+           vis: float, radius: float) -> tuple[int, int]:
+    """(failure bits, marginal bits) of one flyable plan."""
+    a_bit = REASON_SECTOR if sector else REASON_AREA
+    fail = marg = 0
+    if bank > limit:
+        fail |= REASON_BANK
+    elif bank > limit - 5.0:
+        marg |= REASON_BANK
+    if area < 0.0:
+        fail |= a_bit
+    elif area < 0.10 * radius:
+        marg |= a_bit
+    if vis - dist < 0.0:
+        fail |= REASON_VISIBILITY
+    elif dist > 0.90 * vis:
+        marg |= REASON_VISIBILITY
+    if aoa is not None:
+        if aoa < 0.0:
+            fail |= REASON_STALL
+        elif aoa < 3.0:
+            marg |= REASON_STALL
+    return fail, marg
+
+
+def envelope_scalar(inputs, *, margin_track_fn: Callable[[list[tuple[float, float]]], "float | tuple[float, bool]"],
+                    visibility_m: float, bank_limit_deg: float, area_radius_m: float,
+                    wind_from_relative_deg: list[float], wind_speed_kt: list[float], bank_step_deg: float = 5.0,
+                    turn_step_deg: float = 7.5, n_straight: int = 5,
+                    aoa_margin_fn: Callable[[float], float] | None = None, roll_out_steps: bool = True) -> dict:
     """The envelope cell by cell. Returns lists of lists: status, reasons, bank_needed (None
-    where nothing fits), best (candidate index or -1), area, dist (None where none can be flown)."""
+    where nothing fits), best (candidate index or -1), area, dist (None where none can be
+    flown), roll_out (None where nothing fits).
+
+    Levels: the default roll-out at each bank level, then (if nothing fits) each closer
+    roll-out at each bank level; the first level whose best candidate has no failure, else the
+    default roll-out's last bank level. ``margin_track_fn`` answers a margin, or (margin,
+    whether a not-authorised sector sets it)."""
     tg = math.tan(math.radians(inputs.glide_path_deg))
     d_glide = (inputs.circling_height_ft - inputs.tch_ft) * FT_TO_M / tg
     d_stab = (inputs.stabilised_height_ft - inputs.tch_ft) * FT_TO_M / tg
     d = d_glide if inputs.roll_out_distance_m is None else inputs.roll_out_distance_m
     d = max(d, d_stab)
+    roll_outs = [d] + ([max(d_stab + f * (d - d_stab), d_stab) for f in ROLL_OUT_STEPS] if roll_out_steps else [])
     cands = candidates(inputs.arrival_course_deg)
-    levels = bank_levels(inputs.bank_deg, bank_limit_deg, bank_step_deg)
+    banks = bank_levels(inputs.bank_deg, bank_limit_deg, bank_step_deg)
     length = inputs.runway_length_m
     k = None if inputs.roll_rate_deg_per_s is None else math.radians(inputs.roll_rate_deg_per_s)
-    res: dict = {key: [] for key in ("status", "reasons", "bank_needed", "best", "area", "dist")}
+    res: dict = {key: [] for key in ("status", "reasons", "bank_needed", "best", "area", "dist", "roll_out")}
     for wdir in wind_from_relative_deg:
         rows: dict = {key: [] for key in res}
         for spd in wind_speed_kt:
             wx = -spd * math.cos(math.radians(wdir)) * KT_TO_MPS
             wy = -spd * math.sin(math.radians(wdir)) * KT_TO_MPS
-            cell = (DOES_NOT_FIT, REASON_WIND, None, -1, None, None)
-            for li, bank in enumerate(levels):
-                ctx = {"v": inputs.tas_kt * KT_TO_MPS, "wx": wx, "wy": wy, "bank": math.radians(bank), "k": k,
-                       "x0": inputs.arrival_x_m, "y0": inputs.arrival_y_m,
-                       "c0": math.radians(inputs.arrival_course_deg), "d": d, "d_stab": d_stab,
-                       "beta": math.radians(inputs.break_angle_deg), "theta": math.radians(inputs.teardrop_angle_deg),
-                       "turn_x": inputs.circuit_turn_past_threshold_m}
-                best = None
-                for ci, (shape, side) in enumerate(cands):
-                    sol = solve(shape, 1.0 if side == "right" else -1.0, ctx)
-                    if not sol["ok"]:
-                        key = (100, 0.0, 0.0)
-                        area = dist = None
-                    else:
-                        pts = sample(sol["legs"], ctx, turn_step_deg, n_straight)
-                        area = margin_track_fn(pts)
-                        dist = 0.0
-                        for px, py in pts:
-                            dist = max(dist, math.hypot(px - min(max(px, 0.0), length), py))
-                        fails = (area < 0.0) + (dist > visibility_m) + (bank > bank_limit_deg)
-                        total = sum(leg["t"] for leg in sol["legs"])
-                        key = (fails, -round(min(area, visibility_m - dist)), round(min(total, 9999.0), 1))
-                    if best is None or key < best[0]:
-                        best = (key, ci, area, dist)
-                if best is None:
+            cell = (DOES_NOT_FIT, REASON_WIND, None, -1, None, None, None)
+            done = False
+            for ri, d_r in enumerate(roll_outs):
+                for bi, bank in enumerate(banks):
+                    ctx = {"v": inputs.tas_kt * KT_TO_MPS, "wx": wx, "wy": wy, "bank": math.radians(bank), "k": k,
+                           "x0": inputs.arrival_x_m, "y0": inputs.arrival_y_m,
+                           "c0": math.radians(inputs.arrival_course_deg), "d": d_r, "d_stab": d_stab,
+                           "beta": math.radians(inputs.break_angle_deg),
+                           "theta": math.radians(inputs.teardrop_angle_deg), "turn_x": inputs.circuit_turn_past_threshold_m}
+                    aoa = None if aoa_margin_fn is None else aoa_margin_fn(bank)
+                    best = None
+                    for ci, (shape, side) in enumerate(cands):
+                        sol = solve(shape, 1.0 if side == "right" else -1.0, ctx)
+                        if not sol["ok"]:
+                            key = (10**6, 0.0, 0.0)
+                            area = dist = None
+                            fail = marg = 0
+                        else:
+                            pts = sample(sol["legs"], ctx, turn_step_deg, n_straight)
+                            got = margin_track_fn(pts)
+                            area, sector = got if isinstance(got, tuple) else (got, False)
+                            dist = 0.0
+                            for px, py in pts:
+                                dist = max(dist, math.hypot(px - min(max(px, 0.0), length), py))
+                            fail, marg = checks(area, sector, dist, bank, aoa, limit=bank_limit_deg, vis=visibility_m,
+                                                radius=area_radius_m)
+                            total = sum(leg["t"] for leg in sol["legs"])
+                            key = (bin(fail).count("1"), -round(min(area, visibility_m - dist)), round(total, 1))
+                        if best is None or key < best[0]:
+                            best = (key, ci, area, dist, fail, marg)
+                    if best is None:
+                        done = True
+                        break
+                    key, ci, area, dist, fail, marg = best
+                    if key[0] == 0:
+                        cell = (FITS if marg == 0 else MARGINAL, marg, bank, ci, area, dist, d_r)
+                        done = True
+                        break
+                    if ri == 0 and bi == len(banks) - 1:
+                        if key[0] >= 10**6:
+                            cell = (DOES_NOT_FIT, REASON_WIND, None, -1, None, None, None)
+                        else:
+                            cell = (DOES_NOT_FIT, REASON_BANK | fail, None, ci, area, dist, None)
+                if done:
                     break
-                key, ci, area, dist = best
-                if key[0] == 0:
-                    flags = 0
-                    if bank > inputs.bank_deg or bank > bank_limit_deg - 5.0:
-                        flags |= REASON_BANK
-                    if area < 0.10 * area_radius_m:
-                        flags |= REASON_AREA
-                    if dist > 0.90 * visibility_m:
-                        flags |= REASON_VISIBILITY
-                    cell = (FITS if flags == 0 else MARGINAL, flags, bank, ci, area, dist)
-                    break
-                if li == len(levels) - 1:
-                    if key[0] >= 100:
-                        cell = (DOES_NOT_FIT, REASON_WIND, None, -1, None, None)
-                    else:
-                        flags = REASON_BANK | (REASON_AREA if area < 0.0 else 0) | (
-                            REASON_VISIBILITY if dist > visibility_m else 0)
-                        cell = (DOES_NOT_FIT, flags, None, ci, area, dist)
-            for key, val in zip(("status", "reasons", "bank_needed", "best", "area", "dist"), cell):
+            for key, val in zip(("status", "reasons", "bank_needed", "best", "area", "dist", "roll_out"), cell):
                 rows[key].append(val)
         for key in res:
             res[key].append(rows[key])

@@ -66,8 +66,8 @@ def test_json_axes_and_grid(demo_json):
     assert np.asarray(d["status"]).shape == (12, 5) == np.asarray(d["reasons"]).shape
     assert set(np.unique(d["status"])) <= {0, 1, 2}
     assert d["status_names"] == {"0": "does not fit", "1": "marginal", "2": "fits"}
-    assert d["reason_bits"] == {"bank": REASON_BANK, "area": REASON_AREA, "visibility": REASON_VISIBILITY,
-                                "wind": REASON_WIND}
+    assert d["reason_bits"] == {"bank": REASON_BANK, "area": REASON_AREA, "sector": 16,
+                                "visibility": REASON_VISIBILITY, "stall": 32, "wind": REASON_WIND, "limit": 64}
     assert d["cautions"] == list(CAUTIONS)
 
 

@@ -169,11 +169,14 @@ def test_bank_escalation_and_limit():
     inp = reciprocal(bank_deg=20.0, roll_out_distance_m=1500.0)
     env = wind_envelope(inp, margin_fn=stadium(2400.0), visibility_m=9000.0, bank_limit_deg=35.0, area_radius_m=2400.0,
                         wind_from_relative_deg=[0.0], wind_speed_kt=[0.0])
+    # the brief's judgement: a bank above the target is not marginal by itself (the brief warns of it
+    # apart); 30 deg is not within 5 deg of the 35 deg limit, so only the area margin makes it marginal
     assert env.status[0, 0] == MARGINAL and env.bank_needed_deg[0, 0] == 30.0
-    assert env.reasons[0, 0] & REASON_BANK
+    assert env.reasons[0, 0] == REASON_AREA
     choice = choose_plan(inp, margin_fn=stadium(2400.0), visibility_m=9000.0, bank_limit_deg=35.0,
                          area_radius_m=2400.0)
     assert choice.bank_needed_deg == env.bank_needed_deg[0, 0]
+    assert choice.ranked[0].verdict == "marginal" and len(choice.ranked[0].marginal) == 1
     # a target above the limit never fits, for the bank
     env = wind_envelope(reciprocal(bank_deg=32.0), margin_fn=stadium(9000.0), visibility_m=9000.0, bank_limit_deg=30.0,
                         area_radius_m=9000.0, wind_from_relative_deg=[0.0, 90.0], wind_speed_kt=[0.0, 10.0])
@@ -182,10 +185,17 @@ def test_bank_escalation_and_limit():
 
 
 def test_visibility_reason():
-    env = wind_envelope(reciprocal(), margin_fn=stadium(9000.0), visibility_m=3000.0, bank_limit_deg=30.0,
-                        area_radius_m=9000.0, wind_from_relative_deg=[0.0], wind_speed_kt=[0.0])
+    kw = dict(margin_fn=stadium(9000.0), bank_limit_deg=30.0, area_radius_m=9000.0, wind_from_relative_deg=[0.0],
+              wind_speed_kt=[0.0])
+    env = wind_envelope(reciprocal(), visibility_m=2000.0, **kw)
     assert env.status[0, 0] == DOES_NOT_FIT and env.reasons[0, 0] & REASON_VISIBILITY
     assert "runway beyond the visibility" in env.reason_texts(0, 0)
+    # at 3000 m the descent-point roll-out takes the runway out of sight, a closer one (as the brief
+    # tries) keeps it within the visibility, beyond 90 % of it: marginal, for the visibility
+    assert wind_envelope(reciprocal(), visibility_m=3000.0, roll_out_steps=False, **kw).status[0, 0] == DOES_NOT_FIT
+    env = wind_envelope(reciprocal(), visibility_m=3000.0, **kw)
+    assert env.status[0, 0] == MARGINAL and env.reasons[0, 0] & REASON_VISIBILITY
+    assert env.roll_out_m[0, 0] < 2500.0
 
 
 @pytest.mark.parametrize("make", [reciprocal, aligned])

@@ -10,7 +10,8 @@ ORDER = 2
 HELP = "wind envelope: which winds the circling plans fit (table and polar picture)"
 DESCRIPTION = (HELP + ". Solves the plans of the situation (same options as 'brief') for every wind "
                "direction and speed of a grid and shows, per cell, whether the best plan fits, is "
-               "marginal or does not fit, and why (B bank, A area, V visibility, W wind). The "
+               "marginal or does not fit, and why (B bank, A area, S not-authorised sector, V visibility, "
+               "K stall, W wind, L crosswind or tailwind limit). The "
                "reported wind is marked on the picture. --json gives the status grid with its "
                "direction and speed axes.")
 
@@ -83,8 +84,9 @@ def envelope_to_dict(envelope: Any, *, runway_course_deg_true: float) -> dict[st
         "status": np.asarray(envelope.status).tolist(),
         "status_names": {str(k): v for k, v in sorted(me.STATUS_TEXT.items())},
         "reasons": np.asarray(envelope.reasons).tolist(),
-        "reason_bits": {"bank": me.REASON_BANK, "area": me.REASON_AREA,
-                        "visibility": me.REASON_VISIBILITY, "wind": me.REASON_WIND},
+        "reason_bits": {"bank": me.REASON_BANK, "area": me.REASON_AREA, "sector": me.REASON_SECTOR,
+                        "visibility": me.REASON_VISIBILITY, "stall": me.REASON_STALL, "wind": me.REASON_WIND,
+                        "limit": me.REASON_LIMIT},
         "bank_needed_deg": np.asarray(envelope.bank_needed_deg),
         "candidates": [{"shape": shape, "side": side} for shape, side in envelope.candidates],
         "best_candidate": np.asarray(envelope.best_candidate).tolist(),

@@ -8,6 +8,7 @@ This module gathers the public API of the ``maneuver_*`` modules:
 * :mod:`briefer.core.maneuver_plans` -- ``Plan``, one solved plan, the candidates;
 * :mod:`briefer.core.maneuver_ranking` -- ranking, verdict thresholds, the bank needed;
 * :mod:`briefer.core.maneuver_missed` -- the missed-approach turn direction along a plan;
+* :mod:`briefer.core.maneuver_judgement` -- one judgement: every candidate x level in one batch;
 * :mod:`briefer.core.maneuver_envelope` -- the wind envelope over a grid (vectorised).
 
 Runway frame: x metres along the landing direction from the landing threshold (final approach
@@ -23,10 +24,24 @@ from briefer.core.maneuver_envelope import (
     MARGINAL,
     REASON_AREA,
     REASON_BANK,
+    REASON_LIMIT,
+    REASON_SECTOR,
+    REASON_STALL,
     REASON_VISIBILITY,
     REASON_WIND,
     Envelope,
     wind_envelope,
+)
+from briefer.core.maneuver_judgement import (
+    DENSE_CHECK_M,
+    ROLL_OUT_STEPS,
+    Levels,
+    WindJudgement,
+    choose_plan_at_wind,
+    judge_winds,
+    judgement_levels,
+    roll_out_steps_m,
+    solve_candidates,
 )
 from briefer.core.maneuver_legs import (
     CALM,
@@ -60,6 +75,7 @@ from briefer.core.maneuver_ranking import (
     RankedPlan,
     bank_levels_deg,
     choose_plan,
+    plan_checks,
     rank_plans,
 )
 from briefer.core.maneuver_solver import (
@@ -73,12 +89,13 @@ from briefer.core.maneuver_solver import (
 )
 
 __all__ = [
-    "CALM", "DOES_NOT_FIT", "DOWNWIND_SHAPES", "FITS", "MARGINAL", "MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION",
-    "MARGINAL_BANK_DEG", "MARGINAL_VISIBILITY_FRACTION", "REASON_AREA", "REASON_BANK", "REASON_VISIBILITY",
-    "REASON_WIND", "SHAPES", "SIDES", "CircleInputs", "DescentGeometry", "Envelope", "LeaveMda", "Leg", "MarginFn",
+    "CALM", "DENSE_CHECK_M", "ROLL_OUT_STEPS", "DOES_NOT_FIT", "DOWNWIND_SHAPES", "FITS", "MARGINAL", "MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION",
+    "MARGINAL_BANK_DEG", "MARGINAL_VISIBILITY_FRACTION", "REASON_AREA", "REASON_BANK", "REASON_LIMIT", "REASON_SECTOR", "REASON_STALL", "REASON_VISIBILITY",
+    "REASON_WIND", "SHAPES", "SIDES", "CircleInputs", "DescentGeometry", "Envelope", "LeaveMda", "Leg", "Levels", "MarginFn",
     "MissedApproachGuide", "MissedTurnSegment", "Plan", "PlanChoice", "RankedPlan", "RunwayWind", "State",
     "Straight", "StraightTrack", "TrackSamples", "Turn", "applicable_candidates", "bank_levels_deg",
     "candidate_plans", "choose_plan", "crab_heading_deg", "descent_geometry", "ground_speed_kt", "leg_duration_s",
     "leg_end_state", "missed_approach_turns", "plan_end_state", "plan_sample", "plan_time_s", "rank_plans",
     "runway_wind_from", "sample_leg", "sample_legs", "solve_plan", "turn_angle_deg", "wind_envelope",
+    "WindJudgement", "choose_plan_at_wind", "judge_winds", "judgement_levels", "plan_checks", "roll_out_steps_m", "solve_candidates",
 ]

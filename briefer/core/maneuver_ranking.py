@@ -40,9 +40,49 @@ MARGINAL_AREA_FRACTION = 0.10
 MARGINAL_VISIBILITY_FRACTION = 0.90
 MARGINAL_AOA_DEG = 3.0
 
-MarginFn = Callable[[npt.NDArray[np.float64]], "float | npt.NDArray[np.float64]"]
+# the criteria of a failure or of a marginal plan, as bits (the brief's ranking, the envelope's cells)
+REASON_BANK, REASON_AREA, REASON_VISIBILITY, REASON_WIND, REASON_SECTOR, REASON_STALL = 1, 2, 4, 8, 16, 32
+REASON_LIMIT = 64        # the wind is beyond the aircraft's crosswind or tailwind limit (no plan is offered)
+
+MarginFn = Callable[[npt.NDArray[np.float64]], "float | npt.NDArray[np.float64] | tuple"]
 """margin_fn(track_xy) -> minimum area margin [m], positive inside. ``track_xy`` is a runway-frame
-array of shape (..., N, 2); the result has shape (...) (a float for one (N, 2) track)."""
+array of shape (..., N, 2); the result has shape (...) (a float for one (N, 2) track). It may also
+answer a pair (margins, sector_bound): sector_bound True where the margin is a not-authorised
+sector's rather than the area radius's."""
+
+
+def plan_checks(*, bank_deg: npt.ArrayLike, bank_limit_deg: float, area_margin_m: npt.ArrayLike,
+                sector_bound: npt.ArrayLike, visibility_m: float, max_distance_from_runway_m: npt.ArrayLike,
+                area_radius_m: float | None, aoa_margin_deg: npt.ArrayLike | None
+                ) -> tuple[npt.NDArray[np.int_], npt.NDArray[np.int_]]:
+    """The verdict criteria of flyable plans (the one rule of the brief and the envelope).
+
+    Returns (failures, marginal) as REASON_* bits, elementwise. Failures: bank above the limit
+    (BANK), area margin < 0 (AREA, or SECTOR when the margin is a not-authorised sector's), the
+    runway farther than the visibility (VISIBILITY), angle-of-attack margin < 0 (STALL).
+    Marginal, for a criterion that does not fail: bank within ``MARGINAL_BANK_DEG`` of the
+    limit, area margin under ``MARGINAL_AREA_FRACTION`` of R (not checked when R is None), the
+    runway beyond ``MARGINAL_VISIBILITY_FRACTION`` of the visibility, AoA margin under
+    ``MARGINAL_AOA_DEG`` (not checked when None). NaN margins (plans that cannot be flown)
+    check nothing.
+    """
+    bank = np.asarray(bank_deg, dtype=float)
+    area = np.asarray(area_margin_m, dtype=float)
+    dist = np.asarray(max_distance_from_runway_m, dtype=float)
+    a_bit = np.where(np.asarray(sector_bound, dtype=bool), REASON_SECTOR, REASON_AREA)
+    zero = np.zeros(np.broadcast(bank, area, dist, a_bit).shape, dtype=np.int64)
+    over = bank > bank_limit_deg
+    fail = zero + np.where(over, REASON_BANK, 0) + np.where(area < 0.0, a_bit, 0) \
+        + np.where(visibility_m - dist < 0.0, REASON_VISIBILITY, 0)
+    marg = zero + np.where(~over & (bank > bank_limit_deg - MARGINAL_BANK_DEG), REASON_BANK, 0) \
+        + np.where(dist > MARGINAL_VISIBILITY_FRACTION * visibility_m, REASON_VISIBILITY, 0) * (visibility_m - dist >= 0.0)
+    if area_radius_m is not None:
+        marg = marg + np.where((area >= 0.0) & (area < MARGINAL_AREA_FRACTION * area_radius_m), a_bit, 0)
+    if aoa_margin_deg is not None:
+        aoa = np.asarray(aoa_margin_deg, dtype=float)
+        fail = fail + np.where(aoa < 0.0, REASON_STALL, 0)
+        marg = marg + np.where((aoa >= 0.0) & (aoa < MARGINAL_AOA_DEG), REASON_STALL, 0)
+    return fail, marg
 
 
 Verdict = Literal["fits", "marginal", "does not fit"]
@@ -150,26 +190,29 @@ def rank_plans(plans: tuple[Plan, ...] | list[Plan], *, margin_fn: MarginFn, vis
         assert p.max_distance_from_runway_m is not None and p.total_time_s is not None
         vis = visibility_m - p.max_distance_from_runway_m
         aoa = None if aoa_margin_fn is None else float(aoa_margin_fn(p.bank_deg))
+        fbits, mbits = (int(b) for b in plan_checks(
+            bank_deg=p.bank_deg, bank_limit_deg=bank_limit_deg, area_margin_m=area, sector_bound=False,
+            visibility_m=visibility_m, max_distance_from_runway_m=p.max_distance_from_runway_m,
+            area_radius_m=area_radius_m, aoa_margin_deg=aoa))
         fails, marg = [], []
-        if p.bank_deg > bank_limit_deg:
+        if fbits & REASON_BANK:
             fails.append(f"needs {p.bank_deg:g} deg bank, above the {bank_limit_deg:g} deg limit")
-        elif p.bank_deg > bank_limit_deg - MARGINAL_BANK_DEG:
+        elif mbits & REASON_BANK:
             marg.append(f"{p.bank_deg:g} deg bank is within {MARGINAL_BANK_DEG:g} deg of the limit")
-        if area < 0.0:
+        if fbits & REASON_AREA:
             fails.append(f"leaves the protected area by {_nm(-area)}")
-        elif area_radius_m is not None and area < MARGINAL_AREA_FRACTION * area_radius_m:
+        elif mbits & REASON_AREA:
             marg.append(f"only {_nm(area)} inside the protected area (< 10 % of R)")
-        if vis < 0.0:
+        if fbits & REASON_VISIBILITY:
             fails.append(f"the runway gets {_nm(p.max_distance_from_runway_m)} away, beyond the "
                          f"{visibility_m * M_TO_SM:.1f} SM visibility")
-        elif p.max_distance_from_runway_m > MARGINAL_VISIBILITY_FRACTION * visibility_m:
+        elif mbits & REASON_VISIBILITY:
             marg.append(f"the runway gets {_nm(p.max_distance_from_runway_m)} away, over 90 % of the "
                         f"{visibility_m * M_TO_SM:.1f} SM visibility")
-        if aoa is not None:
-            if aoa < 0.0:
-                fails.append(f"angle-of-attack margin {aoa:.1f} deg: beyond the stall")
-            elif aoa < MARGINAL_AOA_DEG:
-                marg.append(f"angle-of-attack margin only {aoa:.1f} deg")
+        if fbits & REASON_STALL:
+            fails.append(f"angle-of-attack margin {aoa:.1f} deg: beyond the stall")
+        elif mbits & REASON_STALL:
+            marg.append(f"angle-of-attack margin only {aoa:.1f} deg")
         key = (len(fails), round(p.bank_deg, 3), -round(min(area, vis)), -(aoa or 0.0), round(p.total_time_s, 1))
         rows.append((key, p, area, vis, aoa, tuple(fails), tuple(marg)))
     rows.sort(key=lambda r: r[0])
@@ -260,5 +303,6 @@ def choose_plan(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: floa
     return PlanChoice(bank_needed_deg=None, banks_tried_deg=levels, ranked=ranked)
 
 
-__all__ = ["MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION", "MARGINAL_BANK_DEG", "MARGINAL_VISIBILITY_FRACTION",
+__all__ = ["REASON_LIMIT", "REASON_AREA", "REASON_BANK", "REASON_SECTOR", "REASON_STALL", "REASON_VISIBILITY", "REASON_WIND",
+           "plan_checks", "MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION", "MARGINAL_BANK_DEG", "MARGINAL_VISIBILITY_FRACTION",
            "MarginFn", "PlanChoice", "RankedPlan", "Verdict", "bank_levels_deg", "choose_plan", "rank_plans"]

@@ -384,7 +384,7 @@ def _flag(ok: npt.NDArray[np.bool_], flag: int) -> npt.NDArray[np.int_]:
 
 def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.ArrayLike, wy: npt.ArrayLike,
                 bank_rad: npt.ArrayLike, roll_rate_rad: float | None, x0: float, y0: float, c0_rad: float,
-                d_m: float, d_stab_m: float, break_rad: float, teardrop_rad: float,
+                d_m: float | FloatArray, d_stab_m: float, break_rad: float, teardrop_rad: float,
                 circuit_turn_x_m: float = 0.0) -> ShapeSolution:
     """Solve one plan shape over broadcast arrays of sides, winds and banks (array kernel).
 
@@ -403,7 +403,7 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
     wx = np.asarray(wx, dtype=float)
     wy = np.asarray(wy, dtype=float)
     bank = np.asarray(bank_rad, dtype=float)
-    shp = np.broadcast(sig, wx, wy, bank).shape
+    shp = np.broadcast(sig, wx, wy, bank, d_m).shape
     zero = np.zeros(shp)
     sig, wx, wy, bank = sig + zero, wx + zero, wy + zero, bank + zero
     v = float(tas_mps)
@@ -589,10 +589,36 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
                          wx=wx, wy=wy)
 
 
+def _take(value: object, rows: npt.NDArray[np.int_], m: int) -> object:
+    if isinstance(value, np.ndarray):
+        return value[rows] if value.ndim >= 1 and value.shape[0] == m else value
+    if isinstance(value, (LegArrays, TurnProfile)):
+        return type(value)(**{f: _take(getattr(value, f), rows, m) for f in type(value).__slots__})
+    return value
+
+
+def take_rows(sol: ShapeSolution, rows: npt.NDArray[np.int_]) -> ShapeSolution:
+    """The rows ``rows`` of a solution solved over one leading axis of M rows (winds, levels)."""
+    m = sol.ok.shape[0]
+    return ShapeSolution(**{f: (tuple(_take(lg, rows, m) for lg in sol.legs) if f == "legs"
+                                else _take(getattr(sol, f), rows, m)) for f in ShapeSolution.__slots__})
+
+
+def leg_end_distance_m(sol: ShapeSolution, runway_length_m: float) -> FloatArray:
+    """Largest distance from the runway (threshold to far end) over the start points of the
+    legs: exact track points, so a lower bound of the sampled track's largest distance. [m]"""
+    d2 = np.zeros(sol.ok.shape)
+    for lg in sol.legs:
+        x = lg.x0
+        d2 = np.maximum(d2, np.square(x - np.minimum(np.maximum(x, 0.0), runway_length_m)) + np.square(lg.y0))
+    return np.sqrt(d2)
+
+
 def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx_mps: npt.ArrayLike,
-                 wy_mps: npt.ArrayLike, bank_deg: npt.ArrayLike, descent: DescentGeometry | None = None
-                 ) -> ShapeSolution:
-    """:func:`solve_shape` with the fixed parts taken from ``inputs`` (winds, sides, banks vary)."""
+                 wy_mps: npt.ArrayLike, bank_deg: npt.ArrayLike, descent: DescentGeometry | None = None,
+                 roll_out_m: npt.ArrayLike | None = None) -> ShapeSolution:
+    """:func:`solve_shape` with the fixed parts taken from ``inputs`` (winds, sides, banks vary;
+    ``roll_out_m`` may vary too: roll-out distances, default the descent geometry's). [m]"""
     b = np.asarray(bank_deg, dtype=float)
     if not ((b > 0.0) & (b < BANK_MAX_DEG)).all():
         raise DomainError(f"bank_deg = {bank_deg}: a turn needs 0 < bank < 90")
@@ -600,7 +626,8 @@ def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx
     rr = None if inputs.roll_rate_deg_per_s is None else math.radians(inputs.roll_rate_deg_per_s)
     return solve_shape(shape, sigma=sigma, tas_mps=inputs.tas_kt * KT_TO_MPS, wx=wx_mps, wy=wy_mps,
                        bank_rad=np.radians(b), roll_rate_rad=rr, x0=inputs.arrival_x_m, y0=inputs.arrival_y_m,
-                       c0_rad=math.radians(inputs.arrival_course_deg), d_m=dg.roll_out_distance_m,
+                       c0_rad=math.radians(inputs.arrival_course_deg),
+                       d_m=dg.roll_out_distance_m if roll_out_m is None else np.asarray(roll_out_m, dtype=float),
                        d_stab_m=dg.stabilised_distance_m, break_rad=math.radians(inputs.break_angle_deg),
                        teardrop_rad=math.radians(inputs.teardrop_angle_deg),
                        circuit_turn_x_m=inputs.circuit_turn_past_threshold_m)
@@ -663,7 +690,7 @@ def _ramp_q(tau: FloatArray, prof: TurnProfile) -> npt.NDArray[np.complex128]:
 
 
 def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int, straight_step_m: float | None = None,
-                    with_heading: bool = False) -> SolutionTrack:
+                    with_heading: bool = False, running_product: bool | None = None) -> SolutionTrack:
     """Sample every leg of a solved shape (vectorised): tracks of shape (..., N, 2).
 
     Each straight gets ``n_straight`` points (the final, on the centreline, only its two
@@ -673,6 +700,8 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     leg are included (joins appear twice); rows that are not ok hold garbage. With
     ``straight_step_m`` (a single plan's track) straights get one point per that many metres of
     their longest instance and arcs use the larger of the calm and the actual angle.
+    ``running_product`` chooses how arc points are made (None: by the number of tracks); a batch
+    whose rows must not depend on its size fixes it.
 
     Notes
     -----
@@ -694,6 +723,7 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     wind = sol.wx + 1j * sol.wy
     lead = (1,) * len(shp)
     cells = math.prod(shp)
+    many = cells >= _RUNNING_PRODUCT_MIN_CELLS if running_product is None else running_product
     j = 0
     t_start = np.zeros(shp)
     with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
@@ -722,7 +752,7 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                     e_a = np.exp(1j * pr.angle)
                 else:
                     q_tr = np.zeros(shp, dtype=np.complex128)
-                if not nr and cells >= _RUNNING_PRODUCT_MIN_CELLS:
+                if not nr and many:
                     # instant bank, many tracks: p_k = C - i s r exp(i psi_k) + w t_k with
                     # C = p0 + i s r exp(i psi0); exp(i psi_k) by a running product
                     sr = sgn * r
@@ -739,7 +769,7 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                     j += n
                     continue
                 a_seg = seg[nr:nr + na]
-                if cells < _RUNNING_PRODUCT_MIN_CELLS:         # a few tracks: direct exponentials
+                if not many:                                   # a few tracks: direct exponentials
                     a_seg[...] = np.exp(1j * (pr.dp + arc * fa))
                 else:
                     a_seg[0] = np.exp(1j * pr.dp)

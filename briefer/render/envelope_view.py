@@ -48,6 +48,9 @@ from briefer.core.maneuver_envelope import (
     MARGINAL,
     REASON_AREA,
     REASON_BANK,
+    REASON_LIMIT,
+    REASON_SECTOR,
+    REASON_STALL,
     REASON_VISIBILITY,
     REASON_WIND,
     STATUS_TEXT,
@@ -84,10 +87,13 @@ MARK_STYLE = Style(color="cyan", bold=True)
 LABEL_STYLE = Style(bold=True)
 
 REASON_LETTERS: tuple[tuple[int, str, str], ...] = (
-    (REASON_BANK, "B", "bank: more than the target, near or over the limit"),
+    (REASON_BANK, "B", "bank: within 5 deg of the limit, or more than the limit"),
     (REASON_AREA, "A", "area: margin under 10 % of R, or leaves the protected area"),
+    (REASON_SECTOR, "S", "sector: within 10 % of R of a not-authorised sector, or enters it"),
     (REASON_VISIBILITY, "V", "visibility: the runway gets beyond 90 % of it, or beyond it"),
+    (REASON_STALL, "K", "stall: angle-of-attack margin under 3 deg, or beyond the stall"),
     (REASON_WIND, "W", "wind: no plan can be flown at all"),
+    (REASON_LIMIT, "L", "limit: beyond the crosswind or tailwind limit"),
 )
 """(bit, letter, meaning) of each reason flag."""
 

@@ -1,0 +1,464 @@
+"""One judgement for the brief and the wind envelope: a batch of candidates solved at once.
+
+The brief is the envelope evaluated at one wind. Every candidate (shape, side) at every level
+(roll-out distance x bank) is solved in one vectorised batch of rows (one row = one wind at one
+level), each row's tracks are sampled at counts that do not depend on the other rows (so a
+row gives the same numbers alone or among thousands), and the same rules pick, for every wind:
+
+1. the levels in order: the default roll-out (the descent point) at the target bank, then every
+   bank step up to the limit (:func:`briefer.core.maneuver_ranking.bank_levels_deg`); only if
+   nothing fits at any bank there, the closer roll-outs (:func:`roll_out_steps_m`), each with the
+   same bank steps;
+2. at a level, the candidates ranked as :func:`briefer.core.maneuver_ranking.rank_plans` ranks
+   them (failures first, then the smaller of area margin and visibility margin to 1 m, then the
+   total time to 0.1 s; exact ties keep the candidate order);
+3. the first level whose best candidate has no failure; if there is none, the default
+   roll-out's last bank level (the best there is shown with its failures).
+
+The verdict of the chosen candidate is :func:`briefer.core.maneuver_ranking.plan_checks`: the
+same function that rank_plans uses for every plan of the brief. FITS, MARGINAL (and which
+criterion: bank, area margin, a not-authorised sector, visibility, angle of attack) or
+DOES_NOT_FIT (the failures of the best at the last level, or REASON_WIND when no candidate can
+be flown at all).
+
+The brief solves its one wind with every level in a single call (``eager``) and then builds the
+full sampled plans only at the chosen level (the chosen plan and the alternatives shown); the
+envelope solves level by level, each time only for the winds still without a fitting plan.
+
+References
+----------
+.. [1] ICAO Doc 8168 Vol II, Part I, Section 4, Chapter 7 (visual manoeuvring area), 5th ed., 2006.
+.. [2] FAA, Aeronautical Information Manual, 5-4-20 (circling: remain at the MDA until in a
+   position to descend with normal manoeuvres).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+from collections.abc import Callable
+from dataclasses import dataclass, field
+
+import numpy as np
+import numpy.typing as npt
+
+from briefer.core.maneuver_legs import FloatArray
+from briefer.core.maneuver_plans import candidate_plans
+from briefer.core.maneuver_ranking import (
+    PlanChoice,
+    REASON_AREA,
+    REASON_BANK,
+    REASON_SECTOR,
+    REASON_STALL,
+    REASON_VISIBILITY,
+    REASON_WIND,
+    MarginFn,
+    bank_levels_deg,
+    plan_checks,
+    rank_plans,
+)
+from briefer.core.maneuver_solver import (
+    CircleInputs,
+    DescentGeometry,
+    Shape,
+    Side,
+    applicable_candidates,
+    descent_geometry,
+    leg_end_distance_m,
+    sample_solution,
+    solve_inputs,
+    take_rows,
+)
+from briefer.errors import DomainError
+
+FITS, MARGINAL, DOES_NOT_FIT = 2, 1, 0
+STATUS_TEXT = {FITS: "fits", MARGINAL: "marginal", DOES_NOT_FIT: "does not fit"}
+ROLL_OUT_STEPS = (0.66, 0.33, 0.0)   # of the way from the stabilised distance to the descent point
+BATCH_TURN_STEP_DEG = 7.5            # batch tracks: a point every 7.5 deg of each turn's calm angle ...
+BATCH_N_STRAIGHT = 5                 # ... and 5 points per straight (the final: its two ends)
+_INFEASIBLE = 1000                   # failure count of a candidate that cannot be flown
+DENSE_CHECK_M = 50.0                 # a level the batch rejects by less than this is checked on the full plans
+_PRUNE_MIN_ROWS = 64                 # below this many rows every row is sampled (pruning costs more)
+
+
+def roll_out_steps_m(inputs: CircleInputs) -> tuple[float, ...]:
+    """The closer roll-outs tried, in order, when no plan fits at the descent point: steps toward
+    the stabilised distance (descending in the final turn), ``ROLL_OUT_STEPS`` of the way."""
+    geo = descent_geometry(inputs)
+    return tuple(geo.stabilised_distance_m + f * (geo.roll_out_distance_m - geo.stabilised_distance_m)
+                 for f in ROLL_OUT_STEPS)
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Levels:
+    """The levels tried, in order: for each roll-out (default first), every bank level.
+
+    ``roll_out_m[0]`` is the default (the inputs' own roll-out, ``None`` in ``roll_out_chosen``);
+    the others are :func:`roll_out_steps_m`.
+    """
+
+    roll_out_m: tuple[float, ...]
+    roll_out_chosen: tuple[float | None, ...]
+    bank_deg: tuple[float, ...]
+
+    def order(self) -> list[tuple[int, int]]:
+        """(roll-out index, bank index) in the order tried."""
+        return [(r, b) for r in range(len(self.roll_out_m)) for b in range(len(self.bank_deg))]
+
+
+def judgement_levels(inputs: CircleInputs, *, bank_limit_deg: float, bank_step_deg: float = 5.0,
+                     roll_out_steps: bool = True) -> Levels:
+    """The bank levels (at most 60 deg, the solver's range) and roll-outs of the judgement."""
+    banks = tuple(b for b in bank_levels_deg(inputs.bank_deg, bank_limit_deg, bank_step_deg) if b <= 60.0)
+    geo = descent_geometry(inputs)
+    steps = roll_out_steps_m(inputs) if roll_out_steps else ()
+    return Levels(roll_out_m=(geo.roll_out_distance_m,) + tuple(max(d, geo.stabilised_distance_m) for d in steps),
+                  roll_out_chosen=(inputs.roll_out_distance_m,) + steps, bank_deg=banks)
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class CandidateBatch:
+    """Every candidate solved on every row: arrays of shape (M, C) (rows x candidates).
+
+    ``ok`` flyable; ``area_margin_m`` smallest protected-area margin (NaN where not ok) [m];
+    ``sector_bound`` the margin is a not-authorised sector's; ``max_distance_from_runway_m``
+    [m]; ``total_time_s`` arrival to threshold [s].
+    """
+
+    ok: npt.NDArray[np.bool_]
+    area_margin_m: FloatArray
+    sector_bound: npt.NDArray[np.bool_]
+    max_distance_from_runway_m: FloatArray
+    total_time_s: FloatArray
+
+
+def _margins(margin_fn: MarginFn, xy: FloatArray) -> tuple[FloatArray, npt.NDArray[np.bool_]]:
+    """Call the margin function; it may answer the margins alone or (margins, sector_bound)."""
+    out = margin_fn(xy)
+    if isinstance(out, tuple):
+        m, sec = out
+        return np.asarray(m, dtype=float), np.asarray(sec, dtype=bool)
+    m = np.asarray(out, dtype=float)
+    return m, np.zeros(m.shape, dtype=bool)
+
+
+def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side], ...], *, wx_mps: FloatArray,
+                     wy_mps: FloatArray, bank_deg: FloatArray, roll_out_m: FloatArray, margin_fn: MarginFn,
+                     descent: DescentGeometry | None = None, turn_step_deg: float = BATCH_TURN_STEP_DEG,
+                     n_straight: int = BATCH_N_STRAIGHT, visibility_m: float | None = None,
+                     all_margins: npt.ArrayLike = True) -> CandidateBatch:
+    """Solve every candidate on every row (wind, bank, roll-out), vectorised over the rows.
+
+    Rows are independent: the sample counts of a track depend on the candidate and the
+    situation only (each turn by its calm-wind angle, each straight ``n_straight`` points), so a
+    row's numbers do not depend on which other rows share the batch.
+
+    With ``visibility_m``, the area margins of a row whose every flyable candidate takes the
+    runway beyond the visibility (a row that cannot fit, whatever its margins) are left NaN,
+    except on the rows where ``all_margins`` is True (the level whose failures are reported).
+    """
+    wx = np.asarray(wx_mps, dtype=float).ravel()
+    m = wx.size
+    wy = np.asarray(wy_mps, dtype=float).ravel() + np.zeros(m)
+    bank = np.asarray(bank_deg, dtype=float).ravel() + np.zeros(m)
+    d = np.asarray(roll_out_m, dtype=float).ravel() + np.zeros(m)
+    dg = descent if descent is not None else descent_geometry(inputs)
+    length = inputs.runway_length_m
+    c = len(candidates)
+    ok = np.zeros((m, c), dtype=bool)
+    area = np.full((m, c), np.nan)
+    sector = np.zeros((m, c), dtype=bool)
+    dist = np.full((m, c), np.nan)
+    ttime = np.full((m, c), np.nan)
+    if m == 0:
+        return CandidateBatch(ok=ok, area_margin_m=area, sector_bound=sector, max_distance_from_runway_m=dist,
+                              total_time_s=ttime)
+    sols = []
+    for shape, side in candidates:
+        sol = solve_inputs(inputs, shape, sigma=1.0 if side == "right" else -1.0, wx_mps=wx, wy_mps=wy,
+                           bank_deg=bank, descent=dg, roll_out_m=d)
+        ok[:, len(sols)] = sol.ok
+        ttime[:, len(sols)] = np.where(sol.ok, sum(lg.duration for lg in sol.legs), np.nan)
+        sols.append(sol)
+    # rows that cannot fit (every flyable candidate already takes the runway out of sight at a leg's
+    # start point, an exact track point) are not sampled, except where all_margins asks for them
+    want = ok.any(axis=1)
+    if visibility_m is not None and m >= _PRUNE_MIN_ROWS:
+        lower = np.stack([leg_end_distance_m(sol, length) for sol in sols], axis=1)
+        dist[:] = np.where(ok, lower, np.nan)        # replaced by the sampled tracks' where sampled
+        with np.errstate(invalid="ignore"):
+            near = lower <= visibility_m
+        want &= np.any(ok & near, axis=1) | (np.asarray(all_margins, dtype=bool) + np.zeros(m, dtype=bool))
+    tracks: list[tuple[npt.NDArray[np.bool_], FloatArray] | None] = []
+    for ci, sol in enumerate(sols):
+        rows = want & ok[:, ci]
+        if not rows.any():
+            tracks.append(None)
+            continue
+        sub = sol if rows.all() else take_rows(sol, np.flatnonzero(rows))
+        xy = sample_solution(sub, turn_step_deg=turn_step_deg, n_straight=n_straight, running_product=True).xy
+        if not sub.ok.all():
+            xy[~sub.ok] = 0.0
+        x = xy[..., 0]
+        d2 = np.max(np.square(x - np.minimum(np.maximum(x, 0.0), length)) + np.square(xy[..., 1]), axis=-1)
+        dist[rows, ci] = np.sqrt(d2)
+        tracks.append((rows, xy))
+    # rows left out, or whose sampled tracks all take the runway beyond the visibility, get no margins
+    need = want.copy()
+    if visibility_m is not None and m >= _PRUNE_MIN_ROWS:
+        with np.errstate(invalid="ignore"):
+            need &= np.any(ok & (dist <= visibility_m), axis=1) | (np.asarray(all_margins, dtype=bool)
+                                                                   + np.zeros(m, dtype=bool))
+    for ci, tr in enumerate(tracks):
+        if tr is None:
+            continue
+        rows, xy = tr
+        sel = need[rows]
+        if not sel.any():
+            continue
+        a, sec = _margins(margin_fn, xy if sel.all() else xy[sel])
+        idx = np.flatnonzero(rows)[sel]
+        area[idx, ci] = a
+        sector[idx, ci] = sec
+    return CandidateBatch(ok=ok, area_margin_m=area, sector_bound=sector, max_distance_from_runway_m=dist,
+                          total_time_s=ttime)
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class LevelBest:
+    """The best candidate of each row at one level and its checks (arrays of shape (M,))."""
+
+    best: npt.NDArray[np.int_]          # candidate index; -1 when none can be flown
+    failures: npt.NDArray[np.int_]      # REASON_* bits of its failures
+    marginal: npt.NDArray[np.int_]      # REASON_* bits of why it is marginal
+    area_margin_m: FloatArray
+    max_distance_from_runway_m: FloatArray
+    slack_m: FloatArray                 # best min(area margin, visibility margin) of the candidates
+    #                                     that fail neither bank nor stall; -inf if none [m]
+
+    @property
+    def fits(self) -> npt.NDArray[np.bool_]:
+        return (self.best >= 0) & (self.failures == 0)
+
+
+def best_of_level(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_deg: float, visibility_m: float,
+                  area_radius_m: float | None, aoa_margin_deg: npt.ArrayLike | None) -> LevelBest:
+    """Rank the candidates of each row as rank_plans does and check the best one (``bank_deg``
+    and ``aoa_margin_deg``: one value, or one per row).
+
+    Order (lower first): number of failures, -round(min(area margin, visibility margin)) (1 m),
+    round(total time, 1) (0.1 s); candidates that cannot be flown last; exact ties: the first.
+    """
+    bank_deg = np.asarray(bank_deg, dtype=float)[..., None]
+    aoa_margin_deg = None if aoa_margin_deg is None else np.asarray(aoa_margin_deg, dtype=float)[..., None]
+    fail, marg = plan_checks(bank_deg=bank_deg, bank_limit_deg=bank_limit_deg, area_margin_m=batch.area_margin_m,
+                             sector_bound=batch.sector_bound, visibility_m=visibility_m,
+                             max_distance_from_runway_m=batch.max_distance_from_runway_m,
+                             area_radius_m=area_radius_m, aoa_margin_deg=aoa_margin_deg)
+    nf = np.zeros(fail.shape, dtype=np.int64)
+    for bit in (REASON_BANK, REASON_AREA | REASON_SECTOR, REASON_VISIBILITY, REASON_STALL):
+        nf += (fail & bit) != 0
+    nf = np.where(batch.ok, nf, _INFEASIBLE)
+    with np.errstate(invalid="ignore"):
+        k2 = -np.round(np.minimum(batch.area_margin_m, visibility_m - batch.max_distance_from_runway_m))
+        k3 = np.round(batch.total_time_s, 1)
+    sel = nf == nf.min(axis=-1, keepdims=True)
+    k2 = np.where(sel & batch.ok, k2, np.inf)
+    sel &= (k2 == k2.min(axis=-1, keepdims=True)) | ~batch.ok
+    k3 = np.where(sel & batch.ok, k3, np.inf)
+    sel &= (k3 == k3.min(axis=-1, keepdims=True)) | ~batch.ok
+    best = np.argmax(sel, axis=-1)
+    rows = np.arange(best.size)
+    flyable = batch.ok[rows, best]
+    with np.errstate(invalid="ignore"):
+        room = np.minimum(np.where(np.isnan(batch.area_margin_m), np.inf, batch.area_margin_m),
+                          visibility_m - batch.max_distance_from_runway_m)
+    usable = batch.ok & ((fail & (REASON_BANK | REASON_STALL)) == 0)
+    slack = np.max(np.where(usable, room, -np.inf), axis=-1, initial=-np.inf)
+    return LevelBest(best=np.where(flyable, best, -1), failures=np.where(flyable, fail[rows, best], 0),
+                     marginal=np.where(flyable, marg[rows, best], 0),
+                     area_margin_m=batch.area_margin_m[rows, best],
+                     max_distance_from_runway_m=batch.max_distance_from_runway_m[rows, best], slack_m=slack)
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class WindJudgement:
+    """The judgement at each of N winds (arrays of shape (N,)).
+
+    Attributes
+    ----------
+    candidates : tuple of (shape, side)
+    levels : Levels
+    status : FITS, MARGINAL or DOES_NOT_FIT
+    reasons : REASON_* bits: why marginal, or the failures (REASON_WIND: nothing can be flown)
+    roll_out_index, bank_index : the chosen level (for DOES_NOT_FIT the level shown: the default
+        roll-out's last bank level); -1 when there is no candidate at all
+    bank_needed_deg : the chosen level's bank, NaN where nothing fits [deg]
+    roll_out_m : the chosen level's roll-out distance, NaN where nothing fits [m]
+    best_candidate : index into ``candidates``; -1 where none can be flown
+    area_margin_m, max_distance_from_runway_m : of that candidate, NaN where none [m]
+    level_slack_m : ndarray (N, L)
+        Per level (in ``levels.order()``), the largest min(area margin, visibility margin) of
+        the candidates failing neither bank nor stall (-inf: none; NaN: level not solved). A
+        level that fails with a slack a few metres below zero might fit on a denser track. [m]
+    """
+
+    candidates: tuple[tuple[Shape, Side], ...]
+    levels: Levels
+    status: npt.NDArray[np.int_] = field(compare=False)
+    reasons: npt.NDArray[np.int_] = field(compare=False)
+    roll_out_index: npt.NDArray[np.int_] = field(compare=False)
+    bank_index: npt.NDArray[np.int_] = field(compare=False)
+    bank_needed_deg: FloatArray = field(compare=False)
+    roll_out_m: FloatArray = field(compare=False)
+    best_candidate: npt.NDArray[np.int_] = field(compare=False)
+    area_margin_m: FloatArray = field(compare=False)
+    max_distance_from_runway_m: FloatArray = field(compare=False)
+    level_slack_m: FloatArray = field(compare=False)
+
+
+def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.ArrayLike, margin_fn: MarginFn,
+                visibility_m: float, bank_limit_deg: float, area_radius_m: float | None,
+                aoa_margin_fn: Callable[[float], float] | None = None, bank_step_deg: float = 5.0,
+                roll_out_steps: bool = True, eager: bool = False, turn_step_deg: float = BATCH_TURN_STEP_DEG,
+                n_straight: int = BATCH_N_STRAIGHT) -> WindJudgement:
+    """The judgement (see the module docstring) at each wind (runway-frame, blowing toward). [m/s]
+
+    ``eager``: solve every level of every wind in one batch (the brief, one wind); otherwise
+    level by level, only for the winds still without a fitting plan (the envelope). Both give
+    the same result for a wind.
+    """
+    if not (math.isfinite(visibility_m) and visibility_m > 0.0):
+        raise DomainError(f"visibility_m = {visibility_m}: must be > 0")
+    if not 0.0 < bank_limit_deg < 90.0:
+        raise DomainError(f"bank_limit_deg = {bank_limit_deg}: valid range is (0, 90)")
+    if area_radius_m is not None and not (math.isfinite(area_radius_m) and area_radius_m > 0.0):
+        raise DomainError(f"area_radius_m = {area_radius_m}: must be > 0")
+    if not 0.0 < turn_step_deg <= 45.0 or n_straight < 2:
+        raise DomainError(f"turn_step_deg = {turn_step_deg} must be in (0, 45] and n_straight = {n_straight} >= 2")
+    wx = np.asarray(wx_mps, dtype=float).ravel()
+    wy = np.asarray(wy_mps, dtype=float).ravel()
+    if wx.shape != wy.shape or not (np.all(np.isfinite(wx)) and np.all(np.isfinite(wy))):
+        raise DomainError("wind components must be finite arrays of one shape")
+    n = wx.size
+    cands = applicable_candidates(inputs.arrival_course_deg)
+    levels = judgement_levels(inputs, bank_limit_deg=bank_limit_deg, bank_step_deg=bank_step_deg,
+                              roll_out_steps=roll_out_steps)
+    order = levels.order()
+    nb = len(levels.bank_deg)
+    fallback = (0, nb - 1)
+    descent = descent_geometry(inputs)
+    aoa = {b: (None if aoa_margin_fn is None else float(aoa_margin_fn(b))) for b in levels.bank_deg}
+
+    status = np.full(n, DOES_NOT_FIT, dtype=np.int64)
+    reasons = np.full(n, REASON_WIND, dtype=np.int64)
+    r_idx = np.full(n, -1, dtype=np.int64)
+    b_idx = np.full(n, -1, dtype=np.int64)
+    best_c = np.full(n, -1, dtype=np.int64)
+    best_area = np.full(n, np.nan)
+    best_dist = np.full(n, np.nan)
+    resolved = np.zeros(n, dtype=bool)
+    slack = np.full((n, len(order)), np.nan)
+    if not cands or n == 0:
+        return WindJudgement(candidates=cands, levels=levels, status=status, reasons=reasons, roll_out_index=r_idx,
+                             bank_index=b_idx, bank_needed_deg=np.full(n, np.nan), roll_out_m=np.full(n, np.nan),
+                             best_candidate=best_c, area_margin_m=best_area, max_distance_from_runway_m=best_dist,
+                             level_slack_m=slack)
+
+    def solve(rows: npt.NDArray[np.int_], lv: list[tuple[int, int]]) -> list[LevelBest]:
+        """One batch for the given winds at each of the levels ``lv``; the best per level."""
+        k, m = len(lv), rows.size
+        bank = np.repeat([levels.bank_deg[b] for _, b in lv], m)
+        full = np.repeat([lvl == fallback for lvl in lv], m)
+        batch = solve_candidates(inputs, cands, wx_mps=np.tile(wx[rows], k), wy_mps=np.tile(wy[rows], k),
+                                 bank_deg=bank, roll_out_m=np.repeat([levels.roll_out_m[r] for r, _ in lv], m),
+                                 margin_fn=margin_fn, descent=descent, turn_step_deg=turn_step_deg,
+                                 n_straight=n_straight, visibility_m=visibility_m, all_margins=full)
+        aoa_rows = None if aoa_margin_fn is None else np.repeat([aoa[levels.bank_deg[b]] for _, b in lv], m)
+        lb = best_of_level(batch, bank_deg=bank, bank_limit_deg=bank_limit_deg, visibility_m=visibility_m,
+                           area_radius_m=area_radius_m, aoa_margin_deg=aoa_rows)
+        return [LevelBest(**{f: getattr(lb, f)[i * m:(i + 1) * m] for f in LevelBest.__slots__}) for i in range(k)]
+
+    def settle(rows: npt.NDArray[np.int_], lvl: tuple[int, int], lb: LevelBest) -> None:
+        r, b = lvl
+        slack[rows, order.index(lvl)] = lb.slack_m
+        fit = lb.fits & ~resolved[rows]
+        keep = fit | ((lvl == fallback) & ~resolved[rows])
+        cells = rows[keep]
+        status[cells] = np.where(fit[keep], np.where(lb.marginal[keep] == 0, FITS, MARGINAL), DOES_NOT_FIT)
+        reasons[cells] = np.where(fit[keep], lb.marginal[keep],
+                                  np.where(lb.best[keep] < 0, REASON_WIND, lb.failures[keep] | REASON_BANK))
+        r_idx[cells], b_idx[cells] = r, b
+        best_c[cells] = lb.best[keep]
+        best_area[cells], best_dist[cells] = lb.area_margin_m[keep], lb.max_distance_from_runway_m[keep]
+        resolved[rows[fit]] = True
+
+    if eager:
+        everything = np.arange(n)
+        for lvl, lb in zip(order, solve(everything, order)):
+            settle(everything, lvl, lb)
+    else:
+        for lvl in order:
+            pending = np.flatnonzero(~resolved)
+            if pending.size == 0:
+                break
+            settle(pending, lvl, solve(pending, [lvl])[0])
+    fits = status != DOES_NOT_FIT
+    bank_needed = np.where(fits, np.asarray(levels.bank_deg)[np.maximum(b_idx, 0)], np.nan)
+    roll_out = np.where(fits, np.asarray(levels.roll_out_m)[np.maximum(r_idx, 0)], np.nan)
+    return WindJudgement(candidates=cands, levels=levels, status=status, reasons=reasons, roll_out_index=r_idx,
+                         bank_index=b_idx, bank_needed_deg=bank_needed, roll_out_m=roll_out, best_candidate=best_c,
+                         area_margin_m=best_area, max_distance_from_runway_m=best_dist, level_slack_m=slack)
+
+
+def choose_plan_at_wind(inputs: CircleInputs, *, margin_fn: MarginFn, batch_margin_fn: MarginFn | None = None,
+                        visibility_m: float, bank_limit_deg: float, area_radius_m: float | None,
+                        aoa_margin_fn: Callable[[float], float] | None = None, bank_step_deg: float = 5.0
+                        ) -> tuple[PlanChoice, bool]:
+    """The brief's plan: the judgement at the inputs' wind, then the full plans of one level.
+
+    Every candidate at every level is solved in one batch (:func:`judge_winds`, ``eager``); only
+    the chosen level's plans are then built in full (dense tracks, :func:`candidate_plans`) and
+    ranked (:func:`rank_plans`). Plans drawn with the dense track are the ones shown, so they
+    decide at the end: a level is checked on its full plans when the batch chose it, or when the
+    batch rejected it by less than ``DENSE_CHECK_M`` on the area or visibility margin (the
+    sparser batch track may differ by that much: straights are sampled every 100 m on a plan,
+    every fifth of a leg in the batch); levels rejected clearly, or for bank or stall, are not.
+
+    Returns (choice, rolled out closer than the descent point).
+    """
+    kw = dict(visibility_m=visibility_m, bank_limit_deg=bank_limit_deg, area_radius_m=area_radius_m,
+              aoa_margin_fn=aoa_margin_fn)
+    wx, wy = inputs.wind.mps()
+    j = judge_winds(inputs, wx_mps=[wx], wy_mps=[wy], margin_fn=batch_margin_fn or margin_fn, eager=True,
+                    bank_step_deg=bank_step_deg, **kw)
+    levels, banks = j.levels, j.levels.bank_deg
+    if not j.candidates:
+        return PlanChoice(bank_needed_deg=None, banks_tried_deg=banks, ranked=()), False
+    order = levels.order()
+    fallback = (0, len(banks) - 1)
+    chosen = order.index((int(j.roll_out_index[0]), int(j.bank_index[0]))) if j.status[0] != DOES_NOT_FIT else -1
+
+    def ranked_at(lvl: tuple[int, int]) -> tuple:
+        r, b = lvl
+        plans = candidate_plans(dataclasses.replace(inputs, bank_deg=banks[b],
+                                                    roll_out_distance_m=levels.roll_out_chosen[r]))
+        return rank_plans(plans, margin_fn=margin_fn, **kw)
+
+    shown = None
+    for i, lvl in enumerate(order):
+        if i != chosen and not j.level_slack_m[0, i] >= -DENSE_CHECK_M:
+            continue
+        ranked = ranked_at(lvl)
+        if lvl == fallback:
+            shown = ranked
+        if ranked and not ranked[0].failures:
+            r, b = lvl
+            return PlanChoice(bank_needed_deg=banks[b], banks_tried_deg=banks[: b + 1], ranked=ranked), r > 0
+    return PlanChoice(bank_needed_deg=None, banks_tried_deg=banks,
+                      ranked=shown if shown is not None else ranked_at(fallback)), False
+
+
+__all__ = ["BATCH_N_STRAIGHT", "DENSE_CHECK_M", "choose_plan_at_wind", "BATCH_TURN_STEP_DEG", "DOES_NOT_FIT", "FITS", "MARGINAL", "ROLL_OUT_STEPS",
+           "STATUS_TEXT", "CandidateBatch", "LevelBest", "Levels", "WindJudgement", "best_of_level", "judge_winds",
+           "judgement_levels", "roll_out_steps_m", "solve_candidates"]

@@ -1,0 +1,154 @@
+"""The batch judgement (briefer.core.maneuver.judge_winds) against a cell-by-cell solve.
+
+Two independent checks of the one vectorised call that both the brief and the envelope use:
+
+* the plain-Python scalar reference (benchmarks/envelope_scalar_reference.py: loops and the
+  math module, one cell, one level, one candidate, one track point at a time) gives the same
+  verdicts, reasons, levels and best candidates, here with the angle-of-attack check and a margin
+  function that reports not-authorised sectors (the reasons the brief's judgement uses);
+* a wind solved alone (the brief's way: one wind, every level in one call) gives what the same
+  wind gives inside a grid solved level by level (the envelope's way): a row's numbers do not
+  depend on the other rows of the batch.
+
+The margins are this file's own: a stadium of radius R about the runway (ICAO Doc 8168 Vol I,
+Part I, Section 4, Chapter 7: arcs about the thresholds joined by tangents) with a half-plane
+not-authorised to the right of a line 1500 m right of the centreline (our invented sector).
+"""
+
+from __future__ import annotations
+
+import importlib.util
+import math
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+from briefer.core.maneuver import (
+    DOES_NOT_FIT,
+    REASON_SECTOR,
+    REASON_STALL,
+    CircleInputs,
+    judge_winds,
+    runway_wind_from,
+    wind_envelope,
+)
+from briefer.units import KT_TO_MPS, NM_TO_M
+
+RUNWAY_M = 2500.0
+R_M = 2.66 * NM_TO_M          # ICAO Cat B circling radius, Doc 8168 (as in tests/test_envelope.py)
+SECTOR_Y_M = 1500.0           # not authorised: y > 1500 m (right of the centreline)
+
+
+def _reference():
+    path = Path(__file__).resolve().parent.parent / "benchmarks" / "envelope_scalar_reference.py"
+    spec = importlib.util.spec_from_file_location("envelope_scalar_reference", path)
+    mod = importlib.util.module_from_spec(spec)
+    assert spec.loader is not None
+    spec.loader.exec_module(mod)
+    return mod
+
+
+REF = _reference()
+
+
+def margins(xy):
+    """(margin, sector_bound) of tracks (..., N, 2): the stadium, limited by the sector's depth."""
+    x, y = xy[..., 0], xy[..., 1]
+    hull = np.min(R_M - np.hypot(x - np.clip(x, 0.0, RUNWAY_M), y), axis=-1)
+    depth = np.min(np.where(y > SECTOR_Y_M, SECTOR_Y_M - y, np.inf), axis=-1)
+    m = np.minimum(hull, depth)
+    return m, m < hull
+
+
+def margins_scalar(points):
+    hull = min(R_M - math.hypot(x - min(max(x, 0.0), RUNWAY_M), y) for x, y in points)
+    depth = min((SECTOR_Y_M - y for x, y in points if y > SECTOR_Y_M), default=math.inf)
+    return min(hull, depth), depth < hull
+
+
+def aoa_margin(bank_deg: float) -> float:
+    """An invented stall margin: 6 deg at 25 deg bank, shrinking with the load factor."""
+    return 6.0 - 8.0 * (1.0 / math.cos(math.radians(bank_deg)) - 1.0 / math.cos(math.radians(25.0))) * 10.0
+
+
+def reciprocal(**kw):
+    base = dict(tas_kt=120.0, bank_deg=25.0, wind=runway_wind_from(0.0, 0.0), arrival_x_m=RUNWAY_M + 1500.0,
+                arrival_y_m=0.0, arrival_course_deg=180.0, circling_height_ft=600.0, runway_length_m=RUNWAY_M,
+                roll_rate_deg_per_s=10.0)
+    base.update(kw)
+    return CircleInputs(**base)
+
+
+SCENARIOS = [
+    pytest.param(reciprocal(), 4500.0, id="reciprocal"),
+    pytest.param(reciprocal(), 3000.0, id="reciprocal-low-visibility"),
+    pytest.param(reciprocal(arrival_x_m=900.0, arrival_y_m=-1800.0, arrival_course_deg=70.0), 5000.0,
+                 id="crossing"),
+    pytest.param(reciprocal(arrival_x_m=1100.0, arrival_course_deg=0.0, roll_out_distance_m=2200.0), 3800.0,
+                 id="aligned"),
+]
+DIRS = [0.0, 45.0, 90.0, 160.0, 200.0, 270.0, 315.0]
+SPEEDS = [0.0, 10.0, 22.0, 35.0]
+
+
+@pytest.mark.parametrize("inp, vis", SCENARIOS)
+def test_batch_equals_the_plain_python_cell_by_cell_solve(inp, vis):
+    kw = dict(visibility_m=vis, bank_limit_deg=35.0, area_radius_m=R_M, wind_from_relative_deg=DIRS,
+              wind_speed_kt=SPEEDS, aoa_margin_fn=aoa_margin)
+    env = wind_envelope(inp, margin_fn=margins, **kw)
+    ref = REF.envelope_scalar(inp, margin_track_fn=margins_scalar, **kw)
+    np.testing.assert_array_equal(env.status, np.array(ref["status"]))
+    np.testing.assert_array_equal(env.reasons, np.array(ref["reasons"]))
+    np.testing.assert_array_equal(env.best_candidate, np.array(ref["best"]))
+    nan = np.nan
+    np.testing.assert_array_equal(env.bank_needed_deg, np.array([[nan if b is None else b for b in row]
+                                                                 for row in ref["bank_needed"]]))
+    np.testing.assert_allclose(env.roll_out_m, np.array([[nan if b is None else b for b in row]
+                                                         for row in ref["roll_out"]]), atol=1e-6)
+    np.testing.assert_allclose(env.area_margin_m, np.array([[nan if a is None else a for a in row]
+                                                            for row in ref["area"]]), atol=1e-6)
+
+
+def test_the_scenarios_exercise_sector_stall_and_closer_roll_outs():
+    # guard against a vacuous comparison above
+    seen_reasons, closer, nofit = 0, False, False
+    for p in SCENARIOS:
+        inp, vis = p.values
+        env = wind_envelope(inp, margin_fn=margins, visibility_m=vis, bank_limit_deg=35.0, area_radius_m=R_M,
+                            wind_from_relative_deg=DIRS, wind_speed_kt=SPEEDS, aoa_margin_fn=aoa_margin)
+        seen_reasons |= int(np.bitwise_or.reduce(env.reasons.ravel()))
+        default = judge_winds(inp, wx_mps=[0.0], wy_mps=[0.0], margin_fn=margins, visibility_m=vis,
+                              bank_limit_deg=35.0, area_radius_m=R_M).levels.roll_out_m[0]
+        closer |= bool(np.any(env.roll_out_m < default - 1.0))
+        nofit |= bool(np.any(env.status == DOES_NOT_FIT))
+    assert seen_reasons & REASON_SECTOR and seen_reasons & REASON_STALL and closer and nofit
+
+
+@pytest.mark.parametrize("inp, vis", SCENARIOS)
+def test_a_wind_alone_gives_what_it_gives_in_the_grid(inp, vis):
+    kw = dict(margin_fn=margins, visibility_m=vis, bank_limit_deg=35.0, area_radius_m=R_M, aoa_margin_fn=aoa_margin)
+    rel = np.radians(np.repeat(DIRS, len(SPEEDS)))
+    spd = np.tile(SPEEDS, len(DIRS)) * KT_TO_MPS
+    wx, wy = -spd * np.cos(rel), -spd * np.sin(rel)
+    grid = judge_winds(inp, wx_mps=wx, wy_mps=wy, **kw)                 # level by level, many rows
+    for k in range(wx.size):
+        one = judge_winds(inp, wx_mps=wx[k:k + 1], wy_mps=wy[k:k + 1], eager=True, **kw)
+        for name in ("status", "reasons", "roll_out_index", "bank_index", "best_candidate"):
+            assert getattr(one, name)[0] == getattr(grid, name)[k], (name, k)
+        np.testing.assert_allclose(one.area_margin_m[0], grid.area_margin_m[k], atol=1e-9)
+        np.testing.assert_allclose(one.max_distance_from_runway_m[0], grid.max_distance_from_runway_m[k], atol=1e-9)
+
+
+def test_wind_limits_cut_cells_by_their_components():
+    # hand derivation: from 90 deg relative, 25 kt is all crosswind (25 > 20); from 180, 15 kt is all
+    # tailwind (15 > 10); 5 kt from anywhere is within both; from 0 deg every speed is a headwind
+    env = wind_envelope(reciprocal(), margin_fn=margins, visibility_m=4500.0, bank_limit_deg=35.0, area_radius_m=R_M,
+                        wind_from_relative_deg=[0.0, 90.0, 180.0], wind_speed_kt=[5.0, 15.0, 25.0],
+                        crosswind_limit_kt=20.0, tailwind_limit_kt=10.0)
+    from briefer.core.maneuver import REASON_LIMIT
+
+    limited = (env.reasons & REASON_LIMIT) > 0
+    np.testing.assert_array_equal(limited, [[False, False, False], [False, False, True], [False, True, True]])
+    assert np.all(env.status[limited] == DOES_NOT_FIT) and np.all(np.isnan(env.bank_needed_deg[limited]))
+    assert env.reason_texts(1, 2) == ("beyond the crosswind or tailwind limit",)
