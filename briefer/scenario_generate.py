@@ -264,11 +264,11 @@ def _set_clouds(w: WeatherPlan, haa_ft: float, rng: random.Random, *, low: bool 
 
 
 def _weather_of(ctx: _Ctx, w: WeatherPlan) -> tuple[str, ScenarioWeather]:
-    from briefer.io.metar import decode_metar, weather_from_metar
+    from briefer.io.metar import decode_metar
+    from briefer.io.weather_input import weather_fields
 
     report = format_report(ctx.station, w)
-    values = weather_from_metar(decode_metar(report))
-    return report, ScenarioWeather(report=report, **values)
+    return report, ScenarioWeather(report=report, **weather_fields(report=decode_metar(report)))
 
 
 def _weight(ctx: _Ctx) -> float:

@@ -176,3 +176,27 @@ def test_icao_visibility_is_shown_as_charted(capsys):
     out = run_text(capsys, ["brief", "--profile", "demo-bizjet", "--airfield", "X4CD", "--approach",
                             "VOR RWY 33", "--runway", "15", "--wind", "calm"])
     assert "3700 m" in out
+
+
+def test_demo_with_a_typed_wind_keeps_the_rest_of_the_demo_weather(capsys):
+    """Issue 11 item 2: `--demo --wind 090/30` overrides the demo's wind only; its temperature
+    (9 degC), altimeter (1009 hPa), visibility (3 SM) and ceiling (1100 ft) stay (briefer.demo)."""
+    d = run_json(capsys, ["brief", "--demo", "--wind", "090/30"])
+    w, wx = d["wind"], d["weather"]
+    assert (w["from_deg_true"], w["speed_kt"], w["gust_kt"]) == (90.0, 30.0, None)
+    assert (wx["oat_c"], wx["altimeter_hpa"], wx["visibility_sm"], wx["ceiling_ft"]) == (9.0, 1009.0, 3.0, 1100.0)
+    codes = {f["code"] for f in d["warnings"]}
+    assert not codes & {"oat-assumed", "altimeter-assumed"}
+
+
+def test_demo_with_a_typed_temperature_keeps_the_demo_wind(capsys):
+    """Issue 11 item 2: `--demo --oat-c -5` keeps the demo's 240/10G16 (true), so the circling speed
+    (with the profile's wind additive) is the demo's own."""
+    demo = run_json(capsys, ["brief", "--demo"])
+    d = run_json(capsys, ["brief", "--demo", "--oat-c", "-5"])
+    w = d["wind"]
+    assert (w["from_deg_true"], w["speed_kt"], w["gust_kt"]) == (240.0, 10.0, 16.0)
+    assert d["weather"]["oat_c"] == -5.0
+    assert (d["weather"]["altimeter_hpa"], d["weather"]["ceiling_ft"]) == (1009.0, 1100.0)
+    assert d["circling_speed_kt"] == demo["circling_speed_kt"]
+    assert d["wind_additive_kt"] == demo["wind_additive_kt"] > 0

@@ -103,38 +103,34 @@ def weight_lb_from_args(args: argparse.Namespace) -> float | None:
     return args.weight_lb
 
 
-def weather_fields(args: argparse.Namespace) -> tuple[dict[str, Any], Any]:
-    """Weather model fields from --metar and the explicit options (explicit values win),
-    and the decoded report (or None)."""
+def typed_weather(args: argparse.Namespace) -> dict[str, Any]:
+    """The weather values the options give (Weather keys; the wind as one part)."""
     from briefer import units
     from briefer.core.wind import parse_wind
 
-    fields: dict[str, Any] = {}
-    report = None
-    if getattr(args, "metar", None):
-        from briefer.io.metar import decode_metar, weather_from_metar
-
-        report = decode_metar(args.metar)
-        fields.update({k: v for k, v in weather_from_metar(report).items() if v is not None})
+    typed: dict[str, Any] = {}
     if args.wind:
         w = parse_wind(args.wind, reference=args.wind_is)
-        fields.update(wind_from_deg=w.from_deg, wind_speed_kt=w.speed_kt, wind_gust_kt=w.gust_kt,
-                      wind_reference=args.wind_is)
-    if args.oat_c is not None:
-        fields["oat_c"] = args.oat_c
-    if args.altimeter_hpa is not None:
-        fields["altimeter_hpa"] = args.altimeter_hpa
+        typed.update(wind_from_deg=w.from_deg, wind_speed_kt=w.speed_kt, wind_gust_kt=w.gust_kt,
+                     wind_reference=args.wind_is)
+    typed.update(oat_c=args.oat_c, altimeter_hpa=args.altimeter_hpa, visibility_sm=args.visibility_sm,
+                 ceiling_ft=args.ceiling_ft)
     if args.altimeter_inhg is not None:
-        fields["altimeter_hpa"] = args.altimeter_inhg * units.INHG_TO_HPA
-    if args.visibility_sm is not None:
-        fields["visibility_sm"] = args.visibility_sm
+        typed["altimeter_hpa"] = args.altimeter_inhg * units.INHG_TO_HPA
     if getattr(args, "visibility_m", None) is not None:
-        fields["visibility_sm"] = args.visibility_m * units.M_TO_SM
-    if args.ceiling_ft is not None:
-        fields["ceiling_ft"] = args.ceiling_ft
+        typed["visibility_sm"] = args.visibility_m * units.M_TO_SM
     if getattr(args, "ceiling_m", None) is not None:
-        fields["ceiling_ft"] = args.ceiling_m * units.M_TO_FT
-    return fields, report
+        typed["ceiling_ft"] = args.ceiling_m * units.M_TO_FT
+    return typed
+
+
+def decoded_report(args: argparse.Namespace) -> Any:
+    """The decoded --metar report, or None."""
+    if not getattr(args, "metar", None):
+        return None
+    from briefer.io.metar import decode_metar
+
+    return decode_metar(args.metar)
 
 
 def request_from_args(args: argparse.Namespace):
@@ -145,18 +141,15 @@ def request_from_args(args: argparse.Namespace):
     from briefer.brief import demo_request
     from briefer.errors import DomainError
     from briefer.io import catalog
+    from briefer.io.weather_input import weather_fields
     from briefer.model import BriefOptions, BriefRequest, Weather
 
     check_options(args)
-    fields, report = weather_fields(args)
+    report = decoded_report(args)
+    base_weather = None
     if getattr(args, "demo", False) or not any((args.profile, args.airfield, args.approach, args.runway)):
         base = demo_request()
-        base_fields = {k: getattr(base.weather, k) for k in ("wind_from_deg", "wind_speed_kt", "wind_gust_kt",
-                       "wind_reference", "oat_c", "altimeter_hpa", "visibility_sm", "ceiling_ft")}
-        if fields:   # a report or typed weather replaces the demo weather wholesale, then overrides
-            base_fields = {k: None for k in base_fields} | {"wind_reference": "true"}
-        base_fields.update(fields)
-        fields = base_fields
+        base_weather = base.weather.to_mapping()   # the demo's weather: typed values override its parts
         names = dict(DEMO)
     else:
         base = None
@@ -179,6 +172,8 @@ def request_from_args(args: argparse.Namespace):
         raise
     request = BriefRequest(
         profile=profile, configuration=args.configuration, airfield=airfield, approach=appr.name,
-        landing_runway=args.runway or names["runway"], weather=Weather(**fields), weight_lb=weight_lb_from_args(args),
+        landing_runway=args.runway or names["runway"],
+        weather=Weather(**weather_fields(report=report, typed=typed_weather(args), base=base_weather)),
+        weight_lb=weight_lb_from_args(args),
         bank_deg=args.bank_deg, options=BriefOptions(criteria=args.criteria))
     return request, report

@@ -226,18 +226,15 @@ def decode_report(text: str):
 
 
 def weather_fields(weather: WeatherInputs) -> tuple[dict[str, Any], Any]:
-    """Model weather fields: the report's, then the typed values over them; and the report."""
-    from briefer.io.metar import weather_from_metar
+    """Model weather fields: the report's, then the typed values over them (the one rule of
+    `briefer.io.weather_input`); and the report."""
+    from briefer.io.weather_input import weather_fields as combined
 
     try:
         report = decode_report(weather.report)
     except BriefingError as exc:
         raise InputError(str(exc), field="report") from None
-    fields: dict[str, Any] = {}
-    if report is not None:
-        fields.update({k: v for k, v in weather_from_metar(report).items() if v is not None})
-    fields.update(weather.explicit())
-    return fields, report
+    return combined(report=report, typed=weather.explicit()), report
 
 
 # Where a model field's error is shown in the app.
