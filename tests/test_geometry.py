@@ -476,3 +476,31 @@ def test_bearing_sector_contains_matches_bearing_range(frm, span, points):
         if math.hypot(*p) * math.radians(min(abs(rel), abs(rel - span), abs(rel - 360.0))) < 1e-5:
             continue
         assert s.contains(p) == (rel < span)
+
+
+def test_one_margin_rule_with_and_without_a_sector_edge_tolerance():
+    """The area's one margin rule (ProtectedArea.margin_m / track_margin_m), Doc 8168 Vol I Part I
+    Sec 4 Ch 7, 7.3.4 (circling prohibited in the whole excluded sector). Hand-derived on the
+    stadium A-B with the sector "north of the runway" (its edge is the centreline y = 0):
+    - geometric margin (no tolerance): a point on the edge has 0 left, one 200 m south has 200;
+    - with a 1 m edge tolerance, a track along the edge keeps its radius margin R - 0;
+    - a point 50 m inside the sector is -50 either way (its depth), a point 0.5 m inside is
+      -0.5 geometrically but keeps R - 0.5 (distance to the hull) within the tolerance."""
+    north = side_of_centreline(A, B, "north")
+    area = ProtectedArea(centres_m=[A, B], radius_m=R_17, excluded=(north,))
+    on_edge, south, deep, shallow = (1500.0, 0.0), (1500.0, -200.0), (1500.0, 50.0), (1500.0, 0.5)
+    assert area.margin_m(on_edge) == pytest.approx(0.0, abs=1e-9)
+    assert area.margin_m(south) == pytest.approx(200.0, abs=1e-9)
+    assert area.margin_m(on_edge, sector_edge_tolerance_m=1.0) == pytest.approx(R_17, abs=1e-9)
+    assert area.margin_m(south, sector_edge_tolerance_m=1.0) == pytest.approx(R_17 - 200.0, abs=1e-9)
+    assert area.margin_m(deep) == pytest.approx(-50.0, abs=1e-9)
+    assert area.margin_m(deep, sector_edge_tolerance_m=1.0) == pytest.approx(-50.0, abs=1e-9)
+    assert area.margin_m(shallow) == pytest.approx(-0.5, abs=1e-9)
+    assert area.margin_m(shallow, sector_edge_tolerance_m=1.0) == pytest.approx(R_17 - 0.5, abs=1e-9)
+    final = np.column_stack([np.linspace(-2000.0, 0.0, 5), np.zeros(5)])   # along the edge, to A
+    tracks = np.stack([final, final + [0.0, -300.0]])                       # (2, 5, 2)
+    assert_allclose(area.track_margin_m(tracks, sector_edge_tolerance_m=1.0),
+                    [R_17 - 2000.0, R_17 - math.hypot(2000.0, 300.0)], atol=1e-9)
+    assert area.track_margin_m(final) == pytest.approx(0.0, abs=1e-9)
+    assert area.sector_clearance_m([south, (0.0, -10.0)]) == pytest.approx(10.0, abs=1e-9)
+    assert ProtectedArea(centres_m=[A, B], radius_m=R_17).sector_clearance_m([south]) == math.inf

@@ -155,7 +155,7 @@ def _plan_info(s: Situation, best: maneuver.RankedPlan, alts: tuple[Alternative,
     # straight-in arrival) passes a side sector's edge or a sector's apex at the threshold by design.
     off_line = np.abs(np.asarray(plan.track_xy_m)[:, 1]) > CENTRELINE_BAND_M
     if s.area.excluded and off_line.any():
-        sector_clear = float(min(np.min(sec.clearance_m(track_pts[off_line])) for sec in s.area.excluded)) * nm
+        sector_clear = s.area.sector_clearance_m(track_pts[off_line]) * nm
     shape_text = SHAPE_TEXT.get(plan.shape, plan.shape)
     base_s = dict(zip(plan.leg_names, plan.leg_times_s)).get("base", 0.0)
     if plan.shape == "downwind-join" and base_s >= 1.0:

@@ -68,18 +68,14 @@ class Situation:
     def margins_fn(self, tracks_rw: np.ndarray) -> np.ndarray:
         """Vectorised: tracks (..., N, 2) in the runway frame -> smallest margin of each (...).
 
-        The margin is the distance left to the radius boundary. A not-authorised sector is a
-        hard limit: a point more than EDGE_TOLERANCE_M inside one makes the margin minus its
-        depth, but flying along its edge (a side sector's edge is the centreline, where the
-        final is flown) does not shrink the margin.
+        The area's one margin rule (`ProtectedArea.margin_m`) with a sector edge tolerance of
+        EDGE_TOLERANCE_M: a not-authorised sector is a hard limit once entered, but flying
+        along its edge (a side sector's edge is the centreline, where the final is flown) does
+        not shrink the margin.
         """
         tracks_rw = np.asarray(tracks_rw, dtype=float)
-        pts = tracks_rw.reshape(-1, 2)[:, ::-1]          # (right, along): runway axes as (east, north)
-        margin = self.area_rw.radius_m - np.asarray(self.area_rw.distance_to_hull_m(pts), dtype=float)
-        for sec in self.area_rw.excluded:
-            clear = np.asarray(sec.clearance_m(pts), dtype=float)
-            margin = np.where(clear < -EDGE_TOLERANCE_M, np.minimum(margin, clear), margin)
-        return margin.reshape(tracks_rw.shape[:-1]).min(axis=-1)
+        pts = tracks_rw[..., ::-1]          # (right, along): runway axes as (east, north)
+        return np.asarray(self.area_rw.track_margin_m(pts, sector_edge_tolerance_m=EDGE_TOLERANCE_M))
 
     def margins_by_source_fn(self, tracks_rw: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """:meth:`margins_fn` for the judgement's batch, and per track whether its margin is a

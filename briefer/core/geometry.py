@@ -911,16 +911,31 @@ class ProtectedArea:
             dist = np.where(np.all(cr >= 0.0, axis=-1), 0.0, dist)
         return as_float(dist)
 
-    def margin_m(self, points: ArrayLike) -> Numeric:
+    def margin_m(self, points: ArrayLike, *, sector_edge_tolerance_m: float | None = None) -> Numeric:
         """Distance left before leaving the authorised area; negative outside it. [m]
 
-        R - dist(p, hull), limited by the clearance to every excluded sector (see Notes of the
-        class): negative inside an excluded sector.
+        The one area-margin rule: R - dist(p, hull), limited by the excluded sectors (see Notes
+        of the class).
+
+        Parameters
+        ----------
+        points : array_like, shape (..., 2)
+            Points (east, north). [m]
+        sector_edge_tolerance_m : float or None
+            None: every sector limits the margin by its signed clearance (the geometric margin:
+            a point near a sector has only its distance to it left). A number t: a sector counts
+            only where a point is more than t inside it (minus its depth), so a track flown
+            along a sector's edge (the final on the centreline that bounds a side sector) keeps
+            its radius margin. [m]
         """
         p = _points(points)
         margin = self.radius_m - np.asarray(self.distance_to_hull_m(p))
         for s in self.excluded:
-            margin = np.minimum(margin, s.clearance_m(p))
+            clear = np.asarray(s.clearance_m(p), dtype=float)
+            if sector_edge_tolerance_m is None:
+                margin = np.minimum(margin, clear)
+            else:
+                margin = np.where(clear < -sector_edge_tolerance_m, np.minimum(margin, clear), margin)
         return as_float(margin)
 
     def contains(self, points: ArrayLike) -> Union[bool, npt.NDArray[np.bool_]]:
@@ -928,12 +943,32 @@ class ProtectedArea:
         inside = np.asarray(self.margin_m(points)) >= -_CONTAINS_TOL_M
         return bool(inside) if inside.ndim == 0 else inside
 
-    def track_margin_m(self, track: ArrayLike) -> float:
-        """Smallest margin over a whole track, shape (N, 2), N >= 1; negative if it leaves. [m]"""
-        t = _points(track, "track")
-        if t.ndim != 2 or t.shape[0] < 1:
+    def track_margin_m(self, tracks: ArrayLike, *, sector_edge_tolerance_m: float | None = None) -> Numeric:
+        """Smallest margin (`margin_m`) along each track; negative if it leaves. [m]
+
+        Parameters
+        ----------
+        tracks : array_like, shape (..., N, 2), N >= 1
+            Tracks (east, north). [m]
+        sector_edge_tolerance_m : float or None
+            As in `margin_m`.
+
+        Returns
+        -------
+        float or ndarray, shape (...)
+            One margin per track (a float for one (N, 2) track). [m]
+        """
+        t = _points(tracks, "track")
+        if t.ndim < 2 or t.shape[-2] < 1:
             raise DomainError(f"track must be an (N, 2) array with N >= 1; got shape {t.shape}")
-        return float(np.min(self.margin_m(t)))
+        margin = np.asarray(self.margin_m(t.reshape(-1, 2), sector_edge_tolerance_m=sector_edge_tolerance_m))
+        return as_float(margin.reshape(t.shape[:-1]).min(axis=-1))
+
+    def sector_clearance_m(self, points: ArrayLike) -> float:
+        """Smallest signed clearance of the points to any excluded sector (negative: inside one);
+        +inf without sectors. [m]"""
+        p = _points(points)
+        return float(min((np.min(sec.clearance_m(p)) for sec in self.excluded), default=math.inf))
 
     def boundary(self, n: int = 180) -> npt.NDArray[np.float64]:
         """Closed polyline of the area's outline (sectors not cut; draw them with their polygons).
