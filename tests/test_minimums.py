@@ -330,3 +330,22 @@ def test_valley_without_sectors(valley):
     assert res.category("D").ignored_in_sectors == ()
     with pytest.raises(DomainError, match="no practice minimum"):
         practice_minimums_for_airfield(valley, categories=["A"]).category("B")
+
+
+def test_controlling_obstacle_is_the_highest_inside_the_authorised_area():
+    """One rule for the brief and practice minimums (AIM 5-4-20; Doc 8168 Vol I Part I Sec 4 Ch 7,
+    7.3.4: an excluded sector does not count). Area: one centre, R = 1000 m, the sector "east of"
+    a north-south line through the centre cut out. Hand-placed obstacles:
+    0: 900 ft at (-500, 0) inside; 1: 1200 ft at (500, 0) in the sector; 2: 1200 ft at (0, 1500)
+    outside the radius; 3: 900 ft at (0, -500) inside (ties with 0: the first charted wins);
+    4: 800 ft at (-1000, 0) exactly on the arc (the boundary counts as inside)."""
+    from briefer.core.geometry import ProtectedArea, side_of_centreline
+    from briefer.core.minimums import controlling_obstacle_index
+
+    east = side_of_centreline((0.0, -3000.0), (0.0, 3000.0), "east")
+    area = ProtectedArea(centres_m=[(0.0, 0.0)], radius_m=1000.0, excluded=(east,))
+    pts = [(-500.0, 0.0), (500.0, 0.0), (0.0, 1500.0), (0.0, -500.0), (-1000.0, 0.0)]
+    assert controlling_obstacle_index(area, pts, [900.0, 1200.0, 1200.0, 900.0, 800.0]) == 0
+    assert controlling_obstacle_index(area, pts, [900.0, 1200.0, 1200.0, 900.0, 950.0]) == 4
+    assert controlling_obstacle_index(area, pts[1:3], [1200.0, 1200.0]) is None
+    assert controlling_obstacle_index(area, np.zeros((0, 2)), []) is None

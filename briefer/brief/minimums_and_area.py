@@ -19,7 +19,7 @@ from briefer.brief.circling_only import circling_only_reasons
 from briefer.brief.findings import FindingList
 from briefer.brief.situation_inputs import Situation
 from briefer.brief.variation import variation_findings
-from briefer.core import coldtemp, criteria
+from briefer.core import coldtemp, criteria, minimums
 from briefer.model import Sector
 from briefer.result import (
     AreaInfo, CategoryInfo, ColdCorrection, Finding, MinimumsInfo, ObstacleDrawing, frozen_array,
@@ -165,17 +165,14 @@ def _cold_correction(s: Situation, haa: float | None, found: FindingList) -> Col
 
 
 def _obstacles(s: Situation):
-    """Every obstacle as drawn (inside the area or not) and the controlling one (the highest inside)."""
-    obstacles = []
-    controlling = None
-    for ob, ob_xy in zip(s.request.airfield.obstacles, s.layout.obstacles_m):
-        oxy = np.array(ob_xy, dtype=float)
-        inside = bool(s.area.contains(oxy))
-        obstacles.append(ObstacleDrawing(name=ob.name, xy_m=frozen_array(oxy), elevation_ft=ob.elevation_ft,
-                                         inside_area=inside))
-        if inside and (controlling is None or ob.elevation_ft > controlling.elevation_ft):
-            controlling = ob
-    return tuple(obstacles), controlling
+    """Every obstacle as drawn (inside the area or not) and the controlling one
+    (`core.minimums.controlling_obstacle_index`)."""
+    obs = s.request.airfield.obstacles
+    xy = [np.array(ob_xy, dtype=float) for ob_xy in s.layout.obstacles_m]
+    drawn = tuple(ObstacleDrawing(name=ob.name, xy_m=frozen_array(oxy), elevation_ft=ob.elevation_ft,
+                                  inside_area=bool(s.area.contains(oxy))) for ob, oxy in zip(obs, xy))
+    idx = minimums.controlling_obstacle_index(s.area, np.array(xy).reshape(-1, 2), [ob.elevation_ft for ob in obs])
+    return drawn, None if idx is None else obs[idx]
 
 
 def _sector_text(sector: Sector) -> str:

@@ -56,6 +56,7 @@ __all__ = [
     "practice_minimum",
     "practice_minimums",
     "practice_minimums_for_airfield",
+    "controlling_obstacle_index",
 ]
 
 PRACTICE_NOTICE = "PRACTICE VALUES — NOT A PUBLISHED PROCEDURE"
@@ -291,13 +292,49 @@ class PracticeMinimums:
 # --------------------------------------------------------------------------------------------
 # The computation
 # --------------------------------------------------------------------------------------------
+def controlling_obstacle_index(area: geometry.ProtectedArea, points_m: Any,
+                               elevations_ft: Sequence[float]) -> int | None:
+    """The controlling obstacle: the highest one inside the authorised area.
+
+    Parameters
+    ----------
+    area : ProtectedArea
+        The circling area, not-authorised sectors cut out; an obstacle on its boundary counts
+        as inside (`ProtectedArea.contains`), the conservative reading.
+    points_m : array_like, shape (K, 2)
+        Obstacle positions (east, north). [m]
+    elevations_ft : sequence of float
+        Their elevations, same order. [ft]
+
+    Returns
+    -------
+    int or None
+        Index of the highest obstacle inside (the first charted wins a tie); None if none is.
+
+    Notes
+    -----
+    The MDA must clear the highest obstacle in the circling area by the criteria's required
+    obstacle clearance: FAA Order 8260.3 (TERPS) circling ROC, ICAO Doc 8168 Vol II Part I
+    Sec 4 Ch 7 (MOC) [1]_ [4]_.
+    """
+    if len(elevations_ft) == 0:
+        return None
+    inside = np.atleast_1d(np.asarray(area.contains(np.asarray(points_m, dtype=float).reshape(-1, 2))))
+    best: int | None = None
+    for i in np.flatnonzero(inside):
+        if best is None or elevations_ft[i] > elevations_ft[best]:
+            best = int(i)
+    return best
+
+
 @dataclass(frozen=True, slots=True)
 class _Field:
-    """The geometry shared by every radius: obstacle distances and sector membership."""
+    """The geometry shared by every radius: the area's centres and sectors, the obstacles."""
 
+    centres_m: Any
+    excluded: tuple[geometry.Sector, ...]
     obstacles: tuple[ObstaclePoint, ...]
     distance_m: np.ndarray       # distance to the hull of the thresholds
-    in_sector: np.ndarray        # inside a not-authorised sector (never counts)
 
 
 def _field(centres_m: Any, obstacles: Sequence[ObstaclePoint], excluded: Sequence[geometry.Sector]) -> _Field:
@@ -308,31 +345,26 @@ def _field(centres_m: Any, obstacles: Sequence[ObstaclePoint], excluded: Sequenc
     # the radius does not matter for the hull distance; 1 m keeps ProtectedArea's checks happy
     area = geometry.ProtectedArea(centres_m=centres_m, radius_m=1.0, excluded=tuple(excluded))
     if not obstacles:
-        return _Field((), np.zeros(0), np.zeros(0, dtype=bool))
+        return _Field(centres_m, area.excluded, (), np.zeros(0))
     pts = np.array([ob.xy_m for ob in obstacles], dtype=float)
     dist = np.asarray(area.distance_to_hull_m(pts), dtype=float).reshape(-1)
-    in_sector = np.zeros(len(obstacles), dtype=bool)
-    for sector in area.excluded:
-        in_sector |= np.asarray(sector.contains(pts), dtype=bool).reshape(-1)
-    return _Field(obstacles, dist, in_sector)
-
-
-_INSIDE_TOL_M = 1e-6   # an obstacle on the area's edge counts as inside (as ProtectedArea.contains)
+    return _Field(centres_m, area.excluded, obstacles, dist)
 
 
 def _controlling(fld: _Field, radius_nm: float) -> tuple[int | None, tuple[str, ...]]:
-    """Index of the highest obstacle inside the authorised area (first charted wins a tie), and
-    the names of those within the radius but in a not-authorised sector."""
+    """Index of the controlling obstacle at this radius (`controlling_obstacle_index`), and the
+    names of those within the radius but in a not-authorised sector."""
     if not fld.obstacles:
         return None, ()
-    within = fld.distance_m <= radius_nm * NM_TO_M + _INSIDE_TOL_M
-    counted = within & ~fld.in_sector
-    ignored = tuple(ob.name for ob, w in zip(fld.obstacles, within & fld.in_sector) if w)
-    best: int | None = None
-    for i in np.flatnonzero(counted):
-        if best is None or fld.obstacles[i].elevation_ft > fld.obstacles[best].elevation_ft:
-            best = int(i)
-    return best, ignored
+    area = geometry.ProtectedArea(centres_m=fld.centres_m, radius_m=radius_nm * NM_TO_M, excluded=fld.excluded)
+    pts = np.array([ob.xy_m for ob in fld.obstacles], dtype=float)
+    inside = np.atleast_1d(np.asarray(area.contains(pts)))
+    within = fld.distance_m <= area.radius_m + _INSIDE_TOL_M
+    ignored = tuple(ob.name for ob, w, i in zip(fld.obstacles, within, inside) if w and not i)
+    return controlling_obstacle_index(area, pts, [ob.elevation_ft for ob in fld.obstacles]), ignored
+
+
+_INSIDE_TOL_M = 1e-6   # an obstacle on the area's edge counts as inside (as ProtectedArea.contains)
 
 
 def _radius(category: str, criteria: str, mda_ft: float, elevation_ft: float) -> cr.AreaRadius:
