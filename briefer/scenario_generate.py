@@ -170,12 +170,9 @@ class Pair:
 
 def landing_course_deg_true(airfield: Airfield, designator: str) -> float:
     """The landing course of a runway end, true (as `briefer.brief` computes it)."""
-    from briefer.core import geometry
+    from briefer.core.airfield_geometry import AirfieldGeometry
 
-    land, opp = airfield.runway_by_designator(designator)
-    a = airfield.layout.thresholds_m[land.designator]
-    b = airfield.layout.thresholds_m[opp.designator]
-    return float(geometry.runway_axes(a, b).landing_course_deg_true)
+    return float(AirfieldGeometry(airfield).runway(designator).landing_course_deg_true)
 
 
 def candidate_pairs(airfield: Airfield, *, approach: str | None = None, runway: str | None = None) -> list[Pair]:

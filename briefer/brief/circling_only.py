@@ -24,14 +24,14 @@ def circling_only_reasons(s: Situation, category: str, crit: str) -> tuple[tuple
         for des in (rw.threshold_a.designator, rw.threshold_b.designator):
             if appr.runway is not None and des != appr.runway:
                 continue
-            thr, opp = af.runway_by_designator(des)
-            a, b = s.thresholds_xy[thr.designator], s.thresholds_xy[opp.designator]
-            course = geometry.runway_axes(a, b).landing_course_deg_true
+            thr, _ = af.runway_by_designator(des)
+            a = s.thresholds_xy[thr.designator]
+            course = s.airfield_geometry.runway(des).landing_course_deg_true
             diff = abs(float(units.wrap_180(final_true - course)))
             if best is None or diff < best[0]:
                 best = (diff, thr, a, course)
     _, thr, a, course = best
-    faf = np.array(s.layout.fixes_m[appr.name][0])
+    faf = s.airfield_geometry.fixes_xy_m(appr)[0]
     dist_nm = float(np.hypot(*(faf - a))) * units.M_TO_NM
     gradient = 0.0
     if appr.faf.altitude_ft is not None and dist_nm > 0:

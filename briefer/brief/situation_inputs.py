@@ -20,6 +20,7 @@ import numpy as np
 
 from briefer import units
 from briefer.core import atmosphere, criteria, geometry, maneuver, turn, wind
+from briefer.core.airfield_geometry import AirfieldGeometry
 from briefer.core.layout import Layout
 from briefer.model import BriefRequest
 
@@ -56,6 +57,7 @@ class Situation:
     pressure_altitude_ft: float            # at the MDA (or the plan's height when not authorised)
     oat_at_mda_c: float
     headwind_kt: float                     # steady, on the landing runway; a variable wind counts as tailwind
+    airfield_geometry: AirfieldGeometry    # runway axes, arc centres, sectors, area: the one composition
 
     def track_local(self, track_rw: np.ndarray) -> np.ndarray:
         track_rw = np.asarray(track_rw, dtype=float).reshape(-1, 2)
@@ -133,10 +135,10 @@ def situation(request: BriefRequest) -> Situation:
     crit = request.options.criteria or appr.criteria
     weight_factor = prof.weight_speed_factor(request.landing_weight_lb)
 
-    layout = af.layout
-    xy = {d: np.array(p, dtype=float) for d, p in layout.thresholds_m.items()}
-    land, opp = af.runway_by_designator(request.landing_runway)
-    rf = geometry.runway_axes(xy[land.designator], xy[opp.designator])
+    geo = AirfieldGeometry(af)
+    layout, xy = af.layout, geo.thresholds_xy_m
+    land, _ = af.runway_by_designator(request.landing_runway)
+    rf = geo.runway(request.landing_runway)
 
     wx = request.weather
     wind_from = wx.wind_from_deg_true(var)
@@ -161,10 +163,7 @@ def situation(request: BriefRequest) -> Situation:
 
     radius = criteria.circling_area_radius_nm(det.category, criteria=crit, mda_ft_msl=plan_mda,
                                               airport_elevation_ft=af.elevation_ft)
-    sectors = tuple(geometry.charted_sector(sec, af, xy) for sec in appr.not_authorised_sectors)
-    on_ends = criteria.circling_arc_centre(crit).centre == criteria.ARC_CENTRE_RUNWAY_END
-    area = geometry.ProtectedArea(centres_m=geometry.circling_centres_m(af, xy, on_runway_ends=on_ends),
-                                  radius_m=radius.radius_nm * units.NM_TO_M, excluded=sectors)
+    area = geo.area(criteria=crit, radius_m=radius.radius_nm * units.NM_TO_M, approach=appr)
 
     area_rw = geometry.area_in_runway_axes(area, rf)
 
@@ -175,8 +174,7 @@ def situation(request: BriefRequest) -> Situation:
     tas = float(atmosphere.tas_from_cas_kt(circling_ias, pressure_altitude_ft=pa, oat_c=oat_mda))
     bank = request.bank_deg if request.bank_deg is not None else cfg.bank_target_deg
 
-    map_xy = np.array(layout.fixes_m[appr.name][1], dtype=float)
-    ax, ay = rf.to_runway_coords(map_xy)
+    ax, ay = rf.to_runway_coords(geo.fixes_xy_m(appr)[1])
     arrival_course = float(units.wrap_360(geometry.true_from_magnetic_deg(appr.final_course_deg_mag, var)
                                           - rf.landing_course_deg_true))
     rel_wind = 0.0 if wind_from is None else float(wind_from - rf.landing_course_deg_true)
@@ -210,4 +208,5 @@ def situation(request: BriefRequest) -> Situation:
                      bank_limit_deg=cfg.bank_limit_deg, aoa_margin_fn=aoa_margin, category=det, mda_ft=mda,
                      plan_mda_ft=plan_mda, circling_ias_kt=circling_ias, wind_additive_kt=additive,
                      wind_from_true=wind_from, wind_speed_kt=speed, oat_c=oat, altimeter_hpa=alt_hpa,
-                     thresholds_xy=xy, pressure_altitude_ft=pa, oat_at_mda_c=oat_mda, headwind_kt=headwind)
+                     thresholds_xy=xy, pressure_altitude_ft=pa, oat_at_mda_c=oat_mda, headwind_kt=headwind,
+                     airfield_geometry=geo)

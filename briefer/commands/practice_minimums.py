@@ -134,31 +134,26 @@ def plan_scene(airfield: Any, result: Any) -> Any:
     controlling obstacles labelled with their elevation and categories."""
     import numpy as np
 
-    from briefer.core import geometry
-
+    from briefer.core.airfield_geometry import AirfieldGeometry
     from briefer.render.scene import Bounds, Label, Marker, Polygon, Polyline, Role, Scene
     from briefer.units import NM_TO_M
 
-    from briefer.core import criteria as cr
-
-    xy = {d: np.array(p, dtype=float) for d, p in airfield.layout.thresholds_m.items()}
-    on_ends = cr.circling_arc_centre(result.criteria).centre == cr.ARC_CENTRE_RUNWAY_END
-    centres = geometry.circling_centres_m(airfield, xy, on_runway_ends=on_ends)
+    geo = AirfieldGeometry(airfield)
+    appr = airfield.approach(result.approach_name) if result.approach_name else None
     items: list[Any] = []
     largest = max(c.radius_nm for c in result.categories) * NM_TO_M
     outer = None
     for c in result.categories:
-        boundary = geometry.ProtectedArea(centres_m=centres, radius_m=c.radius_nm * NM_TO_M).boundary()
+        boundary = geo.area(criteria=result.criteria, radius_m=c.radius_nm * NM_TO_M).boundary()
         items.append(Polyline(points=[tuple(p) for p in boundary], role=Role.PROTECTED_AREA, closed=True))
         top = boundary[int(np.argmax(boundary[:, 1]))]
         items.append(Label(point=(float(top[0]), float(top[1])), text=c.category))
         if c.radius_nm * NM_TO_M == largest:
             outer = boundary
-    if result.approach_name:
-        appr = airfield.approach(result.approach_name)
+    if appr is not None:
         clip = largest + max(rw.threshold_distance_m for rw in airfield.runways) / 2.0
-        for s in appr.not_authorised_sectors:
-            poly = geometry.charted_sector(s, airfield, xy).polygon(clip)
+        for sector in geo.sectors(appr):
+            poly = sector.polygon(clip)
             if len(poly) >= 3:
                 items.append(Polygon(points=[tuple(p) for p in poly], role=Role.EXCLUDED_SECTOR, filled=True))
     controlling: dict[str, list[str]] = {}
@@ -170,7 +165,7 @@ def plan_scene(airfield: Any, result: Any) -> Any:
         label = f"{ob.elevation_ft:.0f} {''.join(cats)}" if cats else ""
         items.append(Marker(point=p, role=Role.OBSTACLE, label=label))
     for rw in airfield.runways:
-        a, b = xy[rw.threshold_a.designator], xy[rw.threshold_b.designator]
+        a, b = geo.runway_ends_xy_m(rw)
         items.append(Polyline(points=[tuple(a), tuple(b)], role=Role.RUNWAY))
     x0, y0 = outer.min(axis=0)
     x1, y1 = outer.max(axis=0)

@@ -40,6 +40,7 @@ import numpy as np
 
 from briefer.core import criteria as cr
 from briefer.core import geometry
+from briefer.core.airfield_geometry import AirfieldGeometry
 from briefer.errors import DomainError
 from briefer.units import M_TO_NM, M_TO_SM, NM_TO_M
 
@@ -540,9 +541,9 @@ def practice_minimums_for_airfield(airfield: Airfield, *, criteria: str | None =
 
     Notes
     -----
-    Geometry as `briefer.brief` builds it: the local frame at the airfield reference point,
-    bearings sectors turned from magnetic to true by the airfield's variation, side sectors as
-    half-planes of the runway centreline. See `practice_minimum` for the computation.
+    Geometry as `briefer.brief` builds it (`briefer.core.airfield_geometry.AirfieldGeometry`):
+    the airfield's local frame, bearings sectors turned from magnetic to true by the airfield's
+    variation, side sectors as half-planes of the runway centreline. See `practice_minimum` for the computation.
     """
     appr = airfield.approach(approach) if isinstance(approach, str) else approach
     if criteria is None:
@@ -553,14 +554,12 @@ def practice_minimums_for_airfield(airfield: Airfield, *, criteria: str | None =
             crit, basis = first.criteria, f"the criteria of the airfield's first approach ({first.name})"
     else:
         crit, basis = cr.check_criteria(criteria), "chosen"
-    layout = airfield.layout          # every position in the local frame (briefer.core.layout)
-    xy = {d: np.array(p, dtype=float) for d, p in layout.thresholds_m.items()}
-    on_ends = cr.circling_arc_centre(crit).centre == cr.ARC_CENTRE_RUNWAY_END
-    centres = geometry.circling_centres_m(airfield, xy, on_runway_ends=on_ends)
+    geo = AirfieldGeometry(airfield)  # every position in the local frame, the centres and sectors
+    centres = geo.arc_centres_m(crit)
     obstacles = tuple(ObstaclePoint(name=ob.name, xy_m=(float(p[0]), float(p[1])), elevation_ft=ob.elevation_ft)
-                      for ob, p in zip(airfield.obstacles, layout.obstacles_m))
+                      for ob, p in zip(airfield.obstacles, geo.obstacles_xy_m()))
     sectors = tuple(appr.not_authorised_sectors) if appr is not None else ()
-    excluded = tuple(geometry.charted_sector(s, airfield, xy) for s in sectors)
+    excluded = geo.sectors(appr)
     results = []
     for cat in categories:
         res = practice_minimum(cr.check_category(cat.upper()), criteria=crit, centres_m=centres,
