@@ -25,7 +25,7 @@ from collections.abc import Mapping
 from dataclasses import MISSING, dataclass, field, fields
 from typing import Any, ClassVar
 
-from briefer import units
+from briefer import units, vocabulary
 from briefer.errors import DataFileError, DomainError
 
 FORMAT_VERSION = 1
@@ -35,8 +35,8 @@ KIND_PROFILE = "aircraft-profile"
 KIND_AIRFIELD = "airfield"
 KINDS = (KIND_PROFILE, KIND_AIRFIELD)
 
-CATEGORIES = ("A", "B", "C", "D", "E")
-CRITERIA = ("terps-legacy", "terps-expanded", "icao")
+CATEGORIES = vocabulary.CATEGORIES
+CRITERIA = vocabulary.CRITERIA_SETS
 STALL_WARNINGS = ("horn", "shaker", "pusher", "aural", "buffet", "none")
 WIND_REFERENCES = ("true", "magnetic")
 SIDES = ("north", "east", "south", "west")

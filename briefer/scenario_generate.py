@@ -32,6 +32,7 @@ from fractions import Fraction
 from typing import Any
 
 from briefer import units
+from briefer.core import angles
 from briefer.errors import DomainError
 from briefer.model import AircraftProfile, Airfield, BriefRequest, Weather
 from briefer.scenarios import EMPHASES, EMPHASIS_TITLES, LoadedScenario, Scenario, ScenarioWeather
@@ -188,7 +189,7 @@ def candidate_pairs(airfield: Airfield, *, approach: str | None = None, runway: 
         final_true = (ap.final_course_deg_mag + airfield.magnetic_variation_deg) % 360.0
         for des in designators:
             course = landing_course_deg_true(airfield, des)
-            off_landing = abs(float(units.wrap_180(final_true - course)))
+            off_landing = abs(float(angles.wrap_180(final_true - course)))
             out.append(Pair(approach=ap.name, runway=des, landing_course_deg_true=course,
                             arrival_off_reciprocal_deg=180.0 - off_landing, arrival_off_landing_deg=off_landing))
     circles = [p for p in out if p.arrival_off_landing_deg > ALIGNED_WITHIN_DEG]
@@ -334,7 +335,7 @@ def base_tailwind_kt(*, wind_from_deg_true: float, wind_speed_kt: float, landing
     tail = sigma * W * sin(wind_from - landing_course), sigma = +1 for a right-hand pattern.
     """
     sigma = 1.0 if side == "right" else -1.0
-    return sigma * wind_speed_kt * float(units.sind(wind_from_deg_true - landing_course_deg_true))
+    return sigma * wind_speed_kt * float(angles.sind(wind_from_deg_true - landing_course_deg_true))
 
 
 def _tail_ok(tail_kt: float, speed_kt: float) -> bool:
@@ -355,7 +356,7 @@ def _tailwind_on_base(ctx: _Ctx, pairs: list[Pair]) -> _Case:
             continue
         rel_all = dirs_true - pair.landing_course_deg_true
         # only directions that can give a tailwind on base (|sin| >= 0.4) without a tailwind on final
-        keep = (np.abs(units.sind(rel_all)) >= TAILWIND_ON_BASE_MIN_FRACTION) & (units.cosd(rel_all) >= -0.1)
+        keep = (np.abs(angles.sind(rel_all)) >= TAILWIND_ON_BASE_MIN_FRACTION) & (angles.cosd(rel_all) >= -0.1)
         dirs, rel = dirs_true[keep], rel_all[keep]
         env = envelope_for(case.request, wind_from_relative_deg=rel, wind_speed_kt=speeds)
         cells = []
@@ -366,7 +367,7 @@ def _tailwind_on_base(ctx: _Ctx, pairs: list[Pair]) -> _Case:
             d, s = float(dirs[i]), float(speeds[j])
             tail = base_tailwind_kt(wind_from_deg_true=d, wind_speed_kt=s,
                                     landing_course_deg_true=pair.landing_course_deg_true, side=side)
-            head_final = s * float(units.cosd(d - pair.landing_course_deg_true))
+            head_final = s * float(angles.cosd(d - pair.landing_course_deg_true))
             if shape != "direct-turn" and _tail_ok(tail, s) and head_final >= -TAILWIND_MAX_ON_FINAL_KT:
                 cells.append((int(d), int(s)))
         # moderate winds first (a 30 kt wind is a case for a diversion, not for a circle)

@@ -1,4 +1,5 @@
-"""Named unit conversion constants and degree-based trigonometry.
+"""Named unit conversion constants (plain Python: no numpy; degree trigonometry is in
+`briefer.core.angles`).
 
 Every conversion factor of the project lives here (a test checks that no bare conversion literal
 appears elsewhere). The definitions are exact where the unit is defined exactly.
@@ -14,10 +15,10 @@ References
 from __future__ import annotations
 
 import math
+from typing import TYPE_CHECKING
 
-import numpy as np
-
-from briefer.core._types import Numeric
+if TYPE_CHECKING:   # plain Python at run time: the file formats and the help load without numpy
+    from briefer.core._types import Numeric
 
 # --- length ---------------------------------------------------------------------------
 FT_TO_M = 0.3048                      # [1] exact
@@ -64,48 +65,6 @@ def celsius_from_kelvin(temperature_k: Numeric) -> Numeric:
 
 # --- gravity --------------------------------------------------------------------------
 G0_MPS2 = 9.80665                     # [2] standard acceleration of gravity
-
-
-# --- angles ---------------------------------------------------------------------------
-def sind(angle_deg: Numeric) -> Numeric:
-    """Sine of an angle in degrees."""
-    return np.sin(np.radians(angle_deg))
-
-
-def cosd(angle_deg: Numeric) -> Numeric:
-    """Cosine of an angle in degrees."""
-    return np.cos(np.radians(angle_deg))
-
-
-def tand(angle_deg: Numeric) -> Numeric:
-    """Tangent of an angle in degrees."""
-    return np.tan(np.radians(angle_deg))
-
-
-def atand(x: Numeric) -> Numeric:
-    """Arc tangent in degrees."""
-    return np.degrees(np.arctan(x))
-
-
-def atand2(y: Numeric, x: Numeric) -> Numeric:
-    """Two-argument arc tangent in degrees, (-180, 180]."""
-    return np.degrees(np.arctan2(y, x))
-
-
-def wrap_360(angle_deg: Numeric) -> Numeric:
-    """Wrap an angle to [0, 360)."""
-    return np.mod(angle_deg, 360.0)
-
-
-def wrap_180(angle_deg: Numeric) -> Numeric:
-    """Wrap an angle to [-180, 180)."""
-    return np.mod(np.asarray(angle_deg) + 180.0, 360.0) - 180.0
-
-
-def as_float(x: Numeric) -> Numeric:
-    """Return a Python float for 0-d input, else the array unchanged."""
-    arr = np.asarray(x, dtype=float)
-    return float(arr) if arr.ndim == 0 else arr
 
 
 DEG_PER_RAD = 180.0 / math.pi

@@ -45,3 +45,39 @@ def test_help_does_not_import_textual_or_fpdf():
             "print('textual' in sys.modules, 'fpdf' in sys.modules)")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
     assert out.strip() == "False False"
+
+
+def _modules_after(code: str) -> set[str]:
+    out = subprocess.run([sys.executable, "-c", code + "\nimport sys; print(' '.join(sorted(sys.modules)))"],
+                         capture_output=True, text=True, check=True).stdout
+    return set(out.strip().splitlines()[-1].split())
+
+
+def test_model_imports_no_numpy():
+    """Loading a file format (briefer.model) and the unit constants needs no numpy: the
+    vocabulary and units are plain Python (issue: one source of truth, start-up)."""
+    mods = _modules_after("import briefer.model, briefer.units, briefer.vocabulary")
+    assert "numpy" not in mods
+
+
+def test_every_help_imports_no_numpy():
+    """`briefer --help` and `briefer <command> --help` print without loading numpy (one process,
+    commands in turn: the first one that loads numpy is named)."""
+    code = """
+import contextlib, io, sys
+from briefer.cli import build_parser, main
+parser, commands = build_parser()
+for argv in [["--help"]] + [[name, "--help"] for name in sorted(commands)]:
+    with contextlib.redirect_stdout(io.StringIO()):
+        try:
+            main(argv)
+        except SystemExit:
+            pass
+    if "numpy" in sys.modules:
+        print("numpy after", argv)
+        break
+else:
+    print("clean", len(commands))
+"""
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
+    assert out.strip().splitlines()[-1].startswith("clean"), out

@@ -14,21 +14,12 @@ import pytest
 
 from briefer.cautions import CAUTIONS
 from briefer.cli import main
-from briefer.commands import area as area_cmd
-from briefer.commands import category as category_cmd
 from briefer.core import criteria as cr
 
 
 def _json(capsys, argv: list[str]) -> dict:
     assert main(argv) == 0
     return json.loads(capsys.readouterr().out)
-
-
-def test_choices_mirror_the_core():
-    # the command modules keep literal copies so that --help does not import numpy
-    assert area_cmd.CRITERIA_CHOICES == cr.CRITERIA_SETS
-    assert area_cmd.CATEGORY_CHOICES == cr.CATEGORIES
-    assert category_cmd.CRITERIA_CHOICES == cr.CRITERIA_SETS
 
 
 def test_command_modules_do_not_import_numpy():

@@ -53,7 +53,8 @@ from briefer.scenarios import (
     scenario_yaml,
     write_scenario,
 )
-from briefer.units import SM_TO_M, wrap_180
+from briefer.units import SM_TO_M
+from briefer.core.angles import wrap_180
 
 SCHEMA = Path(__file__).resolve().parent.parent / "briefer" / "schemas" / "scenario.schema.json"
 

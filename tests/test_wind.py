@@ -13,6 +13,7 @@ from hypothesis import strategies as st
 from numpy.testing import assert_allclose
 
 from briefer import units
+from briefer.core import angles
 from briefer.core import wind as w
 from briefer.errors import DomainError
 
@@ -117,11 +118,11 @@ def test_ground_velocity_from_vectors_matches_ground_speed():
     tas, wfrom, ws, crs = 130.0, 300.0, 28.0, 215.0
     hdg = w.heading_for_course_deg(tas, wind_from_deg=wfrom, wind_speed_kt=ws, course_deg=crs)
     wv = w.wind_vector_kt(wfrom, ws)
-    east = tas * units.sind(hdg) + wv.east_kt
-    north = tas * units.cosd(hdg) + wv.north_kt
+    east = tas * angles.sind(hdg) + wv.east_kt
+    north = tas * angles.cosd(hdg) + wv.north_kt
     assert_allclose(math.hypot(east, north),
                     w.ground_speed_kt(tas, wind_from_deg=wfrom, wind_speed_kt=ws, course_deg=crs), rtol=1e-12)
-    assert_allclose(units.wrap_360(units.atand2(east, north)), crs, atol=1e-9)
+    assert_allclose(angles.wrap_360(angles.atand2(east, north)), crs, atol=1e-9)
 
 
 # --- properties -------------------------------------------------------------------------------------
@@ -130,8 +131,8 @@ def test_ground_velocity_from_vectors_matches_ground_speed():
 def test_crosswind_symmetry(speed, course, offset):
     """Property (STYLE F): winds mirrored about the course have the same headwind and opposite
     crosswinds (090 vs 270 on a north course is the special case)."""
-    right = w.wind_components_kt(float(units.wrap_360(course + offset)), speed, course_deg=course)
-    left = w.wind_components_kt(float(units.wrap_360(course - offset)), speed, course_deg=course)
+    right = w.wind_components_kt(float(angles.wrap_360(course + offset)), speed, course_deg=course)
+    left = w.wind_components_kt(float(angles.wrap_360(course - offset)), speed, course_deg=course)
     assert_allclose(right.headwind_kt, left.headwind_kt, atol=1e-9)
     assert_allclose(right.crosswind_from_right_kt, -left.crosswind_from_right_kt, atol=1e-9)
 

@@ -9,6 +9,7 @@ from typing import Any
 
 from briefer.commands._common import finite_float
 from briefer.demo import SITUATION as DEMO
+from briefer.vocabulary import CRITERIA_SETS
 
 
 def add_situation_arguments(parser: argparse.ArgumentParser, *, demo: bool = True) -> None:
@@ -25,7 +26,7 @@ def add_situation_arguments(parser: argparse.ArgumentParser, *, demo: bool = Tru
     wt.add_argument("--weight-lb", type=finite_float, metavar="W", help="landing weight (default: maximum)")
     wt.add_argument("--weight-kg", type=finite_float, metavar="W", help="landing weight in kilograms")
     g.add_argument("--bank-deg", type=finite_float, metavar="B", help="planned bank (default: the profile's)")
-    g.add_argument("--criteria", choices=("terps-legacy", "terps-expanded", "icao"),
+    g.add_argument("--criteria", choices=CRITERIA_SETS,
                    help="criteria set (default: the approach's own)")
     w = parser.add_argument_group("weather (values given here override a --metar report)")
     w.add_argument("--metar", metavar="REPORT", help="a METAR/SPECI report to fill the weather")

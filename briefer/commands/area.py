@@ -6,6 +6,7 @@ import argparse
 from typing import Any
 
 from briefer.commands._common import add_json_flag, finite_float
+from briefer.vocabulary import CATEGORIES, CRITERIA_SETS
 
 NAME = "area"
 HELP = "circling-area radius: TERPS legacy, TERPS expanded (by MDA) or ICAO PANS-OPS"
@@ -18,16 +19,12 @@ DESCRIPTION = (HELP + ". terps-legacy: fixed radius per category (charts without
                "wind added to TAS) is shown beside the published one.")
 ORDER = 21
 
-# Mirrors briefer.core.criteria.CRITERIA_SETS / CATEGORIES (kept literal so that --help does not
-# import numpy; a test checks they agree).
-CRITERIA_CHOICES = ("terps-legacy", "terps-expanded", "icao")
-CATEGORY_CHOICES = ("A", "B", "C", "D", "E")
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    parser.add_argument("--category", type=str.upper, choices=CATEGORY_CHOICES, required=True,
+    parser.add_argument("--category", type=str.upper, choices=CATEGORIES, required=True,
                         help="approach category (the one that applies at the circling speed)")
-    parser.add_argument("--criteria", choices=CRITERIA_CHOICES, required=True,
+    parser.add_argument("--criteria", choices=CRITERIA_SETS, required=True,
                         help="design criteria of the procedure (see the chart)")
     parser.add_argument("--mda-ft", type=finite_float, metavar="M",
                         help="circling MDA, ft MSL (needed for terps-expanded)")

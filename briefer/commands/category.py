@@ -6,6 +6,7 @@ import argparse
 from typing import Any
 
 from briefer.commands._common import add_json_flag, finite_float
+from briefer.vocabulary import CRITERIA_SETS
 
 NAME = "category"
 HELP = "approach category from VREF (or 1.3 VSO), raised by a faster circling speed"
@@ -16,8 +17,6 @@ DESCRIPTION = (HELP + ". TERPS (14 CFR 97.3): circling faster than the category'
                "category applies.")
 ORDER = 20
 
-# Mirrors briefer.core.criteria.CRITERIA_SETS (literal so --help does not import numpy; tested).
-CRITERIA_CHOICES = ("terps-legacy", "terps-expanded", "icao")
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
@@ -26,7 +25,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         "(without a VREF, pass 1.3 x VSO)")
     parser.add_argument("--circling-speed-kt", type=finite_float, metavar="C",
                         help="IAS planned in the circle, kt")
-    parser.add_argument("--criteria", choices=CRITERIA_CHOICES, default="terps-expanded",
+    parser.add_argument("--criteria", choices=CRITERIA_SETS, default="terps-expanded",
                         help="design criteria (default terps-expanded; both TERPS sets give the "
                         "same category)")
     add_json_flag(parser)

@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import argparse
 from typing import Any
+from briefer.vocabulary import CATEGORIES, CRITERIA_SETS
 
 NAME = "practice-minimums"
 HELP = "practice circling minimums from the criteria and the airfield's obstacles (not a procedure)"
@@ -19,8 +20,6 @@ DESCRIPTION = (HELP + ". For each category: the circling-area radius (terps-expa
                "memory are marked. PRACTICE VALUES - NOT A PUBLISHED PROCEDURE.")
 ORDER = 30
 
-CRITERIA_CHOICES = ("terps-legacy", "terps-expanded", "icao")   # = core.criteria.CRITERIA_SETS
-CATEGORY_CHOICES = ("A", "B", "C", "D", "E")
 PLAN_MAX_COLS = 100
 
 
@@ -29,11 +28,11 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
 
     parser.add_argument("--airfield", required=True, metavar="FILE|NAME",
                         help="airfield (a YAML file, ident or name)")
-    parser.add_argument("--criteria", choices=CRITERIA_CHOICES,
+    parser.add_argument("--criteria", choices=CRITERIA_SETS,
                         help="criteria set (default: the approach's own, else the airfield's first approach's)")
     parser.add_argument("--approach", metavar="NAME",
                         help="apply this approach's not-authorised sectors and compare with its circling line")
-    parser.add_argument("--category", type=str.upper, choices=CATEGORY_CHOICES, action="append",
+    parser.add_argument("--category", type=str.upper, choices=CATEGORIES, action="append",
                         help="only this category (repeatable; default A to E)")
     parser.add_argument("--plan", action="store_true",
                         help="also draw the areas and the controlling obstacles (braille, or ASCII "
@@ -179,7 +178,7 @@ def run(args: argparse.Namespace) -> int:
     from briefer.io import catalog
 
     airfield = catalog.find_airfield(args.airfield, dirs=args.airfield_dir)
-    categories = tuple(dict.fromkeys(args.category)) if args.category else CATEGORY_CHOICES
+    categories = tuple(dict.fromkeys(args.category)) if args.category else CATEGORIES
     result = practice_minimums_for_airfield(airfield, criteria=args.criteria, approach=args.approach,
                                             categories=categories)
     if args.json:

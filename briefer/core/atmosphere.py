@@ -39,6 +39,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from briefer import units
+from briefer.core import angles
 from briefer.core._types import Numeric
 from briefer.errors import DomainError
 
@@ -169,7 +170,7 @@ def isa_temperature_k(pressure_altitude_ft: Numeric) -> Numeric:
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 2, Table A.
     """
     t, _ = _isa_t_p(_pressure_altitude_m(pressure_altitude_ft))
-    return units.as_float(t)
+    return angles.as_float(t)
 
 
 def isa_temperature_c(pressure_altitude_ft: Numeric) -> Numeric:
@@ -198,7 +199,7 @@ def isa_temperature_c(pressure_altitude_ft: Numeric) -> Numeric:
     ----------
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 2, Table A.
     """
-    return units.as_float(units.celsius_from_kelvin(np.asarray(isa_temperature_k(pressure_altitude_ft))))
+    return angles.as_float(units.celsius_from_kelvin(np.asarray(isa_temperature_k(pressure_altitude_ft))))
 
 
 def isa_pressure_hpa(pressure_altitude_ft: Numeric) -> Numeric:
@@ -229,7 +230,7 @@ def isa_pressure_hpa(pressure_altitude_ft: Numeric) -> Numeric:
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 3.
     """
     _, p = _isa_t_p(_pressure_altitude_m(pressure_altitude_ft))
-    return units.as_float(p / units.HPA_TO_PA)
+    return angles.as_float(p / units.HPA_TO_PA)
 
 
 def isa_pressure_altitude_ft(pressure_hpa: Numeric) -> Numeric:
@@ -270,7 +271,7 @@ def isa_pressure_altitude_ft(pressure_hpa: Numeric) -> Numeric:
     with np.errstate(divide="ignore"):
         h_strat = TROPOPAUSE_M - (R_J_PER_KG_K * T11_K / units.G0_MPS2) * np.log(p_pa / P11_PA)  # [1] eq. inverted
     h_m = np.where(p_pa >= P11_PA, h_tropo, h_strat)
-    return units.as_float(h_m * units.M_TO_FT)
+    return angles.as_float(h_m * units.M_TO_FT)
 
 
 def speed_of_sound_kt(oat_c: Numeric) -> Numeric:
@@ -296,7 +297,7 @@ def speed_of_sound_kt(oat_c: Numeric) -> Numeric:
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 2
        (speed of sound, gamma = 1.4).
     """
-    return units.as_float(np.sqrt(GAMMA * R_J_PER_KG_K * _oat_k(oat_c)) * units.MPS_TO_KT)  # [1] eq. a
+    return angles.as_float(np.sqrt(GAMMA * R_J_PER_KG_K * _oat_k(oat_c)) * units.MPS_TO_KT)  # [1] eq. a
 
 
 def isa_speed_of_sound_kt(pressure_altitude_ft: Numeric) -> Numeric:
@@ -305,7 +306,7 @@ def isa_speed_of_sound_kt(pressure_altitude_ft: Numeric) -> Numeric:
     Raises `DomainError` outside -5,000 to 60,000 ft. See :func:`speed_of_sound_kt`.
     """
     t_k = np.asarray(isa_temperature_k(pressure_altitude_ft))
-    return units.as_float(np.sqrt(GAMMA * R_J_PER_KG_K * t_k) * units.MPS_TO_KT)
+    return angles.as_float(np.sqrt(GAMMA * R_J_PER_KG_K * t_k) * units.MPS_TO_KT)
 
 
 def pressure_altitude_ft(altitude_ft: Numeric, *, altimeter_hpa: Numeric) -> Numeric:
@@ -344,7 +345,7 @@ def pressure_altitude_ft(altitude_ft: Numeric, *, altimeter_hpa: Numeric) -> Num
     """
     alt = _checked("altitude_ft", altitude_ft, *ALTITUDE_RANGE_FT, "ft")
     setting = _checked("altimeter_hpa", altimeter_hpa, *ALTIMETER_RANGE_HPA, "hPa")
-    return units.as_float(alt + np.asarray(isa_pressure_altitude_ft(setting)))   # [2] datum shift
+    return angles.as_float(alt + np.asarray(isa_pressure_altitude_ft(setting)))   # [2] datum shift
 
 
 def pressure_altitude_rule_of_thumb_ft(altitude_ft: Numeric, *, altimeter_hpa: Numeric) -> Numeric:
@@ -380,7 +381,7 @@ def pressure_altitude_rule_of_thumb_ft(altitude_ft: Numeric, *, altimeter_hpa: N
     """
     alt = _checked("altitude_ft", altitude_ft, *ALTITUDE_RANGE_FT, "ft")
     setting_inhg = _checked("altimeter_hpa", altimeter_hpa, *ALTIMETER_RANGE_HPA, "hPa") * units.HPA_TO_INHG
-    return units.as_float(alt + (_RULE_OF_THUMB_STANDARD_INHG - setting_inhg) * _RULE_OF_THUMB_FT_PER_INHG)  # [1]
+    return angles.as_float(alt + (_RULE_OF_THUMB_STANDARD_INHG - setting_inhg) * _RULE_OF_THUMB_FT_PER_INHG)  # [1]
 
 
 def oat_at_altitude_c(surface_oat_c: Numeric, *, surface_elevation_ft: Numeric,
@@ -421,7 +422,7 @@ def oat_at_altitude_c(surface_oat_c: Numeric, *, surface_elevation_ft: Numeric,
     alt = _checked("altitude_ft", altitude_ft, *ALTITUDE_RANGE_FT, "ft")
     t = t_sfc + LAPSE_C_PER_FT * (alt - elev)                       # [1] eq. T = T_b + L (H - H_b)
     _checked("oat_c (lapse-rate result)", t, *OAT_RANGE_C, "degC")
-    return units.as_float(t)
+    return angles.as_float(t)
 
 
 def density_ratio(pressure_altitude_ft: Numeric, *, oat_c: Numeric) -> Numeric:
@@ -451,7 +452,7 @@ def density_ratio(pressure_altitude_ft: Numeric, *, oat_c: Numeric) -> Numeric:
     """
     _, p = _isa_t_p(_pressure_altitude_m(pressure_altitude_ft))
     t = _oat_k(oat_c)
-    return units.as_float((p / P0_PA) * (T0_K / t))                 # [1] eq. rho = p/(R T)
+    return angles.as_float((p / P0_PA) * (T0_K / t))                 # [1] eq. rho = p/(R T)
 
 
 def _altitude_ft_from_density_ratio(sigma: np.ndarray) -> np.ndarray:
@@ -498,7 +499,7 @@ def density_altitude_ft(pressure_altitude_ft: Numeric, *, oat_c: Numeric) -> Num
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 3.
     """
     sigma = np.asarray(density_ratio(pressure_altitude_ft, oat_c=oat_c))
-    return units.as_float(_altitude_ft_from_density_ratio(sigma))
+    return angles.as_float(_altitude_ft_from_density_ratio(sigma))
 
 
 def _cas_checked(cas_kt: Numeric) -> np.ndarray:
@@ -553,7 +554,7 @@ def tas_from_cas_kt(cas_kt: Numeric, *, pressure_altitude_ft: Numeric, oat_c: Nu
     cas = _cas_checked(cas_kt)
     _, p = _isa_t_p(_pressure_altitude_m(pressure_altitude_ft))
     t = _oat_k(oat_c)
-    return units.as_float(_tas_from_cas(cas, p, t))
+    return angles.as_float(_tas_from_cas(cas, p, t))
 
 
 def cas_from_tas_kt(tas_kt: Numeric, *, pressure_altitude_ft: Numeric, oat_c: Numeric) -> Numeric:
@@ -595,7 +596,7 @@ def cas_from_tas_kt(tas_kt: Numeric, *, pressure_altitude_ft: Numeric, oat_c: Nu
     a0_kt = A0_MPS * units.MPS_TO_KT
     cas = a0_kt * np.sqrt(5.0 * ((qc / P0_PA + 1.0) ** (2.0 / 7.0) - 1.0))   # [3] eq. qc(CAS) inverted
     _checked("cas_kt (result)", cas, 0.0, CAS_MAX_KT, "kt", lo_open=True)
-    return units.as_float(cas)
+    return angles.as_float(cas)
 
 
 def eas_from_cas_kt(cas_kt: Numeric, *, pressure_altitude_ft: Numeric, oat_c: Numeric) -> Numeric:
@@ -627,7 +628,7 @@ def eas_from_cas_kt(cas_kt: Numeric, *, pressure_altitude_ft: Numeric, oat_c: Nu
     """
     tas = np.asarray(tas_from_cas_kt(cas_kt, pressure_altitude_ft=pressure_altitude_ft, oat_c=oat_c))
     sigma = np.asarray(density_ratio(pressure_altitude_ft, oat_c=oat_c))
-    return units.as_float(tas * np.sqrt(sigma))                        # [3] eq. EAS = TAS sqrt(sigma)
+    return angles.as_float(tas * np.sqrt(sigma))                        # [3] eq. EAS = TAS sqrt(sigma)
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

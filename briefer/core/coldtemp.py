@@ -41,6 +41,7 @@ from typing import Literal
 import numpy as np
 
 from briefer import units
+from briefer.core import angles
 from briefer.core._types import Numeric
 from briefer.core.atmosphere import _checked  # the one range check of the physics core
 from briefer.errors import DomainError
@@ -93,7 +94,7 @@ def sea_level_temperature_c(airport_oat_c: Numeric, *, airport_elevation_ft: Num
     """
     t = _checked("airport_oat_c", airport_oat_c, *OAT_RANGE_C, "degC")
     elev = _checked("airport_elevation_ft", airport_elevation_ft, *ELEVATION_RANGE_FT, "ft")
-    return units.as_float(t + L0_C_PER_FT * elev)                      # [1] eq. t0 = t_ad + L0 h_ad
+    return angles.as_float(t + L0_C_PER_FT * elev)                      # [1] eq. t0 = t_ad + L0 h_ad
 
 
 def _formula_ft(height_ft: np.ndarray, t0_c: np.ndarray, hss_ft: np.ndarray) -> np.ndarray:
@@ -158,7 +159,7 @@ def cold_temperature_correction_ft(height_above_airport_ft: Numeric, *, airport_
         t0 = t + L0_C_PER_FT * elev                                    # [1] eq. t0 = t_ad + L0 h_ad
         corr = _formula_ft(h, t0, elev)
     corr = np.where(t0 >= STANDARD_SEA_LEVEL_C, 0.0, np.maximum(corr, 0.0))
-    return units.as_float(corr)
+    return angles.as_float(corr)
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

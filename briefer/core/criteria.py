@@ -55,30 +55,21 @@ import numpy as np
 
 from briefer.core._types import Numeric
 from briefer.errors import DomainError
-from briefer.units import (
-    KM_TO_M,
-    M_TO_FT,
-    M_TO_SM,
-    NM_TO_FT,
-    SM_TO_M,
-    FT_TO_M,
-    as_float,
-    atand,
-    tand,
-    wrap_180,
-)
+from briefer import vocabulary
+from briefer.units import KM_TO_M, M_TO_FT, M_TO_SM, NM_TO_FT, SM_TO_M, FT_TO_M
+from briefer.core.angles import as_float, atand, tand, wrap_180
 
 # --------------------------------------------------------------------------------------------
 # Names
 # --------------------------------------------------------------------------------------------
 
-CRITERIA_SETS: tuple[str, ...] = ("terps-legacy", "terps-expanded", "icao")
+CRITERIA_SETS: tuple[str, ...] = vocabulary.CRITERIA_SETS
 """The design criteria sets this module knows."""
 
-TERPS_CRITERIA: tuple[str, ...] = ("terps-legacy", "terps-expanded")
+TERPS_CRITERIA: tuple[str, ...] = vocabulary.TERPS_CRITERIA
 """The FAA sets (same categories, clearances and straight-in rules; different radii)."""
 
-CATEGORIES: tuple[str, ...] = ("A", "B", "C", "D", "E")
+CATEGORIES: tuple[str, ...] = vocabulary.CATEGORIES
 """Aircraft approach categories, slowest first."""
 
 Provenance = Literal["V", "V2", "C", "M"]

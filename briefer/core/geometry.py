@@ -36,7 +36,7 @@ import numpy.typing as npt
 
 from briefer.core._types import Numeric
 from briefer.errors import DomainError
-from briefer.units import as_float, atand2, cosd, sind, wrap_180, wrap_360
+from briefer.core.angles import as_float, atand2, cosd, sind, wrap_180, wrap_360
 
 __all__ = [
     "WGS84_A_M",

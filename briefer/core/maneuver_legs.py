@@ -33,7 +33,8 @@ import numpy.typing as npt
 
 from briefer.core._types import Numeric
 from briefer.errors import DomainError
-from briefer.units import G0_MPS2, KT_TO_MPS, MPS_TO_KT, cosd, sind, wrap_360
+from briefer.units import G0_MPS2, KT_TO_MPS, MPS_TO_KT
+from briefer.core.angles import cosd, sind, wrap_360
 
 FloatArray = npt.NDArray[np.float64]
 Direction = Literal["left", "right"]

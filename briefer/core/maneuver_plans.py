@@ -57,7 +57,8 @@ from briefer.core.maneuver_solver import (
     solve_inputs,
 )
 from briefer.errors import DomainError
-from briefer.units import KT_TO_MPS, wrap_180
+from briefer.units import KT_TO_MPS
+from briefer.core.angles import wrap_180
 
 PLAN_TURN_STEP_DEG = 2.0          # a plan's track: a point every 2 deg of turn ...
 PLAN_STRAIGHT_STEP_M = 100.0      # ... and every 100 m of straight

@@ -92,12 +92,14 @@ from briefer.core.maneuver_legs import (
     turn_profile,
 )
 from briefer.errors import DomainError
-from briefer.units import FT_TO_M, KT_TO_MPS, wrap_180
+from briefer import vocabulary
+from briefer.units import FT_TO_M, KT_TO_MPS
+from briefer.core.angles import wrap_180
 
 Shape = Literal["downwind-join", "break-and-return", "teardrop", "direct-turn", "overfly-circuit"]
 Side = Literal["left", "right"]
-SHAPES: tuple[Shape, ...] = ("downwind-join", "break-and-return", "teardrop", "direct-turn", "overfly-circuit")
-DOWNWIND_SHAPES: tuple[Shape, ...] = ("downwind-join", "break-and-return", "overfly-circuit")
+SHAPES: tuple[Shape, ...] = vocabulary.PLAN_SHAPES  # type: ignore[assignment]
+DOWNWIND_SHAPES: tuple[Shape, ...] = vocabulary.DOWNWIND_SHAPES  # type: ignore[assignment]
 """Shapes with a downwind leg held on the reciprocal track (timed from abeam the threshold)."""
 SIDES: tuple[Side, ...] = ("left", "right")
 

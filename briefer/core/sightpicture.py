@@ -25,6 +25,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from briefer import units
+from briefer.core import angles
 from briefer.core._types import Numeric
 from briefer.core.turn import (
     angle_of_attack_in_turn,
@@ -85,7 +86,7 @@ def depression_angle_deg(height_ft: Numeric, offset_nm: Numeric) -> Numeric:
     """
     h_m = _positive("height_ft", height_ft, "ft") * units.FT_TO_M
     d_m = _positive("offset_nm", offset_nm, "NM") * units.NM_TO_M
-    return units.as_float(units.atand(h_m / d_m))                  # [3] depression = atan(h / d)
+    return angles.as_float(angles.atand(h_m / d_m))                  # [3] depression = atan(h / d)
 
 
 def offset_for_depression_nm(height_ft: Numeric, depression_deg: Numeric) -> Numeric:
@@ -117,7 +118,7 @@ def offset_for_depression_nm(height_ft: Numeric, depression_deg: Numeric) -> Num
     if np.any(dep >= 90.0):
         raise DomainError(f"depression_deg = {float(np.max(dep)):g} deg is outside the valid range "
                           "0 < depression_deg < 90 deg")
-    return units.as_float(h_m / units.tand(dep) * units.M_TO_NM)   # [3] d = h / tan(depression)
+    return angles.as_float(h_m / angles.tand(dep) * units.M_TO_NM)   # [3] d = h / tan(depression)
 
 
 def reversal_lateral_factor(tas_kt: float, *, crosswind_toward_runway_kt: float = 0.0) -> float:

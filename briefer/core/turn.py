@@ -33,6 +33,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from briefer import units
+from briefer.core import angles
 from briefer.core._types import Numeric
 from briefer.core.atmosphere import _checked  # the one range check of the physics core
 from briefer.errors import DomainError
@@ -112,17 +113,17 @@ def turn_radius_m(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
     """
     v_mps = _speed("tas_kt", tas_kt) * units.KT_TO_MPS
     bank = _bank(bank_deg, turning=True)
-    return units.as_float(v_mps ** 2 / (units.G0_MPS2 * units.tand(bank)))   # [3] eq. r = V^2/(g tan phi)
+    return angles.as_float(v_mps ** 2 / (units.G0_MPS2 * angles.tand(bank)))   # [3] eq. r = V^2/(g tan phi)
 
 
 def turn_radius_ft(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
     """Radius of a coordinated level turn. [ft] See :func:`turn_radius_m`."""
-    return units.as_float(np.asarray(turn_radius_m(tas_kt, bank_deg)) * units.M_TO_FT)
+    return angles.as_float(np.asarray(turn_radius_m(tas_kt, bank_deg)) * units.M_TO_FT)
 
 
 def turn_radius_nm(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
     """Radius of a coordinated level turn. [NM] See :func:`turn_radius_m`."""
-    return units.as_float(np.asarray(turn_radius_m(tas_kt, bank_deg)) * units.M_TO_NM)
+    return angles.as_float(np.asarray(turn_radius_m(tas_kt, bank_deg)) * units.M_TO_NM)
 
 
 def turn_rate_deg_per_s(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
@@ -157,7 +158,7 @@ def turn_rate_deg_per_s(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
     """
     v_mps = _speed("tas_kt", tas_kt) * units.KT_TO_MPS
     bank = _bank(bank_deg, turning=False)
-    return units.as_float(np.degrees(units.G0_MPS2 * units.tand(bank) / v_mps))  # [3] eq. omega = g tan phi / V
+    return angles.as_float(np.degrees(units.G0_MPS2 * angles.tand(bank) / v_mps))  # [3] eq. omega = g tan phi / V
 
 
 def time_to_turn_s(tas_kt: Numeric, bank_deg: Numeric, *, angle_deg: Numeric) -> Numeric:
@@ -189,7 +190,7 @@ def time_to_turn_s(tas_kt: Numeric, bank_deg: Numeric, *, angle_deg: Numeric) ->
     _bank(bank_deg, turning=True)
     angle = _checked("angle_deg", angle_deg, 0.0, TURN_ANGLE_MAX_DEG, "deg")
     rate = np.asarray(turn_rate_deg_per_s(tas_kt, bank_deg))
-    return units.as_float(angle / rate)
+    return angles.as_float(angle / rate)
 
 
 def load_factor(bank_deg: Numeric) -> Numeric:
@@ -215,7 +216,7 @@ def load_factor(bank_deg: Numeric) -> Numeric:
     .. [1] FAA, PHAK, FAA-H-8083-25, "Aerodynamics of Flight", load factor chart.
     """
     bank = _bank(bank_deg, turning=False)
-    return units.as_float(1.0 / units.cosd(bank))                   # [1] eq. n = 1/cos(phi)
+    return angles.as_float(1.0 / angles.cosd(bank))                   # [1] eq. n = 1/cos(phi)
 
 
 def stall_speed_factor(bank_deg: Numeric) -> Numeric:
@@ -241,7 +242,7 @@ def stall_speed_factor(bank_deg: Numeric) -> Numeric:
     .. [1] FAA, PHAK, FAA-H-8083-25, "Aerodynamics of Flight" (stall speed increases in
        proportion to the square root of the load factor).
     """
-    return units.as_float(np.sqrt(np.asarray(load_factor(bank_deg))))  # [1] eq. Vs_n = Vs sqrt(n)
+    return angles.as_float(np.sqrt(np.asarray(load_factor(bank_deg))))  # [1] eq. Vs_n = Vs sqrt(n)
 
 
 def stall_speed_in_turn_kt(vs1g_kt: Numeric, bank_deg: Numeric, *, weight_ratio: Numeric = 1.0) -> Numeric:
@@ -274,7 +275,7 @@ def stall_speed_in_turn_kt(vs1g_kt: Numeric, bank_deg: Numeric, *, weight_ratio:
     vs = _speed("vs1g_kt", vs1g_kt)
     w = _weight_ratio(weight_ratio)
     n = np.asarray(load_factor(bank_deg))
-    return units.as_float(vs * np.sqrt(n) * np.sqrt(w))             # [1] eq. Vs sqrt(n), lift = W n
+    return angles.as_float(vs * np.sqrt(n) * np.sqrt(w))             # [1] eq. Vs sqrt(n), lift = W n
 
 
 def stall_bank_deg(speed_kt: Numeric, vs1g_kt: Numeric, *, weight_ratio: Numeric = 1.0) -> Numeric:
@@ -322,7 +323,7 @@ def stall_bank_deg(speed_kt: Numeric, vs1g_kt: Numeric, *, weight_ratio: Numeric
         raise DomainError(f"speed_kt = {v_bad:g} kt is below the 1-g stall speed {vs_bad:g} kt "
                           "at this weight: the wing is stalled wings-level, no bank is possible")
     cos_phi = (vs_w / v) ** 2                                         # [1] eq. n_stall = (V/Vs)^2
-    return units.as_float(np.degrees(np.arccos(np.minimum(cos_phi, 1.0))))
+    return angles.as_float(np.degrees(np.arccos(np.minimum(cos_phi, 1.0))))
 
 
 def bank_for_rate_deg(tas_kt: Numeric, *, rate_deg_per_s: Numeric = STANDARD_RATE_DEG_PER_S) -> Numeric:
@@ -356,7 +357,7 @@ def bank_for_rate_deg(tas_kt: Numeric, *, rate_deg_per_s: Numeric = STANDARD_RAT
     """
     v_mps = _speed("tas_kt", tas_kt) * units.KT_TO_MPS
     rate = _checked("rate_deg_per_s", rate_deg_per_s, 0.0, 30.0, "deg/s")
-    return units.as_float(units.atand(np.radians(rate) * v_mps / units.G0_MPS2))  # [3] eq. tan phi = omega V/g
+    return angles.as_float(angles.atand(np.radians(rate) * v_mps / units.G0_MPS2))  # [3] eq. tan phi = omega V/g
 
 
 def bank_for_radius_deg(tas_kt: Numeric, *, radius_m: Numeric) -> Numeric:
@@ -385,7 +386,7 @@ def bank_for_radius_deg(tas_kt: Numeric, *, radius_m: Numeric) -> Numeric:
     """
     v_mps = _speed("tas_kt", tas_kt) * units.KT_TO_MPS
     r = _checked("radius_m", radius_m, 0.0, np.inf, "m", lo_open=True)
-    return units.as_float(units.atand(v_mps ** 2 / (units.G0_MPS2 * r)))  # [3] eq. tan phi = V^2/(g r)
+    return angles.as_float(angles.atand(v_mps ** 2 / (units.G0_MPS2 * r)))  # [3] eq. tan phi = V^2/(g r)
 
 
 def bank_for_load_factor_deg(load_factor: Numeric) -> Numeric:
@@ -398,7 +399,7 @@ def bank_for_load_factor_deg(load_factor: Numeric) -> Numeric:
     .. [1] FAA, PHAK, FAA-H-8083-25, "Aerodynamics of Flight".
     """
     n = _checked("load_factor", load_factor, 1.0, 100.0, "")
-    return units.as_float(np.degrees(np.arccos(1.0 / n)))            # [1] eq. n = 1/cos(phi)
+    return angles.as_float(np.degrees(np.arccos(1.0 / n)))            # [1] eq. n = 1/cos(phi)
 
 
 def lift_coefficient_fraction_of_max(ias_kt: Numeric, bank_deg: Numeric, *, vs1g_kt: Numeric,
@@ -434,7 +435,7 @@ def lift_coefficient_fraction_of_max(ias_kt: Numeric, bank_deg: Numeric, *, vs1g
     vs = _speed("vs1g_kt", vs1g_kt)
     w = _weight_ratio(weight_ratio)
     n = np.asarray(load_factor(bank_deg))
-    return units.as_float(n * w * (vs / v) ** 2)                      # [3] eq. C_L ~ n W / V^2
+    return angles.as_float(n * w * (vs / v) ** 2)                      # [3] eq. C_L ~ n W / V^2
 
 
 def _alpha_zero_lift(*, vref_kt: np.ndarray, vs1g_kt: np.ndarray, aoa_ref: np.ndarray,
@@ -502,7 +503,7 @@ def angle_of_attack_in_turn(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Nume
         raise DomainError("aoa_stall must be greater than aoa_ref for the angle-of-attack model")
     n = np.asarray(load_factor(bank_deg))
     a0 = _alpha_zero_lift(vref_kt=vref, vs1g_kt=vs, aoa_ref=a_ref, aoa_stall=a_stall)
-    return units.as_float(a0 + n * w * (vref / v) ** 2 * (a_ref - a0))   # [3] eq. C_L = a (alpha - alpha_0)
+    return angles.as_float(a0 + n * w * (vref / v) ** 2 * (a_ref - a0))   # [3] eq. C_L = a (alpha - alpha_0)
 
 
 def aoa_margin_to_stall(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Numeric, vs1g_kt: Numeric,
@@ -515,7 +516,7 @@ def aoa_margin_to_stall(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Numeric,
     alpha = np.asarray(angle_of_attack_in_turn(ias_kt, bank_deg, vref_kt=vref_kt, vs1g_kt=vs1g_kt,
                                                aoa_ref=aoa_ref, aoa_stall=aoa_stall,
                                                weight_ratio=weight_ratio))
-    return units.as_float(np.asarray(aoa_stall, dtype=float) - alpha)
+    return angles.as_float(np.asarray(aoa_stall, dtype=float) - alpha)
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

@@ -33,6 +33,7 @@ from typing import Literal, NamedTuple
 import numpy as np
 
 from briefer import units
+from briefer.core import angles
 from briefer.core._types import Numeric
 from briefer.core.atmosphere import _checked  # the one range check of the physics core
 from briefer.errors import DomainError
@@ -244,8 +245,8 @@ def wind_components_kt(wind_from_deg: Numeric, wind_speed_kt: Numeric, *, course
     ws = _wind_speed("wind_speed_kt", wind_speed_kt)
     crs = _finite("course_deg", course_deg)
     rel = wdir - crs
-    return WindComponents(headwind_kt=units.as_float(ws * units.cosd(rel)),           # [1] eq. W cos(angle)
-                          crosswind_from_right_kt=units.as_float(ws * units.sind(rel)))  # [1] eq. W sin(angle)
+    return WindComponents(headwind_kt=angles.as_float(ws * angles.cosd(rel)),           # [1] eq. W cos(angle)
+                          crosswind_from_right_kt=angles.as_float(ws * angles.sind(rel)))  # [1] eq. W sin(angle)
 
 
 def _in_sector(direction: np.ndarray, start: float, end: float) -> np.ndarray:
@@ -336,7 +337,7 @@ def crab_angle_deg(tas_kt: Numeric, *, wind_from_deg: Numeric, wind_speed_kt: Nu
     ratio = xw / tas
     if np.any(np.abs(ratio) >= 1.0):
         raise DomainError("the crosswind is at least the true airspeed: the course cannot be held")
-    return units.as_float(np.degrees(np.arcsin(ratio)))              # [1] eq. sin(WCA) = Xw / TAS
+    return angles.as_float(np.degrees(np.arcsin(ratio)))              # [1] eq. sin(WCA) = Xw / TAS
 
 
 def ground_speed_kt(tas_kt: Numeric, *, wind_from_deg: Numeric, wind_speed_kt: Numeric,
@@ -373,11 +374,11 @@ def ground_speed_kt(tas_kt: Numeric, *, wind_from_deg: Numeric, wind_speed_kt: N
     wca = np.asarray(crab_angle_deg(tas_kt, wind_from_deg=wind_from_deg, wind_speed_kt=wind_speed_kt,
                                     course_deg=course_deg))
     head = np.asarray(wind_components_kt(wind_from_deg, wind_speed_kt, course_deg=course_deg).headwind_kt)
-    gs = tas * units.cosd(wca) - head                                 # [1] eq. wind triangle
+    gs = tas * angles.cosd(wca) - head                                 # [1] eq. wind triangle
     if np.any(gs <= 0.0):
         raise DomainError("the headwind is at least the true airspeed along the course: "
                           "no progress over the ground")
-    return units.as_float(gs)
+    return angles.as_float(gs)
 
 
 def heading_for_course_deg(tas_kt: Numeric, *, wind_from_deg: Numeric, wind_speed_kt: Numeric,
@@ -388,7 +389,7 @@ def heading_for_course_deg(tas_kt: Numeric, *, wind_from_deg: Numeric, wind_spee
     """
     wca = np.asarray(crab_angle_deg(tas_kt, wind_from_deg=wind_from_deg, wind_speed_kt=wind_speed_kt,
                                     course_deg=course_deg))
-    return units.as_float(units.wrap_360(np.asarray(course_deg, dtype=float) + wca))
+    return angles.as_float(angles.wrap_360(np.asarray(course_deg, dtype=float) + wca))
 
 
 def wind_vector_kt(wind_from_deg: Numeric, wind_speed_kt: Numeric) -> WindVector:
@@ -417,5 +418,5 @@ def wind_vector_kt(wind_from_deg: Numeric, wind_speed_kt: Numeric) -> WindVector
     """
     wdir = _direction("wind_from_deg", wind_from_deg)
     ws = _wind_speed("wind_speed_kt", wind_speed_kt)
-    return WindVector(east_kt=units.as_float(-ws * units.sind(wdir)),    # [2] eq. from-direction reversed
-                      north_kt=units.as_float(-ws * units.cosd(wdir)))
+    return WindVector(east_kt=angles.as_float(-ws * angles.sind(wdir)),    # [2] eq. from-direction reversed
+                      north_kt=angles.as_float(-ws * angles.cosd(wdir)))
