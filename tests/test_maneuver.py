@@ -31,7 +31,7 @@ from briefer.core.maneuver import (
     choose_plan,
     crab_heading_deg,
     descent_geometry,
-    ground_speed_kt,
+    leg_ground_speed_kt,
     leg_duration_s,
     leg_end_state,
     missed_approach_turns,
@@ -188,7 +188,7 @@ def test_crab_heading_and_ground_speed():
     # GS = 120 cos(9.594 deg) = 118.32 kt
     w = runway_wind_from(90.0, 20.0)
     assert crab_heading_deg(0.0, tas_kt=120, wind=w) == pytest.approx(9.594, abs=1e-3)
-    assert ground_speed_kt(StraightTrack(time_s=10, track_deg=0.0), tas_kt=120, wind=w) == pytest.approx(118.32, abs=0.01)
+    assert leg_ground_speed_kt(StraightTrack(time_s=10, track_deg=0.0), tas_kt=120, wind=w) == pytest.approx(118.32, abs=0.01)
     # a downwind (track 180) in the same wind crabs to 180 - 9.594 (nose toward the right of the runway)
     assert crab_heading_deg(180.0, tas_kt=120, wind=w) == pytest.approx(170.406, abs=1e-3)
     with pytest.raises(DomainError):

@@ -32,6 +32,7 @@ import numpy as np
 import numpy.typing as npt
 
 from briefer.core._types import Numeric
+from briefer.core.wind import wind_triangle
 from briefer.errors import DomainError
 from briefer.units import G0_MPS2, KT_TO_MPS, MPS_TO_KT
 from briefer.core.angles import cosd, sind, wrap_360
@@ -307,31 +308,6 @@ def _check_tas(tas_kt: float) -> None:
 # --------------------------------------------------------------------------------------------
 # array kernels (radians, m/s; broadcast over any shapes); shared with the solver and envelope
 # --------------------------------------------------------------------------------------------
-def crab(track_rad: Numeric, tas_mps: Numeric, wx_mps: Numeric, wy_mps: Numeric
-         ) -> tuple[FloatArray, FloatArray, npt.NDArray[np.bool_]]:
-    """Heading, ground speed and flyability of a straight leg holding a track (array kernel).
-
-    Returns ``(heading_rad, ground_speed_mps, ok)``; ``ok`` is False where the crosswind
-    component reaches the TAS or the ground speed is not positive (values there are clipped,
-    not meaningful).
-
-    Notes
-    -----
-    With u the unit track and n the unit normal to its right, the air velocity
-    V (cos psi, sin psi) plus the wind must have no n component:
-    psi = track - asin(w_n / V), GS = V sqrt(1 - (w_n/V)^2) + w_u.
-    """
-    su, cu = np.sin(track_rad), np.cos(track_rad)
-    w_n = -wx_mps * su + wy_mps * cu
-    w_u = wx_mps * cu + wy_mps * su
-    q = w_n / tas_mps
-    ok = np.abs(q) < 1.0
-    qc = np.minimum(np.maximum(q, -1.0), 1.0)
-    psi = track_rad - np.arcsin(qc)
-    gs = tas_mps * np.sqrt(1.0 - qc * qc) + w_u
-    return psi, gs, ok & (gs > 0.0)
-
-
 @dataclass(frozen=True, slots=True, kw_only=True)
 class TurnProfile:
     """Timing of a turn (array kernel output; radians, seconds, m/s).
@@ -524,7 +500,7 @@ def crab_heading_deg(track_deg: Numeric, *, tas_kt: float, wind: RunwayWind) -> 
     """
     _check_tas(tas_kt)
     wx, wy = wind.mps()
-    psi, _, ok = crab(np.radians(track_deg), tas_kt * KT_TO_MPS, wx, wy)
+    psi, _, ok = wind_triangle(np.radians(track_deg), tas_kt * KT_TO_MPS, wx, wy)
     if not np.all(ok):
         raise DomainError(f"cannot hold track {track_deg} deg at {tas_kt} kt TAS in a {wind.speed_kt:.1f} kt wind: "
                           "crosswind component reaches the TAS or the ground speed is not positive")
@@ -682,8 +658,8 @@ def sample_legs(legs: tuple[Leg, ...] | list[Leg], start: State, *, tas_kt: floa
                         leg_index=cat([p.leg_index for p in parts]))
 
 
-def ground_speed_kt(leg: Straight | StraightTrack, *, tas_kt: float, wind: RunwayWind) -> float:
-    """Ground speed on a straight leg. [kt]"""
+def leg_ground_speed_kt(leg: Straight | StraightTrack, *, tas_kt: float, wind: RunwayWind) -> float:
+    """Ground speed on a straight leg of a plan (runway frame). [kt]"""
     gx, gy, _ = _straight_velocity(leg, tas_kt=tas_kt, wind=wind)
     return float(np.hypot(gx, gy) * MPS_TO_KT)
 

@@ -86,11 +86,11 @@ from briefer.core.maneuver_legs import (
     FloatArray,
     RunwayWind,
     TurnProfile,
-    crab,
     ramp_q,
     turn_end_displacement,
     turn_profile,
 )
+from briefer.core.wind import wind_triangle
 from briefer.errors import DomainError
 from briefer import vocabulary
 from briefer.units import FT_TO_M, KT_TO_MPS
@@ -443,7 +443,7 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         # final (0), downwind (pi) and arrival tracks in one call of the (elementwise) kernel
         trk3 = np.array([0.0, np.pi, float(c0_rad)]).reshape((3,) + (1,) * len(shp))
-        psi3, gs3, ok3 = crab(trk3, v, wx, wy)
+        psi3, gs3, ok3 = wind_triangle(trk3, v, wx, wy)
         (psi_f, psi_d, psi0), (gs_f, gs_d, gs0), (ok_f, ok_d, ok0) = psi3, gs3, ok3
         g0x, g0y = gs0 * math.cos(c0_rad), gs0 * math.sin(c0_rad)
         reasons = _flag(ok_f & ok_d & ok0, R_WIND)
@@ -455,7 +455,7 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
             if shape == "downwind-join":
                 # the circuit's final side: base turn (downwind -> base track), base leg, final turn
                 trk_b = -sig * (0.5 * np.pi)
-                psi_b, gs_b, ok_b = crab(trk_b, v, wx, wy)
+                psi_b, gs_b, ok_b = wind_triangle(trk_b, v, wx, wy)
                 t_f180, t_join, t_bt90, t_f90 = turns(
                     fin_spec, (psi0, _wrap_2pi(sig * (psi_d - psi0)), sig, "turn downwind",
                                _wrap_2pi(sig * (np.pi - c0_rad))),
@@ -539,8 +539,8 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
         elif shape == "overfly-circuit":
             # tracks: crosswind sigma*90 (outward), downwind 180, base -sigma*90 (inward)
             trk_x, trk_b = sig * (0.5 * np.pi), -sig * (0.5 * np.pi)
-            psi_x, gs_x, ok_x = crab(trk_x, v, wx, wy)
-            psi_b, gs_b, ok_b = crab(trk_b, v, wx, wy)
+            psi_x, gs_x, ok_x = wind_triangle(trk_x, v, wx, wy)
+            psi_b, gs_b, ok_b = wind_triangle(trk_b, v, wx, wy)
             t_up = np.maximum((circuit_turn_x_m - x0) / g0x, 0.0)
             t_cw, t_dwt, t_bt, t_fin = turns(
                 (psi0, _wrap_2pi(sig * (psi_x - psi0)), sig, "crosswind turn", _wrap_2pi(0.5 * np.pi - sig * c0_rad)),

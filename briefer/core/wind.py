@@ -46,6 +46,7 @@ __all__ = [
     "parse_wind",
     "wind_components_kt",
     "worst_wind_components_kt",
+    "wind_triangle",
     "crab_angle_deg",
     "ground_speed_kt",
     "heading_for_course_deg",
@@ -302,6 +303,68 @@ def _tas(tas_kt: Numeric) -> np.ndarray:
     return _checked("tas_kt", tas_kt, 0.0, TAS_MAX_KT, "kt", lo_open=True)
 
 
+def wind_triangle(track_rad: Numeric, tas: Numeric, w1: Numeric, w2: Numeric
+                  ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The wind triangle: heading, ground speed and flyability of holding a track (array kernel).
+
+    The one wind triangle of the tool: the plan solver, the legs and the course functions below
+    all use it. Frame-agnostic: the track angle turns from axis 1 toward axis 2 (compass: axis 1
+    north, axis 2 east; runway frame: along, right), and the wind vector (where the air moves
+    TO) is given in the same axes and the same speed unit as `tas`.
+
+    Parameters
+    ----------
+    track_rad : numeric
+        Track to hold. [rad]
+    tas : numeric
+        True airspeed, > 0. [any speed unit]
+    w1, w2 : numeric
+        Wind vector components along axes 1 and 2. [same unit]
+
+    Returns
+    -------
+    (heading_rad, ground_speed, ok)
+        ``ok`` is False where the crosswind component reaches the TAS or the ground speed is
+        not positive (values there are clipped, not meaningful).
+
+    Notes
+    -----
+    With u the unit track and n the unit normal to its right, the air velocity
+    V (cos psi, sin psi) plus the wind must have no n component [1]_:
+    psi = track - asin(w_n / V), GS = V sqrt(1 - (w_n/V)^2) + w_u.
+
+    References
+    ----------
+    .. [1] FAA, PHAK, FAA-H-8083-25, "Navigation", wind triangle.
+    """
+    su, cu = np.sin(track_rad), np.cos(track_rad)
+    w_n = -w1 * su + w2 * cu
+    w_u = w1 * cu + w2 * su
+    q = w_n / tas
+    ok = np.abs(q) < 1.0
+    qc = np.minimum(np.maximum(q, -1.0), 1.0)
+    psi = track_rad - np.arcsin(qc)
+    gs = tas * np.sqrt(1.0 - qc * qc) + w_u
+    return psi, gs, ok & (gs > 0.0)
+
+
+def _course_triangle(tas_kt: Numeric, wind_from_deg: Numeric, wind_speed_kt: Numeric,
+                     course_deg: Numeric) -> tuple[np.ndarray, np.ndarray]:
+    """Crab angle [deg] and ground speed [kt] holding a compass course, by `wind_triangle`;
+    raises DomainError where the course cannot be held."""
+    tas = _tas(tas_kt)
+    wv = wind_vector_kt(wind_from_deg, wind_speed_kt)
+    course = np.asarray(course_deg, dtype=float)
+    psi, gs, ok = wind_triangle(np.radians(course), tas, np.asarray(wv.north_kt), np.asarray(wv.east_kt))
+    if not np.all(ok):
+        xw = np.asarray(wind_components_kt(wind_from_deg, wind_speed_kt, course_deg=course_deg).crosswind_from_right_kt)
+        if np.any(np.abs(xw) >= tas):
+            raise DomainError("the crosswind is at least the true airspeed: the course cannot be held")
+        raise DomainError("the headwind is at least the true airspeed along the course: "
+                          "no progress over the ground")
+    return np.degrees(psi) - course, gs
+
+
 def crab_angle_deg(tas_kt: Numeric, *, wind_from_deg: Numeric, wind_speed_kt: Numeric,
                    course_deg: Numeric) -> Numeric:
     """Wind correction (crab) angle that holds a course.
@@ -325,19 +388,15 @@ def crab_angle_deg(tas_kt: Numeric, *, wind_from_deg: Numeric, wind_speed_kt: Nu
     Raises
     ------
     DomainError
-        If an input is outside its range or the crosswind is at least the TAS (the course cannot
-        be held).
+        If an input is outside its range or the course cannot be held (crosswind at least the
+        TAS, or no progress over the ground).
 
     References
     ----------
-    .. [1] FAA, PHAK, FAA-H-8083-25, "Navigation", wind triangle.
+    .. [1] FAA, PHAK, FAA-H-8083-25, "Navigation", wind triangle (`wind_triangle`).
     """
-    tas = _tas(tas_kt)
-    xw = np.asarray(wind_components_kt(wind_from_deg, wind_speed_kt, course_deg=course_deg).crosswind_from_right_kt)
-    ratio = xw / tas
-    if np.any(np.abs(ratio) >= 1.0):
-        raise DomainError("the crosswind is at least the true airspeed: the course cannot be held")
-    return angles.as_float(np.degrees(np.arcsin(ratio)))              # [1] eq. sin(WCA) = Xw / TAS
+    wca, _ = _course_triangle(tas_kt, wind_from_deg, wind_speed_kt, course_deg)
+    return angles.as_float(wca)
 
 
 def ground_speed_kt(tas_kt: Numeric, *, wind_from_deg: Numeric, wind_speed_kt: Numeric,
@@ -358,7 +417,7 @@ def ground_speed_kt(tas_kt: Numeric, *, wind_from_deg: Numeric, wind_speed_kt: N
     Returns
     -------
     numeric
-        GS = TAS cos(WCA) - headwind. [kt]
+        GS = TAS cos(WCA) - headwind (`wind_triangle`). [kt]
 
     Raises
     ------
@@ -370,14 +429,7 @@ def ground_speed_kt(tas_kt: Numeric, *, wind_from_deg: Numeric, wind_speed_kt: N
     ----------
     .. [1] FAA, PHAK, FAA-H-8083-25, "Navigation", wind triangle.
     """
-    tas = _tas(tas_kt)
-    wca = np.asarray(crab_angle_deg(tas_kt, wind_from_deg=wind_from_deg, wind_speed_kt=wind_speed_kt,
-                                    course_deg=course_deg))
-    head = np.asarray(wind_components_kt(wind_from_deg, wind_speed_kt, course_deg=course_deg).headwind_kt)
-    gs = tas * angles.cosd(wca) - head                                 # [1] eq. wind triangle
-    if np.any(gs <= 0.0):
-        raise DomainError("the headwind is at least the true airspeed along the course: "
-                          "no progress over the ground")
+    _, gs = _course_triangle(tas_kt, wind_from_deg, wind_speed_kt, course_deg)
     return angles.as_float(gs)
 
 
@@ -387,8 +439,7 @@ def heading_for_course_deg(tas_kt: Numeric, *, wind_from_deg: Numeric, wind_spee
 
     See :func:`crab_angle_deg` for parameters and errors.
     """
-    wca = np.asarray(crab_angle_deg(tas_kt, wind_from_deg=wind_from_deg, wind_speed_kt=wind_speed_kt,
-                                    course_deg=course_deg))
+    wca, _ = _course_triangle(tas_kt, wind_from_deg, wind_speed_kt, course_deg)
     return angles.as_float(angles.wrap_360(np.asarray(course_deg, dtype=float) + wca))
 
 
