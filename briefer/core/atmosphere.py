@@ -41,6 +41,7 @@ import numpy as np
 from briefer import units
 from briefer.core import angles
 from briefer.core._types import Numeric
+from briefer.core.ranges import checked as _checked  # the one range check of the core
 from briefer.errors import DomainError
 
 __all__ = [
@@ -94,31 +95,6 @@ CAS_MAX_KT = 600.0
 STANDARD_ALTIMETER_HPA = P0_PA / units.HPA_TO_PA       # 1013.25 hPa
 _RULE_OF_THUMB_STANDARD_INHG = 29.92                   # rule-of-thumb datum (2 decimals)
 _RULE_OF_THUMB_FT_PER_INHG = 1000.0                    # "1 inch = 1000 ft"
-
-
-def _checked(name: str, value: Numeric, lo: float, hi: float, unit: str, *,
-             lo_open: bool = False, hi_open: bool = False) -> np.ndarray:
-    """Float array of `value`; DomainError naming the first element outside [lo, hi] (or NaN/inf).
-
-    The range check of the physics core (turn, wind and coldtemp import it too); `lo_open` and
-    `hi_open` exclude the ends. The message quotes the value and the valid range (STYLE E).
-    """
-    if type(value) is float or type(value) is int or type(value) is np.float64:  # scalar fast path, same rule as below
-        v = float(value)
-        if math.isfinite(v) and (v > lo if lo_open else v >= lo) and (v < hi if hi_open else v <= hi):
-            return np.asarray(v)
-    arr = np.asarray(value, dtype=float)
-    with np.errstate(invalid="ignore"):
-        below = arr <= lo if lo_open else arr < lo
-        above = arr >= hi if hi_open else arr > hi
-        bad = ~np.isfinite(arr) | below | above
-    if bad.any():
-        first = float(arr[bad].flat[0]) if arr.ndim else float(arr)
-        lo_op = "<" if lo_open else "<="
-        hi_op = "<" if hi_open else "<="
-        raise DomainError(f"{name} = {first:g} {unit} is outside the valid range "
-                          f"{lo:g} {lo_op} {name} {hi_op} {hi:g} {unit}".replace("  ", " ").rstrip())
-    return arr
 
 
 def _pressure_altitude_m(pressure_altitude_ft: Numeric) -> np.ndarray:

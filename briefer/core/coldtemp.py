@@ -43,7 +43,7 @@ import numpy as np
 from briefer import units
 from briefer.core import angles
 from briefer.core._types import Numeric
-from briefer.core.atmosphere import _checked  # the one range check of the physics core
+from briefer.core.ranges import checked as _checked  # the one range check of the core
 from briefer.errors import DomainError
 
 __all__ = [

@@ -56,6 +56,7 @@ import numpy as np
 from briefer.core._types import Numeric
 from briefer.errors import DomainError
 from briefer import vocabulary
+from briefer.core.ranges import checked
 from briefer.units import KM_TO_M, M_TO_FT, M_TO_SM, NM_TO_FT, SM_TO_M, FT_TO_M
 from briefer.core.angles import as_float, atand, tand, wrap_180
 
@@ -113,17 +114,8 @@ def check_category(category: str) -> str:
 
 def _check_range(name: str, value: float, low: float, high: float, unit: str, *,
                  low_inclusive: bool = True, high_inclusive: bool = True) -> float:
-    """Raise DomainError unless low (<=|<) value (<=|<) high; return value as float."""
-    arr = np.asarray(value, dtype=float)
-    bad = ~np.isfinite(arr)
-    bad |= (arr < low) if low_inclusive else (arr <= low)
-    bad |= (arr > high) if high_inclusive else (arr >= high)
-    if np.any(bad):
-        shown = value if arr.ndim == 0 else arr[bad].flat[0]
-        lo = "[" if low_inclusive else "("
-        hi = "]" if high_inclusive else ")"
-        raise DomainError(f"{name} {float(shown):g} {unit} is outside the valid range "
-                          f"{lo}{low:g}, {high:g}{hi} {unit}")
+    """`briefer.core.ranges.checked` (the core's one range check); returns value unchanged."""
+    checked(name, value, low, high, unit, lo_open=not low_inclusive, hi_open=not high_inclusive)
     return value
 
 

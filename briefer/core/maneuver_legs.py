@@ -32,6 +32,7 @@ import numpy as np
 import numpy.typing as npt
 
 from briefer.core._types import Numeric
+from briefer.core.ranges import checked
 from briefer.core.wind import wind_triangle
 from briefer.errors import DomainError
 from briefer.units import G0_MPS2, KT_TO_MPS, MPS_TO_KT
@@ -301,8 +302,7 @@ def _check_roll_rate(roll_rate_deg_per_s: float | None) -> None:
 
 
 def _check_tas(tas_kt: float) -> None:
-    if not (np.isfinite(tas_kt) and 0.0 < tas_kt <= 1000.0):
-        raise DomainError(f"tas_kt = {tas_kt}: valid range is 0 < TAS <= 1000 kt")
+    checked("tas_kt", tas_kt, 0.0, 1000.0, "kt", lo_open=True)
 
 
 # --------------------------------------------------------------------------------------------

@@ -27,6 +27,7 @@ import numpy as np
 from briefer import units
 from briefer.core import angles
 from briefer.core._types import Numeric
+from briefer.core.ranges import checked
 from briefer.core.turn import (
     angle_of_attack_in_turn,
     bank_for_radius_deg,
@@ -47,12 +48,7 @@ __all__ = [
 
 
 def _positive(name: str, value: Numeric, unit: str) -> np.ndarray:
-    arr = np.asarray(value, dtype=float)
-    bad = ~np.isfinite(arr) | (arr <= 0.0)
-    if np.any(bad):
-        raise DomainError(f"{name} = {float(arr[bad].flat[0]):g} {unit} is outside the valid range "
-                          f"0 < {name} (finite)".rstrip())
-    return arr
+    return checked(name, value, 0.0, math.inf, unit, lo_open=True, hi_open=True)
 
 
 def depression_angle_deg(height_ft: Numeric, offset_nm: Numeric) -> Numeric:
