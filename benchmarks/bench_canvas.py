@@ -1,8 +1,8 @@
-"""Time drawing a typical plan view on braille/ASCII canvases, and writing its SVG.
+"""Time drawing a typical plan view on braille/ASCII canvases and as paper primitives.
 
 Run by hand: `python benchmarks/bench_canvas.py`. Prints medians (and min-max) over repeats.
-Target: a few ms per frame at the 80x24 plan size (48x20 cells); TECH-NOTES §3 measured
-1.7-3.1 ms for Textual's whole render pipeline of a simpler drawing.
+Target: a few ms per frame at the 80x24 plan size (48x20 cells); an earlier measurement of
+Textual's whole render pipeline on a simpler drawing gave 1.7-3.1 ms.
 
 "draw" = `render_plan` (new canvas, fit, every item, labels, north arrow, scale bar);
 "+rich" = draw, then render the canvas into Rich segments (what Textual's `render()` costs);
@@ -23,7 +23,7 @@ from rich.console import Console  # noqa: E402
 from test_scene import example_scene  # noqa: E402  (the shared invented example)
 
 from briefer.render.planview import render_plan  # noqa: E402
-from briefer.render.svg import scene_to_primitives, scene_to_svg  # noqa: E402
+from briefer.render.paper import scene_to_primitives  # noqa: E402
 
 REPEATS = 200
 
@@ -52,9 +52,8 @@ def main() -> None:
                 text = timed(lambda: render_plan(scene, cols, rows, ascii=ascii).to_text())
                 cells = [f"{m:6.2f} ({lo:.2f}-{hi:.2f})" for m, lo, hi in (draw, rich, text)]
                 print(f"{name:16} {kind:8} {cols:>3}x{rows:<3}  " + "  ".join(cells))
-        svg = timed(lambda: scene_to_svg(scene, 120, 90), repeats=50)
         prims = timed(lambda: scene_to_primitives(scene, (8, 8, 120, 90)), repeats=50)
-        print(f"{name:16} svg 120x90 mm: {svg[0]:.2f} ms; primitives: {prims[0]:.2f} ms "
+        print(f"{name:16} primitives 120x90 mm: {prims[0]:.2f} ms "
               f"({npts} polyline points)")
 
 

@@ -2,7 +2,7 @@
 
 Run by hand: `python benchmarks/bench_card.py [--runs N]`. Prints medians (and min-max).
 Target (issue 6): a PDF card in well under a second, and the whole
-`briefer brief --demo --out x.pdf --force` command under a second. TECH-NOTES §5 measured
+`briefer brief --demo --out x.pdf --force` command under a second. An earlier measurement gave
 7 ms for a much simpler fpdf2 card and 260-340 ms to import fpdf.
 
 In process (the brief built once, fpdf already imported):

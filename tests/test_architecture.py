@@ -1,4 +1,4 @@
-"""Layering and house rules that a grep can check (ARCHITECTURE.md, STYLE.md B and 6.1)."""
+"""Layering and house rules that a grep can check (docs/ARCHITECTURE.md; DEVELOPERS.md, Conventions)."""
 
 from __future__ import annotations
 
@@ -13,13 +13,13 @@ UI_OR_IO = re.compile(r"^\s*(import|from)\s+(textual|rich|fpdf|yaml|briefer\.(tu
 
 
 def test_core_imports_no_ui_or_io():
-    """The core is pure computation: no UI, PDF, YAML or renderer imports (ARCHITECTURE.md)."""
+    """The core is pure computation: no UI, PDF, YAML or renderer imports (docs/ARCHITECTURE.md)."""
     offenders = [str(p.relative_to(PKG)) for p in (PKG / "core").rglob("*.py") if UI_OR_IO.search(p.read_text())]
     assert offenders == []
 
 
 def test_no_bare_conversion_literals_outside_units():
-    """Conversion factors live in units.py only (STYLE.md B)."""
+    """Conversion factors live in units.py only (DEVELOPERS.md, Conventions)."""
     literals = ("0.3048", "1852", "1609.344", "6076", "33.86", "3386", "273.15", "0.514444")
     offenders = []
     for p in PKG.rglob("*.py"):
@@ -81,3 +81,23 @@ else:
 """
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
     assert out.strip().splitlines()[-1].startswith("clean"), out
+
+
+def test_the_repository_stands_alone():
+    """Code, tests and benchmarks cite published documents or the project's own docs/, never a
+    document outside the repository; every section of docs/REFERENCES.md they cite exists."""
+    root = PKG.parent
+    outside = re.compile(r"\.\./shared|TECH-NOTES|STYLE\.md|CHART-ENTRY|(?<!docs/)(REFERENCES|ARCHITECTURE)\.md")
+    cited = re.compile(r"docs/REFERENCES\.md,? (?:sections? |§)?(\d+[a-z]?)")
+    headings = set(re.findall(r"^#{2,3} (\d+[a-z]?)\.", (root / "docs" / "REFERENCES.md").read_text(), re.M))
+    offenders, missing = [], []
+    for folder in ("briefer", "tests", "benchmarks"):
+        for p in (root / folder).rglob("*"):
+            if p.suffix not in (".py", ".yaml", ".md") or not p.is_file() or p.name == "test_architecture.py":
+                continue
+            text = p.read_text(errors="replace")
+            offenders += [f"{p.relative_to(root)}: {m.group(0)}" for m in outside.finditer(text)]
+            missing += [f"{p.relative_to(root)}: {m.group(1)}" for m in cited.finditer(text)
+                        if m.group(1) not in headings]
+    assert offenders == []
+    assert missing == []

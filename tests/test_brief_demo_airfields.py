@@ -98,14 +98,14 @@ def test_v2rl_demo_controlling_obstacle(v2rl_demo):
 
 def test_v2rl_demo_turn_fits_the_expanded_area(v2rl_demo):
     """The Cat D expanded radius (1001-3000 ft band) is larger than what this turn needs today."""
-    assert v2rl_demo.area.radius_nm == 3.7                # REFERENCES.md 2c, D 1001-3000
+    assert v2rl_demo.area.radius_nm == 3.7                # docs/REFERENCES.md 2c, D 1001-3000
     assert v2rl_demo.area.required_radius_nm < v2rl_demo.area.radius_nm
     assert "area-smaller-than-turn" not in codes(v2rl_demo)
 
 
 def test_v2rl_ndb_b_is_circling_only_by_gradient():
     """V2RL file comment: (3300 - 1170) ft over 3.4 NM = 626 ft/NM, above the TERPS 400 ft/NM
-    (REFERENCES.md 5). The final course (272 M) is aligned with 27, so not by alignment."""
+    (docs/REFERENCES.md 5). The final course (272 M) is aligned with 27, so not by alignment."""
     b = brief_of(request("demo-bizjet", "V2RL", "NDB-B", "09"))
     reasons = b.minimums.circling_only_reasons
     assert [r.code for r in reasons] == ["gradient"]
@@ -209,7 +209,7 @@ def test_q7hm_true_airspeed_well_above_indicated():
 
 
 def test_q7hm_legacy_radius_is_fixed_per_category():
-    """TERPS legacy radii (REFERENCES.md 2b): B 1.5 NM for the twin, D 2.3 NM for the bizjet,
+    """TERPS legacy radii (docs/REFERENCES.md 2b): B 1.5 NM for the twin, D 2.3 NM for the bizjet,
     whatever the MDA."""
     assert brief_of(request("demo-twin", "Q7HM", "VOR-A", "13")).area.radius_nm == 1.5
     assert brief_of(request("demo-bizjet", "Q7HM", "VOR-A", "13")).area.radius_nm == 2.3
@@ -230,7 +230,7 @@ def test_q7hm_hot_day_bizjet_turn_outgrows_the_legacy_area():
 # =============================================================================================
 def test_x4cd_cold_correction_at_minus_20():
     """-20 degC, HAA 756 ft (820 - 64): AIM TBL 7-3-1 row -20 gives 100 ft at 700 and 120 ft at
-    800 ft; the sea-level-table method gives 110 ft (REFERENCES.md 6b). MDA flown 930 ft."""
+    800 ft; the sea-level-table method gives 110 ft (docs/REFERENCES.md 6b). MDA flown 930 ft."""
     b = brief_of(request("demo-bizjet", "X4CD", "VOR RWY 33", "15", oat_c=-20.0))
     cold = b.minimums.cold
     assert cold is not None and cold.method == "sea-level-table"

@@ -366,6 +366,6 @@ def test_braille_supported(env, expected):
 
 def test_render_modules_import_no_ui_or_pdf_library():
     code = ("import sys, briefer.render.scene, briefer.render.canvas, briefer.render.planview, "
-            "briefer.render.svg; print(sorted(m for m in ('textual', 'fpdf', 'rich') if m in sys.modules))")
+            "briefer.render.paper; print(sorted(m for m in ('textual', 'fpdf', 'rich') if m in sys.modules))")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
     assert out.strip() == "[]"

@@ -1,7 +1,7 @@
 """CLI tests of `briefer area` and `briefer category`: wiring, JSON keys, cautions, errors.
 
 Numbers are checked in tests/test_criteria.py; here only that the right values reach the output
-(the orchestrator rule of STYLE.md F).
+(the orchestrator's wiring: the numbers themselves are checked in the core's tests).
 """
 
 from __future__ import annotations

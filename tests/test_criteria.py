@@ -1,8 +1,8 @@
 """Tests of briefer.core.criteria against published criteria values.
 
-Provenance marks follow REFERENCES.md: V (primary text read), V2 (secondary source quoting the
+Provenance marks follow docs/REFERENCES.md: V (primary text read), V2 (secondary source quoting the
 primary), C (recomputed from a published formula), M (from memory). Every check cites the primary
-document; the secondary sources behind each V2 value are listed in REFERENCES.md.
+document; the secondary sources behind each V2 value are listed in docs/REFERENCES.md.
 """
 
 from __future__ import annotations
@@ -56,7 +56,7 @@ def test_unknown_criteria_is_a_domain_error(bad):
 
 
 def test_provenance_labels():
-    # REFERENCES.md "How to read the verification marks"
+    # docs/REFERENCES.md "How to read the verification marks"
     assert cr.is_from_memory("M") and not cr.is_from_memory("V2")
     assert cr.provenance_label("M") == "from memory, not verified"
     with pytest.raises(DomainError):
@@ -244,7 +244,7 @@ def _cells(provenance: str):
 @pytest.mark.parametrize("band, category, cell", list(_cells("V2")))
 def test_expanded_radius_verified_cell(band, category, cell):
     """Hard check: AIM 5-4-20 expanded table cells read in secondary sources (V2); the id names
-    the source kind, REFERENCES.md section 2c gives the address."""
+    the source kind, docs/REFERENCES.md section 2c gives the address."""
     for mda in _probe_mdas(band):
         got = cr.expanded_radius_cell(category, mda)
         assert got.radius_nm == cell["radius_nm"]

@@ -31,7 +31,7 @@ from briefer.errors import DomainError
 from briefer.units import NM_TO_M
 
 RUNWAY_M = 2500.0
-R_CAT_B_M = 2.66 * NM_TO_M          # REFERENCES.md 4b: ICAO Cat B R = 2.66 NM (published)
+R_CAT_B_M = 2.66 * NM_TO_M          # docs/REFERENCES.md 4b: ICAO Cat B R = 2.66 NM (published)
 
 
 def _load_reference():

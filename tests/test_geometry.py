@@ -51,7 +51,7 @@ def test_from_origin_matches_geodesic(lat0, s12):
     for azi in (0.0, 37.0, 90.0, 145.0, 200.0, 290.0, 359.0):
         g = GEOD.Direct(lat0, LON0, azi, s12)
         p = frame.to_local(g["lat2"], g["lon2"])
-        # 0.1 % is the accuracy the architecture asks of the frame (ARCHITECTURE.md, Local frame)
+        # 0.1 % is the accuracy the architecture asks of the frame (docs/ARCHITECTURE.md, local frame)
         assert distance_m((0.0, 0.0), p) == pytest.approx(s12, rel=1e-3)
         # the tangent plane keeps azimuths from its own origin; 0.001 deg leaves room for the
         # ellipsoid's departure from a sphere over 10 km (observed 5e-5 deg)

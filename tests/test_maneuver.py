@@ -1,7 +1,7 @@
 """Tests of briefer.core.maneuver: closed-form legs, the plan solver, candidates, ranking and the
 missed-approach turn direction.
 
-Sources: the turn formulas of ../shared/REFERENCES.md section 7 (r = V^2/(g tan bank), the 7c
+Sources: the turn formulas of docs/REFERENCES.md section 7 (r = V^2/(g tan bank), the 7c
 test points computed with exact g), circling practice of section 9 (45 deg / ~30 s break, 3 deg
 path, 300 ft stabilised), AIM 5-4-21(c) (climbing turn toward the landing runway) and hand
 derivations shown beside each check. The trochoid is checked against an RK4 integration of
@@ -154,7 +154,7 @@ def test_calm_180_turn_displaces_exactly_two_radii():
 
 
 def test_diameter_matches_reference_test_point():
-    # REFERENCES.md 7c [C] (exact g): 120 kt, 30 deg bank -> R = 2208 ft, so 2r = 4416 ft (table to 1 ft)
+    # docs/REFERENCES.md 7c [C] (exact g): 120 kt, 30 deg bank -> R = 2208 ft, so 2r = 4416 ft (table to 1 ft)
     end = leg_end_state(Turn(angle_deg=180, bank_deg=30, direction="left"), State(x_m=0, y_m=0, heading_deg=0),
                         tas_kt=120, wind=CALM)
     assert -end.y_m / FT_TO_M == pytest.approx(4416, abs=2)
@@ -257,7 +257,7 @@ def crossing(**kw):
 
 def test_descent_geometry_hand_derived():
     # hand-derived: (600 - 50) ft * 0.3048 / tan 3 deg = 167.64 / 0.0524078 = 3198.8 m;
-    # stabilised (300 - 50) ft: 76.2 / 0.0524078 = 1454.0 m (REFERENCES.md 9: ~318 ft per NM on 3 deg)
+    # stabilised (300 - 50) ft: 76.2 / 0.0524078 = 1454.0 m (docs/REFERENCES.md 9: ~318 ft per NM on 3 deg)
     d = descent_geometry(reciprocal())
     assert d.descent_point_m == pytest.approx(3198.76, abs=0.01)
     assert d.stabilised_distance_m == pytest.approx(1453.98, abs=0.01)
@@ -272,7 +272,7 @@ def test_applicable_candidates():
     assert {s for s, _ in applicable_candidates(180.0)} == {"break-and-return", "teardrop"}
     assert set(applicable_candidates(90.0)) == {("direct-turn", "left"), ("downwind-join", "right")}
     # overfly-circuit within 30 deg of the landing direction, aligned included, both sides: 30 deg is the
-    # FAA straight-in alignment limit (AIM 5-4-20(c), REFERENCES.md 5), so a circling-only-by-gradient
+    # FAA straight-in alignment limit (AIM 5-4-20(c), docs/REFERENCES.md 5), so a circling-only-by-gradient
     # approach arrives within it
     assert applicable_candidates(0.0) == (("overfly-circuit", "left"), ("overfly-circuit", "right"))
     assert applicable_candidates(0.3) == (("overfly-circuit", "left"), ("overfly-circuit", "right"))
@@ -510,7 +510,7 @@ CIRCUIT_LEGS = ("upwind", "crosswind turn", "crosswind", "downwind turn", "downw
 
 def aligned(**kw):
     # an aligned arrival 1100 m past the landing threshold, like a steep circling-only approach whose
-    # missed approach point lies over the runway (the V2RL NDB-B demo: 626 ft/NM, REFERENCES.md 5)
+    # missed approach point lies over the runway (the V2RL NDB-B demo: 626 ft/NM, docs/REFERENCES.md 5)
     base = dict(tas_kt=120.0, bank_deg=25.0, wind=CALM, arrival_x_m=1100.0, arrival_y_m=0.0,
                 arrival_course_deg=0.0, circling_height_ft=600.0, runway_length_m=RUNWAY_M)
     base.update(kw)
@@ -677,7 +677,7 @@ def stadium(radius_m):
 
 
 def test_rank_orders_and_explains():
-    # REFERENCES.md 4b: Cat B R = 2.66 NM (published); a 20 kt wind from the left favours the left side
+    # docs/REFERENCES.md 4b: Cat B R = 2.66 NM (published); a 20 kt wind from the left favours the left side
     inp = reciprocal(wind=runway_wind_from(290.0, 20.0))
     ranked = rank_plans(candidate_plans(inp), margin_fn=stadium(2.66 * NM_TO_M), visibility_m=8000.0,
                         bank_limit_deg=30.0, area_radius_m=2.66 * NM_TO_M)

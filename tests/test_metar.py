@@ -1,7 +1,7 @@
 """briefer.io.metar and `briefer metar` (issue 7).
 
 Reference reports: tests/reference/metar_reports.yaml, decoded by hand from the code's definition
-(AIM 7-1 key to aviation weather, FMH-1 ch. 9 and 12, WMO FM 15; summaries in REFERENCES.md §10).
+(AIM 7-1 key to aviation weather, FMH-1 ch. 9 and 12, WMO FM 15; summaries in docs/REFERENCES.md §10).
 Every station identifier is invented and contains a digit.
 """
 

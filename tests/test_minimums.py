@@ -1,7 +1,7 @@
 """Tests of briefer.core.minimums: practice circling minimums on hand-built obstacle sets.
 
 Every expected MDA is derived by hand in the comment beside it from the criteria values that
-briefer.core.criteria holds, with their provenance (REFERENCES.md sections 2-4):
+briefer.core.criteria holds, with their provenance (docs/REFERENCES.md sections 2-4):
 
 * TERPS obstacle clearance 300 ft: AIM 5-4-20 ("V").
 * TERPS lowest circling HAA 350/450/450/550/550 ft (A-E): FAA Order 8260.3, from memory ("M").

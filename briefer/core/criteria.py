@@ -493,7 +493,7 @@ _EXPANDED_VALUES_NM: tuple[tuple[float, ...], ...] = (
     (1.4, 2.1, 3.3, 4.4, 5.5),   # 9001 and above
 )
 
-# Cells read in secondary sources (REFERENCES.md section 2c); every other cell is from memory.
+# Cells read in secondary sources (docs/REFERENCES.md section 2c); every other cell is from memory.
 _SRC_PARTIAL_COPY = EXPANDED_SOURCE + ", partial copy of the table on a training web page"
 _SRC_PRESS_C = EXPANDED_SOURCE + ", quoted by the aviation press, 2013 (Cat C 1.7 -> 2.7 NM)"
 _SRC_HIGH_C = EXPANDED_SOURCE + ", a training provider's example (Cat C 3.0 NM, airport at 5,885 ft)"

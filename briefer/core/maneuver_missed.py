@@ -5,7 +5,7 @@ References
 .. [1] FAA, Aeronautical Information Manual, 5-4-21(c): missed approach while circling, an
    initial climbing turn toward the landing runway.
 .. [2] ICAO Doc 8168 Vol I, Part I, Section 4, Chapter 7: climbing turn within the circling area
-   toward the landing runway, 5th ed., 2006 (../shared/REFERENCES.md 4d).
+   toward the landing runway, 5th ed., 2006 (docs/REFERENCES.md 4d).
 """
 
 from __future__ import annotations

@@ -11,7 +11,7 @@ References
 .. [1] ICAO Doc 8168 Vol II, Part I, Section 4, Chapter 7 (visual manoeuvring area), 5th ed., 2006.
 .. [2] FAA, Aeronautical Information Manual, 5-4-20 (circling: descend only when in a position to
    land with normal manoeuvres).
-.. [3] Operator technique summarised in ../shared/REFERENCES.md section 9 (break 45 deg / 30 s,
+.. [3] Operator technique summarised in docs/REFERENCES.md section 9 (break 45 deg / 30 s,
    timing from abeam the threshold, ~3 deg descent, stabilised by 300 ft, common practice).
 """
 

@@ -16,7 +16,7 @@ References
 ----------
 .. [1] ICAO Doc 8168 Vol II, Part I, Section 4, Chapter 7 (circling area: R = 2r + S; 20 deg
    design bank), 5th ed., 2006.
-.. [2] ../shared/REFERENCES.md section 9: circling bank commonly kept at or below 30 deg, the
+.. [2] docs/REFERENCES.md section 9: circling bank commonly kept at or below 30 deg, the
    runway to stay in sight (visibility), common practice.
 """
 

@@ -67,7 +67,7 @@ References
 .. [2] FAA, Aeronautical Information Manual, 5-4-20 (circling: remain at the MDA until in a
    position to descend with normal manoeuvres; shortest path to the base or downwind leg,
    passing over the airport or other runways allowed).
-.. [3] Operator circling technique summarised in ../shared/REFERENCES.md section 9: reciprocal
+.. [3] Operator circling technique summarised in docs/REFERENCES.md section 9: reciprocal
    break 45 deg for about 30 s, timing from abeam the threshold, descent on a ~3 deg path,
    stabilised by 300 ft above the airport (common practice).
 """
@@ -281,7 +281,7 @@ def applicable_candidates(arrival_course_deg: float) -> tuple[tuple[Shape, Side]
     within 90 deg of the landing direction (and not aligned), on the side it converges from;
     ``overfly-circuit`` when it is within 30 deg of the landing direction, aligned included
     (both sides; 30 deg is the FAA straight-in alignment limit, so an approach that is
-    circling-only for its descent gradient alone arrives within it, ../shared/REFERENCES.md
+    circling-only for its descent gradient alone arrives within it, docs/REFERENCES.md
     section 5); ``downwind-join`` when it crosses toward a side at 30 deg or more (that side
     only); ``break-and-return`` and ``teardrop`` when it is within 60 deg of the reciprocal
     (both sides). Every course has a candidate.

@@ -6,7 +6,7 @@ decoded, recognised and kept as text (RVR, present weather, trend, remarks), or 
 ``None``, never to zero. A report that cannot be decoded at all raises `MetarError`, and no other
 exception leaves `decode_metar` whatever the input string.
 
-Code forms (summarised in REFERENCES.md §10):
+Code forms (summarised in docs/REFERENCES.md §10):
 
 * header ``METAR|SPECI [COR] CCCC ddhhmmZ [AUTO] [COR] [NIL]`` [2]_, [3]_;
 * wind ``dddff(f)[Gfmfm(fm)]KT|MPS|KMH``, ``VRBffKT``, calm ``00000KT``, variable sector

@@ -40,7 +40,7 @@ from briefer.render.card_layout import (
     printable_text,
 )
 from briefer.render.scene import ROLE_STYLES, Label, Marker, Polygon, Polyline, Role, Scene
-from briefer.render.svg import (
+from briefer.render.paper import (
     HATCH_WIDTH_MM,
     MARKER_SIZE_MM,
     CirclePrim,

@@ -1,12 +1,11 @@
-"""The plan view on paper: millimetre primitives (for fpdf2's drawing API) and an SVG string.
+"""The plan view on paper: millimetre primitives for fpdf2's drawing API.
 
 `scene_to_primitives(scene, box_mm)` transforms a `Scene` into lines, circles, polygons and text
-in page millimetres (x right, y down, as fpdf2 and SVG both use), each with a style name (the
-role's value; look its pen up with `paper_style`). `scene_to_svg` writes exactly those primitives
-as SVG, so the PDF card drawn either way and any screenshot show the same drawing.
+in page millimetres (x right, y down, as fpdf2 uses), each with a style name (the role's value;
+look its pen up with `paper_style`). The PDF card and the instructor's deck pages draw them.
 
 The drawing is legible in black and white: roles differ by dash pattern, stroke width, grey
-level, hatching and marker symbol; colour is optional (`colour=True`).
+level, hatching and marker symbol.
 
 Pure Python: no Rich, Textual or fpdf import.
 """
@@ -214,103 +213,3 @@ def _decorations(scene: Scene, vp: Viewport, box_mm: tuple[float, float, float, 
 
 
 # --- SVG ------------------------------------------------------------------------------------
-
-
-def _n(v: float) -> str:
-    s = f"{v:.3f}".rstrip("0").rstrip(".")
-    return "0" if s in ("-0", "") else s
-
-
-def _grey(level: float) -> str:
-    g = max(0, min(255, round(level * 255)))
-    return f"#{g:02x}{g:02x}{g:02x}"
-
-
-def _pts(points: Sequence[Point]) -> str:
-    return " ".join(f"{_n(x)},{_n(y)}" for x, y in points)
-
-
-def _pen(style: str, dash: tuple[float, float] | None, colour: bool, *, width: float | None = None) -> str:
-    ps = paper_style(style)
-    stroke = ps.colour_hex if colour else _grey(ps.stroke_grey)
-    attrs = f'stroke="{stroke}" stroke-width="{_n(width if width is not None else ps.stroke_width_mm)}"'
-    if dash:
-        attrs += f' stroke-dasharray="{_n(dash[0])} {_n(dash[1])}"'
-    if ps.round_cap:
-        attrs += ' stroke-linecap="round"'
-    return attrs + ' stroke-linejoin="round"'
-
-
-def _fill(style: str, filled: bool) -> str:
-    ps = paper_style(style)
-    if not filled or ps.fill_grey is None:
-        return 'fill="none"'
-    return f'fill="{_grey(ps.fill_grey)}"'
-
-
-def _element(p: Primitive, colour: bool) -> str:
-    if isinstance(p, LinePrim):
-        tag = "polygon" if p.closed else "polyline"
-        return f'<{tag} points="{_pts(p.points_mm)}" fill="none" {_pen(p.style, p.dash_mm, colour)}/>'
-    if isinstance(p, CirclePrim):
-        return (f'<circle cx="{_n(p.centre_mm[0])}" cy="{_n(p.centre_mm[1])}" r="{_n(p.radius_mm)}" '
-                f'{_fill(p.style, p.filled)} {_pen(p.style, p.dash_mm, colour)}/>')
-    if isinstance(p, PolygonPrim):
-        poly = (f'<polygon points="{_pts(p.points_mm)}" {_fill(p.style, p.filled)} '
-                f'{_pen(p.style, p.dash_mm, colour)}/>')
-        if not p.hatch_mm:
-            return poly
-        d = " ".join(f"M{_n(a[0])},{_n(a[1])} L{_n(b[0])},{_n(b[1])}" for a, b in p.hatch_mm)
-        hatch = f'<path d="{d}" fill="none" {_pen(p.style, None, colour, width=HATCH_WIDTH_MM)}/>'
-        return f"<g>{poly}{hatch}</g>"
-    x, y = p.point_mm
-    fill = paper_style(p.style).colour_hex if colour else "#000000"
-    return (f'<text x="{_n(x)}" y="{_n(y)}" font-family="sans-serif" font-size="{_n(p.size_mm)}" '
-            f'text-anchor="{p.anchor}" fill="{fill}" stroke="none">{escape(p.text)}</text>')
-
-
-def scene_to_svg(scene: Scene, width_mm: float, height_mm: float, *, colour: bool = False,
-                 margin_mm: float = MARGIN_MM, title: str | None = None) -> str:
-    """The plan view as a standalone SVG document measured in millimetres.
-
-    Inside `<g id="scene">` there is exactly one element per scene item, in drawing order, with
-    `class` set to the item's role and `id="item-<index>"`; a marker with a label, or a hatched
-    polygon, is a `<g>`. The frame, scale bar and north arrow are in `<g id="decorations">`.
-
-    Args:
-        scene: What to draw.
-        width_mm, height_mm: The drawing's size.
-        colour: Stroke in the roles' print colours instead of black and greys.
-        margin_mm: Space kept free inside the frame.
-        title: An optional `<title>` (a tooltip and an accessible name).
-    """
-    prims = scene_to_primitives(scene, (0.0, 0.0, width_mm, height_mm), margin_mm=margin_mm)
-    by_item: dict[int, list[Primitive]] = {}
-    decorations: list[Primitive] = []
-    for p in prims:
-        if p.item is None:
-            decorations.append(p)
-        else:
-            by_item.setdefault(p.item, []).append(p)
-    w, h = _n(width_mm), _n(height_mm)
-    out = [f'<svg xmlns="http://www.w3.org/2000/svg" width="{w}mm" height="{h}mm" '
-           f'viewBox="0 0 {w} {h}">']
-    if title:
-        out.append(f"<title>{escape(title)}</title>")
-    out.append(f'<defs><clipPath id="plan-clip"><rect x="0" y="0" width="{w}" height="{h}"/></clipPath></defs>')
-    out.append(f'<rect x="0" y="0" width="{w}" height="{h}" fill="#ffffff" stroke="none"/>')
-    out.append('<g id="scene" clip-path="url(#plan-clip)">')
-    for index, _ in scene.by_layer():
-        parts = by_item.get(index, [])
-        role = scene.items[index].role.value
-        ident = f'id="item-{index}" class={quoteattr(role)}'
-        if len(parts) == 1:
-            el = _element(parts[0], colour)
-            tag_end = el.index(" ") if not el.startswith("<g>") else 2
-            out.append(el[:tag_end] + " " + ident + el[tag_end:])
-        else:
-            out.append(f"<g {ident}>" + "".join(_element(p, colour) for p in parts) + "</g>")
-    out.append("</g>")
-    out.append('<g id="decorations">' + "".join(_element(p, colour) for p in decorations) + "</g>")
-    out.append("</svg>")
-    return "\n".join(out)
