@@ -8,12 +8,12 @@ from __future__ import annotations
 
 import json
 import shutil
-from importlib import resources
 
 import pytest
 
 from briefer.cautions import CAUTIONS
 from briefer.cli import main
+from briefer.io import catalog
 
 DEMO_PROFILES = {"demo-bizjet", "demo-trainer", "demo-twin"}
 DEMO_AIRFIELDS = {"V2RL", "Q7HM", "X4CD"}
@@ -35,7 +35,8 @@ def run_json(capsys, argv: list[str]) -> dict:
 
 
 def demo_file(kind_folder: str, name: str):
-    return resources.files("briefer") / "data" / kind_folder / name
+    kind = {"profiles": "aircraft-profile", "airfields_demo": "airfield"}[kind_folder]
+    return catalog.builtin_folder(kind) / name
 
 
 def test_lists_the_demo_data(capsys):

@@ -178,7 +178,7 @@ def test_catalog_loads_paths(monkeypatch: pytest.MonkeyPatch) -> None:
 def test_user_folders_come_first_and_broken_files_are_listed(tmp_path: Path) -> None:
     mine = tmp_path / "mine"
     mine.mkdir()
-    text = (ROOT / "briefer" / "data" / "profiles" / "demo-twin.yaml").read_text()
+    text = (ROOT / "profiles" / "demo-twin.yaml").read_text()
     (mine / "my-twin.yaml").write_text(text.replace("Invented light piston twin (", "My own copy ("))
     (mine / "broken.yaml").write_text("kind: aircraft-profile\nname: [\n")
     (mine / "notes.txt").write_text("not data")
@@ -222,9 +222,18 @@ def test_config_file_errors(no_user_config: Path, text: str, message: str) -> No
 
 
 def test_demo_data_ships_in_the_wheel() -> None:
-    """pyproject's package-data globs cover the demo files and schemas (so `pip install .` has them)."""
-    text = (ROOT / "pyproject.toml").read_text()
-    assert '"data/**/*.yaml"' in text and '"schemas/*.json"' in text
+    """pyproject maps the top-level demo folders into the package and ships their files and the
+    schemas (so `pip install .` has them); every package folder of briefer/ is listed."""
+    tomllib = pytest.importorskip("tomllib")   # Python 3.11+
+
+    tool = tomllib.loads((ROOT / "pyproject.toml").read_text())["tool"]["setuptools"]
+    for folder in ("profiles", "airfields_demo", "scenarios"):
+        assert tool["package-dir"][f"briefer.data.{folder}"] == folder
+        assert tool["package-data"][f"briefer.data.{folder}"] == ["*.yaml"]
+        assert f"briefer.data.{folder}" in tool["packages"]
+    assert "schemas/*.json" in tool["package-data"]["briefer"]
+    on_disk = {".".join(p.parent.relative_to(ROOT).parts) for p in (ROOT / "briefer").rglob("__init__.py")}
+    assert on_disk <= set(tool["packages"]), sorted(on_disk - set(tool["packages"]))
 
 
 # --- what the demo data must exercise ----------------------------------------------------------------

@@ -109,12 +109,12 @@ def test_wind_additive_common_practice() -> None:
 
 
 def test_weight_scaling_and_category_speed() -> None:
-    bizjet = load_profile(Path(__file__).parent.parent / "briefer" / "data" / "profiles" / "demo-bizjet.yaml")
+    bizjet = load_profile(Path(__file__).parent.parent / "profiles" / "demo-bizjet.yaml")
     # sqrt(31000 / 28000) = 1.05221...; the lowest VREF (flaps-35, 116 kt) x 1.05221 = 122.06 kt
     assert bizjet.weight_speed_factor(31000) == pytest.approx(math.sqrt(31000 / 28000), rel=1e-12)
     assert bizjet.approach_category_speed_kt() == pytest.approx(116 * math.sqrt(31000 / 28000), rel=1e-12)
     assert bizjet.vref_kt_at(28000) == 126  # the default configuration at the reference weight
-    twin = load_profile(Path(__file__).parent.parent / "briefer" / "data" / "profiles" / "demo-twin.yaml")
+    twin = load_profile(Path(__file__).parent.parent / "profiles" / "demo-twin.yaml")
     assert twin.approach_category_speed_kt(use_vso=True) == pytest.approx(1.3 * 64)  # 14 CFR 97.3: 1.3 VSO
     with pytest.raises(DomainError, match="positive number of pounds"):
         twin.weight_speed_factor(0)

@@ -245,10 +245,11 @@ def test_schema_matches_the_model():
 
 
 def test_shipped_examples_load_and_brief():
-    """The example scenarios shipped in briefer/data/scenarios load, resolve and brief."""
-    from importlib import resources
+    """The example scenarios shipped (top-level scenarios/, briefer/data/scenarios when installed)
+    load, resolve and brief."""
+    from briefer.io import catalog
 
-    folder = resources.files("briefer") / "data" / "scenarios"
+    folder = catalog.builtin_folder("scenario")
     files = sorted(f for f in folder.iterdir() if f.name.endswith(".yaml"))
     assert files
     for f in files:

@@ -10,9 +10,9 @@ a built-in one of the same name):
        profile_dirs: [~/flying/profiles]      # relative paths are relative to the config file
        airfield_dirs: [~/flying/airfields]
 
-3. the invented demo data shipped inside the package (``briefer/data/profiles`` and
-   ``briefer/data/airfields_demo``), read through `importlib.resources`, so it is found after a
-   plain ``pip install .`` as well.
+3. the invented demo data: the repository's top-level ``profiles/`` and ``airfields_demo/``,
+   shipped in the wheel as ``briefer/data/profiles`` and ``briefer/data/airfields_demo`` and read
+   there through `importlib.resources`, so it is found after a plain ``pip install .`` as well.
 
 A folder contributes its ``*.yaml`` and ``*.yml`` files (not sub-folders). A profile is found by
 its ``name`` or its file name without the extension; an airfield by its ``ident``, its ``name`` or
@@ -36,7 +36,6 @@ from briefer.errors import BriefingError, DataFileError
 from briefer.io.yamlload import load_airfield, load_bytes, load_profile, read_yaml_mapping
 from briefer.model import KIND_AIRFIELD, KIND_PROFILE, AircraftProfile, Airfield, did_you_mean
 
-BUILTIN_FOLDERS = {KIND_PROFILE: "profiles", KIND_AIRFIELD: "airfields_demo"}
 CONFIG_KEYS = {KIND_PROFILE: "profile_dirs", KIND_AIRFIELD: "airfield_dirs"}
 _SUFFIXES = (".yaml", ".yml")
 _WHAT = {KIND_PROFILE: "aircraft profile", KIND_AIRFIELD: "airfield"}
@@ -132,9 +131,25 @@ class _Source:
     builtin: bool
 
 
+BUILTIN_FOLDERS = {KIND_PROFILE: "profiles", KIND_AIRFIELD: "airfields_demo", "scenario": "scenarios"}
+"""The demo data's folders: top level in the repository (editable examples a user sees first),
+``briefer/data/<folder>`` inside an installed package (pyproject maps one onto the other)."""
+
+
+def builtin_folder(kind: str) -> Any:
+    """The folder of the shipped demo files of a kind ("aircraft-profile", "airfield",
+    "scenario"): inside the installed package (an `importlib.resources` Traversable), else the
+    repository's top-level folder when running from a checkout."""
+    name = BUILTIN_FOLDERS[kind]
+    folder = resources.files("briefer") / "data" / name
+    if folder.is_dir():
+        return folder
+    return Path(__file__).resolve().parent.parent.parent / name
+
+
 def builtin_files(kind: str) -> list[Any]:
-    """The packaged demo files of a kind (`importlib.resources` Traversables), sorted by name."""
-    folder = resources.files("briefer") / "data" / BUILTIN_FOLDERS[kind]
+    """The shipped demo files of a kind (see `builtin_folder`), sorted by name."""
+    folder = builtin_folder(kind)
     if not folder.is_dir():
         return []
     return sorted((f for f in folder.iterdir() if f.is_file() and f.name.endswith(_SUFFIXES)),

@@ -30,7 +30,7 @@ from briefer.io.yamlload import dump_yaml, load_airfield
 from briefer.model import Airfield
 
 HERE = Path(__file__).parent
-DEMO = HERE.parent.parent / "briefer" / "data" / "airfields_demo"
+DEMO = HERE.parent.parent / "airfields_demo"
 GEOD = Geodesic.WGS84
 KEEP_REFERENCE_POINT = {"Q7HM"}
 ON_COURSE_M = 5.0            # a fix this close to the final course line through a threshold is on it
