@@ -21,3 +21,7 @@ PLAN_SHAPES: tuple[str, ...] = ("downwind-join", "break-and-return", "teardrop",
 
 DOWNWIND_SHAPES: tuple[str, ...] = ("downwind-join", "break-and-return", "overfly-circuit")
 """The shapes that fly a downwind leg."""
+
+EMPHASES: tuple[str, ...] = ("tailwind-on-base", "low-visibility", "reciprocal", "hot-high", "cold",
+                             "familiar-picture", "gusty-category")
+"""What an instructor's practice scenario is meant to exercise."""

@@ -101,3 +101,13 @@ def test_the_repository_stands_alone():
                         if m.group(1) not in headings]
     assert offenders == []
     assert missing == []
+
+
+def test_instructor_feature_has_no_import_cycle_and_its_pdf_page_reads_the_deck():
+    """briefer/instructor/ never imports its PDF renderer (render/deck_pdf.py imports the deck, one
+    way), and the renderer does not call the core's geometry: it draws what the deck built."""
+    instructor = PKG / "instructor"
+    for p in instructor.glob("*.py"):
+        assert not re.search(r"^\s*(from|import)\s+briefer\.render\.deck_pdf\b", p.read_text(), re.M), p.name
+    renderer = (PKG / "render" / "deck_pdf.py").read_text()
+    assert not re.search(r"^\s*(from|import)\s+briefer\.core\b", renderer, re.M)

@@ -15,8 +15,8 @@ import pytest
 
 from briefer.errors import DomainError
 from briefer.io import catalog
-from briefer.scenario_deck import answer_text, grading_tolerances
-from briefer.scenario_generate import generate_scenario
+from briefer.instructor.deck import answer_text, grading_tolerances
+from briefer.instructor.generation import generate_scenario
 
 AIRFIELDS = ("V2RL", "X4CD", "Q7HM")
 PROFILES = ("demo-bizjet", "demo-twin", "demo-trainer")

@@ -12,9 +12,9 @@ from textual.app import App
 from textual.widgets import Checkbox, Input, Select, Static
 
 from briefer.io import catalog
-from briefer.scenario_deck import student_text
-from briefer.scenario_generate import generate_scenario
-from briefer.scenarios import load_scenario
+from briefer.instructor.deck import student_text
+from briefer.instructor.generation import generate_scenario
+from briefer.instructor.scenario_format import load_scenario
 from briefer.tui.instructor_screen import InstructorScreen
 from briefer.tui.state import AppCatalog
 

@@ -1,4 +1,4 @@
-"""Scenario files (briefer.scenarios) and the generator (briefer.scenario_generate).
+"""Scenario files (briefer.instructor.scenario_format) and the generator (briefer.instructor.generation).
 
 Loader checks use exact messages of our own format (file:line: field: what was expected), as the
 other loaders' tests do. Generator checks run over many seeds and assert that each scenario
@@ -32,7 +32,7 @@ from briefer.errors import DataFileError, DomainError
 from briefer.io import catalog
 from briefer.io.metar import decode_metar, weather_from_metar
 from briefer.model import Weather
-from briefer.scenario_generate import (
+from briefer.instructor.generation import (
     LOW_VIS_MARGIN_M,
     LOW_VIS_MARGIN_SM,
     RECIPROCAL_WITHIN_DEG,
@@ -44,7 +44,7 @@ from briefer.scenario_generate import (
     landing_course_deg_true,
     station_of,
 )
-from briefer.scenarios import (
+from briefer.instructor.scenario_format import (
     EMPHASES,
     Scenario,
     ScenarioWeather,
@@ -257,12 +257,6 @@ def test_shipped_examples_load_and_brief():
         brief = loaded.brief()
         assert brief.header.airfield_ident == loaded.request.airfield.ident
         assert brief.weather.report == loaded.scenario.weather.report
-
-
-def test_command_choices_match():
-    from briefer.commands import scenario as cmd
-
-    assert cmd.EMPHASIS_CHOICES == EMPHASES
 
 
 # ----------------------------------------------------------------------------------------------

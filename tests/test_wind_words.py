@@ -111,8 +111,8 @@ def test_app_steps_1_3_4(case):
 
 def test_scenario_answer_and_deck(case):
     """`briefer scenario show/new` print the BriefView; the deck's answer page is the card's text."""
-    from briefer.scenario_deck import answer_text
-    from briefer.scenarios import Scenario
+    from briefer.instructor.deck import answer_text
+    from briefer.instructor.scenario_format import Scenario
 
     brief, side, kt = case
     scenario = Scenario.__new__(Scenario)

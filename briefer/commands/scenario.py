@@ -6,15 +6,14 @@ import argparse
 import sys
 from typing import Any
 
+from briefer.vocabulary import EMPHASES
+
 NAME = "scenario"
 ORDER = 40
 HELP = "practice scenarios: generate one (new), brief one from a file (show), print a deck (deck)"
 DESCRIPTION = (HELP + ". Scenarios are reproducible from their seed; every number in them is invented "
                "practice data, not for navigation.")
 
-# = briefer.scenarios.EMPHASES (literal so that --help imports nothing heavy; a test checks they agree)
-EMPHASIS_CHOICES = ("tailwind-on-base", "low-visibility", "reciprocal", "hot-high", "cold",
-                    "familiar-picture", "gusty-category")
 
 
 def _seed(text: str) -> int:
@@ -57,7 +56,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     new.add_argument("--approach", metavar="NAME", help="only this approach (default: drawn)")
     new.add_argument("--runway", metavar="DES", help="only this landing runway (default: drawn)")
     new.add_argument("--configuration", metavar="NAME", help="configuration (default: the profile's)")
-    new.add_argument("--emphasis", choices=EMPHASIS_CHOICES, help="what to exercise (default: drawn from the seed)")
+    new.add_argument("--emphasis", choices=EMPHASES, help="what to exercise (default: drawn from the seed)")
     new.add_argument("--seed", type=_seed, metavar="N", help="seed (default: a fresh one, printed)")
     new.add_argument("--out", metavar="FILE", help="write the scenario here (YAML); without it the YAML is printed")
     new.add_argument("--force", action="store_true", help="overwrite an existing file")
@@ -81,7 +80,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                       help="airfield to draw from (repeatable; default: every airfield found)")
     deck.add_argument("--profile", action="append", metavar="FILE|NAME",
                       help="profile to draw from (repeatable; default: every profile found)")
-    deck.add_argument("--emphasis", action="append", choices=EMPHASIS_CHOICES,
+    deck.add_argument("--emphasis", action="append", choices=EMPHASES,
                       help="emphasis to draw from (repeatable; default: all)")
     deck.add_argument("--seed", type=_seed, metavar="N", help="seed of the whole deck (default: a fresh one, printed)")
     deck.add_argument("--out", required=True, metavar="FILE", help="the PDF to write")
@@ -104,7 +103,7 @@ def _print_case(generated_or_loaded: Any, brief: Any, *, checks: tuple[str, ...]
     from rich.console import Console
 
     from briefer.cautions import SHORT_CAUTION
-    from briefer.scenario_deck import student_text
+    from briefer.instructor.deck import student_text
     from briefer.render.views import BriefView
 
     console = Console()
@@ -123,8 +122,8 @@ def _new(args: argparse.Namespace) -> int:
     from pathlib import Path
 
     from briefer.io import catalog
-    from briefer.scenario_generate import generate_scenario, new_seed
-    from briefer.scenarios import reference_for, scenario_yaml, write_scenario
+    from briefer.instructor.generation import generate_scenario, new_seed
+    from briefer.instructor.scenario_format import reference_for, scenario_yaml, write_scenario
 
     if args.out and not args.force and os.path.lexists(args.out):
         from briefer.io.atomic import FileWriteError
@@ -157,7 +156,7 @@ def _new(args: argparse.Namespace) -> int:
 
 
 def _show(args: argparse.Namespace) -> int:
-    from briefer.scenarios import load_scenario
+    from briefer.instructor.scenario_format import load_scenario
 
     loaded = load_scenario(args.file, profile_dirs=args.profile_dir, airfield_dirs=args.airfield_dir)
     brief = loaded.brief()
@@ -172,8 +171,9 @@ def _show(args: argparse.Namespace) -> int:
 
 
 def _deck(args: argparse.Namespace) -> int:
-    from briefer.scenario_deck import build_deck, check_deck_target, write_deck
-    from briefer.scenario_generate import new_seed
+    from briefer.instructor.deck import build_deck
+    from briefer.render.deck_pdf import check_deck_target, write_deck
+    from briefer.instructor.generation import new_seed
 
     check_deck_target(args.out, page=args.page, overwrite=args.force)   # before the work
     seed = args.seed if args.seed is not None else new_seed()

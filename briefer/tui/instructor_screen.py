@@ -29,7 +29,7 @@ from textual.widgets import Button, Checkbox, Footer, Input, Label, Select, Stat
 
 from briefer.cautions import SHORT_CAUTION
 from briefer.errors import BriefingError
-from briefer.scenarios import EMPHASES, EMPHASIS_TITLES
+from briefer.instructor.scenario_format import EMPHASES, EMPHASIS_TITLES
 
 ANY_EMPHASIS = "any"
 
@@ -56,7 +56,7 @@ class InstructorScreen(Screen[None]):
     """Build a scenario, preview its student page and answer key, write it and a deck.
 
     Attributes:
-        generated: the last scenario generated (`briefer.scenario_generate.Generated`), or None.
+        generated: the last scenario generated (`briefer.instructor.generation.Generated`), or None.
         stale: why the preview is not that of the current choices (None when it is).
         written: the last scenario file written; deck: the last deck written.
     """
@@ -108,7 +108,7 @@ class InstructorScreen(Screen[None]):
             catalog = AppCatalog.load()
         if hasattr(catalog, "loaded"):        # the app's catalog reads models on first use
             catalog = catalog.loaded()
-        from briefer.scenario_generate import new_seed
+        from briefer.instructor.generation import new_seed
 
         self.catalog = catalog
         self.airfields = {i.name: i for i in catalog.airfields if getattr(i, "model", None) is not None}
@@ -240,7 +240,7 @@ class InstructorScreen(Screen[None]):
                 "profile_ref": self._reference(self.profiles[profile])}
 
     def _reference(self, item: Any) -> str:
-        from briefer.scenarios import reference_for
+        from briefer.instructor.scenario_format import reference_for
 
         source = getattr(item, "source", "")
         if getattr(item, "builtin", True) or not source:
@@ -278,8 +278,8 @@ class InstructorScreen(Screen[None]):
 
     @work(thread=True, exclusive=True, group="instructor-generate")
     def _generate(self, choices: dict[str, Any]) -> None:
-        from briefer.scenario_deck import answer_text, student_text
-        from briefer.scenario_generate import generate_scenario
+        from briefer.instructor.deck import answer_text, student_text
+        from briefer.instructor.generation import generate_scenario
 
         try:
             gen = generate_scenario(**choices)
@@ -309,7 +309,7 @@ class InstructorScreen(Screen[None]):
 
     @on(Button.Pressed, "#write-scenario")
     def action_write_scenario(self) -> None:
-        from briefer.scenarios import write_scenario
+        from briefer.instructor.scenario_format import write_scenario
 
         if self.generated is None:
             self.notify("Generate a scenario first.", severity="warning")
@@ -328,7 +328,7 @@ class InstructorScreen(Screen[None]):
 
     @on(Button.Pressed, "#write-deck")
     def action_write_deck(self) -> None:
-        from briefer.scenario_deck import check_deck_target
+        from briefer.render.deck_pdf import check_deck_target
 
         try:
             seed, count = self._seed(), self._count()
@@ -343,7 +343,8 @@ class InstructorScreen(Screen[None]):
 
     @work(thread=True, exclusive=True, group="instructor-deck")
     def _deck(self, seed: int, count: int, path: Path, overwrite: bool) -> None:
-        from briefer.scenario_deck import build_deck, write_deck
+        from briefer.instructor.deck import build_deck
+        from briefer.render.deck_pdf import write_deck
 
         try:
             deck = build_deck(count=count, seed=seed, airfields=[i.model for i in self.airfields.values()],

@@ -7,7 +7,7 @@
   sight-picture trap figures, why the case exercises its emphasis, and grading tolerances.
 
 `student_text` / `answer_text` give both pages as plain text (the CLI and the app's preview);
-`build_deck` generates N varied scenarios from one seed and `deck_pdf_bytes` prints them, the same
+`build_deck` generates N varied scenarios from one seed and `briefer.render.deck_pdf.deck_pdf_bytes` prints them, the same
 bytes for the same seed (the document date is fixed).
 """
 
@@ -22,7 +22,7 @@ from pathlib import Path
 from typing import Any
 
 from briefer.errors import BriefingError, DomainError
-from briefer.scenarios import EMPHASES, EMPHASIS_TITLES, LoadedScenario, Scenario
+from briefer.instructor.scenario_format import EMPHASES, EMPHASIS_TITLES, LoadedScenario, Scenario
 
 TEXT_WIDTH = 78
 PRACTICE_LINE = "PRACTICE SCENARIO - invented data for training, not for navigation"
@@ -187,6 +187,16 @@ class DeckCase:
     brief: Any
     checks: tuple[str, ...]
 
+    @property
+    def final_approach_xy_m(self) -> tuple[tuple[float, float], tuple[float, float]]:
+        """The final approach course as the student page draws it: the FAF and the MAP in the
+        brief's local frame (metres east, north)."""
+        from briefer.core.airfield_geometry import AirfieldGeometry
+
+        req = self.loaded.request
+        faf, map_fix = AirfieldGeometry(req.airfield).fixes_xy_m(req.selected_approach())
+        return (float(faf[0]), float(faf[1])), (float(map_fix[0]), float(map_fix[1]))
+
 
 @dataclass(frozen=True, slots=True, kw_only=True)
 class Deck:
@@ -250,7 +260,7 @@ def build_deck(*, count: int, seed: int, airfields: Sequence[Any] | None = None,
         DomainError: for a count outside 1-50, an unknown emphasis, or when no combination can
             exercise any of the emphases asked for.
     """
-    from briefer.scenario_generate import generate_scenario
+    from briefer.instructor.generation import generate_scenario
 
     if not 1 <= count <= 50:
         raise DomainError(f"count must be 1 to 50; got {count}")
@@ -289,43 +299,6 @@ def build_deck(*, count: int, seed: int, airfields: Sequence[Any] | None = None,
     return Deck(seed=seed, cases=tuple(cases), skipped=tuple(skipped))
 
 
-DECK_PAGES = ("letter", "a4", "half-letter", "a5")
-
-
-def deck_pdf_bytes(deck: Deck, *, page: str = "letter") -> bytes:
-    """The deck as one PDF (see `briefer.render` for the drawing); the same deck gives the same bytes."""
-    from briefer.scenario_deck_pdf import deck_pdf_bytes as _pdf
-
-    if page not in DECK_PAGES:
-        raise BriefingError(f"unknown page size {page!r}; expected one of {', '.join(DECK_PAGES)}")
-    return _pdf(deck, page=page)
-
-
-def check_deck_target(path: str | PathLike[str], *, page: str = "letter", overwrite: bool = False) -> Path:
-    """The deck's file, checked before the work of making it: a .pdf name, a known page size, and
-    no existing file unless `overwrite`."""
-    import os
-
-    from briefer.io.atomic import FileWriteError
-
-    target = Path(os.path.expanduser(os.fspath(path)))
-    if target.suffix.lower() != ".pdf":
-        raise BriefingError(f"cannot write {path}: a deck is a PDF; name it .pdf")
-    if page not in DECK_PAGES:
-        raise BriefingError(f"unknown page size {page!r}; expected one of {', '.join(DECK_PAGES)}")
-    if not overwrite and os.path.lexists(target) and not target.is_dir():
-        raise FileWriteError(target, "the file already exists; not overwritten (overwrite it with --force)")
-    return target
-
-
-def write_deck(path: str | PathLike[str], deck: Deck, *, page: str = "letter", overwrite: bool = False) -> Path:
-    """Write the deck PDF atomically (refuses to overwrite unless asked)."""
-    from briefer.io.atomic import write_bytes_atomic
-
-    target = check_deck_target(path, page=page, overwrite=overwrite)
-    return write_bytes_atomic(target, deck_pdf_bytes(deck, page=page), overwrite=overwrite)
-
-
 __all__ = [
     "Deck",
     "DeckCase",
@@ -334,10 +307,7 @@ __all__ = [
     "WHAT_TO_BRIEF",
     "answer_text",
     "build_deck",
-    "check_deck_target",
-    "deck_pdf_bytes",
     "grading_tolerances",
     "student_text",
     "trap_lines",
-    "write_deck",
 ]

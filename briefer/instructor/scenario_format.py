@@ -30,8 +30,8 @@ error reads like every other data file's::
 
     lesson3.yaml:9: weather.wind_speed_kt: expected 14 (as in the report), got 41
 
-Generating scenarios is in `briefer.scenario_generate`; the instructor deck in
-`briefer.scenario_deck`.
+Generating scenarios is in `briefer.instructor.generation`; the instructor deck in
+`briefer.instructor.deck`.
 """
 
 from __future__ import annotations
@@ -44,6 +44,7 @@ from os import PathLike
 from pathlib import Path
 from typing import Any, ClassVar
 
+from briefer import vocabulary
 from briefer.errors import BriefingError, DataFileError
 from briefer.io.metar import MetarError, MetarReport, decode_metar, weather_from_metar
 from briefer.model import (
@@ -64,8 +65,7 @@ from briefer.model import (
 KIND_SCENARIO = "scenario"
 SCENARIO_FORMAT_VERSION = 1
 
-EMPHASES: tuple[str, ...] = ("tailwind-on-base", "low-visibility", "reciprocal", "hot-high", "cold",
-                             "familiar-picture", "gusty-category")
+EMPHASES: tuple[str, ...] = vocabulary.EMPHASES
 """What a scenario is meant to exercise."""
 
 EMPHASIS_TITLES: Mapping[str, str] = {

@@ -35,7 +35,7 @@ from briefer import units
 from briefer.core import angles
 from briefer.errors import DomainError
 from briefer.model import AircraftProfile, Airfield, BriefRequest, Weather
-from briefer.scenarios import EMPHASES, EMPHASIS_TITLES, LoadedScenario, Scenario, ScenarioWeather
+from briefer.instructor.scenario_format import EMPHASES, EMPHASIS_TITLES, LoadedScenario, Scenario, ScenarioWeather
 
 TAILWIND_ON_BASE_MIN_KT = 5.0
 TAILWIND_ON_BASE_MIN_FRACTION = 0.4
@@ -65,7 +65,7 @@ class Generated:
     """A generated scenario, with what it was checked against.
 
     Attributes:
-        scenario: the scenario (write it with `briefer.scenarios.write_scenario`).
+        scenario: the scenario (write it with `briefer.instructor.scenario_format.write_scenario`).
         loaded: the scenario resolved (request and decoded report).
         brief: its brief.
         checks: plain sentences: what makes this case exercise its emphasis (with numbers).
@@ -279,7 +279,7 @@ def _weight(ctx: _Ctx) -> float:
 def _brief(req: BriefRequest, report: str) -> Any:
     from briefer.brief import build_brief
     from briefer.io.metar import decode_metar
-    from briefer.scenarios import scenario_time_text
+    from briefer.instructor.scenario_format import scenario_time_text
 
     decoded = decode_metar(report)
     return build_brief(req, weather_report=decoded, computed_utc=scenario_time_text(decoded))

@@ -19,14 +19,17 @@ for its header, bars, rows and plan view, so that both pages share one typograph
 from __future__ import annotations
 
 from dataclasses import replace
+from os import PathLike
+from pathlib import Path
 from typing import Any
 
 import numpy as np
 
+from briefer.errors import BriefingError
 from briefer.render import pdf as card_pdf
 from briefer.render.card_layout import Figure, Row, Section, card_layout, num
 from briefer.render.scene import Marker, Polyline, Role, Scene
-from briefer.scenario_deck import (
+from briefer.instructor.deck import (
     EMPHASIS_PROMPTS,
     PRACTICE_LINE,
     WHAT_TO_BRIEF,
@@ -34,7 +37,7 @@ from briefer.scenario_deck import (
     DeckCase,
     grading_tolerances,
 )
-from briefer.scenarios import EMPHASIS_TITLES
+from briefer.instructor.scenario_format import EMPHASIS_TITLES
 
 DECK_PAGE_SIZES_MM: dict[str, tuple[float, float]] = {
     "letter": (215.9, 279.4),
@@ -116,10 +119,7 @@ def chart_scene(case: DeckCase) -> Scene:
         if isinstance(item, Marker) and item.role is Role.OBSTACLE and item.point in elevation:
             item = replace(item, label=f"{elevation[item.point]:.0f}")
         items.append(item)
-    req = case.loaded.request
-    af, appr = req.airfield, req.selected_approach()
-    fixes = [tuple(float(v) for v in p) for p in af.layout.fixes_m[appr.name]]
-    items.append(Polyline(points=tuple(fixes), role=Role.FINAL_APPROACH))
+    items.append(Polyline(points=case.final_approach_xy_m, role=Role.FINAL_APPROACH))
     return replace(scene, items=tuple(items))
 
 
@@ -227,7 +227,7 @@ def _student_page(pdf: Any, case: DeckCase, index: int, total: int, page_w: floa
 # --------------------------------------------------------------------------------------------
 # The document
 # --------------------------------------------------------------------------------------------
-def deck_pdf_bytes(deck: Deck, *, page: str = "letter") -> bytes:
+def _deck_pdf(deck: Deck, *, page: str = "letter") -> bytes:
     """Student page then answer page for every case; fixed metadata, so reproducible."""
     from fpdf import FPDF   # imported only when a PDF is made
 
@@ -249,4 +249,40 @@ def deck_pdf_bytes(deck: Deck, *, page: str = "letter") -> bytes:
     return bytes(pdf.output())
 
 
-__all__ = ["DECK_PAGE_SIZES_MM", "answer_sections", "chart_scene", "deck_pdf_bytes"]
+DECK_PAGES = ("letter", "a4", "half-letter", "a5")
+
+
+def deck_pdf_bytes(deck: Deck, *, page: str = "letter") -> bytes:
+    """The deck as one PDF (see `briefer.render` for the drawing); the same deck gives the same bytes."""
+    if page not in DECK_PAGES:
+        raise BriefingError(f"unknown page size {page!r}; expected one of {', '.join(DECK_PAGES)}")
+    return _deck_pdf(deck, page=page)
+
+
+def check_deck_target(path: str | PathLike[str], *, page: str = "letter", overwrite: bool = False) -> Path:
+    """The deck's file, checked before the work of making it: a .pdf name, a known page size, and
+    no existing file unless `overwrite`."""
+    import os
+
+    from briefer.io.atomic import FileWriteError
+
+    target = Path(os.path.expanduser(os.fspath(path)))
+    if target.suffix.lower() != ".pdf":
+        raise BriefingError(f"cannot write {path}: a deck is a PDF; name it .pdf")
+    if page not in DECK_PAGES:
+        raise BriefingError(f"unknown page size {page!r}; expected one of {', '.join(DECK_PAGES)}")
+    if not overwrite and os.path.lexists(target) and not target.is_dir():
+        raise FileWriteError(target, "the file already exists; not overwritten (overwrite it with --force)")
+    return target
+
+
+def write_deck(path: str | PathLike[str], deck: Deck, *, page: str = "letter", overwrite: bool = False) -> Path:
+    """Write the deck PDF atomically (refuses to overwrite unless asked)."""
+    from briefer.io.atomic import write_bytes_atomic
+
+    target = check_deck_target(path, page=page, overwrite=overwrite)
+    return write_bytes_atomic(target, deck_pdf_bytes(deck, page=page), overwrite=overwrite)
+
+
+__all__ = ["DECK_PAGES", "DECK_PAGE_SIZES_MM", "answer_sections", "chart_scene", "check_deck_target",
+           "deck_pdf_bytes", "write_deck"]
