@@ -111,3 +111,27 @@ def test_instructor_feature_has_no_import_cycle_and_its_pdf_page_reads_the_deck(
         assert not re.search(r"^\s*(from|import)\s+briefer\.render\.deck_pdf\b", p.read_text(), re.M), p.name
     renderer = (PKG / "render" / "deck_pdf.py").read_text()
     assert not re.search(r"^\s*(from|import)\s+briefer\.core\b", renderer, re.M)
+
+
+def test_ci_tests_the_installed_package():
+    """Under CI (.ci/run sets CI=true) the suite imports briefer from the installed wheel, not
+    from the checkout: `.venv/bin/pytest` from the repository root does not put the checkout on
+    sys.path (tests/ has no __init__.py), while `python -m pytest` would."""
+    import os
+
+    import briefer
+
+    if os.environ.get("CI", "").lower() != "true":
+        import pytest
+
+        pytest.skip("only under CI")
+    assert "site-packages" in Path(briefer.__file__).parts, briefer.__file__
+
+
+def test_ci_runs_exactly_the_readme_test_command():
+    root = PKG.parent
+    readme = (root / "README.md").read_text()
+    ci = (root / ".ci" / "run").read_text()
+    command = "python3 -m venv .venv && .venv/bin/pip install '.[test]' && .venv/bin/pytest"
+    assert command in readme and command in ci
+    assert not (root / "tests" / "__init__.py").exists()
