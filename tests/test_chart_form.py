@@ -102,7 +102,7 @@ def test_chart_twin_positions_match_the_demo_coordinates() -> None:
     """The georeferenced twin (Qorvel Mesa) puts every threshold, fix and obstacle where the
     demo file's coordinates are, within what the chart's rounding allows: 1 ft and 0.1 deg on
     runway positions (a few metres), 0.1 NM on the FAF distance (93 m)."""
-    demo = load_airfield(catalog.builtin_files("airfield")[0].parent / "q7hm-qorvel-mesa.yaml")
+    demo = load_airfield(Path(str(catalog.builtin_files("airfield")[0])).parent / "q7hm-qorvel-mesa.yaml")
     twin = load_airfield(TWINS / "q7hm-qorvel-mesa-chart.yaml")
     for d, p in demo.layout.thresholds_m.items():
         assert math.dist(p, twin.layout.thresholds_m[d]) < 10.0, d

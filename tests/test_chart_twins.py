@@ -38,8 +38,7 @@ from briefer.model import BriefRequest, Weather
 from briefer.render.brief_json import brief_to_dict
 from briefer.units import NM_TO_M
 
-ROOT = Path(__file__).resolve().parent.parent
-DEMO = ROOT / "airfields_demo"
+DEMO = Path(str(catalog.builtin_files("airfield")[0])).parent     # the demo airfields, wherever they live
 TWINS = Path(__file__).parent / "chart_twins"
 TOLERANCES = (("_nm", 0.01), ("_s", 1.0), ("_deg", 1.0), ("_deg_mag", 1.0), ("_deg_true", 1.0), ("_ft", 10.0))
 POSITION_TOL_M = 0.01 * NM_TO_M

@@ -26,11 +26,12 @@ from pathlib import Path
 from geographiclib.geodesic import Geodesic
 
 from briefer import units
+from briefer.io import catalog
 from briefer.io.yamlload import dump_yaml, load_airfield
 from briefer.model import Airfield
 
 HERE = Path(__file__).parent
-DEMO = HERE.parent.parent / "airfields_demo"
+DEMO = Path(str(catalog.builtin_files("airfield")[0])).parent
 GEOD = Geodesic.WGS84
 KEEP_REFERENCE_POINT = {"Q7HM"}
 ON_COURSE_M = 5.0            # a fix this close to the final course line through a threshold is on it
