@@ -87,14 +87,21 @@ def test_weather_explicit_only_typed_values():
                             "wind_reference": "true"}
 
 
-def test_app_command_demo_weather_is_the_demo_requests():
-    # The app command keeps a copy of the demo weather so that it opens without importing
-    # briefer.brief; it must stay the same as the demo request's. (regression value, no published source)
-    from briefer.brief import demo_request
-    from briefer.commands.app import DEMO_WEATHER
+def test_app_demo_with_one_weather_option_keeps_the_rest_of_the_demo_weather():
+    """Issue 11 item 2, in the app command: `briefer app --demo --wind 090/30` opens on the demo's
+    temperature, altimeter, visibility and ceiling (briefer.demo) with the typed wind; `--oat-c -5`
+    keeps the demo's wind."""
+    from briefer.cli import build_parser
+    from briefer.commands.app import inputs_from_args
 
-    wx = demo_request().weather
-    assert DEMO_WEATHER == {k: getattr(wx, k) for k in DEMO_WEATHER}
+    p, _ = build_parser()
+    _, inputs, _ = inputs_from_args(p.parse_args(["app", "--demo", "--wind", "090/30"]))
+    w = inputs.weather
+    assert (w.wind_from_deg, w.wind_speed_kt, w.wind_gust_kt) == (90.0, 30.0, None)
+    assert (w.oat_c, w.altimeter_hpa, w.visibility_sm, w.ceiling_ft) == (9.0, 1009.0, 3.0, 1100.0)
+    _, inputs, _ = inputs_from_args(p.parse_args(["app", "--demo", "--oat-c", "-5"]))
+    w = inputs.weather
+    assert (w.wind_from_deg, w.wind_speed_kt, w.wind_gust_kt, w.oat_c) == (240.0, 10.0, 16.0, -5.0)
 
 
 def test_app_command_demo_inputs_do_not_import_the_brief():

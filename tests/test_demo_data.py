@@ -414,99 +414,33 @@ def schema(kind: str) -> dict[str, Any]:
     return json.loads((SCHEMAS / f"{kind}.schema.json").read_text())
 
 
-def resolve(root: dict[str, Any], node: dict[str, Any]) -> dict[str, Any]:
-    while "$ref" in node:
-        node = root["$defs"][node["$ref"].rsplit("/", 1)[1]]
-    return node
+def _validator(root: dict[str, Any]) -> Any:
+    """A draft 2020-12 validator of a schema (the `jsonschema` reference implementation)."""
+    jsonschema = pytest.importorskip("jsonschema")
+    jsonschema.Draft202012Validator.check_schema(root)
+    return jsonschema.Draft202012Validator(root)
 
 
-def keys_not_in_schema(value: Any, node: dict[str, Any], root: dict[str, Any], path: str = "") -> list[str]:
-    node = resolve(root, node)
-    for branch in node.get("anyOf", []):
-        if "$ref" in branch and isinstance(value, dict):
-            return keys_not_in_schema(value, branch, root, path)
-    if isinstance(value, dict):
-        props = node.get("properties", {})
-        out = [f"{path}.{k}" for k in value if k not in props]
-        for k, v in value.items():
-            if k in props:
-                out += keys_not_in_schema(v, props[k], root, f"{path}.{k}")
-        return out
-    if isinstance(value, list) and "items" in node:
-        return [k for i, v in enumerate(value) for k in keys_not_in_schema(v, node["items"], root, f"{path}[{i}]")]
-    return []
+def schema_errors(value: Any, node: dict[str, Any], root: dict[str, Any] | None = None) -> list[str]:
+    """Every way `value` fails the schema `node` (validated by `jsonschema`), as "path: message"."""
+    return [f"${''.join(f'[{p!r}]' for p in e.absolute_path)}: {e.message}"
+            for e in _validator(node).iter_errors(value)]
 
 
-_TYPES = {"object": dict, "array": list, "string": str, "boolean": bool, "null": type(None)}
-
-
-def schema_errors(value: Any, node: dict[str, Any], root: dict[str, Any], path: str = "$") -> list[str]:
-    """A small validator for the subset of draft 2020-12 the two schemas use (jsonschema is not
-    a dependency): type, const, enum, minimum/maximum, minLength/maxLength/pattern, required,
-    properties, additionalProperties false, minProperties, items, minItems/maxItems, dependentRequired,
-    oneOf, anyOf, allOf, not."""
-    node = resolve(root, node)
-    errs: list[str] = []
-    if "const" in node and value != node["const"]:
-        errs.append(f"{path}: not {node['const']!r}")
-    if "enum" in node and value not in node["enum"]:
-        errs.append(f"{path}: not one of {node['enum']}")
-    if "type" in node:
-        types = node["type"] if isinstance(node["type"], list) else [node["type"]]
-
-        def fits(t: str) -> bool:
-            if t == "number":
-                return isinstance(value, (int, float)) and not isinstance(value, bool)
-            if t == "integer":
-                return isinstance(value, int) and not isinstance(value, bool)
-            return isinstance(value, _TYPES[t]) and not (t != "boolean" and isinstance(value, bool))
-        if not any(fits(t) for t in types):
-            return errs + [f"{path}: not of type {types}"]
-    if isinstance(value, (int, float)) and not isinstance(value, bool):
-        if "minimum" in node and value < node["minimum"] or "maximum" in node and value > node["maximum"]:
-            errs.append(f"{path}: {value} outside {node.get('minimum')}..{node.get('maximum')}")
-    if isinstance(value, str):
-        if len(value) < node.get("minLength", 0) or len(value) > node.get("maxLength", 10**9):
-            errs.append(f"{path}: length")
-        if "pattern" in node and not re.search(node["pattern"], value):
-            errs.append(f"{path}: does not match {node['pattern']}")
-    if isinstance(value, dict):
-        errs += [f"{path}: missing {k}" for k in node.get("required", []) if k not in value]
-        props = node.get("properties", {})
-        if node.get("additionalProperties") is False:
-            errs += [f"{path}: unexpected {k}" for k in value if k not in props]
-        if len(value) < node.get("minProperties", 0):
-            errs.append(f"{path}: too few properties")
-        errs += [f"{path}: {k} needs {need}" for k, needs in node.get("dependentRequired", {}).items()
-                 if k in value for need in needs if need not in value]
-        for k, v in value.items():
-            if k in props:
-                errs += schema_errors(v, props[k], root, f"{path}.{k}")
-    if isinstance(value, list):
-        if len(value) < node.get("minItems", 0):
-            errs.append(f"{path}: too few items")
-        if len(value) > node.get("maxItems", 10**9):
-            errs.append(f"{path}: too many items")
-        if "items" in node:
-            for i, v in enumerate(value):
-                errs += schema_errors(v, node["items"], root, f"{path}[{i}]")
-    if "oneOf" in node:
-        passing = sum(not schema_errors(value, b, root, path) for b in node["oneOf"])
-        if passing != 1:
-            errs.append(f"{path}: matches {passing} of oneOf")
-    if "anyOf" in node and not any(not schema_errors(value, b, root, path) for b in node["anyOf"]):
-        errs.append(f"{path}: matches none of anyOf")
-    for b in node.get("allOf", []):
-        errs += schema_errors(value, b, root, path)
-    if "not" in node and not schema_errors(value, node["not"], root, path):
-        errs.append(f"{path}: matches not")
-    return errs
+def keys_not_in_schema(value: Any, node: dict[str, Any], root: dict[str, Any] | None = None) -> list[str]:
+    """The keys of `value` that the schema does not declare (its additionalProperties errors)."""
+    return [f"${''.join(f'[{p!r}]' for p in e.absolute_path)}: {e.message}"
+            for e in _validator(node).iter_errors(value) if e.validator in ("additionalProperties",
+                                                                             "unevaluatedProperties")]
 
 
 def test_schemas_are_draft_2020_12() -> None:
-    for kind in (KIND_PROFILE, KIND_AIRFIELD):
+    for kind in (KIND_PROFILE, KIND_AIRFIELD, "scenario"):
         s = schema(kind)
         assert s["$schema"] == "https://json-schema.org/draft/2020-12/schema"
+        _validator(s)            # a valid schema of that draft (jsonschema's meta-schema check)
+    for kind in (KIND_PROFILE, KIND_AIRFIELD):
+        s = schema(kind)
         assert s["properties"]["kind"] == {"const": kind, "description": f"What the file holds: always '{kind}'."}
 
 
@@ -559,3 +493,22 @@ def test_schema_also_rejects_what_the_loader_rejects(name: str) -> None:
     assert schema_errors(data, root, root) != []
     with pytest.raises(DataFileError):
         load_any(BAD / name)
+
+
+SHIPPED_AND_TEST_FILES = ("profiles/*.yaml", "airfields_demo/*.yaml", "scenarios/*.yaml", "tests/bad_files/good-*.yaml",
+                          "tests/chart_files/good-*.yaml", "tests/chart_twins/*.yaml")
+
+
+def test_every_shipped_and_test_data_file_validates_against_its_schema() -> None:
+    """Each shipped file and each good test file validates (jsonschema, draft 2020-12) against the
+    schema of its `kind`, so the schemas describe what the loaders accept."""
+    seen = {}
+    for pattern in SHIPPED_AND_TEST_FILES:
+        files = sorted(ROOT.glob(pattern))
+        assert files, pattern
+        for path in files:
+            data = parse_yaml_mapping(path.read_bytes(), path.name).data
+            kind = data.get("kind", "scenario")
+            assert schema_errors(data, schema(kind)) == [], path
+            seen[kind] = seen.get(kind, 0) + 1
+    assert set(seen) == {KIND_PROFILE, KIND_AIRFIELD, "scenario"}

@@ -42,8 +42,8 @@ def inputs_from_args(args: argparse.Namespace):
         inputs = BriefingInputs(profile=DEMO["profile"], airfield=DEMO["airfield"], approach=DEMO["approach"],
                                 landing_runway=DEMO["runway"], weather=WeatherInputs(**DEMO_WEATHER))
         return cat, inputs, None
-    from briefer import units
-    from briefer.commands._request import check_options, weight_lb_from_args
+    from briefer.commands._request import check_options, typed_weather, weight_lb_from_args
+    from briefer.io.weather_input import weather_fields
     from briefer.io import catalog as catalog_mod
 
     check_options(args)
@@ -78,27 +78,11 @@ def inputs_from_args(args: argparse.Namespace):
         cat = cat.with_models(airfield=airfield)
     approach = airfield.approach(args.approach or names["approach"]).name
 
-    typed: dict = {}
-    if args.wind:
-        from briefer.core.wind import parse_wind
-
-        w = parse_wind(args.wind, reference=args.wind_is)
-        typed.update(wind_from_deg=w.from_deg, wind_speed_kt=w.speed_kt, wind_gust_kt=w.gust_kt,
-                     wind_reference=args.wind_is)
-    for key, value in (("oat_c", args.oat_c), ("visibility_sm", args.visibility_sm), ("ceiling_ft", args.ceiling_ft),
-                       ("altimeter_hpa", args.altimeter_hpa)):
-        if value is not None:
-            typed[key] = value
-    if args.altimeter_inhg is not None:
-        typed["altimeter_hpa"] = args.altimeter_inhg * units.INHG_TO_HPA
-    if args.visibility_m is not None:
-        typed["visibility_sm"] = args.visibility_m * units.M_TO_SM
-    if args.ceiling_m is not None:
-        typed["ceiling_ft"] = args.ceiling_m * units.M_TO_FT
-    if args.metar or typed or not use_demo:
+    typed = {k: v for k, v in typed_weather(args).items() if v is not None}
+    if args.metar or not use_demo:
         weather = WeatherInputs(report=(args.metar or "").strip(), **typed)
-    else:
-        weather = WeatherInputs(**DEMO_WEATHER)
+    else:   # the demo's weather, the typed values over its parts (the one rule of io.weather_input)
+        weather = WeatherInputs(**weather_fields(base=DEMO_WEATHER, typed=typed))
     inputs = BriefingInputs(profile=profile.name, configuration=args.configuration, airfield=airfield.ident,
                             approach=approach, landing_runway=args.runway or names["runway"],
                             weight_lb=weight_lb_from_args(args), bank_deg=args.bank_deg,
