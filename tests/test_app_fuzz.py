@@ -4,9 +4,13 @@ from __future__ import annotations
 
 import random
 
+import pytest
+
 from test_app_support import demo_catalog, demo_inputs, expected_brief, settle
 
 from briefer.tui.app import BriefingApp
+
+pytestmark = pytest.mark.slow   # a sweep or fuzz: `-m "not slow"` skips it in a quick run
 
 KEYS = list("0123456789/GVRBKTQAMabxz .-") + [
     "tab", "shift+tab", "up", "down", "left", "right", "enter", "escape", "backspace", "home", "end",

@@ -22,6 +22,8 @@ from briefer.core.maneuver import DENSE_CHECK_M, DOES_NOT_FIT, FITS, MARGINAL
 from briefer.io import catalog
 from briefer.model import BriefRequest, Weather
 
+pytestmark = pytest.mark.slow   # a sweep or fuzz: `-m "not slow"` skips it in a quick run
+
 FAIR = dict(oat_c=15.0, altimeter_hpa=1013.0, visibility_sm=3.0, ceiling_ft=4000.0)
 WINDS = [(0.0, 0.0), (0.0, 20.0), (60.0, 15.0), (100.0, 30.0), (180.0, 12.0), (250.0, 25.0), (300.0, 40.0)]
 """(from, relative to the landing runway's designator heading, magnetic; speed kt)."""

@@ -27,6 +27,7 @@ from briefer.io.yamlload import load_airfield, load_any, load_bytes, parse_yaml_
 from briefer.model import Airfield, BriefRequest, Weather
 from briefer.render.card_text import card_text
 from briefer.units import FT_TO_M, NM_TO_M
+from briefer.vocabulary import PLAN_SHAPES
 
 HERE = Path(__file__).parent
 FILES = HERE / "chart_files"
@@ -194,7 +195,7 @@ def test_a_local_frame_airfield_briefs_and_says_so(in_chart_files: Path) -> None
     notes = [f for f in brief.warnings if f.code == "local-frame"]
     assert len(notes) == 1 and "threshold 09" in notes[0].text and "not tied to the earth" in notes[0].text
     assert "local frame" in card_text(brief)
-    assert brief.plan is not None
+    assert brief.plan.feasible and brief.plan.shape in PLAN_SHAPES and brief.plan.side in ("left", "right")
 
 
 # --- schema --------------------------------------------------------------------------------------------

@@ -25,6 +25,8 @@ from briefer.io import catalog
 from briefer.model import BriefRequest, Weather
 from briefer.render.brief_json import brief_to_dict
 
+pytestmark = pytest.mark.slow   # a sweep or fuzz: `-m "not slow"` skips it in a quick run
+
 GOLDEN = Path(__file__).parent / "golden" / "demo_briefs.json"
 UTC = "2000-01-01 00:00Z"
 FAIR = dict(wind_speed_kt=0.0, oat_c=15.0, altimeter_hpa=1013.0, visibility_sm=6.0, ceiling_ft=4000.0)

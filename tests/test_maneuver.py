@@ -323,6 +323,7 @@ DOWNWIND_SHAPES = [("break-and-return", reciprocal), ("teardrop", reciprocal), (
                    ("downwind-join", crossing_wide)]
 
 
+@pytest.mark.slow
 @settings(max_examples=150, deadline=None)
 @given(case=st.sampled_from(DOWNWIND_SHAPES), side=st.sampled_from(["left", "right"]),
        wind_from=st.floats(0.0, 360.0), wind_kt=st.floats(0.0, 40.0), bank=st.floats(15.0, 30.0),
@@ -384,6 +385,7 @@ def test_downwind_join_timing_from_abeam():
     assert p.downwind_heading_deg == pytest.approx(180.0)
 
 
+@pytest.mark.slow
 @settings(max_examples=150, deadline=None)
 @given(wind_from=st.floats(0.0, 360.0), wind_kt=st.floats(0.0, 30.0), bank=st.floats(15.0, 30.0),
        tas=st.floats(90.0, 160.0), rr=st.sampled_from([None, 4.0, 10.0]), y0=st.floats(900.0, 2500.0))
@@ -589,6 +591,7 @@ def test_circuit_crosswind_needs_a_base_or_a_crosswind_leg(side, toward_pattern)
     assert p.offset_m == pytest.approx(2 * r * math.cos(delta) + w * (math.pi + 2 * delta) / omega, rel=1e-9)
 
 
+@pytest.mark.slow
 @settings(max_examples=150, deadline=None)
 @given(side=st.sampled_from(["left", "right"]), course=st.floats(-30.0, 30.0), x0=st.floats(-3000.0, 2000.0),
        y0=st.floats(-600.0, 600.0), wind_from=st.floats(0.0, 360.0), wind_kt=st.floats(0.0, 40.0),
