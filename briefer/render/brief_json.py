@@ -30,6 +30,53 @@ def _runway(r: Any) -> dict[str, Any]:
     return out
 
 
+def _plan_dict(pl: Any) -> dict[str, Any]:
+    """The plan part of the JSON."""
+    return {
+        "feasible": pl.feasible, "shape": pl.shape, "shape_text": pl.shape_text, "side": pl.side,
+        "bank_deg": pl.bank_deg, "offset_nm": pl.offset_nm,
+        "abeam_to_roll_in_s": pl.abeam_to_roll_in_s,
+        "roll_in_distance_nm": pl.roll_in_distance_nm,
+        "break_off_s": pl.break_off_s, "break_off_angle_deg": pl.break_off_angle_deg,
+        "roll_out_distance_nm": pl.roll_out_distance_nm,
+        "downwind_heading_deg_mag": pl.downwind_heading_deg_mag,
+        "final_heading_deg_mag": pl.final_heading_deg_mag,
+        "leave_mda": pl.leave_mda_text, "leave_mda_in_turn": pl.leave_mda_in_turn,
+        "leave_mda_distance_nm": pl.leave_mda_distance_nm,
+        "leave_mda_heading_deg_mag": pl.leave_mda_heading_deg_mag,
+        "inside_area": pl.inside_area, "area_margin_nm": pl.area_margin_nm,
+        "area_edge_margin_nm": pl.area_edge_margin_nm, "sector_clearance_nm": pl.sector_clearance_nm,
+        "runway_within_visibility": pl.runway_within_visibility,
+        "max_distance_from_threshold_nm": pl.max_distance_from_threshold_nm,
+        "roll_in": _xy(pl.roll_in_xy_m)[0], "descent_point": _xy(pl.descent_xy_m)[0],
+        "track": _xy(pl.track_xy_m),
+        "reasons": list(pl.reasons),
+        "alternatives": [{"shape": alt.shape, "side": alt.side, "feasible": alt.feasible,
+                          "bank_deg": alt.bank_deg, "area_margin_nm": alt.area_margin_nm,
+                          "why_not": alt.why_not} for alt in pl.alternatives]}
+
+
+def _sight_picture_dict(sp: Any) -> dict[str, Any]:
+    """The sight-picture part of the JSON."""
+    return {
+        "circling_height_ft": sp.circling_height_ft,
+        "planned_offset_nm": sp.planned_offset_nm,
+        "planned_depression_deg": sp.planned_depression_deg,
+        "familiar_height_ft": sp.familiar_height_ft,
+        "familiar_offset_nm": sp.familiar_offset_nm,
+        "familiar_depression_deg": sp.familiar_depression_deg,
+        "familiar_offset_at_circling_nm": sp.familiar_offset_at_circling_nm,
+        "familiar_possible": sp.familiar_possible,
+        "familiar_bank_required_deg": sp.familiar_bank_required_deg,
+        "familiar_load_factor": sp.familiar_load_factor,
+        "familiar_stall_speed_kt": sp.familiar_stall_speed_kt,
+        "familiar_stall_margin_pct": sp.familiar_stall_margin_pct,
+        "familiar_aoa": sp.familiar_aoa,
+        "familiar_exceeds_bank_limit": sp.familiar_exceeds_bank_limit,
+        "overshoot_nm": sp.overshoot_nm,
+        "familiar_track": _xy(sp.familiar_track_xy_m)}
+
+
 def brief_to_dict(brief: Brief) -> dict[str, Any]:
     """The JSON-ready mapping of a Brief."""
     h, c, m, a, p, w, pl, sp, ma = (brief.header, brief.category, brief.minimums, brief.area,
@@ -103,45 +150,8 @@ def brief_to_dict(brief: Brief) -> dict[str, Any]:
                     "oat_c": brief.weather.oat_c, "altimeter_hpa": brief.weather.altimeter_hpa,
                     "visibility_sm": brief.weather.visibility_sm,
                     "ceiling_ft": brief.weather.ceiling_ft},
-        "plan": {
-            "feasible": pl.feasible, "shape": pl.shape, "shape_text": pl.shape_text, "side": pl.side,
-            "bank_deg": pl.bank_deg, "offset_nm": pl.offset_nm,
-            "abeam_to_roll_in_s": pl.abeam_to_roll_in_s,
-            "roll_in_distance_nm": pl.roll_in_distance_nm,
-            "break_off_s": pl.break_off_s, "break_off_angle_deg": pl.break_off_angle_deg,
-            "roll_out_distance_nm": pl.roll_out_distance_nm,
-            "downwind_heading_deg_mag": pl.downwind_heading_deg_mag,
-            "final_heading_deg_mag": pl.final_heading_deg_mag,
-            "leave_mda": pl.leave_mda_text, "leave_mda_in_turn": pl.leave_mda_in_turn,
-            "leave_mda_distance_nm": pl.leave_mda_distance_nm,
-            "leave_mda_heading_deg_mag": pl.leave_mda_heading_deg_mag,
-            "inside_area": pl.inside_area, "area_margin_nm": pl.area_margin_nm,
-            "area_edge_margin_nm": pl.area_edge_margin_nm, "sector_clearance_nm": pl.sector_clearance_nm,
-            "runway_within_visibility": pl.runway_within_visibility,
-            "max_distance_from_threshold_nm": pl.max_distance_from_threshold_nm,
-            "roll_in": _xy(pl.roll_in_xy_m)[0], "descent_point": _xy(pl.descent_xy_m)[0],
-            "track": _xy(pl.track_xy_m),
-            "reasons": list(pl.reasons),
-            "alternatives": [{"shape": alt.shape, "side": alt.side, "feasible": alt.feasible,
-                              "bank_deg": alt.bank_deg, "area_margin_nm": alt.area_margin_nm,
-                              "why_not": alt.why_not} for alt in pl.alternatives]},
-        "sight_picture": {
-            "circling_height_ft": sp.circling_height_ft,
-            "planned_offset_nm": sp.planned_offset_nm,
-            "planned_depression_deg": sp.planned_depression_deg,
-            "familiar_height_ft": sp.familiar_height_ft,
-            "familiar_offset_nm": sp.familiar_offset_nm,
-            "familiar_depression_deg": sp.familiar_depression_deg,
-            "familiar_offset_at_circling_nm": sp.familiar_offset_at_circling_nm,
-            "familiar_possible": sp.familiar_possible,
-            "familiar_bank_required_deg": sp.familiar_bank_required_deg,
-            "familiar_load_factor": sp.familiar_load_factor,
-            "familiar_stall_speed_kt": sp.familiar_stall_speed_kt,
-            "familiar_stall_margin_pct": sp.familiar_stall_margin_pct,
-            "familiar_aoa": sp.familiar_aoa,
-            "familiar_exceeds_bank_limit": sp.familiar_exceeds_bank_limit,
-            "overshoot_nm": sp.overshoot_nm,
-            "familiar_track": _xy(sp.familiar_track_xy_m)},
+        "plan": _plan_dict(pl),
+        "sight_picture": _sight_picture_dict(sp),
         "missed_approach": {"turn_direction": ma.turn_direction,
                             "by_leg": [{"leg": leg, "turn": d} for leg, d in ma.by_leg],
                             "instruction": ma.instruction},
