@@ -51,6 +51,8 @@ ACTIONS: tuple[tuple[str, str, str], ...] = (
     ("toggle_ascii", "ASCII drawings", "Draw the plan, side view and envelope in plain ASCII (or braille)"),
     ("warnings", "All warnings", "List every warning of the brief, most severe first"),
     ("instructor", "Instructor", "Open the instructor screen"),
+    ("new_entry", "New aircraft or airfield", "Enter a new aircraft (step 1) or airfield (step 2) in a form"),
+    ("edit_entry", "Edit aircraft or airfield", "Edit the chosen aircraft (step 1) or airfield (step 2) in a form"),
     ("help", "Help and cautions", "Keys, how the steps work, and the full cautions"),
 ) + tuple((f"step('{pid}')", f"Go to: {label[2:]}", f"Show step {label}") for pid, label in STEPS)
 
@@ -72,6 +74,8 @@ class BriefingApp(App[None]):
         Binding("ctrl+g", "toggle_ascii", "ASCII", show=False),
         Binding("ctrl+l", "instructor", "Instructor", show=False),
         Binding("w", "warnings", "All warnings", show=False),
+        Binding("f2", "new_entry", "New aircraft/airfield (form)", show=False),
+        Binding("f3", "edit_entry", "Edit aircraft/airfield (form)", show=False),
         Binding("f1,question_mark", "help", "Help"),
         Binding("escape", "leave_field", "Leave a field (then digits switch steps)", show=False),
     ]
@@ -580,7 +584,8 @@ class BriefingApp(App[None]):
         except Exception as exc:  # another engineer's screen: keep the app up
             self.notify(f"Instructor screen: {type(exc).__name__}: {exc}", severity="error")
 
-    MAIN_SCREEN_ACTIONS = frozenset({"step", "next_step", "previous_step", "leave_field", "warnings"})
+    MAIN_SCREEN_ACTIONS = frozenset({"step", "next_step", "previous_step", "leave_field", "warnings", "new_entry",
+                                     "edit_entry"})
     """Actions on the main screen's steps: off while another screen is shown (its own keys, e.g.
     the instructor screen's 1-3, must not switch the hidden steps)."""
 
@@ -588,6 +593,15 @@ class BriefingApp(App[None]):
         if action in self.MAIN_SCREEN_ACTIONS and self.screen is not self.main:
             return False
         return True
+    def action_new_entry(self) -> None:
+        from briefer.tui.forms.app_hooks import open_form
+
+        open_form(self, edit=False)
+
+    def action_edit_entry(self) -> None:
+        from briefer.tui.forms.app_hooks import open_form
+
+        open_form(self, edit=True)
 
     def get_system_commands(self, screen: Screen) -> Iterable[SystemCommand]:
         yield from super().get_system_commands(screen)

@@ -183,6 +183,8 @@ class BriefingScreen(Screen):
         self.node("#profile", ChoiceList).border_title = "Aircraft profile"
         self.node("#configuration", ChoiceList).border_title = "Configuration"
         self.node("#airfield-list", ChoiceList).border_title = "Airfield"
+        for list_id in ("#profile", "#airfield-list"):       # the forms (briefer.tui.forms)
+            self.node(list_id, ChoiceList).border_subtitle = "F2 new  F3 edit"
         self.node("#approach", ChoiceList).border_title = "Approach"
         self.node("#runway-list", ChoiceList).border_title = "Landing runway"
         self.post_message(self.Ready())

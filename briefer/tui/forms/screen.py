@@ -1,0 +1,540 @@
+"""The form screen: one column of labelled fields in the documents' order, the loader's message
+beside each field, a side panel drawn from what is entered, the save path at the bottom.
+
+Keys: Tab / shift+Tab move between fields, ctrl+n adds a row to the group the cursor is in
+(the "+ add" buttons too), ctrl+r removes the row the cursor is in, ctrl+s saves, Esc closes
+(asking first when something is not saved).
+"""
+
+from __future__ import annotations
+
+import copy
+from collections.abc import Callable
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+from rich.text import Text
+from textual import on
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import Horizontal, Vertical, VerticalScroll
+from textual.screen import ModalScreen, Screen
+from textual.widget import Widget
+from textual.widgets import Button, Footer, Input, Label, Static
+
+from briefer.tui.forms.check import Verdict, check_texts
+from briefer.tui.forms.spec import Field, FormPath, FormSpec, Group, Item, Repeat, blank_texts, new_row
+from briefer.tui.forms.store import SaveError, Target, file_name, save_model, target_folder
+
+ERROR_MARK = "✗ "
+LABEL_WIDTH = 17
+
+SidePainter = Callable[[Verdict, int, int, bool], Any]
+"""(verdict, width, height, ascii) -> a Rich renderable for the side panel."""
+
+
+@dataclass(frozen=True, slots=True)
+class Saved:
+    """What a form saved: the file kind, the model (as the loader read it back) and the path."""
+
+    kind: str
+    model: Any
+    path: Path
+
+
+def widget_id(prefix: str, fpath: FormPath) -> str:
+    return prefix + "-" + "-".join(str(p) for p in fpath) if fpath else prefix
+
+
+class FormInput(Input):
+    """A field's input; knows where its text lives in the form."""
+
+    def __init__(self, fpath: FormPath, text: str, *, width: int, hint: str) -> None:
+        super().__init__(text, placeholder=hint, compact=True, id=widget_id("in", fpath), classes="form-input")
+        self.form_path = fpath
+        self.cursor_blink = False
+        self.styles.width = width + 1
+
+
+class SidePanel(Widget):
+    """The side panel: whatever the form's painter draws from the verdict, at the panel's size."""
+
+    def __init__(self, painter: SidePainter, *, ascii: bool) -> None:
+        super().__init__(id="form-side")
+        self.painter = painter
+        self.ascii = ascii
+        self.verdict: Verdict | None = None
+
+    def show(self, verdict: Verdict) -> None:
+        self.verdict = verdict
+        self.refresh()
+
+    def render(self):
+        if self.verdict is None:
+            return Text("")
+        try:
+            return self.painter(self.verdict, max(self.size.width, 4), max(self.size.height, 2), self.ascii)
+        except Exception as exc:  # a drawing problem must not take the form down
+            return Text(f"(cannot draw: {type(exc).__name__}: {exc})")
+
+
+class ConfirmClose(ModalScreen[str]):
+    """Unsaved changes: save, discard or keep editing."""
+
+    BINDINGS = [Binding("escape", "choose('keep')", "Keep editing"), Binding("s", "choose('save')", "Save"),
+                Binding("d", "choose('discard')", "Discard")]
+
+    def compose(self) -> ComposeResult:
+        with Vertical(id="confirm-dialog"):
+            yield Label("This form has changes that are not saved.", id="confirm-title")
+            with Horizontal(id="confirm-buttons"):
+                yield Button("Save (s)", id="confirm-save", variant="primary")
+                yield Button("Discard (d)", id="confirm-discard", variant="error")
+                yield Button("Keep editing (Esc)", id="confirm-keep")
+
+    def on_mount(self) -> None:
+        self.query_one("#confirm-keep", Button).focus()
+
+    @on(Button.Pressed)
+    def _pressed(self, event: Button.Pressed) -> None:
+        self.dismiss((event.button.id or "confirm-keep").removeprefix("confirm-"))
+
+    def action_choose(self, choice: str) -> None:
+        self.dismiss(choice)
+
+
+class FormScreen(Screen[Saved | None]):
+    """Enter or edit one data file with a form."""
+
+    BINDINGS = [
+        Binding("ctrl+s", "save", "Save", priority=True),
+        Binding("escape", "close", "Close", priority=True),
+        Binding("ctrl+n", "add_row", "Add row", priority=True),
+        Binding("ctrl+r", "remove_row", "Remove row", priority=True),
+        Binding("pageup", "page(-1)", "Page up", show=False),
+        Binding("pagedown", "page(1)", "Page down", show=False),
+    ]
+
+    def __init__(self, spec: FormSpec, *, mapping: dict[str, Any] | None = None, source: str | None = None,
+                 builtin: bool = False, side: SidePainter | None = None, ascii: bool = False) -> None:
+        """Args:
+            spec: The form.
+            mapping: The file mapping to edit (None: a new, empty form).
+            source: The file it came from (saved back there unless `builtin`).
+            builtin: The file is one of the packaged demo files (saved as a new file in the
+                user's folder).
+            side: Draws the side panel from the verdict.
+            ascii: Draw in ASCII instead of braille.
+        """
+        super().__init__(classes="form-screen")
+        from briefer.tui.forms.spec import to_texts
+
+        self.spec = spec
+        self.texts: dict[str, Any] = to_texts(spec, mapping) if mapping is not None else blank_texts(spec)
+        self.saved_texts = copy.deepcopy(self.texts)
+        self.source = source if source and not builtin else None
+        self.painter = side
+        self.ascii = ascii
+        self.verdict: Verdict = check_texts(spec, self.texts)
+        self._msgs: dict[FormPath, Static] = {}
+        self._inputs: dict[FormPath, FormInput] = {}
+        self._overwrite_ok: Path | None = None
+        self._target: Target | None = None
+        self.status_text = ""
+
+    # --- building ---------------------------------------------------------------------------
+    def compose(self) -> ComposeResult:
+        what = "Edit" if self.saved_texts != blank_texts(self.spec) else "New"
+        yield Static(Text.assemble((f" {what} {self.spec.title.lower()} ", "bold reverse"),
+                                   " Tab next  ^n add row  ^r remove row  ^s save  Esc close"),
+                     id="form-title")
+        with Horizontal(id="form-main"):
+            yield VerticalScroll(*self._body(), id="form-body")
+            if self.painter is not None:
+                yield SidePanel(self.painter, ascii=self.ascii)
+        yield Static("", id="form-status")
+        yield Footer()
+
+    def _body(self) -> list[Widget]:
+        self._msgs.clear()
+        self._inputs.clear()
+        return self._items(self.spec.items, self.texts, ())
+
+    def _message(self, fpath: FormPath, classes: str = "form-msg") -> Static:
+        msg = Static("", id=widget_id("msg", fpath), classes=classes, markup=False)
+        self._msgs[fpath] = msg
+        return msg
+
+    def _input(self, f: Field, texts: dict[str, Any], fpath: FormPath) -> FormInput:
+        inp = FormInput(fpath, str(texts.get(f.key, "")), width=f.width, hint=f.hint)
+        self._inputs[fpath] = inp
+        return inp
+
+    def _field_line(self, f: Field, texts: dict[str, Any], fpath: FormPath) -> Widget:
+        here = fpath + (f.key,)
+        return Horizontal(Label(f.label, classes="form-label"), self._input(f, texts, here),
+                          Label(f.unit, classes="form-unit"), self._message(here), classes="form-line")
+
+    def _items(self, items: tuple[Item, ...], texts: dict[str, Any], fpath: FormPath) -> list[Widget]:
+        out: list[Widget] = []
+        for item in items:
+            if isinstance(item, Field):
+                out.append(self._field_line(item, texts, fpath))
+            elif isinstance(item, Group):
+                if item.title:
+                    out.append(Static(item.title, classes="form-heading", markup=False))
+                if item.key is None:
+                    out.extend(self._items(item.items, texts, fpath))
+                else:
+                    gpath = fpath + (item.key,)
+                    out.append(self._message(gpath, "form-msg form-group-msg"))
+                    out.extend(self._items(item.items, texts.setdefault(item.key, {}), gpath))
+            else:
+                out.extend(self._repeat(item, texts, fpath))
+        return out
+
+    def _repeat(self, rep: Repeat, texts: dict[str, Any], fpath: FormPath) -> list[Widget]:
+        rpath = fpath + (rep.key,)
+        rows = texts.setdefault(rep.key, [])
+        out: list[Widget] = [Static(rep.title, classes="form-heading", markup=False),
+                             self._message(rpath, "form-msg form-group-msg")]
+        for i, row in enumerate(rows):
+            ipath = rpath + (i,)
+            if rep.row:
+                cells: list[Widget] = []
+                for f in rep.items:
+                    assert isinstance(f, Field)
+                    if f.label:
+                        cells.append(Label(f.label, classes="form-cell-label"))
+                    cells.append(self._input(f, row, ipath + (f.key,)))
+                    if f.unit:
+                        cells.append(Label(f.unit, classes="form-cell-unit"))
+                out.append(Horizontal(*cells, classes="form-row", id=widget_id("row", ipath)))
+                out.append(self._row_message(rep, ipath))
+            else:
+                out.append(Static(f"{rep.item_title} {i + 1}  (^r removes it)", classes="form-item-heading",
+                                  markup=False))
+                out.append(self._message(ipath, "form-msg form-group-msg"))
+                out.extend(self._items(rep.items, row, ipath))    # type: ignore[arg-type]
+        out.append(Button(f"+ add {rep.item_title.lower()}", id=widget_id("add", rpath), classes="form-add",
+                          compact=True))
+        return out
+
+    def _row_message(self, rep: Repeat, ipath: FormPath) -> Static:
+        """One message line under a short row, for the row and each of its fields."""
+        msg = self._message(ipath, "form-msg form-row-msg")
+        for f in rep.items:
+            if isinstance(f, Field):
+                self._msgs[ipath + (f.key,)] = msg
+        return msg
+
+    def on_mount(self) -> None:
+        self._show_verdict()
+        first = next(iter(self._inputs.values()), None)
+        if first is not None:
+            first.focus()
+
+    # --- editing -------------------------------------------------------------------------------
+    @property
+    def dirty(self) -> bool:
+        return self.texts != self.saved_texts
+
+    def _set_text(self, fpath: FormPath, text: str) -> None:
+        cur: Any = self.texts
+        for tok in fpath[:-1]:
+            cur = cur[tok]
+        cur[fpath[-1]] = text
+
+    @on(Input.Changed, ".form-input")
+    def _changed(self, event: Input.Changed) -> None:
+        event.stop()
+        inp = event.input
+        assert isinstance(inp, FormInput)
+        self._set_text(inp.form_path, event.value)
+        self._overwrite_ok = None
+        self.revalidate()
+
+    def revalidate(self) -> None:
+        self.verdict = check_texts(self.spec, self.texts)
+        self._show_verdict()
+
+    def _show_verdict(self) -> None:
+        v = self.verdict
+        shown: dict[Static, tuple[str, str]] = {}
+        for fpath, msg in self._msgs.items():
+            if fpath in v.errors:
+                label = self._label_of(fpath) if "form-row-msg" in msg.classes else ""
+                shown.setdefault(msg, ("error", ERROR_MARK + (f"{label}: " if label else "") + v.errors[fpath]))
+            elif fpath in v.required and msg not in shown:
+                label = self._label_of(fpath) if "form-row-msg" in msg.classes else ""
+                shown[msg] = ("required", (f"{label}: " if label else "") + v.required[fpath])
+        for msg in set(self._msgs.values()):
+            kind, text = shown.get(msg, ("", ""))
+            msg.set_class(kind == "error", "-error")
+            msg.set_class(kind == "required", "-required")
+            msg.display = bool(text) or "form-row-msg" not in msg.classes and "form-group-msg" not in msg.classes
+            msg.update(Text(text, style="bold") if kind == "error" else text)
+        for fpath, inp in self._inputs.items():
+            inp.set_class(fpath in v.errors, "-invalid")
+        self._show_status()
+        side = self.query(SidePanel)
+        if side:
+            side.first().show(v)
+
+    def _label_of(self, fpath: FormPath) -> str:
+        f = self._field_at(fpath)
+        return f.label if f is not None else ""
+
+    def _field_at(self, fpath: FormPath) -> Field | None:
+        items: tuple[Item, ...] = self.spec.items
+        found: Item | None = None
+        i = 0
+        while i < len(fpath):
+            tok = fpath[i]
+            nxt = None
+            for it in items:
+                if isinstance(it, Group) and it.key is None:
+                    hit = next((x for x in it.items if getattr(x, "key", None) == tok), None)
+                    if hit is not None:
+                        nxt = hit
+                        break
+                elif getattr(it, "key", None) == tok:
+                    nxt = it
+                    break
+            if nxt is None:
+                return None
+            found = nxt
+            if isinstance(nxt, Repeat):
+                i += 2
+                items = nxt.items  # type: ignore[assignment]
+            elif isinstance(nxt, Group):
+                i += 1
+                items = nxt.items
+            else:
+                i += 1
+        return found if isinstance(found, Field) else None
+
+    # --- status line ---------------------------------------------------------------------------
+    def save_path(self) -> Path:
+        """Where ctrl+s writes."""
+        if self.source is not None:
+            return Path(self.source)
+        if self._target is None:
+            try:
+                self._target = target_folder(self.spec.kind)
+            except SaveError:
+                self._target = Target(Path.cwd(), True)
+        m = self.verdict.built.mapping if self.verdict.built else {}
+        name = str(m.get(self.spec.name_key) or "")
+        return self._target.folder / file_name(self.spec.kind, name or "unnamed", str(m.get("name") or ""))
+
+    def _show_status(self, extra: str | None = None) -> None:
+        v = self.verdict
+        t = Text(no_wrap=True, overflow="ellipsis")
+        n = len(v.errors)
+        if extra:
+            t.append(extra, style="bold")
+        elif n:
+            _path, msg = v.first_problem() or (None, "")
+            t.append(f"{ERROR_MARK}{n} to fix", style="bold")
+            t.append(f" - {self._label_of(_path) if _path else ''}: {msg}" if _path else f" - {msg}")
+        elif v.required:
+            t.append(f"{len(v.required)} required still empty", style="bold")
+        elif v.general:
+            t.append(ERROR_MARK + v.general[0], style="bold")
+        else:
+            t.append("✓ complete", style="bold")
+            t.append("; unsaved changes" if self.dirty else "")
+        t.append("\nsaves to ")
+        t.append(self._short(self.save_path()))
+        self.status_text = t.plain
+        self.query_one("#form-status", Static).update(t)
+
+    @staticmethod
+    def _short(path: Path) -> str:
+        home = str(Path.home())
+        s = str(path)
+        return "~" + s[len(home):] if s.startswith(home + "/") else s
+
+    # --- actions -------------------------------------------------------------------------------
+    def _repeat_of_focus(self) -> tuple[Repeat, FormPath, int | None] | None:
+        """The deepest repeating group holding the focus: (spec, its path, the row index)."""
+        focused = self.focused
+        fpath: FormPath | None = getattr(focused, "form_path", None)
+        if fpath is None and isinstance(focused, Button) and (focused.id or "").startswith("add-"):
+            return self._repeat_at(self._add_paths[focused.id])
+        if fpath is None:
+            return None
+        best = None
+        for n in range(len(fpath) - 1, 0, -1):
+            if isinstance(fpath[n], int):
+                hit = self._repeat_at(fpath[:n])
+                if hit is not None:
+                    best = (hit[0], hit[1], fpath[n])
+                    break
+        return best
+
+    @property
+    def _add_paths(self) -> dict[str, FormPath]:
+        out: dict[str, FormPath] = {}
+
+        def walk(items: tuple[Item, ...], texts: dict[str, Any], fpath: FormPath) -> None:
+            for it in items:
+                if isinstance(it, Group):
+                    if it.key is None:
+                        walk(it.items, texts, fpath)
+                    else:
+                        walk(it.items, texts.get(it.key, {}), fpath + (it.key,))
+                elif isinstance(it, Repeat):
+                    rpath = fpath + (it.key,)
+                    out[widget_id("add", rpath)] = rpath
+                    for i, row in enumerate(texts.get(it.key, [])):
+                        walk(it.items, row, rpath + (i,))  # type: ignore[arg-type]
+
+        walk(self.spec.items, self.texts, ())
+        return out
+
+    def _repeat_at(self, rpath: FormPath) -> tuple[Repeat, FormPath, None] | None:
+        items: tuple[Item, ...] = self.spec.items
+        found: Repeat | None = None
+        i = 0
+        while i < len(rpath):
+            tok = rpath[i]
+            nxt = None
+            for it in items:
+                if isinstance(it, Group) and it.key is None:
+                    hit = next((x for x in it.items if getattr(x, "key", None) == tok), None)
+                    if hit is not None:
+                        nxt = hit
+                        break
+                elif getattr(it, "key", None) == tok:
+                    nxt = it
+                    break
+            if nxt is None:
+                return None
+            if isinstance(nxt, Repeat):
+                found = nxt if i == len(rpath) - 1 else None
+                items = nxt.items  # type: ignore[assignment]
+                i += 2
+            elif isinstance(nxt, Group):
+                items = nxt.items
+                i += 1
+            else:
+                return None
+        return (found, rpath, None) if found is not None else None
+
+    def _rows(self, rpath: FormPath) -> list[dict[str, Any]]:
+        cur: Any = self.texts
+        for tok in rpath:
+            cur = cur[tok]
+        return cur
+
+    @on(Button.Pressed, ".form-add")
+    def _add_pressed(self, event: Button.Pressed) -> None:
+        event.stop()
+        rpath = self._add_paths.get(event.button.id or "")
+        if rpath is not None:
+            self._add_at(rpath)
+
+    def action_add_row(self) -> None:
+        hit = self._repeat_of_focus()
+        if hit is None:
+            self.notify("Put the cursor in a group (runways, categories, sectors...) to add a row to it.",
+                        timeout=4)
+            return
+        self._add_at(hit[1])
+
+    def _add_at(self, rpath: FormPath) -> None:
+        hit = self._repeat_at(rpath)
+        if hit is None:
+            return
+        rep = hit[0]
+        rows = self._rows(rpath)
+        rows.append(new_row(rep, rows))
+        self._rebuild(focus=rpath + (len(rows) - 1,))
+
+    def action_remove_row(self) -> None:
+        hit = self._repeat_of_focus()
+        if hit is None or hit[2] is None:
+            self.notify("Put the cursor in the row to remove.", timeout=4)
+            return
+        rows = self._rows(hit[1])
+        index = hit[2]
+        del rows[index]
+        focus = hit[1] + (min(index, len(rows) - 1),) if rows else None
+        self._rebuild(focus=focus, add_button=hit[1] if not rows else None)
+
+    def _rebuild(self, *, focus: FormPath | None = None, add_button: FormPath | None = None) -> None:
+        body = self.query_one("#form-body", VerticalScroll)
+        scroll_y = body.scroll_y
+
+        async def remount() -> None:
+            await body.remove_children()
+            await body.mount_all(self._body())
+            self.revalidate()
+            body.scroll_to(y=scroll_y, animate=False)
+            target: Widget | None = None
+            if focus is not None:
+                target = next((w for p, w in self._inputs.items() if p[: len(focus)] == focus), None)
+            if target is None and add_button is not None:
+                target = self.query_one("#" + widget_id("add", add_button), Button)
+            if target is not None:
+                target.focus()
+
+        self.run_worker(remount(), exclusive=True, group="form-rebuild")
+
+    def action_page(self, direction: int) -> None:
+        body = self.query_one("#form-body", VerticalScroll)
+        body.scroll_to(y=body.scroll_y + direction * max(body.size.height - 2, 1), animate=False)
+
+    def action_save(self) -> None:
+        self.save()
+
+    def save(self) -> Saved | None:
+        """Save if the form is complete; else show why and put the cursor on the first problem."""
+        self.revalidate()
+        v = self.verdict
+        if not v.ok or v.model is None:
+            problem = v.first_problem()
+            count = len(v.errors) + len(v.required) + len(v.general)
+            self._show_status(f"{ERROR_MARK}not saved: {count} to fix or fill"
+                              + (f" - {self._label_of(problem[0]) if problem[0] else ''}: {problem[1]}"
+                                 if problem else ""))
+            if problem and problem[0] is not None:
+                inp = next((w for p, w in self._inputs.items() if p[: len(problem[0])] == problem[0]), None)
+                if inp is not None:
+                    inp.focus()
+            return None
+        path = self.save_path()
+        overwrite = self.source is not None
+        if not overwrite and path.exists():
+            if self._overwrite_ok != path:
+                self._overwrite_ok = path
+                self._show_status(f"{self._short(path)} exists: ^s again replaces it (or change the name)")
+                return None
+            overwrite = True
+        try:
+            written = save_model(self.spec.kind, v.model, path, overwrite=overwrite,
+                                 target=self._target if self.source is None else None)
+        except SaveError as exc:
+            self._show_status(ERROR_MARK + str(exc))
+            return None
+        self.saved_texts = copy.deepcopy(self.texts)
+        self.source = str(written)
+        result = Saved(self.spec.kind, v.model, written)
+        self.dismiss(result)
+        return result
+
+    def action_close(self) -> None:
+        if not self.dirty:
+            self.dismiss(None)
+            return
+
+        def chosen(choice: str | None) -> None:
+            if choice == "save":
+                self.save()
+            elif choice == "discard":
+                self.dismiss(None)
+
+        self.app.push_screen(ConfirmClose(), chosen)

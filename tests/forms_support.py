@@ -1,0 +1,43 @@
+"""Shared helpers for the form tests (no tests here)."""
+
+from __future__ import annotations
+
+import json
+
+from textual.keys import _character_to_key
+
+from briefer.brief import build_brief
+from briefer.render.brief_json import brief_to_dict
+from briefer.tui.forms.screen import FormScreen, widget_id
+
+
+def keys_of(text: str) -> list[str]:
+    return [_character_to_key(c) for c in text]
+
+
+async def type_field(pilot, fpath: tuple, text: str) -> None:
+    """Focus a form field, clear it and type `text` key by key (as a crew would)."""
+    screen = pilot.app.screen
+    assert isinstance(screen, FormScreen)
+    inp = screen.query_one("#" + widget_id("in", fpath))
+    inp.focus()
+    await pilot.pause()
+    await pilot.press("end", "ctrl+u")
+    if text:
+        await pilot.press(*keys_of(text))
+    await pilot.pause()
+    assert inp.value == text, (fpath, inp.value, text)
+
+
+async def type_fields(pilot, entries: list[tuple[tuple, str]]) -> None:
+    for fpath, text in entries:
+        await type_field(pilot, fpath, text)
+
+
+def message_of(screen: FormScreen, fpath: tuple) -> str:
+    """The text shown beside a field."""
+    return str(screen._msgs[fpath].content)
+
+
+def brief_json(request, report=None) -> str:
+    return json.dumps(brief_to_dict(build_brief(request, weather_report=report)), sort_keys=True)
