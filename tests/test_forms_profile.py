@@ -17,7 +17,7 @@ from test_app_support import demo_catalog, demo_inputs, settle
 
 from briefer.errors import DataFileError
 from briefer.io.catalog import builtin_files, list_profiles, load_config
-from briefer.io.yamlload import load_bytes, load_profile
+from briefer.io.yamlload import dump_yaml, load_bytes, load_profile
 from briefer.model import KIND_PROFILE, AircraftProfile
 from briefer.tui.app import BriefingApp
 from briefer.tui.forms import values
@@ -110,19 +110,9 @@ def test_a_bad_field_gets_the_loaders_own_message_beside_it(fpath, text):
     assert fpath in verdict.errors
     # the loader, reading the same mapping as a file, says the same words
     with pytest.raises(DataFileError) as exc:
-        load_bytes(file_text(KIND_PROFILE, _Mapping(to_mapping(PROFILE_FORM, texts).mapping)).encode(),
-                   file="x.yaml", expected_kind=KIND_PROFILE)
+        load_bytes(dump_yaml(to_mapping(PROFILE_FORM, texts).mapping).encode(), file="x.yaml",
+                   expected_kind=KIND_PROFILE)
     assert exc.value.message == verdict.errors[fpath]
-
-
-class _Mapping:
-    """A mapping dressed as a model for `file_text` (to write what the form holds as a file)."""
-
-    def __init__(self, m):
-        self.m = m
-
-    def to_mapping(self):
-        return self.m
 
 
 def test_a_field_below_an_empty_one_is_still_checked():

@@ -1,32 +1,26 @@
-"""Check a form with the loader's own model readers and place each message beside its field.
+"""Check a form with the loader's own rules and place each message beside its field.
 
-One validation path: the texts become the file's mapping (`spec.to_mapping`), and the mapping is
-read by the very functions the YAML loader calls (`Model.from_mapping`, and for each group and
-repeated item the reader of that part), so the form says exactly what `briefer check` would say
-about the saved file, in the same words.
-
-A reader stops at its first problem. So that a field further down is checked while one above it
-is still empty or wrong, each group and item is also read on its own, and a part of the whole
-file that is missing or wrong is stood in for by the same part of a complete example
-(`FormSpec.template`) before the file is read again; a message that may come from a stand-in
-(`FormSpec.depends`) is not shown.
+One validation path: the texts become the draft of the data file (`spec.to_mapping`), and the
+draft is checked by `briefer.io.drafts`, which uses the loader's readers and words: each typed
+field inside its own mapping (`drafts.field_message`: an unfinished form does not mask it), and
+the whole draft (`drafts.draft_error`: cross-field rules, the layout of runways and fixes). A
+required entry still empty is the model's own `required_keys()`.
 
 No Textual import here.
 """
 
 from __future__ import annotations
 
-import copy
 import re
 from dataclasses import dataclass, field
 from typing import Any
 
 from briefer.errors import DataFileError
-from briefer.model import FieldError, join_path
-from briefer.tui.forms.spec import Built, FormPath, FormSpec, get_path, set_path, split_path, to_mapping
+from briefer.io import drafts
+from briefer.model import join_path
+from briefer.tui.forms.spec import Built, FormPath, FormSpec, get_path, to_mapping
 
 _MISSING = re.compile(r"missing required key '([^']+)'")
-MAX_ROUNDS = 40
 
 
 @dataclass
@@ -36,9 +30,9 @@ class Verdict:
     Attributes:
         model: The model the whole form gives (None while anything is wrong or missing).
         errors: Form path -> message (bad input).
-        required: Form path -> message for a required entry still empty.
+        required: Form path -> reminder for a required entry still empty.
         general: Messages that belong to no field (shown in the status line).
-        built: The file mapping and the field owners.
+        built: The draft and the field owners.
     """
 
     model: Any
@@ -68,15 +62,6 @@ def _order_key(path: FormPath) -> tuple:
     return tuple((0, p) if isinstance(p, int) else (1, str(p)) for p in path)
 
 
-def _target(exc: DataFileError) -> tuple[str, bool]:
-    """(dotted path the message is about, is a missing required key)."""
-    context = exc.context or ""
-    m = _MISSING.match(exc.message)
-    if m:
-        return join_path(context, m.group(1)), True
-    return context, False
-
-
 def _owner(built: Built, path: str) -> FormPath | None:
     while True:
         if path in built.owners:
@@ -89,111 +74,105 @@ def _owner(built: Built, path: str) -> FormPath | None:
             path = path.rpartition(".")[0]
 
 
-def _region(doc: Any, base: str, path: str) -> str:
-    """The part of `doc` (the mapping at `base`) stood in for when `path` is wrong: the key
-    below `base` (with its list index)."""
-    rel = split_path(path)[len(split_path(base)):]
-    if not rel:
-        return ""
-    region = join_path(base, str(rel[0]))
-    if len(rel) > 1 and isinstance(rel[1], int) and isinstance(doc, dict) and isinstance(doc.get(rel[0]), list):
-        region = f"{region}[{rel[1]}]"
-    return region
+def _parent(path: str) -> str:
+    if path.endswith("]") and "[" in path:
+        return path[: path.rindex("[")]
+    return path.rpartition(".")[0]
 
 
-def _template_part(template: Any, path: str) -> Any:
-    """The template's part at `path`; a list index beyond it, or a category it lacks, takes
-    its first."""
-    cur = template
-    for tok in split_path(path):
-        if isinstance(tok, int):
-            if not isinstance(cur, list) or not cur:
-                return None
-            cur = cur[tok] if tok < len(cur) else cur[0]
-        elif isinstance(cur, dict):
-            if tok in cur:
-                cur = cur[tok]
-            elif len(tok) == 1 and tok.isupper() and cur and all(isinstance(x, dict) for x in cur.values()):
-                cur = next(iter(cur.values()))
-            else:
-                return None
-        else:
-            return None
-    return cur
+class Checker:
+    """Checks a form's texts; remembers each field's message for a mapping that did not change
+    (a keystroke re-checks the fields of its own mapping, and the whole draft)."""
 
+    def __init__(self, spec: FormSpec) -> None:
+        self.spec = spec
+        self._cache: dict[tuple[str, str], str | None] = {}
 
-def _relative_set(doc: Any, base: str, path: str, value: Any) -> bool:
-    rel = split_path(path)[len(split_path(base)):]
-    return set_path(doc, ".".join(f"[{t}]" if isinstance(t, int) else t for t in rel).replace(".[", "["),
-                    value)
+    def _field_message(self, draft: dict[str, Any], path: str) -> str | None:
+        parent = _parent(path)
+        sub = get_path(draft, parent) if parent else draft
+        key = (path, repr(sub))
+        if key not in self._cache:
+            if len(self._cache) > 5000:
+                self._cache.clear()
+            try:
+                self._cache[key] = drafts.field_message(self.spec.kind, draft, path)
+            except (KeyError, IndexError, TypeError, ValueError):
+                self._cache[key] = None
+        return self._cache[key]
 
+    def check(self, texts: dict[str, Any]) -> Verdict:
+        built = to_mapping(self.spec, texts)
+        draft = built.mapping
+        verdict = Verdict(model=None, errors=dict(built.text_errors), built=built)
+        for path, owner in built.owners.items():
+            if owner in verdict.errors or owner not in built.fields:
+                continue
+            parent = _parent(path)
+            sub = get_path(draft, parent) if parent else draft
+            if not isinstance(sub, dict):
+                continue
+            key = path[len(parent) + 1:] if parent else path
+            if key in sub:
+                msg = self._field_message(draft, path)
+                if msg:
+                    verdict.errors[owner] = msg
+            elif owner not in built.typed and owner not in verdict.required and self._required(parent, key):
+                verdict.required[owner] = "required"
+        self._drop_echoes(verdict, built, draft)
+        exc = drafts.draft_error(self.spec.kind, draft)
+        if exc is not None:
+            self._place(verdict, built, exc)
+        elif not verdict.errors and not verdict.required:
+            verdict.model = self.spec.read_model(draft)
+        return verdict
 
-def _inside(path: str, region: str) -> bool:
-    return path == region or path.startswith(region + ".") or path.startswith(region + "[")
+    @staticmethod
+    def _drop_echoes(verdict: Verdict, built: Built, draft: dict[str, Any]) -> None:
+        """A message that names a sibling field which is itself wrong or empty (\"expected above
+        vref_kt (133)\") compares with a stand-in value, not the crew's: the sibling's own message
+        says what to fix first."""
+        by_owner = {owner: path for path, owner in built.owners.items() if owner in built.fields}
+        for owner in list(verdict.errors):
+            path = by_owner.get(owner)
+            if path is None or owner in built.text_errors:
+                continue
+            parent = _parent(path)
+            sub = get_path(draft, parent) if parent else draft
+            for sibling, sib_owner in built.owners.items():
+                if sib_owner == owner or sib_owner not in built.fields or _parent(sibling) != parent:
+                    continue
+                name = sibling[len(parent) + 1:] if parent else sibling
+                bad = sib_owner in verdict.errors or (isinstance(sub, dict) and name not in sub)
+                if bad and re.search(rf"\b{re.escape(name)}\b", verdict.errors[owner]):
+                    del verdict.errors[owner]
+                    break
 
-
-class _Placer:
-    def __init__(self, built: Built, verdict: Verdict) -> None:
-        self.built = built
-        self.verdict = verdict
-
-    def place(self, exc: DataFileError) -> None:
-        target, missing = _target(exc)
-        owner = _owner(self.built, target)
-        message = exc.message
-        if owner is None:
-            text = f"{target}: {message}" if target else message
-            if text not in self.verdict.general:
-                self.verdict.general.append(text)
-            return
-        if owner in self.verdict.errors or owner in self.verdict.required:
-            return
-        typed = any(t[: len(owner)] == owner for t in self.built.typed)
-        if not typed:      # nothing typed there yet: a reminder, not an error
-            self.verdict.required[owner] = "required" if missing else message
-        else:
-            self.verdict.errors[owner] = message
-
-
-def _read_part(read: Any, doc: Any, base: str, template: Any, placer: _Placer,
-               depends: dict[str, tuple[str, ...]] | None = None) -> Any:
-    """Read `doc` (the mapping at `base`) with `read`; place each message, standing in the
-    template's part for what is wrong and reading again. The model, or None if anything was
-    wrong or stood in for."""
-    doc = copy.deepcopy(doc)
-    stood_in: list[str] = []
-    for _ in range(MAX_ROUNDS):
+    def _required(self, parent: str, key: str) -> bool:
         try:
-            model = read(doc)
-        except FieldError as exc:
-            target, missing = _target(exc)
-            region = _region(doc, base, target)
-            names = {str(split_path(r)[-1] if not r.endswith("]") else split_path(r)[-2]) for r in stood_in}
-            reads = (depends or {}).get(str(split_path(target)[0]) if target else "", ())
-            from_stand_in = any(_inside(target, r) for r in stood_in) or not missing and (
-                any(n in exc.message for n in names) or any(str(split_path(r)[0]) in reads for r in stood_in))
-            if not from_stand_in:
-                placer.place(exc)
-            if template is None or not region or region in stood_in:
-                return None
-            stand_in = _template_part(template, region)
-            if stand_in is None or not _relative_set(doc, base, region, stand_in):
-                return None
-            stood_in.append(region)
+            cls, _category = drafts.model_class_at(self.spec.kind, parent)
+        except (KeyError, IndexError):
+            return False
+        return key in cls.required_keys()
+
+    @staticmethod
+    def _place(verdict: Verdict, built: Built, exc: DataFileError) -> None:
+        context = exc.context or ""
+        m = _MISSING.match(exc.message)
+        target = join_path(context, m.group(1)) if m else context
+        owner = _owner(built, target)
+        if owner is None:
+            verdict.general.append(f"{target}: {exc.message}" if target else exc.message)
+            return
+        if owner in verdict.errors or owner in verdict.required:
+            return
+        typed = any(t[: len(owner)] == owner for t in built.typed)
+        if m or not typed:         # nothing typed there yet: a reminder, not an error
+            verdict.required[owner] = "required" if m else exc.message
         else:
-            return None if stood_in else model
-    return None
+            verdict.errors[owner] = exc.message
 
 
 def check_texts(spec: FormSpec, texts: dict[str, Any]) -> Verdict:
-    """Read a form's texts as the loader reads the file; every message placed by its field."""
-    built = to_mapping(spec, texts)
-    verdict = Verdict(model=None, errors=dict(built.text_errors), built=built)
-    placer = _Placer(built, verdict)
-    template = spec.template() if spec.template is not None else None
-    for path, reader, part in built.checks:
-        _read_part(reader, part, path, template, placer)
-    model = _read_part(spec.read_model, built.mapping, "", template, placer, dict(spec.depends))
-    if not (verdict.errors or verdict.required or verdict.general):
-        verdict.model = model
-    return verdict
+    """Check a form's texts once (see `Checker` to check as the crew types)."""
+    return Checker(spec).check(texts)

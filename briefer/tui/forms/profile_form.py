@@ -5,7 +5,6 @@ No Textual import here.
 
 from __future__ import annotations
 
-from functools import lru_cache
 from typing import Any
 
 from briefer.model import (
@@ -19,22 +18,10 @@ from briefer.model import (
 )
 from briefer.tui.forms.spec import Field, FormSpec, Group, Repeat
 
-TEMPLATE_FILE = "demo-twin.yaml"
-
-
-@lru_cache(maxsize=1)
-def _template() -> dict[str, Any]:
-    """A complete profile (the packaged demo twin) to stand in for parts not yet entered."""
-    from briefer.io.catalog import builtin_files
-    from briefer.io.yamlload import load_bytes
-
-    source = next(f for f in builtin_files(KIND_PROFILE) if f.name == TEMPLATE_FILE)
-    return load_bytes(source.read_bytes(), file=TEMPLATE_FILE, expected_kind=KIND_PROFILE).to_mapping()
-
-
 def _new_configuration(rows) -> dict[str, Any]:
     return {"name": "landing" if not rows else "", "vref_kt": "", "circling_speed_kt": "", "vs1g_kt": "",
-            "aoa_ref": "", "aoa_stall": "", "aoa_buffet": "", "bank_target_deg": "", "bank_limit_deg": ""}
+            "aoa_ref": "", "aoa_stall": "", "aoa_buffet": "", "bank_target_deg": "", "bank_limit_deg": "",
+            "max_demonstrated_crosswind_kt": "", "tailwind_limit_kt": ""}
 
 
 CONFIGURATION_FIELDS: tuple[Field, ...] = (
@@ -47,6 +34,8 @@ CONFIGURATION_FIELDS: tuple[Field, ...] = (
     Field("aoa_buffet", "AoA buffet", "number", width=7, hint="optional"),
     Field("bank_target_deg", "Bank target", "number", "°", width=7),
     Field("bank_limit_deg", "Bank limit", "number", "°", width=7),
+    Field("max_demonstrated_crosswind_kt", "Max crosswind", "number", "kt", width=7, hint="optional"),
+    Field("tailwind_limit_kt", "Tailwind limit", "number", "kt", width=7, hint="optional"),
 )
 
 
@@ -60,11 +49,6 @@ PROFILE_FORM = FormSpec(
     name_key="name",
     header={"kind": KIND_PROFILE, "format_version": FORMAT_VERSION},
     read_model=_read_profile,
-    template=_template,
-    depends={"default_configuration": ("configurations",),
-             "vso_kt": ("configurations", "reference_weight_lb", "max_landing_weight_lb"),
-             "max_landing_weight_lb": ("reference_weight_lb",),
-             "configurations": ("aoa_unit",)},
     items=(
         Group(None, "Aircraft", (
             Field("name", "Name", width=18, hint="my-twin"),

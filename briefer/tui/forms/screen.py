@@ -23,7 +23,7 @@ from textual.screen import ModalScreen, Screen
 from textual.widget import Widget
 from textual.widgets import Button, Footer, Input, Label, Static
 
-from briefer.tui.forms.check import Verdict, check_texts
+from briefer.tui.forms.check import Checker, Verdict
 from briefer.tui.forms.spec import Field, FormPath, FormSpec, Group, Item, Repeat, blank_texts, new_row
 from briefer.tui.forms.store import SaveError, Target, file_name, save_model, target_folder
 
@@ -136,7 +136,8 @@ class FormScreen(Screen[Saved | None]):
         self.source = source if source and not builtin else None
         self.painter = side
         self.ascii = ascii
-        self.verdict: Verdict = check_texts(spec, self.texts)
+        self.checker = Checker(spec)
+        self.verdict: Verdict = self.checker.check(self.texts)
         self._msgs: dict[FormPath, Static] = {}
         self._inputs: dict[FormPath, FormInput] = {}
         self._overwrite_ok: Path | None = None
@@ -256,7 +257,7 @@ class FormScreen(Screen[Saved | None]):
         self.revalidate()
 
     def revalidate(self) -> None:
-        self.verdict = check_texts(self.spec, self.texts)
+        self.verdict = self.checker.check(self.texts)
         self._show_verdict()
 
     def _show_verdict(self) -> None:

@@ -153,10 +153,6 @@ class FormSpec:
         read_model: The loader's reader of the whole mapping (`Model.from_mapping`).
         name_key: The file key that names the file ('name', 'ident').
         header: The file's first keys (kind, format_version).
-        template: A complete, valid mapping of this kind: stands in for a part still missing
-            or invalid, so that the rest of the form is checked meanwhile.
-        depends: Top-level key -> the top-level keys its checks read (an error there is not
-            shown while one of those is stood in for).
     """
 
     kind: str
@@ -165,8 +161,6 @@ class FormSpec:
     read_model: Callable[[Any], Any]
     name_key: str
     header: Mapping[str, Any] = field(default_factory=dict)
-    template: Callable[[], Mapping[str, Any]] | None = None
-    depends: Mapping[str, tuple[str, ...]] = field(default_factory=dict)
 
 
 # --------------------------------------------------------------------------------------------
@@ -183,6 +177,7 @@ class Built:
         checks: (dotted path, reader, mapping) of every group and item to check on its own
             (the reader takes the mapping).
         typed: Form paths of fields that hold text.
+        fields: Form paths of every field.
     """
 
     mapping: dict[str, Any]
@@ -190,6 +185,7 @@ class Built:
     owners: dict[str, FormPath] = field(default_factory=dict)
     checks: list[tuple[str, Callable[[Any], Any], dict[str, Any]]] = field(default_factory=list)
     typed: set[FormPath] = field(default_factory=set)
+    fields: set[FormPath] = field(default_factory=set)
 
 
 def _empty(texts: Any) -> bool:
@@ -208,6 +204,7 @@ def _fill(items: Sequence[Item], texts: Mapping[str, Any], out: dict[str, Any], 
         if isinstance(item, Field):
             text = texts.get(item.key, "")
             here = fpath + (item.key,)
+            built.fields.add(here)
             for key in item.file_keys:
                 built.owners[join_path(path, key)] = here
             if isinstance(text, str) and text.strip():

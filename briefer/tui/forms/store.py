@@ -19,9 +19,9 @@ from typing import Any
 from briefer.errors import BriefingError, DataFileError
 from briefer.io.atomic import FileWriteError, write_text_atomic
 from briefer.io.catalog import CONFIG_KEYS, config_path, load_config
-from briefer.io.yamlload import dump_yaml, load_bytes
+from briefer.io import drafts
+from briefer.io.yamlload import load_bytes
 from briefer.model import KIND_PROFILE
-from briefer.tui.forms.values import tidy_number
 
 DEFAULT_FOLDERS = {KIND_PROFILE: "profiles"}
 HEADER = ("# {what} entered in the briefer app. Check every number against the documents: the\n"
@@ -65,19 +65,9 @@ def file_name(kind: str, name: str, title: str = "") -> str:
     return slug[:60] + ".yaml"
 
 
-def _tidy(value: Any) -> Any:
-    if isinstance(value, dict):
-        return {k: _tidy(v) for k, v in value.items()}
-    if isinstance(value, list):
-        return [_tidy(v) for v in value]
-    if isinstance(value, float):
-        return tidy_number(value)
-    return value
-
-
 def file_text(kind: str, model: Any) -> str:
     """The data file of a model: a short header, then its mapping (whole numbers without '.0')."""
-    return HEADER.format(what=_WHAT.get(kind, "Airfield")) + dump_yaml(_tidy(model.to_mapping()))
+    return drafts.draft_yaml(kind, model, header=HEADER.format(what=_WHAT.get(kind, "Airfield")))
 
 
 def _ensure_folder(kind: str, target: Target) -> None:
