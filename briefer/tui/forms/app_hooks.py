@@ -55,6 +55,13 @@ def form_for(app: BriefingApp, kind: str, *, edit: bool) -> FormScreen | str:
         if item is None or model is None:
             return f"'{name}' cannot be read, so it cannot be edited; fix the file or start a new one (F2)"
         mapping = model.to_mapping()
+        if kind == KIND_AIRFIELD:
+            from briefer.tui.forms.airfield_form import has_coordinates
+
+            if has_coordinates(mapping):
+                return (f"{name} gives its runways or fixes by latitude/longitude; the form enters the chart's "
+                        f"numbers (headings, lengths, distances and bearings), so edit {item.source or 'its file'} "
+                        f"by hand, or enter it anew with F2")
         source, builtin = item.source, item.builtin or not item.source
     return FormScreen(_spec(kind), mapping=mapping, source=source, builtin=builtin, side=_painter(kind),
                       ascii=bool(getattr(app, "ascii", False)))

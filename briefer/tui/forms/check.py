@@ -1,10 +1,11 @@
 """Check a form with the loader's own rules and place each message beside its field.
 
 One validation path: the texts become the draft of the data file (`spec.to_mapping`), and the
-draft is checked by `briefer.io.drafts`, which uses the loader's readers and words: each typed
-field inside its own mapping (`drafts.field_message`: an unfinished form does not mask it), and
-the whole draft (`drafts.draft_error`: cross-field rules, the layout of runways and fixes). A
-required entry still empty is the model's own `required_keys()`.
+draft is checked with the loader's readers and words: each typed field inside its own mapping
+(`briefer.io.drafts.field_message`: an unfinished form does not mask it), and the whole draft by
+the model reader the YAML loader calls (`Model.from_mapping`: cross-field rules, the layout of
+runways and fixes). A required entry still empty is the model's own `required_keys()`. Saving
+reads the very file text back with the loader itself (`briefer.tui.forms.store`).
 
 No Textual import here.
 """
@@ -86,20 +87,24 @@ class Checker:
 
     def __init__(self, spec: FormSpec) -> None:
         self.spec = spec
-        self._cache: dict[tuple[str, str], str | None] = {}
+        self._cache: dict[str, tuple[str, str, str | None]] = {}
 
     def _field_message(self, draft: dict[str, Any], path: str) -> str | None:
+        """The loader's message for one field. A field that read fine and was not edited is not
+        read again when a sibling changes (the whole-draft read still sees cross-field rules);
+        one that had a message is."""
         parent = _parent(path)
         sub = get_path(draft, parent) if parent else draft
-        key = (path, repr(sub))
-        if key not in self._cache:
-            if len(self._cache) > 5000:
-                self._cache.clear()
-            try:
-                self._cache[key] = drafts.field_message(self.spec.kind, draft, path)
-            except (KeyError, IndexError, TypeError, ValueError):
-                self._cache[key] = None
-        return self._cache[key]
+        value, around = repr(get_path(draft, path)), repr(sub)
+        hit = self._cache.get(path)
+        if hit is not None and hit[0] == value and (hit[2] is None or hit[1] == around):
+            return hit[2]
+        try:
+            msg = drafts.field_message(self.spec.kind, draft, path)
+        except (KeyError, IndexError, TypeError, ValueError):
+            msg = None
+        self._cache[path] = (value, around, msg)
+        return msg
 
     def check(self, texts: dict[str, Any]) -> Verdict:
         built = to_mapping(self.spec, texts)
@@ -120,11 +125,13 @@ class Checker:
             elif owner not in built.typed and owner not in verdict.required and self._required(parent, key):
                 verdict.required[owner] = "required"
         self._drop_echoes(verdict, built, draft)
-        exc = drafts.draft_error(self.spec.kind, draft)
-        if exc is not None:
+        try:      # the loader's reader of the whole file (`yamlload.model_from_document` calls it)
+            model = self.spec.read_model(draft)
+        except DataFileError as exc:
             self._place(verdict, built, exc)
-        elif not verdict.errors and not verdict.required:
-            verdict.model = self.spec.read_model(draft)
+        else:
+            if not verdict.errors and not verdict.required:
+                verdict.model = model
         return verdict
 
     @staticmethod

@@ -29,6 +29,7 @@ from briefer.tui.forms.store import SaveError, Target, file_name, save_model, ta
 
 ERROR_MARK = "✗ "
 LABEL_WIDTH = 17
+CHECK_DELAY_S = 0.08
 
 SidePainter = Callable[[Verdict, int, int, bool], Any]
 """(verdict, width, height, ascii) -> a Rich renderable for the side panel."""
@@ -254,9 +255,16 @@ class FormScreen(Screen[Saved | None]):
         assert isinstance(inp, FormInput)
         self._set_text(inp.form_path, event.value)
         self._overwrite_ok = None
-        self.revalidate()
+        if self._timer is not None:
+            self._timer.stop()
+        self._timer = self.set_timer(CHECK_DELAY_S, self.revalidate)     # check once typing pauses
+
+    _timer = None
 
     def revalidate(self) -> None:
+        if self._timer is not None:
+            self._timer.stop()
+            self._timer = None
         self.verdict = self.checker.check(self.texts)
         self._show_verdict()
 

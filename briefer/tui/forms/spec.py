@@ -68,6 +68,8 @@ class Field:
             return v.read_flag(text, self.key)
         if kind == "sector":
             return v.read_sector(text)
+        if kind == "variation":
+            return v.read_variation(text)
         t = text.strip()
         if kind == "choice":
             t = t.lower()
@@ -82,6 +84,8 @@ class Field:
             return v.visibility_text(data)
         if kind == "sector":
             return v.sector_text(data)
+        if kind == "variation":
+            return v.variation_text(data.get(self.key)) if data.get(self.key) is not None else ""
         for key in self.file_keys:
             if data.get(key) is not None:
                 value = data[key]

@@ -16,6 +16,8 @@ from collections.abc import Mapping
 from dataclasses import dataclass, field
 from typing import Any
 
+from briefer import units
+
 UNIT_ALIASES: Mapping[str, tuple[str, ...]] = {
     "ft": ("ft", "feet", "'"),
     "kt": ("kt", "kts", "kn", "knots"),
@@ -121,7 +123,7 @@ def read_visibility(text: str) -> dict[str, Any]:
     if s in ("m", "meters", "metres"):
         return {"visibility_m": value}
     if s == "km":
-        return {"visibility_m": tidy_number(value * 1000)}
+        return {"visibility_m": tidy_number(value * units.KM_TO_M)}
     if s:
         raise FormTextError(f"expected SM ('1 1/4', '2 SM') or metres ('1600m'), got '{t}'")
     if value >= 400:
@@ -217,3 +219,32 @@ def sector_text(entries: Mapping[str, Any]) -> str:
 
         return f"{entries['threshold']} {deg(entries.get('from_deg_mag'))}-{deg(entries.get('to_deg_mag'))}"
     return ""
+
+
+_VARIATION = re.compile(r"\s*([-+]?\d+(?:\.\d*)?)\s*°?\s*([EW]?)\s*", re.I)
+
+
+def read_variation(text: str) -> dict[str, Any]:
+    """Magnetic variation: '9E', '9° E', '9' (east), '4W', '-4' (west) -> magnetic_variation_deg,
+    east positive."""
+    t = text.strip()
+    if not t:
+        return {}
+    m = _VARIATION.fullmatch(t)
+    if not m:
+        got = _number(t)
+        if got is None:
+            return {"magnetic_variation_deg": t}
+        raise FormTextError(f"expected degrees east or west ('9E', '4W', or -4 for west), got '{t}'")
+    value = _number(m.group(1))[0]  # type: ignore[index]
+    if m.group(2).upper() == "W":
+        if value < 0:
+            raise FormTextError(f"expected '4W' or -4, not both signs, got '{t}'")
+        value = -value
+    return {"magnetic_variation_deg": value}
+
+
+def variation_text(value: Any) -> str:
+    if not isinstance(value, (int, float)):
+        return number_text(value)
+    return f"{number_text(abs(value))}{'W' if value < 0 else 'E'}" if value else "0"

@@ -1,0 +1,206 @@
+"""The airfield form: the airfield, its runways and each approach in the order a crew reads the
+airport diagram and the approach chart (chart form: headings, lengths, distances and bearings; no
+coordinates needed), and its side panel, a plan view drawn from what is entered.
+
+No Textual import here.
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+from rich.console import Group as RichGroup
+from rich.text import Text
+
+from briefer.model import (
+    CATEGORIES,
+    CRITERIA,
+    FORMAT_VERSION,
+    KIND_AIRFIELD,
+    OBSTACLE_KINDS,
+    Airfield,
+    CirclingMinimum,
+    Fix,
+    Obstacle,
+    Sector,
+    StraightInMinimum,
+)
+from briefer.tui.forms.check import Verdict
+from briefer.tui.forms.spec import Field, FormSpec, Group, Repeat
+
+DISTANCE_ALT = {"ft": ("distance_ft", 1.0), "m": ("distance_m", 1.0)}
+BEARING_ALT = {"°T": ("bearing_deg_true", 1.0)}
+
+
+def _threshold(key: str, title: str) -> Group:
+    return Group(key, title, (
+        Field("designator", "Designator", width=5, hint="13"),
+        Field("elevation_ft", "Elevation", "number", "ft", width=7, hint="or TDZE"),
+        Field("displaced_threshold_m", "Displaced by", "number", "m", width=7, hint="optional"),
+        Field("tch_ft", "TCH", "number", "ft", width=7, hint="50"),
+        Field("glide_path_deg", "Glide path", "number", "°", width=7, hint="3.0"),
+    ))
+
+
+def _fix(key: str, title: str, *, faf: bool) -> Group:
+    place: tuple[Field, ...] = (
+        Field("name", "Name", width=10, hint="QRV VOR" if not faf else "QMA6D"),
+    )
+    if faf:
+        place += (Field("distance_nm", "Before the MAP", "number", "NM", width=6, alt=DISTANCE_ALT),
+                  Field("altitude_ft", "Altitude", "number", "ft", width=7))
+        note = "(distance along the final course to the MAP)"
+    else:
+        place += (Field("threshold", "At threshold", width=5, hint="or blank"),
+                  Field("distance_nm", "Distance", "number", "NM", width=6, alt=DISTANCE_ALT, hint="optional"),
+                  Field("from_point", "or from point", width=5, hint="13 / ARP"),
+                  Field("bearing_deg_mag", "Bearing from it", "number", "°M", width=6, alt=BEARING_ALT))
+        note = "(at a threshold, a distance before it, or a distance and bearing from a point)"
+    return Group(key, f"{title} {note}", place, check=lambda m, p: Fix.from_mapping(m, path=p))
+
+
+def _next_category(rows) -> dict[str, Any]:
+    used = {str(r.get("category", "")).strip().upper() for r in rows}
+    letter = next((c for c in CATEGORIES if c not in used), "")
+    return {"category": letter, "minimum": "", "visibility": "", "reason": ""}
+
+
+MINIMUM_ROW = (
+    Field("category", "", width=2),
+    Field("minimum", "MDA", "minimum", "ft", width=6, owns=("mda_ft", "not_authorised"), hint="or NA"),
+    Field("visibility", "vis", "visibility", "SM/m", width=6, owns=("visibility_sm", "visibility_m")),
+    Field("reason", "", width=10, hint="NA reason"),
+)
+
+
+def _minimums(key: str, title: str, reader: Any, *, optional: bool) -> Repeat:
+    return Repeat(key, title, "Category", MINIMUM_ROW, row=True, by="category", optional=optional,
+                  check=lambda cat, m, p: reader.from_category(cat, m, path=p), new_item=_next_category)
+
+
+def _new_approach(rows) -> dict[str, Any]:
+    return {"name": "", "runway": "", "final_course_deg_mag": "", "criteria": "",
+            "map_fix": {"name": "", "threshold": "", "distance_nm": "", "from_point": "", "bearing_deg_mag": ""},
+            "faf": {"name": "", "distance_nm": "", "altitude_ft": ""},
+            "circling": [{"category": c, "minimum": "", "visibility": "", "reason": ""} for c in "ABCD"],
+            "straight_in": {"runway": "", "minimums": []},
+            "not_authorised_sectors": [], "missed_approach": "", "rnav_gps": ""}
+
+
+def _new_runway(rows) -> dict[str, Any]:
+    row: dict[str, Any] = {
+        "threshold_a": {"designator": "", "elevation_ft": "", "displaced_threshold_m": "", "tch_ft": "",
+                        "glide_path_deg": ""},
+        "threshold_b": {"designator": "", "elevation_ft": "", "displaced_threshold_m": "", "tch_ft": "",
+                        "glide_path_deg": ""},
+        "heading_deg_mag": "", "length_ft": "", "width_m": ""}
+    if rows:
+        row["position"] = {"threshold": "", "from_point": "", "distance_nm": "", "bearing_deg_mag": ""}
+    return row
+
+
+APPROACH_ITEMS = (
+    Field("name", "Approach", width=16, hint="VOR-A"),
+    Field("runway", "Runway served", width=5, hint="blank: circling only"),
+    Field("final_course_deg_mag", "Final course", "number", "°M", width=6),
+    _fix("map_fix", "MAP", faf=False),
+    _fix("faf", "FAF", faf=True),
+    _minimums("circling", "Circling minimums (MDA ft or NA, visibility SM or m)", CirclingMinimum, optional=False),
+    Group("straight_in", "Straight-in minimums (optional)", (
+        Field("runway", "Runway", width=5),
+        _minimums("minimums", "", StraightInMinimum, optional=True),
+    ), optional=True),
+    Repeat("not_authorised_sectors", "Circling NA ('south of 09/27' or '13 040-110')", "Sector", (
+        Field("where", "NA", "sector", width=16, owns=("side", "runway", "threshold", "from_deg_mag", "to_deg_mag")),
+        Field("reason", "", width=12, hint="reason"),
+    ), row=True, optional=True, check=lambda m, p: Sector.from_mapping(m, path=p)),
+    Field("missed_approach", "Missed approach", width=30),
+    Field("criteria", "Criteria", "choice", width=14, hint="/".join(CRITERIA)),
+    Field("rnav_gps", "RNAV (GPS)", "flag", width=5, hint="no"),
+)
+
+RUNWAY_ITEMS = (
+    _threshold("threshold_a", "Threshold A"),
+    _threshold("threshold_b", "Threshold B"),
+    Field("heading_deg_mag", "Heading A to B", "number", "°M", width=6, alt={"°T": ("heading_deg_true", 1.0)}),
+    Field("length_ft", "Length", "number", "ft", width=6, alt={"m": ("length_m", 1.0)}),
+    Field("width_m", "Width", "number", "m", width=6, hint="optional"),
+    Group("position", "Placed from (runways after the first)", (
+        Field("threshold", "Its threshold", width=5, hint="A"),
+        Field("from_point", "From point", width=5, hint="13 / ARP"),
+        Field("distance_nm", "Distance", "number", "NM", width=6, alt=DISTANCE_ALT),
+        Field("bearing_deg_mag", "Bearing", "number", "°M", width=6, alt=BEARING_ALT),
+    ), optional=True),
+)
+
+
+def _read_airfield(mapping: Any) -> Airfield:
+    return Airfield.from_mapping(mapping)
+
+
+AIRFIELD_FORM = FormSpec(
+    kind=KIND_AIRFIELD,
+    title="Airfield",
+    name_key="ident",
+    header={"kind": KIND_AIRFIELD, "format_version": FORMAT_VERSION},
+    read_model=_read_airfield,
+    items=(
+        Group(None, "Airfield (airport diagram)", (
+            Field("ident", "Identifier", width=6, hint="Q7HM"),
+            Field("name", "Name", width=22),
+            Field("elevation_ft", "Elevation", "number", "ft", width=6),
+            Field("magnetic_variation_deg", "Variation", "variation", "°", width=6, hint="9E / 4W"),
+        )),
+        Group("reference_point", "Reference point (optional: blank = local frame)", (
+            Field("lat_deg", "Latitude", "number", "°", width=10),
+            Field("lon_deg", "Longitude", "number", "°", width=10),
+        ), optional=True),
+        Repeat("runways", "Runways", "Runway", RUNWAY_ITEMS, new_item=_new_runway),
+        Repeat("approaches", "Approaches (approach chart)", "Approach", APPROACH_ITEMS, new_item=_new_approach),
+        Repeat("obstacles", "Obstacles (optional)", "Obstacle", (
+            Field("name", "Name", width=10),
+            Field("kind", "Kind", "choice", width=9, hint="tower"),
+            Field("from_point", "From point", width=5, hint="13 / ARP"),
+            Field("distance_nm", "Distance", "number", "NM", width=6, alt=DISTANCE_ALT),
+            Field("bearing_deg_mag", "Bearing", "number", "°M", width=6, alt=BEARING_ALT),
+            Field("elevation_ft", "Elevation", "number", "ft", width=6),
+            Field("height_agl_ft", "Height AGL", "number", "ft", width=6, hint="optional"),
+        ), optional=True, check=lambda m, p: Obstacle.from_mapping(m, path=p)),
+    ),
+)
+"""The airfield form (obstacle kinds: see `briefer.model.OBSTACLE_KINDS`)."""
+
+_ = OBSTACLE_KINDS
+
+
+def has_coordinates(mapping: dict[str, Any]) -> bool:
+    """True when any position of an airfield file is latitude/longitude (the form enters the
+    chart's numbers, so it would not keep them)."""
+    def any_latlon(value: Any) -> bool:
+        if isinstance(value, dict):
+            return "lat_deg" in value or any(any_latlon(v) for k, v in value.items() if k != "reference_point")
+        if isinstance(value, list):
+            return any(any_latlon(v) for v in value)
+        return False
+
+    return any_latlon({k: v for k, v in mapping.items() if k != "reference_point"})
+
+
+# --------------------------------------------------------------------------------------------
+# The side panel: a plan view of what is entered
+# --------------------------------------------------------------------------------------------
+def airfield_side(verdict: Verdict, width: int, height: int, ascii: bool) -> Any:
+    """The plan view of the runways, fixes, obstacles and not-authorised sectors entered so far
+    (north up), and what is not drawn yet."""
+    from briefer.render.planview import render_plan
+    from briefer.tui.forms.plan import plan_scene
+
+    draft = verdict.built.mapping if verdict.built is not None else {}
+    scene, notes = plan_scene(draft)
+    text = Text("PLAN (north up)\n", style="bold underline")
+    rows = max(height - 2 - len(notes), 3)
+    if scene is None:
+        text.append("\n".join(notes) or "Enter a runway: its heading and length.")
+        return text
+    canvas = render_plan(scene, width, rows, ascii=ascii)
+    return RichGroup(text, canvas, Text("\n".join(notes), style="dim"))
