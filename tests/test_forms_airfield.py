@@ -1,0 +1,150 @@
+"""The airfield form: a circling-only approach from an off-field facility typed through the forms
+(with the aircraft), saved, and briefed; the brief must equal `build_brief` on the saved files.
+
+References: the loader (`briefer.io.yamlload`, the data-file format of README "Data files") reads
+the saved files; `briefer.brief.build_brief` computes the brief the app must show.
+"""
+
+from __future__ import annotations
+
+import pytest
+from forms_support import brief_json, type_fields
+from test_app_support import demo_catalog, demo_inputs, settle
+from test_forms_profile import NEW_AIRCRAFT
+
+from briefer.io.yamlload import load_airfield, load_profile
+from briefer.model import KIND_AIRFIELD, KIND_PROFILE, BriefRequest, Weather
+from briefer.tui.app import BriefingApp
+from briefer.tui.forms.airfield_form import AIRFIELD_FORM
+from briefer.tui.forms.check import check_texts
+from briefer.tui.forms.plan import plan_scene
+from briefer.tui.forms.screen import FormScreen, widget_id
+from briefer.tui.forms.spec import to_mapping, to_texts
+from briefer.tui.forms.store import file_text, save_model, target_folder
+
+
+@pytest.fixture(autouse=True)
+def _config_home(tmp_path, monkeypatch):
+    monkeypatch.setenv("XDG_CONFIG_HOME", str(tmp_path / "config-home"))
+
+
+AP = ("approaches", 0)
+NEW_AIRFIELD = [
+    (("ident",), "T5ZQ"), (("name",), "Test Ridge"), (("elevation_ft",), "4200"),
+    (("magnetic_variation_deg",), "3E"),
+    (("runways", 0, "threshold_a", "designator"), "08"), (("runways", 0, "threshold_a", "elevation_ft"), "4200"),
+    (("runways", 0, "threshold_b", "designator"), "26"), (("runways", 0, "threshold_b", "elevation_ft"), "4190"),
+    (("runways", 0, "heading_deg_mag"), "081.5"), (("runways", 0, "length_ft"), "6500"),
+    (AP + ("name",), "VOR-B"), (AP + ("final_course_deg_mag",), "300"),
+    (AP + ("map_fix", "name"), "TZR VOR"), (AP + ("map_fix", "from_point"), "08"),
+    (AP + ("map_fix", "distance_nm"), "1.2"), (AP + ("map_fix", "bearing_deg_mag"), "200"),
+    (AP + ("faf", "name"), "TZR6D"), (AP + ("faf", "distance_nm"), "5.5"), (AP + ("faf", "altitude_ft"), "6000"),
+    (AP + ("circling", 0, "minimum"), "4800"), (AP + ("circling", 0, "visibility"), "1"),
+    (AP + ("circling", 1, "minimum"), "4800"), (AP + ("circling", 1, "visibility"), "1 1/4"),
+    (AP + ("circling", 2, "minimum"), "4900"), (AP + ("circling", 2, "visibility"), "2"),
+    (AP + ("circling", 3, "minimum"), "4960"), (AP + ("circling", 3, "visibility"), "3600m"),
+    (AP + ("missed_approach",), "Climb to 7000 direct TZR and hold."),
+    (AP + ("criteria",), "terps-expanded"),
+]
+SECTOR = [(AP + ("not_authorised_sectors", 0, "where"), "south of 08/26"),
+          (AP + ("not_authorised_sectors", 0, "reason"), "terrain")]
+
+
+async def test_type_an_airfield_and_an_aircraft_save_both_and_brief_with_them():
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        await pilot.press("2")
+        await pilot.pause()
+        await pilot.press("f2")
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, FormScreen) and screen.spec is AIRFIELD_FORM
+        await type_fields(pilot, NEW_AIRFIELD)
+        add = screen.query_one("#" + widget_id("add", AP + ("not_authorised_sectors",)))
+        add.focus()
+        await pilot.press("enter")
+        for _ in range(20):
+            await pilot.pause(0.02)
+        await type_fields(pilot, SECTOR)
+        screen.revalidate()
+        assert screen.verdict.ok, (screen.verdict.errors, screen.verdict.required, screen.verdict.general)
+        await pilot.press("ctrl+s")
+        await pilot.pause()
+        assert not isinstance(app.screen, FormScreen)
+        await settle(app, pilot)
+        assert (app.inputs.airfield, app.inputs.approach) == ("T5ZQ", "VOR-B")
+
+        await pilot.press("1")
+        await pilot.pause()
+        await pilot.press("f2")
+        await pilot.pause()
+        await type_fields(pilot, NEW_AIRCRAFT)
+        await pilot.press("ctrl+s")
+        await pilot.pause()
+        await settle(app, pilot)
+
+        airfield = load_airfield(target_folder(KIND_AIRFIELD).folder / "t5zq-test-ridge.yaml")
+        profile = load_profile(target_folder(KIND_PROFILE).folder / "test-turboprop.yaml")
+        assert airfield.reference_point is None and airfield.runways[0].heading_deg_mag == 81.5
+        ap = airfield.approach("VOR-B")
+        assert ap.runway is None and ap.map_fix.from_point == "08" and ap.map_fix.bearing_deg_mag == 200
+        assert [m.category for m in ap.circling] == ["A", "B", "C", "D"]
+        assert ap.circling[1].visibility_sm == 1.25 and ap.circling[3].visibility_m == 3600
+        assert ap.not_authorised_sectors[0].side == "south"
+        want = BriefRequest(profile=profile, airfield=airfield, approach="VOR-B",
+                            landing_runway=app.inputs.landing_runway, weather=Weather(**app.request.weather.to_mapping()))
+        assert app.inputs.profile == "test-turboprop"
+        assert brief_json(app.request) == brief_json(want)
+        # save -> load -> save: the same bytes
+        path = target_folder(KIND_AIRFIELD).folder / "t5zq-test-ridge.yaml"
+        assert file_text(KIND_AIRFIELD, airfield).encode() == path.read_bytes()
+
+
+def _q7hm_texts():
+    from pathlib import Path
+
+    twin = Path(__file__).parent / "chart_twins" / "q7hm-qorvel-mesa-chart.yaml"
+    return to_texts(AIRFIELD_FORM, load_airfield(twin).to_mapping()), load_airfield(twin)
+
+
+def test_a_chart_form_airfield_reads_back_through_the_form_and_saves_byte_identical(tmp_path):
+    texts, model = _q7hm_texts()
+    verdict = check_texts(AIRFIELD_FORM, texts)
+    assert verdict.ok, (verdict.errors, verdict.general)
+    assert verdict.model == model
+    path = tmp_path / "q7hm.yaml"
+    save_model(KIND_AIRFIELD, verdict.model, path, overwrite=False)
+    again = load_airfield(path)
+    assert again == model
+    assert file_text(KIND_AIRFIELD, again).encode() == path.read_bytes()
+
+
+@pytest.mark.parametrize(("fpath", "text", "words"), [
+    (("runways", 0, "heading_deg_mag"), "400", "between 0 and 360"),
+    (("runways", 0, "length_ft"), "9184 NM", "expected a number in 'ft' or 'm'"),
+    (("approaches", 1, "map_fix", "bearing_deg_mag"), "north", "got 'north'"),
+    (("approaches", 1, "circling", 0, "visibility"), "2 NM", "expected SM"),
+    (("elevation_ft",), "99999", "between -1500 and 15000"),
+])
+def test_every_field_refuses_bad_input_beside_it(fpath, text, words):
+    texts, _ = _q7hm_texts()
+    cur = texts
+    for tok in fpath[:-1]:
+        cur = cur[tok]
+    cur[fpath[-1]] = text
+    verdict = check_texts(AIRFIELD_FORM, texts)
+    assert words in verdict.errors[fpath]
+    assert verdict.model is None
+
+
+def test_the_plan_view_moves_with_a_wrong_bearing():
+    texts, _ = _q7hm_texts()
+    good, _notes = plan_scene(to_mapping(AIRFIELD_FORM, texts).mapping)
+    texts["approaches"][1]["map_fix"]["bearing_deg_mag"] = "306.3"        # 180 degrees off
+    bad, _notes = plan_scene(to_mapping(AIRFIELD_FORM, texts).mapping)
+
+    def map_label(scene):
+        return [i.point for i in scene.items if getattr(i, "text", None) == "M"]
+
+    assert map_label(good) != map_label(bad)
