@@ -593,6 +593,7 @@ class BriefingApp(App[None]):
         if action in self.MAIN_SCREEN_ACTIONS and self.screen is not self.main:
             return False
         return True
+
     def action_new_entry(self) -> None:
         from briefer.tui.forms.app_hooks import open_form
 
