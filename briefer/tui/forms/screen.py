@@ -109,9 +109,14 @@ class FormScreen(Screen[Saved | None]):
     """Enter or edit one data file with a form."""
 
     BINDINGS = [
+        # Tab as a priority binding: the focus moves before the next keys are handed out, so a
+        # burst of keys (a fast typist, a slow link) lands in the right fields.
+        Binding("tab", "app.focus_next", "Next field", show=False, priority=True),
+        Binding("shift+tab", "app.focus_previous", "Previous field", show=False, priority=True),
         Binding("ctrl+s", "save", "Save", priority=True),
         Binding("escape", "close", "Close", priority=True),
         Binding("ctrl+n", "add_row", "Add row", priority=True),
+        Binding("enter", "press_add", "Add", show=False, priority=True),
         Binding("ctrl+r", "remove_row", "Remove row", priority=True),
         Binding("pageup", "page(-1)", "Page up", show=False),
         Binding("pagedown", "page(1)", "Page down", show=False),
@@ -152,7 +157,9 @@ class FormScreen(Screen[Saved | None]):
                                    " Tab next  ^n add row  ^r remove row  ^s save  Esc close"),
                      id="form-title")
         with Horizontal(id="form-main"):
-            yield VerticalScroll(*self._body(), id="form-body")
+            body = VerticalScroll(*self._body(), id="form-body")
+            body.can_focus = False          # Tab goes from field to field; the body scrolls to follow
+            yield body
             if self.painter is not None:
                 yield SidePanel(self.painter, ascii=self.ascii)
         yield Static("", id="form-status")
@@ -201,27 +208,31 @@ class FormScreen(Screen[Saved | None]):
         rows = texts.setdefault(rep.key, [])
         out: list[Widget] = [Static(rep.title, classes="form-heading", markup=False),
                              self._message(rpath, "form-msg form-group-msg")]
-        for i, row in enumerate(rows):
-            ipath = rpath + (i,)
-            if rep.row:
-                cells: list[Widget] = []
-                for f in rep.items:
-                    assert isinstance(f, Field)
-                    if f.label:
-                        cells.append(Label(f.label, classes="form-cell-label"))
-                    cells.append(self._input(f, row, ipath + (f.key,)))
-                    if f.unit:
-                        cells.append(Label(f.unit, classes="form-cell-unit"))
-                out.append(Horizontal(*cells, classes="form-row", id=widget_id("row", ipath)))
-                out.append(self._row_message(rep, ipath))
-            else:
-                out.append(Static(f"{rep.item_title} {i + 1}  (^r removes it)", classes="form-item-heading",
-                                  markup=False))
-                out.append(self._message(ipath, "form-msg form-group-msg"))
-                out.extend(self._items(rep.items, row, ipath))    # type: ignore[arg-type]
+        out.extend(self._repeat_item(rep, rpath, i, row) for i, row in enumerate(rows))
         out.append(Button(f"+ add {rep.item_title.lower()}", id=widget_id("add", rpath), classes="form-add",
                           compact=True))
         return out
+
+    def _repeat_item(self, rep: Repeat, rpath: FormPath, i: int, row: dict[str, Any]) -> Widget:
+        """One item of a repeating group, in its own box (added and removed whole)."""
+        ipath = rpath + (i,)
+        if rep.row:
+            cells: list[Widget] = []
+            for f in rep.items:
+                assert isinstance(f, Field)
+                if f.label:
+                    cells.append(Label(f.label, classes="form-cell-label"))
+                cells.append(self._input(f, row, ipath + (f.key,)))
+                if f.unit:
+                    cells.append(Label(f.unit, classes="form-cell-unit"))
+            parts: list[Widget] = [Horizontal(*cells, classes="form-row", id=widget_id("row", ipath)),
+                                   self._row_message(rep, ipath)]
+        else:
+            parts = [Static(f"{rep.item_title} {i + 1}  (^r removes it)", classes="form-item-heading",
+                            markup=False),
+                     self._message(ipath, "form-msg form-group-msg"),
+                     *self._items(rep.items, row, ipath)]    # type: ignore[arg-type]
+        return Vertical(*parts, classes="form-item", id=widget_id("box", ipath))
 
     def _row_message(self, rep: Repeat, ipath: FormPath) -> Static:
         """One message line under a short row, for the row and each of its fields."""
@@ -440,30 +451,51 @@ class FormScreen(Screen[Saved | None]):
         return cur
 
     @on(Button.Pressed, ".form-add")
-    def _add_pressed(self, event: Button.Pressed) -> None:
+    async def _add_pressed(self, event: Button.Pressed) -> None:
         event.stop()
         rpath = self._add_paths.get(event.button.id or "")
         if rpath is not None:
-            self._add_at(rpath)
+            await self._add_at(rpath)
 
-    def action_add_row(self) -> None:
+    async def action_press_add(self) -> None:
+        """Enter on a "+ add" button, handled before the next keys are handed out (so what is
+        typed next lands in the new row)."""
+        button = self.focused
+        rpath = self._add_paths.get(getattr(button, "id", "") or "")
+        if rpath is not None:
+            await self._add_at(rpath)
+
+    def check_action(self, action: str, parameters: tuple[object, ...]) -> bool | None:
+        if action == "press_add":
+            return isinstance(self.focused, Button) and "form-add" in self.focused.classes
+        return True
+
+    async def action_add_row(self) -> None:
         hit = self._repeat_of_focus()
         if hit is None:
             self.notify("Put the cursor in a group (runways, categories, sectors...) to add a row to it.",
                         timeout=4)
             return
-        self._add_at(hit[1])
+        await self._add_at(hit[1])
 
-    def _add_at(self, rpath: FormPath) -> None:
+    async def _add_at(self, rpath: FormPath) -> None:
+        """Add a row and mount its box before the group's "+ add" button; the cursor goes to it."""
         hit = self._repeat_at(rpath)
         if hit is None:
             return
         rep = hit[0]
         rows = self._rows(rpath)
         rows.append(new_row(rep, rows))
-        self._rebuild(focus=rpath + (len(rows) - 1,))
+        index = len(rows) - 1
+        box = self._repeat_item(rep, rpath, index, rows[-1])
+        button = self.query_one("#" + widget_id("add", rpath), Button)
+        await self.query_one("#form-body", VerticalScroll).mount(box, before=button)
+        target = next((w for p, w in self._inputs.items() if p[: len(rpath) + 1] == rpath + (index,)), None)
+        if target is not None:
+            target.focus()
+        self.revalidate()
 
-    def action_remove_row(self) -> None:
+    async def action_remove_row(self) -> None:
         hit = self._repeat_of_focus()
         if hit is None or hit[2] is None:
             self.notify("Put the cursor in the row to remove.", timeout=4)
@@ -472,26 +504,23 @@ class FormScreen(Screen[Saved | None]):
         index = hit[2]
         del rows[index]
         focus = hit[1] + (min(index, len(rows) - 1),) if rows else None
-        self._rebuild(focus=focus, add_button=hit[1] if not rows else None)
+        await self._rebuild(focus=focus, add_button=hit[1] if not rows else None)
 
-    def _rebuild(self, *, focus: FormPath | None = None, add_button: FormPath | None = None) -> None:
+    async def _rebuild(self, *, focus: FormPath | None = None, add_button: FormPath | None = None) -> None:
+        """Build the form again (after a row is removed: the rows after it are renumbered)."""
         body = self.query_one("#form-body", VerticalScroll)
         scroll_y = body.scroll_y
-
-        async def remount() -> None:
-            await body.remove_children()
-            await body.mount_all(self._body())
-            self.revalidate()
-            body.scroll_to(y=scroll_y, animate=False)
-            target: Widget | None = None
-            if focus is not None:
-                target = next((w for p, w in self._inputs.items() if p[: len(focus)] == focus), None)
-            if target is None and add_button is not None:
-                target = self.query_one("#" + widget_id("add", add_button), Button)
-            if target is not None:
-                target.focus()
-
-        self.run_worker(remount(), exclusive=True, group="form-rebuild")
+        await body.remove_children()
+        await body.mount_all(self._body())
+        self.revalidate()
+        body.scroll_to(y=scroll_y, animate=False)
+        target: Widget | None = None
+        if focus is not None:
+            target = next((w for p, w in self._inputs.items() if p[: len(focus)] == focus), None)
+        if target is None and add_button is not None:
+            target = self.query_one("#" + widget_id("add", add_button), Button)
+        if target is not None:
+            target.focus()
 
     def action_page(self, direction: int) -> None:
         body = self.query_one("#form-body", VerticalScroll)
