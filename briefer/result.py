@@ -152,6 +152,9 @@ class WindInfo:
     gust_crosswind_from_right_kt: float | None
     variable_from_deg_true: float | None = None
     variable_to_deg_true: float | None = None
+    crosswind_limit_kt: float | None = None   # the configuration's maximum demonstrated crosswind
+    tailwind_limit_kt: float | None = None    # the configuration's tailwind limit for landing
+    limits_source: str = "not given"          # "profile": both given; "part": one given; "not given"
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

@@ -8,7 +8,7 @@ from test_app_support import METAR, demo_catalog, demo_inputs, expected_brief, s
 from textual import events
 from textual.widgets import Input, TabbedContent
 
-from briefer.render.words import components_words
+from briefer.wording import components_words
 from briefer.tui.app import BriefingApp
 from briefer.tui.inputs_file import load_inputs
 from briefer.tui.widgets import ChoiceList, EnvelopePolar, FieldRow, PlanCanvas

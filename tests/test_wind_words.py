@@ -23,7 +23,7 @@ from briefer.brief import build_brief, demo_request
 from briefer.render.brief_json import brief_to_dict
 from briefer.render.card import card_pdf_bytes, card_text
 from briefer.render.views import BriefView
-from briefer.render.words import components_words, crosswind_side, crosswind_words, headwind_words
+from briefer.wording import components_words, crosswind_side, crosswind_words, headwind_words
 
 
 def _render(renderable) -> str:

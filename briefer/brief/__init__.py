@@ -53,7 +53,8 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
     mins = minimums_and_area_section(s)
     perf = performance_section(s)
     wx = weather_section(s, weather_report)
-    plan = plan_section(s, bank_target_deg=s.inputs.bank_deg, straight_in=mins.minimums.straight_in_available)
+    plan = plan_section(s, bank_target_deg=s.inputs.bank_deg, straight_in=mins.minimums.straight_in_available,
+                        withheld=wx.beyond_limits)
     sight = sight_picture_section(s, plan.plan, plan.solved, perf.performance)
     findings = (mins.findings + perf.findings + wx.findings + plan.findings + sight.findings
                 + report_findings(weather_report))

@@ -6,6 +6,7 @@ the area, beyond visibility, marginal, roll-out shortened, descent in the turn) 
 
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass
 
 import numpy as np
@@ -39,13 +40,24 @@ class PlanPart:
     findings: tuple[Finding, ...]
 
 
-def plan_section(s: Situation, *, bank_target_deg: float, straight_in: bool) -> PlanPart:
-    """Choose the plan (closer roll-outs if none fits at the descent point) and check it."""
+def plan_section(s: Situation, *, bank_target_deg: float, straight_in: bool,
+                 withheld: tuple[str, ...] = ()) -> PlanPart:
+    """Choose the plan (closer roll-outs if none fits at the descent point) and check it.
+
+    `withheld`: why no plan may be recommended whatever the geometry (the aircraft's wind limits
+    exceeded); then the plan part says so and no track is drawn.
+    """
     found = FindingList()
     choice, roll_out_shortened = choose_with_closer_roll_out(s, s.area_radius.radius_nm * units.NM_TO_M)
     best = choice.ranked[0] if choice.ranked else None
     plan = best.plan if best is not None else None
     alts = _alternatives(choice)
+    if withheld:
+        info = dataclasses.replace(_no_plan_info(s, best, ()), reasons=tuple(withheld), shape="none",
+                                   shape_text="No plan recommended", side="-")
+        return PlanPart(plan=info, missed_approach=MissedApproachInfo(
+            turn_direction="", by_leg=(), instruction=s.request.selected_approach().missed_approach),
+            solved=None, findings=())
     if plan is None or not plan.feasible:
         info, missed = _no_plan_info(s, best, alts), MissedApproachInfo(
             turn_direction="", by_leg=(), instruction=s.request.selected_approach().missed_approach)

@@ -12,8 +12,13 @@ from briefer.brief.findings import FindingList
 from briefer.brief.situation_inputs import Situation
 from briefer.core import wind
 from briefer.result import Finding, WeatherUsed, WindInfo
+from briefer.wording import crosswind_words, headwind_words
 
 TAILWIND_WARNING_KT = 2.0
+# Where a profile gives no limit: common practice, from memory (not a flight-manual value); beyond
+# them a WARNING, never the DANGER of the aircraft's own limit.
+COMMON_PRACTICE_TAILWIND_KT = 10.0     # the tailwind most transport flight manuals certify for landing
+COMMON_PRACTICE_CROSSWIND_KT = 25.0    # a usual operator limit on a dry runway
 
 
 @dataclass(frozen=True, slots=True)
@@ -23,6 +28,7 @@ class WeatherChecks:
     wind: WindInfo
     weather: WeatherUsed
     findings: tuple[Finding, ...]
+    beyond_limits: tuple[str, ...] = ()   # the aircraft's wind limits exceeded: no plan is recommended
 
 
 def weather_section(s: Situation, weather_report=None) -> WeatherChecks:
@@ -40,15 +46,18 @@ def weather_section(s: Situation, weather_report=None) -> WeatherChecks:
     if wx.wind_gust_kt is not None and s.wind_from_true is not None:
         gc = wind.wind_components_kt(s.wind_from_true, wx.wind_gust_kt, course_deg=course_true)
         ghw, gxw = float(gc.headwind_kt), float(gc.crosswind_from_right_kt)
-    if hw < -TAILWIND_WARNING_KT:
+    beyond = _wind_limit_findings(request.selected_configuration(), hw, xw, ghw, gxw, found)
+    if hw < -TAILWIND_WARNING_KT and not beyond:
         found.add("warning", "tailwind", f"Tailwind of {-hw:.0f} kt on runway {request.landing_runway}.")
     if s.wind_from_true is None and s.wind_speed_kt > 0:
         found.add("warning", "variable-wind",
                   "Variable wind: planned as calm; see the wind envelope for every direction.")
+    cfg = request.selected_configuration()
     wind_info = WindInfo(reported=wx.wind_speed_kt is not None and s.wind_speed_kt > 0,
                          from_deg_true=s.wind_from_true, speed_kt=s.wind_speed_kt, gust_kt=wx.wind_gust_kt,
                          headwind_kt=hw, crosswind_from_right_kt=xw, gust_headwind_kt=ghw,
-                         gust_crosswind_from_right_kt=gxw)
+                         gust_crosswind_from_right_kt=gxw, crosswind_limit_kt=cfg.max_demonstrated_crosswind_kt,
+                         tailwind_limit_kt=cfg.tailwind_limit_kt, limits_source=_limits_source(cfg))
     source = "manual" if any(v is not None for v in (wx.wind_speed_kt, wx.oat_c, wx.altimeter_hpa,
                                                      wx.visibility_sm, wx.ceiling_ft)) else "standard"
     if weather_report is not None:
@@ -56,7 +65,59 @@ def weather_section(s: Situation, weather_report=None) -> WeatherChecks:
     weather = WeatherUsed(source=source, report=None if weather_report is None else weather_report.raw,
                           oat_c=s.oat_c, altimeter_hpa=s.altimeter_hpa, visibility_sm=wx.visibility_sm,
                           ceiling_ft=wx.ceiling_ft)
-    return WeatherChecks(wind=wind_info, weather=weather, findings=tuple(found))
+    return WeatherChecks(wind=wind_info, weather=weather, findings=tuple(found), beyond_limits=beyond)
+
+
+def _limits_source(cfg) -> str:
+    given = [v is not None for v in (cfg.max_demonstrated_crosswind_kt, cfg.tailwind_limit_kt)]
+    return "profile" if all(given) else "part" if any(given) else "not given"
+
+
+def _wind_limit_findings(cfg, hw: float, xw: float, ghw: float | None, gxw: float | None,
+                         found: FindingList) -> tuple[str, ...]:
+    """The wind against the configuration's limits (worst of steady and gust, in whole knots as
+    printed): beyond the profile's limit a DANGER (and the plan is withheld); where the profile
+    gives none, "not given" and the common-practice defaults, beyond which a WARNING."""
+    cross, cross_gust = abs(xw), False
+    if gxw is not None and abs(gxw) > cross:
+        cross, cross_gust = abs(gxw), True
+    cross_signed = (gxw if cross_gust else xw)
+    tail, tail_gust = -hw, False
+    if ghw is not None and -ghw > tail:
+        tail, tail_gust = -ghw, True
+    in_gusts = " in the gusts"
+    beyond: list[str] = []
+    xw_lim, tw_lim = cfg.max_demonstrated_crosswind_kt, cfg.tailwind_limit_kt
+    if xw_lim is not None and round(cross) > xw_lim:
+        text = (f"crosswind {crosswind_words(cross_signed)}{in_gusts if cross_gust else ''} is beyond the maximum "
+                f"demonstrated crosswind of {xw_lim:.0f} kt ({cfg.name})")
+        beyond.append(text)
+        found.add("danger", "crosswind-beyond-limit", f"The {text}: no plan is recommended; land on another runway "
+                  "or divert.")
+    if tw_lim is not None and round(tail) > tw_lim:
+        text = (f"{headwind_words(-tail)}{in_gusts if tail_gust else ''} is beyond the tailwind limit of "
+                f"{tw_lim:.0f} kt ({cfg.name})")
+        beyond.append(text)
+        found.add("danger", "tailwind-beyond-limit", f"The {text}: no plan is recommended; land on another runway "
+                  "or divert.")
+    missing = [w for w, v in (("crosswind", xw_lim), ("tailwind", tw_lim)) if v is None]
+    if missing:
+        found.add("info", "wind-limits-not-given",
+                  f"The profile's {' and '.join(missing)} limit for {cfg.name}: not given. Checked instead against "
+                  f"common practice (from memory, not the flight manual): "
+                  + ", ".join(f"{w} {COMMON_PRACTICE_CROSSWIND_KT if w == 'crosswind' else COMMON_PRACTICE_TAILWIND_KT:.0f} kt"
+                              for w in missing) + ".")
+    if xw_lim is None and round(cross) > COMMON_PRACTICE_CROSSWIND_KT:
+        found.add("warning", "crosswind-beyond-default",
+                  f"Crosswind {crosswind_words(cross_signed)}{in_gusts if cross_gust else ''} is beyond "
+                  f"{COMMON_PRACTICE_CROSSWIND_KT:.0f} kt, a common-practice limit (the profile gives none): check the "
+                  "flight manual's demonstrated crosswind.")
+    if tw_lim is None and round(tail) > COMMON_PRACTICE_TAILWIND_KT:
+        found.add("warning", "tailwind-beyond-default",
+                  f"{headwind_words(-tail).capitalize()}{in_gusts if tail_gust else ''} is beyond "
+                  f"{COMMON_PRACTICE_TAILWIND_KT:.0f} kt, a common-practice limit (the profile gives none): check the "
+                  "flight manual's tailwind limit.")
+    return tuple(beyond)
 
 
 def report_findings(weather_report) -> tuple[Finding, ...]:

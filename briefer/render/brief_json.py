@@ -10,7 +10,7 @@ from typing import Any
 
 import numpy as np
 
-from briefer.render.words import crosswind_side, crosswind_words, wind_components_text
+from briefer.wording import crosswind_side, crosswind_words, wind_components_text, wind_limits_words
 from briefer.result import Brief
 
 SCHEMA = "briefer.brief/1"
@@ -142,6 +142,8 @@ def brief_to_dict(brief: Brief) -> dict[str, Any]:
                  "crosswind_side": crosswind_side(w.crosswind_from_right_kt),
                  "crosswind_text": crosswind_words(w.crosswind_from_right_kt),
                  "components_text": wind_components_text(w),
+                 "limits": {"crosswind_kt": w.crosswind_limit_kt, "tailwind_kt": w.tailwind_limit_kt,
+                            "source": w.limits_source, "text": wind_limits_words(w)},
                  "gust_headwind_kt": w.gust_headwind_kt,
                  "gust_crosswind_from_right_kt": w.gust_crosswind_from_right_kt,
                  "variable_from_deg_true": w.variable_from_deg_true,

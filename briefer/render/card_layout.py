@@ -25,7 +25,7 @@ from briefer import __version__
 from briefer.cautions import CAUTIONS, SHORT_CAUTION
 from briefer.render.brief_scene import scene_from_brief
 from briefer.render.scene import ROLE_STYLES, Role, Scene
-from briefer.render.words import wind_components_text
+from briefer.wording import wind_components_text, wind_limits_words
 from briefer.result import Brief, Finding
 
 DASH = "--"
@@ -346,13 +346,14 @@ def wind_text(brief: Brief) -> str:
 
 def _wind(brief: Brief) -> Section:
     w, wx, pf, h = brief.wind, brief.weather, brief.performance, brief.header
-    comp = f"rwy {h.landing_runway}: {wind_components_text(w)}"
+    comp = f"rwy {h.landing_runway}: {wind_components_text(w)}; {wind_limits_words(w)}"
     source = {"manual": "as entered", "report": "from the report", "report+manual": "report and entries",
               "standard": "none given: standard day"}.get(wx.source, wx.source)
     weather = (f"OAT {wx.oat_c:.0f} °C, altimeter {wx.altimeter_hpa:.0f} hPa, visibility "
                f"{vis(wx.visibility_sm) if wx.visibility_sm is not None else 'not reported'}, ceiling "
                f"{num(wx.ceiling_ft, '.0f', ' ft') if wx.ceiling_ft is not None else 'not reported'} ({source})")
-    rows = [Row(label="Wind", text=f"{wind_text(brief)}; " + comp if w.reported else wind_text(brief)),
+    rows = [Row(label="Wind", text=(f"{wind_text(brief)}; " + comp if w.reported
+                                    else f"{wind_text(brief)}; {wind_limits_words(w)}")),
             Row(label="Weather", text=weather)]
     if wx.report:
         rows.append(Row(label="Report", text=wx.report))

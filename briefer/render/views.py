@@ -12,7 +12,7 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
-from briefer.render.words import wind_components_text
+from briefer.wording import wind_components_text, wind_limits_words
 from briefer.result import Brief, Finding
 
 MARK = {"danger": "!!", "warning": "! ", "info": "i "}
@@ -155,7 +155,7 @@ class PerformanceView:
         sb = "n/a" if pf.stall_bank_deg is None else f"{pf.stall_bank_deg:.0f}°"
         g.add_row("Stall", f"{pf.stall_speed_kt:.0f} kt in the turn (margin {pf.stall_margin_pct:.0f} %); "
                            f"AoA {pf.aoa_in_turn:.1f} of {pf.aoa_stall:.1f} {pf.aoa_unit}; wing stalls at {sb} bank")
-        g.add_row("Wind", f"{wind_text(self.brief)}: {wind_components_text(w)}")
+        g.add_row("Wind", f"{wind_text(self.brief)}: {wind_components_text(w)}; {wind_limits_words(w)}")
         yield g
 
 

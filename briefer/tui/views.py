@@ -13,7 +13,7 @@ from rich.table import Table
 from rich.text import Text
 
 from briefer.render.views import MARK, STYLE, MinimumsView, PerformanceView, fmt, wind_text
-from briefer.render.words import wind_components_text
+from briefer.wording import wind_components_text, wind_limits_words
 from briefer.result import Brief
 
 
@@ -117,7 +117,7 @@ def weather_implies(brief: Brief) -> RenderableType:
     g = _grid()
     g.add_row("Source", {"manual": "typed values", "report": "the report (typed values override it)",
                          "standard": "nothing given: standard values"}.get(wu.source, wu.source))
-    g.add_row("Wind", f"{wind_text(brief)}: {wind_components_text(w)}")
+    g.add_row("Wind", f"{wind_text(brief)}: {wind_components_text(w)}; {wind_limits_words(w)}")
     g.add_row("Temp/alt", f"OAT {wu.oat_c:.0f} °C, altimeter {wu.altimeter_hpa:.1f} hPa; "
                           f"TAS {pf.tas_kt:.0f} kt at the MDA")
     vis = {True: "OK", False: "BELOW MINIMUM", None: "not checked"}[m.visibility_ok]

@@ -1,4 +1,4 @@
-"""Wind components in words, one formatter for every output (screen, card, JSON, app, deck).
+"""Words for the brief's figures, one formatter for every output (screen, card, JSON, app, deck).
 
 A signed component is never printed next to a side word: "4 kt from the left", not
 "-4 kt from the right". Rounded to the whole knot as printed; a component that rounds to 0 kt
@@ -58,4 +58,18 @@ def wind_components_text(wind) -> str:
     return text
 
 
-__all__ = ["components_words", "crosswind_side", "crosswind_words", "headwind_words", "wind_components_text"]
+def wind_limits_words(wind) -> str:
+    """The configuration's wind limits as the brief used them (`wind` is a WindInfo):
+    'limits: crosswind 24 kt, tailwind 10 kt (profile)', 'limits not given', or one of each."""
+    xw, tw = wind.crosswind_limit_kt, wind.tailwind_limit_kt
+    if xw is None and tw is None:
+        return "limits not given"
+    if xw is not None and tw is not None:
+        return f"limits: crosswind {xw:.0f} kt, tailwind {tw:.0f} kt (profile)"
+    parts = [f"crosswind {xw:.0f} kt (profile)" if xw is not None else "crosswind not given",
+             f"tailwind {tw:.0f} kt (profile)" if tw is not None else "tailwind not given"]
+    return "limits: " + ", ".join(parts)
+
+
+__all__ = ["components_words", "crosswind_side", "crosswind_words", "headwind_words", "wind_components_text",
+           "wind_limits_words"]
