@@ -61,9 +61,10 @@ class CategoryInfo:
     certified_category: str
     raised: bool
     reason: str
-    vref_kt: float
+    vref_kt: float                    # VREF of the configuration at today's landing weight
     circling_speed_kt: float          # the IAS planned in the circle, wind additive included
     wind_additive_kt: float
+    category_vref_kt: float = float("nan")   # VREF at the maximum landing weight: sets the certified category
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -197,6 +198,8 @@ class PlanInfo:
     descent_xy_m: np.ndarray
     reasons: tuple[str, ...]
     alternatives: tuple[Alternative, ...]
+    break_off_direction: str | None = None        # "left"/"right" off the inbound course
+    break_off_heading_deg_mag: float | None = None   # heading to fly on the break-off (or offset) leg
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

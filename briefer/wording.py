@@ -58,6 +58,60 @@ def wind_components_text(wind) -> str:
     return text
 
 
+def category_speed_parts(category) -> tuple[int, int, int]:
+    """(circling IAS, before the additive, wind additive) in whole knots that add up as printed
+    (the part before the additive is the printed total minus the printed additive)."""
+    total = int(round(category.circling_speed_kt))
+    additive = int(round(category.wind_additive_kt))
+    return total, total - additive, additive
+
+
+def vref_words(category) -> str:
+    """'VREF 133 kt at landing weight; 122 kt at maximum landing weight sets category C'
+    (`category` is a CategoryInfo). 14 CFR 97.3: the category is fixed at the maximum
+    certificated landing weight; today's weight gives the speeds flown."""
+    return (f"VREF {category.vref_kt:.0f} kt at landing weight; {category.category_vref_kt:.0f} kt at maximum "
+            f"landing weight sets category {category.certified_category}")
+
+
+def circling_speed_words(category) -> str:
+    """'circling 163 kt IAS = 152 kt + 11 kt wind additive' (the sum adds up as printed)."""
+    total, base, additive = category_speed_parts(category)
+    if additive == 0:
+        return f"circling {total} kt IAS (no wind additive)"
+    return f"circling {total} kt IAS = {base} kt + {additive} kt wind additive"
+
+
+def category_words(category) -> str:
+    """The whole category line: 'D (certified C, raised by the circling speed): circling ...; VREF ...'."""
+    head = category.category + (f" (certified {category.certified_category}, raised by the circling speed)"
+                                if category.raised else "")
+    return f"{head}: {circling_speed_words(category)}; {vref_words(category)}"
+
+
+def break_off_words(plan) -> str:
+    """'45° LEFT off the inbound course, heading 047° M, for 35 s' (`plan` is a PlanInfo)."""
+    angle = "" if plan.break_off_angle_deg is None else f"{plan.break_off_angle_deg:.0f}° "
+    side = (f"{plan.break_off_direction.upper()} off the inbound course" if plan.break_off_direction
+            else "off the inbound course")
+    hdg = ("" if plan.break_off_heading_deg_mag is None
+           else f", heading {plan.break_off_heading_deg_mag % 360.0:03.0f}° M")
+    secs = "" if plan.break_off_s is None else f", for {plan.break_off_s:.0f} s"
+    return f"{angle}{side}{hdg}{secs}"
+
+
+def timing_words(plan, runway: str) -> str:
+    """'29 s from abeam the runway 27 threshold to roll-in, 1.44 NM past abeam' (never a
+    negative time or distance: a roll-in before abeam says 'before abeam')."""
+    t, d = plan.abeam_to_roll_in_s, plan.roll_in_distance_nm
+    where = f"abeam the runway {runway} threshold"
+    if t is None or t != t:
+        return f"roll-in {abs(d):.2f} NM {'past' if d >= 0 else 'before'} {where}"
+    if t >= 0:
+        return f"{t:.0f} s from {where} to roll-in, {abs(d):.2f} NM {'past' if d >= 0 else 'before'} abeam"
+    return f"roll-in {-t:.0f} s before {where} ({abs(d):.2f} NM before abeam)"
+
+
 def wind_limits_words(wind) -> str:
     """The configuration's wind limits as the brief used them (`wind` is a WindInfo):
     'limits: crosswind 24 kt, tailwind 10 kt (profile)', 'limits not given', or one of each."""
@@ -71,5 +125,5 @@ def wind_limits_words(wind) -> str:
     return "limits: " + ", ".join(parts)
 
 
-__all__ = ["components_words", "crosswind_side", "crosswind_words", "headwind_words", "wind_components_text",
+__all__ = ["break_off_words", "timing_words", "category_speed_parts", "category_words", "circling_speed_words", "vref_words", "components_words", "crosswind_side", "crosswind_words", "headwind_words", "wind_components_text",
            "wind_limits_words"]

@@ -122,9 +122,19 @@ def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
         obstacle_clearance_actual_ft=clearance_actual, circling_only_reasons=reasons,
         straight_in_available=straight_in, cold=cold)
     category = CategoryInfo(category=cat, certified_category=det.certified_category, raised=det.raised,
-                            reason=det.reason, vref_kt=cfg.vref_kt * prof.weight_speed_factor(request.landing_weight_lb),
-                            circling_speed_kt=s.circling_ias_kt, wind_additive_kt=s.wind_additive_kt)
+                            reason=_reason_as_printed(det.reason),
+                            vref_kt=cfg.vref_kt * prof.weight_speed_factor(request.landing_weight_lb),
+                            circling_speed_kt=s.circling_ias_kt, wind_additive_kt=s.wind_additive_kt,
+                            category_vref_kt=prof.approach_category_speed_kt())
     return MinimumsAndArea(category=category, minimums=minimums, obstacles=obstacles, findings=tuple(found))
+
+
+def _reason_as_printed(reason: str) -> str:
+    """The criteria's reason with its speeds in whole knots and the VREF named as the one at the
+    maximum landing weight (the brief also shows VREF at today's weight)."""
+    reason = re.sub(r"VREF (\d+(?:\.\d+)?) kt", lambda m: f"VREF {float(m.group(1)):.0f} kt at maximum landing weight",
+                    reason)
+    return re.sub(r"circling at (\d+(?:\.\d+)?) kt", lambda m: f"circling at {float(m.group(1)):.0f} kt IAS", reason)
 
 
 def _category_findings(s: Situation, crit: str, found: FindingList) -> None:

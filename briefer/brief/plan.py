@@ -168,6 +168,7 @@ def _plan_info(s: Situation, best: maneuver.RankedPlan, alts: tuple[Alternative,
     off_line = np.abs(np.asarray(plan.track_xy_m)[:, 1]) > CENTRELINE_BAND_M
     if s.area.excluded and off_line.any():
         sector_clear = s.area.sector_clearance_m(track_pts[off_line]) * nm
+    break_dir, break_hdg = _break_off(plan, course, var)
     shape_text = SHAPE_TEXT.get(plan.shape, plan.shape)
     base_s = dict(zip(plan.leg_names, plan.leg_times_s)).get("base", 0.0)
     if plan.shape == "downwind-join" and base_s >= 1.0:
@@ -188,7 +189,25 @@ def _plan_info(s: Situation, best: maneuver.RankedPlan, alts: tuple[Alternative,
         runway_within_visibility=vis_ok,
         max_distance_from_threshold_nm=(plan.max_distance_from_runway_m or plan.max_distance_from_threshold_m or 0.0) * nm,
         track_xy_m=track_local, roll_in_xy_m=roll_in, descent_xy_m=descent, reasons=tuple(plan.notes),
-        alternatives=alts)
+        alternatives=alts, break_off_direction=break_dir, break_off_heading_deg_mag=break_hdg)
+
+
+BREAK_LEGS = {"break-and-return": ("break turn", "break leg"), "teardrop": ("offset turn", "offset leg")}
+
+
+def _break_off(plan: maneuver.Plan, course_true: float, var: float) -> tuple[str | None, float | None]:
+    """Which way the break-off (teardrop: offset) turn goes off the inbound course, and the
+    heading held on the leg after it (crab included), magnetic."""
+    names = BREAK_LEGS.get(plan.shape)
+    if names is None or names[0] not in plan.leg_names or names[1] not in plan.leg_names:
+        return None, None
+    turn_leg = plan.legs[plan.leg_names.index(names[0])]
+    straight = plan.legs[plan.leg_names.index(names[1])]
+    direction = getattr(turn_leg, "direction", None)
+    heading = getattr(straight, "heading_deg", None)
+    if direction not in ("left", "right") or heading is None:
+        return None, None
+    return direction, geometry.magnetic_from_true_deg(course_true + float(heading), var)
 
 
 def _missed_approach(s: Situation, plan: maneuver.Plan) -> MissedApproachInfo:

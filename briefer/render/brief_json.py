@@ -10,7 +10,7 @@ from typing import Any
 
 import numpy as np
 
-from briefer.wording import crosswind_side, crosswind_words, wind_components_text, wind_limits_words
+from briefer.wording import category_words, crosswind_side, crosswind_words, wind_components_text, wind_limits_words
 from briefer.result import Brief
 
 SCHEMA = "briefer.brief/1"
@@ -38,6 +38,8 @@ def _plan_dict(pl: Any) -> dict[str, Any]:
         "abeam_to_roll_in_s": pl.abeam_to_roll_in_s,
         "roll_in_distance_nm": pl.roll_in_distance_nm,
         "break_off_s": pl.break_off_s, "break_off_angle_deg": pl.break_off_angle_deg,
+        "break_off_direction": pl.break_off_direction,
+        "break_off_heading_deg_mag": pl.break_off_heading_deg_mag,
         "roll_out_distance_nm": pl.roll_out_distance_nm,
         "downwind_heading_deg_mag": pl.downwind_heading_deg_mag,
         "final_heading_deg_mag": pl.final_heading_deg_mag,
@@ -100,6 +102,9 @@ def brief_to_dict(brief: Brief) -> dict[str, Any]:
         "vref_kt": c.vref_kt,
         "circling_speed_kt": c.circling_speed_kt,
         "wind_additive_kt": c.wind_additive_kt,
+        "vref_at_max_landing_weight_kt": c.category_vref_kt,
+        "circling_speed_before_additive_kt": c.circling_speed_kt - c.wind_additive_kt,
+        "category_text": category_words(c),
         "authorised": m.authorised,
         "not_authorised_reason": m.not_authorised_reason,
         "mda_ft": m.mda_ft,

@@ -25,7 +25,7 @@ from briefer import __version__
 from briefer.cautions import CAUTIONS, SHORT_CAUTION
 from briefer.render.brief_scene import scene_from_brief
 from briefer.render.scene import ROLE_STYLES, Role, Scene
-from briefer.wording import wind_components_text, wind_limits_words
+from briefer.wording import category_words, wind_components_text, wind_limits_words
 from briefer.result import Brief, Finding
 
 DASH = "--"
@@ -254,11 +254,7 @@ def _minimums(brief: Brief) -> Section:
                    Figure(label="MDA", value=DASH, note="not authorised"),
                    Figure(label="HAA", value=DASH, note="not authorised"),
                    Figure(label="VISIBILITY", value=DASH, note="not authorised"))
-    cat = (f"{c.category} at {c.circling_speed_kt:.0f} kt IAS (VREF {c.vref_kt:.0f} kt + wind additive "
-           f"{c.wind_additive_kt:.0f} kt)")
-    cat += (f"; certified {c.certified_category}, raised by the circling speed" if c.raised
-            else "; the circling speed does not raise it")
-    rows = [Row(label="Category", text=cat)]
+    rows = [Row(label="Category", text=category_words(c))]
     rows.append(Row(label="Area", text=(
         f"{a.criteria}: {a.radius_nm:.2f} NM from each threshold ({a.provenance}); needed today "
         f"{a.required_radius_nm:.2f} NM. Lowest height {m.lowest_height_ft:.0f} ft ({m.lowest_height_provenance}); "
@@ -304,14 +300,17 @@ def _plan(brief: Brief) -> Section:
     figures = [
         Figure(label="OFFSET", value=num(p.offset_nm, ".2f", " NM"),
                note=f"{p.side} of the centreline" if p.feasible else "no plan"),
-        Figure(label="TIMING", value=num(p.abeam_to_roll_in_s, ".0f", " s"), note="abeam thr to roll-in"),
+        _timing_figure(p, h.landing_runway),
         Figure(label="BANK", value=num(p.bank_deg, ".0f", "°"), note=f"limit {pf.bank_limit_deg:.0f}°"),
         Figure(label="ROLL IN", value=num(None if _missing(ri) else abs(ri), ".2f", " NM"), note=ri_note),
     ]
     if p.break_off_s is not None:
         figures.append(Figure(label="BREAK OFF", value=f"{num(p.break_off_angle_deg, '.0f', '°')}/"
                                                       f"{num(p.break_off_s, '.0f', ' s')}",
-                              note="off the inbound course"))
+                              note=(f"{p.break_off_direction.upper()} off inbound" if p.break_off_direction
+                                    else "off the inbound course")
+                              + ("" if p.break_off_heading_deg_mag is None
+                                 else f", {heading(p.break_off_heading_deg_mag % 360.0)}")))
     figures += [
         Figure(label="ROLL OUT", value=num(p.roll_out_distance_nm, ".2f", " NM"),
                note=f"final, {heading(p.final_heading_deg_mag)}"),
@@ -332,6 +331,15 @@ def _plan(brief: Brief) -> Section:
                         f"most ({seen})"))
     return Section(key="plan", title="THE PLAN", status=status, alert=alert, figures=tuple(figures),
                    rows=tuple(rows))
+
+
+def _timing_figure(p, runway: str) -> Figure:
+    """Seconds from abeam the landing threshold to the roll-in; a roll-in before abeam is said so,
+    never as a negative time."""
+    t = p.abeam_to_roll_in_s
+    if not _missing(t) and t < 0:
+        return Figure(label="TIMING", value=num(-t, ".0f", " s"), note=f"roll-in BEFORE abeam thr {runway}")
+    return Figure(label="TIMING", value=num(t, ".0f", " s"), note=f"abeam thr {runway} to roll-in")
 
 
 def wind_text(brief: Brief) -> str:

@@ -12,7 +12,7 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
-from briefer.wording import wind_components_text, wind_limits_words
+from briefer.wording import break_off_words, timing_words, category_words, wind_components_text, wind_limits_words
 from briefer.result import Brief, Finding
 
 MARK = {"danger": "!!", "warning": "! ", "info": "i "}
@@ -67,10 +67,7 @@ class MinimumsView:
         b = self.brief
         c, m, a = b.category, b.minimums, b.area
         g = _kv_grid()
-        cat = f"{c.category}"
-        if c.raised:
-            cat += f" (certified {c.certified_category}; raised by circling speed)"
-        g.add_row("Category", cat + f"  VREF {c.vref_kt:.0f} kt, circling {c.circling_speed_kt:.0f} kt IAS")
+        g.add_row("Category", category_words(c))
         if m.authorised:
             g.add_row("MDA", f"{fmt(m.mda_ft)} ft   HAA {fmt(m.height_above_airport_ft)} ft")
             vis = f"required {m.visibility_required_text or 'n/a'}, reported {fmt(m.visibility_reported_sm, 'g', ' SM')}"
@@ -117,9 +114,8 @@ class PlanView:
         g.add_row("Plan", f"{p.shape_text}, downwind {p.side} of the runway")
         g.add_row("Offset", f"{p.offset_nm:.2f} NM from the centreline")
         if p.break_off_s is not None:
-            g.add_row("Break-off", f"{p.break_off_angle_deg:.0f}° for {p.break_off_s:.0f} s")
-        g.add_row("Timing", f"{p.abeam_to_roll_in_s:.0f} s from abeam the threshold to roll-in "
-                            f"({p.roll_in_distance_nm:+.2f} NM past abeam)")
+            g.add_row("Break-off", break_off_words(p))
+        g.add_row("Timing", timing_words(p, b.header.landing_runway))
         g.add_row("Bank", f"{p.bank_deg:.0f}° target, limit {pf.bank_limit_deg:.0f}°")
         g.add_row("Roll out", f"{p.roll_out_distance_nm:.2f} NM final, heading {p.final_heading_deg_mag:03.0f}° M")
         g.add_row("Leave MDA", p.leave_mda_text)

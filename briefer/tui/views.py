@@ -13,7 +13,7 @@ from rich.table import Table
 from rich.text import Text
 
 from briefer.render.views import MARK, STYLE, MinimumsView, PerformanceView, fmt, wind_text
-from briefer.wording import wind_components_text, wind_limits_words
+from briefer.wording import circling_speed_words, vref_words, wind_components_text, wind_limits_words
 from briefer.result import Brief
 
 
@@ -85,8 +85,7 @@ def aircraft_implies(brief: Brief) -> RenderableType:
     if c.raised:
         cat += f"  (certified {c.certified_category}; RAISED by the circling speed)"
     g.add_row("Category", cat)
-    g.add_row("Speeds", f"VREF {c.vref_kt:.0f} kt; circle at {c.circling_speed_kt:.0f} kt IAS "
-                        f"(wind additive {c.wind_additive_kt:.0f} kt)")
+    g.add_row("Speeds", f"{circling_speed_words(c)}; {vref_words(c)}")
     g.add_row("Weight", f"{brief.header.weight_lb:.0f} lb")
     return Group(Text("WHAT THIS GIVES", style="bold underline"), g, PerformanceView(brief))
 
@@ -143,10 +142,17 @@ def plan_numbers(brief: Brief) -> RenderableType:
     g.add_row("Plan", f"{p.shape_text} ({p.side})")
     g.add_row("Offset", f"{p.offset_nm:.2f} NM")
     if p.break_off_s is not None:
-        g.add_row("Break off", f"{_num(p.break_off_angle_deg, '.0f', '°')} for {p.break_off_s:.0f} s")
+        side = f" {p.break_off_direction.upper()}" if p.break_off_direction else ""
+        hdg = "" if p.break_off_heading_deg_mag is None else f", {p.break_off_heading_deg_mag % 360.0:03.0f}° M"
+        g.add_row("Break off", f"{_num(p.break_off_angle_deg, '.0f', '°')}{side}{hdg}, {p.break_off_s:.0f} s")
     if p.downwind_heading_deg_mag is not None:
         g.add_row("Downwind", f"{p.downwind_heading_deg_mag:03.0f}° M")
-    g.add_row("Abeam>roll", f"{_num(p.abeam_to_roll_in_s, '.0f', ' s')} ({_num(p.roll_in_distance_nm, '+.2f', ' NM')})")
+    t, d = p.abeam_to_roll_in_s, p.roll_in_distance_nm
+    if t == t and t < 0:
+        g.add_row("Roll in", f"{-t:.0f} s BEFORE abeam thr ({abs(d):.2f} NM)")
+    else:
+        g.add_row("Abeam>roll", f"{_num(t, '.0f', ' s')} ({_num(None if d != d else abs(d), '.2f', ' NM')} "
+                                f"{'past' if d == d and d >= 0 else 'before'})")
     g.add_row("Bank", f"{p.bank_deg:.0f}° (limit {pf.bank_limit_deg:.0f}°)")
     g.add_row("Speed", f"{pf.ias_kt:.0f} IAS / {pf.tas_kt:.0f} TAS kt")
     g.add_row("Roll out", f"{p.roll_out_distance_nm:.2f} NM, {p.final_heading_deg_mag:03.0f}° M")
