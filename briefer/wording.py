@@ -10,6 +10,22 @@ Pure Python: no Rich, Textual or fpdf import.
 from __future__ import annotations
 
 
+def signed(value: float, decimals: int = 0) -> str:
+    """'+4', '-3', '+0' (never '-0': a value that rounds to zero has no sign to show)."""
+    v = round(float(value), decimals) + 0.0
+    return f"{v:+.{decimals}f}"
+
+
+def stall_margin_words(margin_pct: float | None) -> str:
+    """'stall margin 25 %', or 'THE WING STALLS' when the stall speed is above the speed flown
+    (a negative margin is never printed as such)."""
+    if margin_pct is None:
+        return "stall margin not known"
+    if round(margin_pct) < 0:
+        return "THE WING STALLS (stall speed above the speed flown)"
+    return f"stall margin {round(margin_pct) + 0:.0f} %"
+
+
 def _whole_kt(value_kt: float) -> int:
     """The knots as printed (half away from zero, so 0.5 kt shows as 1 kt on either side)."""
     mag = int(abs(value_kt) + 0.5)
@@ -125,5 +141,5 @@ def wind_limits_words(wind) -> str:
     return "limits: " + ", ".join(parts)
 
 
-__all__ = ["break_off_words", "timing_words", "category_speed_parts", "category_words", "circling_speed_words", "vref_words", "components_words", "crosswind_side", "crosswind_words", "headwind_words", "wind_components_text",
+__all__ = ["stall_margin_words", "signed", "break_off_words", "timing_words", "category_speed_parts", "category_words", "circling_speed_words", "vref_words", "components_words", "crosswind_side", "crosswind_words", "headwind_words", "wind_components_text",
            "wind_limits_words"]

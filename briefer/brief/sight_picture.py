@@ -17,6 +17,7 @@ from briefer.brief.performance import STALL_MARGIN_WARNING_PCT
 from briefer.brief.situation_inputs import Situation
 from briefer.core import maneuver, sightpicture, turn
 from briefer.result import Finding, PerformanceInfo, PlanInfo, SightPictureInfo, frozen_array
+from briefer.wording import stall_margin_words
 
 
 @dataclass(frozen=True, slots=True)
@@ -56,12 +57,18 @@ def sight_picture_section(s: Situation, plan_info: PlanInfo, solved: maneuver.Pl
                   f"Your usual {fp.height_ft:.0f} ft pattern picture ({cmp.familiar_depression_deg:.1f}° below the "
                   f"horizon) at circling height puts you only {cmp.familiar_offset_at_circling_nm:.2f} NM out: no "
                   f"bank can make that turn at {ias:.0f} kt; the wing stalls first.")
+    elif cmp.familiar_stall_margin_pct is not None and round(cmp.familiar_stall_margin_pct) < 0:
+        found.add("danger", "familiar-picture",
+                  f"Your usual {fp.height_ft:.0f} ft pattern picture at circling height puts you "
+                  f"{cmp.familiar_offset_at_circling_nm:.2f} NM out: the turn would need "
+                  f"{cmp.familiar_bank_required_deg:.0f}° bank, where the wing stalls at {ias:.0f} kt; holding "
+                  f"{plan_info.bank_deg:.0f}° overshoots by {cmp.overshoot_nm:.2f} NM.")
     elif cmp.familiar_exceeds_bank_limit or (cmp.familiar_stall_margin_pct or 100) < STALL_MARGIN_WARNING_PCT:
         found.add("warning", "familiar-picture",
                   f"Your usual {fp.height_ft:.0f} ft pattern picture at circling height puts you "
                   f"{cmp.familiar_offset_at_circling_nm:.2f} NM out: the turn would need "
-                  f"{cmp.familiar_bank_required_deg:.0f}° bank, {cmp.familiar_load_factor:.2f} g, stall margin "
-                  f"{cmp.familiar_stall_margin_pct:.0f} %; holding {plan_info.bank_deg:.0f}° overshoots by "
+                  f"{cmp.familiar_bank_required_deg:.0f}° bank, {cmp.familiar_load_factor:.2f} g, "
+                  f"{stall_margin_words(cmp.familiar_stall_margin_pct)}; holding {plan_info.bank_deg:.0f}° overshoots by "
                   f"{cmp.overshoot_nm:.2f} NM.")
     sight = SightPictureInfo(
         circling_height_ft=circ_h, planned_offset_nm=planned_offset_nm,

@@ -57,7 +57,7 @@ from briefer.core.maneuver_solver import (
     solve_inputs,
 )
 from briefer.errors import DomainError
-from briefer.units import KT_TO_MPS
+from briefer.units import KT_TO_MPS, M_TO_NM
 from briefer.core.angles import wrap_180
 
 PLAN_TURN_STEP_DEG = 2.0          # a plan's track: a point every 2 deg of turn ...
@@ -222,6 +222,11 @@ class Plan:
 # --------------------------------------------------------------------------------------------
 # solving one plan
 # --------------------------------------------------------------------------------------------
+def _nm(metres: float) -> str:
+    """A distance for the crew's text, in nautical miles ('0.02 NM'): briefs are in feet and NM."""
+    return f"{metres * M_TO_NM:.2f} NM"
+
+
 def _reason_texts(flags: int, shape: Shape, sol: ShapeSolution, k: int, inputs: CircleInputs,
                   descent: DescentGeometry) -> tuple[str, ...]:
     out = []
@@ -246,25 +251,28 @@ def _reason_texts(flags: int, shape: Shape, sol: ShapeSolution, k: int, inputs: 
                    "circuit turn would last 180 deg or more")
     if flags & R_NEG_LEG:
         if shape == "downwind-join":
-            out.append(f"the arrival is already beyond the downwind offset ({f(sol.offset):.0f} m at {b:g} deg "
-                       f"bank): the crossing leg would last {f(sol.break_s):.0f} s")
+            out.append(f"the arrival is already beyond the downwind offset ({_nm(f(sol.offset))} at {b:g} deg "
+                       f"bank), by {-f(sol.break_s):.0f} s of crossing leg")
         elif shape == "break-and-return":
-            out.append(f"the break turns alone overshoot the downwind offset ({f(sol.offset):.0f} m at {b:g} deg "
-                       f"bank): the break leg would last {f(sol.break_s):.0f} s")
+            out.append(f"the break turns alone overshoot the downwind offset ({_nm(f(sol.offset))} at {b:g} deg "
+                       f"bank), by {-f(sol.break_s):.0f} s of break leg")
         elif shape == "teardrop":
-            out.append(f"no teardrop fits at {b:g} deg bank: outbound {f(sol.legs[0].duration):.0f} s, "
-                       f"offset leg {f(sol.legs[2].duration):.0f} s")
+            short = [f"the {name} by {-f(sol.legs[i].duration):.0f} s" for i, name in ((0, "outbound leg"),
+                                                                                       (2, "offset leg"))
+                     if f(sol.legs[i].duration) < 0]
+            out.append(f"no teardrop fits at {b:g} deg bank: the turns alone overrun "
+                       + (" and ".join(short) if short else "its legs"))
         else:
             out.append("the arrival is already past the point where the turn onto final must start "
                        f"(by {-f(sol.legs[0].duration):.0f} s)")
     if flags & R_INSIDE_TURN:
         dw = [lg for lg in sol.legs if lg.name == "downwind"][0]
         gone = -f(dw.duration) * f(sol.gs_d)
-        out.append(f"the downwind is joined {gone:.0f} m past the roll-in point: the arrival is already "
+        out.append(f"the downwind is joined {_nm(gone)} past the roll-in point: the arrival is already "
                    f"inside the final turn for {b:g} deg bank")
     if flags & R_TOO_CLOSE:
-        out.append(f"the turn rolls out {f(sol.roll_out_d):.0f} m before the threshold, inside the "
-                   f"stabilised distance ({descent.stabilised_distance_m:.0f} m)")
+        out.append(f"the turn rolls out {_nm(f(sol.roll_out_d))} before the threshold, inside the "
+                   f"stabilised distance ({_nm(descent.stabilised_distance_m)})")
     return tuple(out)
 
 
@@ -427,12 +435,12 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
     roll_out_d = float(sol.roll_out_d[k])
     notes: list[str] = []
     if descent.clamped:
-        notes.append(f"roll-out moved out to the stabilised distance, {descent.stabilised_distance_m:.0f} m "
+        notes.append(f"roll-out moved out to the stabilised distance, {_nm(descent.stabilised_distance_m)} "
                      f"({inputs.stabilised_height_ft:.0f} ft on the glide path)")
     leave, reached = _leave_mda(xy, hdg, tim, trk.leg_index, names, sol.turns_to_final, roll_out_d, descent)
     if leave.in_turn:
         notes.append(f"the glide path starts in the {leave.leg_name}: leave the circling height at heading "
-                     f"{leave.heading_deg:.0f} with {leave.along_track_to_threshold_m:.0f} m to fly")
+                     f"{leave.heading_deg:.0f} with {_nm(leave.along_track_to_threshold_m)} to fly")
     elif leave.leg_name != "final":
         notes.append(f"the glide path starts before the final turn, on the {leave.leg_name}")
     if not reached:
@@ -449,7 +457,7 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
         x_join = float(sol.legs[dw_i].x0[k])
         downwind_gs_kt = inputs.tas_kt - inputs.wind.toward_x_kt     # flown against the landing direction
         if -x_join > JOIN_PAST_ABEAM_S * downwind_gs_kt * KT_TO_MPS:   # else the same whole-second timings
-            notes.append(f"the downwind is joined {-x_join:.0f} m past abeam the threshold: start the timing "
+            notes.append(f"the downwind is joined {_nm(-x_join)} past abeam the threshold: start the timing "
                          f"from the join, {times[dw_i]:.0f} s to the roll-in")
     if shape == "overfly-circuit":
         t_xw, t_base = times[names.index("crosswind")], times[names.index("base")]

@@ -144,7 +144,9 @@ def trap_lines(brief: Any) -> list[str]:
            f"The trap: that picture at circling height puts you {s.familiar_offset_at_circling_nm:.2f} NM out."]
     if s.familiar_possible and s.familiar_bank_required_deg is not None:
         beyond = " - BEYOND THE BANK LIMIT" if s.familiar_exceeds_bank_limit else ""
-        margin = "" if s.familiar_stall_margin_pct is None else f", stall margin {s.familiar_stall_margin_pct:.0f} %"
+        from briefer.wording import stall_margin_words
+
+        margin = "" if s.familiar_stall_margin_pct is None else f", {stall_margin_words(s.familiar_stall_margin_pct)}"
         out.append(f"It needs {s.familiar_bank_required_deg:.0f} deg bank, {s.familiar_load_factor:.2f} g{margin}{beyond}.")
     else:
         out.append("It needs a turn no bank can give at this speed: the wing stalls first.")

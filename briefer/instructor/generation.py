@@ -34,6 +34,7 @@ from typing import Any
 from briefer import units
 from briefer.core import angles
 from briefer.errors import DomainError
+from briefer.wording import signed
 from briefer.model import AircraftProfile, Airfield, BriefRequest, Weather
 from briefer.instructor.scenario_format import EMPHASES, EMPHASIS_TITLES, LoadedScenario, Scenario, ScenarioWeather
 
@@ -487,7 +488,7 @@ def _temperature(ctx: _Ctx, pairs: list[Pair], *, hot: bool) -> _Case:
         pf = case.brief.performance
         word = "above" if hot else "below"
         ctx.checks.append(f"{t} °C at {elev:.0f} ft is {abs(t - round(isa)):.0f} °C {word} ISA ({round(isa):.0f} °C); at the MDA "
-                          f"ISA{pf.isa_deviation_c:+.0f}: {pf.ias_kt:.0f} kt IAS is {pf.tas_kt:.0f} kt TAS, turn "
+                          f"ISA{signed(pf.isa_deviation_c)}: {pf.ias_kt:.0f} kt IAS is {pf.tas_kt:.0f} kt TAS, turn "
                           f"radius {pf.turn_radius_nm:.2f} NM.")
         cold = case.brief.minimums.cold
         if cold is not None:

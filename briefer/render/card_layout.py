@@ -25,7 +25,7 @@ from briefer import __version__
 from briefer.cautions import CAUTIONS, SHORT_CAUTION
 from briefer.render.brief_scene import scene_from_brief
 from briefer.render.scene import ROLE_STYLES, Role, Scene
-from briefer.wording import category_words, wind_components_text, wind_limits_words
+from briefer.wording import stall_margin_words, category_words, wind_components_text, wind_limits_words
 from briefer.result import Brief, Finding
 
 DASH = "--"
@@ -371,7 +371,7 @@ def _wind(brief: Brief) -> Section:
         f"DA {pf.density_altitude_ft:.0f} ft")))
     rows.append(Row(label="Turn", text=(
         f"{pf.bank_target_deg:.0f}° bank: radius {pf.turn_radius_nm:.2f} NM, 180° in {pf.time_180_s:.0f} s, "
-        f"{pf.load_factor:.2f} g; stall {pf.stall_speed_kt:.0f} kt (margin {pf.stall_margin_pct:.0f} %)")))
+        f"{pf.load_factor:.2f} g; stall {pf.stall_speed_kt:.0f} kt ({stall_margin_words(pf.stall_margin_pct)})")))
     return Section(key="wind", title="WIND, WEATHER, PERFORMANCE", rows=tuple(rows))
 
 
@@ -389,8 +389,8 @@ def _side_view(brief: Brief) -> SideView:
     if s.familiar_possible and s.familiar_bank_required_deg is not None:
         lim = "; BEYOND THE BANK LIMIT" if s.familiar_exceeds_bank_limit else ""
         rows.append(Row(label="It needs", text=(
-            f"{s.familiar_bank_required_deg:.0f}° bank, {num(s.familiar_load_factor, '.2f', ' g')}, stall margin "
-            f"{num(s.familiar_stall_margin_pct, '.0f', ' %')}{lim}; or overshoot the centreline by "
+            f"{s.familiar_bank_required_deg:.0f}° bank, {num(s.familiar_load_factor, '.2f', ' g')}, "
+            f"{stall_margin_words(s.familiar_stall_margin_pct)}{lim}; or overshoot the centreline by "
             f"{s.overshoot_nm:.2f} NM")))
     else:
         rows.append(Row(label="It needs", text=(f"a turn no bank can fly at this speed; at the planned bank you "

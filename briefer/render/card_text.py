@@ -49,12 +49,14 @@ def _rule(title: str) -> str:
 
 
 def _rows(rows: tuple[Row, ...], indent: int = 2) -> list[str]:
+    """Labelled rows; the label column widens to the longest label (never cut: 'Circling only')."""
     out = []
-    body = WIDTH - indent - LABEL_COLS
+    cols = max([LABEL_COLS] + [len(_t(r.label)) + 1 for r in rows])
+    body = WIDTH - indent - cols
     for r in rows:
         lines = _wrap(r.text, body)
-        out.append(" " * indent + f"{_t(r.label):<{LABEL_COLS - 1}.{LABEL_COLS - 1}} " + lines[0])
-        out += [" " * (indent + LABEL_COLS) + ln for ln in lines[1:]]
+        out.append(" " * indent + f"{_t(r.label):<{cols - 1}} " + lines[0])
+        out += [" " * (indent + cols) + ln for ln in lines[1:]]
     return out
 
 

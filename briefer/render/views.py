@@ -12,7 +12,7 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
-from briefer.wording import break_off_words, timing_words, category_words, wind_components_text, wind_limits_words
+from briefer.wording import stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words
 from briefer.result import Brief, Finding
 
 MARK = {"danger": "!!", "warning": "! ", "info": "i "}
@@ -69,11 +69,11 @@ class MinimumsView:
         g = _kv_grid()
         g.add_row("Category", category_words(c))
         if m.authorised:
-            g.add_row("MDA", f"{fmt(m.mda_ft)} ft   HAA {fmt(m.height_above_airport_ft)} ft")
-            vis = f"required {m.visibility_required_text or 'n/a'}, reported {fmt(m.visibility_reported_sm, 'g', ' SM')}"
+            g.add_row("MDA", f"{fmt(m.mda_ft, '.0f', ' ft')}   HAA {fmt(m.height_above_airport_ft, '.0f', ' ft')}")
+            vis = f"required {m.visibility_required_text or 'n/a'}, reported {fmt(m.visibility_reported_sm, 'g', ' SM', none='none')}"
             vis += {True: "  OK", False: "  BELOW MINIMUM", None: ""}[m.visibility_ok]
             g.add_row("Visibility", vis)
-            ceil = f"reported {fmt(m.ceiling_reported_ft)} ft"
+            ceil = f"reported {fmt(m.ceiling_reported_ft, '.0f', ' ft', none='none')}"
             ceil += {True: "  OK (at or above the HAA)", False: "  BELOW THE MDA", None: ""}[m.ceiling_ok]
             g.add_row("Ceiling", ceil)
         else:
@@ -87,7 +87,7 @@ class MinimumsView:
         g.add_row("Area", f"{a.criteria} {a.radius_nm:.2f} NM ({a.provenance}); "
                           f"this aircraft today needs {a.required_radius_nm:.2f} NM")
         if m.controlling_obstacle:
-            g.add_row("Obstacle", f"{m.controlling_obstacle}, clearance {fmt(m.obstacle_clearance_actual_ft)} ft "
+            g.add_row("Obstacle", f"{m.controlling_obstacle}, clearance {fmt(m.obstacle_clearance_actual_ft, '.0f', ' ft')} "
                                   f"(criteria {m.obstacle_clearance_ft:.0f} ft)")
         yield g
 
@@ -145,11 +145,11 @@ class PerformanceView:
         pf, w = self.brief.performance, self.brief.wind
         g = _kv_grid()
         g.add_row("Speed", f"{pf.ias_kt:.0f} kt IAS = {pf.tas_kt:.0f} kt TAS at the MDA "
-                           f"(OAT {pf.oat_at_mda_c:.0f} °C, ISA{pf.isa_deviation_c:+.0f}, DA {pf.density_altitude_ft:.0f} ft)")
+                           f"(OAT {pf.oat_at_mda_c:.0f} °C, ISA{signed(pf.isa_deviation_c)}, DA {pf.density_altitude_ft:.0f} ft)")
         g.add_row("Turn", f"{pf.bank_target_deg:.0f}° bank: radius {pf.turn_radius_nm:.2f} NM, "
                           f"{pf.turn_rate_deg_per_s:.1f}°/s, 180° in {pf.time_180_s:.0f} s, {pf.load_factor:.2f} g")
         sb = "n/a" if pf.stall_bank_deg is None else f"{pf.stall_bank_deg:.0f}°"
-        g.add_row("Stall", f"{pf.stall_speed_kt:.0f} kt in the turn (margin {pf.stall_margin_pct:.0f} %); "
+        g.add_row("Stall", f"{pf.stall_speed_kt:.0f} kt in the turn ({stall_margin_words(pf.stall_margin_pct).replace('stall margin', 'margin')}); "
                            f"AoA {pf.aoa_in_turn:.1f} of {pf.aoa_stall:.1f} {pf.aoa_unit}; wing stalls at {sb} bank")
         g.add_row("Wind", f"{wind_text(self.brief)}: {wind_components_text(w)}; {wind_limits_words(w)}")
         yield g
@@ -170,7 +170,7 @@ class SightPictureView:
         if s.familiar_possible and s.familiar_bank_required_deg is not None:
             lim = "  BEYOND THE BANK LIMIT" if s.familiar_exceeds_bank_limit else ""
             g.add_row("It needs", f"{s.familiar_bank_required_deg:.0f}° bank, {s.familiar_load_factor:.2f} g, "
-                                  f"stall margin {s.familiar_stall_margin_pct:.0f} %, AoA {fmt(s.familiar_aoa, '.1f')}{lim}")
+                                  f"{stall_margin_words(s.familiar_stall_margin_pct)}, AoA {fmt(s.familiar_aoa, '.1f')}{lim}")
         else:
             g.add_row("It needs", "a turn no aircraft can fly at this speed (wing stalls first)")
         g.add_row("Or", f"hold the planned bank and overshoot the centreline by {s.overshoot_nm:.2f} NM")

@@ -175,7 +175,9 @@ def sight_comparison(brief: Brief) -> RenderableType:
         over = " !" if s.familiar_exceeds_bank_limit else ""
         t.add_row("Bank", f"{pf.bank_target_deg:.0f}°", f"{s.familiar_bank_required_deg:.0f}°{over}")
         t.add_row("Load factor", f"{pf.load_factor:.2f} g", f"{_num(s.familiar_load_factor, '.2f', ' g')}")
-        t.add_row("Stall margin", f"{pf.stall_margin_pct:.0f} %", f"{_num(s.familiar_stall_margin_pct, '.0f', ' %')}")
+        fam = s.familiar_stall_margin_pct
+        t.add_row("Stall margin", f"{pf.stall_margin_pct:.0f} %",
+                  "WING STALLS" if fam is not None and round(fam) < 0 else _num(fam, '.0f', ' %'))
         t.add_row(f"AoA ({pf.aoa_unit})", f"{pf.aoa_in_turn:.1f}", _num(s.familiar_aoa, ".1f"))
     else:
         t.add_row("Bank", f"{pf.bank_target_deg:.0f}°", "STALLS FIRST")
