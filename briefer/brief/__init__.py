@@ -54,10 +54,10 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
     perf = performance_section(s)
     wx = weather_section(s, weather_report)
     plan = plan_section(s, bank_target_deg=s.inputs.bank_deg, straight_in=mins.minimums.straight_in_available,
-                        withheld=wx.beyond_limits)
+                        withheld=wx.beyond_limits + _not_authorised(mins))
     sight = sight_picture_section(s, plan.plan, plan.solved, perf.performance)
     findings = (mins.findings + perf.findings + wx.findings + plan.findings + sight.findings
-                + report_findings(weather_report))
+                + report_findings(weather_report, s.request.airfield.ident))
     if computed_utc is None:
         computed_utc = datetime.now(timezone.utc).strftime("%Y-%m-%d %H:%MZ")
     return Brief(header=brief_header(s), category=mins.category, minimums=mins.minimums,
@@ -65,6 +65,13 @@ def build_brief(request: BriefRequest, *, computed_utc: str | None = None, weath
                  weather=wx.weather, plan=plan.plan, sight_picture=sight.sight_picture,
                  missed_approach=plan.missed_approach, runways=runway_drawings(s), obstacles=mins.obstacles,
                  findings=findings, cautions=CAUTIONS, computed_utc=computed_utc)
+
+
+def _not_authorised(mins) -> tuple[str, ...]:
+    """No plan is recommended where circling is not authorised for the category."""
+    if mins.minimums.authorised:
+        return ()
+    return (f"circling is not authorised for category {mins.category.category}: no plan",)
 
 
 __all__ = ["STANDARD_ALTIMETER_HPA", "Situation", "build_brief", "demo_request", "envelope_for",

@@ -70,9 +70,10 @@ def sight_picture_section(s: Situation, plan_info: PlanInfo, solved: maneuver.Pl
                   f"{cmp.familiar_bank_required_deg:.0f}° bank, {cmp.familiar_load_factor:.2f} g, "
                   f"{stall_margin_words(cmp.familiar_stall_margin_pct)}; holding {plan_info.bank_deg:.0f}° overshoots by "
                   f"{cmp.overshoot_nm:.2f} NM.")
+    nan = float("nan")     # no plan, no planned picture (the trap is still shown)
     sight = SightPictureInfo(
-        circling_height_ft=circ_h, planned_offset_nm=planned_offset_nm,
-        planned_depression_deg=float(cmp.planned_depression_deg), familiar_height_ft=fp.height_ft,
+        circling_height_ft=circ_h, planned_offset_nm=planned_offset_nm if feasible else nan,
+        planned_depression_deg=float(cmp.planned_depression_deg) if feasible else nan, familiar_height_ft=fp.height_ft,
         familiar_offset_nm=fam_offset_nm, familiar_depression_deg=float(cmp.familiar_depression_deg),
         familiar_offset_at_circling_nm=float(cmp.familiar_offset_at_circling_nm),
         familiar_possible=bool(cmp.familiar_possible), familiar_bank_required_deg=cmp.familiar_bank_required_deg,

@@ -7,7 +7,8 @@ Choices made here where the issues are silent (said again in the output where it
   (sqrt(W/Wref)) plus the profile's wind additive; it sets the category (14 CFR 97.3).
 - Missing temperature: ISA at the field; missing altimeter: standard pressure. A variable wind
   is planned as calm (and counts as a tailwind for the additive).
-- Not authorised: the plan is still drawn at the criteria's lowest circling height.
+- Not authorised: the plan is still solved at the criteria's lowest circling height (the turn the
+  performance figures describe), but the brief recommends no plan and draws no planned picture.
 """
 
 from __future__ import annotations

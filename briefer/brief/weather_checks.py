@@ -120,12 +120,17 @@ def _wind_limit_findings(cfg, hw: float, xw: float, ghw: float | None, gxw: floa
     return tuple(beyond)
 
 
-def report_findings(weather_report) -> tuple[Finding, ...]:
-    """The decoded report's own cautions: a variable wind sector, a ceiling that may be lower,
-    groups not used (listed last in the brief)."""
+def report_findings(weather_report, airfield_ident: str | None = None) -> tuple[Finding, ...]:
+    """The decoded report's own cautions: a report from another station than the airfield, a
+    variable wind sector, a ceiling that may be lower, groups not used (listed last in the brief)."""
     found = FindingList()
     if weather_report is None:
         return ()
+    station = getattr(weather_report, "station", None)
+    if airfield_ident and station and station.upper() != airfield_ident.upper():
+        found.add("warning", "report-other-station",
+                  f"The weather report is from {station}, not from {airfield_ident}: check that it applies here "
+                  "(the altimeter setting and the ceiling may differ).")
     if weather_report.wind_variable_from_deg is not None:
         found.add("warning", "variable-wind-sector",
                   f"The wind varies between {weather_report.wind_variable_from_deg:03.0f}° and "

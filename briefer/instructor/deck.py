@@ -138,7 +138,8 @@ def trap_lines(brief: Any) -> list[str]:
     """The sight-picture trap in figures."""
     s = brief.sight_picture
     out = [f"Planned: runway {s.planned_depression_deg:.1f} deg below the horizon at {s.planned_offset_nm:.2f} NM, "
-           f"{s.circling_height_ft:.0f} ft up.",
+           f"{s.circling_height_ft:.0f} ft up." if s.planned_offset_nm == s.planned_offset_nm
+           else "Planned: none: no plan, so no planned picture.",
            f"Everyday: {s.familiar_depression_deg:.1f} deg at {s.familiar_offset_nm:.2f} NM, "
            f"{s.familiar_height_ft:.0f} ft up.",
            f"The trap: that picture at circling height puts you {s.familiar_offset_at_circling_nm:.2f} NM out."]

@@ -249,7 +249,7 @@ def _minimums(brief: Brief) -> Section:
         reason = m.not_authorised_reason.rstrip(".")
         head = (f"CIRCLING NOT AUTHORISED. {reason}" if reason.lower().startswith(f"category {c.category}".lower())
                 else f"CIRCLING NOT AUTHORISED for category {c.category}: {reason}")
-        status, alert = head + ". No MDA: the turn is drawn at the lowest circling height only.", True
+        status, alert = head + ". No MDA, no plan.", True
         figures = (Figure(label="CATEGORY", value=c.category, note=cat_note),
                    Figure(label="MDA", value=DASH, note="not authorised"),
                    Figure(label="HAA", value=DASH, note="not authorised"),
@@ -380,7 +380,8 @@ def _side_view(brief: Brief) -> SideView:
     h = f"{s.circling_height_ft:.0f} ft"
     rows = [
         Row(label="Planned", text=(f"runway {s.planned_depression_deg:.1f}° below the horizon, "
-                                   f"{s.planned_offset_nm:.2f} NM out at {h}")),
+                                   f"{s.planned_offset_nm:.2f} NM out at {h}" if not _missing(s.planned_offset_nm)
+                                   else "none: no plan, so no planned picture")),
         Row(label="Usual", text=(f"{s.familiar_depression_deg:.1f}° below the horizon, {s.familiar_offset_nm:.2f} NM "
                                  f"out at {s.familiar_height_ft:.0f} ft (your everyday pattern)")),
         Row(label="The trap", text=(f"the usual picture at {h} puts you only "

@@ -66,7 +66,7 @@ def answer_sections(case: DeckCase) -> tuple[Section, ...]:
         Figure(label="USUAL PICTURE", value=num(s.familiar_depression_deg, ".1f", "°"),
                note=f"{s.familiar_height_ft:.0f} ft, {s.familiar_offset_nm:.2f} NM out"),
         Figure(label="AT CIRCLING HEIGHT", value=num(s.familiar_offset_at_circling_nm, ".2f", " NM"),
-               note=f"out, at {s.circling_height_ft:.0f} ft (plan {s.planned_offset_nm:.2f} NM)"),
+               note=f"out, at {s.circling_height_ft:.0f} ft" + (f" (plan {s.planned_offset_nm:.2f} NM)" if s.planned_offset_nm == s.planned_offset_nm else " (no plan)")),
         need,
         Figure(label="OR OVERSHOOT", value=num(s.overshoot_nm, ".2f", " NM"), note="holding the planned bank"),
     ))

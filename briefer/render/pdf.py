@@ -431,7 +431,9 @@ class CardPainter:
         pdf = self.pdf
         x, y, w, h = box
         pl, pr, pt, pb = 3.0, 3.0, 3.0, 4.0
-        d_max = max(sv.planned_offset_nm, sv.familiar_offset_nm, sv.familiar_offset_at_circling_nm, 0.1) * 1.1
+        planned = math.isfinite(sv.planned_offset_nm)       # no plan: no planned sight line
+        d_max = max([sv.familiar_offset_nm, sv.familiar_offset_at_circling_nm, 0.1]
+                    + ([sv.planned_offset_nm] if planned else [])) * 1.1
         h_max = max(sv.circling_height_ft, sv.familiar_height_ft, 1.0) * 1.1
         sx = (w - pl - pr) / d_max            # mm per NM
         sy = (h - pt - pb) / h_max            # mm per ft
@@ -453,22 +455,24 @@ class CardPainter:
         with pdf.local_context(stroke_cap_style="ROUND"):
             pdf.line(xg, at(0, hc)[1], x + w - 1, at(0, hc)[1])     # circling height (dotted)
         self.text_at(xg + 3.0, at(0, hc)[1] - self.lh(size) - 0.2, f"{hc:.0f} ft", size)
-        p = at(sv.planned_offset_nm, hc)
+        p = at(sv.planned_offset_nm if planned else 0.0, hc)
         t = at(sv.familiar_offset_at_circling_nm, hc)
         u = at(sv.familiar_offset_nm, sv.familiar_height_ft)
         far = u if sv.familiar_offset_nm >= sv.familiar_offset_at_circling_nm else t
         self.pen(0.4, 0.3, dash=(1.2, 0.8))
         pdf.line(xg, yg, far[0], far[1])                            # the usual picture's sight line
-        self.pen(0.5)
-        pdf.line(xg, yg, p[0], p[1])                                # the planned sight line
-        self.pen(0.3, fill=0.0)
-        pdf.circle(p[0], p[1], 0.9, style="DF")                     # you, as planned
+        if planned:
+            self.pen(0.5)
+            pdf.line(xg, yg, p[0], p[1])                            # the planned sight line
+            self.pen(0.3, fill=0.0)
+            pdf.circle(p[0], p[1], 0.9, style="DF")                 # you, as planned
         self.pen(0.3, fill=1.0)
         pdf.circle(t[0], t[1], 0.9, style="DF")                     # the trap
         pdf.rect(u[0] - 0.8, u[1] - 0.8, 1.6, 1.6, style="DF")      # the usual pattern
         self.font("", size)
         plan_w, trap_w = self.width_of("plan"), self.width_of("trap")
-        self.text_at(p[0] - plan_w / 2, p[1] + 1.2, "plan", size)
+        if planned:
+            self.text_at(p[0] - plan_w / 2, p[1] + 1.2, "plan", size)
         trap_x = t[0] - trap_w / 2
         # under its point unless that runs into "plan"; then above the circling height
         trap_y = t[1] + 1.2 if trap_x + trap_w + 0.8 < p[0] - plan_w / 2 else t[1] - 1.2 - self.lh(size)

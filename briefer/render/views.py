@@ -162,8 +162,11 @@ class SightPictureView:
     def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
         s = self.brief.sight_picture
         g = _kv_grid()
-        g.add_row("Planned", f"runway {s.planned_depression_deg:.1f}° below the horizon at "
-                             f"{s.planned_offset_nm:.2f} NM, {s.circling_height_ft:.0f} ft up")
+        if s.planned_offset_nm == s.planned_offset_nm:
+            g.add_row("Planned", f"runway {s.planned_depression_deg:.1f}° below the horizon at "
+                                 f"{s.planned_offset_nm:.2f} NM, {s.circling_height_ft:.0f} ft up")
+        else:
+            g.add_row("Planned", "none: no plan, so no planned picture")
         g.add_row("Familiar", f"{s.familiar_depression_deg:.1f}° at {s.familiar_offset_nm:.2f} NM, "
                               f"{s.familiar_height_ft:.0f} ft up (your usual pattern)")
         g.add_row("The trap", f"that picture at circling height puts you {s.familiar_offset_at_circling_nm:.2f} NM out")

@@ -169,8 +169,10 @@ def sight_comparison(brief: Brief) -> RenderableType:
     t.add_column("", style="bold", no_wrap=True)
     t.add_column("Planned", justify="right", no_wrap=True)
     t.add_column("Familiar picture", justify="right", no_wrap=True)
-    t.add_row("Runway below horizon", f"{s.planned_depression_deg:.1f}°", f"{s.familiar_depression_deg:.1f}°")
-    t.add_row("Offset at circling height", f"{s.planned_offset_nm:.2f} NM", f"{s.familiar_offset_at_circling_nm:.2f} NM")
+    t.add_row("Runway below horizon", _num(s.planned_depression_deg, ".1f", "°") if s.planned_offset_nm == s.planned_offset_nm
+              else "no plan", f"{s.familiar_depression_deg:.1f}°")
+    t.add_row("Offset at circling height", _num(s.planned_offset_nm, ".2f", " NM"),
+              f"{s.familiar_offset_at_circling_nm:.2f} NM")
     if s.familiar_possible and s.familiar_bank_required_deg is not None:
         over = " !" if s.familiar_exceeds_bank_limit else ""
         t.add_row("Bank", f"{pf.bank_target_deg:.0f}°", f"{s.familiar_bank_required_deg:.0f}°{over}")
@@ -193,7 +195,8 @@ def sight_legend(brief: Brief, *, ascii: bool) -> Text:
     s = brief.sight_picture
     t = Text()
     t.append("*" if ascii else "━", style="bold #4fc3f7")
-    t.append(f" planned {s.planned_depression_deg:.1f}° below the horizon   ")
+    t.append(f" planned {s.planned_depression_deg:.1f}° below the horizon   " if s.planned_offset_nm == s.planned_offset_nm
+             else " no plan, so no planned picture   ")
     t.append("o" if ascii else "┄", style="#a0a0a0")
     t.append(f" familiar {s.familiar_depression_deg:.1f}° ({s.familiar_height_ft:.0f} ft pattern)")
     return t
