@@ -104,6 +104,7 @@ class MinimumsInfo:
     circling_only_reasons: tuple[CirclingOnly, ...]
     straight_in_available: bool
     cold: ColdCorrection | None
+    visibility_in_metres: bool = False   # the minimums give the visibility in metres
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

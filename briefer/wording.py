@@ -9,6 +9,10 @@ Pure Python: no Rich, Textual or fpdf import.
 
 from __future__ import annotations
 
+import math
+
+from briefer.units import SM_TO_M
+
 
 def signed(value: float, decimals: int = 0) -> str:
     """'+4', '-3', '+0' (never '-0': a value that rounds to zero has no sign to show)."""
@@ -24,6 +28,25 @@ def stall_margin_words(margin_pct: float | None) -> str:
     if round(margin_pct) < 0:
         return "THE WING STALLS (stall speed above the speed flown)"
     return f"stall margin {round(margin_pct) + 0:.0f} %"
+
+
+def visibility_words(value_sm: float | None, *, metres: bool) -> str:
+    """A visibility as the minimums give it: metres in 100 m steps ('4000 m') for metre minimums,
+    statute miles in chart fractions ('2 1/2 SM', '3/4 SM') otherwise; rounded DOWN to the step
+    (never more than was reported). 'not reported' for None."""
+    if value_sm is None or value_sm != value_sm:
+        return "not reported"
+    if metres:
+        m = int(value_sm * SM_TO_M / 100.0 + 1e-6) * 100
+        return f"{m} m"
+    step = 16 if value_sm < 1.0 else 8
+    n = int(value_sm * step + 1e-6)
+    whole, rest = divmod(n, step)
+    if rest == 0:
+        return f"{whole} SM"
+    g = math.gcd(rest, step)
+    frac = f"{rest // g}/{step // g}"
+    return f"{whole} {frac} SM" if whole else f"{frac} SM"
 
 
 def _whole_kt(value_kt: float) -> int:
@@ -141,5 +164,5 @@ def wind_limits_words(wind) -> str:
     return "limits: " + ", ".join(parts)
 
 
-__all__ = ["stall_margin_words", "signed", "break_off_words", "timing_words", "category_speed_parts", "category_words", "circling_speed_words", "vref_words", "components_words", "crosswind_side", "crosswind_words", "headwind_words", "wind_components_text",
+__all__ = ["visibility_words", "stall_margin_words", "signed", "break_off_words", "timing_words", "category_speed_parts", "category_words", "circling_speed_words", "vref_words", "components_words", "crosswind_side", "crosswind_words", "headwind_words", "wind_components_text",
            "wind_limits_words"]

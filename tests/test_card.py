@@ -94,7 +94,7 @@ def key_numbers(brief) -> dict[str, str]:
         "bank": f"{p.bank_deg:.0f}°",
         "bank limit": f"limit {brief.performance.bank_limit_deg:.0f}°",
         "roll out": f"{p.roll_out_distance_nm:.2f} NM",
-        "visibility": "2.5 SM",
+        "visibility": "2 1/2 SM",            # as the chart prints it (issue 11 item 10)
         "missed": brief.missed_approach.turn_direction.upper(),
     }
 

@@ -21,6 +21,7 @@ from briefer.brief.situation_inputs import Situation
 from briefer.brief.variation import variation_findings
 from briefer.core import coldtemp, criteria, minimums
 from briefer.model import Sector
+from briefer.wording import visibility_words
 from briefer.result import (
     AreaInfo, CategoryInfo, ColdCorrection, Finding, MinimumsInfo, ObstacleDrawing, frozen_array,
 )
@@ -67,8 +68,9 @@ def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
     haa = None if mda is None else mda - af.elevation_ft
     vis_req = None
     vis_charted = None
+    in_metres = entry is not None and entry.visibility_sm is None and entry.visibility_m is not None
     if entry is not None:
-        vis_charted = (f"{entry.visibility_sm:g} SM" if entry.visibility_sm is not None
+        vis_charted = (visibility_words(entry.visibility_sm, metres=False) if entry.visibility_sm is not None
                        else f"{entry.visibility_m:.0f} m" if entry.visibility_m is not None else None)
         vis_req = entry.visibility_sm if entry.visibility_sm is not None else (
             entry.visibility_as_charted_m * units.M_TO_SM if entry.visibility_as_charted_m is not None else None)
@@ -76,8 +78,8 @@ def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
     ceil_ok = None if (wx.ceiling_ft is None or haa is None) else wx.ceiling_ft >= haa
     if vis_ok is False:
         found.add("danger", "visibility-below-minimum",
-                  f"Reported visibility {wx.visibility_sm:g} SM is below the required {vis_charted} "
-                  f"({vis_req:.2f} SM).")
+                  f"Reported visibility {visibility_words(wx.visibility_sm, metres=in_metres)} is below the "
+                  f"required {vis_charted}.")
     if ceil_ok is False:
         found.add("danger", "ceiling-below-mda",
                   f"Reported ceiling {wx.ceiling_ft:.0f} ft is below the circling height ({haa:.0f} ft HAA).")
@@ -120,7 +122,7 @@ def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
         obstacle_clearance_provenance=criteria.provenance_label(roc.provenance),
         controlling_obstacle=None if controlling is None else f"{controlling.name} {controlling.elevation_ft:.0f} ft",
         obstacle_clearance_actual_ft=clearance_actual, circling_only_reasons=reasons,
-        straight_in_available=straight_in, cold=cold)
+        straight_in_available=straight_in, cold=cold, visibility_in_metres=in_metres)
     category = CategoryInfo(category=cat, certified_category=det.certified_category, raised=det.raised,
                             reason=_reason_as_printed(det.reason),
                             vref_kt=cfg.vref_kt * prof.weight_speed_factor(request.landing_weight_lb),

@@ -25,7 +25,7 @@ from briefer import __version__
 from briefer.cautions import CAUTIONS, SHORT_CAUTION
 from briefer.render.brief_scene import scene_from_brief
 from briefer.render.scene import ROLE_STYLES, Role, Scene
-from briefer.wording import stall_margin_words, category_words, wind_components_text, wind_limits_words
+from briefer.wording import visibility_words, stall_margin_words, category_words, wind_components_text, wind_limits_words
 from briefer.result import Brief, Finding
 
 DASH = "--"
@@ -239,12 +239,13 @@ def _minimums(brief: Brief) -> Section:
         mda_note = f"COLD: FLY {m.cold.corrected_mda_ft:.0f} FT" if m.cold is not None else "no cold correction"
         ceil_note = (f"ceiling {m.ceiling_reported_ft:.0f} ft" + _ok(m.ceiling_ok, "BELOW")
                      if m.ceiling_reported_ft is not None else "ceiling not reported")
-        vis_note = (f"reported {vis(m.visibility_reported_sm)}" + _ok(m.visibility_ok, "BELOW")
+        vis_note = (f"reported {visibility_words(m.visibility_reported_sm, metres=m.visibility_in_metres)}"
+                    + _ok(m.visibility_ok, "BELOW")
                     if m.visibility_reported_sm is not None else "reported: none")
         figures = (Figure(label="CATEGORY", value=c.category, note=cat_note),
                    Figure(label="MDA", value=num(m.mda_ft, ".0f", " ft"), note=mda_note),
                    Figure(label="HAA", value=num(m.height_above_airport_ft, ".0f", " ft"), note=ceil_note),
-                   Figure(label="VISIBILITY", value=vis(m.visibility_required_sm), note=vis_note))
+                   Figure(label="VISIBILITY", value=m.visibility_required_text or DASH, note=vis_note))
     else:
         reason = m.not_authorised_reason.rstrip(".")
         head = (f"CIRCLING NOT AUTHORISED. {reason}" if reason.lower().startswith(f"category {c.category}".lower())
@@ -358,7 +359,7 @@ def _wind(brief: Brief) -> Section:
     source = {"manual": "as entered", "report": "from the report", "report+manual": "report and entries",
               "standard": "none given: standard day"}.get(wx.source, wx.source)
     weather = (f"OAT {wx.oat_c:.0f} °C, altimeter {wx.altimeter_hpa:.0f} hPa, visibility "
-               f"{vis(wx.visibility_sm) if wx.visibility_sm is not None else 'not reported'}, ceiling "
+               f"{visibility_words(wx.visibility_sm, metres=brief.minimums.visibility_in_metres)}, ceiling "
                f"{num(wx.ceiling_ft, '.0f', ' ft') if wx.ceiling_ft is not None else 'not reported'} ({source})")
     rows = [Row(label="Wind", text=(f"{wind_text(brief)}; " + comp if w.reported
                                     else f"{wind_text(brief)}; {wind_limits_words(w)}")),

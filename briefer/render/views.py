@@ -12,7 +12,7 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
-from briefer.wording import stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words
+from briefer.wording import visibility_words, stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words
 from briefer.result import Brief, Finding
 
 MARK = {"danger": "!!", "warning": "! ", "info": "i "}
@@ -70,7 +70,8 @@ class MinimumsView:
         g.add_row("Category", category_words(c))
         if m.authorised:
             g.add_row("MDA", f"{fmt(m.mda_ft, '.0f', ' ft')}   HAA {fmt(m.height_above_airport_ft, '.0f', ' ft')}")
-            vis = f"required {m.visibility_required_text or 'n/a'}, reported {fmt(m.visibility_reported_sm, 'g', ' SM', none='none')}"
+            vis = (f"required {m.visibility_required_text or 'n/a'}, reported "
+                   f"{visibility_words(m.visibility_reported_sm, metres=m.visibility_in_metres)}")
             vis += {True: "  OK", False: "  BELOW MINIMUM", None: ""}[m.visibility_ok]
             g.add_row("Visibility", vis)
             ceil = f"reported {fmt(m.ceiling_reported_ft, '.0f', ' ft', none='none')}"

@@ -13,7 +13,7 @@ from rich.table import Table
 from rich.text import Text
 
 from briefer.render.views import MARK, STYLE, MinimumsView, PerformanceView, fmt, wind_text
-from briefer.wording import circling_speed_words, vref_words, wind_components_text, wind_limits_words
+from briefer.wording import visibility_words, circling_speed_words, vref_words, wind_components_text, wind_limits_words
 from briefer.result import Brief
 
 
@@ -120,8 +120,8 @@ def weather_implies(brief: Brief) -> RenderableType:
     g.add_row("Temp/alt", f"OAT {wu.oat_c:.0f} °C, altimeter {wu.altimeter_hpa:.1f} hPa; "
                           f"TAS {pf.tas_kt:.0f} kt at the MDA")
     vis = {True: "OK", False: "BELOW MINIMUM", None: "not checked"}[m.visibility_ok]
-    g.add_row("Visibility", f"{fmt(wu.visibility_sm, 'g', ' SM')} vs {fmt(m.visibility_required_sm, 'g', ' SM')} "
-                            f"required: {vis}")
+    g.add_row("Visibility", f"{visibility_words(wu.visibility_sm, metres=m.visibility_in_metres)} vs "
+                            f"{m.visibility_required_text or 'none'} required: {vis}")
     ceil = {True: "OK", False: "BELOW THE MDA", None: "not checked"}[m.ceiling_ok]
     g.add_row("Ceiling", f"{fmt(wu.ceiling_ft, '.0f', ' ft')} vs HAA {fmt(m.height_above_airport_ft, '.0f', ' ft')}: "
                          f"{ceil}")
