@@ -49,6 +49,14 @@ def visibility_words(value_sm: float | None, *, metres: bool) -> str:
     return f"{whole} {frac} SM" if whole else f"{frac} SM"
 
 
+def area_edge_words(margin_nm: float, inside: bool = True) -> str:
+    """'inside, 1.13 NM from the area edge' or 'OUTSIDE, 0.46 NM beyond the area edge' (`inside`
+    False with a positive edge margin: the track enters a not-authorised sector)."""
+    if round(margin_nm, 2) >= 0:
+        return f"{'inside' if inside else 'OUTSIDE (in a not-authorised sector)'}, {abs(margin_nm):.2f} NM from the area edge"
+    return f"OUTSIDE, {-margin_nm:.2f} NM beyond the area edge"
+
+
 def _whole_kt(value_kt: float) -> int:
     """The knots as printed (half away from zero, so 0.5 kt shows as 1 kt on either side)."""
     mag = int(abs(value_kt) + 0.5)
@@ -164,5 +172,5 @@ def wind_limits_words(wind) -> str:
     return "limits: " + ", ".join(parts)
 
 
-__all__ = ["visibility_words", "stall_margin_words", "signed", "break_off_words", "timing_words", "category_speed_parts", "category_words", "circling_speed_words", "vref_words", "components_words", "crosswind_side", "crosswind_words", "headwind_words", "wind_components_text",
+__all__ = ["area_edge_words", "visibility_words", "stall_margin_words", "signed", "break_off_words", "timing_words", "category_speed_parts", "category_words", "circling_speed_words", "vref_words", "components_words", "crosswind_side", "crosswind_words", "headwind_words", "wind_components_text",
            "wind_limits_words"]

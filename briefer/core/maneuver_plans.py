@@ -271,7 +271,8 @@ def _reason_texts(flags: int, shape: Shape, sol: ShapeSolution, k: int, inputs: 
         out.append(f"the downwind is joined {_nm(gone)} past the roll-in point: the arrival is already "
                    f"inside the final turn for {b:g} deg bank")
     if flags & R_TOO_CLOSE:
-        out.append(f"the turn rolls out {_nm(f(sol.roll_out_d))} before the threshold, inside the "
+        d = f(sol.roll_out_d)
+        out.append(f"the turn rolls out {_nm(abs(d))} {'before' if d >= 0 else 'past'} the threshold, inside the "
                    f"stabilised distance ({_nm(descent.stabilised_distance_m)})")
     return tuple(out)
 

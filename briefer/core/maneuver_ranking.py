@@ -225,6 +225,11 @@ def rank_plans(plans: tuple[Plan, ...] | list[Plan], *, margin_fn: MarginFn, vis
     return tuple(out)
 
 
+def _margin(m: float) -> str:
+    """A margin for the crew's text: '0.40 NM' to spare, or '0.58 NM short' (never a negative distance)."""
+    return _nm(m) if m >= 0 else f"{_nm(-m)} short"
+
+
 def _why_loses(best: tuple, row: tuple) -> str:
     bkey, bp, barea, bvis = best[0], best[1], best[2], best[3]
     key, p, area, vis, aoa, fails = row[0], row[1], row[2], row[3], row[4], row[5]
@@ -236,9 +241,9 @@ def _why_loses(best: tuple, row: tuple) -> str:
         return f"needs {p.bank_deg:g} deg bank against {bp.bank_deg:g} deg for {_label(bp)}"
     if key[2] > bkey[2]:
         if min(area, vis) == area:
-            return f"area margin {_nm(area)} against {_nm(min(barea, bvis))} for {_label(bp)}"
-        return f"the runway gets {_nm(p.max_distance_from_runway_m)} away (visibility margin {_nm(vis)}) " \
-               f"against a {_nm(min(barea, bvis))} margin for {_label(bp)}"
+            return f"area margin {_margin(area)} against {_margin(min(barea, bvis))} for {_label(bp)}"
+        return f"the runway gets {_nm(p.max_distance_from_runway_m)} away (visibility margin {_margin(vis)}) " \
+               f"against {_margin(min(barea, bvis))} for {_label(bp)}"
     if key[3] > bkey[3]:
         return f"angle-of-attack margin {aoa:.1f} deg against {-bkey[3]:.1f} deg for {_label(bp)}"
     if round(p.total_time_s - bp.total_time_s, 1) == 0.0:

@@ -25,7 +25,7 @@ from briefer import __version__
 from briefer.cautions import CAUTIONS, SHORT_CAUTION
 from briefer.render.brief_scene import scene_from_brief
 from briefer.render.scene import ROLE_STYLES, Role, Scene
-from briefer.wording import visibility_words, stall_margin_words, category_words, wind_components_text, wind_limits_words
+from briefer.wording import area_edge_words, visibility_words, stall_margin_words, category_words, wind_components_text, wind_limits_words
 from briefer.result import Brief, Finding
 
 DASH = "--"
@@ -321,8 +321,7 @@ def _plan(brief: Brief) -> Section:
     rows = [Row(label="Missed appr", text=(f"climbing turn {turn_dir} toward the runway" if sided else
                                            "climbing turn toward the runway") + f", then: {ma.instruction}")]
     if p.feasible:
-        where = ("inside the area" if p.inside_area else "OUTSIDE THE AREA") + \
-            f", {p.area_edge_margin_nm:.2f} NM from its edge"
+        where = area_edge_words(p.area_edge_margin_nm, p.inside_area)
         if p.sector_clearance_nm is not None:
             where += ("; on the edge of the not-authorised sector" if abs(p.sector_clearance_nm) < 0.005
                       else f"; {p.sector_clearance_nm:.2f} NM from the not-authorised sector")

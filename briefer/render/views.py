@@ -12,7 +12,7 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
-from briefer.wording import visibility_words, stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words
+from briefer.wording import area_edge_words, visibility_words, stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words
 from briefer.result import Brief, Finding
 
 MARK = {"danger": "!!", "warning": "! ", "info": "i "}
@@ -120,7 +120,7 @@ class PlanView:
         g.add_row("Bank", f"{p.bank_deg:.0f}° target, limit {pf.bank_limit_deg:.0f}°")
         g.add_row("Roll out", f"{p.roll_out_distance_nm:.2f} NM final, heading {p.final_heading_deg_mag:03.0f}° M")
         g.add_row("Leave MDA", p.leave_mda_text)
-        area = ("inside" if p.inside_area else "OUTSIDE") + f", {p.area_edge_margin_nm:.2f} NM from the area edge"
+        area = area_edge_words(p.area_edge_margin_nm, p.inside_area)
         if p.sector_clearance_nm is not None:
             area += ("; on the edge of the not-authorised sector" if abs(p.sector_clearance_nm) < 0.005
                      else f"; {p.sector_clearance_nm:.2f} NM from the not-authorised sector")

@@ -13,7 +13,7 @@ from rich.table import Table
 from rich.text import Text
 
 from briefer.render.views import MARK, STYLE, MinimumsView, PerformanceView, fmt, wind_text
-from briefer.wording import visibility_words, circling_speed_words, vref_words, wind_components_text, wind_limits_words
+from briefer.wording import area_edge_words, visibility_words, circling_speed_words, vref_words, wind_components_text, wind_limits_words
 from briefer.result import Brief
 
 
@@ -157,7 +157,8 @@ def plan_numbers(brief: Brief) -> RenderableType:
     g.add_row("Speed", f"{pf.ias_kt:.0f} IAS / {pf.tas_kt:.0f} TAS kt")
     g.add_row("Roll out", f"{p.roll_out_distance_nm:.2f} NM, {p.final_heading_deg_mag:03.0f}° M")
     g.add_row("Leave MDA", p.leave_mda_text)
-    g.add_row("Area", ("inside" if p.inside_area else "OUTSIDE") + f", {p.area_edge_margin_nm:.2f} NM to edge")
+    g.add_row("Area", area_edge_words(p.area_edge_margin_nm, p.inside_area).replace(" from the area edge", " to edge")
+              .replace(" beyond the area edge", " beyond edge"))
     g.add_row("Missed", f"climbing turn {ma.turn_direction.upper()}")
     return g
 
