@@ -114,11 +114,12 @@ def category_speed_parts(category) -> tuple[int, int, int]:
 
 
 def vref_words(category) -> str:
-    """'VREF 133 kt at landing weight; 122 kt at maximum landing weight sets category C'
-    (`category` is a CategoryInfo). 14 CFR 97.3: the category is fixed at the maximum
-    certificated landing weight; today's weight gives the speeds flown."""
-    return (f"VREF {category.vref_kt:.0f} kt at landing weight; {category.category_vref_kt:.0f} kt at maximum "
-            f"landing weight sets category {category.certified_category}")
+    """'VREF 133 kt in this configuration at landing weight; category speed 122 kt at maximum
+    landing weight sets category C' (`category` is a CategoryInfo). 14 CFR 97.3: the category is
+    fixed by VREF in the landing configuration at the maximum certificated landing weight (or the
+    flight manual's category speed); today's configuration and weight give the speeds flown."""
+    return (f"VREF {category.vref_kt:.0f} kt in this configuration at landing weight; category speed "
+            f"{category.category_vref_kt:.0f} kt at maximum landing weight sets category {category.certified_category}")
 
 
 def circling_speed_words(category) -> str:

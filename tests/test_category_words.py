@@ -23,7 +23,8 @@ from briefer.render.brief_json import brief_to_dict
 from briefer.render.card import card_text
 from briefer.render.views import BriefView
 
-VREFS = "VREF 133 kt at landing weight; 122 kt at maximum landing weight sets category C"
+VREFS = ("VREF 133 kt in this configuration at landing weight; category speed 122 kt at maximum landing weight "
+         "sets category C")
 SPEED = "circling 163 kt IAS = 152 kt + 11 kt wind additive"
 
 
@@ -60,7 +61,7 @@ def test_json_reason_is_rounded_and_says_which_vref(demo):
     assert "122.056" not in reason and "163.155" not in reason
     assert "122 kt at maximum landing weight" in reason
     j = brief_to_dict(demo)
-    assert j["vref_at_max_landing_weight_kt"] == pytest.approx(122.056, abs=0.01)
+    assert j["category_speed_at_max_landing_weight_kt"] == pytest.approx(122.056, abs=0.01)
     assert j["circling_speed_before_additive_kt"] == pytest.approx(152.57, abs=0.01)
 
 

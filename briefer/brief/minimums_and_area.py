@@ -134,7 +134,7 @@ def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
 def _reason_as_printed(reason: str) -> str:
     """The criteria's reason with its speeds in whole knots and the VREF named as the one at the
     maximum landing weight (the brief also shows VREF at today's weight)."""
-    reason = re.sub(r"VREF (\d+(?:\.\d+)?) kt", lambda m: f"VREF {float(m.group(1)):.0f} kt at maximum landing weight",
+    reason = re.sub(r"VREF (\d+(?:\.\d+)?) kt", lambda m: f"the category speed {float(m.group(1)):.0f} kt at maximum landing weight",
                     reason)
     return re.sub(r"circling at (\d+(?:\.\d+)?) kt", lambda m: f"circling at {float(m.group(1)):.0f} kt IAS", reason)
 

@@ -102,7 +102,7 @@ def brief_to_dict(brief: Brief) -> dict[str, Any]:
         "vref_kt": c.vref_kt,
         "circling_speed_kt": c.circling_speed_kt,
         "wind_additive_kt": c.wind_additive_kt,
-        "vref_at_max_landing_weight_kt": c.category_vref_kt,
+        "category_speed_at_max_landing_weight_kt": c.category_vref_kt,
         "circling_speed_before_additive_kt": c.circling_speed_kt - c.wind_additive_kt,
         "category_text": category_words(c),
         "authorised": m.authorised,
