@@ -44,7 +44,7 @@ def test_no_plan_and_no_planned_picture_when_not_authorised():
 
 
 def test_deck_and_app_say_so_too():
-    from briefer.scenario_deck import trap_lines
+    from briefer.instructor.deck import trap_lines
     from briefer.tui.views import sight_comparison, sight_legend
 
     b = _brief()

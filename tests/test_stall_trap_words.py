@@ -43,7 +43,7 @@ def test_trap_beyond_the_stall_is_a_danger_that_says_the_wing_stalls():
     c2 = Console(record=True, width=120, file=io.StringIO())
     c2.print(sight_comparison(b))
     outputs["app"] = c2.export_text()
-    from briefer.scenario_deck import trap_lines
+    from briefer.instructor.deck import trap_lines
 
     outputs["deck"] = "\n".join(trap_lines(b))
     for name, text in outputs.items():
