@@ -46,6 +46,24 @@ def _command_modules() -> list[ModuleType]:
     return mods
 
 
+def _state_ranges(parser: argparse.ArgumentParser) -> None:
+    """Every range-checked option's help ends with its range (one place, so none is missed)."""
+    from briefer.commands._common import ranged
+
+    for action in parser._actions:
+        if isinstance(action.type, ranged):
+            rng = action.type.help_text("").strip()
+            if not action.help:
+                action.help = rng.strip("()")
+            elif action.type.describe() not in action.help:
+                action.help = f"{action.help} {rng}"
+        choices = getattr(action, "choices", None)
+        if isinstance(choices, dict):          # sub-parsers (`scenario new|show|deck`)
+            for sub in choices.values():
+                if isinstance(sub, argparse.ArgumentParser):
+                    _state_ranges(sub)
+
+
 def build_parser() -> tuple[argparse.ArgumentParser, dict[str, ModuleType]]:
     parser = _Parser(
         prog="briefer",
@@ -59,6 +77,7 @@ def build_parser() -> tuple[argparse.ArgumentParser, dict[str, ModuleType]]:
         p = sub.add_parser(mod.NAME, help=mod.HELP, description=getattr(mod, "DESCRIPTION", mod.HELP))
         if hasattr(mod, "add_arguments"):
             mod.add_arguments(p)
+        _state_ranges(p)
         commands[mod.NAME] = mod
     return parser, commands
 
@@ -89,7 +108,9 @@ def main(argv: list[str] | None = None) -> int:
     try:
         return int(commands[args.command].run(args) or 0)
     except BriefingError as exc:
-        print(f"briefer {args.command}: error: {_as_typed(str(exc), argv)}", file=sys.stderr)
+        from briefer.safetext import escape_text
+
+        print(f"briefer {args.command}: error: {escape_text(_as_typed(str(exc), argv))}", file=sys.stderr)
         return 2
     except KeyboardInterrupt:
         return 130

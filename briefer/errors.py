@@ -33,4 +33,6 @@ class DataFileError(BriefingError, ValueError):
                 where += f":{self.line}"
             where += ": "
         field = f"{self.context}: " if self.context else ""
-        return f"{where}{field}{self.message}"
+        from briefer.safetext import escape_text
+
+        return escape_text(f"{where}{field}{self.message}")

@@ -144,7 +144,7 @@ def test_table_only(capsys):
 # --- errors ----------------------------------------------------------------------------------------
 @pytest.mark.parametrize(("argv", "words"), [
     pytest.param(["--direction-step-deg", "7"], "must divide 360", id="step-not-dividing"),
-    pytest.param(["--direction-step-deg", "0"], "must divide 360", id="step-zero"),
+    pytest.param(["--direction-step-deg", "0"], "--direction-step-deg: expected 1 to 90 deg", id="step-zero"),
     pytest.param(["--max-wind-kt", "0"], "--max-wind-kt", id="max-wind-zero"),
     pytest.param(["--max-wind-kt", "200"], "--max-wind-kt", id="max-wind-too-fast"),
     pytest.param(["--speed-step-kt", "-1"], "--speed-step-kt", id="negative-step"),

@@ -10,6 +10,7 @@ import json
 import shutil
 
 import pytest
+from cli_helpers import run_error
 
 from briefer.cautions import CAUTIONS
 from briefer.cli import main
@@ -125,11 +126,8 @@ def test_config_file_folders_are_searched(capsys, tmp_path, monkeypatch):
 
 
 def test_missing_folder_is_one_line_exit_2(capsys, tmp_path):
-    code = main(["list", "--airfield-dir", str(tmp_path / "nope")])
-    out, err = capsys.readouterr()
-    assert code == 2 and out == ""
-    lines = err.strip().splitlines()
-    assert len(lines) == 1 and "no such folder" in lines[0] and "Traceback" not in err
+    line = run_error(capsys, ["list", "--airfield-dir", str(tmp_path / "nope")])
+    assert "no such folder" in line
 
 
 def test_text_output(capsys, tmp_path):

@@ -69,9 +69,9 @@ def test_turn_table_output_has_caution(capsys):
 
 
 @pytest.mark.parametrize("argv, fragment", [
-    pytest.param(["turn", "--speed-kt", "120", "--bank-deg", "95"], "--bank-deg", id="bank-95"),
-    pytest.param(["turn", "--speed-kt", "120", "--bank-deg", "0"], "--bank-deg", id="bank-0"),
-    pytest.param(["turn", "--speed-kt", "-5", "--bank-deg", "30"], "tas_kt", id="negative-speed"),
+    pytest.param(["turn", "--speed-kt", "120", "--bank-deg", "95"], "--bank-deg: expected 1 to 80 deg", id="bank-95"),
+    pytest.param(["turn", "--speed-kt", "120", "--bank-deg", "0"], "--bank-deg: expected 1 to 80 deg", id="bank-0"),
+    pytest.param(["turn", "--speed-kt", "-5", "--bank-deg", "30"], "--speed-kt: expected 1 to 600 kt", id="negative-speed"),
     pytest.param(["turn", "--speed-kt", "abc", "--bank-deg", "30"], "expected a number", id="not-a-number"),
     pytest.param(["turn", "--speed-kt", "nan", "--bank-deg", "30"], "finite", id="nan"),
     pytest.param(["turn", "--bank-deg", "30"], "--speed-kt", id="missing-speed"),
@@ -118,11 +118,11 @@ def test_atmosphere_inhg_equals_hpa(capsys):
 
 
 @pytest.mark.parametrize("argv, fragment", [
-    pytest.param(["atmosphere", "--altitude-ft", "70000"], "--altitude-ft", id="too-high"),
-    pytest.param(["atmosphere", "--altitude-ft", "1000", "--altimeter-hpa", "29.92"], "--altimeter-hpa",
+    pytest.param(["atmosphere", "--altitude-ft", "70000"], "--altitude-ft: expected -2000 to 60000 ft", id="too-high"),
+    pytest.param(["atmosphere", "--altitude-ft", "1000", "--altimeter-hpa", "29.92"], "--altimeter-hpa: expected 870 to 1090 hPa",
                  id="inhg-given-as-hpa"),
-    pytest.param(["atmosphere", "--altitude-ft", "1000", "--oat-c", "-150"], "--oat-c", id="too-cold"),
-    pytest.param(["atmosphere", "--altitude-ft", "1000", "--ias-kt", "0"], "cas_kt", id="zero-speed"),
+    pytest.param(["atmosphere", "--altitude-ft", "1000", "--oat-c", "-150"], "--oat-c: expected -90 to 60 degC", id="too-cold"),
+    pytest.param(["atmosphere", "--altitude-ft", "1000", "--ias-kt", "0"], "--ias-kt: expected 1 to 600 kt", id="zero-speed"),
     pytest.param(["atmosphere"], "--altitude-ft", id="missing-altitude"),
 ])
 def test_atmosphere_bad_input(capsys, argv, fragment):
@@ -165,7 +165,7 @@ def test_coldtemp_warm_not_applicable(capsys):
     pytest.param(["coldtemp", "--airport-elevation-ft", "0", "--oat-c", "-12", "--altitude-ft", "1000",
                   "--method", "guess"], "invalid choice", id="bad-method"),
     pytest.param(["coldtemp", "--airport-elevation-ft", "0", "--oat-c", "-200", "--altitude-ft", "1000"],
-                 "airport_oat_c", id="too-cold"),
+                 "--oat-c: expected -90 to 60 degC", id="too-cold"),
 ])
 def test_coldtemp_bad_input(capsys, argv, fragment):
     assert fragment in run_error(capsys, argv)

@@ -15,7 +15,7 @@ import pytest
 import yaml
 
 from briefer.errors import BriefingError, DataFileError
-from briefer.io import atomic, yamlload
+from briefer.io import atomic, safefile, yamlload
 from briefer.io.atomic import FileWriteError, write_bytes_atomic, write_text_atomic
 from briefer.io.yamlload import (
     dump_yaml,
@@ -283,7 +283,7 @@ def test_unreadable_file(in_bad_files: Path, monkeypatch: pytest.MonkeyPatch) ->
     def refuse(*args: object, **kwargs: object) -> None:
         raise PermissionError(13, "Permission denied")
 
-    monkeypatch.setattr(yamlload, "open", refuse, raising=False)
+    monkeypatch.setattr(safefile, "_open", refuse)
     with pytest.raises(DataFileError) as info:
         load_any("good-profile.yaml")
     assert str(info.value) == "good-profile.yaml: cannot read the file (permission denied)"

@@ -164,12 +164,28 @@ def test_write_is_atomic_and_refuses_to_overwrite(tmp_path):
 
 def test_relative_airfield_path_is_taken_from_the_scenario_folder(tmp_path):
     src = next(e.source for e in catalog.list_airfields() if e.name == "V2RL")
+    (tmp_path / "lessons" / "fields").mkdir(parents=True)
+    (tmp_path / "lessons" / "fields" / "valley.yaml").write_text(Path(src).read_text(encoding="utf-8"),
+                                                                 encoding="utf-8")
+    text = BASE.replace("airfield: V2RL", "airfield: fields/valley.yaml")
+    loaded = load_scenario(write(tmp_path / "lessons", text))
+    assert loaded.request.airfield.ident == "V2RL"
+
+
+@pytest.mark.parametrize("reference", ["../fields/valley.yaml", "/etc/passwd", "~/.bashrc",
+                                       "fields/../../fields/valley.yaml"])
+def test_a_reference_out_of_the_scenario_folder_is_refused(tmp_path, reference):
+    """A data file may name a catalog entry or a file in its own folder, nothing else (README)."""
+    src = next(e.source for e in catalog.list_airfields() if e.name == "V2RL")
     (tmp_path / "fields").mkdir()
     (tmp_path / "fields" / "valley.yaml").write_text(Path(src).read_text(encoding="utf-8"), encoding="utf-8")
     (tmp_path / "lessons").mkdir()
-    text = BASE.replace("airfield: V2RL", "airfield: ../fields/valley.yaml")
-    loaded = load_scenario(write(tmp_path / "lessons", text))
-    assert loaded.request.airfield.ident == "V2RL"
+    text = BASE.replace("airfield: V2RL", f"airfield: {reference}")
+    with pytest.raises(DataFileError) as info:
+        load_scenario(write(tmp_path / "lessons", text))
+    message = str(info.value)
+    assert ": airfield: expected a catalog name, or a path to a YAML file inside the scenario's own folder" in message
+    assert "root:" not in message and "PATH" not in message
 
 
 BAD_CASES = [

@@ -74,7 +74,7 @@ def key_value_table(title: str, rows: list[tuple[str, str]]) -> Any:
 
 
 def finite_float(text: str) -> float:
-    """argparse type: a finite number."""
+    """argparse type: a finite number (prefer `ranged`, which also states the range)."""
     try:
         value = float(text)
     except ValueError:
@@ -82,3 +82,88 @@ def finite_float(text: str) -> float:
     if not math.isfinite(value):
         raise argparse.ArgumentTypeError(f"expected a finite number, got {text!r}")
     return value
+
+
+def _num_text(x: float) -> str:
+    if abs(x) < 1e6:
+        return f"{x:g}"
+    return f"{x:,.0f}" if abs(x) < 1e12 else f"{x:.6g}"
+
+
+class ranged:  # noqa: N801 - used like a type in add_argument(type=...)
+    """argparse type: a finite number within a stated range, in a stated unit.
+
+    The one range-checked option type of every command (a value outside is refused before any
+    work, so nothing non-finite or absurd reaches the core or the screen)::
+
+        parser.add_argument("--bank-deg", type=ranged(5, 60, "deg"), ...)
+
+    argparse names the option; the message says the range in the option's unit, e.g.
+    ``argument --bank-deg: expected 5 to 60 deg, got 75``. ``lo_open``/``hi_open`` exclude an
+    end (``above 0``); ``integer`` asks for a whole number; ``hint(value)`` may add a likely slip
+    to the message (``(did you mean 30.12?)``). `help_text` appends the range to a help line.
+    """
+
+    def __init__(self, lo: float, hi: float, unit: str = "", *, lo_open: bool = False, hi_open: bool = False,
+                 integer: bool = False, hint: Callable[[float], str] | None = None) -> None:
+        self.lo, self.hi, self.unit = float(lo), float(hi), unit
+        self.lo_open, self.hi_open, self.integer = lo_open, hi_open, integer
+        self.hint = hint
+        self.__name__ = "number"    # argparse's fallback message names the type
+
+    def describe(self) -> str:
+        unit = f" {self.unit}" if self.unit else ""
+        lo, hi = _num_text(self.lo), _num_text(self.hi)
+        if self.lo_open and self.hi_open:
+            return f"above {lo} and below {hi}{unit}"
+        if self.lo_open:
+            return f"above {lo}{unit}, up to {hi}{unit}"
+        if self.hi_open:
+            return f"{lo}{unit} or more, below {hi}{unit}"
+        return f"{lo} to {hi}{unit}"
+
+    def help_text(self, text: str) -> str:
+        return f"{text} ({'whole number, ' if self.integer else ''}{self.describe()})".replace("%", "%%")
+
+    def __call__(self, text: str) -> float:
+        from briefer.safetext import escape_text, excerpt
+
+        shown = excerpt(text.strip(), 20)
+        typed = escape_text(text.strip()[:20])
+        try:
+            value = float(text)
+        except ValueError:
+            raise argparse.ArgumentTypeError(f"expected a number {self.describe()}, got {shown}") from None
+        if not math.isfinite(value):
+            raise argparse.ArgumentTypeError(f"expected a finite number {self.describe()}, got {shown}")
+        if self.integer and not value.is_integer():
+            raise argparse.ArgumentTypeError(f"expected a whole number {self.describe()}, got {shown}")
+        below = value <= self.lo if self.lo_open else value < self.lo
+        above = value >= self.hi if self.hi_open else value > self.hi
+        if below or above:
+            hint = self.hint(value) if self.hint is not None else ""
+            raise argparse.ArgumentTypeError(f"expected {self.describe()}, got {typed}{hint}")
+        return int(value) if self.integer else value
+
+    def __repr__(self) -> str:
+        return f"ranged({self.describe()})"
+
+
+def existing_folder(text: str) -> str:
+    """argparse type: a folder that exists (an absent or unreadable one is named at once)."""
+    import os
+
+    from briefer.safetext import excerpt
+
+    if not text.strip():
+        raise argparse.ArgumentTypeError("expected a folder, got an empty value")
+    if not os.path.isdir(os.path.expanduser(text)):
+        raise argparse.ArgumentTypeError(f"no such folder: {excerpt(text, 80)}")
+    return text
+
+
+def non_empty(text: str) -> str:
+    """argparse type: text that is not empty or blank (an empty option is never silently ignored)."""
+    if not text.strip():
+        raise argparse.ArgumentTypeError("expected a value, got an empty one")
+    return text

@@ -7,9 +7,17 @@ import argparse
 import math
 from typing import Any
 
-from briefer.commands._common import finite_float
+from briefer.commands._common import existing_folder, non_empty, ranged
 from briefer.demo import SITUATION as DEMO
 from briefer.vocabulary import CRITERIA_SETS
+
+
+def _inhg_hint(value: float) -> str:
+    """A likely slip: an altimeter setting typed without its decimal point (3012 for 30.12)."""
+    for factor in (0.01, 0.1):
+        if 25.7 <= value * factor <= 32.2:
+            return f" (did you mean {value * factor:.2f}?)"
+    return ""
 
 
 def add_situation_arguments(parser: argparse.ArgumentParser, *, demo: bool = True) -> None:
@@ -17,35 +25,41 @@ def add_situation_arguments(parser: argparse.ArgumentParser, *, demo: bool = Tru
     if demo:
         g.add_argument("--demo", action="store_true",
                        help="the built-in invented case (other options override its parts)")
-    g.add_argument("--profile", metavar="FILE|NAME", help="aircraft profile (a YAML file or a profile name)")
-    g.add_argument("--configuration", metavar="NAME", help="configuration of the profile (default: its own)")
-    g.add_argument("--airfield", metavar="FILE|NAME", help="airfield (a YAML file, ident or name)")
-    g.add_argument("--approach", metavar="NAME", help="approach name as in the airfield file")
-    g.add_argument("--runway", metavar="DES", help="landing runway, e.g. 27")
+    g.add_argument("--profile", type=non_empty, metavar="FILE|NAME", help="aircraft profile (a YAML file or a profile name)")
+    g.add_argument("--configuration", type=non_empty, metavar="NAME", help="configuration of the profile (default: its own)")
+    g.add_argument("--airfield", type=non_empty, metavar="FILE|NAME", help="airfield (a YAML file, ident or name)")
+    g.add_argument("--approach", type=non_empty, metavar="NAME", help="approach name as in the airfield file")
+    g.add_argument("--runway", type=non_empty, metavar="DES", help="landing runway, e.g. 27")
+    # The ranges are the model's (briefer.model WEIGHT_LB, BANK_DEG, OAT_C, ALTIMETER_*,
+    # WX_VISIBILITY_SM, CEILING_FT), metric ones converted and rounded inward; kept literal so
+    # that --help imports nothing heavy (check_options checks them again against the model).
     wt = g.add_mutually_exclusive_group()
-    wt.add_argument("--weight-lb", type=finite_float, metavar="W", help="landing weight (default: maximum)")
-    wt.add_argument("--weight-kg", type=finite_float, metavar="W", help="landing weight in kilograms")
-    g.add_argument("--bank-deg", type=finite_float, metavar="B", help="planned bank (default: the profile's)")
+    wt.add_argument("--weight-lb", type=ranged(300, 1_500_000, "pounds"), metavar="W",
+                    help="landing weight (default: maximum)")
+    wt.add_argument("--weight-kg", type=ranged(137, 680_388, "kilograms"), metavar="W",
+                    help="landing weight in kilograms")
+    g.add_argument("--bank-deg", type=ranged(5, 60, "degrees"), metavar="B", help="planned bank (default: the profile's)")
     g.add_argument("--criteria", choices=CRITERIA_SETS,
                    help="criteria set (default: the approach's own)")
     w = parser.add_argument_group("weather (values given here override a --metar report)")
-    w.add_argument("--metar", metavar="REPORT", help="a METAR/SPECI report to fill the weather")
-    w.add_argument("--wind", metavar="DDD/SS[GGG]", help="wind, e.g. 250/15G25 or VRB/5")
+    w.add_argument("--metar", type=non_empty, metavar="REPORT", help="a METAR/SPECI report to fill the weather")
+    w.add_argument("--wind", type=non_empty, metavar="DDD/SS[GGG]", help="wind, e.g. 250/15G25 or VRB/5")
     w.add_argument("--wind-is", choices=("true", "magnetic"), default="true",
                    help="reference of --wind directions (METAR: true; tower/ATIS: magnetic)")
-    w.add_argument("--oat-c", type=finite_float, metavar="T", help="surface temperature")
+    w.add_argument("--oat-c", type=ranged(-90, 60, "degrees Celsius"), metavar="T", help="surface temperature")
     alt = w.add_mutually_exclusive_group()
-    alt.add_argument("--altimeter-inhg", type=finite_float, metavar="X")
-    alt.add_argument("--altimeter-hpa", type=finite_float, metavar="X")
+    alt.add_argument("--altimeter-inhg", type=ranged(25.7, 32.2, "inches of mercury", hint=_inhg_hint), metavar="X")
+    alt.add_argument("--altimeter-hpa", type=ranged(870, 1090, "hectopascals"), metavar="X")
     vis = w.add_mutually_exclusive_group()
-    vis.add_argument("--visibility-sm", type=finite_float, metavar="V", help="reported visibility")
-    vis.add_argument("--visibility-m", type=finite_float, metavar="V", help="reported visibility in metres")
+    vis.add_argument("--visibility-sm", type=ranged(0, 100, "statute miles"), metavar="V", help="reported visibility")
+    vis.add_argument("--visibility-m", type=ranged(0, 160_934, "metres"), metavar="V",
+                     help="reported visibility in metres")
     ceil = w.add_mutually_exclusive_group()
-    ceil.add_argument("--ceiling-ft", type=finite_float, metavar="C", help="reported ceiling above the airport")
-    ceil.add_argument("--ceiling-m", type=finite_float, metavar="C", help="reported ceiling in metres")
-    parser.add_argument("--profile-dir", action="append", default=[], metavar="DIR",
+    ceil.add_argument("--ceiling-ft", type=ranged(0, 50_000, "feet"), metavar="C", help="reported ceiling above the airport")
+    ceil.add_argument("--ceiling-m", type=ranged(0, 15_240, "metres"), metavar="C", help="reported ceiling in metres")
+    parser.add_argument("--profile-dir", action="append", default=[], type=existing_folder, metavar="DIR",
                         help="also look for profiles here (repeatable)")
-    parser.add_argument("--airfield-dir", action="append", default=[], metavar="DIR",
+    parser.add_argument("--airfield-dir", action="append", default=[], type=existing_folder, metavar="DIR",
                         help="also look for airfields here (repeatable)")
 
 

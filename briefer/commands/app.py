@@ -15,11 +15,12 @@ DESCRIPTION = ("Open the briefing app. With no situation options it opens on the
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
+    from briefer.commands._common import non_empty
     from briefer.commands._request import add_situation_arguments
 
     add_situation_arguments(parser)
     a = parser.add_argument_group("app")
-    a.add_argument("--open", metavar="FILE", help="open inputs saved from the app (YAML)")
+    a.add_argument("--open", type=non_empty, metavar="FILE", help="open inputs saved from the app (YAML)")
     a.add_argument("--ascii", action="store_true",
                    help="draw in plain ASCII (also BRIEFER_ASCII=1; automatic on the Linux console)")
     a.add_argument("--night", action="store_true", help="start in the high-contrast night theme")

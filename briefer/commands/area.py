@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 from typing import Any
 
-from briefer.commands._common import add_json_flag, finite_float
+from briefer.commands._common import add_json_flag, ranged
 from briefer.vocabulary import CATEGORIES, CRITERIA_SETS
 
 NAME = "area"
@@ -26,17 +26,17 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="approach category (the one that applies at the circling speed)")
     parser.add_argument("--criteria", choices=CRITERIA_SETS, required=True,
                         help="design criteria of the procedure (see the chart)")
-    parser.add_argument("--mda-ft", type=finite_float, metavar="M",
+    parser.add_argument("--mda-ft", type=ranged(-1500, 30_000, "ft"), metavar="M",
                         help="circling MDA, ft MSL (needed for terps-expanded)")
-    parser.add_argument("--airport-elevation-ft", type=finite_float, metavar="E",
+    parser.add_argument("--airport-elevation-ft", type=ranged(-1500, 15_000, "ft"), metavar="E",
                         help="aerodrome elevation, ft MSL (needed for icao)")
-    parser.add_argument("--tas-kt", type=finite_float, metavar="V",
+    parser.add_argument("--tas-kt", type=ranged(20, 400, "kt"), metavar="V",
                         help="this aircraft's TAS at the MDA, kt (shows the radius it needs)")
-    parser.add_argument("--bank-deg", type=finite_float, metavar="B",
+    parser.add_argument("--bank-deg", type=ranged(1, 60, "deg"), metavar="B",
                         help="planned bank for the radius needed, deg (with --tas-kt)")
-    parser.add_argument("--wind-kt", type=finite_float, metavar="W", default=0.0,
+    parser.add_argument("--wind-kt", type=ranged(0, 150, "kt"), metavar="W", default=0.0,
                         help="today's wind speed, added to TAS as the design does, kt (default 0)")
-    parser.add_argument("--straight-segment-nm", type=finite_float, metavar="S",
+    parser.add_argument("--straight-segment-nm", type=ranged(0, 5, "NM"), metavar="S",
                         help="straight segment S for the radius needed, NM (default: the "
                         "category's Doc 8168 value 0.3/0.4/0.5/0.6/0.7)")
     add_json_flag(parser)

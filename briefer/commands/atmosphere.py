@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 from typing import Any
 
-from briefer.commands._common import add_json_flag, finite_float
+from briefer.commands._common import add_json_flag, ranged
 
 NAME = "atmosphere"
 HELP = "pressure and density altitude, ISA temperature and TAS at an altitude"
@@ -19,9 +19,9 @@ ORDER = 31
 def add_altimeter_arguments(parser: argparse.ArgumentParser) -> None:
     """--altimeter-inhg | --altimeter-hpa (mutually exclusive). Shared with `briefer turn`."""
     group = parser.add_mutually_exclusive_group()
-    group.add_argument("--altimeter-inhg", type=finite_float, metavar="X",
+    group.add_argument("--altimeter-inhg", type=ranged(25.7, 32.2, "inHg"), metavar="X",
                        help="altimeter setting (QNH) in inches of mercury, e.g. 29.92")
-    group.add_argument("--altimeter-hpa", type=finite_float, metavar="X",
+    group.add_argument("--altimeter-hpa", type=ranged(870, 1090, "hPa"), metavar="X",
                        help="altimeter setting (QNH) in hectopascals, e.g. 1013")
 
 
@@ -51,13 +51,13 @@ def air_data_payload(air: Any) -> dict[str, Any]:
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    parser.add_argument("--altitude-ft", type=finite_float, required=True, metavar="A",
+    parser.add_argument("--altitude-ft", type=ranged(-2000, 60_000, "ft"), required=True, metavar="A",
                         help="altitude (indicated with the altimeter setting given, else pressure "
                         "altitude), -2000 to 60000 ft")
-    parser.add_argument("--oat-c", type=finite_float, metavar="T",
+    parser.add_argument("--oat-c", type=ranged(-90, 60, "degC"), metavar="T",
                         help="outside air temperature at that altitude in degC (default: ISA)")
     add_altimeter_arguments(parser)
-    parser.add_argument("--ias-kt", type=finite_float, metavar="V",
+    parser.add_argument("--ias-kt", type=ranged(1, 600, "kt"), metavar="V",
                         help="indicated airspeed (taken as CAS) for a TAS, kt")
     add_json_flag(parser)
 

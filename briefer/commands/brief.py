@@ -10,13 +10,13 @@ HELP = "the circling brief: category, minimums, area, plan in the wind, sight pi
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    from briefer.commands._common import add_json_flag
+    from briefer.commands._common import add_json_flag, non_empty
     from briefer.commands._request import add_situation_arguments
 
     add_situation_arguments(parser)
     add_json_flag(parser)
     out = parser.add_argument_group("kneeboard card")
-    out.add_argument("--out", metavar="FILE", help="write the card to FILE (.pdf or .txt)")
+    out.add_argument("--out", type=non_empty, metavar="FILE", help="write the card to FILE (.pdf or .txt)")
     out.add_argument("--format", choices=("pdf", "txt"), help="card format (default: from the suffix)")
     out.add_argument("--page", choices=("half-letter", "a5"), default="half-letter", help="PDF page size")
     out.add_argument("--force", action="store_true", help="overwrite an existing card")

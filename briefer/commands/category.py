@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 from typing import Any
 
-from briefer.commands._common import add_json_flag, finite_float
+from briefer.commands._common import add_json_flag, ranged
 from briefer.vocabulary import CRITERIA_SETS
 
 NAME = "category"
@@ -20,10 +20,10 @@ ORDER = 20
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    parser.add_argument("--vref-kt", type=finite_float, required=True, metavar="V",
+    parser.add_argument("--vref-kt", type=ranged(20, 300, "kt"), required=True, metavar="V",
                         help="VREF at maximum certificated landing weight, kt "
                         "(without a VREF, pass 1.3 x VSO)")
-    parser.add_argument("--circling-speed-kt", type=finite_float, metavar="C",
+    parser.add_argument("--circling-speed-kt", type=ranged(20, 300, "kt"), metavar="C",
                         help="IAS planned in the circle, kt")
     parser.add_argument("--criteria", choices=CRITERIA_SETS, default="terps-expanded",
                         help="design criteria (default terps-expanded; both TERPS sets give the "

@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 from typing import Any
 
-from briefer.commands._common import add_json_flag, finite_float
+from briefer.commands._common import add_json_flag, ranged
 
 NAME = "coldtemp"
 HELP = "cold-temperature altitude correction (ICAO formula, AIM/ICAO table)"
@@ -18,11 +18,11 @@ ORDER = 32
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    parser.add_argument("--airport-elevation-ft", type=finite_float, required=True, metavar="E",
+    parser.add_argument("--airport-elevation-ft", type=ranged(-1500, 15_000, "ft"), required=True, metavar="E",
                         help="elevation of the aerodrome (altimeter-setting source), ft")
-    parser.add_argument("--oat-c", type=finite_float, required=True, metavar="T",
+    parser.add_argument("--oat-c", type=ranged(-90, 60, "degC"), required=True, metavar="T",
                         help="reported aerodrome temperature, degC")
-    parser.add_argument("--altitude-ft", type=finite_float, required=True, metavar="A",
+    parser.add_argument("--altitude-ft", type=ranged(-1500, 30_000, "ft"), required=True, metavar="A",
                         help="published altitude to correct (MSL), ft")
     parser.add_argument("--method", choices=("sea-level-table", "airport-elevation"),
                         default="sea-level-table",

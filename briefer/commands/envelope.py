@@ -16,21 +16,22 @@ DESCRIPTION = (HELP + ". Solves the plans of the situation (same options as 'bri
                "direction and speed axes.")
 
 SCHEMA = "briefer.envelope/1"
+MAX_CELLS = 12_000           # bound of the grid (the default 36 x 41 has 1,476 cells)
 MAX_WIND_KT = 150.0          # the model's limit for a wind speed (briefer.model WIND_SPEED_KT)
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    from briefer.commands._common import add_json_flag, finite_float
+    from briefer.commands._common import add_json_flag, ranged
     from briefer.commands._request import add_situation_arguments
 
     add_situation_arguments(parser)
     add_json_flag(parser)
     g = parser.add_argument_group("envelope")
-    g.add_argument("--direction-step-deg", type=finite_float, default=10.0, metavar="D",
+    g.add_argument("--direction-step-deg", type=ranged(1, 90, "deg"), default=10.0, metavar="D",
                    help="step of the wind directions (default 10; must divide 360)")
-    g.add_argument("--max-wind-kt", type=finite_float, default=40.0, metavar="W",
+    g.add_argument("--max-wind-kt", type=ranged(1, MAX_WIND_KT, "kt"), default=40.0, metavar="W",
                    help="fastest wind of the grid (default 40)")
-    g.add_argument("--speed-step-kt", type=finite_float, default=1.0, metavar="S",
+    g.add_argument("--speed-step-kt", type=ranged(0.5, 50, "kt"), default=1.0, metavar="S",
                    help="step of the wind speeds (default 1)")
     out = parser.add_argument_group("display")
     out.add_argument("--ascii", action="store_true", help="ASCII glyphs only (no Unicode shades)")
@@ -38,14 +39,16 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                      help="picture up = the landing direction (relative, default) or true north")
     out.add_argument("--view", choices=("both", "table", "picture"), default="both",
                      help="what to print (default both)")
-    out.add_argument("--band-kt", type=finite_float, default=5.0, metavar="B",
+    out.add_argument("--band-kt", type=ranged(1, MAX_WIND_KT, "kt"), default=5.0, metavar="B",
                      help="width of the table's speed bands (default 5)")
-    out.add_argument("--radius-rows", type=int, default=12, metavar="N",
+    out.add_argument("--radius-rows", type=ranged(2, 40, "rows", integer=True), default=12, metavar="N",
                      help="radius of the polar picture in text rows (default 12)")
 
 
 def grid_axes(args: argparse.Namespace) -> tuple[Any, Any]:
     """The direction and speed axes the options ask for (DomainError when out of range)."""
+    import math
+
     import numpy as np
 
     from briefer.errors import DomainError
@@ -62,6 +65,11 @@ def grid_axes(args: argparse.Namespace) -> tuple[Any, Any]:
         raise DomainError(f"--band-kt {args.band_kt:g}: must be positive")
     if not 2 <= args.radius_rows <= 40:
         raise DomainError(f"--radius-rows {args.radius_rows}: must be 2 to 40")
+    cells = round(n) * (math.floor(vmax / dv + 1e-9) + 2)
+    if cells > MAX_CELLS:
+        raise DomainError(f"the grid of {round(n)} directions by about {cells // round(n)} speeds has "
+                          f"{cells:,} cells, more than the limit of {MAX_CELLS:,}: raise "
+                          "--direction-step-deg or --speed-step-kt, or lower --max-wind-kt")
     dirs = np.arange(round(n)) * step
     speeds = np.arange(0.0, vmax + dv / 2.0, dv)
     speeds = speeds[speeds < vmax - 1e-9]

@@ -15,29 +15,29 @@ DESCRIPTION = (HELP + ". Searches the folders given with --profile-dir/--airfiel
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    from briefer.commands._common import add_json_flag
+    from briefer.commands._common import add_json_flag, existing_folder
 
     which = parser.add_mutually_exclusive_group()
     which.add_argument("--profiles", action="store_true", help="aircraft profiles only")
     which.add_argument("--airfields", action="store_true", help="airfields only")
-    parser.add_argument("--profile-dir", action="append", default=[], metavar="DIR",
+    parser.add_argument("--profile-dir", action="append", default=[], type=existing_folder, metavar="DIR",
                         help="also look for profiles here (repeatable)")
-    parser.add_argument("--airfield-dir", action="append", default=[], metavar="DIR",
+    parser.add_argument("--airfield-dir", action="append", default=[], type=existing_folder, metavar="DIR",
                         help="also look for airfields here (repeatable)")
     add_json_flag(parser)
 
 
 def _read_model(entry: Any) -> Any:
     """The model of a catalog entry that loads (built-in files through importlib.resources)."""
-    from pathlib import Path
-
     from briefer.io.catalog import builtin_files
     from briefer.io.yamlload import load_bytes
 
     if entry.builtin:
         data = next(t for t in builtin_files(entry.kind) if str(t) == entry.source).read_bytes()
     else:
-        data = Path(entry.source).read_bytes()
+        from briefer.io.safefile import read_regular_file
+
+        data = read_regular_file(entry.source)
     return load_bytes(data, file=entry.source, expected_kind=entry.kind)
 
 

@@ -24,7 +24,7 @@ PLAN_MAX_COLS = 100
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    from briefer.commands._common import add_json_flag
+    from briefer.commands._common import add_json_flag, existing_folder
 
     parser.add_argument("--airfield", required=True, metavar="FILE|NAME",
                         help="airfield (a YAML file, ident or name)")
@@ -37,7 +37,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--plan", action="store_true",
                         help="also draw the areas and the controlling obstacles (braille, or ASCII "
                         "with BRIEFER_ASCII=1)")
-    parser.add_argument("--airfield-dir", action="append", default=[], metavar="DIR",
+    parser.add_argument("--airfield-dir", action="append", default=[], type=existing_folder, metavar="DIR",
                         help="also look for airfields here (repeatable)")
     add_json_flag(parser)
 

@@ -37,14 +37,16 @@ def _count(text: str) -> int:
 
 
 def _dirs(p: argparse.ArgumentParser) -> None:
-    p.add_argument("--profile-dir", action="append", default=[], metavar="DIR",
+    from briefer.commands._common import existing_folder
+
+    p.add_argument("--profile-dir", action="append", default=[], type=existing_folder, metavar="DIR",
                    help="also look for profiles here (repeatable)")
-    p.add_argument("--airfield-dir", action="append", default=[], metavar="DIR",
+    p.add_argument("--airfield-dir", action="append", default=[], type=existing_folder, metavar="DIR",
                    help="also look for airfields here (repeatable)")
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    from briefer.commands._common import add_json_flag
+    from briefer.commands._common import add_json_flag, non_empty
 
     sub = parser.add_subparsers(dest="action", metavar="ACTION", parser_class=type(parser))
     new = sub.add_parser("new", help="generate a scenario that exercises an emphasis",
@@ -58,7 +60,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     new.add_argument("--configuration", metavar="NAME", help="configuration (default: the profile's)")
     new.add_argument("--emphasis", choices=EMPHASES, help="what to exercise (default: drawn from the seed)")
     new.add_argument("--seed", type=_seed, metavar="N", help="seed (default: a fresh one, printed)")
-    new.add_argument("--out", metavar="FILE", help="write the scenario here (YAML); without it the YAML is printed")
+    new.add_argument("--out", type=non_empty, metavar="FILE", help="write the scenario here (YAML); without it the YAML is printed")
     new.add_argument("--force", action="store_true", help="overwrite an existing file")
     _dirs(new)
     add_json_flag(new)
@@ -83,7 +85,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     deck.add_argument("--emphasis", action="append", choices=EMPHASES,
                       help="emphasis to draw from (repeatable; default: all)")
     deck.add_argument("--seed", type=_seed, metavar="N", help="seed of the whole deck (default: a fresh one, printed)")
-    deck.add_argument("--out", required=True, metavar="FILE", help="the PDF to write")
+    deck.add_argument("--out", type=non_empty, required=True, metavar="FILE", help="the PDF to write")
     deck.add_argument("--page", choices=("half-letter", "a5", "letter", "a4"), default="letter",
                       help="page size (default letter)")
     deck.add_argument("--force", action="store_true", help="overwrite an existing file")
@@ -135,8 +137,8 @@ def _new(args: argparse.Namespace) -> int:
     out_dir = Path(args.out).parent if args.out else Path.cwd()
     gen = generate_scenario(airfield=airfield, profile=profile, emphasis=args.emphasis, seed=seed,
                             approach=args.approach, runway=args.runway, configuration=args.configuration,
-                            airfield_ref=reference_for(args.airfield, out_dir),
-                            profile_ref=reference_for(args.profile, out_dir))
+                            airfield_ref=reference_for(args.airfield, out_dir, name=airfield.ident),
+                            profile_ref=reference_for(args.profile, out_dir, name=profile.name))
     written = None
     if args.out:
         written = str(write_scenario(args.out, gen.scenario, overwrite=args.force))

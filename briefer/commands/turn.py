@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 from typing import Any
 
-from briefer.commands._common import add_json_flag, finite_float
+from briefer.commands._common import add_json_flag, ranged
 from briefer.commands.atmosphere import add_altimeter_arguments
 
 NAME = "turn"
@@ -17,15 +17,15 @@ ORDER = 30
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    parser.add_argument("--speed-kt", type=finite_float, required=True, metavar="V",
+    parser.add_argument("--speed-kt", type=ranged(1, 600, "kt"), required=True, metavar="V",
                         help="airspeed in kt (TAS unless --speed-is ias)")
     parser.add_argument("--speed-is", choices=("tas", "ias"), default="tas",
                         help="what --speed-kt is (default tas); ias is taken as CAS")
-    parser.add_argument("--bank-deg", type=finite_float, required=True, metavar="B",
-                        help="bank angle, 0 < B < 90 degrees")
-    parser.add_argument("--altitude-ft", type=finite_float, metavar="A",
+    parser.add_argument("--bank-deg", type=ranged(1, 80, "deg"), required=True, metavar="B",
+                        help="bank angle, degrees")
+    parser.add_argument("--altitude-ft", type=ranged(-2000, 60_000, "ft"), metavar="A",
                         help="altitude for --speed-is ias (indicated with the altimeter setting)")
-    parser.add_argument("--oat-c", type=finite_float, metavar="T",
+    parser.add_argument("--oat-c", type=ranged(-90, 60, "degC"), metavar="T",
                         help="outside air temperature at that altitude, degC (default: ISA)")
     add_altimeter_arguments(parser)
     add_json_flag(parser)

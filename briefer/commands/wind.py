@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 from typing import Any
 
-from briefer.commands._common import add_json_flag, finite_float
+from briefer.commands._common import add_json_flag, non_empty, ranged
 
 NAME = "wind"
 HELP = "headwind and crosswind components of a wind on a runway (steady and gust)"
@@ -18,15 +18,15 @@ ORDER = 33
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    parser.add_argument("--wind", required=True, metavar="W",
+    parser.add_argument("--wind", type=non_empty, required=True, metavar="W",
                         help="the wind, e.g. 270/15G25 or 27015G25KT (quote it if it has a space)")
     parser.add_argument("--wind-is", choices=("true", "magnetic"), default="true",
                         help="reference of the wind direction (default true, as in a METAR)")
-    parser.add_argument("--runway-heading-deg", type=finite_float, required=True, metavar="H",
+    parser.add_argument("--runway-heading-deg", type=ranged(0, 360, "deg"), required=True, metavar="H",
                         help="runway heading (or course), degrees")
     parser.add_argument("--runway-heading-is", choices=("magnetic", "true"), default="magnetic",
                         help="reference of the runway heading (default magnetic)")
-    parser.add_argument("--variation-deg", type=finite_float, metavar="V",
+    parser.add_argument("--variation-deg", type=ranged(-90, 90, "deg"), metavar="V",
                         help="magnetic variation, east positive (true = magnetic + east variation)")
     add_json_flag(parser)
 

@@ -46,6 +46,7 @@ from typing import Any, ClassVar
 
 from briefer import vocabulary
 from briefer.errors import BriefingError, DataFileError
+from briefer.safetext import excerpt
 from briefer.io.metar import MetarError, MetarReport, decode_metar, weather_from_metar
 from briefer.model import (
     WEIGHT_LB,
@@ -262,12 +263,27 @@ def _looks_like_path(text: str) -> bool:
     return "/" in text or os.sep in text or text.lower().endswith((".yaml", ".yml"))
 
 
-def _reference(text: str, base_dir: Path | None) -> str:
-    if base_dir is not None and _looks_like_path(text):
-        p = Path(os.path.expanduser(text))
-        if not p.is_absolute():
-            return str(base_dir / p)
-    return text
+REFERENCE_RULE = ("a catalog name, or a path to a YAML file inside the scenario's own folder "
+                  "(relative, no '..' out of it, no '~', not absolute)")
+
+
+def _reference(text: str, base_dir: Path | None) -> str | Path:
+    """What a scenario's ``airfield``/``profile`` names: a catalog name (a str), or a file (a Path)
+    inside `base_dir` (the scenario's folder, symbolic links resolved). Anything else, such as
+    ``/etc/passwd``, ``../../x.yaml`` or ``~/.bashrc``, is refused: a data file cannot make briefer
+    read a file outside its own folder. Without `base_dir` (a scenario built in memory) a path is
+    used as given."""
+    if not _looks_like_path(text):
+        return text
+    if base_dir is None:
+        return Path(os.path.expanduser(text))
+    if text.startswith("~") or os.path.isabs(text):
+        raise DataFileError(f"expected {REFERENCE_RULE}, got {excerpt(text, 40)}")
+    base = os.path.realpath(base_dir)
+    full = os.path.realpath(os.path.join(base, text))
+    if os.path.commonpath([base, full]) != base:
+        raise DataFileError(f"expected {REFERENCE_RULE}, got {excerpt(text, 40)} (outside the folder)")
+    return Path(full)
 
 
 def resolve_scenario(scenario: Scenario, *, base_dir: str | PathLike[str] | None = None,
@@ -288,11 +304,11 @@ def resolve_scenario(scenario: Scenario, *, base_dir: str | PathLike[str] | None
 
     base = Path(base_dir) if base_dir is not None else None
     try:
-        profile = catalog.find_profile(_reference(scenario.profile, base), dirs=profile_dirs)
+        profile = catalog.find_profile(_reference(scenario.profile, base), dirs=profile_dirs, names_only=True)
     except BriefingError as exc:
         raise fail(str(exc), "profile") from None
     try:
-        airfield = catalog.find_airfield(_reference(scenario.airfield, base), dirs=airfield_dirs)
+        airfield = catalog.find_airfield(_reference(scenario.airfield, base), dirs=airfield_dirs, names_only=True)
     except BriefingError as exc:
         raise fail(str(exc), "airfield") from None
     try:
@@ -353,18 +369,23 @@ def write_scenario(path: str | PathLike[str], scenario: Scenario, *, overwrite: 
     return write_text_atomic(path, scenario_yaml(scenario), overwrite=overwrite)
 
 
-def reference_for(path_or_name: str, out_dir: str | PathLike[str] | None) -> str:
+def reference_for(path_or_name: str, out_dir: str | PathLike[str] | None, *, name: str | None = None) -> str:
     """How a scenario written into `out_dir` should name an airfield or profile it was given:
-    a catalog name as is; a file relative to `out_dir` when possible, else absolute."""
-    if not _looks_like_path(path_or_name) and not Path(path_or_name).is_file():
+    a catalog name as is; a file inside `out_dir` by its path relative to `out_dir`; a file
+    elsewhere by `name` (its catalog name), since a scenario may only refer to files in its own
+    folder (see `_reference`), else by its absolute path (which loading then refuses, saying why)."""
+    if not _looks_like_path(path_or_name) and not os.path.isfile(path_or_name):
         return path_or_name
     p = Path(os.path.expanduser(path_or_name)).resolve()
     if out_dir is None:
         return str(p)
     try:
-        return os.path.relpath(p, Path(out_dir).resolve())
+        rel = os.path.relpath(p, Path(out_dir).resolve())
     except ValueError:   # pragma: no cover - another drive on Windows
-        return str(p)
+        return name or str(p)
+    if rel == os.pardir or rel.startswith(os.pardir + os.sep):
+        return name or str(p)
+    return rel
 
 
 __all__ = [

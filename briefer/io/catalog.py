@@ -33,8 +33,10 @@ from pathlib import Path
 from typing import Any
 
 from briefer.errors import BriefingError, DataFileError
-from briefer.io.yamlload import load_airfield, load_bytes, load_profile, read_yaml_mapping
+from briefer.io.safefile import read_regular_file
+from briefer.io.yamlload import load_airfield, load_bytes, load_profile, parse_yaml_mapping
 from briefer.model import KIND_AIRFIELD, KIND_PROFILE, AircraftProfile, Airfield, did_you_mean
+from briefer.safetext import excerpt
 
 CONFIG_KEYS = {KIND_PROFILE: "profile_dirs", KIND_AIRFIELD: "airfield_dirs"}
 _SUFFIXES = (".yaml", ".yml")
@@ -89,9 +91,12 @@ def config_path() -> Path:
 def load_config(path: str | PathLike[str] | None = None) -> CatalogConfig:
     """Read the config file (an absent file is an empty config; a bad one a `DataFileError`)."""
     p = Path(path) if path is not None else config_path()
-    if not p.exists():
+    if not os.path.lexists(p):
         return CatalogConfig()
-    doc = read_yaml_mapping(p)
+    data = read_regular_file(p, what="a YAML config file")
+    doc = parse_yaml_mapping(data, str(p), empty_message=(
+        "the config file is empty; expected a mapping with profile_dirs: and/or airfield_dirs: "
+        "(lists of folders), or delete the file"))
     for key in doc.data:
         if key not in CONFIG_KEYS.values():
             hint = did_you_mean(key, CONFIG_KEYS.values()) or f" (allowed: {', '.join(CONFIG_KEYS.values())})"
@@ -109,11 +114,11 @@ def load_config(path: str | PathLike[str] | None = None) -> CatalogConfig:
         for i, item in enumerate(value):
             where = f"{key}[{i}]"
             if not isinstance(item, str) or not item.strip():
-                raise doc.error(f"expected a folder path, got {item!r}", where)
+                raise doc.error(f"expected a folder path, got {excerpt(str(item), 40)}", where)
             folder = Path(os.path.expandvars(item.strip())).expanduser()
             if not folder.is_absolute():
                 folder = p.parent / folder
-            if not folder.is_dir():
+            if not os.path.isdir(folder):
                 raise doc.error(f"no such folder: {folder}", where)
             dirs.append(folder)
         found[key] = tuple(dirs)
@@ -160,7 +165,7 @@ def search_dirs(kind: str, dirs: Sequence[str | PathLike[str]] = (), *, use_conf
     """The user folders searched for a kind: `dirs`, then the config file's."""
     out = [Path(d).expanduser() for d in dirs or ()]
     for d in out:
-        if not d.is_dir():
+        if not os.path.isdir(d):
             raise DataFileError("no such folder", file=str(d))
     if use_config:
         out.extend(load_config().dirs(kind))
@@ -170,9 +175,13 @@ def search_dirs(kind: str, dirs: Sequence[str | PathLike[str]] = (), *, use_conf
 def _sources(kind: str, dirs: Sequence[str | PathLike[str]], use_config: bool) -> list[_Source]:
     sources = []
     for folder in search_dirs(kind, dirs, use_config=use_config):
-        for f in sorted(folder.iterdir()):
-            if f.is_file() and f.suffix in _SUFFIXES:
-                sources.append(_Source(str(f), f.stem, f.read_bytes, False))
+        try:
+            files = sorted(folder.iterdir())
+        except OSError as exc:
+            raise DataFileError(f"cannot list the folder ({exc.strerror or exc})", file=str(folder)) from None
+        for f in files:
+            if f.suffix in _SUFFIXES and os.path.isfile(f):
+                sources.append(_Source(str(f), f.stem, lambda f=f: read_regular_file(f), False))
     for t in builtin_files(kind):
         sources.append(_Source(str(t), t.name.rsplit(".", 1)[0], t.read_bytes, True))
     return sources
@@ -220,7 +229,7 @@ def _loose(text: str) -> str:
 
 
 def _looks_like_path(text: str) -> bool:
-    return "/" in text or os.sep in text or text.lower().endswith(_SUFFIXES) or Path(text).is_file()
+    return "/" in text or os.sep in text or text.lower().endswith(_SUFFIXES) or os.path.isfile(text)
 
 
 def _names(model: Any, kind: str) -> Iterable[str]:
@@ -228,9 +237,9 @@ def _names(model: Any, kind: str) -> Iterable[str]:
 
 
 def _find(kind: str, name_or_path: str | PathLike[str], dirs: Sequence[str | PathLike[str]],
-          use_config: bool) -> Any:
+          use_config: bool, names_only: bool = False) -> Any:
     text = str(name_or_path).strip()
-    if isinstance(name_or_path, PathLike) or _looks_like_path(text):
+    if isinstance(name_or_path, PathLike) or (not names_only and _looks_like_path(text)):
         path = os.path.expanduser(text)
         return load_profile(path) if kind == KIND_PROFILE else load_airfield(path)
     wanted = _loose(text)
@@ -247,16 +256,18 @@ def _find(kind: str, name_or_path: str | PathLike[str], dirs: Sequence[str | Pat
         available.append(model.name if kind == KIND_PROFILE else model.ident)
     hint = did_you_mean(text, available)
     listing = ", ".join(sorted(set(available))) or "none"
-    raise NotFoundError(f"no {_WHAT[kind]} named '{text}'{hint}; available: {listing} (or give a file path)")
+    raise NotFoundError(f"no {_WHAT[kind]} named {excerpt(text)}{hint}; available: {listing} (or give a file path)")
 
 
 def find_profile(name_or_path: str | PathLike[str], *, dirs: Sequence[str | PathLike[str]] = (),
-                 use_config: bool = True) -> AircraftProfile:
-    """The aircraft profile with this name (or in this file)."""
-    return _find(KIND_PROFILE, name_or_path, dirs, use_config)  # type: ignore[no-any-return]
+                 use_config: bool = True, names_only: bool = False) -> AircraftProfile:
+    """The aircraft profile with this name (or in this file; with `names_only` a str is only ever
+    a name, a file is given as a Path)."""
+    return _find(KIND_PROFILE, name_or_path, dirs, use_config, names_only)  # type: ignore[no-any-return]
 
 
 def find_airfield(name_or_path: str | PathLike[str], *, dirs: Sequence[str | PathLike[str]] = (),
-                  use_config: bool = True) -> Airfield:
-    """The airfield with this ident or name (or in this file)."""
-    return _find(KIND_AIRFIELD, name_or_path, dirs, use_config)  # type: ignore[no-any-return]
+                  use_config: bool = True, names_only: bool = False) -> Airfield:
+    """The airfield with this ident or name (or in this file; with `names_only` a str is only
+    ever a name, a file is given as a Path)."""
+    return _find(KIND_AIRFIELD, name_or_path, dirs, use_config, names_only)  # type: ignore[no-any-return]

@@ -23,7 +23,6 @@ import re
 from collections.abc import Mapping
 from dataclasses import dataclass, field
 from os import PathLike
-from pathlib import Path
 from typing import Any
 
 import yaml
@@ -31,6 +30,7 @@ from yaml.constructor import ConstructorError, SafeConstructor
 from yaml.nodes import MappingNode, Node, ScalarNode, SequenceNode
 
 from briefer.errors import DataFileError
+from briefer.io.safefile import MAX_DATA_BYTES, read_regular_file
 from briefer.model import (
     KIND_AIRFIELD,
     KIND_PROFILE,
@@ -38,12 +38,16 @@ from briefer.model import (
     AircraftProfile,
     Airfield,
     FieldError,
+    _describe,
     did_you_mean,
     join_path,
 )
+from briefer.safetext import control_character, excerpt
 
-MAX_FILE_BYTES = 5_000_000
+MAX_FILE_BYTES = MAX_DATA_BYTES
 MAX_NODES = 200_000
+MAX_DEPTH = 64
+MAX_DIGITS = 100
 
 _MODELS: dict[str, Any] = {KIND_PROFILE: AircraftProfile, KIND_AIRFIELD: Airfield}
 _INT_TAG = "tag:yaml.org,2002:int"
@@ -51,6 +55,7 @@ _STR_TAG = "tag:yaml.org,2002:str"
 _MAP_TAG = "tag:yaml.org,2002:map"
 _SEQ_TAG = "tag:yaml.org,2002:seq"
 _MERGE_TAG = "tag:yaml.org,2002:merge"
+_FLOAT_TAG = "tag:yaml.org,2002:float"
 _DECIMAL = re.compile(r"[-+]?[0-9]+")
 _SCALAR_TAGS = {f"tag:yaml.org,2002:{t}" for t in ("str", "int", "float", "bool", "null", "timestamp")}
 
@@ -108,25 +113,12 @@ def _parent(path: str) -> str:
 # --------------------------------------------------------------------------------------------
 def _read_bytes(path: str | PathLike[str]) -> tuple[bytes, str]:
     name = str(path)
-    p = Path(path)
-    try:
-        if p.is_dir():
-            raise DataFileError("is a directory, expected a YAML file", file=name)
-        with open(p, "rb") as fh:
-            data = fh.read(MAX_FILE_BYTES + 1)
-    except FileNotFoundError:
-        raise DataFileError("no such file", file=name) from None
-    except IsADirectoryError:
-        raise DataFileError("is a directory, expected a YAML file", file=name) from None
-    except PermissionError:
-        raise DataFileError("cannot read the file (permission denied)", file=name) from None
-    except OSError as exc:
-        raise DataFileError(f"cannot read the file ({exc.strerror or exc})", file=name) from None
-    return data, name
+    return read_regular_file(path, limit=MAX_FILE_BYTES, what="a YAML file"), name
 
 
-def parse_yaml_mapping(data: bytes, file: str) -> YamlDocument:
-    """Parse bytes of YAML into a `YamlDocument` whose top level is a mapping."""
+def parse_yaml_mapping(data: bytes, file: str, *, empty_message: str | None = None) -> YamlDocument:
+    """Parse bytes of YAML into a `YamlDocument` whose top level is a mapping (`empty_message`:
+    what an empty or comment-only file is told, default the data-file wording)."""
     if len(data) > MAX_FILE_BYTES:
         raise DataFileError(f"the file is larger than {MAX_FILE_BYTES // 1_000_000} MB; "
                             "expected a small YAML file", file=file)
@@ -139,10 +131,14 @@ def parse_yaml_mapping(data: bytes, file: str) -> YamlDocument:
         raise DataFileError(f"expected UTF-8 text, got the byte 0x{data[exc.start]:02x}", file=file,
                             line=line) from None
     node = _fast_node(text)
-    loader = _Loader(text)
+    loader = None
     try:
+        loader = _Loader(text)
         if node is _FAILED:
             node = loader.get_single_node()
+    except RecursionError:
+        raise DataFileError(f"nested more than {MAX_DEPTH} levels deep; expected a small YAML file",
+                            file=file) from None
     except yaml.MarkedYAMLError as exc:
         raise DataFileError(f"not valid YAML: {_yaml_problem(exc)}", file=file,
                             line=_mark_line(exc.problem_mark or exc.context_mark)) from None
@@ -153,14 +149,17 @@ def parse_yaml_mapping(data: bytes, file: str) -> YamlDocument:
     except yaml.YAMLError as exc:
         raise DataFileError(f"not valid YAML: {exc}", file=file) from None
     finally:
-        loader.dispose()
+        if loader is not None:
+            loader.dispose()
+    if node is None and empty_message is not None:
+        raise DataFileError(empty_message, file=file)
     if node is None:
         raise DataFileError(f"the file is empty; expected a YAML mapping starting with "
                             f"'kind: {KIND_PROFILE}' or 'kind: {KIND_AIRFIELD}'", file=file)
     doc = YamlDocument(data={}, file=file)
     doc.lines[""] = node.start_mark.line + 1
     if not isinstance(node, MappingNode):
-        got = "a list" if isinstance(node, SequenceNode) else f"the single value {node.value!r}"
+        got = "a list" if isinstance(node, SequenceNode) else f"the single value {excerpt(node.value)}"
         raise DataFileError(f"expected a mapping of keys at the top level, got {got}", file=file,
                             line=node.start_mark.line + 1)
     builder = _Builder(doc)
@@ -213,8 +212,10 @@ class _Builder:
     def fail(self, message: str, node: Node, path: str) -> DataFileError:
         return DataFileError(message, file=self.doc.file, line=node.start_mark.line + 1, context=path or None)
 
-    def convert(self, node: Node, path: str) -> Any:
+    def convert(self, node: Node, path: str, depth: int = 0) -> Any:
         self.count += 1
+        if depth > MAX_DEPTH:
+            raise self.fail(f"nested more than {MAX_DEPTH} levels deep", node, excerpt(path, 40)[1:-1])
         if self.count > MAX_NODES:
             raise self.fail(f"more than {MAX_NODES} values (too many aliases?)", node, path)
         if id(node) in self.active:
@@ -224,12 +225,12 @@ class _Builder:
         self.active.add(id(node))
         try:
             if isinstance(node, MappingNode):
-                return self.mapping(node, path)
-            return self.sequence(node, path)  # type: ignore[arg-type]
+                return self.mapping(node, path, depth)
+            return self.sequence(node, path, depth)  # type: ignore[arg-type]
         finally:
             self.active.discard(id(node))
 
-    def mapping(self, node: MappingNode, path: str) -> dict[str, Any]:
+    def mapping(self, node: MappingNode, path: str, depth: int) -> dict[str, Any]:
         if node.tag != _MAP_TAG:
             raise self.fail(f"unsupported YAML tag {node.tag!r}", node, path)
         out: dict[str, Any] = {}
@@ -239,35 +240,47 @@ class _Builder:
             if not isinstance(key_node, ScalarNode):
                 raise self.fail("expected a plain key, got a list or mapping used as a key", key_node, path)
             key = key_node.value
+            bad = control_character(key)
+            if bad is not None:
+                raise self.fail(f"a control character ({bad}) in the key {excerpt(key)}", key_node, path)
             sub = join_path(path, key)
             line = key_node.start_mark.line + 1
             if key in out:
                 raise self.fail(f"duplicate key '{key}' (first given on line {self.doc.lines[sub]})",
                                 key_node, sub)
             self.doc.lines[sub] = line
-            out[key] = self.convert(value_node, sub)
+            out[key] = self.convert(value_node, sub, depth + 1)
         return out
 
-    def sequence(self, node: SequenceNode, path: str) -> list[Any]:
+    def sequence(self, node: SequenceNode, path: str, depth: int) -> list[Any]:
         if node.tag != _SEQ_TAG:
             raise self.fail(f"unsupported YAML tag {node.tag!r}", node, path)
         items = []
         for i, item in enumerate(node.value):
             sub = f"{path}[{i}]"
             self.doc.lines[sub] = item.start_mark.line + 1
-            items.append(self.convert(item, sub))
+            items.append(self.convert(item, sub, depth + 1))
         return items
 
     def scalar(self, node: ScalarNode, path: str) -> Any:
         if node.tag not in _SCALAR_TAGS:
-            raise self.fail(f"unsupported YAML tag {node.tag!r}", node, path)
-        if node.tag == _INT_TAG and _DECIMAL.fullmatch(node.value):
-            return int(node.value, 10)
+            raise self.fail(f"unsupported YAML tag {excerpt(node.tag)}", node, path)
+        bad = control_character(node.value, allow_newline=True)
+        if bad is not None:
+            raise self.fail(f"a control character ({bad}) in the text {excerpt(node.value)}", node, path)
+        if node.tag in (_INT_TAG, _FLOAT_TAG) and len(node.value) > MAX_DIGITS:
+            raise self.fail(f"a number of {len(node.value)} characters; expected at most {MAX_DIGITS}",
+                            node, path)
         try:
+            if node.tag == _INT_TAG and _DECIMAL.fullmatch(node.value):
+                return int(node.value, 10)
             return self.constructor.construct_object(node, deep=True)
-        except (ConstructorError, ValueError) as exc:
-            problem = getattr(exc, "problem", None) or str(exc)
-            raise self.fail(f"cannot read the value {node.value!r}: {problem}", node, path) from None
+        except ConstructorError as exc:
+            raise self.fail(f"cannot read the value {excerpt(node.value)}: {exc.problem or exc}",
+                            node, path) from None
+        except (ValueError, KeyError, TypeError, OverflowError, IndexError, AttributeError):
+            what = node.tag.rsplit(":", 1)[-1]
+            raise self.fail(f"cannot read the value {excerpt(node.value)} as {what}", node, path) from None
 
 
 def read_yaml_mapping(path: str | PathLike[str]) -> YamlDocument:
@@ -285,7 +298,7 @@ def _kind(doc: YamlDocument) -> str:
     kind = doc.data["kind"]
     if kind not in KINDS:
         hint = did_you_mean(kind, KINDS) if isinstance(kind, str) else ""
-        shown = repr(kind) if isinstance(kind, str) else str(kind)
+        shown = excerpt(kind, 40) if isinstance(kind, str) else _describe(kind)
         raise doc.error(f"expected {KIND_PROFILE!r} or {KIND_AIRFIELD!r}, got {shown}{hint}", "kind")
     return kind
 
@@ -294,7 +307,7 @@ def model_from_document(doc: YamlDocument, expected_kind: str | None = None) -> 
     """Build the model a parsed document describes (checking its ``kind``)."""
     kind = _kind(doc)
     if expected_kind is not None and kind != expected_kind:
-        raise doc.error(f"expected {expected_kind!r}, got {kind!r} (this is not "
+        raise doc.error(f"expected {expected_kind!r}, got {excerpt(kind, 40)} (this is not "
                         f"{'an aircraft profile' if expected_kind == KIND_PROFILE else 'an airfield'} file)",
                         "kind")
     try:

@@ -12,7 +12,7 @@ from os import PathLike
 from pathlib import Path
 
 from briefer.errors import BriefingError
-from briefer.io.atomic import FileWriteError, write_bytes_atomic
+from briefer.io.atomic import FileWriteError, resolve_target, write_bytes_atomic
 from briefer.render.card_layout import CardLayout, card_layout
 from briefer.render.card_text import card_text
 from briefer.result import Brief
@@ -68,8 +68,12 @@ def write_card(brief: Brief, path: str | PathLike[str], *, fmt: str | None = Non
     kind = card_format(target, fmt)
     if str(page).strip().lower() not in PAGES:
         raise BriefingError(f"unknown page size {page!r}; expected one of {', '.join(PAGES)}")
-    if not overwrite and os.path.lexists(target) and not target.is_dir():
-        raise FileWriteError(target, EXISTS_REASON)   # before the work of drawing the card
+    try:
+        resolve_target(target, overwrite=overwrite)   # before the work of drawing the card
+    except FileWriteError as exc:
+        if not overwrite and "already exists" in exc.reason:
+            raise FileWriteError(target, EXISTS_REASON) from None
+        raise
     layout = card_layout(brief)
     if kind == "pdf":
         from briefer.render.pdf import layout_pdf_bytes

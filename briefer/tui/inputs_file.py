@@ -27,7 +27,7 @@ from pathlib import Path
 from typing import Any
 
 from briefer.errors import DataFileError
-from briefer.model import did_you_mean
+from briefer.model import _describe, did_you_mean
 from briefer.tui.state import BriefingInputs, WeatherInputs
 
 KIND = "briefing-inputs"
@@ -73,7 +73,7 @@ def _number(doc, value: Any, path: str) -> float | None:
     if value is None:
         return None
     if isinstance(value, bool) or not isinstance(value, (int, float)):
-        raise doc.error(f"expected a number, got {value!r}", path)
+        raise doc.error(f"expected a number, got {_describe(value)}", path)
     return float(value)
 
 
@@ -83,7 +83,7 @@ def _text(doc, value: Any, path: str, *, optional: bool = True) -> str | None:
     if isinstance(value, (int, float)) and not isinstance(value, bool) and path == "landing_runway":
         value = f"{int(value):02d}"
     if not isinstance(value, str) or not value.strip():
-        raise doc.error(f"expected text, got {value!r}", path)
+        raise doc.error(f"expected text, got {_describe(value)}", path)
     return value.strip()
 
 
@@ -95,9 +95,9 @@ def inputs_from_bytes(data: bytes, *, file: str) -> BriefingInputs:
     d = doc.data
     _unknown(doc, d, _TOP, "")
     if d.get("kind") != KIND:
-        raise doc.error(f"expected kind: {KIND}, got {d.get('kind')!r}", "kind")
+        raise doc.error(f"expected kind: {KIND}, got {_describe(d.get('kind'))}", "kind")
     if d.get("format_version", FORMAT_VERSION) != FORMAT_VERSION:
-        raise doc.error(f"expected format_version: {FORMAT_VERSION}, got {d.get('format_version')!r}",
+        raise doc.error(f"expected format_version: {FORMAT_VERSION}, got {_describe(d.get('format_version'))}",
                         "format_version")
     for key in _REQUIRED:
         if key not in d:
@@ -114,11 +114,11 @@ def inputs_from_bytes(data: bytes, *, file: str) -> BriefingInputs:
         path = f"weather.{k}"
         if k == "report":
             if v is not None and not isinstance(v, str):
-                raise doc.error(f"expected text, got {v!r}", path)
+                raise doc.error(f"expected text, got {_describe(v)}", path)
             wkw[k] = v or ""
         elif k == "wind_reference":
             if v not in ("true", "magnetic"):
-                raise doc.error(f"expected true or magnetic, got {v!r}", path)
+                raise doc.error(f"expected true or magnetic, got {_describe(v)}", path)
             wkw[k] = v
         else:
             wkw[k] = _number(doc, v, path)
@@ -127,13 +127,7 @@ def inputs_from_bytes(data: bytes, *, file: str) -> BriefingInputs:
 
 def load_inputs(path: str | PathLike[str]) -> BriefingInputs:
     """Read a saved-inputs file; raises DataFileError."""
-    p = Path(path).expanduser()
-    try:
-        data = p.read_bytes()
-    except FileNotFoundError:
-        raise DataFileError("no such file", file=str(path)) from None
-    except IsADirectoryError:
-        raise DataFileError("is a directory, expected a YAML file", file=str(path)) from None
-    except OSError as exc:
-        raise DataFileError(f"cannot read the file ({exc.strerror or exc})", file=str(path)) from None
+    from briefer.io.safefile import read_regular_file
+
+    data = read_regular_file(Path(path).expanduser(), what="a saved-inputs YAML file", name=str(path))
     return inputs_from_bytes(data, file=str(path))

@@ -245,7 +245,7 @@ class InstructorScreen(Screen[None]):
         source = getattr(item, "source", "")
         if getattr(item, "builtin", True) or not source:
             return item.name
-        return reference_for(source, self.out_dir)
+        return reference_for(source, self.out_dir, name=item.name)
 
     def _fail(self, exc: BriefingError) -> None:
         self.notify(str(exc), severity="error", timeout=8)
