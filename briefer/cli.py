@@ -92,8 +92,43 @@ def _as_typed(message: str, argv: list[str]) -> str:
     return message
 
 
+_ASCII_FALLBACK = {"\u00b0": " deg", "\u2013": "-", "\u2014": "-", "\u2212": "-", "\u00d7": "x",
+                   "\u00b1": "+/-", "\u2248": "~", "\u2192": "->", "\u2190": "<-", "\u2191": "^",
+                   "\u2193": "v", "\u2026": "...", "\u2265": ">=", "\u2264": "<=", "\u00b2": "2",
+                   "\u2018": "'", "\u2019": "'", "\u201c": '"', "\u201d": '"', "\u00a0": " ", "\u2022": "*",
+                   "\u00b7": "."}
+
+
+def _ascii_fallback(exc: UnicodeError) -> tuple[str, int]:
+    """Codec error handler: a character the terminal cannot show becomes plain ASCII
+    (the degree sign ' deg', dashes '-', others '?')."""
+    if not isinstance(exc, UnicodeEncodeError):
+        raise exc
+    text = exc.object[exc.start:exc.end]
+    return "".join(_ASCII_FALLBACK.get(ch, "?") for ch in text), exc.end
+
+
+def _degrade_output_encoding() -> None:
+    """On a stdout/stderr that cannot encode the degree sign (LC_ALL=C, PYTHONIOENCODING=ascii)
+    print plain ASCII instead of failing with UnicodeEncodeError."""
+    import codecs
+
+    codecs.register_error("briefer-ascii", _ascii_fallback)
+    for stream in (sys.stdout, sys.stderr):
+        encoding = getattr(stream, "encoding", None) or "ascii"
+        try:
+            "\u00b0\u2014".encode(encoding)
+        except (UnicodeEncodeError, LookupError):
+            if hasattr(stream, "reconfigure"):
+                try:
+                    stream.reconfigure(errors="briefer-ascii")
+                except (ValueError, OSError):  # pragma: no cover - a stream that cannot change
+                    pass
+
+
 def main(argv: list[str] | None = None) -> int:
     argv = sys.argv[1:] if argv is None else argv
+    _degrade_output_encoding()
     # `--version` answers before any command module is imported (fast start).
     if argv == ["--version"]:
         print(f"briefer {__version__}")

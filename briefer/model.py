@@ -681,6 +681,18 @@ class AircraftProfile(_Model):
                         raise InvariantError(
                             f"expected an angle of attack in degrees between {_fmt(rng.lo)} and "
                             f"{_fmt(rng.hi)}, got {_fmt(value)}", field=f"configurations[{i}].{name}")
+        factor = math.sqrt(self.max_landing_weight_lb / self.reference_weight_lb)
+        for i, c in enumerate(configs):
+            # What a brief computes at the maximum landing weight must stay in the speed range the
+            # criteria handle (so that `check` and `brief` accept the same files).
+            for name, extra in (("vref_kt", 0.0), ("circling_speed_kt", self.wind_additive.max_kt)):
+                top = getattr(c, name) * factor + extra
+                if top > SPEED_KT.hi:
+                    more = f" plus the largest wind additive {_fmt(extra)} kt" if extra else ""
+                    raise InvariantError(
+                        f"{_fmt(getattr(c, name))} kt at the reference weight becomes {top:.0f} kt (at the "
+                        f"maximum landing weight{more}), above the {_fmt(SPEED_KT.hi)} kt the briefs handle",
+                        field=f"configurations[{i}].{name}")
         if self.default_configuration.lower() not in seen:
             names = [c.name for c in configs]
             hint = did_you_mean(self.default_configuration, names) or f" (configurations: {', '.join(names)})"

@@ -21,7 +21,6 @@ from hostile_corpus import CASES, _scenario as scenario_with, can_make_device, c
 from briefer.errors import BriefingError, DataFileError
 from briefer.io import atomic
 from briefer.io.atomic import FileWriteError, write_bytes_atomic
-from briefer.io.safefile import MAX_DATA_BYTES, read_regular_file
 
 ROOT = Path(__file__).resolve().parents[1]
 needs_fifo = pytest.mark.skipif(not can_make_fifo(), reason="this platform cannot make a FIFO (os.mkfifo)")
@@ -142,6 +141,8 @@ def test_dev_zero_as_saved_inputs_is_refused_without_reading() -> None:
 
 def test_a_file_over_the_size_limit_is_refused_before_reading(tmp_path: Path,
                                                                 monkeypatch: pytest.MonkeyPatch) -> None:
+    from briefer.io.safefile import MAX_DATA_BYTES, read_regular_file
+
     big = tmp_path / "big.yaml"
     with open(big, "wb") as fh:
         fh.truncate(MAX_DATA_BYTES * 1000)         # sparse: 5 GB on paper

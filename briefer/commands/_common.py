@@ -42,7 +42,17 @@ def dumps(payload: dict[str, Any]) -> str:
 
     data = dict(payload)
     data.setdefault("cautions", list(CAUTIONS))
-    return json.dumps(_jsonable(data), indent=JSON_INDENT, ensure_ascii=False)
+    return json.dumps(_jsonable(data), indent=JSON_INDENT, ensure_ascii=not stdout_takes_unicode())
+
+
+def stdout_takes_unicode() -> bool:
+    """True when stdout can print the degree sign (else JSON is written with ASCII escapes)."""
+    encoding = getattr(sys.stdout, "encoding", None) or "ascii"
+    try:
+        "\u00b0\u2014".encode(encoding)
+    except (UnicodeEncodeError, LookupError):
+        return False
+    return True
 
 
 def emit(args: argparse.Namespace, payload: dict[str, Any], table: Callable[[], Any]) -> int:

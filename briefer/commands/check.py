@@ -43,6 +43,7 @@ def run(args: argparse.Namespace) -> int:
     from briefer.io.catalog import builtin_files
     from briefer.io.yamlload import load_any, load_bytes
     from briefer.model import KINDS
+    from briefer.safetext import escape_text
 
     if not args.files and not args.demo:
         raise BriefingError("give at least one FILE, or --demo")
@@ -66,7 +67,7 @@ def run(args: argparse.Namespace) -> int:
         sys.stdout.write(dumps({"files": results, "checked": len(results), "failed": failed}) + "\n")
     else:
         for r in results:
-            print(f"{r['file']}: OK: {r['text']}" if r["ok"] else r["error"])
+            print(escape_text(f"{r['file']}: OK: {r['text']}") if r["ok"] else r["error"])
         if len(results) > 1:
             print(f"{len(results)} files checked, {failed} failed")
     return 2 if failed else 0

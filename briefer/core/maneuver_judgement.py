@@ -328,8 +328,8 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
     level by level, only for the winds still without a fitting plan (the envelope). Both give
     the same result for a wind.
     """
-    if not (math.isfinite(visibility_m) and visibility_m > 0.0):
-        raise DomainError(f"visibility_m = {visibility_m}: must be > 0")
+    if not (math.isfinite(visibility_m) and visibility_m >= 0.0):   # 0: a legal report (fog)
+        raise DomainError(f"visibility_m = {visibility_m}: must be >= 0")
     if not 0.0 < bank_limit_deg < 90.0:
         raise DomainError(f"bank_limit_deg = {bank_limit_deg}: valid range is (0, 90)")
     if area_radius_m is not None and not (math.isfinite(area_radius_m) and area_radius_m > 0.0):

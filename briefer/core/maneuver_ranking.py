@@ -177,8 +177,8 @@ def rank_plans(plans: tuple[Plan, ...] | list[Plan], *, margin_fn: MarginFn, vis
     all others; exact ties keep the input order. Thresholds: see the
     module docstring.
     """
-    if not (math.isfinite(visibility_m) and visibility_m > 0.0):
-        raise DomainError(f"visibility_m = {visibility_m}: must be > 0")
+    if not (math.isfinite(visibility_m) and visibility_m >= 0.0):   # 0: a legal report (fog)
+        raise DomainError(f"visibility_m = {visibility_m}: must be >= 0")
     if not 0.0 < bank_limit_deg < 90.0:
         raise DomainError(f"bank_limit_deg = {bank_limit_deg}: valid range is (0, 90)")
     rows = []

@@ -116,6 +116,15 @@ class Wind:
         if self.variable_from_deg is not None:
             _direction("variable_from_deg", self.variable_from_deg)
             _direction("variable_to_deg", self.variable_to_deg)  # type: ignore[arg-type]
+            lo, hi = self.variable_from_deg % 360.0, self.variable_to_deg % 360.0  # type: ignore[operator]
+            if lo == hi:
+                raise DomainError(f"the variable sector {self.variable_from_deg:03.0f}V"
+                                  f"{self.variable_to_deg:03.0f} has no width (its two directions must differ)")
+            # WMO-No. 306 FM 15: the sector dndndnVdxdxdx is given clockwise and contains the mean.
+            if self.from_deg is not None and (self.from_deg - lo) % 360.0 > (hi - lo) % 360.0:
+                raise DomainError(f"the mean direction {self.from_deg:03.0f} lies outside the variable "
+                                  f"sector {self.variable_from_deg:03.0f}V{self.variable_to_deg:03.0f} "
+                                  "(given clockwise, it must contain the mean)")
 
     @property
     def is_calm(self) -> bool:

@@ -42,6 +42,7 @@ from fractions import Fraction
 from typing import Any
 
 from briefer.errors import BriefingError
+from briefer.safetext import escape_text
 from briefer.units import (
     HPA_TO_INHG,
     INHG_TO_HPA,
@@ -85,6 +86,12 @@ SM_FRACTION_DENOMINATORS = frozenset({2, 4, 8, 16})
 # Plausibility bounds for a station's altimeter setting. The lowest and highest sea-level
 # pressures on record are about 870 and 1084 hPa (from memory); outside these bounds the group is
 # taken as garbled and skipped rather than believed.
+# Plausibility bounds for temperature and wind: the extreme surface temperatures on record are
+# about -89 and +57 degC and the strongest measured surface gusts about 220 kt (from memory); a
+# group beyond these bounds is taken as garbled, flagged and skipped rather than believed.
+TEMPERATURE_MIN_C = -90.0
+TEMPERATURE_MAX_C = 60.0
+WIND_MAX_KT = 250.0
 ALTIMETER_MIN_HPA = 850.0
 ALTIMETER_MAX_HPA = 1100.0
 _MAX_GROUP_IN_MESSAGE = 40
@@ -349,6 +356,9 @@ class _Decoder:
     # -- body
     def body(self) -> None:
         while (tok := self.peek()) is not None:
+            if tok in ("METAR", "SPECI") or _TIME_RE.fullmatch(tok):
+                raise MetarError(f"cannot decode METAR: a second report starts at group {_quote(tok)}; "
+                                 "give one report at a time", group=tok)
             if tok == "RMK":
                 rest = self.groups[self.i + 1:]
                 self.f["remarks"] = " ".join(rest)
@@ -449,6 +459,10 @@ class _Decoder:
                 direction = None
         if speed == 0 and not calm and m["dir"] != "///":
             raise _Skip("zero speed with a direction; calm is coded 00000")
+        for what, value in (("speed", speed), ("gust", gust)):
+            if value is not None and value * to_kt > WIND_MAX_KT:
+                raise _Skip(f"wind {what} {value:g} {unit} is beyond any surface wind "
+                            f"(more than {WIND_MAX_KT:.0f} kt)")
         if gust is not None:
             if calm:
                 raise _Skip("gust with calm wind")
@@ -471,6 +485,10 @@ class _Decoder:
         lo, hi = float(m[1]), float(m[2])
         if not (0 < lo <= 360 and 0 < hi <= 360) or lo == hi:
             raise _Skip("variable sector directions must be 010-360 and differ")
+        mean = self.f.get("wind_from_deg_true")
+        if mean is not None and (mean - lo) % 360.0 > (hi - lo) % 360.0:
+            raise _Skip(f"the mean wind direction {mean:03.0f} lies outside the variable sector "
+                        f"{lo:03.0f}-{hi:03.0f} (clockwise)")
         self.f.update(wind_variable_from_deg=lo, wind_variable_to_deg=hi)
         self.decoded += 1
         return 1
@@ -564,6 +582,12 @@ class _Decoder:
             return -float(text[1:]) if text.startswith("M") else float(text)
 
         t, d = value(m["t"]), value(m["d"])
+        for what, v in (("temperature", t), ("dew point", d)):
+            if v is not None and not TEMPERATURE_MIN_C <= v <= TEMPERATURE_MAX_C:
+                raise _Skip(f"{what} {v:g} degC outside the plausible {TEMPERATURE_MIN_C:g} to "
+                            f"{TEMPERATURE_MAX_C:g} degC")
+        if t is not None and d is not None and d > t:
+            raise _Skip(f"dew point {d:g} degC above the temperature {t:g} degC (impossible)")
         # M00 (between -0.5 and 0 degC) decodes to 0.0, not -0.0.
         self.f.update(temperature_c=None if t is None else t + 0.0,
                       dew_point_c=None if d is None else d + 0.0)
@@ -661,12 +685,16 @@ def decode_metar(text: str) -> MetarReport:
     """
     if not isinstance(text, str):
         raise MetarError(f"cannot decode METAR: expected text, got {type(text).__name__}")
-    raw = text.strip()
+    raw = escape_text(text.strip())        # shown as written, control characters escaped
     groups = raw.translate(_ASCII_UPPER).split()
     if groups and groups[-1].endswith("="):
         groups[-1] = groups[-1].rstrip("=")
         if not groups[-1]:
             groups.pop()
+    for i, g in enumerate(groups[:-1]):
+        if g.endswith("="):
+            raise MetarError(f"cannot decode METAR: the report ends at {_quote(g)} and another "
+                             "follows; give one report at a time", group=g)
     if not groups:
         raise MetarError("cannot decode METAR: the report is empty")
     decoder = _Decoder(raw, groups)

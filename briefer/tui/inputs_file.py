@@ -69,18 +69,40 @@ def _unknown(doc, keys, allowed, where: str) -> None:
             raise doc.error(f"unknown key '{key}'{hint}", path)
 
 
+def _ranges() -> dict[str, Any]:
+    """The model's plausibility range of every number a saved-inputs file holds (by key)."""
+    from briefer import model as m
+
+    return {"weight_lb": m.WEIGHT_LB, "bank_deg": m.BANK_DEG, "wind_from_deg": m.COURSE_DEG,
+            "wind_speed_kt": m.WIND_SPEED_KT, "wind_gust_kt": m.WIND_GUST_KT, "oat_c": m.OAT_C,
+            "altimeter_hpa": m.ALTIMETER_HPA, "visibility_sm": m.WX_VISIBILITY_SM, "ceiling_ft": m.CEILING_FT}
+
+
 def _number(doc, value: Any, path: str) -> float | None:
+    """A number of the file, checked against the model's range so that an error names the line."""
+    import math
+
+    from briefer.model import _fmt
+
     if value is None:
         return None
     if isinstance(value, bool) or not isinstance(value, (int, float)):
         raise doc.error(f"expected a number, got {_describe(value)}", path)
-    return float(value)
+    number = float(value)
+    rng = _ranges().get(path.rpartition(".")[2])
+    if not math.isfinite(number):
+        raise doc.error(f"expected a finite number, got {_describe(value)}", path)
+    if rng is not None and number not in rng:
+        raise doc.error(f"expected {_fmt(rng.lo)} to {_fmt(rng.hi)}, got {_describe(value)}", path)
+    return number
 
 
 def _text(doc, value: Any, path: str, *, optional: bool = True) -> str | None:
     if value is None and optional:
         return None
     if isinstance(value, (int, float)) and not isinstance(value, bool) and path == "landing_runway":
+        if isinstance(value, float) and not value.is_integer():
+            raise doc.error(f"expected a runway designator such as '09' or '27L', got {_describe(value)}", path)
         value = f"{int(value):02d}"
     if not isinstance(value, str) or not value.strip():
         raise doc.error(f"expected text, got {_describe(value)}", path)
