@@ -230,7 +230,7 @@ def test_aligned_arrival_has_an_envelope():
 def test_envelope_domain():
     kw = dict(margin_fn=stadium(R_CAT_B_M), bank_limit_deg=30.0, area_radius_m=R_CAT_B_M)
     with pytest.raises(DomainError):
-        wind_envelope(reciprocal(), visibility_m=0.0, **kw)
+        wind_envelope(reciprocal(), visibility_m=-1.0, **kw)
     with pytest.raises(DomainError):
         wind_envelope(reciprocal(), visibility_m=5000.0, wind_speed_kt=[-5.0], **kw)
     with pytest.raises(DomainError):

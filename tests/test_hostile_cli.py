@@ -206,6 +206,12 @@ def test_impossible_metar_values_are_flagged_not_believed(text, group, words):
 
 
 # --- 17.15: zero visibility is a legal report and briefs --------------------------------------------------
+def test_zero_visibility_has_an_envelope(capsys):
+    data = json.loads(_out(capsys, ["envelope", "--demo", "--visibility-sm", "0", "--json",
+                                    "--direction-step-deg", "45", "--max-wind-kt", "10", "--speed-step-kt", "5"]))
+    assert data["cautions"]
+
+
 @pytest.mark.parametrize("argv", [
     ["brief", "--demo", "--visibility-sm", "0", "--json"],
     ["brief", "--demo", "--metar", "METAR V2RL 061150Z 25008KT 0SM FG VV001 12/11 A3001", "--json"],

@@ -506,12 +506,32 @@ class BriefingApp(App[None]):
         title = "WARNINGS, most severe first" + (" (of the last good brief: STALE)" if self.stale else "")
         self.push_screen(WarningsScreen(findings_short(self.brief, severities=("danger", "warning", "info")), title))
 
+    def unsaveable_reason(self) -> str | None:
+        """Why the inputs cannot be saved now: a field flagged wrong (its typed text is not in
+        the inputs, so saving would silently write the last good or an empty value), or None."""
+        if self.field_errors:
+            name, msg = next(iter(self.field_errors.items()))
+        elif self._model_error is not None and self._model_error[0] is not None:
+            name, msg = self._model_error
+        else:
+            return None
+        return (f"Not saved: the {name} field is wrong ({msg}). Correct or clear it, then save; "
+                "the file on disk is unchanged.")
+
     def action_save(self) -> None:
         from briefer.tui.path_screen import PathScreen
+
+        reason = self.unsaveable_reason()
+        if reason is not None:
+            self.notify(reason, severity="error", timeout=8)
+            return
 
         def save(path: str, overwrite: bool) -> str | None:
             from briefer.tui.inputs_file import save_inputs
 
+            reason = self.unsaveable_reason()   # a field may have gone wrong since the dialog opened
+            if reason is not None:
+                return reason
             try:
                 save_inputs(self.inputs, path, overwrite=overwrite)
             except BriefingError as exc:
@@ -603,6 +623,15 @@ class BriefingApp(App[None]):
         from briefer.tui.forms.app_hooks import open_form
 
         open_form(self, edit=True)
+
+    def action_command_palette(self) -> None:
+        """The command palette (ignoring list keys queued before it has laid out its list)."""
+        from textual.command import CommandPalette
+
+        from briefer.tui.safe_palette import SafeCommandPalette
+
+        if self.use_command_palette and not CommandPalette.is_open(self):
+            self.push_screen(SafeCommandPalette(id="--command-palette"))
 
     def get_system_commands(self, screen: Screen) -> Iterable[SystemCommand]:
         yield from super().get_system_commands(screen)

@@ -56,9 +56,21 @@ class PathScreen(ModalScreen["str | None"]):
     def on_mount(self) -> None:
         self.query_one("#path-input", Input).focus()
 
+    _answered = False
+    """Set once the dialog is dismissed: keys queued behind the one that closed it (enter on
+    Cancel then escape, typed fast or pasted) must not dismiss it a second time."""
+
+    def _close(self, result: str | None) -> None:
+        if self._answered:
+            return
+        self._answered = True
+        self.dismiss(result)
+
     @on(Input.Submitted, "#path-input")
     @on(Button.Pressed, "#path-ok")
     def _run(self) -> None:
+        if self._answered:
+            return
         path = self.query_one("#path-input", Input).value.strip()
         if not path:
             self._error("give a file name")
@@ -70,15 +82,17 @@ class PathScreen(ModalScreen["str | None"]):
         try:
             error = self.action_fn(path, overwrite)
         except Exception as exc:  # never crash the app on a file problem; show it here
-            error = f"{type(exc).__name__}: {exc}"
+            error = f"cannot use {path}: {exc}"
         if error:
             self._error(error)
         else:
-            self.dismiss(path)
+            self._close(path)
 
     def _error(self, message: str) -> None:
-        self.query_one("#path-error", Static).update(Text("✗ " + message, style="bold"))
+        from briefer.safetext import escape_text
+
+        self.query_one("#path-error", Static).update(Text("✗ " + escape_text(message), style="bold"))
 
     @on(Button.Pressed, "#path-cancel")
     def action_cancel(self) -> None:
-        self.dismiss(None)
+        self._close(None)
