@@ -16,7 +16,7 @@ from pathlib import Path
 PROFILE_HEAD = b"kind: aircraft-profile\nformat_version: 1\n"
 
 
-DEMO_SCENARIO = (Path(__file__).resolve().parents[1] / "briefer" / "data" / "scenarios"
+DEMO_SCENARIO = (Path(__file__).resolve().parents[1] / "scenarios"
                  / "v2rl-low-visibility-by-hand.yaml").read_bytes()
 
 

@@ -21,7 +21,7 @@ from briefer.cli import build_parser, main
 from briefer.errors import BriefingError, DomainError
 
 ROOT = Path(__file__).resolve().parents[1]
-DEMO = ROOT / "briefer" / "data"
+DEMO = ROOT        # the demo data: profiles/, airfields_demo/, scenarios/
 TINY = "1e-320"
 
 

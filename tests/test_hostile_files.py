@@ -164,7 +164,7 @@ def test_a_file_over_the_size_limit_is_refused_before_reading(tmp_path: Path,
 @pytest.mark.parametrize("name", sorted(CASES))
 def test_every_corpus_file_is_one_clear_error(tmp_path: Path, name: str) -> None:
     from briefer.io.yamlload import load_any
-    from briefer.scenarios import load_scenario
+    from briefer.instructor.scenario_format import load_scenario
     from briefer.tui.inputs_file import load_inputs
 
     path = tmp_path / name
@@ -199,7 +199,7 @@ def test_yaml_tracebacks_become_one_line(tmp_path: Path, name: str, expected: st
 
 def test_a_lone_surrogate_never_reaches_a_written_card(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
     prof = tmp_path / "prof.yaml"
-    good = (ROOT / "briefer" / "data" / "profiles" / "demo-bizjet.yaml").read_text()
+    good = (ROOT / "profiles" / "demo-bizjet.yaml").read_text()
     prof.write_text(good.replace("name: demo-bizjet", 'name: "\\uD800x"', 1))
     out = tmp_path / "card.txt"
     line = run_error(capsys, ["brief", "--demo", "--profile", str(prof), "--out", str(out)])

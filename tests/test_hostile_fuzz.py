@@ -25,8 +25,8 @@ from briefer.errors import BriefingError
 pytestmark = [pytest.mark.fuzz, pytest.mark.slow]
 
 ROOT = Path(__file__).resolve().parents[1]
-DATA = ROOT / "briefer" / "data"
-DEMO_FILES = sorted(p for p in DATA.rglob("*.yaml"))
+DATA = ROOT
+DEMO_FILES = sorted(p for d in ("profiles", "airfields_demo", "scenarios") for p in (DATA / d).glob("*.yaml"))
 FUZZ = settings(max_examples=40, deadline=None, derandomize=True,
                 suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
 
@@ -44,7 +44,7 @@ trees = st.recursive(scalars, lambda inner: st.lists(inner, max_size=4)
 def _load_everything(data: bytes) -> None:
     """Every loader on `data`: a model or a BriefingError, nothing else."""
     from briefer.io.yamlload import load_bytes
-    from briefer.scenarios import load_scenario
+    from briefer.instructor.scenario_format import load_scenario
     from briefer.tui.inputs_file import inputs_from_bytes
 
     for kind in (None, "aircraft-profile", "airfield"):
