@@ -253,3 +253,11 @@ def test_a_saved_input_out_of_range_names_line_and_field(tmp_path):
     with pytest.raises(BriefingError) as info:
         load_inputs(p)
     assert str(info.value) == f"{p}:8: weather.wind_speed_kt: expected 0 to 150, got 900"
+
+
+def test_list_shows_odd_file_names_escaped(tmp_path, capsys, monkeypatch):
+    monkeypatch.setenv("COLUMNS", "300")
+    good = (DEMO / "profiles" / "demo-twin.yaml").read_text()
+    (tmp_path / "t\x1b[2Jx.yaml").write_text(good)
+    out = _out(capsys, ["list", "--profiles", "--profile-dir", str(tmp_path)])
+    assert "\x1b" not in out and "t\\x1b[2Jx.yaml" in out

@@ -99,7 +99,9 @@ def airfield_rows(dirs: list[str]) -> list[dict[str, Any]]:
 def _file_text(row: dict[str, Any]) -> str:
     from pathlib import PurePath
 
-    return f"built-in {PurePath(row['file']).name}" if row["builtin"] else row["file"]
+    from briefer.safetext import escape_text
+
+    return f"built-in {PurePath(row['file']).name}" if row["builtin"] else escape_text(row["file"])
 
 
 def _details(row: dict[str, Any], lines: list[str]) -> Any:
@@ -114,7 +116,9 @@ def _details(row: dict[str, Any], lines: list[str]) -> Any:
     t.append("\n".join(line for line in lines if line))
     t.append("\n" + _file_text(row), style="dim")
     if row["shadowed_by"] is not None:
-        t.append(f"\nshadowed by {row['shadowed_by']} (the first file of a name wins)", style="yellow")
+        from briefer.safetext import escape_text
+
+        t.append(f"\nshadowed by {escape_text(row['shadowed_by'])} (the first file of a name wins)", style="yellow")
     return t
 
 
