@@ -57,9 +57,12 @@ def pdf_pages(data: bytes):
 
 
 def pdf_text(data: bytes) -> str:
-    pages = pdf_pages(data)
-    assert len(pages) == 1
-    return flat(pages[0].extract_text())
+    """The text of every page (the front page, then the detail pages), whitespace folded."""
+    return flat(" ".join(p.extract_text() for p in pdf_pages(data)))
+
+
+def front_text(data: bytes) -> str:
+    return flat(pdf_pages(data)[0].extract_text())
 
 
 def text_card_flat(text: str) -> str:
@@ -102,22 +105,26 @@ def key_numbers(brief) -> dict[str, str]:
 # --- the PDF --------------------------------------------------------------------------------
 
 
-def test_pdf_is_one_half_letter_page(demo_pdf):
+def test_pdf_half_letter_pages(demo_pdf, demo_brief):
+    """A front page and the detail pages, all half-letter; without the details, one page."""
     pages = pdf_pages(demo_pdf)
-    assert len(pages) == 1
-    box = pages[0].mediabox
-    assert (float(box.width), float(box.height)) == pytest.approx(HALF_LETTER_PT, abs=0.01)
+    assert 2 <= len(pages) <= 3
+    for page in pages:
+        box = page.mediabox
+        assert (float(box.width), float(box.height)) == pytest.approx(HALF_LETTER_PT, abs=0.01)
+    assert len(pdf_pages(card_pdf_bytes(demo_brief, detail=False))) == 1
 
 
 def test_pdf_a5_page(demo_brief):
     pages = pdf_pages(card_pdf_bytes(demo_brief, page="a5"))
-    assert len(pages) == 1
-    box = pages[0].mediabox
-    assert (float(box.width), float(box.height)) == pytest.approx(A5_PT, abs=0.01)
+    assert 2 <= len(pages) <= 3
+    for page in pages:
+        box = page.mediabox
+        assert (float(box.width), float(box.height)) == pytest.approx(A5_PT, abs=0.01)
 
 
 def test_pdf_text_has_the_key_numbers(demo_brief, demo_pdf):
-    text = pdf_text(demo_pdf)
+    text = front_text(demo_pdf)          # the numbers to fly are on the front page
     for name, value in key_numbers(demo_brief).items():
         assert value in text, name
     assert re.search(rf"CATEGORY {demo_brief.category.category}\b", text)
@@ -186,14 +193,17 @@ def test_pdf_text_outside_latin1(demo_brief):
     assert "Vale - north -> Ést ?" in text
 
 
-def test_many_warnings_still_one_page(demo_brief):
-    """The page never breaks: past the smallest print the card says how many warnings it left
-    off; the text card lists them all."""
+def test_many_warnings_flow_onto_the_detail_pages(demo_brief):
+    """The type never shrinks to make room: the front page says how many warnings it left for
+    the detail pages, which list them all (as many pages as they need), then every caution; the
+    text card lists them all too."""
     extra = tuple(Finding(severity="warning", code=f"w{i}", text=f"Invented warning number {i} " + "x " * 60)
                   for i in range(30))
     brief = dataclasses.replace(demo_brief, findings=demo_brief.findings + extra)
-    text = pdf_text(card_pdf_bytes(brief))
-    assert re.search(r"\.\.\. and \d+ more not shown here: see the brief on screen\.", text)
+    data = card_pdf_bytes(brief)
+    assert re.search(r"\.\.\. and \d+ more warnings and \d+ notes on page 2\.", front_text(data))
+    text = pdf_text(data)
+    assert all(f"Invented warning number {i} " in text for i in range(30))
     for caution in CAUTIONS:
         assert flat(caution) in text
     card = card_text(brief)
@@ -214,15 +224,16 @@ def test_draw_card_page_with_extra_sections(demo_brief):
     pdf.set_auto_page_break(False)
     pdf.set_margins(MARGIN_MM, MARGIN_MM, MARGIN_MM)
     widths: dict = {}
+    counts = []
     for _ in range(2):
         pdf.add_page()
-        draw_card_page(pdf, layout, extra=extra, widths=widths)
+        counts.append(draw_card_page(pdf, layout, extra=extra, widths=widths))
     pages = pdf_pages(bytes(pdf.output()))
-    assert len(pages) == 2
-    for page in pages:
-        text = flat(page.extract_text())
+    assert len(pages) == sum(counts) and counts[0] == counts[1] >= 2
+    for first in (0, counts[0]):
+        text = flat(" ".join(p.extract_text() for p in pages[first:first + counts[0]]))
         assert "INVENTED EXTRA Note an added line of text" in text
-        assert text.index("WARNINGS") < text.index("INVENTED EXTRA") < text.index("CAUTIONS")
+        assert text.index("EVERY WARNING AND NOTE") < text.index("INVENTED EXTRA") < text.index("CAUTIONS")
         for caution in CAUTIONS:
             assert flat(caution) in text
 
@@ -354,6 +365,8 @@ def test_write_card_a5(tmp_path, demo_brief):
     path = write_card(demo_brief, tmp_path / "card.pdf", page="a5")
     box = pdf_pages(path.read_bytes())[0].mediabox
     assert (float(box.width), float(box.height)) == pytest.approx(A5_PT, abs=0.01)
+    assert main(["brief", "--demo", "--out", str(path), "--force", "--front-only"]) == 0
+    assert len(pdf_pages(path.read_bytes())) == 1
 
 
 def test_write_card_same_brief_same_bytes(tmp_path, demo_brief):
@@ -479,7 +492,7 @@ def test_cli_writes_the_card_and_refuses_to_overwrite(tmp_path, capsys):
     assert main(["brief", "--demo", "--out", str(path)]) == 0
     out, err = capsys.readouterr()
     assert f"card written to {path}" in out
-    assert len(pdf_pages(path.read_bytes())) == 1
+    assert len(pdf_pages(path.read_bytes())) >= 2          # the front page and the detail pages
     first = path.read_bytes()
     assert main(["brief", "--demo", "--out", str(path)]) == 2
     out, err = capsys.readouterr()

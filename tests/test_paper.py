@@ -15,6 +15,7 @@ from briefer.render.scene import (
     Scene,
 )
 from briefer.render.paper import (
+    KEY_STRIP_MM,
     CirclePrim,
     LinePrim,
     PolygonPrim,
@@ -84,10 +85,11 @@ def test_circle_fills_the_box_at_equal_scale():
 
 
 def test_scale_bar_length_in_mm():
-    # a 2 NM wide box shown 100 mm wide (no margin): 0.5 NM is the longest round length within
-    # 40 % (0.8 NM); 0.5 NM = 25 mm. The bar is tick-bar-tick: 4 points, bar from x=0 to x=25.
+    # a 2 NM wide box shown 100 mm wide (no margin; the key strip below the 100 mm drawing): 0.5 NM
+    # is the longest round length within 40 % (0.8 NM); 0.5 NM = 25 mm. The bar is tick-bar-tick:
+    # 4 points, bar from x=0 to x=25.
     s = Scene([], bounds=Bounds(0.0, 0.0, 2 * NM_TO_M, 2 * NM_TO_M))
-    prims = scene_to_primitives(s, (0, 0, 100, 100), margin_mm=0.0)
+    prims = scene_to_primitives(s, (0, 0, 100, 100 + KEY_STRIP_MM), margin_mm=0.0)
     bar = next(p for p in prims if isinstance(p, LinePrim) and len(p.points_mm) == 4 and not p.closed)
     assert bar.points_mm[2][0] - bar.points_mm[1][0] == pytest.approx(25.0)
     assert any(isinstance(p, TextPrim) and p.text == "0.5 NM" for p in prims)

@@ -19,6 +19,8 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     out.add_argument("--out", type=non_empty, metavar="FILE", help="write the card to FILE (.pdf or .txt)")
     out.add_argument("--format", choices=("pdf", "txt"), help="card format (default: from the suffix)")
     out.add_argument("--page", choices=("half-letter", "a5"), default="half-letter", help="PDF page size")
+    out.add_argument("--front-only", action="store_true",
+                     help="PDF card: the front page only (the detail pages, page 2 on, left off)")
     out.add_argument("--force", action="store_true", help="overwrite an existing card")
 
 
@@ -31,7 +33,8 @@ def run(args: argparse.Namespace) -> int:
     if args.out:
         from briefer.render.card import write_card
 
-        path = write_card(brief, args.out, fmt=args.format, page=args.page, overwrite=args.force)
+        path = write_card(brief, args.out, fmt=args.format, page=args.page, overwrite=args.force,
+                          detail=not args.front_only)
         if not args.json:
             print(f"card written to {path}")
     if args.json:

@@ -200,6 +200,20 @@ class DeckCase:
         faf, map_fix = AirfieldGeometry(req.airfield).fixes_xy_m(req.selected_approach())
         return (float(faf[0]), float(faf[1])), (float(map_fix[0]), float(map_fix[1]))
 
+    def chart_sectors_xy_m(self, reach_m: float) -> tuple[tuple[tuple[float, float], ...], ...]:
+        """The approach's not-authorised sectors as the student page draws them: each out to
+        `reach_m` from its apex (not clipped at the protected area, whose radius is an answer)."""
+        import numpy as np
+
+        from briefer.core.airfield_geometry import AirfieldGeometry
+
+        req = self.loaded.request
+        out = []
+        for sector in AirfieldGeometry(req.airfield).sectors(req.selected_approach()):
+            poly = np.asarray(sector.polygon(reach_m), dtype=float).reshape(-1, 2)
+            out.append(tuple((float(x), float(y)) for x, y in poly if np.isfinite(x) and np.isfinite(y)))
+        return tuple(p for p in out if len(p) >= 3)
+
 
 @dataclass(frozen=True, slots=True, kw_only=True)
 class Deck:

@@ -34,9 +34,14 @@ def scene_from_brief(brief: Brief, *, familiar: bool = True, labels: bool = True
         p = _pts(poly)
         if len(p) >= 3:
             items.append(Polygon(points=p, role=Role.EXCLUDED_SECTOR, filled=True))
-    for ob in brief.obstacles:
+    # every obstacle with its elevation; when room runs short the labels of obstacles inside the
+    # area are kept before those outside it (in a sector, or beyond), the highest first
+    by_height = sorted(range(len(brief.obstacles)), key=lambda i: brief.obstacles[i].elevation_ft)
+    for rank, i in enumerate(by_height):
+        ob = brief.obstacles[i]
         items.append(Marker(point=_pts(ob.xy_m)[0], role=Role.OBSTACLE,
-                            label=f"{ob.elevation_ft:.0f}" if labels and ob.inside_area else ""))
+                            priority=(50 if ob.inside_area else 30) + min(rank, 9),
+                            label=f"{ob.elevation_ft:.0f}" if labels else ""))
     if familiar and len(brief.sight_picture.familiar_track_xy_m):
         items.append(Polyline(points=_pts(brief.sight_picture.familiar_track_xy_m), role=Role.FAMILIAR_TRACK,
                               dashed=True))
@@ -57,8 +62,8 @@ def scene_from_brief(brief: Brief, *, familiar: bool = True, labels: bool = True
         if labels:
             des_a, des_b = rw.designator.split("/")
             # a designator is painted at its own threshold, read on the approach to it
-            items.append(Label(point=a_xy, text=des_a))
-            items.append(Label(point=b_xy, text=des_b))
+            items.append(Label(point=a_xy, text=des_a, priority=90 if rw.landing else 60))
+            items.append(Label(point=b_xy, text=des_b, priority=90 if rw.landing else 60))
     pts = np.asarray(a.boundary_xy_m, dtype=float).reshape(-1, 2)
     if len(pts):
         (x0, y0), (x1, y1) = pts.min(axis=0), pts.max(axis=0)

@@ -87,6 +87,8 @@ class Canvas:
         self._prio = [_EMPTY] * n
         self._role: list[Role | None] = [None] * n
         self._char: list[str | None] = [None] * n
+        self.label_boxes: list[tuple[int, int, int]] = []   # (col, row, length) of each label written
+        self.dropped_labels: list[str] = []                 # labels left off for want of room
 
     # --- geometry helpers ---------------------------------------------------------------
     def fit(self, scene: Scene, *, margin: float = 1.0) -> Viewport:

@@ -22,11 +22,12 @@ PAGES = ("half-letter", "a5")
 EXISTS_REASON = "the file already exists; not overwritten (overwrite it with --force)"
 
 
-def card_pdf_bytes(brief: Brief, *, page: str = "half-letter") -> bytes:
-    """The one-page PDF card (half-letter or A5, portrait); the same Brief gives the same bytes."""
+def card_pdf_bytes(brief: Brief, *, page: str = "half-letter", detail: bool = True) -> bytes:
+    """The PDF card (half-letter or A5, portrait): the front page and, with `detail`, the detail
+    pages; the same Brief gives the same bytes."""
     from briefer.render.pdf import card_pdf_bytes as _pdf
 
-    return _pdf(brief, page=page)
+    return _pdf(brief, page=page, detail=detail)
 
 
 def card_format(path: str | PathLike[str], fmt: str | None = None) -> str:
@@ -49,7 +50,7 @@ def card_format(path: str | PathLike[str], fmt: str | None = None) -> str:
 
 
 def write_card(brief: Brief, path: str | PathLike[str], *, fmt: str | None = None, page: str = "half-letter",
-               overwrite: bool = False) -> Path:
+               overwrite: bool = False, detail: bool = True) -> Path:
     """Write the kneeboard card of `brief` to `path` and return the path.
 
     Args:
@@ -58,6 +59,8 @@ def write_card(brief: Brief, path: str | PathLike[str], *, fmt: str | None = Non
         fmt: "pdf" or "txt"; None takes it from the suffix.
         page: "half-letter" (5.5 x 8.5 in, the default) or "a5"; PDF only.
         overwrite: Replace an existing file (the CLI's --force).
+        detail: PDF only: add the detail pages after the front page (the CLI's --front-only
+            leaves them off).
 
     Raises:
         BriefingError: unknown format or page; the file exists and `overwrite` is false; the
@@ -78,7 +81,7 @@ def write_card(brief: Brief, path: str | PathLike[str], *, fmt: str | None = Non
     if kind == "pdf":
         from briefer.render.pdf import layout_pdf_bytes
 
-        data = layout_pdf_bytes(layout, page=page)
+        data = layout_pdf_bytes(layout, page=page, detail=detail)
     else:
         from briefer.render.card_text import layout_text
 

@@ -408,7 +408,8 @@ def _warning(f: Finding) -> WarningLine:
                        text=f.text)
 
 
-def _legend(scene: Scene) -> tuple[LegendLine, ...]:
+def legend_lines(scene: Scene) -> tuple[LegendLine, ...]:
+    """The legend of a plan-view scene: one line per role drawn on it."""
     texts = {Role.PROTECTED_AREA: "protected area", Role.EXCLUDED_SECTOR: "not authorised",
              Role.OBSTACLE: "obstacle, ft", Role.FAMILIAR_TRACK: "usual-picture track",
              Role.DESCENT_POINT: "leave the MDA", Role.FINAL_APPROACH: "final approach"}
@@ -433,7 +434,7 @@ def card_layout(brief: Brief) -> CardLayout:
         minimums=_minimums(brief),
         plan=_plan(brief),
         plan_view=scene,
-        legend=_legend(scene),
+        legend=legend_lines(scene),
         side_view=_side_view(brief),
         wind=_wind(brief),
         warnings=tuple(_warning(f) for f in brief.warnings),
@@ -443,4 +444,4 @@ def card_layout(brief: Brief) -> CardLayout:
 
 
 __all__ = ["NBSP", "CardLayout", "Figure", "LegendLine", "Row", "Section", "SideView", "WarningLine", "bind_units",
-           "card_layout", "num", "printable_text"]
+           "card_layout", "legend_lines", "num", "printable_text"]

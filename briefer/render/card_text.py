@@ -102,6 +102,8 @@ def _plan_view(layout: CardLayout) -> list[str]:
     col = (WIDTH - 2) // 2
     for left, right in zip(items[:half], items[half:] + [""]):
         out.append(("  " + f"{left:<{col}.{col}}" + right[:col]).rstrip())
+    if canvas.dropped_labels:
+        out += _wrap("  Labels left off the drawing (no room): " + ", ".join(canvas.dropped_labels) + ".", WIDTH)
     return out
 
 

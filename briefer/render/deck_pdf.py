@@ -27,8 +27,8 @@ import numpy as np
 
 from briefer.errors import BriefingError
 from briefer.render import pdf as card_pdf
-from briefer.render.card_layout import Figure, Row, Section, card_layout, num
-from briefer.render.scene import Marker, Polyline, Role, Scene
+from briefer.render.card_layout import Figure, Row, Section, card_layout, legend_lines, num
+from briefer.render.scene import Bounds, Marker, Polygon, Polyline, Role, Scene
 from briefer.instructor.deck import (
     EMPHASIS_PROMPTS,
     PRACTICE_LINE,
@@ -46,7 +46,7 @@ DECK_PAGE_SIZES_MM: dict[str, tuple[float, float]] = {
     "a5": card_pdf.PAGE_SIZES_MM["a5"],
 }
 REPORT_PT = 11.0
-NOTE_LINES = 6
+NOTE_STEP_MM = 7.0
 
 
 # --------------------------------------------------------------------------------------------
@@ -86,7 +86,7 @@ def _answer_page(pdf: Any, case: DeckCase, index: int, total: int, widths: dict)
     sections after its warnings."""
     layout = replace(card_layout(case.brief), title=f"ANSWER {index}/{total}",
                      briefed=f"scenario seed {case.scenario.seed}" if case.scenario.seed is not None else "scenario")
-    card_pdf.draw_card_page(pdf, layout, extra=answer_sections(case), widths=widths)
+    card_pdf.draw_card_page(pdf, layout, extra=answer_sections(case), widths=widths)   # adds its detail pages
 
 
 # --------------------------------------------------------------------------------------------
@@ -102,25 +102,47 @@ ANSWER_ROLES = frozenset({Role.PROTECTED_AREA, Role.PLANNED_TRACK, Role.ROLL_IN,
                           Role.FAMILIAR_TRACK, Role.MISSED_APPROACH})
 """What the answer's plan view shows and the student's chart must not: the area and the plan."""
 
+CHART_MARGIN_NM = 1.0
+"""Air around the runways and obstacles on the student's chart."""
+CHART_MIN_HALF_NM = 2.5
+"""The chart shows at least this far from the runways' middle (a small field still has a frame)."""
+
 
 def chart_scene(case: DeckCase) -> Scene:
-    """What the student's chart shows: the answer's plan view (`scene_from_brief`, same frame and
-    scale) without the protected area or the plan, every obstacle labelled with its elevation,
-    and the final approach course from the FAF to the MAP."""
+    """What the student's chart shows, and nothing the student must find: the runways, every
+    obstacle labelled with its elevation, the not-authorised sectors and the final approach course
+    from the FAF to the MAP.
+
+    Nothing on it depends on the answer: the frame is set by the runways and the obstacles (not by
+    the protected area, whose size follows the category), and the sectors are drawn from the
+    chart's own geometry out to beyond the frame (not clipped at the answer's area radius).
+    """
     from briefer.render.brief_scene import scene_from_brief
+    from briefer.units import NM_TO_M
 
     b = case.brief
     scene = scene_from_brief(b, familiar=False)
     elevation = {tuple(_xy(ob.xy_m)[0]): ob.elevation_ft for ob in b.obstacles}
+    thresholds: dict[str, tuple[float, float]] = {}
+    for rw in b.runways:
+        des_a, des_b = rw.designator.split("/")
+        thresholds[des_a], thresholds[des_b] = _xy(rw.a_xy_m)[0], _xy(rw.b_xy_m)[0]
+    pts = list(thresholds.values()) + [p for p in elevation]
+    xs, ys = [p[0] for p in pts], [p[1] for p in pts]
+    cx, cy = (min(xs) + max(xs)) / 2, (min(ys) + max(ys)) / 2
+    half = max(max(abs(x - cx) for x in xs), max(abs(y - cy) for y in ys)) + CHART_MARGIN_NM * NM_TO_M
+    half = max(half, CHART_MIN_HALF_NM * NM_TO_M)
     items: list[Any] = []
     for item in scene.items:
-        if item.role in ANSWER_ROLES:
+        if item.role in ANSWER_ROLES or item.role is Role.EXCLUDED_SECTOR:
             continue
         if isinstance(item, Marker) and item.role is Role.OBSTACLE and item.point in elevation:
             item = replace(item, label=f"{elevation[item.point]:.0f}")
         items.append(item)
+    for poly in case.chart_sectors_xy_m(half * 3.0):
+        items.append(Polygon(points=poly, role=Role.EXCLUDED_SECTOR, filled=True))
     items.append(Polyline(points=case.final_approach_xy_m, role=Role.FINAL_APPROACH))
-    return replace(scene, items=tuple(items))
+    return replace(scene, items=tuple(items), bounds=Bounds(cx - half, cy - half, cx + half, cy + half))
 
 
 def _chart_rows(case: DeckCase) -> tuple[Row, ...]:
@@ -171,14 +193,17 @@ def _aircraft_rows(case: DeckCase) -> tuple[Row, ...]:
 def _student_page(pdf: Any, case: DeckCase, index: int, total: int, page_w: float, page_h: float,
                   widths: dict) -> None:
     sc = case.scenario
+    chart = chart_scene(case)
     layout = replace(card_layout(case.brief), title=f"STUDENT PAGE {index}/{total}",
-                     briefed=f"emphasis: {EMPHASIS_TITLES[sc.emphasis]}", plan_view=chart_scene(case))
-    c = card_pdf.CardPainter(pdf, layout, page_w, page_h, 1.0, widths)
+                     briefed=f"emphasis: {EMPHASIS_TITLES[sc.emphasis]}", plan_view=chart,
+                     legend=legend_lines(chart))     # the chart's own roles, not the answer's
+    c = card_pdf.CardPainter(pdf, layout, page_w, page_h, widths)
     c.draw = True
     pdf.set_text_color(0)
     pdf.set_draw_color(0)
+    flow = card_pdf.Flow(c, 1, "continued")
     y = c.header(card_pdf.MARGIN_MM)
-    y = c.paragraph(c.x0, y, c.w, sc.title, "B", card_pdf.SUBTITLE_PT) + y + 0.6
+    y += c.paragraph(c.x0, y, c.w, sc.title, "B", card_pdf.SUBTITLE_PT) + 0.6
     # the weather report, large and in a fixed-pitch face, as a report is read
     y = c.bar(c.x0, y, c.w, "WEATHER REPORT")
     saved = (pdf.font_family, pdf.font_style, pdf.font_size_pt)   # the painter remembers its font
@@ -198,30 +223,33 @@ def _student_page(pdf: Any, case: DeckCase, index: int, total: int, page_w: floa
         pdf.text(c.x0 + 1.0, y + (i + 0.8) * lh, ln)
     pdf.set_font(*saved)
     y += len(lines) * lh + 1.5
-    # the chart: the plan view beside the approach's own data
+    # the chart: the plan view (full width, nothing on it the student must find), then its data
     y = c.bar(c.x0, y, c.w, "THE CHART (invented)")
-    plan_w = c.w * 0.5 - card_pdf.GAP_MM
-    plan_h = min(plan_w, page_h * 0.33)
-    c.plan_view((c.x0, y, plan_w, plan_h))
-    rx = c.x0 + plan_w + card_pdf.GAP_MM
-    ry = c.rows(y, _chart_rows(case), x=rx, width=c.w - plan_w - card_pdf.GAP_MM, label_w=16.0)
-    y = max(y + plan_h, ry) + 1.0
+    plan_h = min(c.w * 0.75, page_h * 0.36)
+    c.plan_view((c.x0, y, c.w, plan_h))
+    y = c.legend(c.x0, y + plan_h + 0.6, c.w)
+    flow._top = card_pdf.MARGIN_MM
+    y = c.rows(y, _chart_rows(case), flow=flow)
+    y = flow.need(y, c.lh(card_pdf.SECTION_PT) + 2 * c.lh(card_pdf.BODY_PT))
     y = c.bar(c.x0, y, c.w, "THE AIRCRAFT")
-    y = c.rows(y, _aircraft_rows(case), label_w=22.0)
+    y = c.rows(y, _aircraft_rows(case), flow=flow)
+    y = flow.need(y, c.lh(card_pdf.SECTION_PT) + 2 * c.lh(card_pdf.BODY_PT))
     y = c.bar(c.x0, y, c.w, "BRIEF THE CIRCLE")
     items = WHAT_TO_BRIEF + EMPHASIS_PROMPTS.get(sc.emphasis, ())
-    y = c.rows(y, tuple(Row(label=f"{i}.", text=t) for i, t in enumerate(items, 1)), label_w=5.0)
-    # room for notes, down to the cautions
-    bottom = c.cautions_top() - card_pdf.GAP_MM
-    y = c.bar(c.x0, y, c.w, "NOTES")
-    step = max(6.0, (bottom - y) / (NOTE_LINES + 1))
-    with pdf.local_context(line_width=0.15, draw_color=170):
-        yy = y + step
-        while yy < bottom - 1.0:
-            pdf.line(c.x0, yy, c.x0 + c.w, yy)
-            yy += step
-    c.cautions(c.cautions_top())
-    c.footer()
+    y = c.rows(y, tuple(Row(label=f"{i}.", text=t) for i, t in enumerate(items, 1)), flow=flow)
+    # room for notes, down to the caution
+    caution_h = c.measure_caution(layout.cautions, "CAUTIONS")
+    bottom = page_h - card_pdf.MARGIN_MM - c.footer_height() - card_pdf.GAP_MM - caution_h
+    if bottom - y > 3 * NOTE_STEP_MM:
+        y = c.bar(c.x0, y, c.w, "NOTES")
+        with pdf.local_context(line_width=0.15, draw_color=170):
+            yy = y + NOTE_STEP_MM
+            while yy < bottom - 1.0:
+                pdf.line(c.x0, yy, c.x0 + c.w, yy)
+                yy += NOTE_STEP_MM
+    y = flow.need(max(y, bottom), caution_h)
+    c.caution_box(y + 0.5, layout.cautions, "CAUTIONS")
+    flow.end_page()
 
 
 # --------------------------------------------------------------------------------------------

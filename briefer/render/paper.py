@@ -40,13 +40,16 @@ from briefer.units import NM_TO_M
 
 MARKER_SIZE_MM = 2.2
 """Width of a marker symbol."""
-LABEL_SIZE_MM = 2.4
-"""Height of label text (font size in millimetres; a PDF font size in points is `size * pdf.k`
-when the FPDF unit is mm)."""
+LABEL_SIZE_MM = 2.6
+"""Height of label text (font size in millimetres, 7.4 pt; a PDF font size in points is
+`size * pdf.k` when the FPDF unit is mm). Never under 7 pt (2.47 mm) on a kneeboard."""
 HATCH_WIDTH_MM = 0.15
 """Width of the hatch lines inside a filled polygon."""
 MARGIN_MM = 3.0
 """Space kept free inside the box around the drawing."""
+KEY_STRIP_MM = 5.5
+"""The band at the foot of the frame that holds the scale bar and the north arrow, below the
+drawing (so that nothing drawn runs under them)."""
 
 Anchor = Literal["start", "middle", "end"]
 
@@ -141,7 +144,8 @@ def scene_to_primitives(scene: Scene, box_mm: tuple[float, float, float, float],
         Primitives; those of scene item `i` carry `item=i` (a marker gives its symbol and label).
     """
     bx, by, bw, bh = box_mm
-    vp = scene.fit(bw, bh, 1.0, margin=margin_mm)
+    vp, _ = drawing_viewport(scene, box_mm, margin_mm=margin_mm, key=decorations)
+    drawn_h = drawing_height(bh, decorations)
 
     def at(p: Point) -> Point:
         u, v = vp.to_view(*p)
@@ -165,6 +169,9 @@ def scene_to_primitives(scene: Scene, box_mm: tuple[float, float, float, float],
                                    hatch_mm=hatch, item=index))
         elif isinstance(item, Marker):
             x, y = at(item.point)
+            h = MARKER_SIZE_MM / 2
+            if decorations and not (bx + h <= x <= bx + bw - h and by + h <= y <= by + drawn_h - h):
+                continue          # off the drawing or on its edge: not drawn half-cut by the frame
             out.extend(_marker(x, y, item.symbol or "cross", role, index))
             if item.label:
                 # up and to the right, so a line through the marker does not cross the text
@@ -179,36 +186,55 @@ def scene_to_primitives(scene: Scene, box_mm: tuple[float, float, float, float],
     return out
 
 
+def drawing_viewport(scene: Scene, box_mm: tuple[float, float, float, float], *, margin_mm: float = MARGIN_MM,
+                     key: bool = True) -> tuple[Viewport, tuple[float, float]]:
+    """The viewport of the drawing inside a plan view's box (above the key strip when `key`), and
+    the page position of the viewport's origin."""
+    bx, by, bw, bh = box_mm
+    return scene.fit(bw, drawing_height(bh, key), 1.0, margin=margin_mm), (bx, by)
+
+
+def drawing_height(height_mm: float, key: bool = True) -> float:
+    """Height of the drawing inside a plan view's box of `height_mm` (the key strip below it)."""
+    return max(height_mm - (KEY_STRIP_MM if key else 0.0), 1.0)
+
+
 def _decorations(scene: Scene, vp: Viewport, box_mm: tuple[float, float, float, float],
                  margin_mm: float) -> list[Primitive]:
+    """The frame, the line above the key strip, and in the strip the scale bar (left) and the
+    north arrow (right)."""
     bx, by, bw, bh = box_mm
     st = Role.ANNOTATION.value
+    top = by + drawing_height(bh)
     out: list[Primitive] = [LinePrim(((bx, by), (bx + bw, by), (bx + bw, by + bh), (bx, by + bh)), st,
-                                     closed=True)]
+                                     closed=True),
+                            LinePrim(((bx, top), (bx + bw, top)), st)]
     # scale bar, bottom left: a bar with end and middle ticks, the length written after it
     length_nm = scene.scale_hint_nm or scale_bar_nm(vp.width_m)
     length_mm = length_nm * NM_TO_M * vp.units_per_m
-    x0, y0 = bx + margin_mm, by + bh - margin_mm
+    x0, y0 = bx + margin_mm, by + bh - 1.6
     tick = 1.2
     out.append(LinePrim(((x0, y0 - tick), (x0, y0), (x0 + length_mm, y0), (x0 + length_mm, y0 - tick)), st))
     out.append(LinePrim(((x0 + length_mm / 2, y0), (x0 + length_mm / 2, y0 - tick / 2)), st))
     out.append(TextPrim((x0 + length_mm + 1.2, y0), format_nm(length_nm), st))
-    # north arrow, top right: a shaft, a filled head at north's end, and "N" beyond it
+    # north arrow, bottom right: a shaft, a filled head at north's end, and "N" beside it
     arrow = north_arrow(scene.up_deg_true)
     a = radians(arrow.screen_deg)
     ux, uy = sin(a), -cos(a)              # unit vector towards north on the page
     px, py = -uy, ux                      # perpendicular
-    half = 3.0
-    cx, cy = bx + bw - margin_mm - 3.0, by + margin_mm + 6.5
+    half = 1.9
+    cx, cy = bx + bw - margin_mm - 4.0, top + KEY_STRIP_MM / 2
     tip = (cx + ux * half, cy + uy * half)
     tail = (cx - ux * half, cy - uy * half)
     out.append(LinePrim((tail, tip), st))
-    head = 1.6
+    head = 1.3
     base = (tip[0] - ux * head * 1.4, tip[1] - uy * head * 1.4)
     out.append(PolygonPrim((tip, (base[0] + px * head / 2, base[1] + py * head / 2),
                             (base[0] - px * head / 2, base[1] - py * head / 2)), st))
-    out.append(TextPrim((tip[0] + ux * 2.4, tip[1] + uy * 2.4 + LABEL_SIZE_MM * 0.35), "N", st,
-                        anchor="middle"))
+    if abs(ux) > 0.5:      # north across the page: "N" beyond the tip, still in the strip
+        out.append(TextPrim((tip[0] + ux * 2.4, cy + LABEL_SIZE_MM * 0.35), "N", st, anchor="middle"))
+    else:                  # north up or down the page: "N" beside the shaft
+        out.append(TextPrim((cx + 2.2, cy + LABEL_SIZE_MM * 0.35), "N", st, anchor="start"))
     return out
 
 

@@ -1,22 +1,23 @@
-"""The kneeboard card as a one-page PDF (fpdf2's drawing API), from the shared `CardLayout`.
+"""The kneeboard card as a PDF (fpdf2's drawing API), from the shared `CardLayout`.
 
-Reading order, top to bottom: the header (airfield, approach, landing runway, aircraft, when
-briefed), MINIMUMS (big figures, then small print), THE PLAN (the numbers to fly in large type,
-then the missed approach and the track), the plan view (drawn from `scene_to_primitives`, the
-primitives the SVG is written from) beside the side view of the sight picture, the plan view's
-legend, wind and weather, the warnings (most severe first) and, at the foot, the CAUTIONS box.
+Page 1 is what a crew reads at a glance, in type that can be read on a kneeboard at night in
+turbulence: the header (airfield, approach, landing runway, aircraft, when briefed), MINIMUMS and
+THE PLAN as boxed figures (the numbers to fly, 17 pt bold), the missed approach and the wind in one
+line each, the warnings (most severe first), the plan view with its legend, and the caution.
+Everything else follows on the detail pages (page 2, and 3 if needed), which a crew may leave
+unprinted: the small print of every section, the sight picture drawn and in words, wind, weather
+and performance, every warning and note, and the full CAUTIONS.
+
+Type sizes: every sentence at least `BODY_PT` (9 pt); every label (figure labels and notes, the
+plan view's labels, the legend, section titles, severity tags) at least `LABEL_PT` (7 pt); only the
+one-line footer is smaller. Nothing is shrunk below these to make a page fit: the front page's
+plan view gives way first, then warnings move to page 2 (the front says how many), and the detail
+pages flow onto as many pages as they need.
 
 Fonts: the PDF core font Helvetica (Latin-1 only), so the card's text goes through
-`printable_text(..., "latin-1")`. Embedding a TTF would cost about 80 ms and 19 KB per card for
-characters the Brief never uses (its text is Latin-1; only a user's data file could bring others,
-which then print as their unaccented letter or '?').
-
-Sizes: the numbers to fly 14 pt bold, the title 13 pt, section bars 6.8 pt, the small print 6.6 pt
-at most. Greyscale only: roles and severities differ by line pattern, weight, hatching, symbol and
-word, never by colour. The page never breaks: the small print shrinks (to 5.6 pt at least), then
-the plan view and the side view give way; only a page still too full leaves warnings off, with a
-line saying how many. The creation date is fixed (the brief's time, else `FIXED_DATE`), so the
-same Brief gives the same bytes.
+`printable_text(..., "latin-1")`. Greyscale only: roles and severities differ by line pattern,
+weight, hatching, symbol and word, never by colour. The creation date is fixed (the brief's time,
+else `FIXED_DATE`), so the same Brief gives the same bytes.
 
 fpdf is imported inside `layout_pdf_bytes` only: the import costs about 0.3 s.
 """
@@ -25,9 +26,10 @@ from __future__ import annotations
 
 import datetime as dt
 import math
-from dataclasses import dataclass, replace
+from dataclasses import replace
 from typing import Any
 
+from briefer.cautions import SHORT_CAUTION
 from briefer.errors import BriefingError
 from briefer.render.card_layout import (
     CardLayout,
@@ -35,6 +37,7 @@ from briefer.render.card_layout import (
     Row,
     Section,
     SideView,
+    WarningLine,
     bind_units,
     card_layout,
     printable_text,
@@ -47,6 +50,7 @@ from briefer.render.paper import (
     LinePrim,
     PolygonPrim,
     TextPrim,
+    drawing_height,
     paper_style,
     scene_to_primitives,
 )
@@ -65,30 +69,32 @@ MARGIN_MM = 6.0
 GAP_MM = 2.0
 FONT = "Helvetica"
 FIGURES_PER_ROW = 4
-SCALES = (1.0, 0.95, 0.9, 0.85)
-"""Scales of the small print tried in turn until the page fits (6.6 pt down to 5.6 pt)."""
-MIN_SCALE = SCALES[-1]
-PLAN_MIN_MM = 50.0
-"""The plan view is not made smaller than this while the small print can still shrink."""
-PLAN_FLOOR_MM = 38.0
-SIDE_VIEW_H_MM = 24.0
-SIDE_VIEW_STEPS_MM = (SIDE_VIEW_H_MM, 20.0, 16.0)
-"""Heights the side view may take when the page is tight, largest first."""
+PLAN_MIN_MM = 55.0
+"""The front page's plan view is not made smaller than this while warnings can move to page 2."""
+PLAN_FLOOR_MM = 35.0
+"""Below this the plan view leaves the front page for the detail pages."""
+SIDE_VIEW_H_MM = 32.0
 LINE_SPACING = 1.2
-RIGHT_COLUMN = 0.5
-"""Share of the width taken by the sight picture and the legend, beside the plan view."""
 
-# sizes in points (the small print's at scale 1)
+# type sizes in points
+BODY_PT = 9.0
+"""Every sentence on the card: rows, warnings, statuses, the cautions (never smaller)."""
+LABEL_PT = 7.0
+"""The smallest label: figure labels and notes, legend, the drawings' words, tags (never smaller)."""
 TITLE_PT = 13.0
-SUBTITLE_PT = 9.5
-HEADER_PT = 6.8
-SECTION_PT = 6.8
-FIG_LABEL_PT = 5.6
-FIG_VALUE_PT = 14.0
-FIG_NOTE_PT = 5.6
-ROW_PT = 6.6
-CAUTION_PT = 6.4
-FOOTER_PT = 5.2
+SUBTITLE_PT = 10.0
+SECTION_PT = 8.0
+FIG_LABEL_PT = LABEL_PT
+FIG_VALUE_PT = 17.0
+FIG_VALUE_MIN_PT = 12.0
+FIG_NOTE_PT = LABEL_PT
+ROW_PT = BODY_PT
+TAG_PT = 7.5
+CAUTION_PT = BODY_PT
+FOOTER_PT = 6.0
+"""The one-line footer (version and the short caution), the only text under `LABEL_PT`."""
+FRONT_SEVERITIES = ("danger", "warning")
+"""Findings printed on the front page; notes are on the detail pages."""
 
 
 def page_size_mm(page: str) -> tuple[float, float]:
@@ -118,21 +124,16 @@ def _grey(level: float) -> int:
 
 
 class CardPainter:
-    """Draws (or, with `draw=False`, only measures) the card's blocks at one scale of small print."""
+    """Draws (or, with `draw=False`, only measures) the card's blocks on the current page."""
 
-    def __init__(self, pdf: Any, layout: CardLayout, page_w: float, page_h: float, scale: float,
-                 widths: dict[tuple[str, float, str], float] | None = None, side_h: float = SIDE_VIEW_H_MM,
-                 extra: tuple[Section, ...] = ()) -> None:
+    def __init__(self, pdf: Any, layout: CardLayout, page_w: float, page_h: float,
+                 widths: dict[tuple[str, float, str], float] | None = None) -> None:
         self.pdf = pdf
         self.layout = layout
         self.page_w, self.page_h = page_w, page_h
-        self.s = scale
         self.x0 = MARGIN_MM
         self.w = page_w - 2 * MARGIN_MM
         self.draw = False
-        self.plan_h_used = 0.0
-        self.side_h = side_h
-        self.extra_sections: tuple[Section, ...] = extra
         self._font: tuple[str, float] | None = None
         self._widths: dict[tuple[str, float, str], float] = widths if widths is not None else {}
 
@@ -225,28 +226,32 @@ class CardPainter:
         return len(lines) * self.lh(size_pt)
 
     def fit_size(self, text: str, style: str, size_pt: float, width: float, floor_pt: float) -> float:
-        """The largest size up to `size_pt` at which `text` fits `width` on one line."""
+        """The largest size from `size_pt` down to `floor_pt` at which `text` fits `width` on one
+        line (`floor_pt` if none does)."""
         self.font(style, size_pt)
         tw = self.width_of(_t(text))
         if tw <= width or tw == 0:
             return size_pt
         return max(floor_pt, size_pt * width / tw)
 
-    # --- blocks --------------------------------------------------------------------------------
+    # --- blocks (each returns the y below it) ----------------------------------------------------
 
-    def header(self, y: float) -> float:
+    def header(self, y: float, *, title: str | None = None, subtitle: str | None = None) -> float:
+        """The airfield large, the card's title and time at the right, the approach and the
+        aircraft below; a detail page passes its own `title`."""
         L = self.layout
-        right_w = 40.0
-        size = self.fit_size(L.place, "B", TITLE_PT, self.w - right_w, 9.0)
+        right_w = 42.0
+        size = self.fit_size(L.place, "B", TITLE_PT, self.w - right_w, 10.0)
         self.font("B", size)
         self.text_at(self.x0, y, L.place, size)
-        self.font("B", HEADER_PT)
-        self.text_at(self.x0, y + 0.3, L.title, HEADER_PT, align="R", width=self.w)
-        self.font("", HEADER_PT)
-        self.text_at(self.x0, y + 0.3 + self.lh(HEADER_PT), L.briefed, HEADER_PT, align="R", width=self.w)
-        y += self.lh(TITLE_PT)
-        y += self.paragraph(self.x0, y, self.w - right_w, L.approach, "B", SUBTITLE_PT)
-        y += self.paragraph(self.x0, y, self.w, f"{L.aircraft}; criteria {L.criteria}", "", HEADER_PT)
+        self.font("B", SECTION_PT)
+        self.text_at(self.x0, y + 0.3, title or L.title, SECTION_PT, align="R", width=self.w)
+        self.font("", LABEL_PT)
+        self.text_at(self.x0, y + 0.3 + self.lh(SECTION_PT), L.briefed, LABEL_PT, align="R", width=self.w)
+        y += max(self.lh(TITLE_PT), 0.3 + self.lh(SECTION_PT) + self.lh(LABEL_PT))
+        y += self.paragraph(self.x0, y, self.w, subtitle or L.approach, "B", SUBTITLE_PT)
+        if subtitle is None:
+            y += self.paragraph(self.x0, y, self.w, f"{L.aircraft}; criteria {L.criteria}", "", BODY_PT)
         y += 0.6
         if self.draw:
             self.pen(0.6)
@@ -254,31 +259,45 @@ class CardPainter:
         return y + 1.0
 
     def bar(self, x: float, y: float, w: float, title: str, status: str = "", alert: bool = False) -> float:
-        """A section title on a light grey bar, the section's status beside it (wrapped); an alert
-        is reversed, white on black, and starts with '!!', so it stands out without colour.
-        Returns the y below the bar."""
+        """A section title on a light grey bar and, below it, the section's status in bold body
+        type; an alert status is reversed, white on black, and starts with '!!', so it stands out
+        without colour."""
         self.font("B", SECTION_PT)
-        title_w = self.width_of(_t(title)) + 3.0
-        lines = self.lines(("!! " if alert else "") + status, w - title_w - 1.0) if status else [""]
-        lh = self.lh(SECTION_PT)
-        h = len(lines) * lh + 0.3
+        h = self.lh(SECTION_PT) + 0.3
         if self.draw:
-            self.pen(fill=0.0 if alert else 0.85)
+            self.pen(fill=0.85)
             self.pdf.rect(x, y, w, h, style="F")
-            if alert:
-                self.pdf.set_text_color(255)
-            self.text_at(x + 1.0, y + 0.25, title, SECTION_PT)
-            for i, ln in enumerate(lines):
-                self.text_at(x + title_w, y + 0.25 + i * lh, ln, SECTION_PT)
-            self.pdf.set_text_color(0)
-        return y + h + 0.6
+            self.text_at(x + 1.0, y + 0.2, title, SECTION_PT)
+        y += h + 0.5
+        if status:
+            self.font("B", BODY_PT)
+            lines = self.lines(("!! " if alert else "") + status, w - 2.0)
+            lh = self.lh(BODY_PT)
+            if self.draw:
+                if alert:
+                    self.pen(fill=0.0)
+                    self.pdf.rect(x, y - 0.2, w, len(lines) * lh + 0.4, style="F")
+                    self.pdf.set_text_color(255)
+                for i, ln in enumerate(lines):
+                    self.text_at(x + 1.0, y + i * lh, ln, BODY_PT)
+                self.pdf.set_text_color(0)
+            y += len(lines) * lh + 0.6
+        return y
+
+    def figure_height(self, figures: tuple[Figure, ...]) -> float:
+        """Height of one row of figure boxes (the label, the value, the note on up to two lines)."""
+        cw = self.w / FIGURES_PER_ROW
+        self.font("", FIG_NOTE_PT)
+        note_lines = max([len(self.lines(f.note, cw - 2.0)) for f in figures] or [1])
+        return self.lh(FIG_LABEL_PT) + self.lh(FIG_VALUE_PT) * 0.95 + min(2, note_lines) * self.lh(FIG_NOTE_PT) + 0.4
 
     def figures(self, y: float, figures: tuple[Figure, ...]) -> float:
         """The numbers to fly in large type, four to a row, each boxed: label, value, note."""
         cw = self.w / FIGURES_PER_ROW
-        ch = self.lh(FIG_LABEL_PT) + self.lh(FIG_VALUE_PT) * 0.92 + self.lh(FIG_NOTE_PT) + 0.3
         for start in range(0, len(figures), FIGURES_PER_ROW):
-            for i, f in enumerate(figures[start:start + FIGURES_PER_ROW]):
+            row = figures[start:start + FIGURES_PER_ROW]
+            ch = self.figure_height(row)
+            for i, f in enumerate(row):
                 x = self.x0 + i * cw
                 if not self.draw:
                     continue
@@ -286,65 +305,145 @@ class CardPainter:
                 self.pdf.rect(x, y, cw, ch, style="D")
                 self.font("B", FIG_LABEL_PT)
                 self.text_at(x + 1.0, y + 0.3, f.label, FIG_LABEL_PT)
-                vs = self.fit_size(f.value, "B", FIG_VALUE_PT, cw - 2.0, 8.0)
+                vs = self.fit_size(f.value, "B", FIG_VALUE_PT, cw - 2.0, FIG_VALUE_MIN_PT)
                 self.font("B", vs)
-                self.text_at(x + 0.8, y + self.lh(FIG_LABEL_PT) + (self.lh(FIG_VALUE_PT) - self.lh(vs)) / 2 - 0.4,
+                self.text_at(x + 0.8, y + self.lh(FIG_LABEL_PT) + (self.lh(FIG_VALUE_PT) - self.lh(vs)) / 2 - 0.2,
                              f.value, vs)
-                ns = self.fit_size(f.note, "", FIG_NOTE_PT, cw - 2.0, 4.5)
-                self.font("", ns)
-                self.text_at(x + 1.0, y + ch - self.lh(FIG_NOTE_PT) - 0.1, f.note, ns)
+                self.font("", FIG_NOTE_PT)
+                notes = self.lines(f.note, cw - 2.0)[:2]
+                ny = y + self.lh(FIG_LABEL_PT) + self.lh(FIG_VALUE_PT) * 0.95
+                for k, ln in enumerate(notes):
+                    self.text_at(x + 1.0, ny + k * self.lh(FIG_NOTE_PT), ln, FIG_NOTE_PT)
             y += ch
         return y + 0.8
 
+    def label_width(self, rows: tuple[Row, ...], size: float) -> float:
+        self.font("B", size)
+        return min(self.w * 0.3, max([self.width_of(_t(r.label)) for r in rows] or [0.0]) + 2.0)
+
+    def row_height(self, row: Row, width: float, label_w: float, size: float) -> float:
+        self.font("", size)
+        return len(self.lines(row.text, width - label_w)) * self.lh(size)
+
     def rows(self, y: float, rows: tuple[Row, ...], x: float | None = None, width: float | None = None,
-             label_w: float = 15.0, size: float | None = None, sample_rows: tuple[int, ...] = ()) -> float:
-        """Labelled lines of small print; returns the y below them."""
+             label_w: float | None = None, size: float = ROW_PT, sample_rows: tuple[int, ...] = (),
+             flow: Flow | None = None) -> float:
+        """Labelled lines of body type; returns the y below them. With a `flow`, a row that does
+        not fit goes on to the next page."""
         x = self.x0 if x is None else x
         width = self.w if width is None else width
-        size = (ROW_PT * self.s) if size is None else size
+        sample_w = 3.6 if sample_rows else 0.0
+        label_w = (self.label_width(rows, size) + sample_w) if label_w is None else label_w
         lh = self.lh(size)
         for i, r in enumerate(rows):
             self.font("", size)
             lines = self.lines(r.text, width - label_w)
+            if flow is not None:
+                y = flow.need(y, len(lines) * lh)
             if self.draw:
                 lx = x
                 if i in sample_rows:    # a sample of the side view's line before the label
                     self.pen(0.5, 0.0) if i == 0 else self.pen(0.4, 0.3, dash=(0.9, 0.6))
                     self.pdf.line(x, y + lh * 0.55, x + 3.0, y + lh * 0.55)
-                    lx = x + 3.6
+                    lx = x + sample_w
                 self.font("B", size)
                 self.text_at(lx, y, r.label, size)
                 self.font("", size)
-                for i, ln in enumerate(lines):
-                    self.text_at(x + label_w, y + i * lh, ln, size)
+                for k, ln in enumerate(lines):
+                    self.text_at(x + label_w, y + k * lh, ln, size)
             y += len(lines) * lh
         return y + 0.6
 
-    def section(self, y: float, sec: Section) -> float:
-        y = self.bar(self.x0, y, self.w, sec.title, sec.status, sec.alert)
-        if sec.figures:
-            y = self.figures(y, sec.figures)
-        return self.rows(y, sec.rows)
+    def tag_width(self) -> float:
+        self.font("B", TAG_PT)
+        return self.width_of("!! DANGER") + 2.6
+
+    def warning_lines(self, items: tuple[WarningLine, ...]) -> list[list[str]]:
+        width = self.w - self.tag_width()
+        self.font("", BODY_PT)
+        return [self.lines(wl.text, width) for wl in items]
+
+    def warnings(self, y: float, items: tuple[WarningLine, ...], flow: Flow | None = None) -> float:
+        """Findings, most severe first: DANGER reversed (white on black), WARNING boxed, NOTE
+        plain, each with its symbol and word, so that no colour is needed."""
+        lh = self.lh(BODY_PT)
+        tag_w = self.tag_width()
+        for wl, lines in zip(items, self.warning_lines(items)):
+            if flow is not None:
+                y = flow.need(y, len(lines) * lh)
+            if self.draw:
+                self.font("B", TAG_PT)
+                box = (self.x0, y + 0.15, tag_w - 1.2, lh - 0.1)
+                if wl.severity == "danger":
+                    self.pen(fill=0.0)
+                    self.pdf.rect(*box, style="F")
+                    self.pdf.set_text_color(255)
+                elif wl.severity == "warning":
+                    self.pen(0.3)
+                    self.pdf.rect(*box, style="D")
+                self.text_at(self.x0 + 0.6, y + 0.15 + (lh - self.lh(TAG_PT)) / 2, f"{wl.mark} {wl.word}", TAG_PT)
+                self.pdf.set_text_color(0)
+                self.font("", BODY_PT)
+                for k, ln in enumerate(lines):
+                    self.text_at(self.x0 + tag_w, y + k * lh, ln, BODY_PT)
+            y += len(lines) * lh + 0.35
+        return y + 0.4
+
+    def caution_box(self, y: float, texts: tuple[str, ...], title: str = "") -> float:
+        """A heavy-bordered box on a light grey ground: a title (optional) and the cautions, one
+        per bullet, in bold body type on the front page, plain on the detail pages."""
+        pad, bullet = 1.2, 2.4 if len(texts) > 1 else 0.0
+        style = "" if title else "B"
+        inner = self.w - 2 * pad - bullet
+        lh = self.lh(CAUTION_PT)
+        self.font(style, CAUTION_PT)
+        blocks = [self.lines(c, inner) for c in texts]
+        h = pad * 2 + (self.lh(SECTION_PT) if title else 0.0) + sum(len(b) for b in blocks) * lh - 0.4
+        if not self.draw:
+            return y + h
+        self.pen(0.7, fill=0.93)
+        self.pdf.rect(self.x0, y, self.w, h, style="DF")
+        yy = y + pad - 0.2
+        if title:
+            self.font("B", SECTION_PT)
+            self.text_at(self.x0 + pad, yy, title, SECTION_PT)
+            yy += self.lh(SECTION_PT)
+        self.font(style, CAUTION_PT)
+        for b in blocks:
+            if bullet:
+                self.text_at(self.x0 + pad, yy, "-", CAUTION_PT)
+            for k, ln in enumerate(b):
+                self.text_at(self.x0 + pad + bullet, yy + k * lh, ln, CAUTION_PT)
+            yy += len(b) * lh
+        return y + h
+
+    def measure_caution(self, texts: tuple[str, ...], title: str = "") -> float:
+        """Height of `caution_box(texts, title)`."""
+        draw, self.draw = self.draw, False
+        try:
+            return self.caution_box(0.0, texts, title)
+        finally:
+            self.draw = draw
+
+    def footer_height(self) -> float:
+        return self.lh(FOOTER_PT) + 0.6
+
+    def footer(self, page_text: str = "") -> None:
+        """One line at the foot: the version, the short caution and the page."""
+        if not self.draw:
+            return
+        y = self.page_h - MARGIN_MM - self.lh(FOOTER_PT) + 1.0
+        text = self.layout.footer + (f"  {page_text}" if page_text else "")
+        size = self.fit_size(text, "", FOOTER_PT, self.w, 4.5)
+        self.font("", size)
+        self.text_at(self.x0, y, text, size)
 
     # --- the drawings --------------------------------------------------------------------------
 
-    def right_column_w(self) -> float:
-        return self.w * RIGHT_COLUMN
-
-    def right_column(self, y: float) -> float:
-        """The side view of the sight picture and the comparison in words."""
-        sv = self.layout.side_view
-        w = self.right_column_w()
-        x = self.x0 + self.w - w
-        y = self.bar(x, y, w, "SIGHT PICTURE, abeam the threshold")
-        if self.draw:
-            self.side_view(sv, (x, y, w, self.side_h))
-        y += self.side_h + 0.8
-        label_w = 15.0
-        return self.rows(y, self.layout.side_view.rows, x=x, width=w, label_w=label_w, sample_rows=(0, 1))
-
-    def legend(self, x: float, y: float, w: float, size: float, columns: int = 4) -> float:
-        """One entry per role on the plan view, with a sample drawn in that role's pen."""
+    def legend(self, x: float, y: float, w: float, columns: int = 3) -> float:
+        """One entry per role on the plan view, with a sample drawn in that role's pen, and the
+        labels left off the drawing (if any)."""
+        size = LABEL_PT
         sample_w = 6.0
         col_w = w / columns
         entries = self.layout.legend
@@ -360,7 +459,19 @@ class CardPainter:
                 while t and self.width_of(t) > col_w - sample_w - 0.5:
                     t = t[:-1]
                 self.text_at(cx + sample_w, cy + (lh - self.lh(size)) / 2, t, size)
-        return y + per_col * lh + 0.6
+        y += per_col * lh + 0.6
+        dropped = getattr(self, "dropped_labels", ())
+        if dropped:
+            y += self.paragraph(x, y, w, "Labels left off the drawing (no room): " + ", ".join(dropped) + ".",
+                                "", size) + 0.4
+        return y
+
+    def legend_height(self, w: float) -> float:
+        draw, self.draw = self.draw, False
+        try:
+            return self.legend(0.0, 0.0, w)
+        finally:
+            self.draw = draw
 
     def role_sample(self, role: Any, x: float, y: float, w: float) -> None:
         """A sample of a role drawn by `scene_to_primitives` itself (a marker, a hatched patch or
@@ -415,14 +526,29 @@ class CardPainter:
         else:
             pdf.polygon(list(p.points_mm), style="DF" if filled else "D")
 
-    def plan_view(self, box: tuple[float, float, float, float]) -> None:
-        prims = _place_labels(self, scene_to_primitives(self.layout.plan_view, box))
+    def plan_prims(self, box: tuple[float, float, float, float]) -> list[Any]:
+        """The plan view's primitives in `box`, labels placed (see `_place_labels`); records the
+        labels left off in `dropped_labels` for the legend."""
+        prims = scene_to_primitives(self.layout.plan_view, box)
+        out, self.dropped_labels = _place_labels(self, prims, box)
+        return out
+
+    def plan_view(self, box: tuple[float, float, float, float], prims: list[Any] | None = None) -> None:
+        """The plan view in `box`: the drawing clipped to its frame, the key (scale bar and north
+        arrow) on a white ground over it."""
+        prims = self.plan_prims(box) if prims is None else prims
         x, y, w, h = box
         # local_context around the clip: the PDF's state returns to the outside one at the end of
         # the clip, and so must fpdf's record of it (pen and font)
-        with self.pdf.local_context(), self.pdf.rect_clip(x, y, w, h):
+        with self.pdf.local_context(), self.pdf.rect_clip(x, y, w, drawing_height(h)):
             for p in prims:
-                self.primitive(p)
+                if p.item is not None:
+                    self.primitive(p)
+        self._font = None
+        with self.pdf.local_context():
+            for p in prims:
+                if p.item is None:
+                    self.primitive(p)
         self._font = None
 
     def side_view(self, sv: SideView, box: tuple[float, float, float, float]) -> None:
@@ -430,7 +556,8 @@ class CardPainter:
         circling height to the right, the sight lines to the runway (heights exaggerated)."""
         pdf = self.pdf
         x, y, w, h = box
-        pl, pr, pt, pb = 3.0, 3.0, 3.0, 4.0
+        size = LABEL_PT
+        pl, pr, pt, pb = 3.0, 3.0, 3.0 + self.lh(size), 3.0 + self.lh(size)
         planned = math.isfinite(sv.planned_offset_nm)       # no plan: no planned sight line
         d_max = max([sv.familiar_offset_nm, sv.familiar_offset_at_circling_nm, 0.1]
                     + ([sv.planned_offset_nm] if planned else [])) * 1.1
@@ -444,7 +571,6 @@ class CardPainter:
 
         self.pen(0.2)
         pdf.rect(x, y, w, h, style="D")
-        size = 5.6
         self.pen(0.35, fill=0.0)
         pdf.line(x, yg, x + w, yg)                                  # the ground
         pdf.rect(xg - 1.2, yg - 0.7, 2.4, 0.7, style="F")           # the runway, end on
@@ -478,109 +604,214 @@ class CardPainter:
         trap_y = t[1] + 1.2 if trap_x + trap_w + 0.8 < p[0] - plan_w / 2 else t[1] - 1.2 - self.lh(size)
         self.text_at(trap_x, trap_y, "trap", size)
         lab = f"usual {sv.familiar_height_ft:.0f} ft"
-        self.font("", size)
         tw = self.width_of(lab)
         self.text_at(max(x + 1.0, u[0] - tw - 1.5), u[1] - self.lh(size) / 2, lab, size)
         exaggeration = sy / (sx / NM_TO_FT)
         self.text_at(x, y + h - self.lh(size) - 0.3, f"heights x{exaggeration:.0f}", size, align="R", width=w - 1.0)
 
-    def warnings(self, y: float, limit: int | None = None) -> float:
-        """The findings, most severe first: DANGER reversed (white on black), WARNING boxed,
-        NOTE plain, each with its symbol, so that no colour is needed."""
-        y = self.bar(self.x0, y, self.w, "WARNINGS, most severe first")
-        size = ROW_PT * max(self.s, 0.9)
-        lh = self.lh(size)
-        tag_w = 14.0
-        if not self.layout.warnings:
-            return y + self.paragraph(self.x0, y, self.w, "No warnings.", "", size) + 0.4
-        items = self.layout.warnings if limit is None else self.layout.warnings[:limit]
-        for wl in items:
-            self.font("", size)
-            lines = self.lines(wl.text, self.w - tag_w)
-            if self.draw:
-                tag, ts = f"{wl.mark} {wl.word}", size * 0.9
-                self.font("B", ts)
-                box = (self.x0, y + 0.15, tag_w - 1.5, lh - 0.1)
-                if wl.severity == "danger":
-                    self.pen(fill=0.0)
-                    self.pdf.rect(*box, style="F")
-                    self.pdf.set_text_color(255)
-                elif wl.severity == "warning":
-                    self.pen(0.3)
-                    self.pdf.rect(*box, style="D")
-                self.text_at(self.x0 + 0.6, y + 0.15 + (lh - self.lh(ts)) / 2, tag, ts)
-                self.pdf.set_text_color(0)
-                self.font("", size)
-                for i, ln in enumerate(lines):
-                    self.text_at(self.x0 + tag_w, y + i * lh, ln, size)
-            y += len(lines) * lh + 0.35
-        if limit is not None and limit < len(self.layout.warnings):
-            more = len(self.layout.warnings) - limit
-            y += self.paragraph(self.x0 + tag_w, y, self.w - tag_w,
-                                f"... and {more} more not shown here: see the brief on screen.", "B", size)
-        return y + 0.4
 
-    def cautions(self, y: float) -> float:
-        """The CAUTIONS box: heavy border, light grey ground; returns its height."""
-        size = CAUTION_PT * max(self.s, 0.92)
-        lh = self.lh(size)
-        pad = 1.2
-        bullet = 2.2
-        inner = self.w - 2 * pad - bullet
-        self.font("", size)
-        blocks = [self.lines(c, inner) for c in self.layout.cautions]
-        h = pad + self.lh(SECTION_PT) + sum(len(b) for b in blocks) * lh + pad - 0.4
-        if not self.draw:
-            return h
-        self.pen(0.7, fill=0.93)
-        self.pdf.rect(self.x0, y, self.w, h, style="DF")
-        self.font("B", SECTION_PT)
-        self.text_at(self.x0 + pad, y + pad - 0.2, "CAUTIONS", SECTION_PT)
-        yy = y + pad + self.lh(SECTION_PT) - 0.2
-        self.font("", size)
-        for b in blocks:
-            self.text_at(self.x0 + pad, yy, "-", size)
-            for i, ln in enumerate(b):
-                self.text_at(self.x0 + pad + bullet, yy + i * lh, ln, size)
-            yy += len(b) * lh
-        return h
+class Flow:
+    """Blocks set one below the other over as many pages as they need (the detail pages): a block
+    that does not fit goes to a new page, which gets the continued header and the footer."""
 
-    def footer_height(self) -> float:
-        return self.lh(FOOTER_PT) + 0.6
+    def __init__(self, card: CardPainter, first_page: int, heading: str) -> None:
+        self.card = card
+        self.page = first_page
+        self.heading = heading
+        self.pages = 1
+        self.bottom = card.page_h - MARGIN_MM - card.footer_height() - GAP_MM
+        self.total: int | None = None
 
-    def footer(self) -> None:
-        if not self.draw:
-            return
-        y = self.page_h - MARGIN_MM - self.lh(FOOTER_PT) + 1.0
-        self.font("", FOOTER_PT)
-        self.text_at(self.x0, y, self.layout.footer, FOOTER_PT)
+    def start(self) -> float:
+        """Begin a page: its header; returns the y below it."""
+        card = self.card
+        if card.draw:
+            card.pdf.add_page()
+        return card.header(MARGIN_MM, title=f"{card.layout.title}, {self.heading}",
+                           subtitle=f"{card.layout.approach} (continued from page 1)")
 
-    # --- the page ------------------------------------------------------------------------------
+    def need(self, y: float, h: float) -> float:
+        """The y to draw a block of height `h` at: `y`, or the top of a new page."""
+        if y + h <= self.bottom or y <= self._top:
+            return y
+        self.end_page()
+        self.page += 1
+        self.pages += 1
+        self._top = self.start()
+        return self._top
 
-    def cautions_top(self) -> float:
-        draw, self.draw = self.draw, False
-        try:
-            return self.page_h - MARGIN_MM - self.footer_height() - self.cautions(0.0)
-        finally:
-            self.draw = draw
+    _top = 0.0
 
-    def run(self, plan_h: float, warn_limit: int | None = None) -> float:
-        """Lay the page out from the top (the plan view at least `plan_h` tall); returns the bottom
-        of the content above the cautions."""
-        y = self.header(MARGIN_MM)
-        y = self.section(y, self.layout.minimums)
-        y = self.section(y, self.layout.plan)
-        top = y
-        h = max(plan_h, self.right_column(top) - top)
-        self.plan_h_used = h
-        if self.draw:
-            self.plan_view((self.x0, top, self.w - self.right_column_w() - GAP_MM, h))
-        y = self.legend(self.x0, top + h + 0.4, self.w, ROW_PT * self.s)
-        y = self.section(y, self.layout.wind)
-        y = self.warnings(y, warn_limit)
-        for sec in self.extra_sections:
-            y = self.section(y, sec)
-        return y
+    def begin(self) -> float:
+        self._top = self.start()
+        return self._top
+
+    def end_page(self) -> None:
+        total = f" of {self.total}" if self.total else ""
+        self.card.footer(f"page {self.page}{total}")
+
+
+def _front(card: CardPainter, warn_limit: int, plan_prims: list[Any] | None = None,
+           detail: bool = True) -> tuple[float, float]:
+    """Lay out (or draw) the front page with this many warnings; returns (top of the plan view,
+    its height, possibly < PLAN_FLOOR_MM: then it is not drawn here)."""
+    L = card.layout
+    y = card.header(MARGIN_MM)
+    for sec in (L.minimums, L.plan):
+        y = card.bar(card.x0, y, card.w, sec.title, sec.status, sec.alert)
+        y = card.figures(y, sec.figures)
+    y = card.rows(y, front_rows(L))
+    shown, rest = front_warnings(L, warn_limit)
+    title = "WARNINGS, most severe first" if shown else "WARNINGS"
+    y = card.bar(card.x0, y, card.w, title)
+    if shown:
+        y = card.warnings(y, shown)
+    summary = rest_summary(L, shown, rest, detail)
+    if summary:
+        y += card.paragraph(card.x0, y, card.w, summary, "B" if rest else "", BODY_PT) + 0.6
+    caution_top = card.page_h - MARGIN_MM - card.footer_height() - card.measure_caution(front_cautions(detail)) - GAP_MM
+    plan_top = y
+    legend_h = card.legend_height(card.w)
+    plan_h = caution_top - GAP_MM - legend_h - plan_top
+    if plan_h >= PLAN_FLOOR_MM:
+        if card.draw:
+            box = (card.x0, plan_top, card.w, plan_h)
+            card.plan_view(box, plan_prims)
+            card.legend(card.x0, plan_top + plan_h + 0.6, card.w)
+    if card.draw:
+        card.caution_box(caution_top, front_cautions(detail))
+    return plan_top, plan_h
+
+
+def front_rows(layout: CardLayout) -> tuple[Row, ...]:
+    """The front page's lines of body type: the missed approach and the wind."""
+    rows = [r for r in layout.plan.rows if r.label == "Missed appr"][:1]
+    rows += [r for r in layout.wind.rows if r.label == "Wind"][:1]
+    return tuple(rows)
+
+
+def front_warnings(layout: CardLayout, limit: int) -> tuple[tuple[WarningLine, ...], tuple[WarningLine, ...]]:
+    """(shown on the front page, left for the detail pages) of the dangers and warnings."""
+    severe = tuple(w for w in layout.warnings if w.severity in FRONT_SEVERITIES)
+    return severe[:limit], severe[limit:]
+
+
+def rest_summary(layout: CardLayout, shown: tuple[WarningLine, ...], rest: tuple[WarningLine, ...],
+                 detail: bool) -> str:
+    """The line under the front page's warnings naming what is not on it."""
+    notes = sum(1 for w in layout.warnings if w.severity not in FRONT_SEVERITIES)
+    bits = []
+    if rest:
+        bits.append(f"{len(rest)} more warning{'s' if len(rest) != 1 else ''}")
+    if notes:
+        bits.append(f"{notes} note{'s' if notes != 1 else ''}")
+    if not shown and not rest:
+        head = "No warnings."
+        return head + (f" {notes} note{'s' if notes != 1 else ''} on page 2." if notes and detail else "")
+    if not bits:
+        return ""
+    where = "on page 2" if detail else "in the brief on screen (page 2 not printed)"
+    return ("... and " if rest else "") + " and ".join(bits) + f" {where}."
+
+
+def front_cautions(detail: bool) -> tuple[str, ...]:
+    return (SHORT_CAUTION + (" All cautions: page 2." if detail else ""),)
+
+
+def _front_fit(card: CardPainter) -> int:
+    """How many of the dangers and warnings the front page shows: all, unless the plan view
+    would fall under `PLAN_MIN_MM`; then as many as keep it there (never smaller type)."""
+    severe = sum(1 for w in card.layout.warnings if w.severity in FRONT_SEVERITIES)
+    draw, card.draw = card.draw, False
+    try:
+        for limit in range(severe, -1, -1):
+            _, plan_h = _front(card, limit)
+            if plan_h >= PLAN_MIN_MM:
+                return limit
+        return 0
+    finally:
+        card.draw = draw
+
+
+def _details(card: CardPainter, extra: tuple[Section, ...], plan_on_front: bool, first_page: int = 2,
+             total: int | None = None) -> int:
+    """The detail pages (flowing): every section's small print, the sight picture, every warning
+    and note, the extra sections, the full cautions. Returns how many pages they took."""
+    L = card.layout
+    flow = Flow(card, first_page, "details")
+    flow.total = total
+    y = flow.begin()
+    if not plan_on_front:
+        h = min(card.w * 0.8, flow.bottom - y - 20.0)
+        y = flow.need(y, h + 10.0)
+        card.plan_view((card.x0, y, card.w, h)) if card.draw else None
+        y = card.legend(card.x0, y + h + 0.6, card.w)
+    for sec in (L.minimums, L.plan):
+        y = flow.need(y, card.lh(SECTION_PT) + 2 * card.lh(BODY_PT))
+        y = card.bar(card.x0, y, card.w, f"{sec.title}: the small print")
+        y = card.rows(y, sec.rows, flow=flow)
+    y = flow.need(y, card.lh(SECTION_PT) + SIDE_VIEW_H_MM + 2.0)
+    y = card.bar(card.x0, y, card.w, "SIGHT PICTURE, abeam the threshold")
+    if card.draw:
+        card.side_view(L.side_view, (card.x0, y, card.w, SIDE_VIEW_H_MM))
+    y += SIDE_VIEW_H_MM + 1.0
+    y = card.rows(y, L.side_view.rows, sample_rows=(0, 1), flow=flow)
+    y = flow.need(y, card.lh(SECTION_PT) + 2 * card.lh(BODY_PT))
+    y = card.bar(card.x0, y, card.w, L.wind.title)
+    y = card.rows(y, L.wind.rows, flow=flow)
+    y = flow.need(y, card.lh(SECTION_PT) + 2 * card.lh(BODY_PT))
+    y = card.bar(card.x0, y, card.w, "EVERY WARNING AND NOTE, most severe first")
+    if L.warnings:
+        y = card.warnings(y, L.warnings, flow=flow)
+    else:
+        y += card.paragraph(card.x0, y, card.w, "No warnings.", "", BODY_PT) + 0.6
+    for sec in extra:
+        first = card.figure_height(sec.figures[:FIGURES_PER_ROW]) if sec.figures else 2 * card.lh(BODY_PT)
+        y = flow.need(y, card.lh(SECTION_PT) + card.lh(BODY_PT) + first)
+        y = card.bar(card.x0, y, card.w, sec.title, sec.status, sec.alert)
+        for start in range(0, len(sec.figures), FIGURES_PER_ROW):
+            part = sec.figures[start:start + FIGURES_PER_ROW]
+            y = flow.need(y, card.figure_height(part))
+            y = card.figures(y, part)
+        y = card.rows(y, sec.rows, flow=flow)
+    h = card.measure_caution(L.cautions, "CAUTIONS")
+    y = flow.need(y + GAP_MM, h)
+    card.caution_box(y, L.cautions, "CAUTIONS")
+    flow.end_page()
+    return flow.pages
+
+
+def draw_card_page(pdf: Any, layout: CardLayout, *, extra: tuple[Section, ...] = (),
+                   widths: dict[tuple[str, float, str], float] | None = None, detail: bool = True) -> int:
+    """Draw the card: the front page on the current page of `pdf` (an fpdf2 FPDF in millimetres,
+    a page added; the page's own size is used), then, with `detail`, the detail pages it adds.
+
+    Args:
+        pdf: The document (e.g. a deck that prints several cards).
+        layout: What to print.
+        extra: Sections printed on the detail pages after the warnings, in the card's style.
+        widths: A text-width cache to share between pages.
+        detail: Add the detail pages (page 2 on); without them the front page says where the
+            rest is.
+
+    Returns:
+        The number of pages drawn.
+    """
+    widths = {} if widths is None else widths
+    card = CardPainter(pdf, layout, pdf.w, pdf.h, widths)
+    pdf.set_text_color(0)
+    pdf.set_draw_color(0)
+    limit = _front_fit(card)
+    total = None
+    if detail:
+        card.draw = False
+        total = 1 + _details(card, extra, True)
+    card.draw = True
+    _, plan_h = _front(card, limit, detail=detail)
+    card.footer(f"page 1 of {total}" if total else "page 1 of 1")
+    if not detail:
+        return 1
+    return 1 + _details(card, extra, plan_h >= PLAN_FLOOR_MM, total=total)
 
 
 Box = tuple[float, float, float, float]   # x0, y0, x1, y1 in page mm
@@ -596,128 +827,39 @@ def _overlap(a: Box, b: Box) -> bool:
     return a[0] < b[2] and b[0] < a[2] and a[1] < b[3] and b[1] < a[3]
 
 
-def _place_labels(card: CardPainter, prims: list[Any]) -> list[Any]:
-    """Move the plan view's text off the drawing's key lines and off other text.
+def _place_labels(card: CardPainter, prims: list[Any], box: tuple[float, float, float, float]
+                  ) -> tuple[list[Any], tuple[str, ...]]:
+    """Move the plan view's text off the drawing's key lines and off other text (the shared
+    placement of `briefer.render.labels`); returns the primitives and the labels left off."""
+    from briefer.render.labels import place_paper_labels
 
-    A runway designator goes just beyond its runway's end, along the runway (not on the runway,
-    where it would hide it); a marker's label tries up-right, up-left, down-right, down-left of
-    the marker. The first place free of the text already placed wins; if none is, the first.
-    The geometry itself is `scene_to_primitives`'s; only where the words sit changes.
-    """
-    scene, pdf = card.layout.plan_view, card.pdf
-    ends: list[tuple[tuple[float, float], tuple[float, float]]] = []
-    for p in prims:
-        if isinstance(p, LinePrim) and p.style == Role.RUNWAY.value and len(p.points_mm) == 2:
-            a, b = p.points_mm
-            ends += [(a, b), (b, a)]
-    placed: list[Box] = []
-    out = []
-    for p in prims:
-        if not (isinstance(p, TextPrim) and p.item is not None):
-            out.append(p)
-            continue
-        item = scene.items[p.item]
-        card.font("", p.size_mm * pdf.k)
-        tw = card.width_of(_t(p.text))
-        size = p.size_mm
-        candidates = [p]
-        if isinstance(item, Label):
-            x, y = p.point_mm[0], p.point_mm[1] - size * 0.35      # the point the label is centred on
-            for (ex, ey), (ox, oy) in ends:
-                length = math.hypot(ex - ox, ey - oy)
-                if length > 0 and math.hypot(ex - x, ey - y) < 0.3:
-                    ux, uy = (ex - ox) / length, (ey - oy) / length
-                    reach = 1.0 + min(tw / 2 / max(abs(ux), 1e-9), size * 0.4 / max(abs(uy), 1e-9))
-                    candidates = [replace(p, point_mm=(ex + ux * r + px * side, ey + uy * r + py * side + size * 0.35))
-                                  for r, px, py, side in ((reach, 0, 0, 0), (reach + size, 0, 0, 0),
-                                                          (reach, -uy, ux, size), (reach, uy, -ux, size))]
-                    break
-        elif isinstance(item, Marker):
-            # the marker's centre (scene_to_primitives puts its label up and to the right of it)
-            mx, my = p.point_mm[0] - MARKER_SIZE_MM * 0.7, p.point_mm[1] + MARKER_SIZE_MM * 0.3
-            dx, up, down = MARKER_SIZE_MM * 0.7, -MARKER_SIZE_MM * 0.3, MARKER_SIZE_MM * 0.3 + size * 0.8
-            candidates = [replace(p, point_mm=(mx + dx, my + up)),
-                          replace(p, point_mm=(mx - dx, my + up), anchor="end"),
-                          replace(p, point_mm=(mx + dx, my + down)),
-                          replace(p, point_mm=(mx - dx, my + down), anchor="end")]
-        choice = next((c for c in candidates if not any(_overlap(_text_box(c, tw), q) for q in placed)),
-                      candidates[0])
-        placed.append(_text_box(choice, tw))
-        out.append(choice)
-    return out
+    return place_paper_labels(prims, card.layout.plan_view, box, lambda text, size_mm: _measure(card, text, size_mm))
 
 
-def _spare(card: CardPainter, plan_h: float, warn_limit: int | None = None) -> tuple[float, float]:
-    """(millimetres left over, negative for an overflow; the plan view's height) with this
-    least plan height and these warnings."""
-    draw, card.draw = card.draw, False
-    try:
-        return card.cautions_top() - GAP_MM - card.run(plan_h, warn_limit), card.plan_h_used
-    finally:
-        card.draw = draw
+def _measure(card: CardPainter, text: str, size_mm: float) -> float:
+    card.font("", size_mm * card.pdf.k)
+    return card.width_of(_t(text))
 
 
-@dataclass(frozen=True, slots=True)
-class _Fit:
-    """How the page is filled: scale of the small print, least plan-view height [mm], side-view
-    height [mm], and how many warnings are shown (None: all)."""
+def front_plan(layout: CardLayout, *, page: str = "half-letter") -> tuple[tuple[float, float, float, float],
+                                                                           list[Any], tuple[str, ...]]:
+    """The front page's plan view as drawn: its box [mm], its primitives with the labels placed,
+    and the labels left off (for checks of the drawing without reading the PDF back)."""
+    from fpdf import FPDF
 
-    scale: float
-    plan_h: float
-    side_h: float = SIDE_VIEW_H_MM
-    limit: int | None = None
-
-
-def _fit(pdf: Any, layout: CardLayout, page_w: float, page_h: float,
-         widths: dict[tuple[str, float, str], float], extra: tuple[Section, ...] = ()) -> _Fit:
-    """The largest print and plan view that fit. At the smallest print the plan view gives way to
-    its floor, then the side view shrinks; only then are warnings left off (a line says how many)."""
-    def card(scale: float, side_h: float = SIDE_VIEW_H_MM) -> CardPainter:
-        return CardPainter(pdf, layout, page_w, page_h, scale, widths, side_h=side_h, extra=extra)
-
-    for sc in SCALES:
-        c = card(sc)
-        spare, used = _spare(c, PLAN_MIN_MM)
-        if spare >= 0:
-            return _Fit(sc, min(used + spare, c.w * (1 - RIGHT_COLUMN)))
-    for side_h in SIDE_VIEW_STEPS_MM:
-        c = card(MIN_SCALE, side_h)
-        spare, used = _spare(c, PLAN_FLOOR_MM)
-        if spare >= 0:
-            return _Fit(MIN_SCALE, used + spare, side_h)
-    for lim in range(len(layout.warnings) - 1, -1, -1):
-        spare, used = _spare(c, PLAN_FLOOR_MM, lim)
-        if spare >= 0:
-            return _Fit(MIN_SCALE, used + spare, SIDE_VIEW_STEPS_MM[-1], lim)
-    return _Fit(MIN_SCALE, PLAN_FLOOR_MM, SIDE_VIEW_STEPS_MM[-1], 0)
+    page_w, page_h = page_size_mm(page)
+    pdf = FPDF(orientation="P", unit="mm", format=(page_w, page_h))
+    pdf.add_page()
+    card = CardPainter(pdf, layout, page_w, page_h)
+    top, h = _front(card, _front_fit(card))
+    box = (card.x0, top, card.w, h)
+    prims = card.plan_prims(box)
+    return box, prims, tuple(card.dropped_labels)
 
 
-def draw_card_page(pdf: Any, layout: CardLayout, *, extra: tuple[Section, ...] = (),
-                   widths: dict[tuple[str, float, str], float] | None = None) -> None:
-    """Fit and draw the card on the current page of `pdf` (an fpdf2 FPDF in millimetres, a page
-    added; the page's own size is used).
-
-    Args:
-        pdf: The document (e.g. a deck that prints several cards).
-        layout: What to print.
-        extra: Sections printed after the warnings in the card's style (the page is fitted with
-            them, so they never push the cautions off the page).
-        widths: A text-width cache to share between pages.
-    """
-    widths = {} if widths is None else widths
-    page_w, page_h = pdf.w, pdf.h
-    fit = _fit(pdf, layout, page_w, page_h, widths, extra)
-    card = CardPainter(pdf, layout, page_w, page_h, fit.scale, widths, side_h=fit.side_h, extra=extra)
-    card.draw = True
-    pdf.set_text_color(0)
-    pdf.set_draw_color(0)
-    card.run(fit.plan_h, fit.limit)
-    card.cautions(card.cautions_top())
-    card.footer()
-
-
-def layout_pdf_bytes(layout: CardLayout, *, page: str = "half-letter") -> bytes:
-    """The one-page PDF card of a layout (see the module docstring)."""
+def layout_pdf_bytes(layout: CardLayout, *, page: str = "half-letter", detail: bool = True) -> bytes:
+    """The PDF card of a layout: the front page, and with `detail` the detail pages (see the
+    module docstring)."""
     page_w, page_h = page_size_mm(page)
     from fpdf import FPDF   # about 0.3 s to import: only when a PDF is made
 
@@ -729,14 +871,15 @@ def layout_pdf_bytes(layout: CardLayout, *, page: str = "half-letter") -> bytes:
     pdf.set_subject(_t(layout.footer))
     pdf.set_creator("briefer")
     pdf.add_page()
-    draw_card_page(pdf, layout)
+    draw_card_page(pdf, layout, detail=detail)
     return bytes(pdf.output())
 
 
-def card_pdf_bytes(brief: Brief, *, page: str = "half-letter") -> bytes:
-    """The one-page PDF kneeboard card of a Brief (half-letter or A5, portrait)."""
-    return layout_pdf_bytes(card_layout(brief), page=page)
+def card_pdf_bytes(brief: Brief, *, page: str = "half-letter", detail: bool = True) -> bytes:
+    """The PDF kneeboard card of a Brief (half-letter or A5, portrait): the front page, and with
+    `detail` the detail pages."""
+    return layout_pdf_bytes(card_layout(brief), page=page, detail=detail)
 
 
-__all__ = ["FIXED_DATE", "PAGE_SIZES_MM", "card_pdf_bytes", "creation_date", "draw_card_page", "layout_pdf_bytes",
-           "page_size_mm"]
+__all__ = ["BODY_PT", "FIXED_DATE", "LABEL_PT", "PAGE_SIZES_MM", "card_pdf_bytes", "creation_date", "draw_card_page",
+           "layout_pdf_bytes", "page_size_mm"]

@@ -7,11 +7,13 @@ the top-right corner and a scale bar in nautical miles in the bottom-left corner
 
 from __future__ import annotations
 
+import math
 import os
 from collections.abc import Mapping
 from dataclasses import dataclass
 
-from briefer.render.canvas import ROLE_DASH, AsciiCanvas, BrailleCanvas, Canvas
+from briefer.render.canvas import _EMPTY, _FILL, ROLE_DASH, AsciiCanvas, BrailleCanvas, Canvas
+from briefer.render.labels import SOFT_ROLES, LabelSpec, label_priority, place, runway_axis
 from briefer.render.scene import (
     GENERIC_DASH_DOTS,
     ROLE_STYLES,
@@ -75,8 +77,8 @@ def draw_scene(canvas: Canvas, scene: Scene, *, viewport: Viewport | None = None
         The viewport used.
     """
     vp = viewport or canvas.fit(scene)
-    labels: list[tuple[float, float, str, Role, bool]] = []
-    for _, item in scene.by_layer():
+    labels: list = []
+    for index, item in scene.by_layer():
         role = item.role
         if isinstance(item, Polyline):
             pts = vp.points_to_view(item.points)
@@ -91,14 +93,13 @@ def draw_scene(canvas: Canvas, scene: Scene, *, viewport: Viewport | None = None
             x, y = vp.to_view(*item.point)
             canvas.glyph(x, y, SYMBOLS[item.symbol or "cross"], role)
             if item.label:
-                labels.append((x, y, item.label, role, True))
+                labels.append((index, item, x, y))
         elif isinstance(item, Label):
             x, y = vp.to_view(*item.point)
-            labels.append((x, y, item.text, role, False))
-    for x, y, text, role, beside in labels:  # text last, so that lines never cut a label
-        _place_label(canvas, x, y, text, role, beside)
+            labels.append((index, item, x, y))
     if decorations:
-        _decorate(canvas, scene, vp)
+        _decorate(canvas, scene, vp)   # before the words, so that no label lands on the key
+    _place_labels(canvas, scene, vp, labels)   # text last, so that lines never cut a label
     return vp
 
 
@@ -111,21 +112,53 @@ def _dashed(canvas: Canvas, role: Role) -> tuple[int, int]:
     return own or GENERIC_DASH_DOTS
 
 
-def _place_label(canvas: Canvas, x: float, y: float, text: str, role: Role, beside: bool) -> None:
-    """Write a label beside a marker (right, left, above, below: the first free place) or
-    centred on a point."""
-    col, row = canvas.cell_of(x, y)
-    n = len(text)
-    if beside:
-        tries = [(col + 1, row), (col - n, row), (col - n // 2, row - 1), (col - n // 2, row + 1)]
-    else:
-        tries = [(col - n // 2, row), (col - n // 2, row - 1), (col - n // 2, row + 1)]
-    for c, r in tries:
-        if canvas.is_free(c, r, n):
-            canvas.text(c, r, text, role)
-            return
-    c, r = tries[0]
-    canvas.text(max(0, min(c, canvas.cols - n)), r, text, role)
+def _place_labels(canvas: Canvas, scene: Scene, vp: Viewport, labels: list) -> None:
+    """Write the labels where `briefer.render.labels.place` finds room, in whole cells; records
+    the boxes placed (`canvas.label_boxes`: (col, row, length)) and the labels left off
+    (`canvas.dropped_labels`)."""
+    dx, dy = canvas.dots_per_cell
+
+    def to_cells(x: float, y: float) -> tuple[float, float]:
+        return ((x + 0.5) / dx, (y + 0.5) / dy)
+
+    def world_to_cells(x: float, y: float) -> tuple[float, float]:
+        return to_cells(*vp.to_view(x, y))
+
+    specs = []
+    for index, item, x, y in labels:
+        text = item.label if isinstance(item, Marker) else item.text
+        if isinstance(item, Marker):
+            col, row = canvas.cell_of(x, y)
+            anchor, axis = (col + 0.5, row + 0.5), None
+        else:
+            anchor, axis = to_cells(x, y), runway_axis(scene, item.point, world_to_cells)
+        specs.append(LabelSpec(text=text, anchor=anchor, width=len(text), height=1.0, gap_x=0.5, gap_y=0.5,
+                               priority=label_priority(item), axis=axis, item=index))
+    prio, roles, cols = canvas._prio, canvas._role, canvas.cols
+
+    def is_free(box: tuple[float, float, float, float], strict: bool) -> bool:
+        c0, r, c1 = round(box[0]), round(box[1]), round(box[2])
+        for c in range(r * cols + c0, r * cols + c1):
+            if prio[c] == _EMPTY:
+                continue
+            if strict or (prio[c] != _FILL and roles[c] not in SOFT_ROLES):
+                return False
+        return True
+
+    def snap(box: tuple[float, float, float, float]) -> tuple[float, float, float, float]:
+        c, r = math.floor(box[0] + 0.5), math.floor(box[1] + 0.5)
+        return (c, r, c + round(box[2] - box[0]), r + 1)
+
+    spots = place(specs, is_free, (0, 0, canvas.cols, canvas.rows), snap=snap)
+    canvas.label_boxes = []
+    canvas.dropped_labels = []
+    for spec, spot in zip(specs, spots):
+        if spot is None:
+            canvas.dropped_labels.append(spec.text)
+            continue
+        role = scene.items[spec.item].role
+        canvas.text(int(spot[0]), int(spot[1]), spec.text, role)
+        canvas.label_boxes.append((int(spot[0]), int(spot[1]), len(spec.text)))
 
 
 def _decorate(canvas: Canvas, scene: Scene, vp: Viewport) -> None:

@@ -239,6 +239,8 @@ class Marker:
     role: Role
     symbol: str | None = None
     label: str = ""
+    priority: int = 0
+    """How much the label matters when space runs out (0: by role; see `briefer.render.labels`)."""
 
     def __post_init__(self) -> None:
         object.__setattr__(self, "point", _point(self.point))
@@ -256,6 +258,8 @@ class Label:
     point: Point
     text: str
     role: Role = Role.ANNOTATION
+    priority: int = 0
+    """How much the label matters when space runs out (0: a runway designator's default)."""
 
     def __post_init__(self) -> None:
         object.__setattr__(self, "point", _point(self.point))

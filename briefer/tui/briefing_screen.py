@@ -240,6 +240,9 @@ class BriefingScreen(Screen):
     brief: Brief | None = None
     _dirty: set[str] = set()
 
+    def on_plan_canvas_legend_changed(self, event: PlanCanvas.LegendChanged) -> None:
+        self._update("plan-legend", self.node(PlanCanvas).legend_text())
+
     def on_tabbed_content_tab_activated(self, event: TabbedContent.TabActivated) -> None:
         self._draw_pane(event.pane.id or "")
 

@@ -6,6 +6,7 @@ from typing import TYPE_CHECKING
 
 from rich.style import Style
 from rich.text import Text
+from textual.message import Message
 from textual.reactive import reactive
 from textual.widget import Widget
 
@@ -62,7 +63,15 @@ class PlanCanvas(Widget):
                 t.append("  ")
             t.append(entry.sample.strip() or entry.sample, style=role_style(entry.role))
             t.append(" " + SHORT_LEGEND_BY_NAME.get(entry.role.name, entry.text))
+        if self.dropped:
+            t.append("  labels left off (no room): " + ", ".join(self.dropped), style="bold")
         return t
+
+    dropped: tuple[str, ...] = ()
+    """The labels the last drawing had no room for (the legend says so)."""
+
+    class LegendChanged(Message):
+        """The drawing left off other labels than before: the legend should be shown again."""
 
     def render(self):
         if self.scene is None:
@@ -72,5 +81,10 @@ class PlanCanvas(Widget):
         if self._cache is None or self._cache[0] != key:
             from briefer.render.planview import render_plan
 
-            self._cache = (key, render_plan(self.scene, max(w, 4), max(h, 2), ascii=self.ascii))
+            canvas = render_plan(self.scene, max(w, 4), max(h, 2), ascii=self.ascii)
+            self._cache = (key, canvas)
+            dropped = tuple(canvas.dropped_labels)
+            if dropped != self.dropped:
+                self.dropped = dropped
+                self.post_message(self.LegendChanged())
         return self._cache[1]
