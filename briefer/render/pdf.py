@@ -671,13 +671,19 @@ def _front(card: CardPainter, warn_limit: int, plan_prims: list[Any] | None = No
         y += card.paragraph(card.x0, y, card.w, summary, "B" if rest else "", BODY_PT) + 0.6
     caution_top = card.page_h - MARGIN_MM - card.footer_height() - card.measure_caution(front_cautions(detail)) - GAP_MM
     plan_top = y
+    card.dropped_labels = ()
     legend_h = card.legend_height(card.w)
     plan_h = caution_top - GAP_MM - legend_h - plan_top
-    if plan_h >= PLAN_FLOOR_MM:
-        if card.draw:
+    if plan_h >= PLAN_FLOOR_MM and card.draw:
+        box = (card.x0, plan_top, card.w, plan_h)
+        prims = card.plan_prims(box) if plan_prims is None else plan_prims
+        extra = card.legend_height(card.w) - legend_h      # a line naming labels left off
+        if extra > 0:
+            plan_h -= extra
             box = (card.x0, plan_top, card.w, plan_h)
-            card.plan_view(box, plan_prims)
-            card.legend(card.x0, plan_top + plan_h + 0.6, card.w)
+            prims = card.plan_prims(box)
+        card.plan_view(box, prims)
+        card.legend(card.x0, plan_top + plan_h + 0.6, card.w)
     if card.draw:
         card.caution_box(caution_top, front_cautions(detail))
     return plan_top, plan_h
@@ -854,6 +860,14 @@ def front_plan(layout: CardLayout, *, page: str = "half-letter") -> tuple[tuple[
     top, h = _front(card, _front_fit(card))
     box = (card.x0, top, card.w, h)
     prims = card.plan_prims(box)
+    if card.dropped_labels:               # as `_front` draws it: a line under the legend says so
+        dropped = card.dropped_labels
+        card.dropped_labels = ()
+        extra = -card.legend_height(card.w)
+        card.dropped_labels = dropped
+        extra += card.legend_height(card.w)
+        box = (card.x0, top, card.w, h - extra)
+        prims = card.plan_prims(box)
     return box, prims, tuple(card.dropped_labels)
 
 
