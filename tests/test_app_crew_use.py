@@ -130,7 +130,7 @@ async def test_stale_line_says_which_value_the_kept_brief_shows():
         assert app.stale is not None
         line = " ".join(text_of(app.main.query_one("#warnings"), width=80).split())
         assert "STALE" in line
-        assert "the brief shown has wind 250/15" in line
+        assert "last good brief shown: wind 250/15. wind: cannot read" in line
 
 
 async def test_export_card_twice_speaks_the_dialogs_language(tmp_path):

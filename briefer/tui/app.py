@@ -380,8 +380,8 @@ class BriefingApp(App[None]):
             name, msg = next(iter(self.field_errors.items()))
             reason = f"{name}: {msg}"
             shown = self._shown_value(name)
-            if shown is not None:
-                reason += f" (the brief shown has {name} {shown})"
+            if shown is not None:       # first, so that a long message cannot push it off the line
+                reason = f"{name} {shown}. {reason}"
         elif self._model_error is not None:
             field, msg = self._model_error
             reason = f"{field}: {msg}" if field else msg
