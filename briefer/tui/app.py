@@ -490,7 +490,8 @@ class BriefingApp(App[None]):
 
         steps = ", ".join(label for _, label in STEPS)
         keys = [("1-8", f"Go to a step or view: {steps}")]
-        keys += [(key_name(b.key_display or b.key), b.description) for b in self.BINDINGS
+        helps = {action: help_text for action, _, help_text in ACTIONS}
+        keys += [(key_name(b.key_display or b.key), helps.get(b.action, b.description)) for b in self.BINDINGS
                  if isinstance(b, Binding) and b.description and not b.key.isdigit()]
         keys += [("ctrl+p", "Command palette (every action)"), ("ctrl+q", "Quit"),
                  ("tab / shift+tab", "Next / previous field or list")]
