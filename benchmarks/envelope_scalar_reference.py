@@ -1,6 +1,6 @@
 """Plain-Python scalar reference of the wind envelope (loops and the math module only).
 
-It re-derives everything the vectorised ``briefer.core.maneuver_envelope.wind_envelope`` does,
+It re-derives everything the vectorised ``briefer.core.manoeuvre.envelope.wind_envelope`` does,
 one cell, one candidate, one bank level and one track point at a time, without numpy:
 crab angles, turn timing (with optional roll ramps and Gauss-Legendre nodes found here by
 Newton's method), the closed-form solve of each plan shape, the track samples, the margins,

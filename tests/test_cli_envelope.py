@@ -15,7 +15,7 @@ from numpy.testing import assert_allclose
 from briefer.brief import build_brief, demo_request, envelope_for, situation
 from briefer.cautions import CAUTIONS
 from briefer.cli import main
-from briefer.core.maneuver_envelope import DOES_NOT_FIT, REASON_AREA, REASON_BANK, REASON_VISIBILITY, REASON_WIND
+from briefer.core.manoeuvre.envelope import DOES_NOT_FIT, REASON_AREA, REASON_BANK, REASON_VISIBILITY, REASON_WIND
 
 COARSE = ["--direction-step-deg", "30", "--speed-step-kt", "10"]
 

@@ -1,4 +1,4 @@
-"""Tests of the vectorised wind envelope (briefer.core.maneuver_envelope).
+"""Tests of the vectorised wind envelope (briefer.core.manoeuvre.envelope).
 
 The main check is agreement with an independent plain-Python scalar implementation,
 benchmarks/envelope_scalar_reference.py (loops and the math module), on small grids; then the

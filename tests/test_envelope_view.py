@@ -14,7 +14,7 @@ import numpy as np
 import pytest
 from rich.console import Console
 
-from briefer.core.maneuver_envelope import (
+from briefer.core.manoeuvre.envelope import (
     DOES_NOT_FIT,
     FITS,
     MARGINAL,

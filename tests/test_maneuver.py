@@ -267,7 +267,7 @@ def test_descent_geometry_hand_derived():
 
 
 def test_applicable_candidates():
-    # our rules (maneuver_solver docstring): reciprocal -> break and teardrop both sides;
+    # our rules (manoeuvre.solver docstring): reciprocal -> break and teardrop both sides;
     # crossing from the left at 90 deg -> direct turn (left) and downwind join on the right
     assert {s for s, _ in applicable_candidates(180.0)} == {"break-and-return", "teardrop"}
     assert set(applicable_candidates(90.0)) == {("direct-turn", "left"), ("downwind-join", "right")}
@@ -662,7 +662,7 @@ def test_circuit_reports_what_cannot_be_flown():
                            roll_out_distance_m=1400.0), shape="overfly-circuit", side="left")
     assert not p.feasible and any("inside the final turn" in r for r in p.reasons)
     # an arrival going the wrong way along the runway is reported, not raised
-    from briefer.core.maneuver_solver import solve_inputs
+    from briefer.core.manoeuvre.solver import solve_inputs
     sol = solve_inputs(aligned(arrival_course_deg=180.0), "overfly-circuit", sigma=1.0, wx_mps=0.0, wy_mps=0.0,
                        bank_deg=25.0)
     assert not bool(sol.ok)
@@ -787,3 +787,12 @@ def test_no_join_note_for_a_join_at_abeam():
                                    airfield=catalog.find_airfield("Q7HM", use_config=False),
                                    approach="VOR-A", landing_runway="13", weather=Weather()))
     assert [r for r in far.plan.reasons if "NM past abeam the threshold" in r]
+
+
+def test_gauss_legendre_nodes_are_numpys():
+    # the written-out nodes and weights are numpy.polynomial.legendre.leggauss(8), bit for bit
+    # (the reference library; written out only to keep numpy.polynomial out of start-up)
+    from briefer.core.manoeuvre.legs import GL_NODES, GL_WEIGHTS
+
+    x, w = np.polynomial.legendre.leggauss(8)
+    assert GL_NODES.tolist() == x.tolist() and GL_WEIGHTS.tolist() == w.tolist()

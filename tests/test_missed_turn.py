@@ -6,7 +6,7 @@ headline direction: the side of the landing runway along the manoeuvre, weighted
 the start of the circle to the roll-out on final; the final straight, where the runway is ahead,
 does not count).
 
-Hand derivation (runway frame of briefer.core.maneuver_legs: x along the landing direction,
+Hand derivation (runway frame of briefer.core.manoeuvre.legs: x along the landing direction,
 y to the right, headings clockwise from the landing direction):
   * a RIGHT-hand pattern flies its downwind at y = +offset > 0 on heading 180 deg (the
     reciprocal). The aircraft's right-hand side at heading 180 is the -y direction (right of
@@ -30,7 +30,7 @@ from __future__ import annotations
 import pytest
 
 from briefer.core.maneuver import CircleInputs, candidate_plans, missed_approach_turns, runway_wind_from
-from briefer.core.maneuver_missed import headline_missed_direction
+from briefer.core.manoeuvre.missed import headline_missed_direction
 
 RUNWAY_M = 2000.0
 # Shapes with a downwind flown on the pattern side (the derivation above). A teardrop has none:

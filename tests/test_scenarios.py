@@ -5,7 +5,7 @@ other loaders' tests do. Generator checks run over many seeds and assert that ea
 really exercises its emphasis, recomputing the quantity from the scenario itself:
 
 * tailwind on base: tail = sigma * W * sin(wind_from - landing_course), sigma = +1 for a
-  right-hand pattern (hand-derived in the runway frame of briefer.core.maneuver_legs, where
+  right-hand pattern (hand-derived in the runway frame of briefer.core.manoeuvre.legs, where
   y is to the right and a right-hand base heads toward -y);
 * low visibility: |reported - required| <= the stated margin (0.5 SM, or 800 m for metre reports);
 * reciprocal: the arrival is within 60 degrees of the landing course + 180;

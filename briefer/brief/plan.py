@@ -16,7 +16,7 @@ from briefer.brief.findings import FindingList
 from briefer.brief.roll_out import choose_with_closer_roll_out
 from briefer.brief.situation_inputs import Situation
 from briefer.core import geometry, maneuver
-from briefer.core.maneuver_missed import headline_missed_direction
+from briefer.core.manoeuvre.missed import headline_missed_direction
 from briefer.result import Alternative, Finding, MissedApproachInfo, PlanInfo, frozen_array
 
 CENTRELINE_BAND_M = 30.0   # points this close to the extended centreline are "on the final"

@@ -80,7 +80,7 @@ def envelope_to_dict(envelope: Any, *, runway_course_deg_true: float) -> dict[st
     """The JSON-ready mapping of an Envelope (axes, status grid, reason bits by name)."""
     import numpy as np
 
-    from briefer.core import maneuver_envelope as me
+    from briefer.core.manoeuvre import envelope as me
 
     rel = np.asarray(envelope.wind_from_relative_deg, dtype=float)
     return {

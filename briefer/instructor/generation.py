@@ -330,7 +330,7 @@ def _shuffled(rng: random.Random, items: Sequence[Any]) -> list[Any]:
 def base_tailwind_kt(*, wind_from_deg_true: float, wind_speed_kt: float, landing_course_deg_true: float,
                      side: str) -> float:
     """Tailwind component in the base turn: where the turn to final heads square to the runway,
-    toward it (runway frame of `briefer.core.maneuver_legs`: a right-hand pattern's base heads
+    toward it (runway frame of `briefer.core.manoeuvre.legs`: a right-hand pattern's base heads
     left). Positive = tailwind (it carries the aircraft through the centreline).
 
     tail = sigma * W * sin(wind_from - landing_course), sigma = +1 for a right-hand pattern.

@@ -21,7 +21,7 @@ landing dir.    ``◆``   ``*`` on the rim: the direction the aircraft lands tow
 today's wind    ``✕``   ``X`` the reported wind, when given
 =============== ======= ===== ====================================================
 
-Reason letters (bits of :data:`briefer.core.maneuver_envelope` ``REASON_*``): ``B`` bank (more
+Reason letters (bits of :data:`briefer.core.manoeuvre.envelope` ``REASON_*``): ``B`` bank (more
 than the target, near or over the limit), ``A`` area (margin under 10 % of R, or leaves it),
 ``V`` visibility (runway beyond 90 % of it, or beyond it), ``W`` wind (no plan can be flown).
 
@@ -42,7 +42,7 @@ from rich.style import Style
 from rich.table import Table
 from rich.text import Text
 
-from briefer.core.maneuver_envelope import (
+from briefer.core.manoeuvre.envelope import (
     DOES_NOT_FIT,
     FITS,
     MARGINAL,

@@ -14,7 +14,7 @@ from textual.reactive import reactive
 from textual.widget import Widget
 
 if TYPE_CHECKING:               # numpy and the core are imported on first use (start-up time)
-    from briefer.core.maneuver_envelope import Envelope
+    from briefer.core.manoeuvre.envelope import Envelope
     from briefer.result import Brief
 
 RING_STEP_KT = 10.0
@@ -25,7 +25,7 @@ RING = {True: "·", False: "."}
 def _tables():
     """(FITS, MARGINAL, DOES_NOT_FIT, STATUS_TEXT, GLYPHS, STYLES), read from the core on first use
     (importing it pulls numpy, which the first frame does not need)."""
-    from briefer.core.maneuver_envelope import DOES_NOT_FIT, FITS, MARGINAL, STATUS_TEXT
+    from briefer.core.manoeuvre.envelope import DOES_NOT_FIT, FITS, MARGINAL, STATUS_TEXT
 
     glyphs = {True: {FITS: " ", MARGINAL: "░", DOES_NOT_FIT: "▓"}, False: {FITS: " ", MARGINAL: "+", DOES_NOT_FIT: "#"}}
     styles = {FITS: "green", MARGINAL: "bold yellow", DOES_NOT_FIT: "bold red"}

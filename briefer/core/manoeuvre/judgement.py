@@ -6,16 +6,16 @@ level), each row's tracks are sampled at counts that do not depend on the other 
 row gives the same numbers alone or among thousands), and the same rules pick, for every wind:
 
 1. the levels in order: the default roll-out (the descent point) at the target bank, then every
-   bank step up to the limit (:func:`briefer.core.maneuver_ranking.bank_levels_deg`); only if
+   bank step up to the limit (:func:`briefer.core.manoeuvre.ranking.bank_levels_deg`); only if
    nothing fits at any bank there, the closer roll-outs (:func:`roll_out_steps_m`), each with the
    same bank steps;
-2. at a level, the candidates ranked as :func:`briefer.core.maneuver_ranking.rank_plans` ranks
+2. at a level, the candidates ranked as :func:`briefer.core.manoeuvre.ranking.rank_plans` ranks
    them (failures first, then the smaller of area margin and visibility margin to 1 m, then the
    total time to 0.1 s; exact ties keep the candidate order);
 3. the first level whose best candidate has no failure; if there is none, the default
    roll-out's last bank level (the best there is shown with its failures).
 
-The verdict of the chosen candidate is :func:`briefer.core.maneuver_ranking.plan_checks`: the
+The verdict of the chosen candidate is :func:`briefer.core.manoeuvre.ranking.plan_checks`: the
 same function that rank_plans uses for every plan of the brief. FITS, MARGINAL (and which
 criterion: bank, area margin, a not-authorised sector, visibility, angle of attack) or
 DOES_NOT_FIT (the failures of the best at the last level, or REASON_WIND when no candidate can
@@ -42,9 +42,9 @@ from dataclasses import dataclass, field
 import numpy as np
 import numpy.typing as npt
 
-from briefer.core.maneuver_legs import FloatArray
-from briefer.core.maneuver_plans import candidate_plans
-from briefer.core.maneuver_ranking import (
+from briefer.core.manoeuvre.legs import FloatArray
+from briefer.core.manoeuvre.plans import candidate_plans
+from briefer.core.manoeuvre.ranking import (
     PlanChoice,
     REASON_AREA,
     REASON_BANK,
@@ -57,7 +57,7 @@ from briefer.core.maneuver_ranking import (
     plan_checks,
     rank_plans,
 )
-from briefer.core.maneuver_solver import (
+from briefer.core.manoeuvre.solver import (
     CircleInputs,
     DescentGeometry,
     Shape,

@@ -15,8 +15,8 @@ from typing import Literal
 
 import numpy as np
 
-from briefer.core.maneuver_legs import FloatArray
-from briefer.core.maneuver_plans import Plan
+from briefer.core.manoeuvre.legs import FloatArray
+from briefer.core.manoeuvre.plans import Plan
 from briefer.errors import DomainError
 
 MissedDirection = Literal["left", "right", "ahead", "either"]

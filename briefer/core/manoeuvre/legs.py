@@ -1,6 +1,6 @@
 """Legs flown at constant TAS in a constant wind, in the runway frame, in closed form.
 
-Runway frame (used by every ``maneuver_*`` module)
+Runway frame (used by every module of :mod:`briefer.core.manoeuvre`)
 --------------------------------------------------
 * ``x`` : metres along the landing direction from the landing threshold (positive = past the
   threshold, down the runway; the final approach is at negative ``x``).
@@ -45,7 +45,12 @@ BANK_MAX_DEG = 90.0
 _TINY = 1e-12
 # Gauss-Legendre nodes on [-1, 1] for the roll-in/roll-out integrals (8 nodes integrate the
 # smooth ramp integrands to ~1e-12 relative; checked against RK4 in tests/test_maneuver.py).
-GL_NODES, GL_WEIGHTS = np.polynomial.legendre.leggauss(8)
+# The values of numpy.polynomial.legendre.leggauss(8), written out so that start-up does not
+# import numpy.polynomial (tests/test_maneuver.py checks them against it, to the last digit).
+GL_NODES = np.array([-0.9602898564975362, -0.7966664774136267, -0.525532409916329, -0.18343464249564978,
+                     0.18343464249564978, 0.525532409916329, 0.7966664774136267, 0.9602898564975362])
+GL_WEIGHTS = np.array([0.10122853629037706, 0.22238103445337443, 0.3137066458778869, 0.36268378337836166,
+                       0.36268378337836166, 0.3137066458778869, 0.22238103445337443, 0.10122853629037706])
 _GL_U = 0.5 * (GL_NODES + 1.0)          # the nodes mapped to [0, 1]
 try:                                    # the ufunc np.clip calls, without its Python wrapper
     from numpy._core.umath import clip as _uclip

@@ -1,8 +1,8 @@
 """The wind envelope: the brief's judgement at every wind of a grid.
 
-Each cell is :func:`briefer.core.maneuver_judgement.judge_winds` at that wind: the same batch
+Each cell is :func:`briefer.core.manoeuvre.judgement.judge_winds` at that wind: the same batch
 solve, the same levels (bank steps, then closer roll-outs), the same ranking and the same
-verdict rule (:func:`briefer.core.maneuver_ranking.plan_checks`) as the brief's plan, so the
+verdict rule (:func:`briefer.core.manoeuvre.ranking.plan_checks`) as the brief's plan, so the
 brief at a wind and the envelope's cell for it agree by construction. Cells are solved level by
 level, each level only for the cells still without a fitting plan.
 
@@ -34,7 +34,7 @@ from dataclasses import dataclass, field
 import numpy as np
 import numpy.typing as npt
 
-from briefer.core.maneuver_judgement import (
+from briefer.core.manoeuvre.judgement import (
     BATCH_N_STRAIGHT,
     BATCH_TURN_STEP_DEG,
     DOES_NOT_FIT,
@@ -43,8 +43,8 @@ from briefer.core.maneuver_judgement import (
     STATUS_TEXT,
     judge_winds,
 )
-from briefer.core.maneuver_legs import FloatArray
-from briefer.core.maneuver_ranking import (
+from briefer.core.manoeuvre.legs import FloatArray
+from briefer.core.manoeuvre.ranking import (
     MARGINAL_AOA_DEG,
     MARGINAL_BANK_DEG,
     REASON_AREA,
@@ -56,7 +56,7 @@ from briefer.core.maneuver_ranking import (
     REASON_WIND,
     MarginFn,
 )
-from briefer.core.maneuver_solver import CircleInputs, Shape, Side
+from briefer.core.manoeuvre.solver import CircleInputs, Shape, Side
 from briefer.errors import DomainError
 from briefer.units import KT_TO_MPS
 
@@ -158,7 +158,7 @@ def wind_envelope(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: fl
     margin_fn : callable
         Vectorised ``margin_fn(tracks)``: tracks of shape (..., N, 2) in the runway frame ->
         smallest protected-area margin of each track, shape (...), positive inside; or the pair
-        (margins, sector_bound) (see :data:`briefer.core.maneuver_ranking.MarginFn`). [m]
+        (margins, sector_bound) (see :data:`briefer.core.manoeuvre.ranking.MarginFn`). [m]
     visibility_m : float
         Reported visibility, > 0. [m]
     bank_limit_deg : float

@@ -1,6 +1,6 @@
 """Ranking of candidate plans, and the choice of the lowest bank that fits.
 
-Verdict thresholds (shared with the envelope, :mod:`briefer.core.maneuver_envelope`)
+Verdict thresholds (shared with the envelope, :mod:`briefer.core.manoeuvre.envelope`)
 -------------------------------------------------------------------------------------
 A plan FAILS if it cannot be flown, needs more bank than the limit, leaves the protected area
 (area margin < 0), takes the runway beyond the visibility (max distance from the runway >
@@ -30,8 +30,8 @@ from typing import Callable, Literal
 import numpy as np
 import numpy.typing as npt
 
-from briefer.core.maneuver_plans import Plan, candidate_plans
-from briefer.core.maneuver_solver import CircleInputs
+from briefer.core.manoeuvre.plans import Plan, candidate_plans
+from briefer.core.manoeuvre.solver import CircleInputs
 from briefer.errors import DomainError
 from briefer.units import M_TO_NM, M_TO_SM
 
@@ -294,7 +294,7 @@ def choose_plan(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: floa
                 aoa_margin_fn: Callable[[float], float] | None = None) -> PlanChoice:
     """Rank the candidates at the inputs' bank and, if the best one fails, at steeper banks.
 
-    The same rule as one cell of :func:`briefer.core.maneuver_envelope.wind_envelope`.
+    The same rule as one cell of :func:`briefer.core.manoeuvre.envelope.wind_envelope`.
     Banks above 60 deg are not tried (the solver's range).
     """
     levels = tuple(b for b in bank_levels_deg(inputs.bank_deg, bank_limit_deg, bank_step_deg) if b <= 60.0)

@@ -1,6 +1,6 @@
 """The standard circling plan shapes and their solver, vectorised over winds, sides and banks.
 
-Runway frame and wind: see :mod:`briefer.core.maneuver_legs`. ``sigma`` = +1 puts the downwind
+Runway frame and wind: see :mod:`briefer.core.manoeuvre.legs`. ``sigma`` = +1 puts the downwind
 on the right of the runway (y > 0) and all pattern turns to the right; -1 on the left.
 
 Plan shapes (names of our own)
@@ -81,7 +81,7 @@ from typing import Literal
 import numpy as np
 import numpy.typing as npt
 
-from briefer.core.maneuver_legs import (
+from briefer.core.manoeuvre.legs import (
     BANK_MAX_DEG,
     FloatArray,
     RunwayWind,

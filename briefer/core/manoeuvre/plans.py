@@ -1,10 +1,10 @@
 """Solved circling plans and the candidates for an arrival.
 
-Runway frame, wind and plan shapes: see :mod:`briefer.core.maneuver_legs` and
-:mod:`briefer.core.maneuver_solver`. Situations that are valid inputs but cannot be flown give a
+Runway frame, wind and plan shapes: see :mod:`briefer.core.manoeuvre.legs` and
+:mod:`briefer.core.manoeuvre.solver`. Situations that are valid inputs but cannot be flown give a
 ``Plan`` with ``feasible=False`` and the reasons in words; nothing here raises for them.
-Ranking is in :mod:`briefer.core.maneuver_ranking`, the missed approach from the circle in
-:mod:`briefer.core.maneuver_missed`.
+Ranking is in :mod:`briefer.core.manoeuvre.ranking`, the missed approach from the circle in
+:mod:`briefer.core.manoeuvre.missed`.
 
 References
 ----------
@@ -23,7 +23,7 @@ from dataclasses import dataclass, field
 import numpy as np
 import numpy.typing as npt
 
-from briefer.core.maneuver_legs import (
+from briefer.core.manoeuvre.legs import (
     FloatArray,
     Leg,
     State,
@@ -33,7 +33,7 @@ from briefer.core.maneuver_legs import (
     Turn,
     sample_legs,
 )
-from briefer.core.maneuver_solver import (
+from briefer.core.manoeuvre.solver import (
     R_BREAK_BACK,
     R_INSIDE_TURN,
     R_NEG_LEG,
@@ -359,7 +359,7 @@ def solve_plan(inputs: CircleInputs, *, shape: Shape, side: Side) -> Plan:
 
     Notes
     -----
-    Closed-form solve of :func:`briefer.core.maneuver_solver.solve_shape`. If the roll-out is
+    Closed-form solve of :func:`briefer.core.manoeuvre.solver.solve_shape`. If the roll-out is
     closer than the descent point, the descent starts before the roll-out: ``leave_mda`` is
     the point where the ground distance left to the threshold along the track equals the
     descent-point distance (on a 3 deg path that distance sets the height) [3]_.
