@@ -15,31 +15,43 @@ shows a traceback.
 
 from __future__ import annotations
 
-import argparse
-import importlib
-import pkgutil
 import sys
-from types import ModuleType
 
 from briefer import __version__
 from briefer.errors import BriefingError
 
+TYPE_CHECKING = False        # typing.TYPE_CHECKING without importing typing (start-up)
+if TYPE_CHECKING:
+    import argparse
+    from types import ModuleType
 
-class _Parser(argparse.ArgumentParser):
-    """ArgumentParser whose usage errors are one line and exit code 2."""
+# argparse and the command modules are imported when a parser is built, not at import: the
+# console script imports this module, and `briefer --version` needs neither.
 
-    def error(self, message: str) -> None:  # type: ignore[override]
-        self.exit(2, f"{self.prog}: error: {message} (see '{self.prog} --help')\n")
+
+def _parser_class() -> type:
+    import argparse
+
+    class _Parser(argparse.ArgumentParser):
+        """ArgumentParser whose usage errors are one line and exit code 2."""
+
+        def error(self, message: str) -> None:  # type: ignore[override]
+            self.exit(2, f"{self.prog}: error: {message} (see '{self.prog} --help')\n")
+
+    return _Parser
 
 
 def _command_modules() -> list[ModuleType]:
+    import importlib
+    import os
+
     import briefer.commands as pkg
 
+    names = sorted({f[:-3] for d in pkg.__path__ for f in os.listdir(d)
+                    if f.endswith(".py") and not f.startswith("_")})
     mods = []
-    for info in pkgutil.iter_modules(pkg.__path__):
-        if info.name.startswith("_"):
-            continue
-        mod = importlib.import_module(f"briefer.commands.{info.name}")
+    for name in names:
+        mod = importlib.import_module(f"briefer.commands.{name}")
         if hasattr(mod, "NAME") and hasattr(mod, "run"):
             mods.append(mod)
     mods.sort(key=lambda m: (getattr(m, "ORDER", 100), m.NAME))
@@ -65,6 +77,7 @@ def _state_ranges(parser: argparse.ArgumentParser) -> None:
 
 
 def build_parser() -> tuple[argparse.ArgumentParser, dict[str, ModuleType]]:
+    _Parser = _parser_class()
     parser = _Parser(
         prog="briefer",
         description="Circling-approach briefing. Not for navigation: the published procedure, "

@@ -3,7 +3,6 @@
 from __future__ import annotations
 
 import argparse
-import json
 import math
 import sys
 from typing import Any, Callable
@@ -42,6 +41,8 @@ def dumps(payload: dict[str, Any]) -> str:
 
     data = dict(payload)
     data.setdefault("cautions", list(CAUTIONS))
+    import json
+
     return json.dumps(_jsonable(data), indent=JSON_INDENT, ensure_ascii=not stdout_takes_unicode())
 
 
