@@ -195,10 +195,13 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
         if not rows.any():
             tracks.append(None)
             continue
-        sub = sol if rows.all() else take_rows(sol, np.flatnonzero(rows))
+        # a small batch samples every row (taking rows out costs more than sampling them)
+        sub = sol if rows.all() or m < _PRUNE_MIN_ROWS else take_rows(sol, np.flatnonzero(rows))
         xy = sample_solution(sub, turn_step_deg=turn_step_deg, n_straight=n_straight, running_product=True).xy
         if not sub.ok.all():
             xy[~sub.ok] = 0.0
+        if sub is sol and not rows.all():
+            xy = xy[rows]
         x = xy[..., 0]
         d2 = np.max(np.square(x - np.minimum(np.maximum(x, 0.0), length)) + np.square(xy[..., 1]), axis=-1)
         dist[rows, ci] = np.sqrt(d2)
