@@ -60,6 +60,8 @@ def _command_modules() -> list[ModuleType]:
 
 def _state_ranges(parser: argparse.ArgumentParser) -> None:
     """Every range-checked option's help ends with its range (one place, so none is missed)."""
+    import argparse
+
     from briefer.commands._common import ranged
 
     for action in parser._actions:
