@@ -297,3 +297,18 @@ async def test_the_aircraft_form_fits_80x24_and_scrolls():
             region = inp.region
             assert region.width > 0 and region.x + region.width <= 80, fpath      # shown, not clipped
             assert 0 < region.y < 22, fpath                                      # scrolled into view
+
+
+def test_a_cross_field_message_quotes_the_crews_value_not_an_example():
+    """While the form is unfinished, a rule comparing two fields must not compare with a value the
+    crew never typed (the loader reads the finished file with the typed values)."""
+    texts = blank_texts(PROFILE_FORM)
+    texts["reference_weight_lb"] = "12500"
+    texts["max_landing_weight_lb"] = "12000"
+    verdict = check_texts(PROFILE_FORM, texts)
+    assert ("max_landing_weight_lb",) not in verdict.errors, verdict.errors
+    texts = _complete_texts()
+    ref = texts["reference_weight_lb"]
+    texts["max_landing_weight_lb"] = str(3 * int(ref))   # more than twice: the loader's rule, typed values
+    verdict = check_texts(PROFILE_FORM, texts)
+    assert f"reference_weight_lb ({ref})" in verdict.errors[("max_landing_weight_lb",)]

@@ -20,6 +20,7 @@ from briefer.errors import DataFileError
 from briefer.io import drafts
 from briefer.model import join_path
 from briefer.tui.forms.spec import Built, FormPath, FormSpec, get_path, to_mapping
+from briefer.tui.forms.values import number_text
 
 _MISSING = re.compile(r"missing required key '([^']+)'")
 
@@ -136,9 +137,10 @@ class Checker:
 
     @staticmethod
     def _drop_echoes(verdict: Verdict, built: Built, draft: dict[str, Any]) -> None:
-        """A message that names a sibling field which is itself wrong or empty (\"expected above
-        vref_kt (133)\") compares with a stand-in value, not the crew's: the sibling's own message
-        says what to fix first."""
+        """A message that names a sibling field which is itself wrong or empty, or quotes a value
+        the sibling does not hold ("expected above vref_kt (133)" while VREF says 110), compares
+        with a stand-in value, not the crew's: it is not shown (the whole-draft read still
+        reports a real cross-field problem)."""
         by_owner = {owner: path for path, owner in built.owners.items() if owner in built.fields}
         for owner in list(verdict.errors):
             path = by_owner.get(owner)
@@ -150,8 +152,13 @@ class Checker:
                 if sib_owner == owner or sib_owner not in built.fields or _parent(sibling) != parent:
                     continue
                 name = sibling[len(parent) + 1:] if parent else sibling
+                if not re.search(rf"\b{re.escape(name)}\b", verdict.errors[owner]):
+                    continue
                 bad = sib_owner in verdict.errors or (isinstance(sub, dict) and name not in sub)
-                if bad and re.search(rf"\b{re.escape(name)}\b", verdict.errors[owner]):
+                quoted = re.search(rf"\b{re.escape(name)} \(([^)]*)\)", verdict.errors[owner])
+                if not bad and quoted and isinstance(sub, dict):     # compared with another value
+                    bad = quoted.group(1) != number_text(sub.get(name))
+                if bad:
                     del verdict.errors[owner]
                     break
 
