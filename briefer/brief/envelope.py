@@ -18,6 +18,8 @@ def envelope_for(request: BriefRequest, **kwargs) -> maneuver.Envelope:
     s = situation(request)
     common = dict(margin_fn=s.margins_by_source_fn, visibility_m=s.visibility_m,
                   bank_limit_deg=min(s.bank_limit_deg, 60.0), area_radius_m=s.area_radius.radius_nm * units.NM_TO_M,
-                  aoa_margin_fn=s.aoa_margin_fn)
+                  aoa_margin_fn=s.aoa_margin_fn,
+                  crosswind_limit_kt=request.selected_configuration().max_demonstrated_crosswind_kt,
+                  tailwind_limit_kt=request.selected_configuration().tailwind_limit_kt)
     common.update(kwargs)
     return maneuver.wind_envelope(s.inputs, **common)

@@ -203,9 +203,9 @@ def wind_envelope(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: fl
     wy = (-spds[None, :] * np.sin(rel) * KT_TO_MPS).ravel()
     beyond = np.zeros(wx.shape, dtype=bool)
     if crosswind_limit_kt is not None:
-        beyond |= np.abs(spds[None, :] * np.sin(rel)).ravel() > crosswind_limit_kt + 1e-9
-    if tailwind_limit_kt is not None:
-        beyond |= (-spds[None, :] * np.cos(rel)).ravel() > tailwind_limit_kt + 1e-9
+        beyond |= np.round(np.abs(spds[None, :] * np.sin(rel))).ravel() > crosswind_limit_kt   # whole knots,
+    if tailwind_limit_kt is not None:                                                         # as the brief says
+        beyond |= np.round(-spds[None, :] * np.cos(rel)).ravel() > tailwind_limit_kt
     j = judge_winds(inputs, wx_mps=wx, wy_mps=wy, margin_fn=margin_fn, visibility_m=visibility_m,
                     bank_limit_deg=bank_limit_deg, area_radius_m=area_radius_m, aoa_margin_fn=aoa_margin_fn,
                     bank_step_deg=bank_step_deg, roll_out_steps=roll_out_steps, turn_step_deg=turn_step_deg,
