@@ -235,3 +235,24 @@ def test_envelope_domain():
         wind_envelope(reciprocal(), visibility_m=5000.0, wind_speed_kt=[-5.0], **kw)
     with pytest.raises(DomainError):
         wind_envelope(reciprocal(), visibility_m=5000.0, turn_step_deg=0.0, **kw)
+
+
+def test_no_cell_offers_a_plan_where_circling_is_not_authorised():
+    """The brief offers no plan where the approach publishes no circling minimums for the category
+    flown (14 CFR 97.3 categories; the V2RL demo file marks category E not authorised); the
+    envelope of the same request must say the same at every wind, and say why."""
+    from briefer.brief import build_brief, envelope_for
+    from briefer.core.maneuver import REASON_NOT_AUTHORISED
+    from briefer.io import catalog
+    from briefer.model import BriefRequest, Weather
+
+    req = BriefRequest(profile=catalog.find_profile("demo-trainer", use_config=False),
+                       airfield=catalog.find_airfield("V2RL", use_config=False),
+                       approach="RNAV (GPS) RWY 09", landing_runway="09",
+                       weather=Weather(wind_speed_kt=0.0, oat_c=15.0, altimeter_hpa=1013.0))
+    brief = build_brief(req, computed_utc="2000-01-01 00:00Z")
+    assert not brief.minimums.authorised and not brief.plan.feasible
+    env = envelope_for(req, wind_from_relative_deg=[0.0, 90.0, 180.0], wind_speed_kt=[0.0, 15.0])
+    assert np.all(env.status == DOES_NOT_FIT)
+    assert np.all(env.reasons == REASON_NOT_AUTHORISED)
+    assert env.reason_texts(1, 1) == ("circling not authorised for the category",)

@@ -58,7 +58,7 @@ def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
     _category_findings(s, crit, found)
 
     entry = appr.circling_minimum(cat)
-    authorised = entry is not None
+    authorised = s.circling_authorised
     na_reason = "" if authorised else (appr.circling_not_authorised_reason(cat) or "not authorised")
     if not authorised:
         names_it = re.search(rf"\bcategory\s+{cat}\b", na_reason, flags=re.IGNORECASE) is not None

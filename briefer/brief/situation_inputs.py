@@ -61,6 +61,11 @@ class Situation:
     headwind_kt: float                     # steady, on the landing runway; a variable wind counts as tailwind
     airfield_geometry: AirfieldGeometry    # runway axes, arc centres, sectors, area: the one composition
 
+    @property
+    def circling_authorised(self) -> bool:
+        """Whether the approach publishes circling minimums for the category flown (else no plan)."""
+        return self.mda_ft is not None
+
     def track_local(self, track_rw: np.ndarray) -> np.ndarray:
         track_rw = np.asarray(track_rw, dtype=float).reshape(-1, 2)
         return self.runway.from_runway_coords(track_rw[:, 0], track_rw[:, 1])

@@ -49,6 +49,7 @@ from briefer.core.manoeuvre.envelope import (
     REASON_AREA,
     REASON_BANK,
     REASON_LIMIT,
+    REASON_NOT_AUTHORISED,
     REASON_SECTOR,
     REASON_STALL,
     REASON_VISIBILITY,
@@ -94,6 +95,7 @@ REASON_LETTERS: tuple[tuple[int, str, str], ...] = (
     (REASON_STALL, "K", "stall: angle-of-attack margin under 3 deg, or beyond the stall"),
     (REASON_WIND, "W", "wind: no plan can be flown at all"),
     (REASON_LIMIT, "L", "limit: beyond the crosswind or tailwind limit"),
+    (REASON_NOT_AUTHORISED, "N", "not authorised: no circling for this category"),
 )
 """(bit, letter, meaning) of each reason flag."""
 

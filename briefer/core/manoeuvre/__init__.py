@@ -25,6 +25,7 @@ from briefer.core.manoeuvre.envelope import (
     REASON_AREA,
     REASON_BANK,
     REASON_LIMIT,
+    REASON_NOT_AUTHORISED,
     REASON_SECTOR,
     REASON_STALL,
     REASON_VISIBILITY,
@@ -90,7 +91,7 @@ from briefer.core.manoeuvre.solver import (
 
 __all__ = [
     "CALM", "DENSE_CHECK_M", "ROLL_OUT_STEPS", "DOES_NOT_FIT", "DOWNWIND_SHAPES", "FITS", "MARGINAL", "MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION",
-    "MARGINAL_BANK_DEG", "MARGINAL_VISIBILITY_FRACTION", "REASON_AREA", "REASON_BANK", "REASON_LIMIT", "REASON_SECTOR", "REASON_STALL", "REASON_VISIBILITY",
+    "MARGINAL_BANK_DEG", "MARGINAL_VISIBILITY_FRACTION", "REASON_AREA", "REASON_BANK", "REASON_LIMIT", "REASON_NOT_AUTHORISED", "REASON_SECTOR", "REASON_STALL", "REASON_VISIBILITY",
     "REASON_WIND", "SHAPES", "SIDES", "CircleInputs", "DescentGeometry", "Envelope", "LeaveMda", "Leg", "Levels", "MarginFn",
     "MissedApproachGuide", "MissedTurnSegment", "Plan", "PlanChoice", "RankedPlan", "RunwayWind", "State",
     "Straight", "StraightTrack", "TrackSamples", "Turn", "applicable_candidates", "bank_levels_deg",

@@ -50,6 +50,7 @@ from briefer.core.manoeuvre.ranking import (
     REASON_AREA,
     REASON_BANK,
     REASON_LIMIT,
+    REASON_NOT_AUTHORISED,
     REASON_SECTOR,
     REASON_STALL,
     REASON_VISIBILITY,
@@ -139,6 +140,8 @@ class Envelope:
             out.append("beyond the stall" if nofit else f"angle-of-attack margin under {MARGINAL_AOA_DEG:g} deg")
         if r & REASON_LIMIT:
             out.append("beyond the crosswind or tailwind limit")
+        if r & REASON_NOT_AUTHORISED:
+            out.append("circling not authorised for the category")
         return tuple(out)
 
 
@@ -147,7 +150,8 @@ def wind_envelope(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: fl
                   wind_speed_kt: npt.ArrayLike | None = None, bank_step_deg: float = 5.0,
                   turn_step_deg: float = BATCH_TURN_STEP_DEG, n_straight: int = BATCH_N_STRAIGHT,
                   aoa_margin_fn: Callable[[float], float] | None = None, roll_out_steps: bool = True,
-                  crosswind_limit_kt: float | None = None, tailwind_limit_kt: float | None = None) -> Envelope:
+                  crosswind_limit_kt: float | None = None, tailwind_limit_kt: float | None = None,
+                  authorised: bool = True) -> Envelope:
     """The brief's judgement over a grid of wind directions and speeds (vectorised).
 
     Parameters
@@ -181,6 +185,9 @@ def wind_envelope(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: fl
     crosswind_limit_kt, tailwind_limit_kt : float, optional
         Cells whose steady crosswind (either side) or tailwind component exceeds these are not
         solved: DOES_NOT_FIT with REASON_LIMIT. [kt]
+    authorised : bool
+        False where circling is not authorised for the category: the brief then offers no plan
+        at any wind, so every cell is DOES_NOT_FIT with REASON_NOT_AUTHORISED (nothing is solved).
 
     Returns
     -------
@@ -201,6 +208,9 @@ def wind_envelope(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: fl
     rel = np.radians(dirs)[:, None]
     wx = (-spds[None, :] * np.cos(rel) * KT_TO_MPS).ravel()     # blowing toward = -from
     wy = (-spds[None, :] * np.sin(rel) * KT_TO_MPS).ravel()
+    shp = (dirs.size, spds.size)
+    if not authorised:
+        return _nothing_offered(inputs, dirs, spds, bank_limit_deg, visibility_m, area_radius_m)
     beyond = np.zeros(wx.shape, dtype=bool)
     if crosswind_limit_kt is not None:
         beyond |= np.round(np.abs(spds[None, :] * np.sin(rel))).ravel() > crosswind_limit_kt   # whole knots,
@@ -210,7 +220,6 @@ def wind_envelope(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: fl
                     bank_limit_deg=bank_limit_deg, area_radius_m=area_radius_m, aoa_margin_fn=aoa_margin_fn,
                     bank_step_deg=bank_step_deg, roll_out_steps=roll_out_steps, turn_step_deg=turn_step_deg,
                     n_straight=n_straight)
-    shp = (dirs.size, spds.size)
 
     def cut(a: npt.NDArray, value: object) -> npt.NDArray:
         return np.where(beyond, value, a).reshape(shp)
@@ -225,5 +234,19 @@ def wind_envelope(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: fl
                     area_radius_m=float(area_radius_m))
 
 
-__all__ = ["DOES_NOT_FIT", "FITS", "MARGINAL", "REASON_AREA", "REASON_BANK", "REASON_LIMIT", "REASON_SECTOR", "REASON_STALL",
+def _nothing_offered(inputs: CircleInputs, dirs: FloatArray, spds: FloatArray, bank_limit_deg: float,
+                     visibility_m: float, area_radius_m: float) -> Envelope:
+    """The envelope where no plan may be offered at any wind (circling not authorised)."""
+    shp = (dirs.size, spds.size)
+    nan = np.full(shp, np.nan)
+    return Envelope(wind_from_relative_deg=dirs, wind_speed_kt=spds, candidates=(),
+                    status=np.full(shp, DOES_NOT_FIT, dtype=int),
+                    reasons=np.full(shp, REASON_NOT_AUTHORISED, dtype=int), bank_needed_deg=nan,
+                    best_candidate=np.full(shp, -1, dtype=int), area_margin_m=nan.copy(),
+                    max_distance_from_runway_m=nan.copy(), roll_out_m=nan.copy(), bank_deg=float(inputs.bank_deg),
+                    bank_limit_deg=float(bank_limit_deg), visibility_m=float(visibility_m),
+                    area_radius_m=float(area_radius_m))
+
+
+__all__ = ["DOES_NOT_FIT", "FITS", "MARGINAL", "REASON_AREA", "REASON_BANK", "REASON_LIMIT", "REASON_NOT_AUTHORISED", "REASON_SECTOR", "REASON_STALL",
            "REASON_VISIBILITY", "REASON_WIND", "STATUS_TEXT", "Envelope", "wind_envelope"]

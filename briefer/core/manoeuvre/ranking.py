@@ -43,6 +43,7 @@ MARGINAL_AOA_DEG = 3.0
 # the criteria of a failure or of a marginal plan, as bits (the brief's ranking, the envelope's cells)
 REASON_BANK, REASON_AREA, REASON_VISIBILITY, REASON_WIND, REASON_SECTOR, REASON_STALL = 1, 2, 4, 8, 16, 32
 REASON_LIMIT = 64        # the wind is beyond the aircraft's crosswind or tailwind limit (no plan is offered)
+REASON_NOT_AUTHORISED = 128   # circling is not authorised for the category (no plan is offered)
 
 MarginFn = Callable[[npt.NDArray[np.float64]], "float | npt.NDArray[np.float64] | tuple"]
 """margin_fn(track_xy) -> minimum area margin [m], positive inside. ``track_xy`` is a runway-frame
