@@ -9,6 +9,7 @@ a built-in one of the same name):
 
        profile_dirs: [~/flying/profiles]      # relative paths are relative to the config file
        airfield_dirs: [~/flying/airfields]
+       display_units: icao                    # us (the default: lb, SM) or icao (kg, m/km, hPa)
 
 3. the invented demo data: the repository's top-level ``profiles/`` and ``airfields_demo/``,
    shipped in the wheel as ``briefer/data/profiles`` and ``briefer/data/airfields_demo`` and read
@@ -39,6 +40,8 @@ from briefer.model import KIND_AIRFIELD, KIND_PROFILE, AircraftProfile, Airfield
 from briefer.safetext import excerpt
 
 CONFIG_KEYS = {KIND_PROFILE: "profile_dirs", KIND_AIRFIELD: "airfield_dirs"}
+UNITS_KEY = "display_units"
+"""The config file's display-units preference (briefer.display_units: us or icao)."""
 _SUFFIXES = (".yaml", ".yml")
 _WHAT = {KIND_PROFILE: "aircraft profile", KIND_AIRFIELD: "airfield"}
 
@@ -66,10 +69,11 @@ class CatalogEntry:
 
 @dataclass(frozen=True, slots=True, kw_only=True)
 class CatalogConfig:
-    """The user's config file: extra folders to search."""
+    """The user's config file: extra folders to search, and the display units (None: not set)."""
 
     profile_dirs: tuple[Path, ...] = ()
     airfield_dirs: tuple[Path, ...] = ()
+    display_units: str | None = None
     source: str | None = None
 
     def dirs(self, kind: str) -> tuple[Path, ...]:
@@ -97,10 +101,19 @@ def load_config(path: str | PathLike[str] | None = None) -> CatalogConfig:
     doc = parse_yaml_mapping(data, str(p), empty_message=(
         "the config file is empty; expected a mapping with profile_dirs: and/or airfield_dirs: "
         "(lists of folders), or delete the file"))
+    allowed = (*CONFIG_KEYS.values(), UNITS_KEY)
     for key in doc.data:
-        if key not in CONFIG_KEYS.values():
-            hint = did_you_mean(key, CONFIG_KEYS.values()) or f" (allowed: {', '.join(CONFIG_KEYS.values())})"
+        if key not in allowed:
+            hint = did_you_mean(key, allowed) or f" (allowed: {', '.join(allowed)})"
             raise doc.error(f"unknown key '{key}'{hint}", "", locator=key)
+    units = doc.data.get(UNITS_KEY)
+    if units is not None:
+        from briefer.display_units import UNIT_SETS, check_units
+
+        try:
+            units = check_units(units)
+        except ValueError:
+            raise doc.error(f"expected one of {', '.join(UNIT_SETS)}, got {units!r}", UNITS_KEY) from None
     found: dict[str, tuple[Path, ...]] = {}
     for key in CONFIG_KEYS.values():
         value = doc.data.get(key, [])
@@ -122,7 +135,16 @@ def load_config(path: str | PathLike[str] | None = None) -> CatalogConfig:
                 raise doc.error(f"no such folder: {folder}", where)
             dirs.append(folder)
         found[key] = tuple(dirs)
-    return CatalogConfig(profile_dirs=found["profile_dirs"], airfield_dirs=found["airfield_dirs"], source=str(p))
+    return CatalogConfig(profile_dirs=found["profile_dirs"], airfield_dirs=found["airfield_dirs"],
+                         display_units=units, source=str(p))
+
+
+def configured_units() -> str:
+    """The display units the config file asks for ('us' when it says nothing or does not exist);
+    a bad value is the config file's `DataFileError` (file, line, key)."""
+    from briefer.display_units import DEFAULT_UNITS
+
+    return load_config().display_units or DEFAULT_UNITS
 
 
 # --------------------------------------------------------------------------------------------

@@ -11,6 +11,7 @@ import os
 from os import PathLike
 from pathlib import Path
 
+from briefer.display_units import DEFAULT_UNITS
 from briefer.errors import BriefingError
 from briefer.io.atomic import FileWriteError, resolve_target, write_bytes_atomic
 from briefer.render.card_layout import CardLayout, card_layout
@@ -22,12 +23,13 @@ PAGES = ("half-letter", "a5")
 EXISTS_REASON = "the file already exists; not overwritten (overwrite it with --force)"
 
 
-def card_pdf_bytes(brief: Brief, *, page: str = "half-letter", detail: bool = True) -> bytes:
+def card_pdf_bytes(brief: Brief, *, page: str = "half-letter", detail: bool = True,
+                   units: str = DEFAULT_UNITS) -> bytes:
     """The PDF card (half-letter or A5, portrait): the front page and, with `detail`, the detail
-    pages; the same Brief gives the same bytes."""
+    pages, in the display units `units`; the same Brief gives the same bytes."""
     from briefer.render.pdf import card_pdf_bytes as _pdf
 
-    return _pdf(brief, page=page, detail=detail)
+    return _pdf(brief, page=page, detail=detail, units=units)
 
 
 def card_format(path: str | PathLike[str], fmt: str | None = None) -> str:
@@ -50,7 +52,7 @@ def card_format(path: str | PathLike[str], fmt: str | None = None) -> str:
 
 
 def write_card(brief: Brief, path: str | PathLike[str], *, fmt: str | None = None, page: str = "half-letter",
-               overwrite: bool = False, detail: bool = True) -> Path:
+               overwrite: bool = False, detail: bool = True, units: str = DEFAULT_UNITS) -> Path:
     """Write the kneeboard card of `brief` to `path` and return the path.
 
     Args:
@@ -61,6 +63,7 @@ def write_card(brief: Brief, path: str | PathLike[str], *, fmt: str | None = Non
         overwrite: Replace an existing file (the CLI's --force).
         detail: PDF only: add the detail pages after the front page (the CLI's --front-only
             leaves them off).
+        units: Display units, "us" or "icao" (briefer.display_units).
 
     Raises:
         BriefingError: unknown format or page; the file exists and `overwrite` is false; the
@@ -77,7 +80,7 @@ def write_card(brief: Brief, path: str | PathLike[str], *, fmt: str | None = Non
         if not overwrite and "already exists" in exc.reason:
             raise FileWriteError(target, EXISTS_REASON) from None
         raise
-    layout = card_layout(brief)
+    layout = card_layout(brief, units)
     if kind == "pdf":
         from briefer.render.pdf import layout_pdf_bytes
 

@@ -25,7 +25,9 @@ from briefer import __version__
 from briefer.cautions import CAUTIONS, SHORT_CAUTION
 from briefer.render.brief_scene import scene_from_brief
 from briefer.render.scene import ROLE_STYLES, Role, Scene
-from briefer.wording import area_edge_words, visibility_words, stall_margin_words, category_words, wind_components_text, wind_limits_words
+from briefer.wording import area_edge_words, stall_margin_words, category_words, wind_components_text, wind_limits_words
+from briefer.display_units import (DEFAULT_UNITS, altimeter_words, visibility_reported_words,
+                                   visibility_required_words, weight_words)
 from briefer.result import Brief, Finding
 
 DASH = "--"
@@ -214,7 +216,7 @@ def printable_text(text: str, charset: Literal["latin-1", "ascii+degree"]) -> st
 
 
 NBSP = "\u00a0"
-_UNIT_AFTER_NUMBER = re.compile(r"(?<=[\d°]) (?=(?:ft|kt|NM|SM|s|g|hPa|lb|M)\b|%|°C)")
+_UNIT_AFTER_NUMBER = re.compile(r"(?<=[\d°]) (?=(?:ft|kt|NM|SM|s|g|hPa|lb|kg|km|m|M)\b|%|°C)")
 
 
 def bind_units(text: str) -> str:
@@ -230,7 +232,7 @@ def _ok(flag: bool | None, below: str) -> str:
     return {True: " OK", False: " " + below, None: ""}[flag]
 
 
-def _minimums(brief: Brief) -> Section:
+def _minimums(brief: Brief, units: str) -> Section:
     c, m, a, h = brief.category, brief.minimums, brief.area, brief.header
     cat_note = (f"raised from {c.certified_category}: {c.circling_speed_kt:.0f} kt" if c.raised
                 else f"circling at {c.circling_speed_kt:.0f} kt")
@@ -239,13 +241,14 @@ def _minimums(brief: Brief) -> Section:
         mda_note = f"COLD: FLY {m.cold.corrected_mda_ft:.0f} FT" if m.cold is not None else "no cold correction"
         ceil_note = (f"ceiling {m.ceiling_reported_ft:.0f} ft" + _ok(m.ceiling_ok, "BELOW")
                      if m.ceiling_reported_ft is not None else "ceiling not reported")
-        vis_note = (f"reported {visibility_words(m.visibility_reported_sm, metres=m.visibility_in_metres)}"
+        vis_note = (f"reported {visibility_reported_words(m.visibility_reported_sm, metre_minimums=m.visibility_in_metres, units=units)}"
                     + _ok(m.visibility_ok, "BELOW")
                     if m.visibility_reported_sm is not None else "reported: none")
         figures = (Figure(label="CATEGORY", value=c.category, note=cat_note),
                    Figure(label="MDA", value=num(m.mda_ft, ".0f", " ft"), note=mda_note),
                    Figure(label="HAA", value=num(m.height_above_airport_ft, ".0f", " ft"), note=ceil_note),
-                   Figure(label="VISIBILITY", value=m.visibility_required_text or DASH, note=vis_note))
+                   Figure(label="VISIBILITY", value=m.visibility_required_text or DASH,
+                          note=_required_metres(m, units) + vis_note))
     else:
         reason = m.not_authorised_reason.rstrip(".")
         head = (f"CIRCLING NOT AUTHORISED. {reason}" if reason.lower().startswith(f"category {c.category}".lower())
@@ -275,6 +278,16 @@ def _minimums(brief: Brief) -> Section:
             f"OAT {m.cold.oat_c:.0f} °C: add {m.cold.correction_ft:.0f} ft, fly the MDA as "
             f"{m.cold.corrected_mda_ft:.0f} ft ({m.cold.method})")))
     return Section(key="minimums", title="MINIMUMS", status=status, alert=alert, figures=figures, rows=tuple(rows))
+
+
+def _required_metres(m, units: str) -> str:
+    """'= 4023 m; ' (the charted SM in metres) before the reported visibility, in the icao set,
+    when the minimums are in SM; '' otherwise."""
+    words = visibility_required_words(m.visibility_required_text, m.visibility_required_sm,
+                                      metre_minimums=m.visibility_in_metres, units=units)
+    if words is None or words == m.visibility_required_text:
+        return ""
+    return f"= {words[len(m.visibility_required_text):].lstrip(' =')}; "
 
 
 def _plan(brief: Brief) -> Section:
@@ -352,13 +365,13 @@ def wind_text(brief: Brief) -> str:
     return f"{d} {w.speed_kt:.0f} kt{g}"
 
 
-def _wind(brief: Brief) -> Section:
+def _wind(brief: Brief, units: str) -> Section:
     w, wx, pf, h = brief.wind, brief.weather, brief.performance, brief.header
     comp = f"rwy {h.landing_runway}: {wind_components_text(w)}; {wind_limits_words(w)}"
     source = {"manual": "as entered", "report": "from the report", "report+manual": "report and entries",
               "standard": "none given: standard day"}.get(wx.source, wx.source)
-    weather = (f"OAT {wx.oat_c:.0f} °C, altimeter {wx.altimeter_hpa:.0f} hPa, visibility "
-               f"{visibility_words(wx.visibility_sm, metres=brief.minimums.visibility_in_metres)}, ceiling "
+    weather = (f"OAT {wx.oat_c:.0f} °C, altimeter {altimeter_words(wx.altimeter_hpa, units)}, visibility "
+               f"{visibility_reported_words(wx.visibility_sm, metre_minimums=brief.minimums.visibility_in_metres, units=units)}, ceiling "
                f"{num(wx.ceiling_ft, '.0f', ' ft') if wx.ceiling_ft is not None else 'not reported'} ({source})")
     rows = [Row(label="Wind", text=(f"{wind_text(brief)}; " + comp if w.reported
                                     else f"{wind_text(brief)}; {wind_limits_words(w)}")),
@@ -417,8 +430,9 @@ def legend_lines(scene: Scene) -> tuple[LegendLine, ...]:
                  for r in scene.roles() if r is not Role.ANNOTATION)
 
 
-def card_layout(brief: Brief) -> CardLayout:
-    """The card's content, built once from a Brief (see the module docstring)."""
+def card_layout(brief: Brief, units: str = DEFAULT_UNITS) -> CardLayout:
+    """The card's content, built once from a Brief (see the module docstring), in the display
+    units `units` ('us' or 'icao', briefer.display_units)."""
     h = brief.header
     scene = scene_from_brief(brief)
     cautions = tuple(dict.fromkeys(tuple(brief.cautions) + CAUTIONS))   # every standard caution, once
@@ -426,17 +440,17 @@ def card_layout(brief: Brief) -> CardLayout:
         title="CIRCLING BRIEF",
         place=f"{h.airfield_ident}  {h.airfield_name}",
         approach=f"{h.approach_name}, circle to land runway {h.landing_runway}",
-        aircraft=(f"{h.profile_name}, {h.configuration_name}, {h.weight_lb:.0f} lb; elevation "
+        aircraft=(f"{h.profile_name}, {h.configuration_name}, {weight_words(h.weight_lb, units)}; elevation "
                   f"{h.airfield_elevation_ft:.0f} ft"),
         briefed=f"briefed {brief.computed_utc}" if brief.computed_utc else "briefed (time not recorded)",
         briefed_utc=brief.computed_utc,
         criteria=h.criteria,
-        minimums=_minimums(brief),
+        minimums=_minimums(brief, units),
         plan=_plan(brief),
         plan_view=scene,
         legend=legend_lines(scene),
         side_view=_side_view(brief),
-        wind=_wind(brief),
+        wind=_wind(brief, units),
         warnings=tuple(_warning(f) for f in brief.warnings),
         cautions=cautions,
         footer=f"briefer {__version__}. {SHORT_CAUTION}",

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import textwrap
 
+from briefer.display_units import DEFAULT_UNITS
 from briefer.render.card_layout import (
     NBSP,
     CardLayout,
@@ -157,9 +158,9 @@ def layout_text(layout: CardLayout) -> str:
     return "\n".join(ln.rstrip() for ln in lines) + "\n"
 
 
-def card_text(brief: Brief) -> str:
-    """The text card of a Brief (80 columns, ASCII plus °)."""
-    return layout_text(card_layout(brief))
+def card_text(brief: Brief, units: str = DEFAULT_UNITS) -> str:
+    """The text card of a Brief (80 columns, ASCII plus °) in the display units `units`."""
+    return layout_text(card_layout(brief, units))
 
 
 __all__ = ["WIDTH", "card_text", "layout_text"]

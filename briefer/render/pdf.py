@@ -889,10 +889,10 @@ def layout_pdf_bytes(layout: CardLayout, *, page: str = "half-letter", detail: b
     return bytes(pdf.output())
 
 
-def card_pdf_bytes(brief: Brief, *, page: str = "half-letter", detail: bool = True) -> bytes:
+def card_pdf_bytes(brief: Brief, *, page: str = "half-letter", detail: bool = True, units: str = "us") -> bytes:
     """The PDF kneeboard card of a Brief (half-letter or A5, portrait): the front page, and with
-    `detail` the detail pages."""
-    return layout_pdf_bytes(card_layout(brief), page=page, detail=detail)
+    `detail` the detail pages; `units` the display units (briefer.display_units)."""
+    return layout_pdf_bytes(card_layout(brief, units), page=page, detail=detail)
 
 
 __all__ = ["BODY_PT", "FIXED_DATE", "LABEL_PT", "PAGE_SIZES_MM", "card_pdf_bytes", "creation_date", "draw_card_page",

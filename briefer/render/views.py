@@ -12,7 +12,9 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
-from briefer.wording import area_edge_words, visibility_words, stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words
+from briefer.wording import area_edge_words, stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words
+from briefer.display_units import (DEFAULT_UNITS, altimeter_words, visibility_reported_words,
+                                   visibility_required_words, weight_words)
 from briefer.result import Brief, Finding
 
 MARK = {"danger": "!!", "warning": "! ", "info": "i "}
@@ -60,8 +62,9 @@ class FindingsView:
 
 
 class MinimumsView:
-    def __init__(self, brief: Brief) -> None:
+    def __init__(self, brief: Brief, units: str = DEFAULT_UNITS) -> None:
         self.brief = brief
+        self.units = units
 
     def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
         b = self.brief
@@ -70,13 +73,17 @@ class MinimumsView:
         g.add_row("Category", category_words(c))
         if m.authorised:
             g.add_row("MDA", f"{fmt(m.mda_ft, '.0f', ' ft')}   HAA {fmt(m.height_above_airport_ft, '.0f', ' ft')}")
-            vis = (f"required {m.visibility_required_text or 'n/a'}, reported "
-                   f"{visibility_words(m.visibility_reported_sm, metres=m.visibility_in_metres)}")
+            required = visibility_required_words(m.visibility_required_text, m.visibility_required_sm,
+                                                 metre_minimums=m.visibility_in_metres, units=self.units)
+            vis = (f"required {required or 'n/a'}, reported "
+                   f"{visibility_reported_words(m.visibility_reported_sm, metre_minimums=m.visibility_in_metres, units=self.units)}")
             vis += {True: "  OK", False: "  BELOW MINIMUM", None: ""}[m.visibility_ok]
             g.add_row("Visibility", vis)
             ceil = f"reported {fmt(m.ceiling_reported_ft, '.0f', ' ft', none='none')}"
             ceil += {True: "  OK (at or above the HAA)", False: "  BELOW THE MDA", None: ""}[m.ceiling_ok]
             g.add_row("Ceiling", ceil)
+            if self.units == "icao":       # the ICAO set names the setting the MDA is flown on
+                g.add_row("QNH", altimeter_words(b.weather.altimeter_hpa, self.units))
         else:
             g.add_row("Minimums", f"NOT AUTHORISED: {m.not_authorised_reason}")
         if m.cold is not None:
@@ -189,29 +196,31 @@ class CautionsView:
         yield Panel(Group(*[Text(f"- {c}") for c in self.cautions]), title="CAUTIONS", title_align="left")
 
 
-def header_text(brief: Brief) -> Text:
+def header_text(brief: Brief, units: str = DEFAULT_UNITS) -> Text:
     h = brief.header
     t = Text()
     t.append(f"{h.airfield_ident} {h.airfield_name}", style="bold")
     t.append(f"  {h.approach_name}, circle to land {h.landing_runway}")
-    t.append(f"\n{h.profile_name} ({h.configuration_name}), {h.weight_lb:.0f} lb; {h.criteria}; "
+    t.append(f"\n{h.profile_name} ({h.configuration_name}), {weight_words(h.weight_lb, units)}; {h.criteria}; "
              f"elevation {h.airfield_elevation_ft:.0f} ft")
     return t
 
 
 class BriefView:
-    """The whole brief as a compact text layout (fits 80 columns)."""
+    """The whole brief as a compact text layout (fits 80 columns), in the display units `units`
+    ('us' or 'icao', briefer.display_units)."""
 
-    def __init__(self, brief: Brief) -> None:
+    def __init__(self, brief: Brief, units: str = DEFAULT_UNITS) -> None:
         self.brief = brief
+        self.units = units
 
     def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
         b = self.brief
-        yield header_text(b)
+        yield header_text(b, self.units)
         yield Text("WARNINGS", style="bold underline")
         yield FindingsView(b.warnings)
         yield Text("MINIMUMS AND AREA", style="bold underline")
-        yield MinimumsView(b)
+        yield MinimumsView(b, self.units)
         yield Text("PERFORMANCE AT THE MDA", style="bold underline")
         yield PerformanceView(b)
         yield Text("PLAN", style="bold underline")
