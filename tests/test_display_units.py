@@ -125,3 +125,61 @@ def test_config_bad_display_units_is_one_clear_error(capsys, tmp_path):
 def test_bad_units_option_is_an_error(capsys):
     line = run_error(capsys, ["brief", "--demo", "--units", "metric"])
     assert "--units" in line, line
+
+
+async def test_app_switches_display_units_with_u_and_the_palette(tmp_path):
+    from test_app_support import demo_catalog, demo_inputs, settle, text_of
+    from textual.widgets import Input
+
+    from briefer.tui.app import BriefingApp
+
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    async with app.run_test(size=(100, 40)) as pilot:
+        await settle(app, pilot)
+        await pilot.press("5")                              # the brief view
+        await pilot.pause()
+        shown = text_of(app.main.query_one("#brief-full"))
+        assert "31000 lb" in shown and "reported 3 SM" in shown
+        await pilot.press("u")
+        await pilot.pause()
+        assert app.main.units == "icao"
+        shown = text_of(app.main.query_one("#brief-full"))
+        for words in DEMO_ICAO:
+            assert words in shown, words
+        await pilot.press("4")                              # the weather step
+        await pilot.pause()
+        weather = text_of(app.main.query_one("#implies-weather"))
+        assert "altimeter 1009 hPa" in weather and "4800 m vs 2 1/2 SM = 4023 m" in weather, weather
+        await pilot.press("1")
+        await pilot.pause()
+        assert "14061 kg" in text_of(app.main.query_one("#implies-aircraft"))
+        # typing u into a field types a letter, it does not switch the units
+        await pilot.press("4")
+        await pilot.click("#oat")
+        await pilot.press("u")
+        assert app.main.units == "icao" and "u" in app.main.query_one("#oat", Input).value
+        await pilot.press("escape")
+        titles = {c.title: c for c in app.get_system_commands(app.main)}
+        assert "Display units (US / ICAO)" in titles
+        await titles["Display units (US / ICAO)"].callback()   # what the palette entry runs
+        await pilot.pause()
+        await pilot.pause()
+        assert app.main.units == "us"
+
+
+async def test_app_card_export_uses_the_display_units(tmp_path):
+    from test_app_support import demo_catalog, demo_inputs, settle
+    from textual.widgets import Input
+
+    from briefer.tui.app import BriefingApp
+
+    path = tmp_path / "card.txt"
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01, units="icao")
+    async with app.run_test(size=(100, 40)) as pilot:
+        await settle(app, pilot)
+        await pilot.press("ctrl+e")
+        await pilot.pause()
+        app.screen.query_one("#path-input", Input).value = str(path)
+        await pilot.press("enter")
+        await pilot.pause()
+    assert "14061 kg" in path.read_text()

@@ -24,6 +24,9 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     a.add_argument("--ascii", action="store_true",
                    help="draw in plain ASCII (also BRIEFER_ASCII=1; automatic on the Linux console)")
     a.add_argument("--night", action="store_true", help="start in the high-contrast night theme")
+    a.add_argument("--units", choices=("us", "icao"), default=None,
+                   help="display units: us (lb, SM) or icao (kg, m/km visibility, hPa); u switches them "
+                        "(default: the config file's display_units, else us)")
 
 
 
@@ -93,9 +96,12 @@ def inputs_from_args(args: argparse.Namespace):
 
 
 def run(args: argparse.Namespace) -> int:
+    from briefer.io.catalog import configured_units
+
+    units = args.units or configured_units()
     cat, inputs, notice = inputs_from_args(args)
     from briefer.tui.app import BriefingApp
 
     BriefingApp(cat, inputs, ascii=True if args.ascii else None, night=args.night,
-                inputs_path=args.open, notice=notice).run()
+                inputs_path=args.open, notice=notice, units=units).run()
     return 0

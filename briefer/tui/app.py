@@ -48,6 +48,7 @@ ACTIONS: tuple[tuple[str, str, str], ...] = (
     ("open", "Open inputs", "Open a saved inputs file"),
     ("export_card", "Export card", "Write the kneeboard card (PDF or text)"),
     ("toggle_night", "Night theme", "Switch the high-contrast night theme on or off"),
+    ("toggle_units", "Display units (US / ICAO)", "Switch lb/SM and kg/m/hPa in the brief's views and the card"),
     ("toggle_ascii", "ASCII drawings", "Draw the plan, side view and envelope in plain ASCII (or braille)"),
     ("warnings", "All warnings", "List every warning of the brief, most severe first"),
     ("instructor", "Instructor", "Open the instructor screen"),
@@ -72,6 +73,7 @@ class BriefingApp(App[None]):
         Binding("ctrl+e", "export_card", "Card"),
         Binding("ctrl+t", "toggle_night", "Night"),
         Binding("ctrl+g", "toggle_ascii", "ASCII", show=False),
+        Binding("u", "toggle_units", "Units US/ICAO", show=False),
         Binding("ctrl+l", "instructor", "Instructor", show=False),
         Binding("w", "warnings", "All warnings", show=False),
         Binding("f2", "new_entry", "New aircraft/airfield (form)", show=False),
@@ -84,7 +86,7 @@ class BriefingApp(App[None]):
 
     def __init__(self, catalog: AppCatalog, inputs: BriefingInputs, *, ascii: bool | None = None,
                  night: bool = False, debounce_s: float = DEBOUNCE_S, inputs_path: str | None = None,
-                 notice: str | None = None) -> None:
+                 notice: str | None = None, units: str = "us") -> None:
         """Args:
             catalog: The profiles and airfields to choose from (loaded by the caller).
             inputs: The situation to open on.
@@ -93,6 +95,7 @@ class BriefingApp(App[None]):
             debounce_s: Wait after an edit before recomputing.
             inputs_path: The file the inputs came from (the default name to save to).
             notice: A message to show once the app is up (e.g. a file that could not be opened).
+            units: Display units, "us" or "icao" (briefer.display_units); `u` switches them.
         """
         super().__init__()
         self._ascii_auto = ascii is None     # decided once the first frame is up (the check imports
@@ -118,7 +121,7 @@ class BriefingApp(App[None]):
             self.register_theme(theme)
         if night:
             self.theme = NIGHT_THEME.name
-        self.main = BriefingScreen(ascii=ascii)
+        self.main = BriefingScreen(ascii=ascii, units=units)
 
     # --- start ------------------------------------------------------------------------------
     def get_default_screen(self) -> Screen:
@@ -485,6 +488,14 @@ class BriefingApp(App[None]):
         self.ascii = not self.ascii
         self.main.set_ascii(self.ascii)
 
+    def action_toggle_units(self) -> None:
+        from briefer.display_units import next_units
+
+        units = next_units(self.main.units)
+        self.main.set_units(units)
+        self.notify("Display units: " + {"us": "US (lb, SM)", "icao": "ICAO (kg, m/km, hPa)"}[units]
+                    + "; MDA and heights in feet, distances in NM")
+
     def action_help(self) -> None:
         from briefer.tui.help_screen import HelpScreen
 
@@ -585,7 +596,7 @@ class BriefingApp(App[None]):
 
         def export(path: str, overwrite: bool) -> str | None:
             try:
-                written = write_card(brief, path, overwrite=overwrite)
+                written = write_card(brief, path, overwrite=overwrite, units=self.main.units)
             except (BriefingError, ValueError, OSError) as exc:
                 return str(exc)
             self.notify(f"Card written to {written}")

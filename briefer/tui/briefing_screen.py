@@ -69,9 +69,10 @@ class _LazyPane(Lazy):
 class BriefingScreen(Screen):
     """Steps and views in tabs, the brief's summary and warnings on top, the caution below."""
 
-    def __init__(self, *, ascii: bool = False) -> None:
+    def __init__(self, *, ascii: bool = False, units: str = "us") -> None:
         super().__init__(id="briefing")
         self.ascii = ascii
+        self.units = units                    # display units of the brief's views (briefer.display_units)
         self._wind_ref = "true"
         self._node_cache: dict = {}           # selector -> widget (the DOM never changes: no re-query per keystroke)
         self._shown: dict[str, object] = {}   # Static id -> the Text it shows (unchanged text: no update)
@@ -219,6 +220,13 @@ class BriefingScreen(Screen):
         if not button.value:
             button.value = True
 
+    def set_units(self, units: str) -> None:
+        """Show the brief's views in other display units (redrawn from the same brief)."""
+        self.units = units
+        if self.brief is not None:
+            self._dirty = {pid for pid, _ in STEPS}
+            self._draw_pane(self.node("#steps", TabbedContent).active)
+
     def set_ascii(self, ascii: bool) -> None:
         self.ascii = ascii
         self.node(PlanCanvas).ascii = ascii
@@ -257,11 +265,11 @@ class BriefingScreen(Screen):
         if pane_id in ("aircraft", "airfield", "runway", "weather"):
             fn = {"aircraft": views.aircraft_implies, "airfield": views.airfield_implies,
                   "runway": views.runway_implies, "weather": views.weather_implies}[pane_id]
-            self._update(f"implies-{pane_id}", fn(brief))
+            self._update(f"implies-{pane_id}", fn(brief, self.units))
         elif pane_id == "brief":
             from briefer.render.views import BriefView
 
-            self._update("brief-full", BriefView(brief))
+            self._update("brief-full", BriefView(brief, self.units))
         elif pane_id == "plan":
             canvas = self.node(PlanCanvas)
             canvas.show(brief)

@@ -13,7 +13,9 @@ from rich.table import Table
 from rich.text import Text
 
 from briefer.render.views import MARK, STYLE, MinimumsView, PerformanceView, fmt, wind_text
-from briefer.wording import area_edge_words, visibility_words, circling_speed_words, vref_words, wind_components_text, wind_limits_words
+from briefer.display_units import (DEFAULT_UNITS, altimeter_words, visibility_reported_words,
+                                   visibility_required_words, weight_words)
+from briefer.wording import area_edge_words, circling_speed_words, vref_words, wind_components_text, wind_limits_words
 from briefer.result import Brief
 
 
@@ -77,7 +79,7 @@ def findings_short(brief: Brief, *, severities: tuple[str, ...] = ("danger", "wa
     return Group(*out)
 
 
-def aircraft_implies(brief: Brief) -> RenderableType:
+def aircraft_implies(brief: Brief, units: str = DEFAULT_UNITS) -> RenderableType:
     """What the aircraft and configuration give: category, speeds, the turn."""
     c, pf = brief.category, brief.performance
     g = _grid()
@@ -86,16 +88,16 @@ def aircraft_implies(brief: Brief) -> RenderableType:
         cat += f"  (certified {c.certified_category}; RAISED by the circling speed)"
     g.add_row("Category", cat)
     g.add_row("Speeds", f"{circling_speed_words(c)}; {vref_words(c)}")
-    g.add_row("Weight", f"{brief.header.weight_lb:.0f} lb")
+    g.add_row("Weight", weight_words(brief.header.weight_lb, units))
     return Group(Text("WHAT THIS GIVES", style="bold underline"), g, PerformanceView(brief))
 
 
-def airfield_implies(brief: Brief) -> RenderableType:
+def airfield_implies(brief: Brief, units: str = DEFAULT_UNITS) -> RenderableType:
     """Minimums, area and the circling-only reasons."""
-    return Group(Text("MINIMUMS AND AREA", style="bold underline"), MinimumsView(brief))
+    return Group(Text("MINIMUMS AND AREA", style="bold underline"), MinimumsView(brief, units))
 
 
-def runway_implies(brief: Brief) -> RenderableType:
+def runway_implies(brief: Brief, units: str = DEFAULT_UNITS) -> RenderableType:
     """The wind on the landing runway, why circling, and the plan it leads to."""
     m, p, w = brief.minimums, brief.plan, brief.wind
     g = _grid()
@@ -110,18 +112,20 @@ def runway_implies(brief: Brief) -> RenderableType:
     return Group(Text("WHAT THIS GIVES", style="bold underline"), g)
 
 
-def weather_implies(brief: Brief) -> RenderableType:
+def weather_implies(brief: Brief, units: str = DEFAULT_UNITS) -> RenderableType:
     """The weather the brief used and what it means for the minimums."""
     wu, m, w, pf = brief.weather, brief.minimums, brief.wind, brief.performance
     g = _grid()
     g.add_row("Source", {"manual": "typed values", "report": "the report (typed values override it)",
                          "standard": "nothing given: standard values"}.get(wu.source, wu.source))
     g.add_row("Wind", f"{wind_text(brief)}: {wind_components_text(w)}; {wind_limits_words(w)}")
-    g.add_row("Temp/alt", f"OAT {wu.oat_c:.0f} °C, altimeter {wu.altimeter_hpa:.1f} hPa; "
+    g.add_row("Temp/alt", f"OAT {wu.oat_c:.0f} °C, altimeter {altimeter_words(wu.altimeter_hpa, units, spec='.1f')}; "
                           f"TAS {pf.tas_kt:.0f} kt at the MDA")
     vis = {True: "OK", False: "BELOW MINIMUM", None: "not checked"}[m.visibility_ok]
-    g.add_row("Visibility", f"{visibility_words(wu.visibility_sm, metres=m.visibility_in_metres)} vs "
-                            f"{m.visibility_required_text or 'none'} required: {vis}")
+    required = visibility_required_words(m.visibility_required_text, m.visibility_required_sm,
+                                         metre_minimums=m.visibility_in_metres, units=units)
+    g.add_row("Visibility", f"{visibility_reported_words(wu.visibility_sm, metre_minimums=m.visibility_in_metres, units=units)} vs "
+                            f"{required or 'none'} required: {vis}")
     ceil = {True: "OK", False: "BELOW THE MDA", None: "not checked"}[m.ceiling_ok]
     g.add_row("Ceiling", f"{fmt(wu.ceiling_ft, '.0f', ' ft')} vs HAA {fmt(m.height_above_airport_ft, '.0f', ' ft')}: "
                          f"{ceil}")
