@@ -189,7 +189,7 @@ def test_check_command_reports_it_with_exit_2(in_chart_files: Path, name: str,
 # --- the local frame in the brief and on the card --------------------------------------------------
 def test_a_local_frame_airfield_briefs_and_says_so(in_chart_files: Path) -> None:
     af = load_airfield("good-chart.yaml")
-    prof = catalog.find_profile("demo-trainer", use_config=False)
+    prof = catalog.find_profile("demo-twin", use_config=False)   # category B: the file publishes A-D (E gets no plan, issue 11 item 7)
     brief = build_brief(BriefRequest(profile=prof, airfield=af, approach="VOR-A", landing_runway="27",
                                      weather=Weather()))
     notes = [f for f in brief.warnings if f.code == "local-frame"]
