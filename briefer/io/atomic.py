@@ -27,6 +27,7 @@ from pathlib import Path
 from typing import Any
 
 from briefer.errors import BriefingError
+from briefer.io import safefile
 from briefer.safetext import escape_text
 
 
@@ -141,15 +142,8 @@ def remove_stale_temporaries(directory: str | PathLike[str], *, older_than_s: fl
 
 
 def _kind_of(mode: int) -> str:
-    if stat.S_ISDIR(mode):
-        return "it is a directory"
-    if stat.S_ISFIFO(mode):
-        return "it is a FIFO (named pipe); only a regular file is replaced"
-    if stat.S_ISCHR(mode) or stat.S_ISBLK(mode):
-        return "it is a device; only a regular file is replaced"
-    if stat.S_ISSOCK(mode):
-        return "it is a socket; only a regular file is replaced"
-    return "it is not a regular file; only a regular file is replaced"
+    kind = safefile.kind_of(mode)
+    return f"it is {kind}" + ("" if kind == "a directory" else "; only a regular file is replaced")
 
 
 def resolve_target(path: str | PathLike[str], *, overwrite: bool = False) -> Path:

@@ -33,7 +33,8 @@ _OPEN_FLAGS = (os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_NOCTT
 _open = os.open   # one name for the opening call (tests stand in a refusal)
 
 
-def _kind_of(mode: int) -> str:
+def kind_of(mode: int) -> str:
+    """What a file of this st_mode is, in words ('a FIFO (named pipe)', 'not a regular file')."""
     if stat.S_ISDIR(mode):
         return "a directory"
     if stat.S_ISFIFO(mode):
@@ -61,7 +62,7 @@ def _os_reason(exc: OSError) -> str:
 
 def _check(mode: int, size: int, name: str, limit: int, what: str) -> None:
     if not stat.S_ISREG(mode):
-        raise DataFileError(f"is {_kind_of(mode)}, expected {what}", file=name)
+        raise DataFileError(f"is {kind_of(mode)}, expected {what}", file=name)
     if size > limit:
         raise DataFileError(f"the file is {size:,} bytes, larger than the limit of {limit:,} bytes; "
                             f"expected {what}", file=name)

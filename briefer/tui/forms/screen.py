@@ -312,16 +312,7 @@ class FormScreen(Screen[Saved | None]):
         i = 0
         while i < len(fpath):
             tok = fpath[i]
-            nxt = None
-            for it in items:
-                if isinstance(it, Group) and it.key is None:
-                    hit = next((x for x in it.items if getattr(x, "key", None) == tok), None)
-                    if hit is not None:
-                        nxt = hit
-                        break
-                elif getattr(it, "key", None) == tok:
-                    nxt = it
-                    break
+            nxt = _child(items, tok)
             if nxt is None:
                 return None
             found = nxt
@@ -421,16 +412,7 @@ class FormScreen(Screen[Saved | None]):
         i = 0
         while i < len(rpath):
             tok = rpath[i]
-            nxt = None
-            for it in items:
-                if isinstance(it, Group) and it.key is None:
-                    hit = next((x for x in it.items if getattr(x, "key", None) == tok), None)
-                    if hit is not None:
-                        nxt = hit
-                        break
-                elif getattr(it, "key", None) == tok:
-                    nxt = it
-                    break
+            nxt = _child(items, tok)
             if nxt is None:
                 return None
             if isinstance(nxt, Repeat):
@@ -576,3 +558,15 @@ class FormScreen(Screen[Saved | None]):
                 self.dismiss(None)
 
         self.app.push_screen(ConfirmClose(), chosen)
+
+
+def _child(items: tuple[Item, ...], tok: object) -> Item | None:
+    """The item of key `tok` among `items`, looking inside unnamed groups (one step of a path)."""
+    for it in items:
+        if isinstance(it, Group) and it.key is None:
+            hit = next((x for x in it.items if getattr(x, "key", None) == tok), None)
+            if hit is not None:
+                return hit
+        elif getattr(it, "key", None) == tok:
+            return it
+    return None
