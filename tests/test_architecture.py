@@ -87,7 +87,7 @@ def test_the_repository_stands_alone():
     """Code, tests and benchmarks cite published documents or the project's own docs/, never a
     document outside the repository; every section of docs/REFERENCES.md they cite exists."""
     root = PKG.parent
-    outside = re.compile(r"\.\./shared|TECH-NOTES|STYLE\.md|CHART-ENTRY|(?<!docs/)(REFERENCES|ARCHITECTURE)\.md")
+    outside = re.compile(r"\.\./shared|TECH-NOTE[S]|STYLE\.md|CHART-ENTRY|(?<!docs/)(REFERENCES|ARCHITECTURE)\.md")
     cited = re.compile(r"docs/REFERENCES\.md,? (?:sections? |§)?(\d+[a-z]?)")
     headings = set(re.findall(r"^#{2,3} (\d+[a-z]?)\.", (root / "docs" / "REFERENCES.md").read_text(), re.M))
     offenders, missing = [], []
