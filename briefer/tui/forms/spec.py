@@ -320,48 +320,36 @@ def to_texts(spec: FormSpec, mapping: Mapping[str, Any]) -> dict[str, Any]:
     return out
 
 
+def _blank(items: Sequence[Item], *, starting_rows: bool) -> dict[str, Any]:
+    """Empty texts for `items`; repeating groups get the rows they start with, or none."""
+    out: dict[str, Any] = {}
+    for item in items:
+        if isinstance(item, Field):
+            out[item.key] = ""
+        elif isinstance(item, Group):
+            inner = _blank(item.items, starting_rows=starting_rows)
+            if item.key is None:
+                out.update(inner)
+            else:
+                out[item.key] = inner
+        else:
+            rows: list[dict[str, Any]] = []
+            if starting_rows and item.new_item is not None and not item.optional:
+                rows.append(item.new_item(rows))
+            out[item.key] = rows
+    return out
+
+
 def blank_texts(spec: FormSpec) -> dict[str, Any]:
     """The texts of a new, empty form (repeating groups get the rows they start with)."""
-    def blank(items: Sequence[Item]) -> dict[str, Any]:
-        out: dict[str, Any] = {}
-        for item in items:
-            if isinstance(item, Field):
-                out[item.key] = ""
-            elif isinstance(item, Group):
-                if item.key is None:
-                    out.update(blank(item.items))
-                else:
-                    out[item.key] = blank(item.items)
-            else:
-                rows: list[dict[str, Any]] = []
-                if item.new_item is not None and not item.optional:
-                    rows.append(item.new_item(rows))
-                out[item.key] = rows
-        return out
-
-    return blank(spec.items)
+    return _blank(spec.items, starting_rows=True)
 
 
 def new_row(rep: Repeat, rows: Sequence[Mapping[str, Any]]) -> dict[str, Any]:
     """Texts of a row added to a repeating group."""
     if rep.new_item is not None:
         return rep.new_item(rows)
-
-    def blank(items: Sequence[Item]) -> dict[str, Any]:
-        out: dict[str, Any] = {}
-        for item in items:
-            if isinstance(item, Field):
-                out[item.key] = ""
-            elif isinstance(item, Group):
-                if item.key is None:
-                    out.update(blank(item.items))
-                else:
-                    out[item.key] = blank(item.items)
-            else:
-                out[item.key] = []
-        return out
-
-    return blank(rep.items)
+    return _blank(rep.items, starting_rows=False)
 
 
 # --------------------------------------------------------------------------------------------
