@@ -93,7 +93,7 @@ def _decided_near_zero(s) -> bool:
     from briefer.units import NM_TO_M
 
     wx, wy = s.inputs.wind.mps()
-    j = judge_winds(s.inputs, wx_mps=[wx], wy_mps=[wy], margin_fn=s.margins_by_source_fn, eager=True,
+    j = judge_winds(s.inputs, wx_mps=[wx], wy_mps=[wy], margin_fn=s.margins_fn, eager=True,
                     visibility_m=s.visibility_m, bank_limit_deg=min(s.bank_limit_deg, 60.0),
                     area_radius_m=s.area_radius.radius_nm * NM_TO_M, aoa_margin_fn=s.aoa_margin_fn)
     return bool(np.any(np.abs(j.level_slack_m) < DENSE_CHECK_M))
@@ -103,7 +103,7 @@ def _ranked(s):
     from briefer.core.maneuver import choose_plan_at_wind
     from briefer.units import NM_TO_M
 
-    choice, _ = choose_plan_at_wind(s.inputs, margin_fn=s.margin_fn, batch_margin_fn=s.margins_by_source_fn,
+    choice, _ = choose_plan_at_wind(s.inputs, margin_fn=s.margin_fn, batch_margin_fn=s.margins_fn,
                                     visibility_m=s.visibility_m, bank_limit_deg=min(s.bank_limit_deg, 60.0),
                                     area_radius_m=s.area_radius.radius_nm * NM_TO_M, aoa_margin_fn=s.aoa_margin_fn)
     return choice.ranked

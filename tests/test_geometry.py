@@ -504,3 +504,23 @@ def test_one_margin_rule_with_and_without_a_sector_edge_tolerance():
     assert area.track_margin_m(final) == pytest.approx(0.0, abs=1e-9)
     assert area.sector_clearance_m([south, (0.0, -10.0)]) == pytest.approx(10.0, abs=1e-9)
     assert ProtectedArea(centres_m=[A, B], radius_m=R_17).sector_clearance_m([south]) == math.inf
+
+
+def test_track_margin_reads_the_track_as_a_polyline_between_its_samples():
+    """The one track-margin rule (ProtectedArea.track_margins_m) finds how deep a straight piece
+    enters a not-authorised sector between two samples outside it (Doc 8168 Vol I Part I Sec 4
+    Ch 7, 7.3.4: circling prohibited in the whole sector). Hand-derived: a wedge from 315 to 045
+    about the origin (its bisector is north), a track from (-3000, 2000) to (3000, 2000). Both
+    samples are outside (707 m from the edge rays: |-3000 sin 45 + 2000 sin 45|); the piece crosses
+    the bisector at (0, 2000), 2000 sin 45 = 1414.2 m inside. The radius margin (R = 10 km) is far
+    larger, so the sector sets the margin."""
+    wedge = BearingSector(centre_m=(0.0, 0.0), from_deg_true=315.0, to_deg_true=45.0)
+    area = ProtectedArea(centres_m=[(0.0, 0.0)], radius_m=10_000.0, excluded=(wedge,))
+    track = np.array([[-3000.0, 2000.0], [3000.0, 2000.0]])
+    depth = -2000.0 * math.sin(math.radians(45.0))
+    assert area.track_margin_m(track) == pytest.approx(depth, abs=1e-6)
+    margin, by_sector = area.track_margins_m(np.stack([track, track + [0.0, -5000.0]]),
+                                             sector_edge_tolerance_m=1.0)
+    # the second track (y = -3000) stays south of the wedge: R - |(3000, -3000)| = 10000 - 4242.6
+    assert_allclose(margin, [depth, 10_000.0 - math.hypot(3000.0, 3000.0)], atol=1e-6)
+    assert by_sector.tolist() == [True, False]

@@ -18,7 +18,7 @@ def envelope_for(request: BriefRequest, **kwargs) -> maneuver.Envelope:
     brief offers no plan and neither does the cell.
     """
     s = situation(request)
-    common = dict(margin_fn=s.margins_by_source_fn, visibility_m=s.visibility_m,
+    common = dict(margin_fn=s.margins_fn, visibility_m=s.visibility_m,
                   bank_limit_deg=min(s.bank_limit_deg, 60.0), area_radius_m=s.area_radius.radius_nm * units.NM_TO_M,
                   aoa_margin_fn=s.aoa_margin_fn,
                   crosswind_limit_kt=request.selected_configuration().max_demonstrated_crosswind_kt,

@@ -16,6 +16,6 @@ def choose_with_closer_roll_out(s: Situation, area_radius_m: float) -> tuple[man
     batch at the brief's wind, then the full plans of the chosen level, ranked
     (:func:`briefer.core.maneuver.choose_plan_at_wind`). Returns the choice and whether it rolled
     out closer."""
-    return maneuver.choose_plan_at_wind(s.inputs, margin_fn=s.margin_fn, batch_margin_fn=s.margins_by_source_fn,
+    return maneuver.choose_plan_at_wind(s.inputs, margin_fn=s.margin_fn, batch_margin_fn=s.margins_fn,
                                         visibility_m=s.visibility_m, bank_limit_deg=min(s.bank_limit_deg, 60.0),
                                         area_radius_m=area_radius_m, aoa_margin_fn=s.aoa_margin_fn)

@@ -72,65 +72,19 @@ class Situation:
 
     def margin_fn(self, track_rw: np.ndarray) -> float:
         """Smallest protected-area margin [m] of one runway-frame track (N, 2)."""
-        return float(self.margins_fn(np.asarray(track_rw, dtype=float)[None, ...])[0])
+        return float(self.margins_fn(np.asarray(track_rw, dtype=float)[None, ...])[0][0])
 
-    def margins_fn(self, tracks_rw: np.ndarray) -> np.ndarray:
-        """Vectorised: tracks (..., N, 2) in the runway frame -> smallest margin of each (...).
+    def margins_fn(self, tracks_rw: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """Vectorised: tracks (..., N, 2) in the runway frame -> the smallest margin of each (...)
+        and whether a not-authorised sector sets it.
 
-        The area's one margin rule (`ProtectedArea.margin_m`) with a sector edge tolerance of
-        EDGE_TOLERANCE_M: a not-authorised sector is a hard limit once entered, but flying
-        along its edge (a side sector's edge is the centreline, where the final is flown) does
-        not shrink the margin.
+        The area's one track-margin rule (`ProtectedArea.track_margins_m`) with a sector edge
+        tolerance of EDGE_TOLERANCE_M: a not-authorised sector is a hard limit once entered, but
+        flying along its edge (a side sector's edge is the centreline, where the final is flown)
+        does not shrink the margin.
         """
-        tracks_rw = np.asarray(tracks_rw, dtype=float)
-        pts = tracks_rw[..., ::-1]          # (right, along): runway axes as (east, north)
-        return np.asarray(self.area_rw.track_margin_m(pts, sector_edge_tolerance_m=EDGE_TOLERANCE_M))
-
-    def margins_by_source_fn(self, tracks_rw: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-        """:meth:`margins_fn` for the judgement's batch, and per track whether its margin is a
-        not-authorised sector's.
-
-        The tracks are read as polylines: inside a sector given by bearings, the depth along a
-        straight piece is deepest at an end or where it crosses the sector's bisector, so that
-        crossing counts too (a track sampled sparsely along its straights still finds how far it
-        enters the sector).
-        """
-        tracks_rw = np.asarray(tracks_rw, dtype=float)
-        shp = tracks_rw.shape[:-1]
-        pts = np.ascontiguousarray(tracks_rw.reshape(-1, 2)[:, ::-1])   # (right, along) as (east, north)
-        hull_margin = self.area_rw.radius_m - np.asarray(self.area_rw.distance_to_hull_m(pts), dtype=float)
-        hull_margin = hull_margin.reshape(shp).min(axis=-1)
-        if not self.area_rw.excluded:
-            return hull_margin, np.zeros(hull_margin.shape, dtype=bool)
-        margin = hull_margin
-        track = pts.reshape(shp + (2,))
-        for sec in self.area_rw.excluded:
-            clear = np.asarray(sec.clearance_m(pts), dtype=float).reshape(shp)
-            depth = np.where(clear < -EDGE_TOLERANCE_M, clear, np.inf).min(axis=-1)
-            if isinstance(sec, geometry.BearingSector) and shp[-1] >= 2:
-                depth = np.minimum(depth, _bisector_depth_m(sec, track))
-            margin = np.minimum(margin, depth)
-        return margin, margin < hull_margin
-
-
-def _bisector_depth_m(sec: geometry.BearingSector, track: np.ndarray) -> np.ndarray:
-    """Deepest clearance (< -EDGE_TOLERANCE_M, else inf) of each polyline (..., N, 2) at its
-    crossings of the sector's bisector line (east, north axes)."""
-    brg = math.radians(sec.from_deg_true + sec.span_deg / 2.0)
-    ux, uy = math.sin(brg), math.cos(brg)
-    cx, cy = sec.centre_m
-    side = (track[..., 0] - cx) * uy - (track[..., 1] - cy) * ux        # signed distance to the bisector line
-    a, b = side[..., :-1], side[..., 1:]
-    cross = a * b < 0.0
-    out = np.full(track.shape[:-2], np.inf)
-    if not cross.any():
-        return out
-    idx = np.nonzero(cross)
-    t = a[idx] / (a[idx] - b[idx])
-    p0, p1 = track[..., :-1, :][idx], track[..., 1:, :][idx]
-    c = np.asarray(sec.clearance_m(p0 + t[:, None] * (p1 - p0)), dtype=float)
-    np.minimum.at(out, idx[:-1], np.where(c < -EDGE_TOLERANCE_M, c, np.inf))
-    return out
+        pts = np.asarray(tracks_rw, dtype=float)[..., ::-1]      # (right, along): runway axes as (east, north)
+        return self.area_rw.track_margins_m(pts, sector_edge_tolerance_m=EDGE_TOLERANCE_M)
 
 
 def situation(request: BriefRequest) -> Situation:

@@ -838,6 +838,30 @@ def side_of_centreline(threshold_xy: ArrayLike, opposite_threshold_xy: ArrayLike
 # --------------------------------------------------------------------------------------------
 # protected area
 # --------------------------------------------------------------------------------------------
+def _bisector_depth_m(sec: BearingSector, track: npt.NDArray[np.float64],
+                      edge_tolerance_m: float | None) -> npt.NDArray[np.float64]:
+    """Smallest clearance of each polyline (..., N, 2) at its crossings of the sector's bisector
+    line (east, north), counted as in `ProtectedArea.margin_m` (within the edge tolerance it does
+    not count: +inf). [m]"""
+    brg = math.radians(sec.from_deg_true + sec.span_deg / 2.0)
+    ux, uy = math.sin(brg), math.cos(brg)
+    cx, cy = sec.centre_m
+    side = (track[..., 0] - cx) * uy - (track[..., 1] - cy) * ux        # signed distance to the bisector line
+    a, b = side[..., :-1], side[..., 1:]
+    cross = a * b < 0.0
+    out = np.full(track.shape[:-2], np.inf)
+    if not cross.any():
+        return out
+    idx = np.nonzero(cross)
+    t = a[idx] / (a[idx] - b[idx])
+    p0, p1 = track[..., :-1, :][idx], track[..., 1:, :][idx]
+    c = np.asarray(sec.clearance_m(p0 + t[:, None] * (p1 - p0)), dtype=float)
+    if edge_tolerance_m is not None:
+        c = np.where(c < -edge_tolerance_m, c, np.inf)
+    np.minimum.at(out, idx[:-1], c)
+    return out
+
+
 @dataclass(frozen=True, slots=True, kw_only=True)
 class ProtectedArea:
     """Circling area: every point within R of the convex hull of the usable thresholds, minus
@@ -946,6 +970,20 @@ class ProtectedArea:
     def track_margin_m(self, tracks: ArrayLike, *, sector_edge_tolerance_m: float | None = None) -> Numeric:
         """Smallest margin (`margin_m`) along each track; negative if it leaves. [m]
 
+        The first part of `track_margins_m` (the one track-margin rule).
+        """
+        return as_float(self.track_margins_m(tracks, sector_edge_tolerance_m=sector_edge_tolerance_m)[0])
+
+    def track_margins_m(self, tracks: ArrayLike, *, sector_edge_tolerance_m: float | None = None,
+                        ) -> tuple[npt.NDArray[np.float64], npt.NDArray[np.bool_]]:
+        """Smallest margin (`margin_m`) along each track read as a polyline, and whether a
+        not-authorised sector sets it. [m]
+
+        The one track-margin rule. Inside a sector given by bearings, the depth along a straight
+        piece is deepest at an end or where the piece crosses the sector's bisector, so that
+        crossing counts too: a track sampled sparsely along its straights still finds how far it
+        enters the sector.
+
         Parameters
         ----------
         tracks : array_like, shape (..., N, 2), N >= 1
@@ -955,14 +993,30 @@ class ProtectedArea:
 
         Returns
         -------
-        float or ndarray, shape (...)
-            One margin per track (a float for one (N, 2) track). [m]
+        margin : ndarray, shape (...)
+            One margin per track. [m]
+        by_sector : ndarray of bool, shape (...)
+            Whether that margin is a not-authorised sector's (deeper than the radius margin).
         """
         t = _points(tracks, "track")
         if t.ndim < 2 or t.shape[-2] < 1:
             raise DomainError(f"track must be an (N, 2) array with N >= 1; got shape {t.shape}")
-        margin = np.asarray(self.margin_m(t.reshape(-1, 2), sector_edge_tolerance_m=sector_edge_tolerance_m))
-        return as_float(margin.reshape(t.shape[:-1]).min(axis=-1))
+        out_shape = t.shape[:-2]
+        t = t.reshape((-1,) + t.shape[-2:])                 # (tracks, N, 2)
+        shp = t.shape[:-1]
+        pts = np.ascontiguousarray(t.reshape(-1, 2))
+        hull = self.radius_m - np.asarray(self.distance_to_hull_m(pts), dtype=float)
+        hull_margin = hull.reshape(shp).min(axis=-1)
+        margin = hull_margin
+        for sec in self.excluded:
+            clear = np.asarray(sec.clearance_m(pts), dtype=float).reshape(shp)
+            if sector_edge_tolerance_m is not None:
+                clear = np.where(clear < -sector_edge_tolerance_m, clear, np.inf)
+            depth = clear.min(axis=-1)
+            if isinstance(sec, BearingSector) and shp[-1] >= 2:
+                depth = np.minimum(depth, _bisector_depth_m(sec, t, sector_edge_tolerance_m))
+            margin = np.minimum(margin, depth)
+        return margin.reshape(out_shape), (margin < hull_margin).reshape(out_shape)
 
     def sector_clearance_m(self, points: ArrayLike) -> float:
         """Smallest signed clearance of the points to any excluded sector (negative: inside one);
