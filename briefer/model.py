@@ -22,7 +22,7 @@ import math
 import numbers
 import re
 from collections.abc import Mapping
-from dataclasses import MISSING, dataclass, field, fields
+from briefer._dataclass import MISSING, dataclass, field, fields
 from typing import Any, ClassVar
 
 from briefer import units, vocabulary

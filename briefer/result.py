@@ -8,7 +8,7 @@ name ends in `_mag`.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from typing import Literal
 
 import numpy as np

@@ -10,7 +10,7 @@ method the request names (default: the table method, the more conservative).
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 import numpy as np
 

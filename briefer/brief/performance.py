@@ -7,7 +7,7 @@ Missing temperature: ISA at the field; missing altimeter: standard pressure (bot
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 from briefer.brief.findings import FindingList
 from briefer.brief.situation_inputs import Situation

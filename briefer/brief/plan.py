@@ -7,7 +7,7 @@ the area, beyond visibility, marginal, roll-out shortened, descent in the turn) 
 from __future__ import annotations
 
 import dataclasses
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 import numpy as np
 

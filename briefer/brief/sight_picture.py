@@ -8,7 +8,7 @@ the actual wind).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 import numpy as np
 

@@ -15,7 +15,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 import numpy as np
 

@@ -6,7 +6,7 @@ lives here. A variable wind is planned as calm and flagged.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 from briefer.brief.findings import FindingList
 from briefer.brief.situation_inputs import Situation

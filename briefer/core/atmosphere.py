@@ -34,7 +34,7 @@ from __future__ import annotations
 
 import math
 
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 import numpy as np
 

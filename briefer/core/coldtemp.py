@@ -35,7 +35,7 @@ References
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from typing import Literal
 
 import numpy as np

@@ -47,7 +47,7 @@ References
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from types import MappingProxyType
 from typing import Literal, Mapping
 

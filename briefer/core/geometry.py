@@ -27,7 +27,7 @@ from __future__ import annotations
 
 import functools
 import math
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from collections.abc import Mapping
 from typing import Any, Literal, Union
 

@@ -43,7 +43,7 @@ impossible layout raises `LayoutError` naming the field, which the loaders turn 
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from typing import Any
 
 from briefer import units

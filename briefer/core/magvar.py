@@ -23,7 +23,7 @@ from __future__ import annotations
 import datetime as _dt
 import functools
 import math
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 from briefer.errors import DomainError
 

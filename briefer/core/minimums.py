@@ -33,7 +33,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Sequence
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from typing import TYPE_CHECKING, Any
 
 import numpy as np

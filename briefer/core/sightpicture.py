@@ -20,7 +20,7 @@ References
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 import numpy as np
 

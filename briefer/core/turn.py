@@ -28,7 +28,7 @@ References
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 import numpy as np
 

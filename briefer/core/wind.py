@@ -27,7 +27,7 @@ References
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from typing import Literal, NamedTuple
 
 import numpy as np

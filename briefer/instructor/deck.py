@@ -16,7 +16,7 @@ from __future__ import annotations
 import random
 import textwrap
 from collections.abc import Sequence
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from os import PathLike
 from pathlib import Path
 from typing import Any

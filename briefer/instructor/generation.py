@@ -27,7 +27,7 @@ from __future__ import annotations
 import math
 import random
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from fractions import Fraction
 from typing import Any
 

@@ -39,7 +39,7 @@ from __future__ import annotations
 import numbers
 import os
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from os import PathLike
 from pathlib import Path
 from typing import Any, ClassVar

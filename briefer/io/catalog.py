@@ -27,7 +27,7 @@ import os
 import re
 import sys
 from collections.abc import Callable, Iterable, Sequence
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from importlib import resources
 from os import PathLike
 from pathlib import Path

@@ -37,7 +37,7 @@ from __future__ import annotations
 
 import re
 import string
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from fractions import Fraction
 from typing import Any
 

@@ -36,7 +36,7 @@ import csv
 import io
 import math
 import os
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from os import PathLike
 from pathlib import Path
 from typing import Any, Iterator

@@ -21,7 +21,7 @@ from __future__ import annotations
 
 import re
 from collections.abc import Mapping
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from os import PathLike
 from typing import Any
 

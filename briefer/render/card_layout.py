@@ -18,7 +18,7 @@ from __future__ import annotations
 import math
 import re
 import unicodedata
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from typing import Literal
 
 from briefer import __version__

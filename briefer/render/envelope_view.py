@@ -33,7 +33,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Iterator, Sequence
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 import numpy as np
 from rich.console import Console, ConsoleOptions, RenderResult

@@ -21,7 +21,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass, replace
+from briefer._dataclass import dataclass, replace
 from typing import Any
 
 from briefer.render.scene import Label, Marker, Role, Scene

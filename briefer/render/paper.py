@@ -14,7 +14,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from math import cos, radians, sin
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from typing import Literal, Union
 from xml.sax.saxutils import escape, quoteattr
 

@@ -10,7 +10,7 @@ from __future__ import annotations
 import math
 import os
 from collections.abc import Mapping
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 from briefer.render.canvas import _EMPTY, _FILL, ROLE_DASH, AsciiCanvas, BrailleCanvas, Canvas
 from briefer.render.labels import SOFT_ROLES, LabelSpec, label_priority, place, runway_axis

@@ -13,7 +13,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Iterable, Mapping, Sequence
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from enum import Enum
 from types import MappingProxyType
 from typing import Union

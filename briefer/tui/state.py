@@ -7,7 +7,7 @@ No Textual import here, so the state and the file format can be tested without a
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass, field, replace
+from briefer._dataclass import dataclass, field, replace
 from typing import TYPE_CHECKING, Any
 
 from briefer.errors import BriefingError, DomainError

@@ -29,7 +29,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 
 import numpy as np
 import numpy.typing as npt

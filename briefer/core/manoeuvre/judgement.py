@@ -37,7 +37,7 @@ from __future__ import annotations
 import dataclasses
 import math
 from collections.abc import Callable
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 
 import numpy as np
 import numpy.typing as npt

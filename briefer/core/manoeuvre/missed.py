@@ -10,7 +10,7 @@ References
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from typing import Literal
 
 import numpy as np

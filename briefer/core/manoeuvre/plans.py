@@ -18,7 +18,7 @@ References
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 
 import numpy as np
 import numpy.typing as npt

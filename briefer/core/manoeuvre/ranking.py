@@ -24,7 +24,7 @@ from __future__ import annotations
 
 import dataclasses
 import math
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from typing import Callable, Literal
 
 import numpy as np

@@ -75,7 +75,7 @@ References
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from typing import Literal
 
 import numpy as np

@@ -13,7 +13,7 @@ No Textual import here.
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from typing import Any
 
 from briefer.errors import DataFileError

@@ -10,7 +10,7 @@ No Textual import here.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from typing import Any
 
 from briefer import units

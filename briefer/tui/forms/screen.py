@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import copy
 from collections.abc import Callable
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from pathlib import Path
 from typing import Any
 

@@ -14,7 +14,7 @@ from __future__ import annotations
 
 import copy
 from collections.abc import Callable, Mapping, Sequence
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from typing import Any, Union
 
 from briefer.model import join_path

@@ -12,7 +12,7 @@ No Textual import here.
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 from pathlib import Path
 from typing import Any
 

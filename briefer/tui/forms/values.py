@@ -13,7 +13,7 @@ from __future__ import annotations
 import math
 import re
 from collections.abc import Mapping
-from dataclasses import dataclass, field
+from briefer._dataclass import dataclass, field
 from typing import Any
 
 from briefer import units

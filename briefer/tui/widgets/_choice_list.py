@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 from rich.text import Text
 from textual import on

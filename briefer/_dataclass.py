@@ -1,0 +1,264 @@
+"""``dataclass``: the standard library's decorator, made quicker to apply (start-up time).
+
+Python 3.11's ``dataclasses.dataclass`` compiles every generated method (``__init__``,
+``__repr__``, ``__eq__``, ``__hash__``, ``__setattr__``, ``__delattr__``) from source, one
+``exec`` each: about a millisecond a class, and briefer defines about a hundred dataclasses, so
+that compiling was a third of ``briefer brief``'s own start-up. Here only ``__init__`` is
+compiled (its signature must be exact), and only when the class is first instantiated; the other
+methods are closures over the field names, with the same behaviour as the generated ones:
+
+* ``__repr__``: ``Name(a=1, b='x')`` over the fields with ``repr=True``;
+* ``__eq__``: the tuples of the fields with ``compare=True``, for instances of the same class
+  (``NotImplemented`` otherwise);
+* ``__hash__``: as the standard table decides (frozen with eq: the hash of that tuple; eq and
+  not frozen: unhashable; an explicit ``__hash__`` kept);
+* frozen: ``__setattr__`` / ``__delattr__`` raise ``dataclasses.FrozenInstanceError``.
+
+The class is a real dataclass: ``dataclasses.fields``, ``replace``, ``asdict`` and
+``is_dataclass`` work on it. Anything outside the options briefer uses (``order``,
+``unsafe_hash``, ``weakref_slot``, ``InitVar``, ``KW_ONLY``, annotations that are not strings,
+another Python than 3.11) goes to the standard decorator unchanged.
+"""
+
+from __future__ import annotations
+
+import dataclasses as _dc
+import sys
+from dataclasses import MISSING, Field, FrozenInstanceError, field, fields, replace
+
+__all__ = ["MISSING", "Field", "FrozenInstanceError", "dataclass", "field", "fields", "replace"]
+
+_QUICK = sys.version_info[:2] == (3, 11)     # the private helpers below are 3.11's
+
+
+def dataclass(cls: type | None = None, /, *, init: bool = True, repr: bool = True, eq: bool = True,
+              order: bool = False, unsafe_hash: bool = False, frozen: bool = False, match_args: bool = True,
+              kw_only: bool = False, slots: bool = False, weakref_slot: bool = False):
+    """``dataclasses.dataclass`` (same arguments, same result), quicker to apply."""
+
+    def wrap(c: type) -> type:
+        if (_QUICK and init and not order and not unsafe_hash and not weakref_slot
+                and _plain_annotations(c)):
+            return _process(c, repr=repr, eq=eq, frozen=frozen, match_args=match_args, kw_only=kw_only,
+                            slots=slots)
+        return _dc.dataclass(c, init=init, repr=repr, eq=eq, order=order, unsafe_hash=unsafe_hash, frozen=frozen,
+                             match_args=match_args, kw_only=kw_only, slots=slots, weakref_slot=weakref_slot)
+
+    return wrap if cls is None else wrap(cls)
+
+
+def _is_classvar(annotation: str) -> bool:
+    return annotation.lstrip().startswith(("ClassVar", "typing.ClassVar"))
+
+
+def _plain_annotations(cls: type) -> bool:
+    """Every annotation a string (``from __future__ import annotations``), none an InitVar or KW_ONLY."""
+    for a in cls.__dict__.get("__annotations__", {}).values():
+        if not isinstance(a, str) or "InitVar" in a or "KW_ONLY" in a:
+            return False
+    return True
+
+
+def _own_field(cls: type, name: str, annotation: str, kw_only: bool) -> Field:
+    default = getattr(cls, name, MISSING)
+    if isinstance(default, Field):
+        f = default
+    else:
+        if isinstance(default, type(_dc.Field.name)):      # a slot left by an earlier decoration
+            default = MISSING
+        f = field(default=default)
+    f.name = name
+    f.type = annotation
+    f._field_type = _dc._FIELD                              # type: ignore[attr-defined]
+    if f.kw_only is MISSING:
+        f.kw_only = kw_only
+    if f.default.__class__.__hash__ is None:
+        raise ValueError(f"mutable default {type(f.default)} for field {f.name} is not allowed: use default_factory")
+    return f
+
+
+def _collect_fields(cls: type, frozen: bool, kw_only: bool) -> dict[str, Field]:
+    all_fields: dict[str, Field] = {}
+    any_frozen_base = has_bases = False
+    for b in cls.__mro__[-1:0:-1]:
+        base_fields = getattr(b, _dc._FIELDS, None)          # type: ignore[attr-defined]
+        if base_fields is not None:
+            has_bases = True
+            all_fields.update((f.name, f) for f in base_fields.values())
+            if getattr(b, _dc._PARAMS).frozen:               # type: ignore[attr-defined]
+                any_frozen_base = True
+    annotations = cls.__dict__.get("__annotations__", {})
+    for name, annotation in annotations.items():
+        if _is_classvar(annotation):
+            continue
+        f = _own_field(cls, name, annotation, kw_only)
+        all_fields[name] = f
+        if isinstance(getattr(cls, name, None), Field):
+            if f.default is MISSING:
+                delattr(cls, name)
+            else:
+                setattr(cls, name, f.default)
+    for name, value in cls.__dict__.items():
+        if isinstance(value, Field) and name not in annotations:
+            raise TypeError(f"{name!r} is a field but has no type annotation")
+    if has_bases and any_frozen_base != frozen:
+        raise TypeError("cannot inherit non-frozen dataclass from a frozen one" if any_frozen_base
+                        else "cannot inherit frozen dataclass from a non-frozen one")
+    return all_fields
+
+
+def _init_fn(cls: type, all_fields: dict[str, Field], frozen: bool, slots: bool):
+    """The one compiled method: ``__init__`` with the standard decorator's signature and body."""
+    init_fields = [f for f in all_fields.values() if f.init]
+    positional = [f for f in init_fields if not f.kw_only]
+    keyword = [f for f in init_fields if f.kw_only]
+    self_name = "__dataclass_self__" if "self" in all_fields else "self"
+    env: dict[str, object] = {"__dataclass_HAS_DEFAULT_FACTORY__": _dc._HAS_DEFAULT_FACTORY,  # type: ignore[attr-defined]
+                              "__dataclass_builtins_object__": object}
+
+    def param(f: Field) -> str:
+        if f.default is not MISSING:
+            env[f"__dataclass_dflt_{f.name}__"] = f.default
+            return f"{f.name}=__dataclass_dflt_{f.name}__"
+        if f.default_factory is not MISSING:
+            return f"{f.name}=__dataclass_HAS_DEFAULT_FACTORY__"
+        return f.name
+
+    body = []
+    for f in all_fields.values():
+        dflt = f"__dataclass_dflt_{f.name}__"
+        if f.default_factory is not MISSING:
+            env[dflt] = f.default_factory
+            value = f"{dflt}() if {f.name} is __dataclass_HAS_DEFAULT_FACTORY__ else {f.name}" if f.init else f"{dflt}()"
+        elif f.init:
+            value = f.name
+        elif slots and f.default is not MISSING:
+            env[dflt] = f.default
+            value = dflt
+        else:
+            continue
+        body.append(f"__dataclass_builtins_object__.__setattr__({self_name},{f.name!r},{value})" if frozen
+                    else f"{self_name}.{f.name}={value}")
+    if hasattr(cls, "__post_init__"):
+        body.append(f"{self_name}.__post_init__()")
+    params = [self_name] + [param(f) for f in positional] + (["*"] + [param(f) for f in keyword] if keyword else [])
+    src = (f"def __init__({','.join(params)}):\n " + ("\n ".join(body) if body else "pass") + "\n")
+    exec(src, env)
+    fn = env["__init__"]
+    fn.__qualname__ = f"{cls.__qualname__}.__init__"            # type: ignore[attr-defined]
+    fn.__annotations__ = {**{f.name: f.type for f in init_fields}, "return": None}  # type: ignore[attr-defined]
+    return fn
+
+
+def _check_defaults_order(all_fields: dict[str, Field]) -> None:
+    seen_default = False
+    for f in all_fields.values():
+        if not f.init or f.kw_only:
+            continue
+        if f.default is not MISSING or f.default_factory is not MISSING:
+            seen_default = True
+        elif seen_default:
+            raise TypeError(f"non-default argument {f.name!r} follows default argument")
+
+
+def _lazy_init(cls_box: list[type], all_fields: dict[str, Field], frozen: bool, slots: bool):
+    """An ``__init__`` that compiles the real one when the class is first instantiated, puts it
+    in its place and runs it (a class never instantiated in a run costs no compiling)."""
+
+    def __init__(self, *args, **kwargs) -> None:
+        cls = cls_box[0]
+        real = _init_fn(cls, all_fields, frozen, slots)
+        type.__setattr__(cls, "__init__", real)
+        real(self, *args, **kwargs)
+    return __init__
+
+
+def _row(names: tuple[str, ...]):
+    """self -> the tuple of those attributes."""
+    if not names:
+        return lambda self: ()
+    if len(names) == 1:
+        (name,) = names
+        return lambda self: (getattr(self, name),)
+    from operator import attrgetter
+
+    return attrgetter(*names)
+
+
+def _methods(cls_box: list[type], all_fields: dict[str, Field], *, repr: bool, eq: bool, frozen: bool,
+             explicit_hash: bool) -> dict[str, object]:
+    """``__repr__``, ``__eq__``, ``__hash__`` and the frozen ``__setattr__`` / ``__delattr__``, as
+    the standard decorator makes them (``cls_box[0]``: the final class, after slots)."""
+    out: dict[str, object] = {}
+    if repr:
+        names = tuple(f.name for f in all_fields.values() if f.repr)
+
+        def __repr__(self) -> str:
+            return (self.__class__.__qualname__ + "("
+                    + ", ".join([f"{n}={getattr(self, n)!r}" for n in names]) + ")")
+        out["__repr__"] = __repr__
+    compared = tuple(f.name for f in all_fields.values() if f.compare)
+    row = _row(compared)
+    if eq:
+        def __eq__(self, other):
+            if other.__class__ is self.__class__:
+                return row(self) == row(other)
+            return NotImplemented
+        out["__eq__"] = __eq__
+    if frozen:
+        names_set = frozenset(all_fields)
+
+        def __setattr__(self, name, value):
+            cls = cls_box[0]
+            if type(self) is cls or name in names_set:
+                raise FrozenInstanceError(f"cannot assign to field {name!r}")
+            super(cls, self).__setattr__(name, value)
+
+        def __delattr__(self, name):
+            cls = cls_box[0]
+            if type(self) is cls or name in names_set:
+                raise FrozenInstanceError(f"cannot delete field {name!r}")
+            super(cls, self).__delattr__(name)
+        out["__setattr__"], out["__delattr__"] = __setattr__, __delattr__
+    if eq and not explicit_hash:
+        if frozen:
+            hashed = _row(tuple(f.name for f in all_fields.values() if (f.compare if f.hash is None else f.hash)))
+
+            def __hash__(self) -> int:
+                return hash(hashed(self))
+            out["__hash__"] = __hash__
+        else:
+            out["__hash__"] = None
+    return out
+
+
+def _process(cls: type, *, repr: bool, eq: bool, frozen: bool, match_args: bool, kw_only: bool, slots: bool) -> type:
+    cls.__dataclass_params__ = _dc._DataclassParams(True, repr, eq, False, False, frozen)  # type: ignore[attr-defined]
+    all_fields = _collect_fields(cls, frozen, kw_only)
+    cls.__dataclass_fields__ = all_fields                                       # type: ignore[attr-defined]
+    class_hash = cls.__dict__.get("__hash__", MISSING)
+    explicit_hash = not (class_hash is MISSING or (class_hash is None and "__eq__" in cls.__dict__))
+    cls_box = [cls]
+    if "__init__" not in cls.__dict__:
+        _check_defaults_order(all_fields)
+        cls.__init__ = _lazy_init(cls_box, all_fields, frozen, slots)             # type: ignore[misc]
+    for name, fn in _methods(cls_box, all_fields, repr=repr, eq=eq, frozen=frozen,
+                             explicit_hash=explicit_hash).items():
+        if name == "__hash__":
+            cls.__hash__ = fn                                                       # type: ignore[assignment]
+            continue
+        if name in cls.__dict__:
+            if name in ("__setattr__", "__delattr__"):
+                raise TypeError(f"Cannot overwrite attribute {name} in class {cls.__name__}")
+            continue
+        if callable(fn):
+            fn.__qualname__ = f"{cls.__qualname__}.{name}"                        # type: ignore[attr-defined]
+        setattr(cls, name, fn)
+    if not getattr(cls, "__doc__"):
+        cls.__doc__ = f"{cls.__name__}({', '.join(all_fields)})"
+    if match_args and "__match_args__" not in cls.__dict__:
+        cls.__match_args__ = tuple(f.name for f in all_fields.values() if f.init and not f.kw_only)  # type: ignore[attr-defined]
+    if slots:
+        cls = _dc._add_slots(cls, frozen, False)                                  # type: ignore[attr-defined]
+        cls_box[0] = cls
+    return cls
