@@ -381,6 +381,169 @@ def _loose(name: str) -> str:
 
 
 # --------------------------------------------------------------------------------------------
+# Declaring a file format: each field's kind, range or choices, and help text, once
+# --------------------------------------------------------------------------------------------
+@dataclass(frozen=True, slots=True)
+class Spec:
+    """How one field of a file format reads, declared once with the model's field.
+
+    The model's checks (`check_declared`, called first in every ``__post_init__``) and the JSON
+    Schemas (`briefer.schemagen`, which writes ``briefer/schemas/*.schema.json``) both read it.
+    ``kind`` is 'number', 'text', 'choice', 'flag', 'designator', 'model' (one nested model),
+    'models' (a list of them), 'categories' (nested models keyed by approach category A to E) or
+    'custom' (checked by the model's own code; ``schema`` gives its JSON Schema). A field whose
+    default is None is optional: the file may leave it out or write it empty (null).
+    """
+
+    kind: str
+    help: str = ""
+    range: Range | None = None
+    unit: str | None = None                # the unit's words when the name's suffix gives none
+    choices: tuple[str, ...] = ()
+    empty_ok: bool = False
+    pattern: str | None = None             # text: a regular expression the whole text matches
+    pattern_words: str = ""                # ... said in words, for the message
+    model: Any = None                      # 'model', 'models', 'categories': the nested model class
+    min_items: int = 0
+    max_items: int | None = None
+    schema: Mapping[str, Any] | None = None  # 'custom' (and 'model' variants): the JSON Schema
+    schema_ref: str | None = None          # 'model': a named variant of the nested model's schema
+
+
+def declared(spec: Spec, *, default: Any = MISSING, default_factory: Any = MISSING) -> Any:
+    """A dataclass field carrying its `Spec`."""
+    return field(default=default, default_factory=default_factory, metadata={"spec": spec})
+
+
+def num_field(rng: Range | None, help: str, *, default: Any = MISSING, unit: str | None = None) -> Any:
+    """A number within `rng` (its unit from the name's suffix, or `unit`)."""
+    return declared(Spec("number", help, range=rng, unit=unit), default=default)
+
+
+def text_field(help: str, *, default: Any = MISSING, empty_ok: bool = False, pattern: str | None = None,
+               pattern_words: str = "") -> Any:
+    """A line of text (at most `TEXT_MAX` characters, stripped)."""
+    return declared(Spec("text", help, empty_ok=empty_ok, pattern=pattern, pattern_words=pattern_words),
+                    default=default)
+
+
+def choice_field(choices: tuple[str, ...], help: str, *, default: Any = MISSING) -> Any:
+    """One of `choices` (case-insensitive in the file, stored in lower case)."""
+    return declared(Spec("choice", help, choices=choices), default=default)
+
+
+def flag_field(help: str, *, default: Any = False) -> Any:
+    """true or false."""
+    return declared(Spec("flag", help), default=default)
+
+
+def designator_field(help: str, *, default: Any = MISSING) -> Any:
+    """A runway designator such as '09' or '27L' (9 and '9' mean '09')."""
+    return declared(Spec("designator", help), default=default)
+
+
+def model_field(model: Any, help: str = "", *, default: Any = MISSING, default_factory: Any = MISSING,
+                schema_ref: str | None = None) -> Any:
+    """One nested model (a mapping in the file)."""
+    return declared(Spec("model", help, model=model, schema_ref=schema_ref), default=default,
+                    default_factory=default_factory)
+
+
+def models_field(model: Any, help: str = "", *, min_items: int = 0, max_items: int | None = None,
+                 default: Any = MISSING) -> Any:
+    """A list of nested models."""
+    return declared(Spec("models", help, model=model, min_items=min_items, max_items=max_items), default=default)
+
+
+def custom_field(schema: Mapping[str, Any], help: str, *, default: Any = MISSING) -> Any:
+    """A field the model checks with its own code; `schema` is its JSON Schema."""
+    return declared(Spec("custom", help, schema=schema), default=default)
+
+
+_SPECS: dict[type, tuple[tuple[Any, Spec], ...]] = {}
+
+
+def declared_fields(cls: type) -> tuple[tuple[Any, Spec], ...]:
+    """(dataclass field, Spec) of every declared field of a model class, in the file's order."""
+    found = _SPECS.get(cls)
+    if found is None:
+        found = _SPECS[cls] = tuple((f, f.metadata["spec"]) for f in fields(cls)  # type: ignore[arg-type]
+                                    if f.init and "spec" in f.metadata)
+    return found
+
+
+def _noun(what: str) -> str:
+    """'a configuration' -> 'configuration'."""
+    return what.split(" ", 1)[1] if what.startswith(("a ", "an ")) else what
+
+
+def check_declared(obj: Any) -> None:
+    """Check every declared field of a model in the file's order (type, finiteness, range,
+    choices, nested models); store the normalised values. Raises `InvariantError`."""
+    for f, spec in declared_fields(type(obj)):
+        name, optional, kind = f.name, f.default is None, spec.kind
+        if kind == "number":
+            _num(obj, name, spec.range, optional=optional, unit=spec.unit)
+        elif kind == "text":
+            value = _text(obj, name, optional=optional, empty_ok=spec.empty_ok)
+            if spec.pattern and value is not None and not re.fullmatch(spec.pattern, value):
+                raise InvariantError(f"expected {spec.pattern_words}, got {_describe(value)}", field=name)
+        elif kind == "choice":
+            _text(obj, name, optional=optional, choices=spec.choices)
+        elif kind == "flag":
+            _flag(obj, name)
+        elif kind == "designator":
+            _designator(obj, name, optional=optional)
+        elif kind == "model":
+            _instance(obj, name, spec.model, optional=optional)
+        elif kind == "models":
+            _items(obj, name, spec.model, min_items=spec.min_items, what=_noun(spec.model._what))
+        elif kind == "categories":
+            _check_categories(obj, name, spec.model, min_items=spec.min_items)
+    for rule in type(obj)._forms:
+        check_forms(obj, rule)
+
+
+@dataclass(frozen=True, slots=True)
+class Forms:
+    """Alternative forms of part of a model: ``forms`` lists the keys of each form (given
+    together); at most one form, exactly one when ``required``. ``what`` names the part for the
+    messages ('offset'). The loader's check (`check_forms`) and the schema's ``oneOf`` (or
+    ``not``) both come from it."""
+
+    what: str
+    forms: tuple[tuple[str, ...], ...]
+    required: bool = True
+
+    def words(self) -> str:
+        """'offset_nm, or speed_kt and bank_deg'."""
+        return ", or ".join(_and(form) for form in self.forms)
+
+
+def _and(keys: tuple[str, ...] | list[str]) -> str:
+    """'a', 'a and b', 'a, b and c'."""
+    keys = list(keys)
+    return keys[0] if len(keys) == 1 else ", ".join(keys[:-1]) + " and " + keys[-1]
+
+
+def check_forms(obj: Any, rule: Forms) -> tuple[str, ...] | None:
+    """Check that `obj` gives one form of `rule` whole (see `Forms`); the form given, or None."""
+    given = [form for form in rule.forms if any(getattr(obj, k) not in (None, ()) for k in form)]
+    if len(given) > 1:
+        raise InvariantError(f"give either {rule.words()}, not both")
+    if not given:
+        if rule.required:
+            raise InvariantError(f"missing the {rule.what}: give {rule.words()}")
+        return None
+    form = given[0]
+    have = [k for k in form if getattr(obj, k) not in (None, ())]
+    missing = [k for k in form if k not in have]
+    if missing:
+        raise InvariantError(f"missing required key '{missing[0]}' ({_and(have)} needs {_and(missing)})")
+    return form
+
+
+# --------------------------------------------------------------------------------------------
 # Reading mappings
 # --------------------------------------------------------------------------------------------
 class _Model:
@@ -397,6 +560,9 @@ class _Model:
     _nested: ClassVar[dict[str, type]] = {}
     _nested_seq: ClassVar[dict[str, type]] = {}
     _extra_keys: ClassVar[tuple[str, ...]] = ()
+    _title: ClassVar[str] = ""            # a top-level model: its schema's title
+    _help: ClassVar[str] = ""             # what the model is, for its schema
+    _forms: ClassVar[tuple[Forms, ...]] = ()   # alternative forms, checked after the fields
 
     @classmethod
     def keys(cls) -> tuple[str, ...]:
@@ -429,17 +595,32 @@ class _Model:
         return cls._build(kwargs, path)
 
     @classmethod
+    def schema_extra(cls, variant: str | None, node: dict[str, Any]) -> dict[str, Any] | None:
+        """Schema rules beyond the declared fields and forms (a model with rules of its own
+        overrides it); `variant` names a variant of the model's schema, `node` is the schema so far."""
+        return None
+
+    @classmethod
+    def nested_models(cls, kind: str = "") -> dict[str, type]:
+        """Fields holding a nested model ('model'), a list of them ('models'), or either ('')."""
+        declared = {f.name: (s.kind, s.model) for f, s in declared_fields(cls) if s.kind in ("model", "models")}
+        declared.update({k: ("model", c) for k, c in cls._nested.items()})
+        declared.update({k: ("models", c) for k, c in cls._nested_seq.items()})
+        return {k: c for k, (how, c) in declared.items() if how == kind or not kind}
+
+    @classmethod
     def _read(cls, data: Mapping[str, Any], path: str) -> dict[str, Any]:
         kwargs: dict[str, Any] = {}
+        one, many = cls.nested_models("model"), cls.nested_models("models")
         for f in fields(cls):  # type: ignore[arg-type]
             if f.name not in data or not f.init:
                 continue
             value = data[f.name]
             sub = join_path(path, f.name)
-            if f.name in cls._nested and not (value is None and f.default is None):
-                value = cls._nested[f.name].from_mapping(value, path=sub)
-            elif f.name in cls._nested_seq:
-                item_cls = cls._nested_seq[f.name]
+            if f.name in one and not (value is None and f.default is None):
+                value = one[f.name].from_mapping(value, path=sub)
+            elif f.name in many:
+                item_cls = many[f.name]
                 if not isinstance(value, list):
                     raise FieldError(f"expected a list of {_plural(item_cls._what)}, got {_describe(value)}",
                                      context=sub)
@@ -497,17 +678,18 @@ class WindAdditive(_Model):
     """
 
     _what: ClassVar[str] = "a wind additive"
+    _help: ClassVar[str] = ("Speed added to VREF for wind: headwind_fraction x headwind + gust_fraction x gust "
+                            "increment, between min_kt and max_kt.")
 
-    headwind_fraction: float = 0.5
-    gust_fraction: float = 1.0
-    min_kt: float = 0.0
-    max_kt: float = 20.0
+    headwind_fraction: float = num_field(FRACTION, "Fraction of the steady headwind added to VREF (0.5 = half).",
+                                         default=0.5)
+    gust_fraction: float = num_field(FRACTION, "Fraction of the gust increment added (1.0 = all of it).",
+                                     default=1.0)
+    min_kt: float = num_field(ADDITIVE_KT, "Smallest additive [kt].", default=0.0)
+    max_kt: float = num_field(ADDITIVE_KT, "Largest additive [kt]; at least min_kt.", default=20.0)
 
     def __post_init__(self) -> None:
-        _num(self, "headwind_fraction", FRACTION)
-        _num(self, "gust_fraction", FRACTION)
-        _num(self, "min_kt", ADDITIVE_KT)
-        _num(self, "max_kt", ADDITIVE_KT)
+        check_declared(self)
         if self.max_kt < self.min_kt:
             raise InvariantError(f"expected at least min_kt ({_fmt(self.min_kt)}), got {_fmt(self.max_kt)}",
                                  field="max_kt")
@@ -530,27 +712,20 @@ class FamiliarPattern(_Model):
     """
 
     _what: ClassVar[str] = "a familiar pattern"
+    _help: ClassVar[str] = "The everyday visual pattern: height and either offset_nm, or speed_kt and bank_deg."
+    _forms: ClassVar[tuple[Forms, ...]] = (Forms("offset", (("offset_nm",), ("speed_kt", "bank_deg"))),)
 
-    height_ft: float
-    offset_nm: float | None = None
-    speed_kt: float | None = None
-    bank_deg: float | None = None
+    height_ft: float = num_field(PATTERN_HEIGHT_FT, "Height of the everyday pattern above the field [ft].")
+    offset_nm: float | None = num_field(PATTERN_OFFSET_NM, "Lateral offset of the downwind leg [NM].", default=None)
+    speed_kt: float | None = num_field(SPEED_KT, "Speed of the 180-degree turn to final [kt] (with bank_deg, "
+                                       "instead of offset_nm).", default=None)
+    bank_deg: float | None = num_field(BANK_DEG, "Bank of that turn [deg].", default=None)
 
     def __post_init__(self) -> None:
-        _num(self, "height_ft", PATTERN_HEIGHT_FT)
-        _num(self, "offset_nm", PATTERN_OFFSET_NM, optional=True)
-        _num(self, "speed_kt", SPEED_KT, optional=True)
-        _num(self, "bank_deg", BANK_DEG, optional=True)
-        turn = (self.speed_kt is not None, self.bank_deg is not None)
-        if self.offset_nm is not None and any(turn):
-            raise InvariantError("give either offset_nm, or speed_kt and bank_deg, not both")
-        if self.offset_nm is None:
-            if not any(turn):
-                raise InvariantError("missing the offset: give offset_nm, or speed_kt and bank_deg")
-            if not turn[0]:
-                raise InvariantError("missing required key 'speed_kt' (bank_deg needs speed_kt)")
-            if not turn[1]:
-                raise InvariantError("missing required key 'bank_deg' (speed_kt needs bank_deg)")
+        check_declared(self)
+
+
+_AOA = "angle of attack"
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -566,32 +741,28 @@ class Configuration(_Model):
     """
 
     _what: ClassVar[str] = "a configuration"
+    _help: ClassVar[str] = "One flap/gear configuration; speeds at the profile's reference weight."
 
-    name: str
-    vref_kt: float
-    circling_speed_kt: float
-    vs1g_kt: float
-    aoa_ref: float
-    aoa_stall: float
-    aoa_buffet: float | None = None
-    bank_target_deg: float
-    bank_limit_deg: float
-    max_demonstrated_crosswind_kt: float | None = None
-    tailwind_limit_kt: float | None = None
+    name: str = text_field("Configuration name, unique in the profile.")
+    vref_kt: float = num_field(SPEED_KT, "VREF at the reference weight [kt]; above vs1g_kt.")
+    circling_speed_kt: float = num_field(SPEED_KT, "Speed flown in the circle at the reference weight [kt]; "
+                                                   "at least vref_kt.")
+    vs1g_kt: float = num_field(SPEED_KT, "1-g stall speed at the reference weight [kt].")
+    aoa_ref: float = num_field(AOA_ANY, "Angle of attack at VREF, 1 g, reference weight [aoa_unit].", unit=_AOA)
+    aoa_stall: float = num_field(AOA_ANY, "Angle of attack at the stall [aoa_unit]; above aoa_ref.", unit=_AOA)
+    aoa_buffet: float | None = num_field(AOA_ANY, "Angle of attack at buffet onset [aoa_unit]; above aoa_ref, at "
+                                                  "most aoa_stall.", default=None, unit=_AOA)
+    bank_target_deg: float = num_field(BANK_DEG, "Bank planned in the circle [deg].")
+    bank_limit_deg: float = num_field(BANK_DEG, "Most bank allowed [deg]; at least bank_target_deg.")
+    max_demonstrated_crosswind_kt: float | None = num_field(
+        CROSSWIND_LIMIT_KT, "Optional: the flight manual's maximum demonstrated crosswind for landing [kt] "
+        "(14 CFR 25.237(a)); beyond it the brief gives a DANGER and no recommended plan.", default=None)
+    tailwind_limit_kt: float | None = num_field(
+        TAILWIND_LIMIT_KT, "Optional: the flight manual's tailwind limit for landing [kt]; beyond it the brief "
+        "gives a DANGER and no recommended plan.", default=None)
 
     def __post_init__(self) -> None:
-        _text(self, "name")
-        _num(self, "max_demonstrated_crosswind_kt", CROSSWIND_LIMIT_KT, optional=True)
-        _num(self, "tailwind_limit_kt", TAILWIND_LIMIT_KT, optional=True)
-        _num(self, "vref_kt", SPEED_KT)
-        _num(self, "circling_speed_kt", SPEED_KT)
-        _num(self, "vs1g_kt", SPEED_KT)
-        aoa = "angle of attack"
-        _num(self, "aoa_ref", AOA_ANY, unit=aoa)
-        _num(self, "aoa_stall", AOA_ANY, unit=aoa)
-        _num(self, "aoa_buffet", AOA_ANY, optional=True, unit=aoa)
-        _num(self, "bank_target_deg", BANK_DEG)
-        _num(self, "bank_limit_deg", BANK_DEG)
+        check_declared(self)
         if self.vref_kt <= self.vs1g_kt:
             raise InvariantError(f"expected above vs1g_kt ({_fmt(self.vs1g_kt)}), got {_fmt(self.vref_kt)}",
                                  field="vref_kt")
@@ -626,47 +797,44 @@ class AircraftProfile(_Model):
 
     _kind: ClassVar[str | None] = KIND_PROFILE
     _what: ClassVar[str] = "an aircraft profile"
-    _nested: ClassVar[dict[str, type]] = {"wind_additive": WindAdditive, "familiar_pattern": FamiliarPattern}
-    _nested_seq: ClassVar[dict[str, type]] = {"configurations": Configuration}
+    _title: ClassVar[str] = "briefer aircraft profile"
+    _help: ClassVar[str] = (
+        f"An invented or user aircraft profile for briefer (kind: {KIND_PROFILE}). Cross-field rules the loader "
+        f"also checks: max_landing_weight_lb within a factor of {_fmt(WEIGHT_RATIO_LIMIT)} of reference_weight_lb; "
+        f"default_configuration names a configuration; configuration names unique; with aoa_unit 'deg', aoa_ref "
+        f"{_fmt(AOA_REF_DEG.lo)}..{_fmt(AOA_REF_DEG.hi)} and aoa_stall {_fmt(AOA_STALL_DEG.lo)}.."
+        f"{_fmt(AOA_STALL_DEG.hi)}; vso_kt below the landing VREF at max landing weight.")
 
-    name: str
-    description: str = ""
-    reference_weight_lb: float
-    max_landing_weight_lb: float
-    aoa_unit: str = "deg"
-    roll_rate_deg_per_s: float
-    stall_warning: str
-    aoa_indexer: bool = False
-    wind_additive: WindAdditive = field(default_factory=WindAdditive)
-    familiar_pattern: FamiliarPattern
-    configurations: tuple[Configuration, ...]
-    default_configuration: str
-    vso_kt: float | None = None
-    category_speed_kt: float | None = None
+    name: str = text_field("Short name, used to find the profile (e.g. demo-twin).")
+    description: str = text_field("One line about the aircraft.", default="", empty_ok=True)
+    reference_weight_lb: float = num_field(WEIGHT_LB, "Weight at which the configuration speeds are given [lb].")
+    max_landing_weight_lb: float = num_field(WEIGHT_LB, "Maximum certificated landing weight [lb].")
+    aoa_unit: str = text_field("Unit of the angles of attack: 'deg', 'units' (indexer units) or a named unit.",
+                               default="deg")
+    roll_rate_deg_per_s: float = num_field(ROLL_RATE_DEG_PER_S, "Typical roll rate when rolling into the circling "
+                                                                "bank [deg/s].")
+    stall_warning: str = choice_field(STALL_WARNINGS, "The stall warning system.")
+    aoa_indexer: bool = flag_field("True when the crew flies an AoA indexer.")
+    wind_additive: WindAdditive = model_field(WindAdditive, default_factory=WindAdditive)
+    familiar_pattern: FamiliarPattern = model_field(FamiliarPattern)
+    configurations: tuple[Configuration, ...] = models_field(Configuration, min_items=1)
+    default_configuration: str = text_field("Name of the configuration used unless another is chosen.")
+    vso_kt: float | None = num_field(SPEED_KT, "Stall speed, landing configuration, max landing weight [kt] "
+                                               "(1.3 VSO sets the category without a VREF).", default=None)
+    category_speed_kt: float | None = num_field(SPEED_KT, "Published speed fixing the approach category [kt] "
+                                                          "(else VREF scaled to max landing weight).", default=None)
 
     def __post_init__(self) -> None:
-        _text(self, "name")
-        _text(self, "description", empty_ok=True)
-        _num(self, "reference_weight_lb", WEIGHT_LB)
-        _num(self, "max_landing_weight_lb", WEIGHT_LB)
+        check_declared(self)
         ratio = self.max_landing_weight_lb / self.reference_weight_lb
         if not 1 / WEIGHT_RATIO_LIMIT <= ratio <= WEIGHT_RATIO_LIMIT:
             raise InvariantError(
                 f"expected within a factor of {_fmt(WEIGHT_RATIO_LIMIT)} of reference_weight_lb "
                 f"({_fmt(self.reference_weight_lb)}), got {_fmt(self.max_landing_weight_lb)}",
                 field="max_landing_weight_lb")
-        aoa_unit = _text(self, "aoa_unit")
-        if aoa_unit is not None and aoa_unit.lower() in ("deg", "degrees", "degree"):
+        if self.aoa_unit.lower() in ("deg", "degrees", "degree"):
             _set(self, "aoa_unit", "deg")
-        _num(self, "roll_rate_deg_per_s", ROLL_RATE_DEG_PER_S)
-        _text(self, "stall_warning", choices=STALL_WARNINGS)
-        _flag(self, "aoa_indexer")
-        _instance(self, "wind_additive", WindAdditive)
-        _instance(self, "familiar_pattern", FamiliarPattern)
-        configs = _items(self, "configurations", Configuration, min_items=1, what="configuration")
-        _text(self, "default_configuration")
-        _num(self, "vso_kt", SPEED_KT, optional=True)
-        _num(self, "category_speed_kt", SPEED_KT, optional=True)
+        configs = self.configurations
         seen: dict[str, int] = {}
         for i, c in enumerate(configs):
             key = c.name.lower()

@@ -445,6 +445,43 @@ def test_schemas_are_draft_2020_12() -> None:
         assert s["properties"]["kind"] == {"const": kind, "description": f"What the file holds: always '{kind}'."}
 
 
+def test_checked_in_schemas_are_the_generated_ones(tmp_path: Path) -> None:
+    """Each format is declared once, with the model's fields; the checked-in schemas are what
+    `python -m briefer.schemagen` writes from those declarations (run it after changing a model)."""
+    from briefer import schemagen
+
+    assert schemagen.stale() == []
+    for kind in schemagen.GENERATED_KINDS:
+        assert (SCHEMAS / f"{kind}.schema.json").read_text(encoding="utf-8") == schemagen.schema_text(kind)
+    (tmp_path / f"{KIND_PROFILE}.schema.json").write_text("{}\n", encoding="utf-8")
+    assert schemagen.main(["--check", "--folder", str(tmp_path)]) == 1
+    assert schemagen.main(["--folder", str(tmp_path)]) == 0
+    assert schemagen.main(["--check", "--folder", str(tmp_path)]) == 0
+    assert json.loads((tmp_path / f"{KIND_PROFILE}.schema.json").read_text()) == schema(KIND_PROFILE)
+
+
+def test_schema_ranges_and_choices_are_the_loaders() -> None:
+    """The generated schema says what the loader checks: the same range (a value just outside
+    fails both) and the same choices, for every declared number and choice of the profile."""
+    from briefer.model import Spec, declared_fields
+
+    root = schema(KIND_PROFILE)
+    nodes = {AircraftProfile: root, Configuration: root["$defs"]["Configuration"],
+             FamiliarPattern: root["$defs"]["FamiliarPattern"], WindAdditive: root["$defs"]["WindAdditive"]}
+    seen = 0
+    for cls, node in nodes.items():
+        for f, spec in declared_fields(cls):
+            assert isinstance(spec, Spec)
+            prop = node["properties"][f.name]
+            if spec.kind == "number":
+                assert (prop["minimum"], prop["maximum"]) == (spec.range.lo, spec.range.hi), f.name
+                seen += 1
+            elif spec.kind == "choice":
+                assert prop["enum"][:len(spec.choices)] == list(spec.choices), f.name
+            assert prop.get("description", "") == spec.help, f.name
+    assert seen >= 15
+
+
 @pytest.mark.parametrize("kind", [KIND_PROFILE, KIND_AIRFIELD])
 def test_every_demo_key_is_in_the_schema_and_the_files_validate(kind: str) -> None:
     root = schema(kind)

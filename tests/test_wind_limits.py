@@ -49,10 +49,14 @@ def test_bad_limits_name_file_line_and_field(tmp_path, key, value):
 
 
 def test_schema_declares_the_limits():
+    """Optional numbers: left out, or empty (null, as the loader reads it); a number; never text."""
+    jsonschema = pytest.importorskip("jsonschema")
     cfg = SCHEMA["$defs"]["Configuration"]
     for key in ("max_demonstrated_crosswind_kt", "tailwind_limit_kt"):
-        assert cfg["properties"][key]["type"] == "number"
+        assert cfg["properties"][key]["type"] == ["number", "null"]
         assert key not in cfg["required"]
+        check = jsonschema.Draft202012Validator(cfg["properties"][key])
+        assert check.is_valid(20) and check.is_valid(None) and not check.is_valid("ten")
 
 
 def test_demo_profiles_give_limits_on_some_configurations_only():

@@ -102,7 +102,7 @@ def model_class_at(kind: str, path: str) -> tuple[Any, str | None]:
             cls, category = StraightInMinimum, (str(tokens[i + 1]).upper() if i + 1 < len(tokens) else None)
             i += 2
             continue
-        nested = {**cls._nested, **cls._nested_seq}
+        nested = cls.nested_models()
         if tok not in nested:
             raise KeyError(f"no model at '{path}'")
         cls = nested[tok]
