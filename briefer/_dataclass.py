@@ -4,7 +4,8 @@ Python 3.11's ``dataclasses.dataclass`` compiles every generated method (``__ini
 ``__repr__``, ``__eq__``, ``__hash__``, ``__setattr__``, ``__delattr__``) from source, one
 ``exec`` each: about a millisecond a class, and briefer defines about a hundred dataclasses, so
 that compiling was a third of ``briefer brief``'s own start-up. Here only ``__init__`` is
-compiled (its signature must be exact), and only when the class is first instantiated; the other
+compiled (its signature must be exact), when a class of its module is first instantiated, for
+all the module's classes in one ``exec`` (compiling costs mostly per call); the other
 methods are closures over the field names, with the same behaviour as the generated ones:
 
 * ``__repr__``: ``Name(a=1, b='x')`` over the fields with ``repr=True``;
@@ -22,6 +23,7 @@ another Python than 3.11) goes to the standard decorator unchanged.
 
 from __future__ import annotations
 
+import _thread
 import dataclasses as _dc
 import sys
 from dataclasses import MISSING, Field, FrozenInstanceError, field, fields, replace
@@ -107,26 +109,26 @@ def _collect_fields(cls: type, frozen: bool, kw_only: bool) -> dict[str, Field]:
     return all_fields
 
 
-def _init_fn(cls: type, all_fields: dict[str, Field], frozen: bool, slots: bool):
-    """The one compiled method: ``__init__`` with the standard decorator's signature and body."""
+def _init_source(cls: type, all_fields: dict[str, Field], frozen: bool, slots: bool, tag: str,
+                 env: dict[str, object]) -> str:
+    """The source of ``__init__`` with the standard decorator's signature and body, named
+    ``__init_<tag>__``; its defaults go into ``env`` under names carrying ``tag``."""
     init_fields = [f for f in all_fields.values() if f.init]
     positional = [f for f in init_fields if not f.kw_only]
     keyword = [f for f in init_fields if f.kw_only]
     self_name = "__dataclass_self__" if "self" in all_fields else "self"
-    env: dict[str, object] = {"__dataclass_HAS_DEFAULT_FACTORY__": _dc._HAS_DEFAULT_FACTORY,  # type: ignore[attr-defined]
-                              "__dataclass_builtins_object__": object}
 
     def param(f: Field) -> str:
         if f.default is not MISSING:
-            env[f"__dataclass_dflt_{f.name}__"] = f.default
-            return f"{f.name}=__dataclass_dflt_{f.name}__"
+            env[f"__dataclass_dflt_{tag}_{f.name}__"] = f.default
+            return f"{f.name}=__dataclass_dflt_{tag}_{f.name}__"
         if f.default_factory is not MISSING:
             return f"{f.name}=__dataclass_HAS_DEFAULT_FACTORY__"
         return f.name
 
     body = []
     for f in all_fields.values():
-        dflt = f"__dataclass_dflt_{f.name}__"
+        dflt = f"__dataclass_dflt_{tag}_{f.name}__"
         if f.default_factory is not MISSING:
             env[dflt] = f.default_factory
             value = f"{dflt}() if {f.name} is __dataclass_HAS_DEFAULT_FACTORY__ else {f.name}" if f.init else f"{dflt}()"
@@ -142,12 +144,7 @@ def _init_fn(cls: type, all_fields: dict[str, Field], frozen: bool, slots: bool)
     if hasattr(cls, "__post_init__"):
         body.append(f"{self_name}.__post_init__()")
     params = [self_name] + [param(f) for f in positional] + (["*"] + [param(f) for f in keyword] if keyword else [])
-    src = (f"def __init__({','.join(params)}):\n " + ("\n ".join(body) if body else "pass") + "\n")
-    exec(src, env)
-    fn = env["__init__"]
-    fn.__qualname__ = f"{cls.__qualname__}.__init__"            # type: ignore[attr-defined]
-    fn.__annotations__ = {**{f.name: f.type for f in init_fields}, "return": None}  # type: ignore[attr-defined]
-    return fn
+    return f"def __init_{tag}__({','.join(params)}):\n " + ("\n ".join(body) if body else "pass") + "\n"
 
 
 def _check_defaults_order(all_fields: dict[str, Field]) -> None:
@@ -161,14 +158,45 @@ def _check_defaults_order(all_fields: dict[str, Field]) -> None:
             raise TypeError(f"non-default argument {f.name!r} follows default argument")
 
 
+_pending: dict[str, list[tuple[list[type], dict[str, Field], bool, bool]]] = {}   # by module
+_lock = _thread.allocate_lock()
+
+
+def _compile_pending(module: str) -> None:
+    """Compile the ``__init__`` of every class of ``module`` still waiting, in one ``exec``
+    (compiling is mostly a fixed cost per call), and put each in its class."""
+    with _lock:
+        batch = _pending.pop(module, [])
+        if not batch:
+            return
+        env: dict[str, object] = {"__dataclass_HAS_DEFAULT_FACTORY__": _dc._HAS_DEFAULT_FACTORY,  # type: ignore[attr-defined]
+                                  "__dataclass_builtins_object__": object}
+        src = "".join(_init_source(box[0], flds, frozen, slots, str(i), env)
+                      for i, (box, flds, frozen, slots) in enumerate(batch))
+        exec(src, env)
+        for i, (box, flds, _frozen, _slots) in enumerate(batch):
+            fn = env[f"__init_{i}__"]
+            cls = box[0]
+            fn.__name__ = "__init__"                                          # type: ignore[attr-defined]
+            fn.__qualname__ = f"{cls.__qualname__}.__init__"                  # type: ignore[attr-defined]
+            fn.__annotations__ = {**{f.name: f.type for f in flds.values() if f.init},  # type: ignore[attr-defined]
+                                  "return": None}
+            type.__setattr__(cls, "__init__", fn)
+
+
 def _lazy_init(cls_box: list[type], all_fields: dict[str, Field], frozen: bool, slots: bool):
-    """An ``__init__`` that compiles the real one when the class is first instantiated, puts it
-    in its place and runs it (a class never instantiated in a run costs no compiling)."""
+    """An ``__init__`` that, when a class of its module is first instantiated, compiles the real
+    ones of that module's classes (:func:`_compile_pending`) and runs its own (a module none of
+    whose classes is instantiated in a run costs no compiling)."""
+    module = cls_box[0].__module__
+    _pending.setdefault(module, []).append((cls_box, all_fields, frozen, slots))
 
     def __init__(self, *args, **kwargs) -> None:
-        cls = cls_box[0]
-        real = _init_fn(cls, all_fields, frozen, slots)
-        type.__setattr__(cls, "__init__", real)
+        _compile_pending(module)
+        real = cls_box[0].__dict__["__init__"]
+        if real is __init__:       # pragma: no cover - another thread is compiling this module
+            with _lock:
+                real = cls_box[0].__dict__["__init__"]
         real(self, *args, **kwargs)
     return __init__
 
