@@ -78,7 +78,10 @@ def _state_ranges(parser: argparse.ArgumentParser) -> None:
                     _state_ranges(sub)
 
 
-def build_parser() -> tuple[argparse.ArgumentParser, dict[str, ModuleType]]:
+def build_parser(only: str | None = None) -> tuple[argparse.ArgumentParser, dict[str, ModuleType]]:
+    """The parser with every sub-command; with ``only``, the options of that command alone
+    (the others listed with their help line: what ``briefer COMMAND ...`` needs, at a fraction of
+    the start-up: argparse checks every option as it is added)."""
     _Parser = _parser_class()
     parser = _Parser(
         prog="briefer",
@@ -90,6 +93,8 @@ def build_parser() -> tuple[argparse.ArgumentParser, dict[str, ModuleType]]:
     commands: dict[str, ModuleType] = {}
     for mod in _command_modules():
         p = sub.add_parser(mod.NAME, help=mod.HELP, description=getattr(mod, "DESCRIPTION", mod.HELP))
+        if only is not None and mod.NAME != only:
+            continue
         if hasattr(mod, "add_arguments"):
             mod.add_arguments(p)
         _state_ranges(p)
@@ -148,7 +153,9 @@ def main(argv: list[str] | None = None) -> int:
     if argv == ["--version"]:
         print(f"briefer {__version__}")
         return 0
-    parser, commands = build_parser()
+    # the command word is the first argument (the main parser's own options are --version, -h)
+    word = argv[0] if argv else "app"
+    parser, commands = build_parser(only=None if word.startswith("-") else word)
     if not argv and "app" in commands:
         argv = ["app"]
     args = parser.parse_args(argv)

@@ -13,7 +13,8 @@ a built-in one of the same name):
 
 3. the invented demo data: the repository's top-level ``profiles/`` and ``airfields_demo/``,
    shipped in the wheel as ``briefer/data/profiles`` and ``briefer/data/airfields_demo`` and read
-   there through `importlib.resources`, so it is found after a plain ``pip install .`` as well.
+   there (beside the installed package's modules; through `importlib.resources` only for a
+   package that is not a folder, a zip), so it is found after a plain ``pip install .`` as well.
 
 A folder contributes its ``*.yaml`` and ``*.yml`` files (not sub-folders). A profile is found by
 its ``name`` or its file name without the extension; an airfield by its ``ident``, its ``name`` or
@@ -28,7 +29,6 @@ import re
 import sys
 from collections.abc import Callable, Iterable, Sequence
 from briefer._dataclass import dataclass
-from importlib import resources
 from os import PathLike
 from pathlib import Path
 from typing import Any
@@ -165,13 +165,16 @@ BUILTIN_FOLDERS = {KIND_PROFILE: "profiles", KIND_AIRFIELD: "airfields_demo", "s
 
 def builtin_folder(kind: str) -> Any:
     """The folder of the shipped demo files of a kind ("aircraft-profile", "airfield",
-    "scenario"): inside the installed package (an `importlib.resources` Traversable), else the
-    repository's top-level folder when running from a checkout."""
+    "scenario"): inside the installed package, else the repository's top-level folder when running
+    from a checkout (an `importlib.resources` Traversable for a package in a zip file)."""
     name = BUILTIN_FOLDERS[kind]
-    folder = resources.files("briefer") / "data" / name
-    if folder.is_dir():
-        return folder
-    return Path(__file__).resolve().parent.parent.parent / name
+    package = Path(__file__).resolve().parent.parent
+    for folder in (package / "data" / name, package.parent / name):
+        if folder.is_dir():
+            return folder
+    from importlib import resources   # a package inside a zip file (importing it costs ~30 ms at start-up)
+
+    return resources.files("briefer") / "data" / name
 
 
 def builtin_files(kind: str) -> list[Any]:
