@@ -384,6 +384,242 @@ def _flag(ok: npt.NDArray[np.bool_], flag: int) -> npt.NDArray[np.int_]:
     return np.logical_not(ok) * flag
 
 
+class _Kernel:
+    """What every leg of one solve shares: the broadcast inputs and the leg makers."""
+
+    __slots__ = ("zero", "sig", "wx", "wy", "bank", "v", "roll_rate_rad", "x0", "y0", "c0_rad", "d_m")
+
+    def __init__(self, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.ArrayLike, wy: npt.ArrayLike,
+                 bank_rad: npt.ArrayLike, roll_rate_rad: float | None, x0: float, y0: float, c0_rad: float,
+                 d_m: float | FloatArray) -> None:
+        sig = np.asarray(sigma, dtype=float)
+        wx = np.asarray(wx, dtype=float)
+        wy = np.asarray(wy, dtype=float)
+        bank = np.asarray(bank_rad, dtype=float)
+        zero = np.zeros(np.broadcast(sig, wx, wy, bank, d_m).shape)
+        self.zero = zero
+        self.sig, self.wx, self.wy, self.bank = sig + zero, wx + zero, wy + zero, bank + zero
+        self.v = float(tas_mps)
+        self.roll_rate_rad = roll_rate_rad
+        self.x0, self.y0, self.c0_rad, self.d_m = x0, y0, c0_rad, d_m
+
+    def turns(self, *specs: tuple[FloatArray, FloatArray, FloatArray, str, FloatArray]) -> list[LegArrays]:
+        """Turn legs from (entry heading, angle, sign, name, calm-wind angle) specs, all computed in
+        one call of the (elementwise) kernels: the specs are stacked on a new leading axis."""
+        zero, v, wx, wy = self.zero, self.v, self.wx, self.wy
+        psi_a = np.concatenate([(sp[0] + zero)[None] for sp in specs])
+        angle = np.concatenate([(sp[1] + zero)[None] for sp in specs])
+        sgn = np.concatenate([(sp[2] + zero)[None] for sp in specs])
+        prof = turn_profile(angle, self.bank, v, self.roll_rate_rad)
+        if self.roll_rate_rad is None:      # the trochoid: s r (sin psi_b - sin psi_a, cos psi_a - cos psi_b) + w T
+            sr = sgn * (v / prof.wp)
+            psi_b = psi_a + sgn * angle
+            dx = sr * (np.sin(psi_b) - np.sin(psi_a)) + wx * prof.total
+            dy = sr * (np.cos(psi_a) - np.cos(psi_b)) + wy * prof.total
+        else:
+            dx, dy = turn_end_displacement(prof, psi0=psi_a, sign=sgn, wx=wx, wy=wy)
+        out = []
+        for i, sp in enumerate(specs):
+            p_i = TurnProfile(angle=prof.angle[i], tas=prof.tas[i], tr=prof.tr[i], tc=prof.tc[i], dp=prof.dp[i],
+                              wp=prof.wp[i], c=prof.c[i], k=prof.k, total=prof.total[i])
+            out.append(LegArrays(kind="turn", name=sp[3], duration=p_i.total, psi0=psi_a[i], prof=p_i,
+                                 sign=sgn[i], dx=dx[i], dy=dy[i], nominal_rad=float(np.max(sp[4]))))
+        return out
+
+    def straight(self, psi: FloatArray, gx: FloatArray, gy: FloatArray, t: FloatArray, name: str,
+                 track: float | FloatArray | None) -> LegArrays:
+        zero = self.zero
+        return LegArrays(kind="straight", name=name, duration=t + zero, psi0=psi + zero, gx=gx + zero,
+                         gy=gy + zero, track_rad=track)
+
+
+class _Tracks:
+    """The final, downwind and arrival legs' crab headings and ground speeds, which every shape uses."""
+
+    __slots__ = ("psi_f", "psi_d", "psi0", "gs_f", "gs_d", "gs0", "g0x", "g0y", "reasons", "final_leg")
+
+    def __init__(self, k: _Kernel) -> None:
+        # final (0), downwind (pi) and arrival tracks in one call of the (elementwise) kernel
+        trk3 = np.array([0.0, np.pi, float(k.c0_rad)]).reshape((3,) + (1,) * k.zero.ndim)
+        psi3, gs3, ok3 = wind_triangle(trk3, k.v, k.wx, k.wy)
+        (self.psi_f, self.psi_d, self.psi0), (self.gs_f, self.gs_d, self.gs0), (ok_f, ok_d, ok0) = psi3, gs3, ok3
+        self.g0x, self.g0y = self.gs0 * math.cos(k.c0_rad), self.gs0 * math.sin(k.c0_rad)
+        self.reasons = _flag(ok_f & ok_d & ok0, R_WIND)
+        self.final_leg = k.straight(self.psi_f, self.gs_f, k.zero, k.d_m / self.gs_f, "final", 0.0)
+
+
+@dataclass(slots=True)
+class _Solved:
+    """One shape's legs (in order, starts not yet set) and its solved unknowns."""
+
+    legs: list[LegArrays]
+    reasons: npt.NDArray[np.int_]
+    x_ri: FloatArray
+    y_ri: FloatArray
+    offset: FloatArray
+    roll_out: FloatArray
+    abeam_s: FloatArray | None = None
+    break_s: FloatArray | None = None
+
+
+def _final_turn_spec(k: _Kernel, t: _Tracks) -> tuple:
+    """The one 180 deg turn from the downwind onto final (pattern hand)."""
+    return (t.psi_d, _wrap_2pi(k.sig * (t.psi_f - t.psi_d)), k.sig, "final turn", np.pi + k.zero)
+
+
+def _downwind_and_final(k: _Kernel, t: _Tracks, reasons: npt.NDArray[np.int_], first: list[LegArrays],
+                        final_side: list[LegArrays], x_j: FloatArray, t_j: FloatArray, x_ri: FloatArray,
+                        y_ri: FloatArray, offset: FloatArray) -> _Solved:
+    """The downwind shapes' common end: the downwind time from x, the legs in order."""
+    t_dw = (x_j - x_ri) / t.gs_d
+    reasons = reasons | _flag(t_j >= 0.0, R_NEG_LEG) | _flag(t_dw >= 0.0, R_INSIDE_TURN)
+    legs = first + [k.straight(t.psi_d, -t.gs_d, k.zero, t_dw, "downwind", math.pi)] + final_side + [t.final_leg]
+    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m + k.zero,
+                   abeam_s=-x_ri / t.gs_d, break_s=t_j)
+
+
+def _solve_downwind_join(k: _Kernel, t: _Tracks) -> _Solved:
+    """Crossing leg, turn onto the downwind, downwind, then one 180 deg turn to final, or (when the
+    join alone reaches beyond that turn's offset) a wider downwind with a base turn, base leg and
+    final turn, as on the circuit's final side."""
+    sig, zero, x0, y0 = k.sig, k.zero, k.x0, k.y0
+    psi0, psi_d, psi_f = t.psi0, t.psi_d, t.psi_f
+    trk_b = -sig * (0.5 * np.pi)
+    psi_b, gs_b, ok_b = wind_triangle(trk_b, k.v, k.wx, k.wy)
+    t_f180, t_join, t_bt90, t_f90 = k.turns(
+        _final_turn_spec(k, t), (psi0, _wrap_2pi(sig * (psi_d - psi0)), sig, "turn downwind",
+                                 _wrap_2pi(sig * (np.pi - k.c0_rad))),
+        (psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
+        (psi_b, _wrap_2pi(sig * (psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero))
+    # the downwind offset is the larger of what the final turn needs (one 180 deg turn, no base
+    # leg) and what the join reaches with no crossing leg (y_a); when the join reaches further, a
+    # wider downwind: base turn, base leg (taking up the difference to what the base and final
+    # turns need, y_b) and final turn, as in the circuit
+    y_a = y0 + t_join.dy
+    wide = sig * y_a > -sig * t_f180.dy
+    offset = np.where(wide, np.maximum(sig * y_a, -sig * (t_bt90.dy + t_f90.dy)), -sig * t_f180.dy)
+    t_bl = np.where(wide, (offset + sig * (t_bt90.dy + t_f90.dy)) / gs_b, 0.0)
+    t_bt = _pick_turn(wide, t_bt90, None, "base turn", 0.5 * np.pi)
+    t_fin = _pick_turn(wide, t_f90, t_f180, "final turn", np.pi)
+    reasons = (t.reasons | _flag(ok_b | ~wide, R_WIND)
+               | _flag(~wide | ((t_bt90.prof.angle < np.pi) & (t_f90.prof.angle < np.pi)), R_TURN_REVERSED))
+    x_ri, y_ri = -k.d_m - t_fin.dx - t_bt.dx, sig * offset
+    reasons = reasons | _flag(offset > 0.0, R_WRONG_SIDE)
+    t_j = (offset - sig * y_a) / (sig * t.g0y)
+    x_j = x0 + t.g0x * t_j + t_join.dx
+    first = [k.straight(psi0, t.g0x, t.g0y, t_j, "arrival", k.c0_rad), t_join]
+    final_side = [t_bt, k.straight(np.where(wide, psi_b, psi_d), zero, -sig * gs_b, t_bl, "base",
+                                   np.where(wide, trk_b, np.pi)), t_fin]
+    return _downwind_and_final(k, t, reasons, first, final_side, x_j, t_j, x_ri, y_ri, offset)
+
+
+def _solve_break_and_return(k: _Kernel, t: _Tracks, break_rad: float) -> _Solved:
+    """Break turn away from the runway, break leg, turn onto the downwind, downwind, final turn."""
+    sig, zero, x0, y0, v = k.sig, k.zero, k.x0, k.y0, k.v
+    psi0 = t.psi0
+    psi_b = psi0 - sig * break_rad
+    t_fin, t_brk, t_join = k.turns(
+        _final_turn_spec(k, t), (psi0, break_rad + zero, -sig, "break turn", break_rad + zero),
+        (psi_b, _wrap_2pi(sig * (t.psi_d - psi_b)), sig, "turn downwind",
+         _wrap_2pi(sig * (np.pi - k.c0_rad) + break_rad)))
+    x_ri, y_ri = -k.d_m - t_fin.dx, -t_fin.dy
+    offset = sig * y_ri
+    reasons = t.reasons | _flag(offset > 0.0, R_WRONG_SIDE)
+    gbx, gby = v * np.cos(psi_b) + k.wx, v * np.sin(psi_b) + k.wy
+    reasons = reasons | _flag(sig * gby > _SMALL_GS, R_BREAK_BACK)
+    t_j = (y_ri - y0 - t_brk.dy - t_join.dy) / gby
+    x_j = x0 + t_brk.dx + gbx * t_j + t_join.dx
+    first = [t_brk, k.straight(psi_b, gbx, gby, t_j, "break leg", None), t_join]
+    return _downwind_and_final(k, t, reasons, first, [t_fin], x_j, t_j, x_ri, y_ri, offset)
+
+
+def _solve_teardrop(k: _Kernel, t: _Tracks, teardrop_rad: float) -> _Solved:
+    """Outbound leg, offset turn, offset leg, one turn onto final: a 2x2 linear system."""
+    sig, zero, x0, y0, v, d_m = k.sig, k.zero, k.x0, k.y0, k.v, k.d_m
+    psi0, g0x, g0y = t.psi0, t.g0x, t.g0y
+    psi_t = psi0 - sig * teardrop_rad
+    t_off, t_fin = k.turns((psi0, teardrop_rad + zero, -sig, "offset turn", teardrop_rad + zero),
+                           (psi_t, _wrap_2pi(sig * (t.psi_f - psi_t)), sig, "final turn",
+                            _wrap_2pi(-sig * k.c0_rad + teardrop_rad)))
+    gtx, gty = v * np.cos(psi_t) + k.wx, v * np.sin(psi_t) + k.wy
+    bx = -d_m - x0 - t_off.dx - t_fin.dx
+    by = -y0 - t_off.dy - t_fin.dy
+    det = g0x * gty - g0y * gtx
+    t1 = (bx * gty - by * gtx) / det                  # Cramer's rule, 2x2
+    t2 = (g0x * by - g0y * bx) / det
+    x_ri, y_ri = -d_m - t_fin.dx, -t_fin.dy
+    offset = sig * y_ri
+    reasons = (t.reasons | _flag(np.abs(det) > _SMALL_GS * v, R_NO_CONVERGE)
+               | _flag((t1 >= 0.0) & (t2 >= 0.0), R_NEG_LEG) | _flag(offset > 0.0, R_WRONG_SIDE))
+    legs = [k.straight(psi0, g0x, g0y, t1, "outbound", k.c0_rad), t_off,
+            k.straight(psi_t, gtx, gty, t2, "offset leg", None), t_fin, t.final_leg]
+    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=d_m + zero,
+                   break_s=t2)
+
+
+def _solve_direct_turn(k: _Kernel, t: _Tracks, d_stab_m: float) -> _Solved:
+    """Hold the arrival course until one turn rolls out on the centreline (roll-out a result)."""
+    sig, zero, x0, y0 = k.sig, k.zero, k.x0, k.y0
+    psi0, g0x, g0y = t.psi0, t.g0x, t.g0y
+    ang = _wrap_2pi(sig * (t.psi_f - psi0))
+    (t_fin,) = k.turns((psi0, ang, sig, "final turn", _wrap_2pi(-sig * k.c0_rad)))
+    t1 = -(y0 + t_fin.dy) / g0y
+    x_ri, y_ri = x0 + g0x * t1, y0 + g0y * t1
+    roll_out = -(x_ri + t_fin.dx)
+    offset = sig * y_ri
+    reasons = (t.reasons | _flag(np.abs(g0y) > _SMALL_GS * k.v, R_NO_CONVERGE) | _flag(ang <= np.pi, R_WRONG_SIDE)
+               | _flag(t1 >= 0.0, R_NEG_LEG) | _flag(roll_out >= d_stab_m - 1e-6, R_TOO_CLOSE))
+    final_leg = k.straight(t.psi_f, t.gs_f, zero, roll_out / t.gs_f, "final", 0.0)
+    legs = [k.straight(psi0, g0x, g0y, t1, "arrival", k.c0_rad), t_fin, final_leg]
+    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=roll_out)
+
+
+def _solve_overfly_circuit(k: _Kernel, t: _Tracks, circuit_turn_x_m: float) -> _Solved:
+    """Upwind leg to the crosswind turn point, then the rectangular circuit on the chosen side."""
+    sig, zero, x0, y0, v = k.sig, k.zero, k.x0, k.y0, k.v
+    psi0, psi_d, g0x, g0y = t.psi0, t.psi_d, t.g0x, t.g0y
+    # tracks: crosswind sigma*90 (outward), downwind 180, base -sigma*90 (inward)
+    trk_x, trk_b = sig * (0.5 * np.pi), -sig * (0.5 * np.pi)
+    psi_x, gs_x, ok_x = wind_triangle(trk_x, v, k.wx, k.wy)
+    psi_b, gs_b, ok_b = wind_triangle(trk_b, v, k.wx, k.wy)
+    t_up = np.maximum((circuit_turn_x_m - x0) / g0x, 0.0)
+    t_cw, t_dwt, t_bt, t_fin = k.turns(
+        (psi0, _wrap_2pi(sig * (psi_x - psi0)), sig, "crosswind turn", _wrap_2pi(0.5 * np.pi - sig * k.c0_rad)),
+        (psi_x, _wrap_2pi(sig * (psi_d - psi_x)), sig, "downwind turn", 0.5 * np.pi + zero),
+        (psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
+        (psi_b, _wrap_2pi(sig * (t.psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero))
+    y_a = y0 + g0y * t_up + t_cw.dy + t_dwt.dy            # downwind y with no crosswind leg
+    y_b = -(t_bt.dy + t_fin.dy)                            # downwind y with no base leg
+    offset = np.maximum(sig * y_a, sig * y_b)               # the smaller offset both ends reach
+    t_xw = (offset - sig * y_a) / gs_x
+    t_bl = (offset - sig * y_b) / gs_b
+    x_j = x0 + g0x * t_up + t_cw.dx + t_dwt.dx
+    x_ri, y_ri = -k.d_m - t_fin.dx - t_bt.dx, sig * offset
+    t_dw = (x_j - x_ri) / t.gs_d
+    reversed_ = (t_dwt.prof.angle < np.pi) & (t_bt.prof.angle < np.pi) & (t_fin.prof.angle < np.pi)
+    reasons = (t.reasons | _flag(ok_x & ok_b, R_WIND) | _flag(g0x > _SMALL_GS * v, R_NO_CONVERGE)
+               | _flag(reversed_, R_TURN_REVERSED) | _flag(offset > 0.0, R_WRONG_SIDE)
+               | _flag(t_dw >= 0.0, R_INSIDE_TURN))
+    legs = [k.straight(psi0, g0x, g0y, t_up, "upwind", k.c0_rad), t_cw,
+            k.straight(psi_x, zero, sig * gs_x, t_xw, "crosswind", trk_x), t_dwt,
+            k.straight(psi_d, -t.gs_d, zero, t_dw, "downwind", math.pi), t_bt,
+            k.straight(psi_b, zero, -sig * gs_b, t_bl, "base", trk_b), t_fin, t.final_leg]
+    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m + zero,
+                   abeam_s=-x_ri / t.gs_d, break_s=t_up)
+
+
+def _chain_starts(legs: list[LegArrays], x0: float, y0: float, zero: FloatArray) -> None:
+    """Set each leg's start point: the end of the leg before (the legs are new: no copy)."""
+    x, y = x0 + zero, y0 + zero
+    for leg in legs:
+        object.__setattr__(leg, "x0", x)
+        object.__setattr__(leg, "y0", y)
+        if leg.kind == "turn":
+            x, y = x + leg.dx, y + leg.dy
+        else:
+            x, y = x + leg.gx * leg.duration, y + leg.gy * leg.duration
+
+
 def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.ArrayLike, wy: npt.ArrayLike,
                 bank_rad: npt.ArrayLike, roll_rate_rad: float | None, x0: float, y0: float, c0_rad: float,
                 d_m: float | FloatArray, d_stab_m: float, break_rad: float, teardrop_rad: float,
@@ -399,196 +635,37 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
     -----
     See the module docstring: the turn displacements are closed form, the leg times come from
     linear equations in y (and x for the teardrop); the circuit's crosswind and base legs from
-    a maximum of two such solutions.
+    a maximum of two such solutions. One step per shape (``_solve_<shape>``), after the tracks
+    every shape shares (:class:`_Tracks`); then the legs' start points are chained.
     """
-    sig = np.asarray(sigma, dtype=float)
-    wx = np.asarray(wx, dtype=float)
-    wy = np.asarray(wy, dtype=float)
-    bank = np.asarray(bank_rad, dtype=float)
-    shp = np.broadcast(sig, wx, wy, bank, d_m).shape
-    zero = np.zeros(shp)
-    sig, wx, wy, bank = sig + zero, wx + zero, wy + zero, bank + zero
-    v = float(tas_mps)
-
-    def turns(*specs: tuple[FloatArray, FloatArray, FloatArray, str, FloatArray]) -> list[LegArrays]:
-        """Turn legs from (entry heading, angle, sign, name, calm-wind angle) specs, all computed in
-        one call of the (elementwise) kernels: the specs are stacked on a new leading axis."""
-        psi_a = np.concatenate([(sp[0] + zero)[None] for sp in specs])
-        angle = np.concatenate([(sp[1] + zero)[None] for sp in specs])
-        sgn = np.concatenate([(sp[2] + zero)[None] for sp in specs])
-        prof = turn_profile(angle, bank, v, roll_rate_rad)
-        if roll_rate_rad is None:      # the trochoid: s r (sin psi_b - sin psi_a, cos psi_a - cos psi_b) + w T
-            sr = sgn * (v / prof.wp)
-            psi_b = psi_a + sgn * angle
-            dx = sr * (np.sin(psi_b) - np.sin(psi_a)) + wx * prof.total
-            dy = sr * (np.cos(psi_a) - np.cos(psi_b)) + wy * prof.total
-        else:
-            dx, dy = turn_end_displacement(prof, psi0=psi_a, sign=sgn, wx=wx, wy=wy)
-        out = []
-        for i, sp in enumerate(specs):
-            p_i = TurnProfile(angle=prof.angle[i], tas=prof.tas[i], tr=prof.tr[i], tc=prof.tc[i], dp=prof.dp[i],
-                              wp=prof.wp[i], c=prof.c[i], k=prof.k, total=prof.total[i])
-            out.append(LegArrays(kind="turn", name=sp[3], duration=p_i.total, psi0=psi_a[i], prof=p_i,
-                                 sign=sgn[i], dx=dx[i], dy=dy[i], nominal_rad=float(np.max(sp[4]))))
-        return out
-
-    def turn(psi_a: FloatArray, angle: FloatArray, sgn: FloatArray, name: str, nominal: FloatArray) -> LegArrays:
-        return turns((psi_a, angle, sgn, name, nominal))[0]
-
-    def straight(psi: FloatArray, gx: FloatArray, gy: FloatArray, t: FloatArray, name: str,
-                 track: float | None) -> LegArrays:
-        return LegArrays(kind="straight", name=name, duration=t + zero, psi0=psi + zero, gx=gx + zero,
-                         gy=gy + zero, track_rad=track)
-
+    if shape not in SHAPES:
+        raise DomainError(f"unknown plan shape {shape!r}; expected one of {SHAPES}")
+    k = _Kernel(sigma=sigma, tas_mps=tas_mps, wx=wx, wy=wy, bank_rad=bank_rad, roll_rate_rad=roll_rate_rad, x0=x0,
+                y0=y0, c0_rad=c0_rad, d_m=d_m)
+    zero = k.zero
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        # final (0), downwind (pi) and arrival tracks in one call of the (elementwise) kernel
-        trk3 = np.array([0.0, np.pi, float(c0_rad)]).reshape((3,) + (1,) * len(shp))
-        psi3, gs3, ok3 = wind_triangle(trk3, v, wx, wy)
-        (psi_f, psi_d, psi0), (gs_f, gs_d, gs0), (ok_f, ok_d, ok0) = psi3, gs3, ok3
-        g0x, g0y = gs0 * math.cos(c0_rad), gs0 * math.sin(c0_rad)
-        reasons = _flag(ok_f & ok_d & ok0, R_WIND)
-        final_leg = straight(psi_f, gs_f, zero, d_m / gs_f, "final", 0.0)
-        abeam_s = break_s = None
-
-        if shape in ("downwind-join", "break-and-return"):
-            fin_spec = (psi_d, _wrap_2pi(sig * (psi_f - psi_d)), sig, "final turn", np.pi + zero)
-            if shape == "downwind-join":
-                # the circuit's final side: base turn (downwind -> base track), base leg, final turn
-                trk_b = -sig * (0.5 * np.pi)
-                psi_b, gs_b, ok_b = wind_triangle(trk_b, v, wx, wy)
-                t_f180, t_join, t_bt90, t_f90 = turns(
-                    fin_spec, (psi0, _wrap_2pi(sig * (psi_d - psi0)), sig, "turn downwind",
-                               _wrap_2pi(sig * (np.pi - c0_rad))),
-                    (psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
-                    (psi_b, _wrap_2pi(sig * (psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero))
-            else:
-                psi_b = psi0 - sig * break_rad
-                t_fin, t_brk, t_join = turns(
-                    fin_spec, (psi0, break_rad + zero, -sig, "break turn", break_rad + zero),
-                    (psi_b, _wrap_2pi(sig * (psi_d - psi_b)), sig, "turn downwind",
-                     _wrap_2pi(sig * (np.pi - c0_rad) + break_rad)))
-            if shape == "downwind-join":
-                # the downwind offset is the larger of what the final turn needs (one 180 deg turn,
-                # no base leg) and what the join reaches with no crossing leg (y_a); when the join
-                # reaches further, a wider downwind: base turn, base leg (taking up the difference
-                # to what the base and final turns need, y_b) and final turn, as in the circuit
-                y_a = y0 + t_join.dy
-                wide = sig * y_a > -sig * t_f180.dy
-                offset = np.where(wide, np.maximum(sig * y_a, -sig * (t_bt90.dy + t_f90.dy)), -sig * t_f180.dy)
-                t_bl = np.where(wide, (offset + sig * (t_bt90.dy + t_f90.dy)) / gs_b, 0.0)
-                t_bt = _pick_turn(wide, t_bt90, None, "base turn", 0.5 * np.pi)
-                t_fin = _pick_turn(wide, t_f90, t_f180, "final turn", np.pi)
-                reasons = (reasons | _flag(ok_b | ~wide, R_WIND)
-                           | _flag(~wide | ((t_bt90.prof.angle < np.pi) & (t_f90.prof.angle < np.pi)),
-                                   R_TURN_REVERSED))
-                x_ri, y_ri = -d_m - t_fin.dx - t_bt.dx, sig * offset
-            else:
-                x_ri, y_ri = -d_m - t_fin.dx, -t_fin.dy
-                offset = sig * y_ri
-            reasons = reasons | _flag(offset > 0.0, R_WRONG_SIDE)
-            if shape == "downwind-join":
-                t_j = (offset - sig * y_a) / (sig * g0y)
-                x_j = x0 + g0x * t_j + t_join.dx
-                first = [straight(psi0, g0x, g0y, t_j, "arrival", c0_rad), t_join]
-                final_side = [t_bt, straight(np.where(wide, psi_b, psi_d), zero, -sig * gs_b, t_bl, "base",
-                                                  np.where(wide, trk_b, np.pi)), t_fin]
-                break_s = t_j
-            else:
-                gbx, gby = v * np.cos(psi_b) + wx, v * np.sin(psi_b) + wy
-                reasons = reasons | _flag(sig * gby > _SMALL_GS, R_BREAK_BACK)
-                t_j = (y_ri - y0 - t_brk.dy - t_join.dy) / gby
-                x_j = x0 + t_brk.dx + gbx * t_j + t_join.dx
-                first = [t_brk, straight(psi_b, gbx, gby, t_j, "break leg", None), t_join]
-                final_side = [t_fin]
-                break_s = t_j
-            t_dw = (x_j - x_ri) / gs_d
-            reasons = reasons | _flag(t_j >= 0.0, R_NEG_LEG) | _flag(t_dw >= 0.0, R_INSIDE_TURN)
-            legs = first + [straight(psi_d, -gs_d, zero, t_dw, "downwind", math.pi)] + final_side + [final_leg]
-            abeam_s = -x_ri / gs_d
-            roll_out = d_m + zero
+        t = _Tracks(k)
+        if shape == "downwind-join":
+            s = _solve_downwind_join(k, t)
+        elif shape == "break-and-return":
+            s = _solve_break_and_return(k, t, break_rad)
         elif shape == "teardrop":
-            psi_t = psi0 - sig * teardrop_rad
-            t_off, t_fin = turns((psi0, teardrop_rad + zero, -sig, "offset turn", teardrop_rad + zero),
-                                 (psi_t, _wrap_2pi(sig * (psi_f - psi_t)), sig, "final turn",
-                                  _wrap_2pi(-sig * c0_rad + teardrop_rad)))
-            gtx, gty = v * np.cos(psi_t) + wx, v * np.sin(psi_t) + wy
-            bx = -d_m - x0 - t_off.dx - t_fin.dx
-            by = -y0 - t_off.dy - t_fin.dy
-            det = g0x * gty - g0y * gtx
-            t1 = (bx * gty - by * gtx) / det                  # Cramer's rule, 2x2
-            t2 = (g0x * by - g0y * bx) / det
-            x_ri, y_ri = -d_m - t_fin.dx, -t_fin.dy
-            offset = sig * y_ri
-            reasons = (reasons | _flag(np.abs(det) > _SMALL_GS * v, R_NO_CONVERGE)
-                       | _flag((t1 >= 0.0) & (t2 >= 0.0), R_NEG_LEG) | _flag(offset > 0.0, R_WRONG_SIDE))
-            legs = [straight(psi0, g0x, g0y, t1, "outbound", c0_rad), t_off,
-                    straight(psi_t, gtx, gty, t2, "offset leg", None), t_fin, final_leg]
-            break_s = t2
-            roll_out = d_m + zero
+            s = _solve_teardrop(k, t, teardrop_rad)
         elif shape == "direct-turn":
-            ang = _wrap_2pi(sig * (psi_f - psi0))
-            t_fin = turn(psi0, ang, sig, "final turn", _wrap_2pi(-sig * c0_rad))
-            t1 = -(y0 + t_fin.dy) / g0y
-            x_ri, y_ri = x0 + g0x * t1, y0 + g0y * t1
-            roll_out = -(x_ri + t_fin.dx)
-            offset = sig * y_ri
-            reasons = (reasons | _flag(np.abs(g0y) > _SMALL_GS * v, R_NO_CONVERGE) | _flag(ang <= np.pi, R_WRONG_SIDE)
-                       | _flag(t1 >= 0.0, R_NEG_LEG) | _flag(roll_out >= d_stab_m - 1e-6, R_TOO_CLOSE))
-            final_leg = straight(psi_f, gs_f, zero, roll_out / gs_f, "final", 0.0)
-            legs = [straight(psi0, g0x, g0y, t1, "arrival", c0_rad), t_fin, final_leg]
-        elif shape == "overfly-circuit":
-            # tracks: crosswind sigma*90 (outward), downwind 180, base -sigma*90 (inward)
-            trk_x, trk_b = sig * (0.5 * np.pi), -sig * (0.5 * np.pi)
-            psi_x, gs_x, ok_x = wind_triangle(trk_x, v, wx, wy)
-            psi_b, gs_b, ok_b = wind_triangle(trk_b, v, wx, wy)
-            t_up = np.maximum((circuit_turn_x_m - x0) / g0x, 0.0)
-            t_cw, t_dwt, t_bt, t_fin = turns(
-                (psi0, _wrap_2pi(sig * (psi_x - psi0)), sig, "crosswind turn", _wrap_2pi(0.5 * np.pi - sig * c0_rad)),
-                (psi_x, _wrap_2pi(sig * (psi_d - psi_x)), sig, "downwind turn", 0.5 * np.pi + zero),
-                (psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
-                (psi_b, _wrap_2pi(sig * (psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero))
-            y_a = y0 + g0y * t_up + t_cw.dy + t_dwt.dy            # downwind y with no crosswind leg
-            y_b = -(t_bt.dy + t_fin.dy)                            # downwind y with no base leg
-            offset = np.maximum(sig * y_a, sig * y_b)               # the smaller offset both ends reach
-            t_xw = (offset - sig * y_a) / gs_x
-            t_bl = (offset - sig * y_b) / gs_b
-            x_j = x0 + g0x * t_up + t_cw.dx + t_dwt.dx
-            x_ri, y_ri = -d_m - t_fin.dx - t_bt.dx, sig * offset
-            t_dw = (x_j - x_ri) / gs_d
-            reversed_ = (t_dwt.prof.angle < np.pi) & (t_bt.prof.angle < np.pi) & (t_fin.prof.angle < np.pi)
-            reasons = (reasons | _flag(ok_x & ok_b, R_WIND) | _flag(g0x > _SMALL_GS * v, R_NO_CONVERGE)
-                       | _flag(reversed_, R_TURN_REVERSED) | _flag(offset > 0.0, R_WRONG_SIDE)
-                       | _flag(t_dw >= 0.0, R_INSIDE_TURN))
-            legs = [straight(psi0, g0x, g0y, t_up, "upwind", c0_rad), t_cw,
-                    straight(psi_x, zero, sig * gs_x, t_xw, "crosswind", trk_x), t_dwt,
-                    straight(psi_d, -gs_d, zero, t_dw, "downwind", math.pi), t_bt,
-                    straight(psi_b, zero, -sig * gs_b, t_bl, "base", trk_b), t_fin, final_leg]
-            abeam_s = -x_ri / gs_d
-            break_s = t_up
-            roll_out = d_m + zero
+            s = _solve_direct_turn(k, t, d_stab_m)
         else:
-            raise DomainError(f"unknown plan shape {shape!r}; expected one of {SHAPES}")
-
-        # chain the start positions
-        x, y = x0 + zero, y0 + zero
-        chained = legs
-        for leg in legs:        # the legs were made just above: set their start (no copy)
-            object.__setattr__(leg, "x0", x)
-            object.__setattr__(leg, "y0", y)
-            if leg.kind == "turn":
-                x, y = x + leg.dx, y + leg.dy
-            else:
-                x, y = x + leg.gx * leg.duration, y + leg.gy * leg.duration
-
-    reasons = np.asarray(reasons, dtype=np.int64) + np.zeros(shp, dtype=np.int64)
-    return ShapeSolution(shape=shape, ok=reasons == 0, reasons=reasons, legs=tuple(chained), x_ri=x_ri + zero,
-                         y_ri=y_ri + zero, offset=offset + zero, roll_out_d=roll_out + zero,
-                         abeam_s=None if abeam_s is None else abeam_s + zero,
-                         break_s=None if break_s is None else break_s + zero,
-                         psi_f=psi_f, gs_f=gs_f, psi_d=psi_d, gs_d=gs_d,
+            s = _solve_overfly_circuit(k, t, circuit_turn_x_m)
+        _chain_starts(s.legs, x0, y0, zero)
+    legs = s.legs
+    reasons = np.asarray(s.reasons, dtype=np.int64) + np.zeros(zero.shape, dtype=np.int64)
+    return ShapeSolution(shape=shape, ok=reasons == 0, reasons=reasons, legs=tuple(legs), x_ri=s.x_ri + zero,
+                         y_ri=s.y_ri + zero, offset=s.offset + zero, roll_out_d=s.roll_out + zero,
+                         abeam_s=None if s.abeam_s is None else s.abeam_s + zero,
+                         break_s=None if s.break_s is None else s.break_s + zero,
+                         psi_f=t.psi_f, gs_f=t.gs_f, psi_d=t.psi_d, gs_d=t.gs_d,
                          final_turn=[i for i, lg in enumerate(legs) if lg.name == "final turn"][0],
                          turns_to_final=tuple(i for i, lg in enumerate(legs) if lg.name in ("base turn", "final turn")),
-                         wx=wx, wy=wy)
+                         wx=k.wx, wy=k.wy)
 
 
 def _take(value: object, rows: npt.NDArray[np.int_], m: int) -> object:
@@ -691,6 +768,96 @@ def _ramp_q(tau: FloatArray, prof: TurnProfile) -> npt.NDArray[np.complex128]:
     return ramp_q(tau, prof.c, prof.tas, prof.k)
 
 
+def _running_arc(a_seg: npt.NDArray[np.complex128], first: npt.NDArray[np.complex128] | complex,
+                 step_angle: FloatArray) -> None:
+    """a_seg[k] = first exp(i step k), k = 0..na-1, by a running product over the samples (one
+    complex multiply per point; rounding grows like k eps). ``a_seg``: (na, ...) contiguous."""
+    na = a_seg.shape[0]
+    a_seg[0] = first
+    step = np.exp(1j * step_angle).reshape(-1)
+    rows = a_seg.reshape(na, -1)                 # a view: rows of the contiguous block
+    for k in range(1, na):                       # loop over samples, not cells
+        np.multiply(rows[k - 1], step, out=rows[k])
+
+
+def _sample_arc_instant(seg: npt.NDArray[np.complex128], leg: LegArrays, fa: FloatArray, p0: npt.ArrayLike,
+                        wind: npt.ArrayLike) -> None:
+    """Instant bank, many tracks: p_k = C - i s r exp(i psi_k) + w t_k with C = p0 + i s r exp(i psi0);
+    exp(i psi_k) by a running product."""
+    pr = leg.prof
+    assert pr is not None
+    na = seg.shape[0]
+    rot = np.exp(1j * leg.psi0)
+    sr = leg.sign * (pr.tas / np.maximum(pr.wp, 1e-12))
+    _running_arc(seg, -1j * sr * rot, leg.sign * (pr.angle - 2.0 * pr.dp) / (na - 1))
+    seg += (p0 + 1j * sr * rot) + (wind * pr.tc) * fa
+
+
+class _Ramps:
+    """Sample fractions, times and air path (C + i S) of the roll-in and roll-out ramps of a turn."""
+
+    __slots__ = ("fr", "tau_in", "q_in", "q_tr", "q_out", "e_a")
+
+    def __init__(self, pr: TurnProfile, nr: int, lead: tuple[int, ...]) -> None:
+        self.fr = fr = (np.arange(nr) / nr).reshape((nr,) + lead)
+        self.tau_in = tau_in = pr.tr * fr
+        tau_out = pr.tr * (1.0 - fr - 1.0 / nr)                    # tau3 = tr (nr-1-j)/nr
+        # one quadrature call for the roll-in samples, the full ramp and the roll-out samples
+        q_all = _ramp_q(np.concatenate([tau_in, pr.tr[None] + 0.0 * tau_in[:1], tau_out], axis=0), pr)
+        self.q_in, self.q_tr, self.q_out = q_all[:nr], q_all[nr], q_all[nr + 1:]
+        self.e_a = np.exp(1j * pr.angle)
+
+
+def _sample_turn(seg: npt.NDArray[np.complex128], leg: LegArrays, nr: int, many: bool, fa: FloatArray,
+                 p0: npt.ArrayLike, wind: npt.ArrayLike, lead: tuple[int, ...]) -> tuple[FloatArray, _Ramps | None]:
+    """Positions of a turn's samples into ``seg``: the roll-in ramp (``nr`` points), the arc, the
+    roll-out ramp; returns the samples' times from the turn's start and the ramps (None: instant)."""
+    pr = leg.prof
+    assert pr is not None and leg.sign is not None
+    na = fa.shape[0]
+    arc = pr.angle - 2.0 * pr.dp
+    r = pr.tas / np.maximum(pr.wp, 1e-12)
+    ramps = _Ramps(pr, nr, lead) if nr else None
+    q_tr = ramps.q_tr if ramps is not None else np.zeros(np.shape(pr.angle), dtype=np.complex128)
+    # the arc in the right-turn frame from heading 0: -i r (exp(i h) - exp(i dp)) + Q(tr)
+    a_seg = seg[nr:nr + na]
+    if not many:                                   # a few tracks: direct exponentials
+        a_seg[...] = np.exp(1j * (pr.dp + arc * fa))
+    else:
+        _running_arc(a_seg, np.exp(1j * pr.dp), arc / (na - 1))
+    a_end = a_seg[na - 1] - a_seg[0]
+    a_seg -= a_seg[0].copy()
+    a_seg *= -1j * r
+    a_seg += q_tr
+    t_arc = pr.tr + pr.tc * fa
+    if ramps is not None:
+        seg[:nr] = ramps.q_in
+        arc_end = q_tr - 1j * r * a_end
+        seg[nr + na:] = arc_end + ramps.e_a * np.conj(q_tr) - ramps.e_a * np.conj(ramps.q_out)
+        t_all = np.concatenate([ramps.tau_in, t_arc, pr.tr + pr.tc + pr.tr * (ramps.fr + 1.0 / nr)], axis=0)
+    else:
+        t_all = t_arc
+    # left turns mirror (conjugate), then rotate to the entry heading, then drift
+    seg.imag *= leg.sign
+    seg *= np.exp(1j * leg.psi0)
+    seg += p0 + wind * t_all
+    return t_all, ramps
+
+
+def _turn_headings(leg: LegArrays, fa: FloatArray, ramps: _Ramps | None, nr: int) -> FloatArray:
+    """Heading of each of a turn's samples relative to its entry heading, turn direction positive."""
+    pr = leg.prof
+    assert pr is not None
+    arc = pr.angle - 2.0 * pr.dp
+    if ramps is None:
+        return arc * fa
+    fr = ramps.fr
+    kt = pr.k * pr.tr
+    h_ramp = pr.c * -np.log(np.cos(np.concatenate([kt * fr, kt * (1.0 - fr - 1.0 / nr)], axis=0)))
+    h_in, h_out = h_ramp[:nr], pr.angle - h_ramp[nr:]
+    return np.concatenate([h_in, pr.dp + arc * fa, h_out], axis=0)
+
+
 def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int, straight_step_m: float | None = None,
                     with_heading: bool = False, running_product: bool | None = None) -> SolutionTrack:
     """Sample every leg of a solved shape (vectorised): tracks of shape (..., N, 2).
@@ -714,9 +881,12 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     k eps). The air arc from heading h0 is -i r (exp(i h) - exp(i h0)) in a right-turn frame;
     the ramps use the roll-in integral Q(tau) = C + i S and the roll-out its mirror
     exp(i A) conj(Q); a left turn is the complex conjugate; the wind adds (wx + i wy) t.
+    Steps: :func:`_sample_arc_instant` (instant bank, many tracks), :func:`_sample_turn` (the
+    general turn), straights in place; :func:`_turn_headings` when headings are asked for.
     """
     counts = _leg_counts(sol, turn_step_deg, n_straight, straight_step_m)
     ramps = bool(sol.legs) and any(lg.prof is not None and lg.prof.k > 0.0 for lg in sol.legs)
+    nr = N_RAMP if ramps else 0                  # _leg_counts added 2 N_RAMP ramp samples per turn
     shp = sol.ok.shape
     nt = sum(counts)
     out = np.empty((nt,) + shp, dtype=np.complex128)
@@ -724,8 +894,7 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     tim = np.empty((nt,) + shp) if with_heading else None
     wind = sol.wx + 1j * sol.wy
     lead = (1,) * len(shp)
-    cells = math.prod(shp)
-    many = cells >= _RUNNING_PRODUCT_MIN_CELLS if running_product is None else running_product
+    many = math.prod(shp) >= _RUNNING_PRODUCT_MIN_CELLS if running_product is None else running_product
     j = 0
     t_start = np.zeros(shp)
     with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
@@ -733,77 +902,16 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
             seg = out[j:j + n]
             p0 = leg.x0 + 1j * leg.y0
             if leg.kind == "turn":
-                assert leg.prof is not None and leg.sign is not None
-                pr = leg.prof
-                nr = N_RAMP if ramps else 0        # _leg_counts added 2 N_RAMP ramp samples
                 na = n - 2 * nr
-                rot = np.exp(1j * leg.psi0)
-                sgn = leg.sign
-                r = pr.tas / np.maximum(pr.wp, 1e-12)
-                arc = pr.angle - 2.0 * pr.dp
-                # times and air positions (right-turn frame, entry heading 0)
                 fa = (np.arange(na) / (na - 1)).reshape((na,) + lead)
-                t_arc = pr.tr + pr.tc * fa
-                if nr:
-                    fr = (np.arange(nr) / nr).reshape((nr,) + lead)
-                    tau_in = pr.tr * fr
-                    tau_out = pr.tr * (1.0 - fr - 1.0 / nr)                    # tau3 = tr (nr-1-j)/nr
-                    # one quadrature call for the roll-in samples, the full ramp and the roll-out samples
-                    q_all = _ramp_q(np.concatenate([tau_in, pr.tr[None] + 0.0 * tau_in[:1], tau_out], axis=0), pr)
-                    q_in, q_tr, q_out = q_all[:nr], q_all[nr], q_all[nr + 1:]
-                    e_a = np.exp(1j * pr.angle)
-                else:
-                    q_tr = np.zeros(shp, dtype=np.complex128)
                 if not nr and many:
-                    # instant bank, many tracks: p_k = C - i s r exp(i psi_k) + w t_k with
-                    # C = p0 + i s r exp(i psi0); exp(i psi_k) by a running product
-                    sr = sgn * r
-                    seg[0] = -1j * sr * rot
-                    step = np.exp(1j * (sgn * arc / (na - 1))).reshape(-1)
-                    rows = seg.reshape(na, -1)
-                    for k in range(1, na):                       # loop over samples, not cells
-                        np.multiply(rows[k - 1], step, out=rows[k])
-                    seg += (p0 + 1j * sr * rot) + (wind * pr.tc) * fa
-                    if hdg is not None and tim is not None:
-                        hdg[j:j + n] = leg.psi0 + sgn * (arc * fa)
-                        tim[j:j + n] = t_start + t_arc
-                    t_start = t_start + leg.duration
-                    j += n
-                    continue
-                a_seg = seg[nr:nr + na]
-                if not many:                                   # a few tracks: direct exponentials
-                    a_seg[...] = np.exp(1j * (pr.dp + arc * fa))
+                    _sample_arc_instant(seg, leg, fa, p0, wind)
+                    t_rel, turn_ramps = leg.prof.tr + leg.prof.tc * fa, None
                 else:
-                    a_seg[0] = np.exp(1j * pr.dp)
-                    step = np.exp(1j * arc / (na - 1)).reshape(-1)
-                    rows = a_seg.reshape(na, -1)                 # a view: rows of the contiguous block
-                    for k in range(1, na):                       # loop over samples, not cells
-                        np.multiply(rows[k - 1], step, out=rows[k])
-                a_end = a_seg[na - 1] - a_seg[0]
-                a_seg -= a_seg[0].copy()
-                a_seg *= -1j * r
-                a_seg += q_tr
-                if nr:
-                    seg[:nr] = q_in
-                    arc_end = q_tr - 1j * r * a_end
-                    seg[nr + na:] = arc_end + e_a * np.conj(q_tr) - e_a * np.conj(q_out)
-                    t_all = np.concatenate([tau_in, t_arc, pr.tr + pr.tc + pr.tr * (fr + 1.0 / nr)], axis=0)
-                else:
-                    t_all = t_arc
-                # left turns mirror (conjugate), then rotate to the entry heading, then drift
-                seg.imag *= sgn
-                seg *= rot
-                seg += p0 + wind * t_all
+                    t_rel, turn_ramps = _sample_turn(seg, leg, nr, many, fa, p0, wind, lead)
                 if hdg is not None and tim is not None:
-                    if nr:
-                        kt = pr.k * pr.tr
-                        h_ramp = pr.c * -np.log(np.cos(np.concatenate([kt * fr, kt * (1.0 - fr - 1.0 / nr)], axis=0)))
-                        h_in, h_out = h_ramp[:nr], pr.angle - h_ramp[nr:]
-                        h_rel = np.concatenate([h_in, pr.dp + arc * fa, h_out], axis=0)
-                    else:
-                        h_rel = arc * fa
-                    hdg[j:j + n] = leg.psi0 + sgn * h_rel
-                    tim[j:j + n] = t_start + t_all
+                    hdg[j:j + n] = leg.psi0 + leg.sign * _turn_headings(leg, fa, turn_ramps, nr)
+                    tim[j:j + n] = t_start + t_rel
             else:
                 assert leg.gx is not None and leg.gy is not None
                 f = (np.arange(n) / (n - 1)).reshape((n,) + lead)
