@@ -36,3 +36,8 @@ def test_snapshot_weather_step(snap_compare):
 
 def test_snapshot_plan_view(snap_compare):
     assert snap_compare(make_app(), terminal_size=SIZE, run_before=run_keys("6"))
+
+
+def test_snapshot_sight_step(snap_compare):
+    """The side view of the sight picture (the Scene the PDF card draws too), its legend and table."""
+    assert snap_compare(make_app(), terminal_size=SIZE, run_before=run_keys("7"))

@@ -39,7 +39,7 @@ def test_no_plan_and_no_planned_picture_when_not_authorised():
     card = " ".join(card_text(b).split())
     assert "no planned picture" in card
     sv = card_layout(b).side_view
-    assert math.isnan(sv.planned_offset_nm)
+    assert math.isnan(sv.picture.planned_offset_nm) and not sv.picture.planned
     assert card_pdf_bytes(b)[:4] == b"%PDF"                    # the side view draws without a plan
 
 

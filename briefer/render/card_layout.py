@@ -25,6 +25,7 @@ from briefer import __version__
 from briefer.cautions import CAUTIONS, SHORT_CAUTION
 from briefer.render.brief_scene import scene_from_brief
 from briefer.render.scene import ROLE_STYLES, Role, Scene
+from briefer.render.side_scene import SidePicture, side_picture
 from briefer.wording import area_edge_words, stall_margin_words, category_words, wind_components_text, wind_limits_words
 from briefer.display_units import (DEFAULT_UNITS, altimeter_words, visibility_reported_words,
                                    visibility_required_words, weight_words)
@@ -83,28 +84,16 @@ class WarningLine:
 
 @dataclass(frozen=True, slots=True, kw_only=True)
 class SideView:
-    """The sight picture seen along the runway from abeam the threshold: the runway on the left,
-    the aircraft at circling height on the right, and the sight lines to the runway.
+    """The sight picture seen from abeam the threshold: the drawing's numbers (`picture`, the
+    side view the app draws too) and the comparison in words.
 
     Attributes:
-        circling_height_ft: Height of the circle above the runway.
-        planned_offset_nm: The plan's offset (the aircraft abeam the threshold).
-        planned_depression_deg: The runway's angle below the horizon from there.
-        familiar_height_ft, familiar_offset_nm: The crew's usual pattern.
-        familiar_depression_deg: The usual picture's angle below the horizon.
-        familiar_offset_at_circling_nm: Where the usual picture puts the aircraft at circling
-            height (the trap).
-        rows: The comparison in words: "Planned", "Usual", "The trap", "It needs" (beside the
+        picture: What the drawing shows (`briefer.render.side_scene`).
+        rows: The comparison in words: "Planned", "Usual", "The trap", "It needs" (under the
             drawing on the PDF, alone on the text card).
     """
 
-    circling_height_ft: float
-    planned_offset_nm: float
-    planned_depression_deg: float
-    familiar_height_ft: float
-    familiar_offset_nm: float
-    familiar_depression_deg: float
-    familiar_offset_at_circling_nm: float
+    picture: SidePicture
     rows: tuple[Row, ...]
 
 
@@ -409,11 +398,7 @@ def _side_view(brief: Brief) -> SideView:
     else:
         rows.append(Row(label="It needs", text=(f"a turn no bank can fly at this speed; at the planned bank you "
                                                 f"overshoot the centreline by {s.overshoot_nm:.2f} NM")))
-    return SideView(
-        circling_height_ft=s.circling_height_ft, planned_offset_nm=s.planned_offset_nm,
-        planned_depression_deg=s.planned_depression_deg, familiar_height_ft=s.familiar_height_ft,
-        familiar_offset_nm=s.familiar_offset_nm, familiar_depression_deg=s.familiar_depression_deg,
-        familiar_offset_at_circling_nm=s.familiar_offset_at_circling_nm, rows=tuple(rows))
+    return SideView(picture=side_picture(brief), rows=tuple(rows))
 
 
 def _warning(f: Finding) -> WarningLine:

@@ -1,4 +1,5 @@
-"""The plan view on paper: millimetre primitives for fpdf2's drawing API.
+"""The plan view (and the side view of the sight picture) on paper: millimetre primitives for
+fpdf2's drawing API.
 
 `scene_to_primitives(scene, box_mm)` transforms a `Scene` into lines, circles, polygons and text
 in page millimetres (x right, y down, as fpdf2 uses), each with a style name (the role's value;
@@ -201,8 +202,8 @@ def drawing_height(height_mm: float, key: bool = True) -> float:
 
 def _decorations(scene: Scene, vp: Viewport, box_mm: tuple[float, float, float, float],
                  margin_mm: float) -> list[Primitive]:
-    """The frame, the line above the key strip, and in the strip the scale bar (left) and the
-    north arrow (right)."""
+    """The frame, the line above the key strip, and in the strip the scale bar (left), the north
+    arrow (right, if the scene has one) and the scene's key note."""
     bx, by, bw, bh = box_mm
     st = Role.ANNOTATION.value
     top = by + drawing_height(bh)
@@ -217,13 +218,27 @@ def _decorations(scene: Scene, vp: Viewport, box_mm: tuple[float, float, float, 
     out.append(LinePrim(((x0, y0 - tick), (x0, y0), (x0 + length_mm, y0), (x0 + length_mm, y0 - tick)), st))
     out.append(LinePrim(((x0 + length_mm / 2, y0), (x0 + length_mm / 2, y0 - tick / 2)), st))
     out.append(TextPrim((x0 + length_mm + 1.2, y0), format_nm(length_nm), st))
+    right = bx + bw - margin_mm
+    if scene.north_arrow:
+        out.extend(_north_arrow(scene, right, top))
+        right -= 8.0
+    if scene.key_note:       # a side view's "heights x3", at the right of the strip
+        out.append(TextPrim((right, y0), scene.key_note, st, anchor="end"))
+    return out
+
+
+def _north_arrow(scene: Scene, right: float, top: float) -> list[Primitive]:
+    """The north arrow in the key strip, ending `right`: a shaft, a filled head at north's end,
+    and "N" beside it."""
+    st = Role.ANNOTATION.value
+    out: list[Primitive] = []
     # north arrow, bottom right: a shaft, a filled head at north's end, and "N" beside it
     arrow = north_arrow(scene.up_deg_true)
     a = radians(arrow.screen_deg)
     ux, uy = sin(a), -cos(a)              # unit vector towards north on the page
     px, py = -uy, ux                      # perpendicular
     half = 1.9
-    cx, cy = bx + bw - margin_mm - 4.0, top + KEY_STRIP_MM / 2
+    cx, cy = right - 4.0, top + KEY_STRIP_MM / 2
     tip = (cx + ux * half, cy + uy * half)
     tail = (cx - ux * half, cy - uy * half)
     out.append(LinePrim((tail, tip), st))

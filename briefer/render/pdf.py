@@ -45,6 +45,7 @@ from briefer.render.card_layout import (
 from briefer.render.scene import ROLE_STYLES, Label, Marker, Polygon, Polyline, Role, Scene
 from briefer.render.paper import (
     HATCH_WIDTH_MM,
+    MARGIN_MM as PAPER_MARGIN_MM,
     MARKER_SIZE_MM,
     CirclePrim,
     LinePrim,
@@ -55,7 +56,6 @@ from briefer.render.paper import (
     scene_to_primitives,
 )
 from briefer.result import Brief
-from briefer.units import NM_TO_FT
 
 PAGE_SIZES_MM: dict[str, tuple[float, float]] = {
     "half-letter": (139.7, 215.9),   # 5.5 x 8.5 in = 396 x 612 pt
@@ -73,7 +73,7 @@ PLAN_MIN_MM = 55.0
 """The front page's plan view is not made smaller than this while warnings can move to page 2."""
 PLAN_FLOOR_MM = 35.0
 """Below this the plan view leaves the front page for the detail pages."""
-SIDE_VIEW_H_MM = 32.0
+SIDE_VIEW_H_MM = 36.0
 LINE_SPACING = 1.2
 
 # type sizes in points
@@ -536,7 +536,10 @@ class CardPainter:
     def plan_view(self, box: tuple[float, float, float, float], prims: list[Any] | None = None) -> None:
         """The plan view in `box`: the drawing clipped to its frame, the key (scale bar and north
         arrow) on a white ground over it."""
-        prims = self.plan_prims(box) if prims is None else prims
+        self.scene_prims(self.plan_prims(box) if prims is None else prims, box)
+
+    def scene_prims(self, prims: list[Any], box: tuple[float, float, float, float]) -> None:
+        """A scene's primitives in `box`: the drawing clipped to its frame, then the key."""
         x, y, w, h = box
         # local_context around the clip: the PDF's state returns to the outside one at the end of
         # the clip, and so must fpdf's record of it (pen and font)
@@ -552,62 +555,15 @@ class CardPainter:
         self._font = None
 
     def side_view(self, sv: SideView, box: tuple[float, float, float, float]) -> None:
-        """Abeam the threshold, looking along the runway: the runway at the left, the aircraft at
-        circling height to the right, the sight lines to the runway (heights exaggerated)."""
-        pdf = self.pdf
-        x, y, w, h = box
-        size = LABEL_PT
-        pl, pr, pt, pb = 3.0, 3.0, 3.0 + self.lh(size), 3.0 + self.lh(size)
-        planned = math.isfinite(sv.planned_offset_nm)       # no plan: no planned sight line
-        d_max = max([sv.familiar_offset_nm, sv.familiar_offset_at_circling_nm, 0.1]
-                    + ([sv.planned_offset_nm] if planned else [])) * 1.1
-        h_max = max(sv.circling_height_ft, sv.familiar_height_ft, 1.0) * 1.1
-        sx = (w - pl - pr) / d_max            # mm per NM
-        sy = (h - pt - pb) / h_max            # mm per ft
-        xg, yg = x + pl, y + h - pb
+        """The side view of the sight picture in `box`: the Scene the app draws too
+        (`briefer.render.side_scene`), sized to the box, its labels placed as the plan view's."""
+        from briefer.render.labels import place_paper_labels
 
-        def at(d_nm: float, h_ft: float) -> tuple[float, float]:
-            return (xg + d_nm * sx, yg - h_ft * sy)
-
-        self.pen(0.2)
-        pdf.rect(x, y, w, h, style="D")
-        self.pen(0.35, fill=0.0)
-        pdf.line(x, yg, x + w, yg)                                  # the ground
-        pdf.rect(xg - 1.2, yg - 0.7, 2.4, 0.7, style="F")           # the runway, end on
-        self.font("", size)
-        self.text_at(xg - 1.5, yg + 0.4, "RWY", size)
-        hc = sv.circling_height_ft
-        self.pen(0.2, 0.4, dash=(0.1, 0.8))
-        with pdf.local_context(stroke_cap_style="ROUND"):
-            pdf.line(xg, at(0, hc)[1], x + w - 1, at(0, hc)[1])     # circling height (dotted)
-        self.text_at(xg + 3.0, at(0, hc)[1] - self.lh(size) - 0.2, f"{hc:.0f} ft", size)
-        p = at(sv.planned_offset_nm if planned else 0.0, hc)
-        t = at(sv.familiar_offset_at_circling_nm, hc)
-        u = at(sv.familiar_offset_nm, sv.familiar_height_ft)
-        far = u if sv.familiar_offset_nm >= sv.familiar_offset_at_circling_nm else t
-        self.pen(0.4, 0.3, dash=(1.2, 0.8))
-        pdf.line(xg, yg, far[0], far[1])                            # the usual picture's sight line
-        if planned:
-            self.pen(0.5)
-            pdf.line(xg, yg, p[0], p[1])                            # the planned sight line
-            self.pen(0.3, fill=0.0)
-            pdf.circle(p[0], p[1], 0.9, style="DF")                 # you, as planned
-        self.pen(0.3, fill=1.0)
-        pdf.circle(t[0], t[1], 0.9, style="DF")                     # the trap
-        pdf.rect(u[0] - 0.8, u[1] - 0.8, 1.6, 1.6, style="DF")      # the usual pattern
-        self.font("", size)
-        plan_w, trap_w = self.width_of("plan"), self.width_of("trap")
-        if planned:
-            self.text_at(p[0] - plan_w / 2, p[1] + 1.2, "plan", size)
-        trap_x = t[0] - trap_w / 2
-        # under its point unless that runs into "plan"; then above the circling height
-        trap_y = t[1] + 1.2 if trap_x + trap_w + 0.8 < p[0] - plan_w / 2 else t[1] - 1.2 - self.lh(size)
-        self.text_at(trap_x, trap_y, "trap", size)
-        lab = f"usual {sv.familiar_height_ft:.0f} ft"
-        tw = self.width_of(lab)
-        self.text_at(max(x + 1.0, u[0] - tw - 1.5), u[1] - self.lh(size) / 2, lab, size)
-        exaggeration = sy / (sx / NM_TO_FT)
-        self.text_at(x, y + h - self.lh(size) - 0.3, f"heights x{exaggeration:.0f}", size, align="R", width=w - 1.0)
+        _, _, w, h = box
+        scene = sv.picture.scene(w, drawing_height(h), margin=PAPER_MARGIN_MM)
+        prims, _ = place_paper_labels(scene_to_primitives(scene, box), scene, box,
+                                      lambda text, size_mm: _measure(self, text, size_mm))
+        self.scene_prims(prims, box)
 
 
 class Flow:

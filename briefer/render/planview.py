@@ -163,8 +163,10 @@ def _place_labels(canvas: Canvas, scene: Scene, vp: Viewport, labels: list) -> N
 
 def _decorate(canvas: Canvas, scene: Scene, vp: Viewport) -> None:
     ascii_only = isinstance(canvas, AsciiCanvas)
-    arrow = north_arrow(scene.up_deg_true).text(ascii=ascii_only)
-    canvas.text(canvas.cols - len(arrow), 0, arrow, Role.ANNOTATION)
+    arrow = north_arrow(scene.up_deg_true).text(ascii=ascii_only) if scene.north_arrow else ""
+    key = (scene.key_note + " " + arrow).strip()
+    if key:
+        canvas.text(max(0, canvas.cols - len(key)), 0, key, Role.ANNOTATION)
     bar = scale_bar_text(vp, canvas, scene.scale_hint_nm)
     if bar:
         canvas.text(0, canvas.rows - 1, bar, Role.ANNOTATION)

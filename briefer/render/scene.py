@@ -1,4 +1,5 @@
-"""The plan view, described once and drawn three ways (braille/ASCII canvas, SVG, PDF primitives).
+"""The plan view, described once and drawn two ways (braille/ASCII canvas, PDF primitives);
+the side view of the sight picture (`side_scene`) is a Scene too.
 
 A `Scene` holds renderer-neutral items in local metres (x east, y north of the airfield reference
 point), each with a `Role`. Every role has one `RoleStyle` that says how each renderer draws it,
@@ -25,7 +26,8 @@ Point = tuple[float, float]
 
 
 class Role(str, Enum):
-    """What an item means on the plan view; decides how every renderer draws it."""
+    """What an item means on the plan view (or the side view); decides how every renderer
+    draws it."""
 
     PROTECTED_AREA = "protected_area"
     EXCLUDED_SECTOR = "excluded_sector"
@@ -39,6 +41,8 @@ class Role(str, Enum):
     RUNWAY = "runway"
     THRESHOLD = "threshold"
     ANNOTATION = "annotation"
+    GROUND = "ground"                     # the side view's ground line
+    CIRCLING_HEIGHT = "circling_height"   # the side view's line at circling height (the MDA's)
 
     def __str__(self) -> str:
         return self.value
@@ -152,6 +156,13 @@ ROLE_STYLES: Mapping[Role, RoleStyle] = MappingProxyType({s.role: s for s in (
               paper=PaperStyle(stroke_width_mm=0.3, fill_grey=1.0, colour_hex="#000000")),
     RoleStyle(role=_R.ANNOTATION, description="label", layer=11, priority=100, ascii_glyph="*",
               paper=PaperStyle(stroke_width_mm=0.3, fill_grey=0.0, colour_hex="#000000")),
+    RoleStyle(role=_R.GROUND, description="ground", layer=1, priority=40, ascii_glyph="_",
+              braille_dash=(12, 1), term_colour="#a1887f",
+              paper=PaperStyle(stroke_width_mm=0.35, colour_hex="#5d4037")),
+    RoleStyle(role=_R.CIRCLING_HEIGHT, description="circling height", layer=0, priority=15,
+              ascii_glyph="-", braille_dash=(1, 3), term_colour="#b0bec5", term_dim=True,
+              paper=PaperStyle(stroke_width_mm=0.2, dash_mm=(0.1, 0.8), stroke_grey=0.4, round_cap=True,
+                               colour_hex="#607d8b")),
 )})
 """The one drawing style of each role."""
 
@@ -392,6 +403,8 @@ class Scene:
             approach course).
         scale_hint_nm: The scale-bar length to use; None chooses one (`scale_bar_nm`).
         up_track_deg_true: The true direction at the top when `north_up` is False.
+        north_arrow: Draw the north arrow in the key (not on a side view).
+        key_note: A few words for the key, where the north arrow goes (e.g. "heights x3").
     """
 
     items: tuple[Item, ...]
@@ -399,6 +412,8 @@ class Scene:
     north_up: bool = True
     scale_hint_nm: float | None = None
     up_track_deg_true: float = 0.0
+    north_arrow: bool = True
+    key_note: str = ""
 
     def __post_init__(self) -> None:
         object.__setattr__(self, "items", tuple(self.items))
