@@ -32,7 +32,7 @@ References
 from __future__ import annotations
 
 import math
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from briefer._dataclass import dataclass, field
 from typing import TYPE_CHECKING, Any
 
@@ -373,6 +373,36 @@ def _radius(category: str, criteria: str, mda_ft: float, elevation_ft: float) ->
                                       airport_elevation_ft=elevation_ft)
 
 
+def _radius_and_mda(category: str, criteria: str, floor_ft: float, elev: float,
+                    evaluate: Callable[[cr.AreaRadius, float | None], tuple[RadiusStep, int | None, tuple[str, ...], float]],
+                    ) -> tuple[cr.AreaRadius, list[RadiusStep], int | None, tuple[str, ...], float]:
+    """The area radius and the MDA it gives (`evaluate`): once, or under ``terps-expanded`` the
+    fixed-point iteration of `practice_minimum` (Notes) until the radius repeats. Returns the
+    radius, the steps, and the last step's controlling obstacle index, obstacles ignored in
+    sectors and unrounded MDA."""
+    steps: list[RadiusStep] = []
+    if criteria == "terps-expanded":
+        guess = cr.round_mda_up_ft(floor_ft, criteria=criteria)
+        for _ in range(MAX_EXPANDED_ITERATIONS):
+            radius = _radius(category, criteria, guess, elev)
+            step, idx, ignored, raw = evaluate(radius, guess)
+            steps.append(step)
+            settled = _radius(category, criteria, step.mda_ft, elev)
+            if settled.radius_nm == radius.radius_nm:
+                radius = settled     # same radius; the band label of the final MDA
+                break
+            if step.mda_ft < guess:   # pragma: no cover - excluded by monotonicity (Notes)
+                raise DomainError("the expanded-radius iteration went down; the radius table is not monotone")
+            guess = step.mda_ft
+        else:   # pragma: no cover - excluded by monotonicity (Notes)
+            raise DomainError(f"the expanded-radius iteration did not settle in {MAX_EXPANDED_ITERATIONS} steps")
+    else:
+        radius = _radius(category, criteria, floor_ft, elev)
+        step, idx, ignored, raw = evaluate(radius, None)
+        steps.append(step)
+    return radius, steps, idx, ignored, raw
+
+
 def practice_minimum(category: str, *, criteria: str, centres_m: Any, airport_elevation_ft: float,
                      obstacles: Sequence[ObstaclePoint] = (),
                      excluded: Sequence[geometry.Sector] = ()) -> PracticeCategoryMinimum:
@@ -452,27 +482,7 @@ def practice_minimum(category: str, *, criteria: str, centres_m: Any, airport_el
                           controlling_obstacle=None if idx is None else fld.obstacles[idx].name, mda_ft=mda)
         return step, idx, ignored, raw
 
-    steps: list[RadiusStep] = []
-    if criteria == "terps-expanded":
-        guess = cr.round_mda_up_ft(floor_ft, criteria=criteria)
-        for _ in range(MAX_EXPANDED_ITERATIONS):
-            radius = _radius(category, criteria, guess, elev)
-            step, idx, ignored, raw = evaluate(radius, guess)
-            steps.append(step)
-            settled = _radius(category, criteria, step.mda_ft, elev)
-            if settled.radius_nm == radius.radius_nm:
-                radius = settled     # same radius; the band label of the final MDA
-                break
-            if step.mda_ft < guess:   # pragma: no cover - excluded by monotonicity (Notes)
-                raise DomainError("the expanded-radius iteration went down; the radius table is not monotone")
-            guess = step.mda_ft
-        else:   # pragma: no cover - excluded by monotonicity (Notes)
-            raise DomainError(f"the expanded-radius iteration did not settle in {MAX_EXPANDED_ITERATIONS} steps")
-    else:
-        radius = _radius(category, criteria, floor_ft, elev)
-        step, idx, ignored, raw = evaluate(radius, None)
-        steps.append(step)
-
+    radius, steps, idx, ignored, raw = _radius_and_mda(category, criteria, floor_ft, elev, evaluate)
     mda = steps[-1].mda_ft
     controlling = None
     controlled_by = CONTROLLED_BY_LOWEST_HEIGHT

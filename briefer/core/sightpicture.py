@@ -265,6 +265,31 @@ class SightPictureComparison:
                 raise DomainError("an impossible familiar turn exceeds the bank limit and the stall")
 
 
+def _familiar_turn(tas_kt: float, ias_kt: float, radius_m: float, *, bank_limit_deg: float, vs1g_kt: float,
+                   vref_kt: float, aoa_ref: float, aoa_stall: float, weight_ratio: float,
+                   ) -> tuple[bool, bool, bool, dict[str, float | None]]:
+    """The turn that fits the familiar picture's offset (`compare_sight_picture`, Notes): whether
+    a bank below 90 deg gives `radius_m` at `tas_kt`, whether that turn is beyond the stall,
+    whether it exceeds the bank limit, and its figures (all None when no bank fits)."""
+    try:
+        bank_need = float(bank_for_radius_deg(tas_kt, radius_m=radius_m))          # tan(bank) = V^2/(g r)
+        n_need = float(load_factor(bank_need))                                     # DomainError at 90 deg
+        possible = bank_need < 90.0
+    except DomainError:        # the radius is out of reach: no bank below 90 deg fits (shown to the crew)
+        possible = False
+    if not possible:
+        return False, True, True, dict(
+            familiar_turn_radius_m=None, familiar_bank_required_deg=None, familiar_load_factor=None,
+            familiar_stall_speed_kt=None, familiar_stall_margin_pct=None, familiar_aoa=None)
+    vs_turn = float(stall_speed_in_turn_kt(vs1g_kt, bank_need, weight_ratio=weight_ratio))
+    aoa = float(angle_of_attack_in_turn(ias_kt, bank_need, vref_kt=vref_kt, vs1g_kt=vs1g_kt,
+                                        aoa_ref=aoa_ref, aoa_stall=aoa_stall, weight_ratio=weight_ratio))
+    margin_pct = (ias_kt - vs_turn) / vs_turn * 100.0
+    return True, margin_pct < 0.0, bank_need > bank_limit_deg, dict(
+        familiar_turn_radius_m=radius_m, familiar_bank_required_deg=bank_need, familiar_load_factor=n_need,
+        familiar_stall_speed_kt=vs_turn, familiar_stall_margin_pct=margin_pct, familiar_aoa=aoa)
+
+
 def compare_sight_picture(*, circling_height_ft: float, planned_offset_nm: float, familiar_height_ft: float,
                           familiar_offset_nm: float, tas_kt: float, ias_kt: float, bank_planned_deg: float,
                           bank_limit_deg: float, vs1g_kt: float, vref_kt: float, aoa_ref: float,
@@ -359,28 +384,9 @@ def compare_sight_picture(*, circling_height_ft: float, planned_offset_nm: float
                             aoa_stall=aoa_stall, weight_ratio=weight_ratio)
 
     r_need_m = d_fam_circ_m / k                                                    # [2] r = d / 2 in still air
-    try:
-        bank_need = float(bank_for_radius_deg(tas_kt, radius_m=r_need_m))          # tan(bank) = V^2/(g r)
-        n_need = float(load_factor(bank_need))                                     # DomainError at 90 deg
-        possible = bank_need < 90.0
-    except DomainError:        # the radius is out of reach: no bank below 90 deg fits (shown to the crew)
-        possible = False
-    if possible:
-        vs_turn = float(stall_speed_in_turn_kt(vs1g_kt, bank_need, weight_ratio=weight_ratio))
-        aoa = float(angle_of_attack_in_turn(ias, bank_need, vref_kt=vref_kt, vs1g_kt=vs1g_kt,
-                                            aoa_ref=aoa_ref, aoa_stall=aoa_stall,
-                                            weight_ratio=weight_ratio))
-        margin_pct = (ias - vs_turn) / vs_turn * 100.0
-        beyond_stall = margin_pct < 0.0
-        exceeds = bank_need > bank_limit_deg
-        turn: dict[str, float | None] = dict(
-            familiar_turn_radius_m=r_need_m, familiar_bank_required_deg=bank_need,
-            familiar_load_factor=n_need, familiar_stall_speed_kt=vs_turn,
-            familiar_stall_margin_pct=margin_pct, familiar_aoa=aoa)
-    else:
-        beyond_stall = exceeds = True
-        turn = dict(familiar_turn_radius_m=None, familiar_bank_required_deg=None, familiar_load_factor=None,
-                    familiar_stall_speed_kt=None, familiar_stall_margin_pct=None, familiar_aoa=None)
+    possible, beyond_stall, exceeds, turn = _familiar_turn(
+        tas_kt, ias, r_need_m, bank_limit_deg=bank_limit_deg, vs1g_kt=vs1g_kt, vref_kt=vref_kt,
+        aoa_ref=aoa_ref, aoa_stall=aoa_stall, weight_ratio=weight_ratio)
 
     return SightPictureComparison(
         circling_height_ft=h_circ, planned_offset_nm=d_plan, planned_depression_deg=dep_plan,

@@ -20,7 +20,7 @@ Pure Python: no Rich, Textual or fpdf import.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from briefer._dataclass import dataclass
 
 from briefer.render.scene import Bounds, Label, Marker, Polyline, Role, Scene
 from briefer.result import Brief
