@@ -7,20 +7,25 @@ the saved files; `briefer.brief.build_brief` computes the brief the app must sho
 
 from __future__ import annotations
 
+from dataclasses import replace
+from pathlib import Path
+
 import pytest
-from forms_support import brief_json, type_fields
+from forms_support import brief_json, keys_of, type_fields
 from test_app_support import demo_catalog, demo_inputs, settle
 from test_forms_profile import NEW_AIRCRAFT
 
 from briefer.io.yamlload import load_airfield, load_profile
-from briefer.model import KIND_AIRFIELD, KIND_PROFILE, BriefRequest, Weather
+from briefer.model import KIND_AIRFIELD, KIND_PROFILE, Airfield, BriefRequest, Weather
 from briefer.tui.app import BriefingApp
 from briefer.tui.forms.airfield_form import AIRFIELD_FORM
+from briefer.tui.forms.app_hooks import form_loses
 from briefer.tui.forms.check import check_texts
 from briefer.tui.forms.plan import plan_scene
 from briefer.tui.forms.screen import FormScreen, widget_id
 from briefer.tui.forms.spec import to_mapping, to_texts
 from briefer.tui.forms.store import file_text, save_model, target_folder
+from briefer.tui.forms.values import number_text
 
 
 @pytest.fixture(autouse=True)
@@ -148,3 +153,129 @@ def test_the_plan_view_moves_with_a_wrong_bearing():
         return [i.point for i in scene.items if getattr(i, "text", None) == "M"]
 
     assert map_label(good) != map_label(bad)
+
+
+# --- airfields with latitude/longitude (every demo file, every import) --------------------------
+DEMO_FILES = sorted((Path(__file__).resolve().parents[1] / "airfields_demo").glob("*.yaml"))
+
+
+def _positions(mapping) -> list[tuple[str, float]]:
+    """Every latitude/longitude of a file mapping, with where it sits."""
+    out = []
+
+    def walk(value, where):
+        if isinstance(value, dict):
+            for k, v in value.items():
+                if k in ("lat_deg", "lon_deg"):
+                    out.append((f"{where}.{k}", v))
+                else:
+                    walk(v, f"{where}.{k}")
+        elif isinstance(value, list):
+            for i, v in enumerate(value):
+                walk(v, f"{where}[{i}]")
+
+    walk(mapping, "")
+    return out
+
+
+@pytest.mark.parametrize("path", DEMO_FILES, ids=lambda p: p.stem)
+def test_a_latitude_longitude_airfield_reads_back_through_the_form_to_the_last_digit(path, tmp_path):
+    """The form shows a file's latitude/longitude and gives them back unchanged: the model the
+    form's texts give equals the file's, and save -> load -> save is byte-identical."""
+    model = load_airfield(path)
+    texts = to_texts(AIRFIELD_FORM, model.to_mapping())
+    assert texts["runways"][0]["threshold_a"]["lat_deg"] == number_text(model.runways[0].threshold_a.lat_deg)
+    verdict = check_texts(AIRFIELD_FORM, texts)
+    assert verdict.ok, (verdict.errors, verdict.required, verdict.general)
+    assert verdict.model == model
+    assert _positions(verdict.model.to_mapping()) == _positions(model.to_mapping())
+    assert form_loses(AIRFIELD_FORM, model.to_mapping(), model) == ""
+    out = tmp_path / "again.yaml"
+    save_model(KIND_AIRFIELD, verdict.model, out, overwrite=False)
+    again = load_airfield(out)
+    assert again == model
+    assert file_text(KIND_AIRFIELD, again).encode() == out.read_bytes()
+
+
+def test_an_imported_airfield_reads_back_through_the_form():
+    """The import's file (positions to six decimals, no variation: the World Magnetic Model's)."""
+    from briefer.io.runway_import import import_airfield
+    from briefer.io.yamlload import load_bytes
+
+    root = Path(__file__).resolve().parents[1] / "examples" / "open-airport-data"
+    result = import_airfield("W5TB", root / "airports.csv", root / "runways.csv")
+    mapping = dict(result.mapping, approaches=[{
+        "name": "VOR-A", "final_course_deg_mag": 40, "criteria": "terps-legacy",
+        "faf": {"name": "F1", "distance_nm": 5, "altitude_ft": 3500},
+        "map_fix": {"name": "M1", "threshold": "04"}, "circling": {"A": {"mda_ft": 2400, "visibility_sm": 1}}}])
+    model = Airfield.from_mapping(mapping)
+    assert model.variation_model is not None and model.runways[0].threshold_b.displaced_threshold_m
+    texts = to_texts(AIRFIELD_FORM, model.to_mapping())
+    assert texts["magnetic_variation_deg"] == ""                # still the model's, as the file says
+    verdict = check_texts(AIRFIELD_FORM, texts)
+    assert verdict.ok and verdict.model == model
+    assert _positions(verdict.model.to_mapping()) == _positions(mapping)
+    text = file_text(KIND_AIRFIELD, verdict.model)
+    assert file_text(KIND_AIRFIELD, load_bytes(text.encode(), file="x.yaml", expected_kind=KIND_AIRFIELD)) == text
+
+
+def test_the_form_shows_latitude_longitude_only_where_the_file_has_them():
+    from briefer.tui.forms.screen import _shown
+
+    lat = next(f for f in AIRFIELD_FORM.items[2].items[0].items if f.key == "lat_deg")
+    assert lat.reveal
+    assert _shown(lat, {"lat_deg": "36.933184"}) and not _shown(lat, {"lat_deg": ""})
+
+
+async def test_edit_a_latitude_longitude_airfield_add_an_approach_and_brief_it():
+    """F3 on a demo airfield given by latitude/longitude opens it; an approach typed from the
+    chart is added; the saved file keeps every latitude/longitude and the brief uses the new
+    approach."""
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        await pilot.press("2")
+        await pilot.pause()
+        app.inputs = replace(app.inputs, airfield="Q7HM", approach="VOR-A", landing_runway="31")
+        await settle(app, pilot)
+        await pilot.press("f3")
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, FormScreen), "F3 did not open the form"
+        lat = screen._inputs[("runways", 0, "threshold_a", "lat_deg")]
+        assert lat.value == "36.933184"
+        assert ("approaches", 0, "map_fix", "distance_nm") in screen._inputs      # chart fields stay
+        n = len(screen.texts["approaches"])
+        add = screen.query_one("#" + widget_id("add", ("approaches",)))
+        add.focus()
+        await pilot.press("enter")
+        await pilot.pause()
+        ap = ("approaches", n)
+        assert (ap + ("map_fix", "lat_deg")) not in screen._inputs     # a new approach: chart numbers
+        await type_fields(pilot, [
+            (ap + ("name",), "NDB-C"), (ap + ("final_course_deg_mag",), "130"),
+            (ap + ("map_fix", "name"), "QMN NDB"), (ap + ("map_fix", "from_point"), "ARP"),
+            (ap + ("map_fix", "distance_nm"), "0.8"), (ap + ("map_fix", "bearing_deg_mag"), "300"),
+            (ap + ("faf", "name"), "QMN5"), (ap + ("faf", "distance_nm"), "5"),
+            (ap + ("faf", "altitude_ft"), "7800"),
+            (ap + ("circling", 0, "minimum"), "6700"), (ap + ("circling", 0, "visibility"), "1"),
+            (ap + ("circling", 1, "minimum"), "6700"), (ap + ("circling", 1, "visibility"), "1 1/4"),
+            (ap + ("circling", 2, "minimum"), "6760"), (ap + ("circling", 2, "visibility"), "2"),
+            (ap + ("circling", 3, "minimum"), "NA"), (ap + ("circling", 3, "reason"), "terrain"),
+            (ap + ("criteria",), "terps-legacy"),
+        ])
+        screen.revalidate()
+        assert screen.verdict.ok, (screen.verdict.errors, screen.verdict.required, screen.verdict.general)
+        await pilot.press("ctrl+s")
+        await pilot.pause()
+        assert not isinstance(app.screen, FormScreen), screen.status_text
+        await settle(app, pilot)
+        path = target_folder(KIND_AIRFIELD).folder / "q7hm-qorvel-mesa.yaml"
+        saved = load_airfield(path)
+        demo = load_airfield(DEMO_FILES[0])
+        assert _positions(saved.to_mapping()) == _positions(demo.to_mapping())      # to the last digit
+        assert saved.approaches[:n] == demo.approaches and saved.approaches[n].name == "NDB-C"
+        assert file_text(KIND_AIRFIELD, saved).encode() == path.read_bytes()
+        assert (app.inputs.airfield, app.inputs.approach) == ("Q7HM", "NDB-C")
+        assert app.request.airfield == saved
+

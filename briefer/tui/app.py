@@ -193,6 +193,15 @@ class BriefingApp(App[None]):
                                           for rw in af.runways for t in (rw.threshold_a, rw.threshold_b)]
         self.main.set_choices("runway-list", runways, inputs.landing_runway)
 
+    def use_catalog(self, catalog: AppCatalog, inputs: BriefingInputs) -> None:
+        """Use a changed catalog (a form saved a file into it) with these choices, and brief
+        again at once, also when the names chosen are the same (their data changed)."""
+        self.catalog = catalog
+        self._push_lists(inputs)
+        if inputs == self.inputs:
+            self._schedule(0.0)
+        self.inputs = inputs
+
     def _show_report_placeholders(self, report_text: str) -> None:
         """Empty weather fields show what the report gives."""
         from briefer.io.metar import weather_from_metar

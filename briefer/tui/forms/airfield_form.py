@@ -30,12 +30,20 @@ from briefer.tui.forms.spec import Field, FormSpec, Group, Repeat
 
 DISTANCE_ALT = {"ft": ("distance_ft", 1.0), "m": ("distance_m", 1.0)}
 BEARING_ALT = {"°T": ("bearing_deg_true", 1.0)}
+TDZE_ALT = {"TDZE": ("tdze_ft", 1.0)}
+"""'5990 TDZE': the chart prints the touchdown zone elevation instead of the threshold's."""
+
+_LATLON = (Field("lat_deg", "Latitude", "number", "°", width=12, reveal=True),
+           Field("lon_deg", "Longitude", "number", "°", width=12, reveal=True))
+"""A file's latitude/longitude (an imported or hand-written airfield): shown where the file has
+them, kept to the last digit; the chart's numbers need none."""
 
 
 def _threshold(key: str, title: str) -> Group:
     return Group(key, title, (
         Field("designator", "Designator", width=5, hint="13"),
-        Field("elevation_ft", "Elevation", "number", "ft", width=7, hint="or TDZE"),
+        *_LATLON,
+        Field("elevation_ft", "Elevation", "number", "ft", width=7, hint="or TDZE", alt=TDZE_ALT),
         Field("displaced_threshold_m", "Displaced by", "number", "m", width=7, hint="optional"),
         Field("tch_ft", "TCH", "number", "ft", width=7, hint="50"),
         Field("glide_path_deg", "Glide path", "number", "°", width=7, hint="3.0"),
@@ -45,16 +53,23 @@ def _threshold(key: str, title: str) -> Group:
 def _fix(key: str, title: str, *, faf: bool) -> Group:
     place: tuple[Field, ...] = (
         Field("name", "Name", width=10, hint="QRV VOR" if not faf else "QMA6D"),
+        *_LATLON,
     )
     if faf:
         place += (Field("distance_nm", "Before the MAP", "number", "NM", width=6, alt=DISTANCE_ALT),
-                  Field("altitude_ft", "Altitude", "number", "ft", width=7))
+                  Field("altitude_ft", "Altitude", "number", "ft", width=7),
+                  # a file may place its FAF as the MAP is placed (shown when it does)
+                  Field("threshold", "At threshold", width=5, reveal=True),
+                  Field("from_point", "From point", width=5, reveal=True),
+                  Field("bearing_deg_mag", "Bearing from it", "number", "°M", width=6, alt=BEARING_ALT,
+                        reveal=True))
         note = "(distance along the final course to the MAP)"
     else:
         place += (Field("threshold", "At threshold", width=5, hint="or blank"),
                   Field("distance_nm", "Distance", "number", "NM", width=6, alt=DISTANCE_ALT, hint="optional"),
                   Field("from_point", "or from point", width=5, hint="13 / ARP"),
-                  Field("bearing_deg_mag", "Bearing from it", "number", "°M", width=6, alt=BEARING_ALT))
+                  Field("bearing_deg_mag", "Bearing from it", "number", "°M", width=6, alt=BEARING_ALT),
+                  Field("altitude_ft", "Altitude", "number", "ft", width=7, reveal=True))
         note = "(at a threshold, a distance before it, or a distance and bearing from a point)"
     return Group(key, f"{title} {note}", place, check=lambda m, p: Fix.from_mapping(m, path=p))
 
@@ -160,6 +175,7 @@ AIRFIELD_FORM = FormSpec(
         Repeat("obstacles", "Obstacles (optional)", "Obstacle", (
             Field("name", "Name", width=10),
             Field("kind", "Kind", "choice", width=9, hint="tower"),
+            *_LATLON,
             Field("from_point", "From point", width=5, hint="13 / ARP"),
             Field("distance_nm", "Distance", "number", "NM", width=6, alt=DISTANCE_ALT),
             Field("bearing_deg_mag", "Bearing", "number", "°M", width=6, alt=BEARING_ALT),
@@ -171,19 +187,6 @@ AIRFIELD_FORM = FormSpec(
 """The airfield form (obstacle kinds: see `briefer.model.OBSTACLE_KINDS`)."""
 
 _ = OBSTACLE_KINDS
-
-
-def has_coordinates(mapping: dict[str, Any]) -> bool:
-    """True when any position of an airfield file is latitude/longitude (the form enters the
-    chart's numbers, so it would not keep them)."""
-    def any_latlon(value: Any) -> bool:
-        if isinstance(value, dict):
-            return "lat_deg" in value or any(any_latlon(v) for k, v in value.items() if k != "reference_point")
-        if isinstance(value, list):
-            return any(any_latlon(v) for v in value)
-        return False
-
-    return any_latlon({k: v for k, v in mapping.items() if k != "reference_point"})
 
 
 # --------------------------------------------------------------------------------------------

@@ -55,16 +55,29 @@ def form_for(app: BriefingApp, kind: str, *, edit: bool) -> FormScreen | str:
         if item is None or model is None:
             return f"'{name}' cannot be read, so it cannot be edited; fix the file or start a new one (F2)"
         mapping = model.to_mapping()
-        if kind == KIND_AIRFIELD:
-            from briefer.tui.forms.airfield_form import has_coordinates
-
-            if has_coordinates(mapping):
-                return (f"{name} gives its runways or fixes by latitude/longitude; the form enters the chart's "
-                        f"numbers (headings, lengths, distances and bearings), so edit {item.source or 'its file'} "
-                        f"by hand, or enter it anew with F2")
+        lost = form_loses(_spec(kind), mapping, model)
+        if lost:
+            return (f"the form cannot show everything {item.source or name} holds ({lost}), so it would not "
+                    f"save it back unchanged; edit the file by hand, or start a new one (F2)")
         source, builtin = item.source, item.builtin or not item.source
     return FormScreen(_spec(kind), mapping=mapping, source=source, builtin=builtin, side=_painter(kind),
                       ascii=bool(getattr(app, "ascii", False)))
+
+
+def form_loses(spec: Any, mapping: dict[str, Any], model: Any) -> str:
+    """What a form would change of a file it opens ('' when nothing): the form's texts for the
+    file must read back to the very same model, so saving without an edit changes nothing."""
+    from briefer.tui.forms.check import check_texts
+    from briefer.tui.forms.spec import to_texts
+
+    verdict = check_texts(spec, to_texts(spec, mapping))
+    if verdict.model == model:
+        return ""
+    problem = verdict.first_problem()
+    if problem is None:
+        return "a value the form has no field for"
+    where = ".".join(str(p) for p in problem[0]) if problem[0] else ""
+    return f"{where}: {problem[1]}" if where else problem[1]
 
 
 def open_form(app: BriefingApp, *, edit: bool) -> None:
@@ -103,8 +116,8 @@ def use_saved(app: BriefingApp, saved: Saved | None) -> None:
     """Put a saved profile or airfield in the catalog, choose it, and brief with it."""
     if saved is None:
         return
-    catalog = getattr(app.catalog, "catalog", app.catalog)     # a LazyCatalog reads itself here
-    app.catalog = _catalog_with(catalog, saved)
+    before = getattr(app.catalog, "catalog", app.catalog)     # a LazyCatalog reads itself here
+    catalog = _catalog_with(before, saved)
     cur = app.inputs
     model = saved.model
     if saved.kind == KIND_PROFILE:
@@ -113,17 +126,21 @@ def use_saved(app: BriefingApp, saved: Saved | None) -> None:
         new = replace(cur, profile=model.name, configuration=cfg)
     else:
         approaches = [a.name for a in model.approaches]
-        approach = cur.approach if cur.approach in approaches else approaches[0]
+        old = before.airfield(model.ident)     # None: new, or a file that did not read
+        added = [a for a in approaches if old is not None and a not in {x.name for x in old.approaches}]
+        if added:                   # an approach added to an airfield: brief it
+            approach = added[-1]
+        elif cur.airfield.upper() == model.ident and cur.approach in approaches:
+            approach = cur.approach
+        else:
+            approach = approaches[0]
         designators = [t.designator for t in model.thresholds]
         runway = cur.landing_runway
         if runway not in designators:
             ap = model.approach(approach)
             runway = next((d for d in designators if d != ap.runway), designators[0])
         new = replace(cur, airfield=model.ident, approach=approach, landing_runway=runway)
-    app._push_lists(new)
-    if new == cur:
-        app._schedule(0.0)          # same names, new data: brief again
-    app.inputs = new
+    app.use_catalog(catalog, new)
     app.notify(f"Saved {saved.path}; the brief now uses it.", timeout=6)
 
 

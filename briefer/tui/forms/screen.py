@@ -189,7 +189,8 @@ class FormScreen(Screen[Saved | None]):
         out: list[Widget] = []
         for item in items:
             if isinstance(item, Field):
-                out.append(self._field_line(item, texts, fpath))
+                if _shown(item, texts):
+                    out.append(self._field_line(item, texts, fpath))
             elif isinstance(item, Group):
                 if item.title:
                     out.append(Static(item.title, classes="form-heading", markup=False))
@@ -220,6 +221,8 @@ class FormScreen(Screen[Saved | None]):
             cells: list[Widget] = []
             for f in rep.items:
                 assert isinstance(f, Field)
+                if not _shown(f, row):
+                    continue
                 if f.label:
                     cells.append(Label(f.label, classes="form-cell-label"))
                 cells.append(self._input(f, row, ipath + (f.key,)))
@@ -558,6 +561,11 @@ class FormScreen(Screen[Saved | None]):
                 self.dismiss(None)
 
         self.app.push_screen(ConfirmClose(), chosen)
+
+
+def _shown(f: Field, texts: dict[str, Any]) -> bool:
+    """A field gets a line unless it is one shown only when it holds text (`Field.reveal`)."""
+    return not f.reveal or bool(str(texts.get(f.key, "")).strip())
 
 
 def _child(items: tuple[Item, ...], tok: object) -> Item | None:

@@ -38,6 +38,9 @@ class Field:
         hint: Placeholder (an example, or the default the chart leaves out).
         alt: Other typed units: unit -> (file key, factor).
         owns: The file keys this field writes (default: its key).
+        reveal: Shown only when it holds text as the form is built: a form the chart does not
+            print but a file may hold (latitude/longitude of an imported or hand-written
+            airfield), kept and editable, out of the way of a crew entering the chart's numbers.
     """
 
     key: str
@@ -48,6 +51,7 @@ class Field:
     hint: str = ""
     alt: Mapping[str, tuple[str, float]] = field(default_factory=dict)
     owns: tuple[str, ...] = ()
+    reveal: bool = False
 
     @property
     def file_keys(self) -> tuple[str, ...]:

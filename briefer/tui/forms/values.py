@@ -184,7 +184,10 @@ def number_text(value: Any) -> str:
         return "yes" if value else "no"
     if isinstance(value, (int, float)):
         v = tidy_number(value)
-        return str(v) if isinstance(v, int) else f"{v:.10g}"
+        if isinstance(v, int):
+            return str(v)
+        short = f"{v:.10g}"
+        return short if float(short) == v else repr(v)     # every digit the file holds, read back equal
     return str(value)
 
 
