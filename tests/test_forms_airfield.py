@@ -279,3 +279,40 @@ async def test_edit_a_latitude_longitude_airfield_add_an_approach_and_brief_it()
         assert (app.inputs.airfield, app.inputs.approach) == ("Q7HM", "NDB-C")
         assert app.request.airfield == saved
 
+
+def _burst(app, text: str) -> None:
+    """Keys as a fast typist or a slow link delivers them: all queued at once, before the app
+    has handled the first (the Pilot's own press waits for each)."""
+    from textual import events
+
+    for char, key in zip(text, keys_of(text)):
+        key = "enter" if char == "\r" else key
+        event = events.Key(key, char if char.isprintable() else None)
+        event.set_sender(app)
+        app._driver.send_message(event)
+
+
+async def test_keys_typed_right_after_enter_on_add_land_in_the_new_row():
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        await pilot.press("2")
+        await pilot.pause()
+        await pilot.press("f2")
+        await pilot.pause()
+        screen = app.screen
+        rpath = AP + ("not_authorised_sectors",)
+        screen.query_one("#" + widget_id("add", rpath)).focus()
+        await pilot.pause()
+        _burst(app, "\rsouth of 08/26\tterrain")
+        for _ in range(25):
+            await pilot.pause(0.02)
+        assert screen.texts["approaches"][0]["not_authorised_sectors"] == [
+            {"where": "south of 08/26", "reason": "terrain"}]
+        # the same after ctrl+n in a group, and on an item of fields (a runway)
+        screen.query_one("#" + widget_id("add", ("runways",))).focus()
+        await pilot.pause()
+        _burst(app, "\r18\t")
+        for _ in range(25):
+            await pilot.pause(0.02)
+        assert screen.texts["runways"][1]["threshold_a"]["designator"] == "18"

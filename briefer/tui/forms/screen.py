@@ -477,7 +477,9 @@ class FormScreen(Screen[Saved | None]):
         await self.query_one("#form-body", VerticalScroll).mount(box, before=button)
         target = next((w for p, w in self._inputs.items() if p[: len(rpath) + 1] == rpath + (index,)), None)
         if target is not None:
-            target.focus()
+            # At once, not after the queued events as `Widget.focus` does: keys typed right after
+            # Enter are already waiting, and they belong to the new row.
+            self.set_focus(target)
         self.revalidate()
 
     async def action_remove_row(self) -> None:
@@ -505,7 +507,7 @@ class FormScreen(Screen[Saved | None]):
         if target is None and add_button is not None:
             target = self.query_one("#" + widget_id("add", add_button), Button)
         if target is not None:
-            target.focus()
+            self.set_focus(target)          # before the keys already queued (see `_add_at`)
 
     def action_page(self, direction: int) -> None:
         body = self.query_one("#form-body", VerticalScroll)
