@@ -20,6 +20,7 @@ import numpy as np
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
+from conftest import demo_landings, designator_heading_deg
 from numpy.testing import assert_allclose
 
 from briefer import brief as brief_mod
@@ -429,9 +430,8 @@ def test_json_is_strict_json_with_the_cautions(req):
 
 # --- never raises over the demo data ---------------------------------------------------------------
 def _weathers(landing_designator: str) -> dict[str, dict]:
-    """Weathers relative to the landing runway (its designator x 10 is its magnetic heading,
-    close enough for a crosswind or a tailwind)."""
-    hdg = int(landing_designator.rstrip("LCR")) * 10.0
+    """Weathers relative to the landing runway (`designator_heading_deg`)."""
+    hdg = designator_heading_deg(landing_designator)
     mag = dict(wind_reference="magnetic")
     return {
         "calm": dict(FAIR),
@@ -445,19 +445,10 @@ def _weathers(landing_designator: str) -> dict[str, dict]:
 
 
 def _all_demo_requests():
-    profiles = [e.name for e in catalog.list_profiles(use_config=False) if e.builtin and e.error is None]
-    airfields = [e.name for e in catalog.list_airfields(use_config=False) if e.builtin and e.error is None]
-    for p in profiles:
-        prof = catalog.find_profile(p, use_config=False)
-        for a in airfields:
-            af = catalog.find_airfield(a, use_config=False)
-            for appr in af.approaches:
-                for rw in af.runways:
-                    for des in (rw.threshold_a.designator, rw.threshold_b.designator):
-                        for name, wx in _weathers(des).items():
-                            yield (f"{p}/{a}/{appr.name}/{des}/{name}",
-                                   BriefRequest(profile=prof, airfield=af, approach=appr.name, landing_runway=des,
-                                                weather=Weather(**wx)))
+    for label, prof, af, approach, des in demo_landings():
+        for name, wx in _weathers(des).items():
+            yield (f"{label}/{name}", BriefRequest(profile=prof, airfield=af, approach=approach, landing_runway=des,
+                                                   weather=Weather(**wx)))
 
 
 def test_build_brief_never_raises_over_the_demo_data():

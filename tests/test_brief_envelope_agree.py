@@ -16,10 +16,10 @@ from __future__ import annotations
 
 import numpy as np
 import pytest
+from conftest import demo_landings, designator_heading_deg
 
 from briefer.brief import build_brief, envelope_for, situation
 from briefer.core.maneuver import DENSE_CHECK_M, DOES_NOT_FIT, FITS, MARGINAL
-from briefer.io import catalog
 from briefer.model import BriefRequest, Weather
 
 pytestmark = pytest.mark.slow   # a sweep or fuzz: `-m "not slow"` skips it in a quick run
@@ -30,17 +30,9 @@ WINDS = [(0.0, 0.0), (0.0, 20.0), (60.0, 15.0), (100.0, 30.0), (180.0, 12.0), (2
 
 
 def demo_situations():
-    """(label, profile, airfield, approach name, landing designator) for every built-in case."""
-    profiles = sorted(e.name for e in catalog.list_profiles(use_config=False) if e.builtin and e.error is None)
-    airfields = sorted(e.name for e in catalog.list_airfields(use_config=False) if e.builtin and e.error is None)
-    for p in profiles:
-        prof = catalog.find_profile(p, use_config=False)
-        for a in airfields:
-            af = catalog.find_airfield(a, use_config=False)
-            for appr in af.approaches:
-                for rw in af.runways:
-                    for des in (rw.threshold_a.designator, rw.threshold_b.designator):
-                        yield pytest.param(prof, af, appr.name, des, id=f"{p}/{a}/{appr.name}/{des}")
+    """(profile, airfield, approach name, landing designator) for every built-in case."""
+    for label, prof, af, approach, des in demo_landings():
+        yield pytest.param(prof, af, approach, des, id=label)
 
 
 def _verdict(brief) -> int:
@@ -52,7 +44,7 @@ def _verdict(brief) -> int:
 
 @pytest.mark.parametrize("prof, af, approach, des", list(demo_situations()))
 def test_brief_and_envelope_agree_on_a_grid_of_winds(prof, af, approach, des):
-    hdg = int(des.rstrip("LCR")) * 10.0
+    hdg = designator_heading_deg(des)
     seen = set()
     for rel_mag, speed in WINDS:
         wx = dict(FAIR, wind_from_deg=(hdg + rel_mag) % 360.0, wind_speed_kt=speed, wind_reference="magnetic")

@@ -18,10 +18,10 @@ import os
 from pathlib import Path
 
 import pytest
+from conftest import demo_landings, designator_heading_deg
 
 from briefer.brief import build_brief
 from briefer.commands._common import _jsonable
-from briefer.io import catalog
 from briefer.model import BriefRequest, Weather
 from briefer.render.brief_json import brief_to_dict
 
@@ -34,7 +34,7 @@ FAIR = dict(wind_speed_kt=0.0, oat_c=15.0, altimeter_hpa=1013.0, visibility_sm=6
 
 def _weathers(landing_designator: str) -> dict[str, dict]:
     """Weathers relative to the landing runway (designator x 10 as its magnetic heading)."""
-    hdg = int(landing_designator.rstrip("LCR")) * 10.0
+    hdg = designator_heading_deg(landing_designator)
     mag = dict(wind_reference="magnetic")
     return {
         "calm": dict(FAIR),
@@ -50,19 +50,10 @@ def _weathers(landing_designator: str) -> dict[str, dict]:
 
 def demo_cases():
     """(label, request) for every built-in profile x airfield x approach x runway end x weather."""
-    profiles = sorted(e.name for e in catalog.list_profiles(use_config=False) if e.builtin and e.error is None)
-    airfields = sorted(e.name for e in catalog.list_airfields(use_config=False) if e.builtin and e.error is None)
-    for p in profiles:
-        prof = catalog.find_profile(p, use_config=False)
-        for a in airfields:
-            af = catalog.find_airfield(a, use_config=False)
-            for appr in af.approaches:
-                for rw in af.runways:
-                    for des in (rw.threshold_a.designator, rw.threshold_b.designator):
-                        for name, wx in _weathers(des).items():
-                            yield (f"{p}/{a}/{appr.name}/{des}/{name}",
-                                   BriefRequest(profile=prof, airfield=af, approach=appr.name,
-                                                landing_runway=des, weather=Weather(**wx)))
+    for label, prof, af, approach, des in demo_landings():
+        for name, wx in _weathers(des).items():
+            yield (f"{label}/{name}", BriefRequest(profile=prof, airfield=af, approach=approach, landing_runway=des,
+                                                   weather=Weather(**wx)))
 
 
 def digests(req: BriefRequest) -> dict[str, str]:
