@@ -383,3 +383,16 @@ def test_unwritable_and_missing_places(tmp_path: Path, monkeypatch: pytest.Monke
     with pytest.raises(FileWriteError) as info:
         write_text_atomic(tmp_path / "card.txt", "x")
     assert str(info.value) == f"cannot write {tmp_path / 'card.txt'}: permission denied"
+
+
+def test_reading_and_writing_say_why_in_one_wording(tmp_path: Path) -> None:
+    """A file name longer than the file system allows (POSIX NAME_MAX, 255 bytes on Linux file
+    systems) fails alike for the loaders and the atomic writer: the same words after each one's
+    own opening."""
+    long_name = tmp_path / ("x" * 300 + ".yaml")
+    with pytest.raises(DataFileError) as read:
+        safefile.read_regular_file(long_name)
+    with pytest.raises(FileWriteError) as write:
+        write_text_atomic(long_name, "x")
+    assert str(read.value).endswith("cannot read the file (the file name is too long)")
+    assert str(write.value).endswith(": the file name is too long")

@@ -14,7 +14,6 @@ link stays), while a directory, FIFO, device node or socket is refused (``--forc
 
 from __future__ import annotations
 
-import errno
 import os
 import re
 import secrets
@@ -41,18 +40,6 @@ class FileWriteError(BriefingError):
 
     def __str__(self) -> str:
         return f"cannot write {escape_text(self.path)}: {self.reason}"
-
-
-def _reason(exc: OSError) -> str:
-    if isinstance(exc, PermissionError):
-        return "permission denied"
-    if exc.errno == errno.ENOSPC:
-        return "no space left on the device"
-    if exc.errno == errno.EROFS:
-        return "the file system is read-only"
-    if exc.errno == errno.ENAMETOOLONG:
-        return "the file name is too long"
-    return exc.strerror or str(exc)
 
 
 def _fsync_dir(directory: Path) -> None:
@@ -171,7 +158,7 @@ def resolve_target(path: str | PathLike[str], *, overwrite: bool = False) -> Pat
         if st is not None and not overwrite:
             raise FileWriteError(path, "the file already exists (not overwritten; ask to overwrite it)")
     except OSError as exc:
-        raise FileWriteError(path, _reason(exc)) from None
+        raise FileWriteError(path, safefile.os_reason(exc)) from None
     return target
 
 
@@ -195,7 +182,7 @@ def write_bytes_atomic(path: str | PathLike[str], data: bytes, *, overwrite: boo
             fd = os.open(tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL | getattr(os, "O_BINARY", 0), 0o666)
         except OSError as exc:
             _pending.discard(str(tmp))
-            raise FileWriteError(path, _reason(exc)) from None
+            raise FileWriteError(path, safefile.os_reason(exc)) from None
         try:
             with os.fdopen(fd, "wb") as fh:
                 fh.write(data)
@@ -218,7 +205,7 @@ def write_bytes_atomic(path: str | PathLike[str], data: bytes, *, overwrite: boo
         except FileWriteError:
             raise
         except OSError as exc:
-            raise FileWriteError(path, _reason(exc)) from None
+            raise FileWriteError(path, safefile.os_reason(exc)) from None
         finally:
             try:
                 os.unlink(tmp)

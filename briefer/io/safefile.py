@@ -46,18 +46,30 @@ def kind_of(mode: int) -> str:
     return "not a regular file"
 
 
+_ERRNO_WORDS = {
+    errno.ENOSPC: "no space left on the device",
+    errno.EROFS: "the file system is read-only",
+    errno.ENAMETOOLONG: "the file name is too long",
+    errno.ELOOP: "too many levels of symbolic links",
+    errno.ENOTDIR: "a part of the path is not a folder",
+}
+
+
+def os_reason(exc: OSError) -> str:
+    """Why an operating-system call on a file failed, in the tool's words: one wording for
+    reading (`_os_reason`) and for writing (`briefer.io.atomic`)."""
+    if isinstance(exc, PermissionError):
+        return "permission denied"
+    return _ERRNO_WORDS.get(exc.errno or 0, exc.strerror or str(exc))
+
+
 def _os_reason(exc: OSError) -> str:
+    """A failed read, said as the loaders say it."""
     if isinstance(exc, FileNotFoundError):
         return "no such file"
-    if isinstance(exc, PermissionError):
-        return "cannot read the file (permission denied)"
-    if exc.errno == errno.ENAMETOOLONG:
-        return "cannot read the file (the name is too long)"
-    if exc.errno == errno.ELOOP:
-        return "cannot read the file (too many levels of symbolic links)"
     if exc.errno == errno.ENOTDIR:
-        return "no such file (a part of the path is not a folder)"
-    return f"cannot read the file ({exc.strerror or exc})"
+        return f"no such file ({os_reason(exc)})"
+    return f"cannot read the file ({os_reason(exc)})"
 
 
 def _check(mode: int, size: int, name: str, limit: int, what: str) -> None:
