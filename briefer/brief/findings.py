@@ -1,8 +1,10 @@
-"""A list of findings that a section of the brief fills in order (the Brief sorts them by
-severity, keeping this order within a severity)."""
+"""What every section builder of the brief shares: the list of findings it fills in order (the
+Brief sorts them by severity, keeping this order within a severity), and the result it returns
+(`SectionResult`: its parts of the brief and those findings)."""
 
 from __future__ import annotations
 
+from briefer._dataclass import dataclass
 from briefer.result import Finding
 
 
@@ -11,3 +13,11 @@ class FindingList(list[Finding]):
 
     def add(self, severity: str, code: str, text: str) -> None:
         self.append(Finding(severity=severity, code=code, text=text))
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class SectionResult:
+    """What a section builder returns: its parts of the brief (the subclass's fields) and its
+    findings, in the order found."""
+
+    findings: tuple[Finding, ...]

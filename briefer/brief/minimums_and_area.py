@@ -16,27 +16,26 @@ import numpy as np
 
 from briefer import units
 from briefer.brief.circling_only import circling_only_reasons
-from briefer.brief.findings import FindingList
+from briefer.brief.findings import FindingList, SectionResult
 from briefer.brief.situation_inputs import Situation
 from briefer.brief.variation import variation_findings
 from briefer.core import coldtemp, criteria, minimums
 from briefer.model import Sector
 from briefer.wording import visibility_words
 from briefer.result import (
-    AreaInfo, CategoryInfo, ColdCorrection, Finding, MinimumsInfo, ObstacleDrawing, frozen_array,
+    AreaInfo, CategoryInfo, ColdCorrection, MinimumsInfo, ObstacleDrawing, frozen_array,
 )
 
 COLD_CORRECTION_AT_OR_BELOW_C = 0.0
 
 
-@dataclass(frozen=True, slots=True)
-class MinimumsAndArea:
-    """The brief's category, minimums and obstacles, with their findings in order."""
+@dataclass(frozen=True, slots=True, kw_only=True)
+class MinimumsAndArea(SectionResult):
+    """The brief's category, minimums and obstacles."""
 
     category: CategoryInfo
     minimums: MinimumsInfo
     obstacles: tuple[ObstacleDrawing, ...]
-    findings: tuple[Finding, ...]
 
 
 def minimums_and_area_section(s: Situation) -> MinimumsAndArea:

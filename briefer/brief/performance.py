@@ -9,22 +9,21 @@ from __future__ import annotations
 
 from briefer._dataclass import dataclass
 
-from briefer.brief.findings import FindingList
+from briefer.brief.findings import FindingList, SectionResult
 from briefer.brief.situation_inputs import Situation
 from briefer.core import atmosphere, criteria, turn
 from briefer.errors import DomainError
-from briefer.result import Finding, PerformanceInfo
+from briefer.result import PerformanceInfo
 
 STALL_MARGIN_WARNING_PCT = 15.0
 
 
-@dataclass(frozen=True, slots=True)
-class Performance:
-    """The brief's performance part, the radius the turn needs today, and the findings."""
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Performance(SectionResult):
+    """The brief's performance part and the radius the turn needs today."""
 
     performance: PerformanceInfo
     required_radius_nm: float
-    findings: tuple[Finding, ...]
 
 
 def performance_section(s: Situation) -> Performance:

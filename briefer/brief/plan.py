@@ -12,12 +12,12 @@ from briefer._dataclass import dataclass
 import numpy as np
 
 from briefer import units
-from briefer.brief.findings import FindingList
+from briefer.brief.findings import FindingList, SectionResult
 from briefer.brief.roll_out import choose_with_closer_roll_out
 from briefer.brief.situation_inputs import Situation
 from briefer.core import geometry, maneuver
 from briefer.core.manoeuvre.missed import headline_missed_direction
-from briefer.result import Alternative, Finding, MissedApproachInfo, PlanInfo, frozen_array
+from briefer.result import Alternative, MissedApproachInfo, PlanInfo, frozen_array
 
 CENTRELINE_BAND_M = 30.0   # points this close to the extended centreline are "on the final"
 
@@ -30,14 +30,13 @@ SHAPE_TEXT = {
 }
 
 
-@dataclass(frozen=True, slots=True)
-class PlanPart:
-    """The brief's plan and missed-approach parts, the solver's plan behind them, and the findings."""
+@dataclass(frozen=True, slots=True, kw_only=True)
+class PlanPart(SectionResult):
+    """The brief's plan and missed-approach parts and the solver's plan behind them."""
 
     plan: PlanInfo
     missed_approach: MissedApproachInfo
     solved: maneuver.Plan | None          # the best ranked plan (None: the arrival is a straight-in)
-    findings: tuple[Finding, ...]
 
 
 def plan_section(s: Situation, *, bank_target_deg: float, straight_in: bool,

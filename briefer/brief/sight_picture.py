@@ -12,20 +12,19 @@ from briefer._dataclass import dataclass
 
 import numpy as np
 
-from briefer.brief.findings import FindingList
+from briefer.brief.findings import FindingList, SectionResult
 from briefer.brief.performance import STALL_MARGIN_WARNING_PCT
 from briefer.brief.situation_inputs import Situation
 from briefer.core import maneuver, sightpicture, turn
-from briefer.result import Finding, PerformanceInfo, PlanInfo, SightPictureInfo, frozen_array
+from briefer.result import PerformanceInfo, PlanInfo, SightPictureInfo, frozen_array
 from briefer.wording import stall_margin_words
 
 
-@dataclass(frozen=True, slots=True)
-class SightPicturePart:
-    """The brief's sight-picture part and its finding."""
+@dataclass(frozen=True, slots=True, kw_only=True)
+class SightPicturePart(SectionResult):
+    """The brief's sight-picture part."""
 
     sight_picture: SightPictureInfo
-    findings: tuple[Finding, ...]
 
 
 def sight_picture_section(s: Situation, plan_info: PlanInfo, solved: maneuver.Plan | None,

@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from briefer._dataclass import dataclass
 
-from briefer.brief.findings import FindingList
+from briefer.brief.findings import FindingList, SectionResult
 from briefer.brief.situation_inputs import Situation
 from briefer.core import wind
 from briefer.result import Finding, WeatherUsed, WindInfo
@@ -21,13 +21,12 @@ COMMON_PRACTICE_TAILWIND_KT = 10.0     # the tailwind most transport flight manu
 COMMON_PRACTICE_CROSSWIND_KT = 25.0    # a usual operator limit on a dry runway
 
 
-@dataclass(frozen=True, slots=True)
-class WeatherChecks:
-    """The brief's wind and weather parts, with the findings on the wind."""
+@dataclass(frozen=True, slots=True, kw_only=True)
+class WeatherChecks(SectionResult):
+    """The brief's wind and weather parts (the findings are on the wind)."""
 
     wind: WindInfo
     weather: WeatherUsed
-    findings: tuple[Finding, ...]
     beyond_limits: tuple[str, ...] = ()   # the aircraft's wind limits exceeded: no plan is recommended
 
 
