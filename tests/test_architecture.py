@@ -132,6 +132,8 @@ def test_ci_runs_exactly_the_readme_test_command():
     root = PKG.parent
     readme = (root / "README.md").read_text()
     ci = (root / ".ci" / "run").read_text()
-    command = "python3 -m venv .venv && .venv/bin/pip install '.[test]' && .venv/bin/pytest"
-    assert command in readme and command in ci
+    start = "python3 -m venv .venv && .venv/bin/pip install '.[test]' && .venv/bin/pytest"
+    readme_lines = [line for line in readme.splitlines() if line.startswith(start)]
+    ci_lines = [line for line in ci.splitlines() if line.startswith(start)]
+    assert len(readme_lines) == 1 and ci_lines == readme_lines, (readme_lines, ci_lines)
     assert not (root / "tests" / "__init__.py").exists()
