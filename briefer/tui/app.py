@@ -36,7 +36,7 @@ from briefer.tui.widgets import Choice, ChoiceList, EnvelopePolar, FieldRow
 if TYPE_CHECKING:   # numpy and the brief are imported by the first brief's worker, after the first frame
     from briefer.result import Brief
 
-DEBOUNCE_S = 0.1
+DEBOUNCE_S = 0.0   # an edit starts the brief at once; edits made while one is built are coalesced
 ENVELOPE_DIRECTIONS_DEG = tuple(range(0, 360, 10))
 ENVELOPE_SPEEDS_KT = tuple(float(s) for s in range(0, 41, 2))
 
@@ -92,7 +92,8 @@ class BriefingApp(App[None]):
             inputs: The situation to open on.
             ascii: Force ASCII drawings (None: braille unless the terminal cannot show it).
             night: Start in the night theme.
-            debounce_s: Wait after an edit before recomputing.
+            debounce_s: Wait after an edit before recomputing (0: at once; edits made while a
+                brief is built are coalesced into the next one either way).
             inputs_path: The file the inputs came from (the default name to save to).
             notice: A message to show once the app is up (e.g. a file that could not be opened).
             units: Display units, "us" or "icao" (briefer.display_units); `u` switches them.
@@ -331,14 +332,31 @@ class BriefingApp(App[None]):
         self._schedule(self.debounce_s)
 
     def _schedule(self, delay: float) -> None:
+        """Build the brief for the current inputs: at once (after ``delay``, if any) when no brief
+        is being built; otherwise when the one being built is done (it answers older inputs): one
+        brief at a time, edits made meanwhile coalesced into the next."""
         if self._timer is not None:
             self._timer.stop()
-        self._timer = self.set_timer(max(delay, 0.001), self._compute)
+            self._timer = None
+        if self.computing:
+            return                       # _brief_done / _brief_failed start the next one
+        if delay > 0.0:
+            self._timer = self.set_timer(delay, self._compute)
+        else:
+            self._compute()
 
     def _compute(self) -> None:
         self._timer = None
         self.computing = True
         self._brief_worker(self.inputs)
+
+    def _newer_inputs(self, inputs: BriefingInputs) -> bool:
+        """A brief for ``inputs`` is done: if the inputs changed meanwhile, build the next one."""
+        self.computing = False
+        if inputs == self.inputs:
+            return False
+        self._schedule(self.debounce_s)
+        return True
 
     @work(thread=True, exclusive=True, group="brief")
     def _brief_worker(self, inputs: BriefingInputs) -> None:
@@ -359,9 +377,8 @@ class BriefingApp(App[None]):
             self.call_from_thread(self._brief_done, inputs, request, brief)
 
     def _brief_done(self, inputs: BriefingInputs, request, brief: Brief) -> None:
-        if inputs != self.inputs:
+        if self._newer_inputs(inputs):
             return                       # a newer edit is on its way
-        self.computing = False
         self.brief, self.request, self.brief_inputs = brief, request, inputs
         self._model_error = None
         for name in ("weight", "bank", "wind", "oat", "altimeter", "visibility", "ceiling", "report"):
@@ -373,9 +390,8 @@ class BriefingApp(App[None]):
             self._want_envelope()
 
     def _brief_failed(self, inputs: BriefingInputs, message: str, field: str | None) -> None:
-        if inputs != self.inputs:
+        if self._newer_inputs(inputs):
             return
-        self.computing = False
         self._model_error = (field, message)
         if field is not None:
             self.main.set_field_error(field, message)
