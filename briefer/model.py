@@ -109,11 +109,6 @@ CHART_DISTANCE_NM = Range(0, 30)
 CHART_DISTANCE_FT = Range(0, 180000)
 CHART_DISTANCE_M = Range(0, 55000)
 RUNWAY_LENGTH_FT = Range(984, 19685)       # RUNWAY_LENGTH_M in feet, rounded inward
-DISTANCE_UNITS = (("distance_nm", CHART_DISTANCE_NM), ("distance_ft", CHART_DISTANCE_FT),
-                  ("distance_m", CHART_DISTANCE_M))
-BEARING_UNITS = (("bearing_deg_mag", COURSE_DEG), ("bearing_deg_true", COURSE_DEG))
-HEADING_UNITS = (("heading_deg_mag", COURSE_DEG), ("heading_deg_true", COURSE_DEG))
-LENGTH_UNITS = (("length_ft", RUNWAY_LENGTH_FT), ("length_m", RUNWAY_LENGTH_M))
 ARP = "ARP"
 """How a chart placement names the airfield reference point (``from_point: ARP``)."""
 LANDING_WEIGHT_MIN_FRACTION = 0.4
@@ -408,6 +403,9 @@ class Spec:
     max_items: int | None = None
     schema: Mapping[str, Any] | None = None  # 'custom' (and 'model' variants): the JSON Schema
     schema_ref: str | None = None          # 'model': a named variant of the nested model's schema
+    others: tuple[str, ...] = ()           # number: the keys of the same quantity in other units
+    nullable: bool | None = None           # schema: null allowed (default: when optional); False for
+                                           # a key whose presence selects a form (lat_deg, distance_nm)
 
 
 def declared(spec: Spec, *, default: Any = MISSING, default_factory: Any = MISSING) -> Any:
@@ -415,9 +413,10 @@ def declared(spec: Spec, *, default: Any = MISSING, default_factory: Any = MISSI
     return field(default=default, default_factory=default_factory, metadata={"spec": spec})
 
 
-def num_field(rng: Range | None, help: str, *, default: Any = MISSING, unit: str | None = None) -> Any:
+def num_field(rng: Range | None, help: str, *, default: Any = MISSING, unit: str | None = None,
+              nullable: bool | None = None) -> Any:
     """A number within `rng` (its unit from the name's suffix, or `unit`)."""
-    return declared(Spec("number", help, range=rng, unit=unit), default=default)
+    return declared(Spec("number", help, range=rng, unit=unit, nullable=nullable), default=default)
 
 
 def text_field(help: str, *, default: Any = MISSING, empty_ok: bool = False, pattern: str | None = None,
@@ -437,15 +436,15 @@ def flag_field(help: str, *, default: Any = False) -> Any:
     return declared(Spec("flag", help), default=default)
 
 
-def designator_field(help: str, *, default: Any = MISSING) -> Any:
+def designator_field(help: str, *, default: Any = MISSING, nullable: bool | None = None) -> Any:
     """A runway designator such as '09' or '27L' (9 and '9' mean '09')."""
-    return declared(Spec("designator", help), default=default)
+    return declared(Spec("designator", help, nullable=nullable), default=default)
 
 
 def model_field(model: Any, help: str = "", *, default: Any = MISSING, default_factory: Any = MISSING,
-                schema_ref: str | None = None) -> Any:
+                schema_ref: str | None = None, nullable: bool | None = None) -> Any:
     """One nested model (a mapping in the file)."""
-    return declared(Spec("model", help, model=model, schema_ref=schema_ref), default=default,
+    return declared(Spec("model", help, model=model, schema_ref=schema_ref, nullable=nullable), default=default,
                     default_factory=default_factory)
 
 
@@ -453,6 +452,11 @@ def models_field(model: Any, help: str = "", *, min_items: int = 0, max_items: i
                  default: Any = MISSING) -> Any:
     """A list of nested models."""
     return declared(Spec("models", help, model=model, min_items=min_items, max_items=max_items), default=default)
+
+
+def categories_field(model: Any, help: str, *, min_items: int = 1) -> Any:
+    """Nested models keyed by approach category ('A' to 'E') in the file."""
+    return declared(Spec("categories", help, model=model, min_items=min_items))
 
 
 def custom_field(schema: Mapping[str, Any], help: str, *, default: Any = MISSING) -> Any:
@@ -483,7 +487,13 @@ def check_declared(obj: Any) -> None:
     for f, spec in declared_fields(type(obj)):
         name, optional, kind = f.name, f.default is None, spec.kind
         if kind == "number":
-            _num(obj, name, spec.range, optional=optional, unit=spec.unit)
+            try:
+                _num(obj, name, spec.range, optional=optional, unit=spec.unit)
+            except InvariantError as exc:
+                if not spec.others:
+                    raise
+                raise InvariantError(f"{exc.message} (or give {_one_of(spec.others).replace(chr(39), '')})",
+                                     field=exc.field) from None
         elif kind == "text":
             value = _text(obj, name, optional=optional, empty_ok=spec.empty_ok)
             if spec.pattern and value is not None and not re.fullmatch(spec.pattern, value):
@@ -501,23 +511,59 @@ def check_declared(obj: Any) -> None:
         elif kind == "categories":
             _check_categories(obj, name, spec.model, min_items=spec.min_items)
     for rule in type(obj)._forms:
-        check_forms(obj, rule)
+        if rule.checked:
+            check_forms(obj, rule)
 
 
 @dataclass(frozen=True, slots=True)
 class Forms:
     """Alternative forms of part of a model: ``forms`` lists the keys of each form (given
     together); at most one form, exactly one when ``required``. ``what`` names the part for the
-    messages ('offset'). The loader's check (`check_forms`) and the schema's ``oneOf`` (or
-    ``not``) both come from it."""
+    messages ('offset'). A model lists its rules in ``_forms``: `check_declared` checks them
+    (`check_forms`) unless ``checked`` is False (the model's own code checks that rule, in its own
+    words), and the schema says them (`schema`)."""
 
     what: str
     forms: tuple[tuple[str, ...], ...]
     required: bool = True
+    checked: bool = True
+
+    @property
+    def keys(self) -> tuple[str, ...]:
+        return tuple(k for form in self.forms for k in form)
 
     def words(self) -> str:
         """'offset_nm, or speed_kt and bank_deg'."""
         return ", or ".join(_and(form) for form in self.forms)
+
+    def schema(self) -> dict[str, Any]:
+        """The rule as JSON Schema: one form, whole (``oneOf``); or at most one (``not``), each
+        form whole (``dependentRequired``)."""
+        return self.schema_one() if self.required else self.schema_at_most_one()
+
+    def schema_one(self) -> dict[str, Any]:
+        """Exactly one form, whole."""
+        if all(len(form) == 1 for form in self.forms):
+            return {"oneOf": [{"required": list(form)} for form in self.forms]}
+        return {"oneOf": [{"required": list(form),
+                           "not": schema_any_key([k for other in self.forms if other is not form for k in other])}
+                          for form in self.forms]}
+
+    def schema_at_most_one(self) -> dict[str, Any]:
+        """No two forms together; a form of several keys whole."""
+        pairs = [[a, b] for i, form in enumerate(self.forms) for other in self.forms[i + 1:]
+                 for a in form for b in other]
+        out: dict[str, Any] = {"not": {"anyOf": [{"required": p} for p in pairs]}} if pairs else {}
+        together = {k: [o for o in form if o != k] for form in self.forms if len(form) > 1 for k in form}
+        if together:
+            out["dependentRequired"] = together
+        return out
+
+
+def schema_any_key(keys: Any) -> dict[str, Any]:
+    """JSON Schema: the mapping has one of these keys (used under ``not``)."""
+    keys = list(keys)
+    return {"required": keys} if len(keys) == 1 else {"anyOf": [{"required": [k]} for k in keys]}
 
 
 def _and(keys: tuple[str, ...] | list[str]) -> str:
@@ -530,7 +576,9 @@ def check_forms(obj: Any, rule: Forms) -> tuple[str, ...] | None:
     """Check that `obj` gives one form of `rule` whole (see `Forms`); the form given, or None."""
     given = [form for form in rule.forms if any(getattr(obj, k) not in (None, ()) for k in form)]
     if len(given) > 1:
-        raise InvariantError(f"give either {rule.words()}, not both")
+        got = [next(k for k in form if getattr(obj, k) not in (None, ())) for form in given[:2]]
+        also = f" (got {got[0]} and {got[1]})" if any(len(form) > 1 for form in rule.forms) else ""
+        raise InvariantError(f"give either {rule.words()}, not both{also}", field=got[1])
     if not given:
         if rule.required:
             raise InvariantError(f"missing the {rule.what}: give {rule.words()}")
@@ -539,7 +587,8 @@ def check_forms(obj: Any, rule: Forms) -> tuple[str, ...] | None:
     have = [k for k in form if getattr(obj, k) not in (None, ())]
     missing = [k for k in form if k not in have]
     if missing:
-        raise InvariantError(f"missing required key '{missing[0]}' ({_and(have)} needs {_and(missing)})")
+        raise InvariantError(f"missing required key '{missing[0]}' ({_and(have)} "
+                             f"{'needs' if len(have) == 1 else 'need'} {_and(missing)})")
     return form
 
 
@@ -915,29 +964,89 @@ class AircraftProfile(_Model):
 # --------------------------------------------------------------------------------------------
 # Airfield, runways, obstacles, approaches
 # --------------------------------------------------------------------------------------------
+# -- blocks of fields several models share, declared once -------------------------------------
+COORDINATES = Forms("coordinates", (("lat_deg", "lon_deg"),), required=False, checked=False)
+DISTANCE = Forms("distance", (("distance_nm",), ("distance_ft",), ("distance_m",)), required=False, checked=False)
+BEARING = Forms("bearing", (("bearing_deg_mag",), ("bearing_deg_true",)), required=False, checked=False)
+HEADING = Forms("heading", (("heading_deg_mag",), ("heading_deg_true",)), required=False, checked=False)
+LENGTH = Forms("length", (("length_ft",), ("length_m",)), required=False, checked=False)
+VISIBILITY = Forms("visibility", (("visibility_sm",), ("visibility_m",)), required=False, checked=False)
+PLACE_KEYS = ("from_point", *DISTANCE.keys, *BEARING.keys)
+"""The keys of a chart placement: a distance and a bearing from a threshold or ARP."""
+_UNIT_RANGES = {"distance_nm": CHART_DISTANCE_NM, "distance_ft": CHART_DISTANCE_FT, "distance_m": CHART_DISTANCE_M,
+                "bearing_deg_mag": COURSE_DEG, "bearing_deg_true": COURSE_DEG,
+                "heading_deg_mag": COURSE_DEG, "heading_deg_true": COURSE_DEG,
+                "length_ft": RUNWAY_LENGTH_FT, "length_m": RUNWAY_LENGTH_M}
+_FROM_POINT_SCHEMA = {"type": ["string", "integer"],
+                      "pattern": "^((0?[1-9]|[12][0-9]|3[0-6])[LCRlcr]?|[Aa][Rr][Pp]|[Rr]eference[ _][Pp]oint)$",
+                      "minimum": 1, "maximum": 36}
+
+Block = dict[str, tuple[str, Any]]
+"""Shared field declarations: name -> (annotation, dataclass field)."""
+
+
+def coordinate_fields(*, required: bool = False) -> Block:
+    """lat_deg and lon_deg (WGS-84, north and east positive)."""
+    default, ann = (MISSING, "float") if required else (None, "float | None")
+    return {"lat_deg": (ann, declared(Spec("number", "Latitude, north positive [deg].", range=LAT_DEG,
+                                           nullable=False), default=default)),
+            "lon_deg": (ann, declared(Spec("number", "Longitude, east positive [deg].", range=LON_DEG,
+                                           nullable=False), default=default))}
+
+
+def unit_fields(rule: Forms, helps: Mapping[str, str]) -> Block:
+    """One quantity the file gives in one of several units (`DISTANCE`, `BEARING`...): each key
+    optional, in its range; a range error names the other keys accepted."""
+    return {key: ("float | None", declared(Spec("number", helps[key], range=_UNIT_RANGES[key], nullable=False,
+                                                others=tuple(k for k in rule.keys if k != key)), default=None))
+            for key in rule.keys}
+
+
+def distance_fields(text: str) -> Block:
+    """distance_nm, distance_ft, distance_m; help ``text`` + the unit."""
+    return unit_fields(DISTANCE, {"distance_nm": f"{text} [NM].", "distance_ft": f"{text} [ft].",
+                                  "distance_m": f"{text} [m]."})
+
+
+def placement_fields(distance_text: str, *, required: bool = False) -> Block:
+    """from_point with a distance and a bearing from it (`PLACE_KEYS`)."""
+    help = "What the distance and bearing are measured from: a runway threshold ('13') or ARP (the reference point)."
+    return {"from_point": ("str" if required else "str | None",
+                           declared(Spec("custom", help, schema=_FROM_POINT_SCHEMA, nullable=False),
+                                    default=MISSING if required else None)),
+            **distance_fields(distance_text),
+            **unit_fields(BEARING, {"bearing_deg_mag": "Bearing from from_point, magnetic [deg].",
+                                    "bearing_deg_true": "Bearing from from_point, true [deg]."})}
+
+
+def with_fields(*blocks: Block, after: str | None = None) -> Any:
+    """Class decorator (below ``@dataclass``): insert shared blocks of fields after the field
+    `after` (first when None), so a block declared once keeps the file's key order in each model."""
+    def insert(cls: Any) -> Any:
+        own = list(cls.__dict__.get("__annotations__", {}).items())
+        at = 0 if after is None else [k for k, _ in own].index(after) + 1
+        added = [(k, ann) for block in blocks for k, (ann, _) in block.items()]
+        cls.__annotations__ = dict(own[:at] + added + own[at:])
+        for block in blocks:
+            for k, (_, f) in block.items():
+                setattr(cls, k, f)
+        return cls
+    return insert
+
+
 # -- chart numbers: one value in one of several units -----------------------------------------
-def _one_unit(obj: Any, options: tuple[tuple[str, Range], ...], what: str, *,
-              required: bool = False, hint: str = "") -> str | None:
-    """Check a quantity the file may give in one of several units (``distance_nm``, ``distance_ft``,
-    ``distance_m``): at most one of them; each in its range, and a range error names the other
-    accepted forms. Returns the key given, or None."""
-    names = [n for n, _ in options]
-    given = [n for n in names if getattr(obj, n) is not None]
+def _one_unit(obj: Any, rule: Forms, *, required: bool = False, hint: str = "") -> str | None:
+    """A quantity the file may give in one of several units (`DISTANCE`: ``distance_nm``,
+    ``distance_ft``, ``distance_m``): at most one of them (their ranges are the fields' own).
+    Returns the key given, or None."""
+    given = [n for n in rule.keys if getattr(obj, n) is not None]
     if len(given) > 1:
         raise InvariantError(f"give either {given[0]} or {given[1]}, not both", field=given[1])
     if not given:
         if required:
-            raise InvariantError(f"missing the {what}: give {_one_of(names).replace(chr(39), '')}{hint}")
+            raise InvariantError(f"missing the {rule.what}: give {_one_of(rule.keys).replace(chr(39), '')}{hint}")
         return None
-    key = given[0]
-    rng = dict(options)[key]
-    others = [n for n in names if n != key]
-    try:
-        _num(obj, key, rng)
-    except InvariantError as exc:
-        raise InvariantError(f"{exc.message} (or give {_one_of(others).replace(chr(39), '')})",
-                             field=exc.field) from None
-    return key
+    return given[0]
 
 
 def _from_point(obj: Any) -> str | None:
@@ -977,11 +1086,10 @@ class _Placed:
         return (self.bearing_deg_mag + magnetic_variation_deg) % 360.0  # type: ignore[attr-defined]
 
     def _check_distance(self, *, required: bool) -> str | None:
-        return _one_unit(self, DISTANCE_UNITS, "distance", required=required)
+        return _one_unit(self, DISTANCE, required=required)
 
     def _check_bearing(self, *, required: bool) -> str | None:
-        return _one_unit(self, BEARING_UNITS, "bearing", required=required,
-                         hint=" (from the point named in from_point)")
+        return _one_unit(self, BEARING, required=required, hint=" (from the point named in from_point)")
 
     def _check_from_bearing(self) -> None:
         """from_point with a distance and a bearing, all three or none of them."""
@@ -1003,9 +1111,6 @@ def _coordinates(obj: Any) -> bool:
     if lat != lon:
         missing = "lon_deg" if lat else "lat_deg"
         raise InvariantError(f"missing required key '{missing}' (latitude and longitude go together)")
-    if lat:
-        _num(obj, "lat_deg", LAT_DEG)
-        _num(obj, "lon_deg", LON_DEG)
     return lat
 
 
@@ -1015,24 +1120,28 @@ def _no_coordinates_with(obj: Any, keys: tuple[str, ...], form: str) -> None:
         raise InvariantError(f"give either lat_deg/lon_deg or {form}, not both", field=given[0])
 
 
-_PLACE_KEYS = ("from_point", "distance_nm", "distance_ft", "distance_m", "bearing_deg_mag", "bearing_deg_true")
+def _placed_from(*, excluding: tuple[str, ...] = ()) -> dict[str, Any]:
+    """JSON Schema: the form 'from_point with one distance and one bearing' (none of `excluding`)."""
+    out: dict[str, Any] = {"required": ["from_point"], "allOf": [DISTANCE.schema_one(), BEARING.schema_one()]}
+    if excluding:
+        out["not"] = schema_any_key(excluding)
+    return out
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
+@with_fields(coordinate_fields(required=True))
 class LatLon(_Model):
     """A point on the WGS-84 ellipsoid [degrees; north and east positive]."""
 
     _what: ClassVar[str] = "a position"
-
-    lat_deg: float
-    lon_deg: float
+    _help: ClassVar[str] = "A position (WGS-84)."
 
     def __post_init__(self) -> None:
-        _num(self, "lat_deg", LAT_DEG)
-        _num(self, "lon_deg", LON_DEG)
+        check_declared(self)
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
+@with_fields(coordinate_fields(), after="designator")
 class Threshold(_Model):
     """One runway threshold (landing end): position, elevation, threshold crossing height and
     the glide path the visual approach aids (or the crew) fly to it.
@@ -1050,30 +1159,35 @@ class Threshold(_Model):
     """
 
     _what: ClassVar[str] = "a runway threshold"
+    _help: ClassVar[str] = ("A runway threshold (landing end): coordinates, or none when the runway is given by the "
+                            "chart's heading and length.")
+    _forms: ClassVar[tuple[Forms, ...]] = (
+        COORDINATES, Forms("elevation", (("elevation_ft",), ("tdze_ft",)), checked=False))
 
-    designator: str
-    lat_deg: float | None = None
-    lon_deg: float | None = None
-    elevation_ft: float | None = None
-    tdze_ft: float | None = None
-    tch_ft: float = 50.0
-    glide_path_deg: float = 3.0
-    displaced_threshold_m: float | None = None
+    designator: str = designator_field("Runway designator, e.g. '09' or '27L' (quote it; 9 and '9' mean '09').")
+    elevation_ft: float | None = num_field(
+        ELEVATION_FT, f"Threshold elevation [ft]; within {_fmt(THRESHOLD_ELEVATION_SPREAD_FT)} ft of the airfield "
+        "elevation.", default=None, nullable=False)
+    tdze_ft: float | None = num_field(
+        ELEVATION_FT, "Touchdown zone elevation, when the chart prints it instead of the threshold elevation (used "
+        "as the threshold's elevation) [ft].", default=None, nullable=False)
+    tch_ft: float = num_field(TCH_FT, "Threshold crossing height [ft] (default 50).", default=50.0)
+    glide_path_deg: float = num_field(GLIDE_PATH_DEG, "Visual glide path to this threshold [deg] (default 3.0).",
+                                      default=3.0)
+    displaced_threshold_m: float | None = num_field(
+        DISPLACED_THRESHOLD_M, "Distance from the runway end to this landing threshold along the centreline [m]; "
+        "absent or 0: the threshold is at the runway end. lat_deg/lon_deg/elevation_ft are the landing threshold.",
+        default=None)
 
     def __post_init__(self) -> None:
-        _designator(self, "designator")
+        check_declared(self)
         _coordinates(self)
-        _num(self, "tdze_ft", ELEVATION_FT, optional=True)
-        _num(self, "elevation_ft", ELEVATION_FT, optional=True)
         if self.elevation_ft is None and self.tdze_ft is None:
             raise InvariantError("missing required key 'elevation_ft' (or tdze_ft, the touchdown zone elevation)")
         if self.tdze_ft is not None:
             if self.elevation_ft is not None and self.elevation_ft != self.tdze_ft:
                 raise InvariantError("give either elevation_ft or tdze_ft, not both", field="tdze_ft")
             _set(self, "elevation_ft", self.tdze_ft)
-        _num(self, "tch_ft", TCH_FT)
-        _num(self, "glide_path_deg", GLIDE_PATH_DEG)
-        _num(self, "displaced_threshold_m", DISPLACED_THRESHOLD_M, optional=True)
 
     @property
     def displaced_m(self) -> float:
@@ -1102,45 +1216,56 @@ def reciprocal_designator(designator: str) -> str:
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
+@with_fields(placement_fields("Distance from from_point", required=True), after="threshold")
 class RunwayPosition(_Placed, _Model):
     """Where a runway given by heading and length lies: its threshold ``threshold`` (default
     threshold A) at a distance and a bearing from ``from_point`` (a threshold of a runway listed
     before it, or ARP, the reference point)."""
 
     _what: ClassVar[str] = "a runway position"
+    _help: ClassVar[str] = ("Where a runway given by heading and length lies: one of its thresholds at a distance "
+                            "and a bearing from a threshold of a runway listed before it, or from ARP.")
 
-    threshold: str | None = None
-    from_point: str
-    distance_nm: float | None = None
-    distance_ft: float | None = None
-    distance_m: float | None = None
-    bearing_deg_mag: float | None = None
-    bearing_deg_true: float | None = None
+    threshold: str | None = designator_field("Which threshold of this runway is placed (default threshold_a).",
+                                             default=None)
 
     def __post_init__(self) -> None:
-        _designator(self, "threshold", optional=True)
+        check_declared(self)
         self._check_from_bearing()
+
+    @classmethod
+    def schema_extra(cls, variant: str | None, node: dict[str, Any]) -> dict[str, Any] | None:
+        return {"allOf": _placed_from()["allOf"]}
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
+@with_fields(distance_fields("Distance from the threshold to the crossing, along the runway"), after="threshold")
 class CrossingPoint(_Model):
     """One half of 'the centrelines cross ``distance`` from threshold ``threshold``'."""
 
     _what: ClassVar[str] = "a crossing distance"
+    _help: ClassVar[str] = "Where the centrelines cross, measured from one threshold along its runway."
 
-    threshold: str
-    distance_nm: float | None = None
-    distance_ft: float | None = None
-    distance_m: float | None = None
+    threshold: str = designator_field("A threshold of this runway or of a runway listed before it.")
 
     def __post_init__(self) -> None:
-        _designator(self, "threshold")
-        _one_unit(self, DISTANCE_UNITS, "distance", required=True)
+        check_declared(self)
+        _one_unit(self, DISTANCE, required=True)
+
+    @classmethod
+    def schema_extra(cls, variant: str | None, node: dict[str, Any]) -> dict[str, Any] | None:
+        return {"allOf": [DISTANCE.schema_one()]}
 
     distance_as_m = _Placed.distance_as_m
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
+@with_fields(unit_fields(HEADING, {
+                 "heading_deg_mag": "Heading from threshold_a toward threshold_b, magnetic, as the airport diagram "
+                                    "prints it [deg].",
+                 "heading_deg_true": "The same heading, true [deg]."}),
+             unit_fields(LENGTH, {"length_ft": "Distance between the thresholds [ft].",
+                                  "length_m": "Distance between the thresholds [m]."}), after="threshold_b")
 class Runway(_Model):
     """A runway: its two thresholds (reciprocal designators, 300 m to 6 km apart).
 
@@ -1156,26 +1281,26 @@ class Runway(_Model):
     """
 
     _what: ClassVar[str] = "a runway"
-    _nested: ClassVar[dict[str, type]] = {"threshold_a": Threshold, "threshold_b": Threshold,
-                                          "position": RunwayPosition}
-    _nested_seq: ClassVar[dict[str, type]] = {"crossing": CrossingPoint}
+    _help: ClassVar[str] = (
+        f"A runway: reciprocal thresholds {_fmt(RUNWAY_LENGTH_M.lo)} m to {_fmt(RUNWAY_LENGTH_M.hi / units.KM_TO_M)} "
+        f"km apart, whose heading fits the designator (magnetic, within {_fmt(DESIGNATOR_TOLERANCE_DEG)} deg). Either "
+        "both thresholds carry coordinates, or the runway is given by heading_deg_mag (or heading_deg_true) and "
+        "length_ft (or length_m) and placed by position or crossing (the first runway of an airfield without a "
+        "reference point needs neither: its threshold_a is the origin).")
 
-    threshold_a: Threshold
-    threshold_b: Threshold
-    heading_deg_mag: float | None = None
-    heading_deg_true: float | None = None
-    length_ft: float | None = None
-    length_m: float | None = None
-    width_m: float | None = None
-    position: RunwayPosition | None = None
-    crossing: tuple[CrossingPoint, ...] = ()
+    threshold_a: Threshold = model_field(Threshold)
+    threshold_b: Threshold = model_field(Threshold)
+    width_m: float | None = num_field(RUNWAY_WIDTH_M, "Runway width [m].", default=None)
+    position: RunwayPosition | None = model_field(RunwayPosition, default=None, nullable=False)
+    crossing: tuple[CrossingPoint, ...] = models_field(
+        CrossingPoint, "The centrelines cross at these distances from one threshold of this runway and one of a "
+        "runway listed before it.", default=())
+
+    _CHART_KEYS: ClassVar[tuple[str, ...]] = (*HEADING.keys, *LENGTH.keys, "position", "crossing")
 
     def __post_init__(self) -> None:
-        _instance(self, "threshold_a", Threshold)
-        _instance(self, "threshold_b", Threshold)
-        _num(self, "width_m", RUNWAY_WIDTH_M, optional=True)
-        _instance(self, "position", RunwayPosition, optional=True)
-        crossing = _items(self, "crossing", CrossingPoint, what="crossing distance")
+        check_declared(self)
+        crossing = self.crossing
         a, b = self.threshold_a, self.threshold_b
         if b.designator != reciprocal_designator(a.designator):
             raise InvariantError(
@@ -1187,12 +1312,11 @@ class Runway(_Model):
             raise InvariantError(f"missing lat_deg and lon_deg ({other} has them): give both thresholds' "
                                  f"coordinates, or neither and the runway's heading and length", field=bare)
         if a.has_coordinates:
-            _no_coordinates_with(self, ("heading_deg_mag", "heading_deg_true", "length_ft", "length_m",
-                                        "position", "crossing"), "the chart's heading and length")
+            _no_coordinates_with(self, self._CHART_KEYS, "the chart's heading and length")
         else:
-            _one_unit(self, HEADING_UNITS, "heading", required=True,
+            _one_unit(self, HEADING, required=True,
                       hint=" (from threshold A toward threshold B, as the airport diagram prints it)")
-            _one_unit(self, LENGTH_UNITS, "length", required=True)
+            _one_unit(self, LENGTH, required=True)
             if self.position is not None and crossing:
                 raise InvariantError("give either position or crossing, not both", field="crossing")
             if self.position is not None and self.position.threshold not in (None, a.designator, b.designator):
@@ -1214,6 +1338,19 @@ class Runway(_Model):
                 f"thresholds '{a.designator}' and '{b.designator}' are {length_m:.0f} m apart; expected "
                 f"{_fmt(RUNWAY_LENGTH_M.lo)} m to {_fmt(RUNWAY_LENGTH_M.hi / units.KM_TO_M)} km",
                 field="threshold_b")
+
+    @classmethod
+    def schema_extra(cls, variant: str | None, node: dict[str, Any]) -> dict[str, Any] | None:
+        crossing = node["properties"]["crossing"]
+        node["properties"]["crossing"] = {"type": "array", "minItems": 2, "maxItems": 2, **crossing}
+        with_coordinates = {"required": list(COORDINATES.keys)}
+        without = {"not": schema_any_key(COORDINATES.keys)}
+        return {"oneOf": [{"properties": {"threshold_a": with_coordinates, "threshold_b": with_coordinates},
+                           "not": schema_any_key(cls._CHART_KEYS)},
+                          {"properties": {"threshold_a": without, "threshold_b": without},
+                           "allOf": [HEADING.schema_one(), LENGTH.schema_one()]}],
+                "not": {"anyOf": [{"required": list(HEADING.keys)}, {"required": list(LENGTH.keys)},
+                                  {"required": ["position", "crossing"]}]}}
 
     @property
     def chart_form(self) -> bool:
@@ -1279,6 +1416,7 @@ class Runway(_Model):
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
+@with_fields(coordinate_fields(), placement_fields("Distance from from_point"), after="kind")
 class Obstacle(_Placed, _Model):
     """A charted obstacle. ``elevation_ft`` is the top, above mean sea level. Its position is
     ``lat_deg``/``lon_deg``, or ``from_point`` (a threshold or ARP) with a distance
@@ -1286,40 +1424,41 @@ class Obstacle(_Placed, _Model):
     ``bearing_deg_true``) from it."""
 
     _what: ClassVar[str] = "an obstacle"
+    _help: ClassVar[str] = (f"A charted obstacle (within {_fmt(OBSTACLE_FROM_ARP_KM)} km of the reference point): "
+                            "lat_deg/lon_deg, or from_point with a distance and a bearing.")
 
-    name: str
-    kind: str = "other"
-    lat_deg: float | None = None
-    lon_deg: float | None = None
-    from_point: str | None = None
-    distance_nm: float | None = None
-    distance_ft: float | None = None
-    distance_m: float | None = None
-    bearing_deg_mag: float | None = None
-    bearing_deg_true: float | None = None
-    elevation_ft: float
-    height_agl_ft: float | None = None
+    name: str = text_field("Obstacle name.")
+    kind: str = choice_field(OBSTACLE_KINDS, "What it is (default 'other').", default="other")
+    elevation_ft: float = num_field(ALTITUDE_FT, "Elevation of the top, MSL [ft].")
+    height_agl_ft: float | None = num_field(OBSTACLE_HEIGHT_AGL_FT, "Height above the ground [ft].", default=None)
 
     def __post_init__(self) -> None:
-        _text(self, "name")
-        _text(self, "kind", choices=OBSTACLE_KINDS)
+        check_declared(self)
         if _coordinates(self):
-            _no_coordinates_with(self, _PLACE_KEYS, "from_point, distance and bearing")
+            _no_coordinates_with(self, PLACE_KEYS, "from_point, distance and bearing")
         else:
             self._check_from_bearing()
             if self.from_point is None:
                 raise InvariantError("missing the position: give lat_deg and lon_deg, or from_point (a threshold "
                                      "or ARP) with distance_nm and bearing_deg_mag")
-        _num(self, "elevation_ft", ALTITUDE_FT)
-        _num(self, "height_agl_ft", OBSTACLE_HEIGHT_AGL_FT, optional=True)
         if self.height_agl_ft is not None and self.elevation_ft - self.height_agl_ft not in ELEVATION_FT:
             raise InvariantError(
                 f"the ground under the obstacle would be at {_fmt(self.elevation_ft - self.height_agl_ft)} ft "
                 f"(elevation_ft minus height_agl_ft); expected {_fmt(ELEVATION_FT.lo)} to "
                 f"{_fmt(ELEVATION_FT.hi)} ft", field="height_agl_ft")
 
+    @classmethod
+    def schema_extra(cls, variant: str | None, node: dict[str, Any]) -> dict[str, Any] | None:
+        return {"oneOf": [{"required": list(COORDINATES.keys), "not": schema_any_key(PLACE_KEYS)},
+                          _placed_from(excluding=COORDINATES.keys)]}
+
+
+_FIX_DISTANCE = "With threshold: before it on the final course; with from_point: from it"
+
 
 @dataclass(frozen=True, slots=True, kw_only=True)
+@with_fields(coordinate_fields(), after="name")
+@with_fields(placement_fields(_FIX_DISTANCE), after="threshold")
 class Fix(_Placed, _Model):
     """A named point of the approach (final approach fix, missed approach point).
 
@@ -1328,29 +1467,25 @@ class Fix(_Placed, _Model):
     distance and a bearing from it (an off-field facility); or, for the final approach fix only, a
     distance alone: that far before the missed approach point along the final approach course.
     Distances are ``distance_nm``, ``distance_ft`` or ``distance_m``; bearings ``bearing_deg_mag``
-    or ``bearing_deg_true``.
+    or ``bearing_deg_true``. The schema of the final approach fix is the variant
+    'FinalApproachFix' (altitude required, and the distance alone).
     """
 
     _what: ClassVar[str] = "a fix"
+    _help: ClassVar[str] = ("A fix (the missed approach point; altitude optional): coordinates; at a threshold or a "
+                            "distance before it on the final approach course; or a distance and a bearing from a "
+                            "threshold or ARP (an off-field facility).")
 
-    name: str
-    lat_deg: float | None = None
-    lon_deg: float | None = None
-    threshold: str | None = None
-    from_point: str | None = None
-    distance_nm: float | None = None
-    distance_ft: float | None = None
-    distance_m: float | None = None
-    bearing_deg_mag: float | None = None
-    bearing_deg_true: float | None = None
-    altitude_ft: float | None = None
+    name: str = text_field("Fix name.")
+    threshold: str | None = designator_field("At this threshold, or distance_nm before it on the final approach "
+                                             "course.", default=None, nullable=False)
+    altitude_ft: float | None = num_field(ALTITUDE_FT, "Altitude at the fix, MSL [ft].", default=None)
 
     def __post_init__(self) -> None:
-        _text(self, "name")
+        check_declared(self)
         if _coordinates(self):
-            _no_coordinates_with(self, ("threshold", *_PLACE_KEYS), "a position from the chart")
+            _no_coordinates_with(self, ("threshold", *PLACE_KEYS), "a position from the chart")
         else:
-            _designator(self, "threshold", optional=True)
             self._check_from_bearing()
             if self.threshold is not None and self.from_point is not None:
                 raise InvariantError("give either threshold (at it or a distance before it on the final course) "
@@ -1362,7 +1497,27 @@ class Fix(_Placed, _Model):
                                      "distance_nm before it on the final course); from_point with distance_nm "
                                      "and bearing_deg_mag; or, for the final approach fix, distance_nm before "
                                      "the missed approach point")
-        _num(self, "altitude_ft", ALTITUDE_FT, optional=True)
+
+    @classmethod
+    def schema_extra(cls, variant: str | None, node: dict[str, Any]) -> dict[str, Any] | None:
+        at_threshold_not = [*DISTANCE.schema_at_most_one()["not"]["anyOf"],
+                            *({"required": [k]} for k in ("from_point", *BEARING.keys))]
+        forms = [{"required": list(COORDINATES.keys), "not": schema_any_key(("threshold", *PLACE_KEYS))},
+                 {"required": ["threshold"], "not": {"anyOf": at_threshold_not}},
+                 _placed_from(excluding=(*COORDINATES.keys, "threshold"))]
+        if variant == "FinalApproachFix":
+            node["description"] = ("The final approach fix (altitude required): coordinates; a distance before the "
+                                   "missed approach point along the final approach course; a distance before a "
+                                   "threshold; or a distance and a bearing from a threshold or ARP.")
+            node["required"].append("altitude_ft")
+            node["properties"]["altitude_ft"]["type"] = "number"
+            for key, prop in node["properties"].items():
+                if key in DISTANCE.keys:
+                    prop["description"] = prop["description"].replace(
+                        " [", "; alone: before the missed approach point on the final course [")
+            forms.append({"allOf": [DISTANCE.schema_one()],
+                          "not": schema_any_key((*COORDINATES.keys, "threshold", "from_point", *BEARING.keys))})
+        return {"oneOf": forms}
 
     @property
     def has_coordinates(self) -> bool:
@@ -1381,23 +1536,20 @@ class _CategoryMinimum(_Model):
 
     _what: ClassVar[str] = "a category minimum"
 
-    category: str
-    mda_ft: float | None = None
-    visibility_sm: float | None = None
-    visibility_m: float | None = None
-    not_authorised: bool = False
-    reason: str = ""
+    category: str      # the key above the mapping in the file (see `from_category`), so not declared
+    mda_ft: float | None = num_field(ALTITUDE_FT, "Minimum descent altitude, MSL [ft].", default=None)
+    visibility_sm: float | None = num_field(VISIBILITY_SM, "Visibility [statute miles] (or visibility_m).",
+                                            default=None)
+    visibility_m: float | None = num_field(VISIBILITY_M, "Visibility [m] (or visibility_sm).", default=None)
+    not_authorised: bool = flag_field("True when this category may not use the line.")
+    reason: str = text_field("Why not authorised (optional).", default="", empty_ok=True)
 
     def __post_init__(self) -> None:
         category = self.category
         if not isinstance(category, str) or category.strip().upper() not in CATEGORIES:
             raise InvariantError(f"expected {_one_of(CATEGORIES)}, got {_describe(category)}", field="category")
         _set(self, "category", category.strip().upper())
-        _flag(self, "not_authorised")
-        _text(self, "reason", empty_ok=True)
-        _num(self, "mda_ft", ALTITUDE_FT, optional=True)
-        _num(self, "visibility_sm", VISIBILITY_SM, optional=True)
-        _num(self, "visibility_m", VISIBILITY_M, optional=True)
+        check_declared(self)
         given = [k for k in ("mda_ft", "visibility_sm", "visibility_m") if getattr(self, k) is not None]
         if self.not_authorised:
             if given:
@@ -1410,6 +1562,14 @@ class _CategoryMinimum(_Model):
             raise InvariantError("missing the visibility: give visibility_sm or visibility_m")
         if self.visibility_sm is not None and self.visibility_m is not None:
             raise InvariantError("give either visibility_sm or visibility_m, not both", field="visibility_m")
+
+    @classmethod
+    def schema_extra(cls, variant: str | None, node: dict[str, Any]) -> dict[str, Any] | None:
+        given = ("mda_ft", *VISIBILITY.keys)
+        return {"oneOf": [{"required": ["not_authorised"], "properties": {"not_authorised": {"const": True}},
+                           "not": schema_any_key(given)},
+                          {"required": ["mda_ft"], "properties": {"not_authorised": {"const": False}},
+                           **VISIBILITY.schema_one()}]}
 
     @property
     def authorised(self) -> bool:
@@ -1449,6 +1609,7 @@ class CirclingMinimum(_CategoryMinimum):
     """Circling minimums for one category (MDA in feet MSL), or not authorised."""
 
     _what: ClassVar[str] = "a circling minimum"
+    _help: ClassVar[str] = "Circling minimums of one category: MDA and one visibility, or not_authorised: true."
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -1456,6 +1617,7 @@ class StraightInMinimum(_CategoryMinimum):
     """Straight-in minimums for one category (MDA in feet MSL), or not authorised."""
 
     _what: ClassVar[str] = "a straight-in minimum"
+    _help: ClassVar[str] = "Straight-in minimums of one category: MDA and one visibility, or not_authorised: true."
 
 
 def _read_by_category(value: Any, cls: Any, path: str) -> tuple[Any, ...]:
@@ -1486,13 +1648,14 @@ class StraightIn(_Model):
     """Straight-in minimums of an approach for its runway, per category."""
 
     _what: ClassVar[str] = "straight-in minimums"
+    _help: ClassVar[str] = "Straight-in minimums of the approach."
 
-    runway: str
-    minimums: tuple[StraightInMinimum, ...]
+    runway: str = designator_field("The approach's runway.")
+    minimums: tuple[StraightInMinimum, ...] = categories_field(StraightInMinimum,
+                                                               "Straight-in minimums by category A to E.")
 
     def __post_init__(self) -> None:
-        _designator(self, "runway")
-        _check_categories(self, "minimums", StraightInMinimum, min_items=1)
+        check_declared(self)
 
     @classmethod
     def _read(cls, data: Mapping[str, Any], path: str) -> dict[str, Any]:
@@ -1523,39 +1686,32 @@ class Sector(_Model):
     """
 
     _what: ClassVar[str] = "a sector"
+    _help: ClassVar[str] = ("A sector where circling is not authorised: bearings from a threshold, or one side of a "
+                            "runway.")
+    _forms: ClassVar[tuple[Forms, ...]] = (
+        Forms("sector", (("threshold", "from_deg_mag", "to_deg_mag"), ("runway", "side"))),)
 
-    threshold: str | None = None
-    from_deg_mag: float | None = None
-    to_deg_mag: float | None = None
-    runway: str | None = None
-    side: str | None = None
-    reason: str = ""
+    threshold: str | None = designator_field("Threshold the bearings are measured from.", default=None)
+    from_deg_mag: float | None = num_field(COURSE_DEG, "First bearing from the threshold, magnetic [deg].",
+                                           default=None)
+    to_deg_mag: float | None = num_field(COURSE_DEG, "Last bearing, clockwise from from_deg_mag, magnetic [deg].",
+                                         default=None)
+    runway: str | None = custom_field(
+        {"type": ["string", "integer"], "pattern": "^(0?[1-9]|[12][0-9]|3[0-6])[LCRlcr]?(/(0?[1-9]|[12][0-9]|3[0-6])"
+         "[LCRlcr]?)?$"}, "Runway whose side is meant: '09/27' or one end '27'.", default=None)
+    side: str | None = choice_field(SIDES, f"Compass side of the runway centreline (true); at least "
+                                           f"{_fmt(SIDE_MIN_ANGLE_TO_RUNWAY_DEG)} deg off the centreline.",
+                                    default=None)
+    reason: str = text_field("Why circling is not authorised there.", default="", empty_ok=True)
 
     def __post_init__(self) -> None:
-        bearing = [k for k in ("threshold", "from_deg_mag", "to_deg_mag") if getattr(self, k) is not None]
-        side = [k for k in ("runway", "side") if getattr(self, k) is not None]
-        if bearing and side:
-            raise InvariantError(f"give either threshold, from_deg_mag and to_deg_mag, or runway and side, "
-                                 f"not both (got {bearing[0]} and {side[0]})", field=side[0])
-        if not bearing and not side:
-            raise InvariantError("missing the sector: give threshold, from_deg_mag and to_deg_mag, "
-                                 "or runway and side")
-        _text(self, "reason", empty_ok=True)
-        if bearing:
-            for k in ("threshold", "from_deg_mag", "to_deg_mag"):
-                if getattr(self, k) is None:
-                    raise InvariantError(f"missing required key '{k}'")
-            _designator(self, "threshold")
-            _num(self, "from_deg_mag", COURSE_DEG)
-            _num(self, "to_deg_mag", COURSE_DEG)
+        check_declared(self)
+        if self.threshold is not None:
             if _angle_diff_deg(self.from_deg_mag, self.to_deg_mag) == 0:  # type: ignore[arg-type]
                 raise InvariantError(f"expected a bearing different from from_deg_mag "
                                      f"({_fmt(self.from_deg_mag)}), got {_fmt(self.to_deg_mag)}",  # type: ignore[arg-type]
                                      field="to_deg_mag")
         else:
-            for k in ("runway", "side"):
-                if getattr(self, k) is None:
-                    raise InvariantError(f"missing required key '{k}'")
             raw = self.runway
             parts = [normalise_designator(p) for p in raw.split("/")] if isinstance(raw, str) else [
                 normalise_designator(raw)]
@@ -1563,7 +1719,6 @@ class Sector(_Model):
                 raise InvariantError(f"expected a runway such as '09/27' or '27', got {_describe(raw)}",
                                      field="runway")
             _set(self, "runway", "/".join(parts))  # type: ignore[arg-type]
-            _text(self, "side", choices=SIDES)
 
     @property
     def kind(self) -> str:
@@ -1588,35 +1743,28 @@ class Approach(_Model):
     """
 
     _what: ClassVar[str] = "an approach"
-    _nested: ClassVar[dict[str, type]] = {"faf": Fix, "map_fix": Fix, "straight_in": StraightIn}
-    _nested_seq: ClassVar[dict[str, type]] = {"not_authorised_sectors": Sector}
+    _help: ClassVar[str] = (f"An instrument approach; FAF {_fmt(FAF_HEIGHT_FT.lo)} to {_fmt(FAF_HEIGHT_FT.hi)} ft above "
+                            f"the airfield, fixes within {_fmt(FIX_FROM_ARP_NM)} NM.")
 
-    name: str
-    runway: str | None = None
-    final_course_deg_mag: float
-    faf: Fix
-    map_fix: Fix
-    criteria: str
-    rnav_gps: bool = False
-    circling: tuple[CirclingMinimum, ...]
-    not_authorised_sectors: tuple[Sector, ...] = ()
-    straight_in: StraightIn | None = None
-    missed_approach: str = ""
+    name: str = text_field("Approach name as charted, unique at the airfield (e.g. 'RNAV (GPS) RWY 09', 'VOR-A').")
+    runway: str | None = designator_field("Threshold the final course serves; null for a circling-only procedure.",
+                                          default=None)
+    final_course_deg_mag: float = num_field(COURSE_DEG, "Final approach course, magnetic [deg].")
+    faf: Fix = model_field(Fix, schema_ref="FinalApproachFix")
+    map_fix: Fix = model_field(Fix)
+    criteria: str = choice_field(CRITERIA, "Design criteria of the circling area.")
+    rnav_gps: bool = flag_field("True for an RNAV (GPS) / RNP procedure.")
+    circling: tuple[CirclingMinimum, ...] = categories_field(
+        CirclingMinimum, f"Circling minimums by category A to E; an absent category is not published. MDA "
+        f"{_fmt(CIRCLING_HAA_FT.lo)} to {_fmt(CIRCLING_HAA_FT.hi)} ft above the airfield elevation.")
+    not_authorised_sectors: tuple[Sector, ...] = models_field(Sector, default=())
+    straight_in: StraightIn | None = model_field(StraightIn, default=None)
+    missed_approach: str = text_field("Missed approach instructions, as charted.", default="", empty_ok=True)
 
     def __post_init__(self) -> None:
-        _text(self, "name")
-        _designator(self, "runway", optional=True)
-        _num(self, "final_course_deg_mag", COURSE_DEG)
-        _instance(self, "faf", Fix)
-        _instance(self, "map_fix", Fix)
+        check_declared(self)
         if self.faf.altitude_ft is None:
             raise InvariantError("missing required key 'altitude_ft'", field="faf")
-        _text(self, "criteria", choices=CRITERIA)
-        _flag(self, "rnav_gps")
-        _check_categories(self, "circling", CirclingMinimum, min_items=1)
-        _items(self, "not_authorised_sectors", Sector, what="sector")
-        _instance(self, "straight_in", StraightIn, optional=True)
-        _text(self, "missed_approach", empty_ok=True)
         if self.straight_in is not None:
             if self.runway is None:
                 raise InvariantError("a circling-only approach (no runway) has no straight-in minimums",
@@ -1683,35 +1831,36 @@ class Airfield(_Model):
 
     _kind: ClassVar[str | None] = KIND_AIRFIELD
     _what: ClassVar[str] = "an airfield"
-    _nested: ClassVar[dict[str, type]] = {"reference_point": LatLon}
-    _nested_seq: ClassVar[dict[str, type]] = {"runways": Runway, "obstacles": Obstacle, "approaches": Approach}
+    _title: ClassVar[str] = "briefer airfield"
+    _help: ClassVar[str] = (
+        f"An invented or user airfield for briefer (kind: {KIND_AIRFIELD}). Positions are latitude/longitude, or the "
+        "numbers an approach chart and an airport diagram print (headings, lengths, distances and bearings); "
+        "without reference_point every position must be chart numbers and the airfield lives in a local frame. "
+        "Cross-field rules the loader also checks are given in the descriptions.")
 
-    ident: str
-    name: str
-    reference_point: LatLon | None = None
-    elevation_ft: float
-    magnetic_variation_deg: float | None = None
-    runways: tuple[Runway, ...]
-    obstacles: tuple[Obstacle, ...] = ()
-    approaches: tuple[Approach, ...]
+    ident: str = text_field("Identifier, 2 to 8 letters or digits.", pattern="[A-Za-z0-9]{2,8}",
+                            pattern_words="2 to 8 letters or digits")
+    name: str = text_field("Airfield name.")
+    reference_point: LatLon | None = model_field(
+        LatLon, "The airfield reference point (ARP). Optional: leave it out to enter everything from the chart (a "
+        "local frame with its origin at the first runway's threshold_a).", default=None)
+    elevation_ft: float = num_field(ELEVATION_FT, "Airfield elevation [ft].")
+    magnetic_variation_deg: float | None = num_field(
+        VARIATION_DEG, "Magnetic variation, east positive: true = magnetic + variation [deg]. The chart's variation "
+        "of record; when absent it is computed from the World Magnetic Model at the reference point for today's "
+        "date. Required without a reference point (a local frame): give the chart's.", default=None)
+    runways: tuple[Runway, ...] = models_field(Runway, min_items=1)
+    obstacles: tuple[Obstacle, ...] = models_field(Obstacle, default=())
+    approaches: tuple[Approach, ...] = models_field(Approach, min_items=1)
     variation_model: Any = field(default=None, init=False, compare=False, repr=False)
     layout: Any = field(default=None, init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
-        ident = _text(self, "ident")
-        if ident is not None and not re.fullmatch(r"[A-Za-z0-9]{2,8}", ident):
-            raise InvariantError(f"expected 2 to 8 letters or digits, got {_describe(ident)}", field="ident")
+        check_declared(self)
         _set(self, "ident", self.ident.upper())
-        _text(self, "name")
-        _instance(self, "reference_point", LatLon, optional=True)
-        _num(self, "elevation_ft", ELEVATION_FT)
         if self.magnetic_variation_deg is None:
             self._variation_from_model()
-        else:
-            _num(self, "magnetic_variation_deg", VARIATION_DEG)
-        runways = _items(self, "runways", Runway, min_items=1, what="runway")
-        obstacles = _items(self, "obstacles", Obstacle, what="obstacle")
-        approaches = _items(self, "approaches", Approach, min_items=1, what="approach")
+        runways, obstacles, approaches = self.runways, self.obstacles, self.approaches
         self._check_runways(runways)
         self._check_obstacles(obstacles)
         self._check_approaches(approaches)

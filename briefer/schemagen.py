@@ -24,7 +24,7 @@ from typing import Any
 
 from briefer import model
 from briefer.io.atomic import write_text_atomic
-from briefer.model import CATEGORIES, FORMAT_VERSION, TEXT_MAX, Forms, Spec, declared_fields
+from briefer.model import CATEGORIES, FORMAT_VERSION, TEXT_MAX, Spec, declared_fields
 
 __all__ = ["GENERATED_KINDS", "DESIGNATOR_PATTERN", "file_schema", "schema_text", "schema_path", "main"]
 
@@ -33,17 +33,18 @@ DESIGNATOR_PATTERN = "^(0?[1-9]|[12][0-9]|3[0-6])[LCRlcr]?$"
 SCHEMA_DIR = Path(__file__).resolve().parent / "schemas"
 
 
-GENERATED_KINDS = (model.KIND_PROFILE,)
+GENERATED_KINDS = (model.KIND_PROFILE, model.KIND_AIRFIELD)
 """The file kinds whose schema is generated from the declarations (the others are still hand-kept)."""
 
 
 def _models() -> dict[str, Any]:
     """The top-level model of each generated file kind."""
-    return {model.KIND_PROFILE: model.AircraftProfile}
+    return {model.KIND_PROFILE: model.AircraftProfile, model.KIND_AIRFIELD: model.Airfield}
 
 
-def _nullable(f: Any) -> bool:
-    return f.default is None
+def _nullable(f: Any, spec: Spec) -> bool:
+    """Null allowed: the spec says so, or else the field is optional (the loader reads null as absent)."""
+    return f.default is None if spec.nullable is None else spec.nullable
 
 
 def _with_null(types: str | list[str], nullable: bool) -> str | list[str]:
@@ -54,7 +55,7 @@ def _with_null(types: str | list[str], nullable: bool) -> str | list[str]:
 
 def _property(f: Any, spec: Spec, defs: dict[str, Any]) -> dict[str, Any]:
     """The schema of one declared field."""
-    nullable, kind = _nullable(f), spec.kind
+    nullable, kind = _nullable(f, spec), spec.kind
     out: dict[str, Any]
     if kind == "number":
         out = {"type": _with_null("number", nullable)}
@@ -89,34 +90,12 @@ def _property(f: Any, spec: Spec, defs: dict[str, Any]) -> dict[str, Any]:
                "properties": {c: ref for c in CATEGORIES}}
     elif kind == "custom":
         out = dict(spec.schema or {})
+        if "type" in out:
+            out["type"] = _with_null(out["type"], nullable)
     else:  # pragma: no cover - a declaration error
         raise ValueError(f"{f.name}: unknown field kind {kind!r}")
     if spec.help:
         out["description"] = spec.help
-    return out
-
-
-def _required(key: str) -> dict[str, Any]:
-    return {"required": [key]}
-
-
-def _none_of(keys: list[str]) -> dict[str, Any]:
-    """Not any of these keys."""
-    return _required(keys[0]) if len(keys) == 1 else {"anyOf": [_required(k) for k in keys]}
-
-
-def _forms_schema(rule: Forms) -> dict[str, Any]:
-    """A `Forms` rule as JSON Schema: one form whole (oneOf), or at most one."""
-    if rule.required:
-        return {"oneOf": [{"required": list(form),
-                           "not": _none_of([k for other in rule.forms if other is not form for k in other])}
-                          for form in rule.forms]}
-    pairs = [[a, b] for i, form in enumerate(rule.forms) for other in rule.forms[i + 1:]
-             for a in form for b in other]
-    out: dict[str, Any] = {"not": {"anyOf": [{"required": p} for p in pairs]}}
-    together = {k: [o for o in form if o != k] for form in rule.forms if len(form) > 1 for k in form}
-    if together:
-        out["dependentRequired"] = together
     return out
 
 
@@ -132,14 +111,18 @@ def model_schema(cls: Any, defs: dict[str, Any], variant: str | None = None) -> 
     if cls._help:
         node["description"] = cls._help
     node.update(properties=properties, required=required, additionalProperties=False)
-    rules = [_forms_schema(rule) for rule in cls._forms]
+    rules = [rule.schema() for rule in cls._forms]
     extra = cls.schema_extra(variant, node)
     if extra:
         rules.append(extra)
-    if len(rules) == 1:
-        node.update(rules[0])
-    elif rules:
-        node["allOf"] = rules
+    leftover = []
+    for rule in filter(None, rules):       # side by side when they share no keyword, else allOf
+        if set(rule) & set(node):
+            leftover.append(rule)
+        else:
+            node.update(rule)
+    if leftover:
+        node["allOf"] = leftover
     return node
 
 

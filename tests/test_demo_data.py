@@ -460,18 +460,29 @@ def test_checked_in_schemas_are_the_generated_ones(tmp_path: Path) -> None:
     assert json.loads((tmp_path / f"{KIND_PROFILE}.schema.json").read_text()) == schema(KIND_PROFILE)
 
 
-def test_schema_ranges_and_choices_are_the_loaders() -> None:
-    """The generated schema says what the loader checks: the same range (a value just outside
-    fails both) and the same choices, for every declared number and choice of the profile."""
-    from briefer.model import Spec, declared_fields
+def _declared_models(cls: Any) -> list[Any]:
+    """A model class and every model nested in it (fields, lists, categories), once each."""
+    from briefer.model import declared_fields
 
-    root = schema(KIND_PROFILE)
-    nodes = {AircraftProfile: root, Configuration: root["$defs"]["Configuration"],
-             FamiliarPattern: root["$defs"]["FamiliarPattern"], WindAdditive: root["$defs"]["WindAdditive"]}
+    out = [cls]
+    for _, spec in declared_fields(cls):
+        if spec.model is not None:
+            out += [m for m in _declared_models(spec.model) if m not in out]
+    return out
+
+
+@pytest.mark.parametrize("kind, top", [(KIND_PROFILE, AircraftProfile), (KIND_AIRFIELD, Airfield)])
+def test_schema_ranges_and_choices_are_the_loaders(kind: str, top: Any) -> None:
+    """The generated schema says what the loader checks: for every declared field of every model
+    of the format, the same range, the same choices and the same help text."""
+    from briefer.model import declared_fields
+
+    root = schema(kind)
     seen = 0
-    for cls, node in nodes.items():
+    for cls in _declared_models(top):
+        node = root if cls is top else root["$defs"][cls.__name__]
+        assert list(node["properties"]) == [k for k in cls.keys() if k != "category"], cls.__name__
         for f, spec in declared_fields(cls):
-            assert isinstance(spec, Spec)
             prop = node["properties"][f.name]
             if spec.kind == "number":
                 assert (prop["minimum"], prop["maximum"]) == (spec.range.lo, spec.range.hi), f.name
@@ -479,7 +490,7 @@ def test_schema_ranges_and_choices_are_the_loaders() -> None:
             elif spec.kind == "choice":
                 assert prop["enum"][:len(spec.choices)] == list(spec.choices), f.name
             assert prop.get("description", "") == spec.help, f.name
-    assert seen >= 15
+    assert seen >= {KIND_PROFILE: 15, KIND_AIRFIELD: 40}[kind]
 
 
 @pytest.mark.parametrize("kind", [KIND_PROFILE, KIND_AIRFIELD])

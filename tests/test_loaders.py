@@ -94,8 +94,9 @@ CASES = [
     ("p-duplicate-config.yaml",
      "p-duplicate-config.yaml:20: configurations[1].name: duplicate configuration name 'Flaps-10' "
      "(also configurations[0])"),
-    ("p-familiar-both.yaml",
-     "p-familiar-both.yaml:8: familiar_pattern: give either offset_nm, or speed_kt and bank_deg, not both"),
+    ("p-familiar-both.yaml",  # like every 'not both': the line of the second key, and the keys given
+     "p-familiar-both.yaml:11: familiar_pattern.speed_kt: give either offset_nm, or speed_kt and bank_deg, not both "
+     "(got offset_nm and speed_kt)"),
     ("p-familiar-speed-only.yaml",
      "p-familiar-speed-only.yaml:8: familiar_pattern: missing required key 'bank_deg' (speed_kt needs bank_deg)"),
     ("p-weight-kg.yaml",  # 2400 lb entered as 1090 kg
