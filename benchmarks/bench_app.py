@@ -63,7 +63,11 @@ from briefer.cli import build_parser
 from briefer.commands.app import inputs_from_args
 from briefer.tui.app import BriefingApp
 async def main():
-    p, _ = build_parser(); args = p.parse_args(["app"])
+    try:
+        p, _ = build_parser("app")          # what `briefer app` builds: the app command's options only
+    except TypeError:                       # an older checkout: every command's options
+        p, _ = build_parser()
+    args = p.parse_args(["app"])
     cat, inputs, _ = inputs_from_args(args)
     app = BriefingApp(cat, inputs)
     async with app.run_test(size=(80, 24)) as pilot:
