@@ -13,7 +13,7 @@ from rich.table import Table
 from rich.text import Text
 
 from briefer.render.views import MARK, STYLE, MinimumsView, PerformanceView, fmt, wind_text
-from briefer.display_units import (DEFAULT_UNITS, altimeter_words, visibility_reported_words,
+from briefer.display_units import (DEFAULT_UNITS, altimeter_words, finding_text, visibility_reported_words,
                                    visibility_required_words, weight_words)
 from briefer.wording import area_edge_words, circling_speed_words, vref_words, wind_components_text, wind_limits_words
 from briefer.result import Brief
@@ -46,8 +46,9 @@ def summary_text(brief: Brief) -> Text:
     return t
 
 
-def warnings_line(brief: Brief) -> Text:
-    """How many warnings, and the most severe one's text whole (it wraps; `w` lists them all)."""
+def warnings_line(brief: Brief, units: str = DEFAULT_UNITS) -> Text:
+    """How many warnings, and the most severe one's text whole (it wraps; `w` lists them all), in
+    the display units `units`."""
     ws = brief.warnings
     n = {s: sum(1 for f in ws if f.severity == s) for s in ("danger", "warning", "info")}
     t = Text()
@@ -58,7 +59,7 @@ def warnings_line(brief: Brief) -> Text:
             if n["warning"] else "")
         t.append(label, style="bold reverse" if n["danger"] else "bold")
         t.append(" (w lists all)" if len(ws) > 1 else "")
-        t.append(" " + top.text, style=STYLE[top.severity])
+        t.append(" " + finding_text(top, units), style=STYLE[top.severity])
     else:
         t.append("No warnings.", style="bold")
         if n["info"]:
@@ -66,7 +67,8 @@ def warnings_line(brief: Brief) -> Text:
     return t
 
 
-def findings_short(brief: Brief, *, severities: tuple[str, ...] = ("danger", "warning")) -> RenderableType:
+def findings_short(brief: Brief, *, severities: tuple[str, ...] = ("danger", "warning"),
+                   units: str = DEFAULT_UNITS) -> RenderableType:
     rows = [f for f in brief.warnings if f.severity in severities]
     if not rows:
         return Text("No warnings.", style="bold")
@@ -74,7 +76,7 @@ def findings_short(brief: Brief, *, severities: tuple[str, ...] = ("danger", "wa
     for f in rows:
         t = Text()
         t.append(f"{MARK[f.severity]} {f.severity.upper()}", style=STYLE[f.severity])
-        t.append(" " + f.text)
+        t.append(" " + finding_text(f, units))
         out.append(t)
     return Group(*out)
 
@@ -148,7 +150,8 @@ def plan_numbers(brief: Brief) -> RenderableType:
     if p.break_off_s is not None:
         side = f" {p.break_off_direction.upper()}" if p.break_off_direction else ""
         hdg = "" if p.break_off_heading_deg_mag is None else f", {p.break_off_heading_deg_mag % 360.0:03.0f}° M"
-        g.add_row("Break off", f"{_num(p.break_off_angle_deg, '.0f', '°')}{side}{hdg}, {p.break_off_s:.0f} s")
+        g.add_row("Break off", f"{_num(p.break_off_angle_deg, '.0f', '°')}{side}{hdg}")
+        g.add_row("", f"for {p.break_off_s:.0f} s")     # its own line: at 80 columns it wrapped
     if p.downwind_heading_deg_mag is not None:
         g.add_row("Downwind", f"{p.downwind_heading_deg_mag:03.0f}° M")
     t, d = p.abeam_to_roll_in_s, p.roll_in_distance_nm
