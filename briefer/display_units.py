@@ -11,15 +11,22 @@ Two sets:
 MDA, heights and altitudes stay in feet, distances in NM, speeds in knots in both sets. A
 visibility is rounded DOWN to the step (never more than was reported); a requirement charted in
 statute miles keeps its charted text with the exact metres beside it ('2 1/2 SM = 4023 m').
-Only what is shown changes: the JSON keeps its own units (they are in its keys).
+Only what is shown changes: the JSON keeps its own units (they are in its keys), and a
+finding's sentence keeps the default words in the JSON (`finding_text` says it in the set shown).
 
 Conversions from `briefer.units` (NIST SP 811 Appendix B). Pure Python: no numpy, Rich or Textual.
 """
 
 from __future__ import annotations
 
+from collections.abc import Iterable
+from typing import TYPE_CHECKING
+
 from briefer.units import LB_TO_KG, SM_TO_M
 from briefer.wording import visibility_words
+
+if TYPE_CHECKING:       # the Brief's parts are read here, never built (no numpy at import)
+    from briefer.result import Finding, VisibilityMention
 
 UNIT_SETS = ("us", "icao")
 """The display-unit sets, as written in the config file and after ``--units``."""
@@ -83,5 +90,39 @@ def visibility_required_words(text: str | None, required_sm: float | None, *, me
     return f"{text} = {required_sm * SM_TO_M:.0f} m"
 
 
-__all__ = ["DEFAULT_UNITS", "UNIT_SETS", "altimeter_words", "check_units", "metric_visibility_words", "next_units",
-           "visibility_reported_words", "visibility_required_words", "weight_words"]
+def mention_words(mention: VisibilityMention, units: str = DEFAULT_UNITS) -> str:
+    """A visibility a text names, in the display units: a requirement as charted (icao: with the
+    metres beside one charted in statute miles), any other visibility as a report is shown."""
+    if check_units(units) != "icao":
+        return mention.text
+    if mention.required:
+        return visibility_required_words(mention.text, mention.visibility_sm, metre_minimums=mention.metre_minimums,
+                                         units=units) or mention.text
+    return metric_visibility_words(mention.visibility_sm)
+
+
+def said_in(text: str, mentions: Iterable[VisibilityMention], units: str = DEFAULT_UNITS) -> str:
+    """`text` (a finding's, an alternative's why-not) with the visibilities it names said in the
+    display units: each mention's words, in the order they stand in the text, replaced by
+    `mention_words` (the us set leaves the text as written)."""
+    if check_units(units) != "icao":
+        return text
+    pos = 0
+    for m in mentions:
+        at = text.find(m.text, pos)
+        if at < 0:
+            continue
+        words = mention_words(m, units)
+        text = text[:at] + words + text[at + len(m.text):]
+        pos = at + len(words)
+    return text
+
+
+def finding_text(finding: Finding, units: str = DEFAULT_UNITS) -> str:
+    """A finding's sentence in the display units (`said_in`)."""
+    return said_in(finding.text, finding.visibilities, units)
+
+
+__all__ = ["DEFAULT_UNITS", "UNIT_SETS", "altimeter_words", "check_units", "finding_text", "mention_words",
+           "metric_visibility_words", "next_units", "said_in", "visibility_reported_words",
+           "visibility_required_words", "weight_words"]

@@ -25,18 +25,40 @@ def frozen_array(values) -> np.ndarray:
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
+class VisibilityMention:
+    """A visibility that a text of the brief names: the words written there (the tool's default
+    units) and the value, so that a renderer says it in the crew's display units
+    (`briefer.display_units.said_in`).
+
+    Attributes:
+        text: The words as they stand in the text ('3.0 SM', '2 1/2 SM', '2800 m').
+        visibility_sm: The value. [SM]
+        required: A charted requirement (said as charted, with the metres beside it), not a
+            reported or planned visibility.
+        metre_minimums: The minimums are charted in metres.
+    """
+
+    text: str
+    visibility_sm: float
+    required: bool = False
+    metre_minimums: bool = False
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
 class Finding:
     """Something the crew must see: an impossible case, a limit, a hazard, or a note.
 
     Attributes:
         severity: "danger" (cannot be flown as briefed), "warning" (limit or hazard), "info".
         code: a stable identifier for tests and JSON (e.g. "ceiling-below-mda").
-        text: one plain sentence for the screen and the card.
+        text: one plain sentence for the screen and the card (in the default display units).
+        visibilities: The visibilities the text names, in the order they stand there.
     """
 
     severity: Severity
     code: str
     text: str
+    visibilities: tuple[VisibilityMention, ...] = ()
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -167,6 +189,7 @@ class Alternative:
     bank_deg: float
     area_margin_nm: float | None
     why_not: str
+    why_not_visibilities: tuple[VisibilityMention, ...] = ()   # the visibilities `why_not` names
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

@@ -5,14 +5,14 @@ Brief sorts them by severity, keeping this order within a severity), and the res
 from __future__ import annotations
 
 from briefer._dataclass import dataclass
-from briefer.result import Finding
+from briefer.result import Finding, VisibilityMention
 
 
 class FindingList(list[Finding]):
     """Findings in the order a section found them."""
 
-    def add(self, severity: str, code: str, text: str) -> None:
-        self.append(Finding(severity=severity, code=code, text=text))
+    def add(self, severity: str, code: str, text: str, visibilities: tuple[VisibilityMention, ...] = ()) -> None:
+        self.append(Finding(severity=severity, code=code, text=text, visibilities=visibilities))
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

@@ -23,7 +23,7 @@ from briefer.core import coldtemp, criteria, minimums
 from briefer.model import Sector
 from briefer.wording import visibility_words
 from briefer.result import (
-    AreaInfo, CategoryInfo, ColdCorrection, MinimumsInfo, ObstacleDrawing, frozen_array,
+    AreaInfo, CategoryInfo, ColdCorrection, MinimumsInfo, ObstacleDrawing, VisibilityMention, frozen_array,
 )
 
 COLD_CORRECTION_AT_OR_BELOW_C = 0.0
@@ -76,9 +76,12 @@ def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
     vis_ok = None if (wx.visibility_sm is None or vis_req is None) else wx.visibility_sm >= vis_req - 1e-9
     ceil_ok = None if (wx.ceiling_ft is None or haa is None) else wx.ceiling_ft >= haa
     if vis_ok is False:
-        found.add("danger", "visibility-below-minimum",
-                  f"Reported visibility {visibility_words(wx.visibility_sm, metres=in_metres)} is below the "
-                  f"required {vis_charted}.")
+        reported = visibility_words(wx.visibility_sm, metres=in_metres)
+        found.add("danger", "visibility-below-minimum", f"Reported visibility {reported} is below the required "
+                  f"{vis_charted}.", (
+                      VisibilityMention(text=reported, visibility_sm=wx.visibility_sm, metre_minimums=in_metres),
+                      VisibilityMention(text=vis_charted, visibility_sm=vis_req, required=True,
+                                        metre_minimums=in_metres)))
     if ceil_ok is False:
         found.add("danger", "ceiling-below-mda",
                   f"Reported ceiling {wx.ceiling_ft:.0f} ft is below the circling height ({haa:.0f} ft HAA).")

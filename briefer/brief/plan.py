@@ -17,7 +17,8 @@ from briefer.brief.roll_out import choose_with_closer_roll_out
 from briefer.brief.situation_inputs import Situation
 from briefer.core import geometry, maneuver
 from briefer.core.manoeuvre.missed import headline_missed_direction
-from briefer.result import Alternative, MissedApproachInfo, PlanInfo, frozen_array
+from briefer.core.manoeuvre.ranking import reason_visibility_words
+from briefer.result import Alternative, MissedApproachInfo, PlanInfo, VisibilityMention, frozen_array
 
 CENTRELINE_BAND_M = 30.0   # points this close to the extended centreline are "on the final"
 
@@ -50,7 +51,7 @@ def plan_section(s: Situation, *, bank_target_deg: float, straight_in: bool,
     choice, roll_out_shortened = choose_with_closer_roll_out(s, s.area_radius.radius_nm * units.NM_TO_M)
     best = choice.ranked[0] if choice.ranked else None
     plan = best.plan if best is not None else None
-    alts = _alternatives(choice)
+    alts = _alternatives(s, choice)
     if withheld:
         info = dataclasses.replace(_no_plan_info(s, best, ()), reasons=tuple(withheld), shape="none",
                                    shape_text="No plan recommended", side="-")
@@ -73,9 +74,9 @@ def plan_section(s: Situation, *, bank_target_deg: float, straight_in: bool,
                       "No circling plan applies: the arrival is aligned with the landing runway. Descend straight "
                       "in if the runway is in sight in time for a normal descent; otherwise fly the missed approach.")
     elif choice.bank_needed_deg is None:
-        found.add("danger", "no-plan-fits",
-                  f"No plan passes every check up to the bank limit of {s.bank_limit_deg:.0f}°; the best one, "
-                  "shown, fails: " + "; ".join(best.failures or plan.reasons or ("see the alternatives",)) + ".")
+        text = (f"No plan passes every check up to the bank limit of {s.bank_limit_deg:.0f}°; the best one, "
+                "shown, fails: " + "; ".join(best.failures or plan.reasons or ("see the alternatives",)) + ".")
+        found.add("danger", "no-plan-fits", text, _visibilities_named(s, text))
     elif choice.bank_needed_deg > bank_target_deg + 1e-6:
         found.add("warning", "bank-raised",
                   f"The plan needs {choice.bank_needed_deg:.0f}° bank, more than the {bank_target_deg:.0f}° target.")
@@ -86,7 +87,8 @@ def plan_section(s: Situation, *, bank_target_deg: float, straight_in: bool,
                   f"The track goes {info.max_distance_from_threshold_nm:.1f} NM from the runway, beyond the "
                   f"reported visibility: you may lose sight of it.")
     if best is not None and best.verdict == "marginal":
-        found.add("warning", "plan-marginal", "The plan is marginal: " + "; ".join(best.marginal) + ".")
+        text = "The plan is marginal: " + "; ".join(best.marginal) + "."
+        found.add("warning", "plan-marginal", text, _visibilities_named(s, text))
     if roll_out_shortened and feasible:
         found.add("info", "roll-out-shortened",
                   f"Rolled out at {info.roll_out_distance_nm:.2f} NM final instead of the descent point, "
@@ -96,13 +98,22 @@ def plan_section(s: Situation, *, bank_target_deg: float, straight_in: bool,
     return PlanPart(plan=info, missed_approach=missed, solved=plan, findings=tuple(found))
 
 
-def _alternatives(choice: maneuver.PlanChoice) -> tuple[Alternative, ...]:
+def _visibilities_named(s: Situation, text: str) -> tuple[VisibilityMention, ...]:
+    """The plan's visibility, where the ranking's reasons in `text` name it."""
+    words = reason_visibility_words(s.visibility_m)
+    return (VisibilityMention(text=words, visibility_sm=s.visibility_m * units.M_TO_SM),) * text.count(words)
+
+
+def _alternatives(s: Situation, choice: maneuver.PlanChoice) -> tuple[Alternative, ...]:
     nm = units.M_TO_NM
-    return tuple(Alternative(shape=rp.plan.shape, side=rp.plan.side, feasible=rp.verdict != "does not fit",
-                             bank_deg=rp.plan.bank_deg,
-                             area_margin_nm=None if rp.area_margin_m is None else rp.area_margin_m * nm,
-                             why_not=rp.why_not_first or "; ".join(rp.failures))
-                 for rp in choice.ranked[1:])
+    out = []
+    for rp in choice.ranked[1:]:
+        why_not = rp.why_not_first or "; ".join(rp.failures)
+        out.append(Alternative(shape=rp.plan.shape, side=rp.plan.side, feasible=rp.verdict != "does not fit",
+                               bank_deg=rp.plan.bank_deg,
+                               area_margin_nm=None if rp.area_margin_m is None else rp.area_margin_m * nm,
+                               why_not=why_not, why_not_visibilities=_visibilities_named(s, why_not)))
+    return tuple(out)
 
 
 def _empty_xy() -> np.ndarray:

@@ -27,7 +27,7 @@ from briefer.render.brief_scene import scene_from_brief
 from briefer.render.scene import ROLE_STYLES, Role, Scene
 from briefer.render.side_scene import SidePicture, side_picture
 from briefer.wording import area_edge_words, stall_margin_words, category_words, wind_components_text, wind_limits_words
-from briefer.display_units import (DEFAULT_UNITS, altimeter_words, visibility_reported_words,
+from briefer.display_units import (DEFAULT_UNITS, altimeter_words, finding_text, visibility_reported_words,
                                    visibility_required_words, weight_words)
 from briefer.result import Brief, Finding
 
@@ -401,9 +401,9 @@ def _side_view(brief: Brief) -> SideView:
     return SideView(picture=side_picture(brief), rows=tuple(rows))
 
 
-def _warning(f: Finding) -> WarningLine:
+def _warning(f: Finding, units: str) -> WarningLine:
     return WarningLine(severity=f.severity, mark=SEVERITY_MARK[f.severity], word=SEVERITY_WORD[f.severity],
-                       text=f.text)
+                       text=finding_text(f, units))
 
 
 def legend_lines(scene: Scene) -> tuple[LegendLine, ...]:
@@ -436,7 +436,7 @@ def card_layout(brief: Brief, units: str = DEFAULT_UNITS) -> CardLayout:
         legend=legend_lines(scene),
         side_view=_side_view(brief),
         wind=_wind(brief, units),
-        warnings=tuple(_warning(f) for f in brief.warnings),
+        warnings=tuple(_warning(f, units) for f in brief.warnings),
         cautions=cautions,
         footer=f"briefer {__version__}. {SHORT_CAUTION}",
     )

@@ -13,7 +13,7 @@ from rich.table import Table
 from rich.text import Text
 
 from briefer.wording import area_edge_words, stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words
-from briefer.display_units import (DEFAULT_UNITS, altimeter_words, visibility_reported_words,
+from briefer.display_units import (DEFAULT_UNITS, altimeter_words, finding_text, said_in, visibility_reported_words,
                                    visibility_required_words, weight_words)
 from briefer.result import Brief, Finding
 
@@ -47,8 +47,9 @@ def _kv_grid() -> Table:
 class FindingsView:
     """Warnings, most severe first."""
 
-    def __init__(self, findings: tuple[Finding, ...]) -> None:
+    def __init__(self, findings: tuple[Finding, ...], units: str = DEFAULT_UNITS) -> None:
         self.findings = findings
+        self.units = units
 
     def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
         if not self.findings:
@@ -57,7 +58,7 @@ class FindingsView:
         for f in self.findings:
             t = Text()
             t.append(f"{MARK[f.severity]} {f.severity.upper():7}", style=STYLE[f.severity])
-            t.append(" " + f.text)
+            t.append(" " + finding_text(f, self.units))
             yield t
 
 
@@ -101,8 +102,9 @@ class MinimumsView:
 
 
 class PlanView:
-    def __init__(self, brief: Brief) -> None:
+    def __init__(self, brief: Brief, units: str = DEFAULT_UNITS) -> None:
         self.brief = brief
+        self.units = units
 
     def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
         b = self.brief
@@ -117,7 +119,7 @@ class PlanView:
             if p.alternatives:
                 yield Text("Other plans:", style="bold")
                 for alt in p.alternatives:
-                    yield Text(f"  {alt.shape} ({alt.side}): {alt.why_not}")
+                    yield Text(f"  {alt.shape} ({alt.side}): {said_in(alt.why_not, alt.why_not_visibilities, self.units)}")
             return
         g.add_row("Plan", f"{p.shape_text}, downwind {p.side} of the runway")
         g.add_row("Offset", f"{p.offset_nm:.2f} NM from the centreline")
@@ -142,7 +144,7 @@ class PlanView:
         if p.alternatives:
             yield Text("Other plans:", style="bold")
             for alt in p.alternatives:
-                yield Text(f"  {alt.shape} ({alt.side}): {alt.why_not}")
+                yield Text(f"  {alt.shape} ({alt.side}): {said_in(alt.why_not, alt.why_not_visibilities, self.units)}")
 
 
 class PerformanceView:
@@ -218,13 +220,13 @@ class BriefView:
         b = self.brief
         yield header_text(b, self.units)
         yield Text("WARNINGS", style="bold underline")
-        yield FindingsView(b.warnings)
+        yield FindingsView(b.warnings, self.units)
         yield Text("MINIMUMS AND AREA", style="bold underline")
         yield MinimumsView(b, self.units)
         yield Text("PERFORMANCE AT THE MDA", style="bold underline")
         yield PerformanceView(b)
         yield Text("PLAN", style="bold underline")
-        yield PlanView(b)
+        yield PlanView(b, self.units)
         yield Text("SIGHT PICTURE", style="bold underline")
         yield SightPictureView(b)
         yield CautionsView(b.cautions)

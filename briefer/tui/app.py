@@ -541,7 +541,8 @@ class BriefingApp(App[None]):
             self.notify("No brief yet.", severity="warning")
             return
         title = "WARNINGS, most severe first" + (" (of the last good brief: STALE)" if self.stale else "")
-        self.push_screen(WarningsScreen(findings_short(self.brief, severities=("danger", "warning", "info")), title))
+        self.push_screen(WarningsScreen(findings_short(self.brief, severities=("danger", "warning", "info"),
+                                                       units=self.main.units), title))
 
     def unsaveable_reason(self) -> str | None:
         """Why the inputs cannot be saved now: a field flagged wrong (its typed text is not in

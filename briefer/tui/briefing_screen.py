@@ -224,6 +224,10 @@ class BriefingScreen(Screen):
         """Show the brief's views in other display units (redrawn from the same brief)."""
         self.units = units
         if self.brief is not None:
+            if not self.node("#warnings", Static).has_class("-stale"):   # the top warning names a visibility
+                from briefer.tui import views
+
+                self._update("warnings", views.warnings_line(self.brief, self.units))
             self._dirty = {pid for pid, _ in STEPS}
             self._draw_pane(self.node("#steps", TabbedContent).active)
 
@@ -300,7 +304,7 @@ class BriefingScreen(Screen):
         elif brief is not None:
             from briefer.tui import views
 
-            self._update("warnings", views.warnings_line(brief))
+            self._update("warnings", views.warnings_line(brief, self.units))
 
     def show_envelope(self, envelope, brief: Brief | None) -> None:
         self.node(EnvelopePolar).show(envelope, brief)

@@ -137,6 +137,13 @@ def _nm(distance_m: float) -> str:
     return f"{distance_m * M_TO_NM:.2f} NM"
 
 
+def reason_visibility_words(visibility_m: float) -> str:
+    """A visibility as the ranking's reasons name it: statute miles, one decimal ('3.0 SM'). The
+    brief records each use (`briefer.result.VisibilityMention`) so that a renderer can say it in
+    the crew's display units."""
+    return f"{visibility_m * M_TO_SM:.1f} SM"
+
+
 def _label(p: Plan) -> str:
     return f"{p.shape} {p.side}"
 
@@ -206,10 +213,10 @@ def rank_plans(plans: tuple[Plan, ...] | list[Plan], *, margin_fn: MarginFn, vis
             marg.append(f"only {_nm(area)} inside the protected area (< 10 % of R)")
         if fbits & REASON_VISIBILITY:
             fails.append(f"the runway gets {_nm(p.max_distance_from_runway_m)} away, beyond the "
-                         f"{visibility_m * M_TO_SM:.1f} SM visibility")
+                         f"{reason_visibility_words(visibility_m)} visibility")
         elif mbits & REASON_VISIBILITY:
             marg.append(f"the runway gets {_nm(p.max_distance_from_runway_m)} away, over 90 % of the "
-                        f"{visibility_m * M_TO_SM:.1f} SM visibility")
+                        f"{reason_visibility_words(visibility_m)} visibility")
         if fbits & REASON_STALL:
             fails.append(f"angle-of-attack margin {aoa:.1f} deg: beyond the stall")
         elif mbits & REASON_STALL:
