@@ -5,6 +5,13 @@ its unit in its name. Each model checks its own invariants in ``__post_init__`` 
 ranges, cross-field rules) and raises `InvariantError` (a `DomainError`) naming the field, so a model
 built by hand in a test or the TUI is validated exactly like one read from a file.
 
+Each file format is declared once, here: every field carries a `Spec` (its kind, plausible range or
+choices, unit and help text), and alternative forms of a model are `Forms` rules. The checks
+(`check_declared`, first in every ``__post_init__``) and the JSON Schemas (`briefer.schemagen`,
+checked in as ``briefer/schemas/*.schema.json``) are both made from these declarations. Rules
+between fields that a schema cannot say (a threshold within 300 ft of the airfield, a fix within
+30 NM, VREF above the stall speed) are the models' own code, after the declared checks.
+
 ``Model.from_mapping(data)`` builds a model from plain mappings and lists (what a YAML or JSON reader
 gives) and ``model.to_mapping()`` gives them back; the two round-trip. ``from_mapping`` rejects unknown
 keys (with a close-match suggestion) and missing required keys, and turns every invariant failure
@@ -259,7 +266,7 @@ def _num(obj: Any, name: str, rng: Range | None = None, *, optional: bool = Fals
 
 
 def _text(obj: Any, name: str, *, optional: bool = False, empty_ok: bool = False,
-          choices: tuple[str, ...] | None = None) -> str | None:
+          choices: tuple[str, ...] | None = None, max_length: int = TEXT_MAX) -> str | None:
     """Check a text field; choices are matched case-insensitively and stored in lower case."""
     value = getattr(obj, name)
     if value is None and optional:
@@ -276,8 +283,8 @@ def _text(obj: Any, name: str, *, optional: bool = False, empty_ok: bool = False
     value = value.strip()
     if not value and not empty_ok:
         raise InvariantError("expected text, got an empty value", field=name)
-    if len(value) > TEXT_MAX:
-        raise InvariantError(f"expected at most {TEXT_MAX} characters, got {len(value)}", field=name)
+    if len(value) > max_length:
+        raise InvariantError(f"expected at most {max_length} characters, got {len(value)}", field=name)
     _set(obj, name, value)
     return value
 
@@ -339,7 +346,7 @@ def _instance(obj: Any, name: str, cls: type, *, optional: bool = False) -> None
     if value is None and optional:
         return
     if not isinstance(value, cls):
-        raise InvariantError(f"expected {cls.__name__}, got {_describe(value)}", field=name)
+        raise InvariantError(f"expected {getattr(cls, '_what', cls.__name__)}, got {_describe(value)}", field=name)
 
 
 def _distance_m(lat1: float, lon1: float, lat2: float, lon2: float) -> float:
@@ -396,6 +403,7 @@ class Spec:
     unit: str | None = None                # the unit's words when the name's suffix gives none
     choices: tuple[str, ...] = ()
     empty_ok: bool = False
+    max_length: int = TEXT_MAX             # text: the most characters
     pattern: str | None = None             # text: a regular expression the whole text matches
     pattern_words: str = ""                # ... said in words, for the message
     model: Any = None                      # 'model', 'models', 'categories': the nested model class
@@ -420,10 +428,10 @@ def num_field(rng: Range | None, help: str, *, default: Any = MISSING, unit: str
 
 
 def text_field(help: str, *, default: Any = MISSING, empty_ok: bool = False, pattern: str | None = None,
-               pattern_words: str = "") -> Any:
-    """A line of text (at most `TEXT_MAX` characters, stripped)."""
-    return declared(Spec("text", help, empty_ok=empty_ok, pattern=pattern, pattern_words=pattern_words),
-                    default=default)
+               pattern_words: str = "", max_length: int = TEXT_MAX) -> Any:
+    """A line of text (at most `max_length` characters, stripped)."""
+    return declared(Spec("text", help, empty_ok=empty_ok, pattern=pattern, pattern_words=pattern_words,
+                         max_length=max_length), default=default)
 
 
 def choice_field(choices: tuple[str, ...], help: str, *, default: Any = MISSING) -> Any:
@@ -495,7 +503,7 @@ def check_declared(obj: Any) -> None:
                 raise InvariantError(f"{exc.message} (or give {_one_of(spec.others).replace(chr(39), '')})",
                                      field=exc.field) from None
         elif kind == "text":
-            value = _text(obj, name, optional=optional, empty_ok=spec.empty_ok)
+            value = _text(obj, name, optional=optional, empty_ok=spec.empty_ok, max_length=spec.max_length)
             if spec.pattern and value is not None and not re.fullmatch(spec.pattern, value):
                 raise InvariantError(f"expected {spec.pattern_words}, got {_describe(value)}", field=name)
         elif kind == "choice":
@@ -598,17 +606,17 @@ def check_forms(obj: Any, rule: Forms) -> tuple[str, ...] | None:
 class _Model:
     """Mixin giving frozen dataclasses ``from_mapping`` / ``to_mapping``.
 
-    Subclasses declare nested models in ``_nested`` (a field holding one model) and
-    ``_nested_seq`` (a field holding a tuple of models), and name themselves in ``_what`` for
-    messages. ``_read`` may be overridden for fields whose file form differs from the model.
+    Subclasses declare their fields with a `Spec` each (`num_field`, `text_field`, `model_field`,
+    `models_field`...: what the loader checks and what the schema says) and name themselves in
+    ``_what`` for messages. ``_read`` may be overridden for fields whose file form differs from
+    the model.
     """
 
     __slots__ = ()
     _kind: ClassVar[str | None] = None   # the file kind of a top-level model
     _what: ClassVar[str] = "value"
-    _nested: ClassVar[dict[str, type]] = {}
-    _nested_seq: ClassVar[dict[str, type]] = {}
-    _extra_keys: ClassVar[tuple[str, ...]] = ()
+    _extra_fields: ClassVar[dict[str, tuple[str, Spec]]] = {}   # file keys that are no field: key ->
+                                                                # (the field it follows, its Spec)
     _title: ClassVar[str] = ""            # a top-level model: its schema's title
     _help: ClassVar[str] = ""             # what the model is, for its schema
     _forms: ClassVar[tuple[Forms, ...]] = ()   # alternative forms, checked after the fields
@@ -617,7 +625,7 @@ class _Model:
     def keys(cls) -> tuple[str, ...]:
         """Every key the file form of this model accepts, in the order files should use."""
         header = ("kind", "format_version") if cls._kind else ()
-        return header + cls._extra_keys + tuple(f.name for f in fields(cls) if f.init)  # type: ignore[arg-type]
+        return header + tuple(cls._extra_fields) + tuple(f.name for f in fields(cls) if f.init)  # type: ignore[arg-type]
 
     @classmethod
     def required_keys(cls) -> tuple[str, ...]:
@@ -652,10 +660,8 @@ class _Model:
     @classmethod
     def nested_models(cls, kind: str = "") -> dict[str, type]:
         """Fields holding a nested model ('model'), a list of them ('models'), or either ('')."""
-        declared = {f.name: (s.kind, s.model) for f, s in declared_fields(cls) if s.kind in ("model", "models")}
-        declared.update({k: ("model", c) for k, c in cls._nested.items()})
-        declared.update({k: ("models", c) for k, c in cls._nested_seq.items()})
-        return {k: c for k, (how, c) in declared.items() if how == kind or not kind}
+        return {f.name: s.model for f, s in declared_fields(cls)
+                if s.kind in ("model", "models") and (s.kind == kind or not kind)}
 
     @classmethod
     def _read(cls, data: Mapping[str, Any], path: str) -> dict[str, Any]:
@@ -2106,26 +2112,27 @@ class Weather(_Model):
     """
 
     _what: ClassVar[str] = "weather"
-    _extra_keys: ClassVar[tuple[str, ...]] = ("altimeter_inhg",)
+    _extra_fields: ClassVar[dict[str, tuple[str, Spec]]] = {
+        "altimeter_inhg": ("altimeter_hpa", Spec("number", "Altimeter setting [inHg] (instead of altimeter_hpa).",
+                                                 range=ALTIMETER_INHG, nullable=False))}
+    _forms: ClassVar[tuple[Forms, ...]] = (
+        Forms("altimeter", (("altimeter_hpa",), ("altimeter_inhg",)), required=False, checked=False),)
 
-    wind_from_deg: float | None = None
-    wind_speed_kt: float | None = None
-    wind_gust_kt: float | None = None
-    wind_reference: str = "true"
-    oat_c: float | None = None
-    altimeter_hpa: float | None = None
-    visibility_sm: float | None = None
-    ceiling_ft: float | None = None
+    wind_from_deg: float | None = num_field(COURSE_DEG, "Direction the wind blows from, in the reference "
+                                                        "wind_reference names [deg]; needs wind_speed_kt.", default=None)
+    wind_speed_kt: float | None = num_field(WIND_SPEED_KT, "Mean wind speed [kt]; without a direction the wind is "
+                                                           "variable.", default=None)
+    wind_gust_kt: float | None = num_field(WIND_GUST_KT, "Gusts, above wind_speed_kt [kt].", default=None)
+    wind_reference: str = choice_field(WIND_REFERENCES, "Reference of wind_from_deg: 'true' (a METAR; required "
+                                                        "with a report) or 'magnetic' (tower, ATIS).", default="true")
+    oat_c: float | None = num_field(OAT_C, "Surface temperature [degC].", default=None)
+    altimeter_hpa: float | None = num_field(ALTIMETER_HPA, "Altimeter setting (QNH) [hPa]; or give altimeter_inhg.",
+                                            default=None)
+    visibility_sm: float | None = num_field(WX_VISIBILITY_SM, "Reported visibility [statute miles].", default=None)
+    ceiling_ft: float | None = num_field(CEILING_FT, "Ceiling above the airfield [ft].", default=None)
 
     def __post_init__(self) -> None:
-        _num(self, "wind_from_deg", COURSE_DEG, optional=True)
-        _num(self, "wind_speed_kt", WIND_SPEED_KT, optional=True)
-        _num(self, "wind_gust_kt", WIND_GUST_KT, optional=True)
-        _text(self, "wind_reference", choices=WIND_REFERENCES)
-        _num(self, "oat_c", OAT_C, optional=True)
-        _num(self, "altimeter_hpa", ALTIMETER_HPA, optional=True)
-        _num(self, "visibility_sm", WX_VISIBILITY_SM, optional=True)
-        _num(self, "ceiling_ft", CEILING_FT, optional=True)
+        check_declared(self)
         if self.wind_from_deg is not None and self.wind_speed_kt is None:
             raise InvariantError("missing required key 'wind_speed_kt' (wind_from_deg needs a speed)")
         if self.wind_gust_kt is not None:
@@ -2143,7 +2150,8 @@ class Weather(_Model):
                 raise FieldError("give either altimeter_hpa or altimeter_inhg, not both",
                                  context=join_path(path, "altimeter_inhg"))
             try:
-                inhg = check_number("altimeter_inhg", data["altimeter_inhg"], ALTIMETER_INHG)
+                inhg = check_number("altimeter_inhg", data["altimeter_inhg"],
+                                    cls._extra_fields["altimeter_inhg"][1].range)
             except InvariantError as exc:
                 raise FieldError(exc.message, context=join_path(path, exc.field)) from None
             kwargs["altimeter_hpa"] = inhg * units.INHG_TO_HPA  # type: ignore[operator]
@@ -2172,14 +2180,14 @@ class BriefOptions(_Model):
 
     _what: ClassVar[str] = "options"
 
-    criteria: str | None = None
-    cold_temperature_method: str = "sea-level-table"
-    apply_wind_additive: bool = True
+    criteria: str | None = choice_field(CRITERIA, "The criteria set to show (default: the approach's own).",
+                                        default=None)
+    cold_temperature_method: str = choice_field(COLD_TEMPERATURE_METHODS, "How the cold-temperature correction is "
+                                                "computed.", default="sea-level-table")
+    apply_wind_additive: bool = flag_field("Add the wind additive to the approach speed.", default=True)
 
     def __post_init__(self) -> None:
-        _text(self, "criteria", optional=True, choices=CRITERIA)
-        _text(self, "cold_temperature_method", choices=COLD_TEMPERATURE_METHODS)
-        _flag(self, "apply_wind_additive")
+        check_declared(self)
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -2194,31 +2202,21 @@ class BriefRequest(_Model):
     """
 
     _what: ClassVar[str] = "a brief request"
-    _nested: ClassVar[dict[str, type]] = {"profile": AircraftProfile, "airfield": Airfield, "weather": Weather,
-                                          "options": BriefOptions}
 
-    profile: AircraftProfile
-    configuration: str | None = None
-    airfield: Airfield
-    approach: str
-    landing_runway: str
-    weather: Weather = field(default_factory=Weather)
-    weight_lb: float | None = None
-    bank_deg: float | None = None
-    stabilised_height_ft: float = 300.0
-    options: BriefOptions = field(default_factory=BriefOptions)
+    profile: AircraftProfile = model_field(AircraftProfile)
+    configuration: str | None = text_field("A configuration of the profile (default: its default).", default=None)
+    airfield: Airfield = model_field(Airfield)
+    approach: str = text_field("The approach's name.")
+    landing_runway: str = designator_field("The runway to land on.")
+    weather: Weather = model_field(Weather, default_factory=Weather)
+    weight_lb: float | None = num_field(WEIGHT_LB, "Landing weight (default: the maximum) [lb].", default=None)
+    bank_deg: float | None = num_field(BANK_DEG, "Bank to plan (default: the configuration's) [deg].", default=None)
+    stabilised_height_ft: float = num_field(STABILISED_HEIGHT_FT, "Height above the threshold to be stabilised "
+                                                                  "at [ft].", default=300.0)
+    options: BriefOptions = model_field(BriefOptions, default_factory=BriefOptions)
 
     def __post_init__(self) -> None:
-        _instance(self, "profile", AircraftProfile)
-        _instance(self, "airfield", Airfield)
-        _instance(self, "weather", Weather)
-        _instance(self, "options", BriefOptions)
-        _text(self, "configuration", optional=True)
-        _text(self, "approach")
-        _designator(self, "landing_runway")
-        _num(self, "weight_lb", WEIGHT_LB, optional=True)
-        _num(self, "bank_deg", BANK_DEG, optional=True)
-        _num(self, "stabilised_height_ft", STABILISED_HEIGHT_FT)
+        check_declared(self)
         for name, look_up in (("configuration", lambda: self.profile.configuration(self.configuration)),
                               ("approach", lambda: self.airfield.approach(self.approach)),
                               ("landing_runway", lambda: self.airfield.runway_by_designator(self.landing_runway))):

@@ -24,7 +24,7 @@ from typing import Any
 
 from briefer import model
 from briefer.io.atomic import write_text_atomic
-from briefer.model import CATEGORIES, FORMAT_VERSION, TEXT_MAX, Spec, declared_fields
+from briefer.model import CATEGORIES, FORMAT_VERSION, Spec, declared_fields
 
 __all__ = ["GENERATED_KINDS", "DESIGNATOR_PATTERN", "file_schema", "schema_text", "schema_path", "main"]
 
@@ -33,13 +33,22 @@ DESIGNATOR_PATTERN = "^(0?[1-9]|[12][0-9]|3[0-6])[LCRlcr]?$"
 SCHEMA_DIR = Path(__file__).resolve().parent / "schemas"
 
 
-GENERATED_KINDS = (model.KIND_PROFILE, model.KIND_AIRFIELD)
-"""The file kinds whose schema is generated from the declarations (the others are still hand-kept)."""
+GENERATED_KINDS = (model.KIND_PROFILE, model.KIND_AIRFIELD, "scenario")
+"""The file kinds, each with its schema generated from the declarations."""
 
 
 def _models() -> dict[str, Any]:
     """The top-level model of each generated file kind."""
-    return {model.KIND_PROFILE: model.AircraftProfile, model.KIND_AIRFIELD: model.Airfield}
+    from briefer.instructor.scenario_format import KIND_SCENARIO, Scenario
+
+    return {model.KIND_PROFILE: model.AircraftProfile, model.KIND_AIRFIELD: model.Airfield, KIND_SCENARIO: Scenario}
+
+
+class _Optional:
+    """Stands for the dataclass field of a file key that is no field (always optional)."""
+
+    name = ""
+    default = None
 
 
 def _nullable(f: Any, spec: Spec) -> bool:
@@ -66,7 +75,7 @@ def _property(f: Any, spec: Spec, defs: dict[str, Any]) -> dict[str, Any]:
         if spec.pattern:
             out["pattern"] = f"^{spec.pattern}$"
         else:
-            out.update(minLength=0 if spec.empty_ok else 1, maxLength=TEXT_MAX)
+            out.update(minLength=0 if spec.empty_ok else 1, maxLength=spec.max_length)
     elif kind == "choice":
         out = {"enum": [*spec.choices, *([None] if nullable else [])]}
     elif kind == "flag":
@@ -103,10 +112,14 @@ def model_schema(cls: Any, defs: dict[str, Any], variant: str | None = None) -> 
     """The schema of a model's mapping (its nested models go into `defs`)."""
     properties: dict[str, Any] = {}
     required: list[str] = []
+    after = {anchor: (key, spec) for key, (anchor, spec) in cls._extra_fields.items()}
     for f, spec in declared_fields(cls):
         properties[f.name] = _property(f, spec, defs)
         if f.default is MISSING and f.default_factory is MISSING:
             required.append(f.name)
+        if f.name in after:                # a file key that is no field (altimeter_inhg), after its twin
+            key, extra = after[f.name]
+            properties[key] = _property(_Optional, extra, defs)
     node: dict[str, Any] = {"type": "object"}
     if cls._help:
         node["description"] = cls._help

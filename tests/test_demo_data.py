@@ -471,7 +471,14 @@ def _declared_models(cls: Any) -> list[Any]:
     return out
 
 
-@pytest.mark.parametrize("kind, top", [(KIND_PROFILE, AircraftProfile), (KIND_AIRFIELD, Airfield)])
+def _scenario() -> Any:
+    from briefer.instructor.scenario_format import Scenario
+
+    return Scenario
+
+
+@pytest.mark.parametrize("kind, top", [(KIND_PROFILE, AircraftProfile), (KIND_AIRFIELD, Airfield),
+                                       ("scenario", _scenario())])
 def test_schema_ranges_and_choices_are_the_loaders(kind: str, top: Any) -> None:
     """The generated schema says what the loader checks: for every declared field of every model
     of the format, the same range, the same choices and the same help text."""
@@ -481,7 +488,10 @@ def test_schema_ranges_and_choices_are_the_loaders(kind: str, top: Any) -> None:
     seen = 0
     for cls in _declared_models(top):
         node = root if cls is top else root["$defs"][cls.__name__]
-        assert list(node["properties"]) == [k for k in cls.keys() if k != "category"], cls.__name__
+        assert [k for k in node["properties"] if k not in cls._extra_fields] == [
+            k for k in cls.keys() if k != "category" and k not in cls._extra_fields], cls.__name__
+        for key, (_, spec) in cls._extra_fields.items():     # a file key that is no field (altimeter_inhg)
+            assert node["properties"][key]["minimum"] == spec.range.lo, key
         for f, spec in declared_fields(cls):
             prop = node["properties"][f.name]
             if spec.kind == "number":
@@ -490,7 +500,7 @@ def test_schema_ranges_and_choices_are_the_loaders(kind: str, top: Any) -> None:
             elif spec.kind == "choice":
                 assert prop["enum"][:len(spec.choices)] == list(spec.choices), f.name
             assert prop.get("description", "") == spec.help, f.name
-    assert seen >= {KIND_PROFILE: 15, KIND_AIRFIELD: 40}[kind]
+    assert seen >= {KIND_PROFILE: 15, KIND_AIRFIELD: 40, "scenario": 8}[kind]
 
 
 @pytest.mark.parametrize("kind", [KIND_PROFILE, KIND_AIRFIELD])

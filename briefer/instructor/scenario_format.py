@@ -49,18 +49,23 @@ from briefer.errors import BriefingError, DataFileError
 from briefer.safetext import excerpt
 from briefer.io.metar import MetarError, MetarReport, decode_metar, weather_from_metar
 from briefer.model import (
+    LANDING_WEIGHT_MIN_FRACTION,
     WEIGHT_LB,
     BriefRequest,
     FieldError,
     InvariantError,
     Weather,
     _describe,
-    _designator,
     _fmt,
     _Model,
-    _num,
-    _text,
+    choice_field,
+    check_declared,
+    custom_field,
+    designator_field,
     join_path,
+    model_field,
+    num_field,
+    text_field,
 )
 
 KIND_SCENARIO = "scenario"
@@ -116,12 +121,18 @@ class ScenarioWeather(Weather):
     """
 
     _what: ClassVar[str] = "scenario weather"
+    _help: ClassVar[str] = (
+        "The weather as a METAR-style report (what the student reads) and as values (what the brief uses). With a "
+        "report, values left out are taken from it and values given must agree with it (wind within "
+        f"{_fmt(REPORT_WIND_TOL_KT)} kt and degrees, temperature {_fmt(REPORT_TEMPERATURE_TOL_C)} C, altimeter "
+        f"{_fmt(REPORT_ALTIMETER_TOL_HPA)} hPa); the wind is then true.")
 
-    report: str | None = None
+    report: str | None = text_field("A METAR-style report, e.g. 'METAR V2RL 121550Z 26014KT 3SM BR BKN011 09/06 "
+                                    "A2980'.", default=None)
 
     def __post_init__(self) -> None:
         Weather.__post_init__(self)
-        report = _text(self, "report", optional=True)
+        report = self.report
         if report is None:
             return
         if self.wind_reference != "true":
@@ -176,41 +187,42 @@ class Scenario(_Model):
 
     _kind: ClassVar[str | None] = KIND_SCENARIO
     _what: ClassVar[str] = "a scenario"
-    _nested: ClassVar[dict[str, type]] = {"weather": ScenarioWeather}
+    _title: ClassVar[str] = "briefer practice scenario"
+    _help: ClassVar[str] = (
+        f"One practice circling case for an instructor to hand a student (kind: {KIND_SCENARIO}). Invented data for "
+        "training, not for navigation. Cross-field rules the loader also checks are given in the descriptions: the "
+        "airfield, profile, approach, landing runway, configuration and weight must exist and fit together, and "
+        "every weather value must agree with the report.")
 
-    title: str
-    airfield: str
-    approach: str
-    landing_runway: str
-    profile: str
-    configuration: str | None = None
-    weight_lb: float | None = None
-    weather: ScenarioWeather
-    emphasis: str
-    seed: int | None = None
-    notes: str = ""
+    title: str = text_field("A one-line title for the student page.")
+    airfield: str = text_field("The airfield: an ident or name the catalog knows, or a YAML file (a relative path "
+                               "is taken from the scenario file's folder).")
+    approach: str = text_field("The approach name as in the airfield file (case, spaces and punctuation ignored).")
+    landing_runway: str = designator_field("The runway to land on, e.g. '27' or '09L' (quote a designator with a "
+                                           "leading zero).")
+    profile: str = text_field("The aircraft profile: a name the catalog knows, or a YAML file (relative to the "
+                              "scenario file's folder).")
+    configuration: str | None = text_field("A configuration of the profile (default: the profile's default "
+                                           "configuration).", default=None)
+    weight_lb: float | None = num_field(
+        WEIGHT_LB, f"Landing weight (default: the maximum landing weight); between "
+        f"{_fmt(100 * LANDING_WEIGHT_MIN_FRACTION)} % of the maximum landing weight and the maximum [lb].",
+        default=None)
+    weather: ScenarioWeather = model_field(ScenarioWeather)
+    emphasis: str = choice_field(EMPHASES, "What the case is meant to exercise.")
+    seed: int | None = custom_field(
+        {"type": "integer", "minimum": 0, "maximum": SEED_MAX},
+        "The seed the case was generated from ('briefer scenario new --seed N' makes it again); absent when "
+        "written by hand.", default=None)
+    notes: str = text_field("Notes for the instructor: what the case exercises, with its numbers.", default="",
+                            empty_ok=True, max_length=NOTES_MAX)
 
     def __post_init__(self) -> None:
-        _text(self, "title")
-        _text(self, "airfield")
-        _text(self, "approach")
-        _designator(self, "landing_runway")
-        _text(self, "profile")
-        _text(self, "configuration", optional=True)
-        _num(self, "weight_lb", WEIGHT_LB, optional=True)
-        if not isinstance(self.weather, ScenarioWeather):
-            raise InvariantError(f"expected scenario weather, got {_describe(self.weather)}", field="weather")
-        _text(self, "emphasis", choices=EMPHASES)
+        check_declared(self)
         seed = self.seed
         if seed is not None and (isinstance(seed, bool) or not isinstance(seed, numbers.Integral)
                                  or not 0 <= seed <= SEED_MAX):
             raise InvariantError(f"expected a whole number from 0 to 2^63-1, got {_describe(seed)}", field="seed")
-        notes = self.notes
-        if not isinstance(notes, str):
-            raise InvariantError(f"expected text, got {_describe(notes)}", field="notes")
-        if len(notes) > NOTES_MAX:
-            raise InvariantError(f"expected at most {NOTES_MAX} characters, got {len(notes)}", field="notes")
-        object.__setattr__(self, "notes", notes.strip())
 
     @classmethod
     def from_mapping(cls, data: Any, *, path: str = "") -> Any:
