@@ -1,5 +1,5 @@
 """The side view of the sight picture: one Scene (`briefer.render.side_scene`), drawn by the app's
-terminal canvas and by the PDF card.
+terminal canvas, the PDF card and the text card.
 
 The sight lines' angles are checked against the brief's depression angles (hand-derived: a line
 from the runway to an eye h ft up and d NM out is atan(h / d) below the horizon, AIM-style
@@ -17,7 +17,7 @@ from pypdf import PdfReader
 
 from briefer.brief import build_brief
 from briefer.brief.demo_case import demo_request
-from briefer.render.card import card_pdf_bytes
+from briefer.render.card import card_pdf_bytes, card_text
 from briefer.render.scene import Label, Marker, Polyline, Role
 from briefer.render.side_scene import SidePicture, side_picture
 from briefer.tui.widgets._side_view import SideView
@@ -79,8 +79,9 @@ def _words(canvas) -> str:
     return " ".join(canvas.to_text().split())
 
 
-def test_the_app_and_the_pdf_draw_the_same_scene(demo_brief):
-    """The app's widget and the card's detail page draw the one Scene: the same labels on both."""
+def test_the_app_the_pdf_and_the_text_card_draw_the_same_scene(demo_brief):
+    """The app's widget, the card's detail page and the text card draw the one Scene: the same
+    labels on each."""
     widget = SideView(ascii=True)
     widget.brief = demo_brief
     screen = _words(widget.draw(78, 9))
@@ -88,9 +89,11 @@ def test_the_app_and_the_pdf_draw_the_same_scene(demo_brief):
     scene = side_picture(demo_brief).scene(100.0, 30.0)
     texts = [i.label for i in scene.items if isinstance(i, Marker)] + [i.text for i in scene.items if isinstance(i, Label)]
     assert texts == ["plan 1.67 NM", "trap 0.74 NM", "usual 1500 ft", "740 ft", "RWY"]
+    text_card = card_text(demo_brief)
     for t in texts + ["heights to scale"]:
         assert t in screen, t
         assert t in pdf, t
+        assert t in text_card, t
 
 
 def test_no_plan_draws_no_planned_line():

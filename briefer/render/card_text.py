@@ -23,12 +23,16 @@ from briefer.render.card_layout import (
     printable_text,
 )
 from briefer.render.planview import legend, render_plan
+from briefer.render.scene import ROLE_STYLES, Role
+from briefer.render.side_scene import LEGEND as SIDE_LEGEND, render_side
 from briefer.result import Brief
 
 WIDTH = 80
 """Columns of the text card."""
 PLAN_COLS, PLAN_ROWS = 78, 30
 """Size of the ASCII plan view (a character cell is about twice as tall as wide)."""
+SIDE_COLS, SIDE_ROWS = 78, 9
+"""Size of the ASCII side view of the sight picture."""
 LABEL_COLS = 13
 FIGURES_PER_ROW = 4
 CELL = (WIDTH - 2 - FIGURES_PER_ROW - 1) // FIGURES_PER_ROW   # 18 columns inside each figure box
@@ -90,7 +94,12 @@ def _section(sec: Section) -> list[str]:
 
 
 def _side_view(sv: SideView) -> list[str]:
-    return [_rule("SIGHT PICTURE, abeam the threshold")] + _rows(sv.rows)
+    """The side view drawn in ASCII (the Scene the app and the PDF draw), then the comparison."""
+    canvas = render_side(sv.picture, SIDE_COLS, SIDE_ROWS, ascii=True)
+    key = "  ".join(f"{ROLE_STYLES[role].ascii_glyph * 3} {text}" for role, text in SIDE_LEGEND.items()
+                    if role is not Role.PLANNED_TRACK or sv.picture.planned)
+    return ([_rule("SIGHT PICTURE, abeam the threshold")] + [" " + ln.rstrip() for ln in canvas.to_lines()]
+            + ["  " + key] + _rows(sv.rows))
 
 
 def _plan_view(layout: CardLayout) -> list[str]:

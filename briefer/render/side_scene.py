@@ -11,8 +11,8 @@ distance or height.
 and ft). `SidePicture.scene(width, height, aspect)` turns them into a plan-view-style `Scene` for
 a view of that size: distances to scale, heights stretched by a whole factor (`stretch`) so that
 the lines stand apart in a flat box; the factor is written in the key ("heights x3"). The
-terminal canvas (`planview.draw_scene`) and the paper primitives (`paper.scene_to_primitives`)
-draw that Scene as they draw the plan view.
+terminal canvas (`planview.draw_scene`, via `render_side` for the app and the text card) and the
+paper primitives (`paper.scene_to_primitives`) draw that Scene as they draw the plan view.
 
 Pure Python: no Rich, Textual or fpdf import.
 """
@@ -22,8 +22,13 @@ from __future__ import annotations
 import math
 from briefer._dataclass import dataclass
 
+from typing import TYPE_CHECKING
+
 from briefer.render.scene import Bounds, Label, Marker, Polyline, Role, Scene
 from briefer.result import Brief
+
+if TYPE_CHECKING:  # pragma: no cover
+    from briefer.render.canvas import Canvas
 from briefer.units import FT_TO_M, NM_TO_M
 
 HEADROOM = 1.15
@@ -36,6 +41,11 @@ RIGHT_ROOM = 1.12
 """The drawing's right edge, as a multiple of the farthest distance."""
 RUNWAY_SHARE = 0.025
 """The runway's drawn width, as a share of the farthest distance (a true width would not show)."""
+
+
+LEGEND: dict[Role, str] = {Role.PLANNED_TRACK: "planned sight line", Role.FAMILIAR_TRACK: "usual picture",
+                           Role.CIRCLING_HEIGHT: "circling height"}
+"""What the side view's lines mean, for a legend (the points are labelled on the drawing)."""
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -122,6 +132,19 @@ class SidePicture:
                      key_note=f"heights x{k}" if k > 1 else "heights to scale")
 
 
+def render_side(picture: SidePicture, cols: int, rows: int, *, ascii: bool = False) -> Canvas:
+    """A terminal canvas of `cols` x `rows` cells with the side view drawn on it (the app's
+    widget and the text card)."""
+    from briefer.render.canvas import AsciiCanvas, BrailleCanvas
+    from briefer.render.planview import draw_scene
+
+    canvas: Canvas = AsciiCanvas(cols, rows) if ascii else BrailleCanvas(cols, rows)
+    margin = 1.0
+    scene = picture.scene(canvas.w - 1, canvas.h - 1, canvas.aspect, margin=margin)
+    draw_scene(canvas, scene, viewport=canvas.fit(scene, margin=margin))
+    return canvas
+
+
 def side_picture(brief: Brief) -> SidePicture:
     """The side view's numbers, read from the Brief's sight picture."""
     s = brief.sight_picture
@@ -130,4 +153,4 @@ def side_picture(brief: Brief) -> SidePicture:
                        familiar_offset_at_circling_nm=s.familiar_offset_at_circling_nm)
 
 
-__all__ = ["SidePicture", "side_picture"]
+__all__ = ["LEGEND", "SidePicture", "render_side", "side_picture"]

@@ -30,16 +30,9 @@ class SideView(Widget):
         self.refresh()
 
     def draw(self, cols: int, rows: int) -> Canvas:
-        from briefer.render.canvas import AsciiCanvas, BrailleCanvas
-        from briefer.render.planview import draw_scene
-        from briefer.render.side_scene import side_picture
+        from briefer.render.side_scene import render_side, side_picture
 
-        canvas: Canvas = AsciiCanvas(cols, rows) if self.ascii else BrailleCanvas(cols, rows)
-        margin = 1.0
-        scene = side_picture(self.brief).scene(canvas.w - 1, canvas.h - 1, canvas.aspect,  # type: ignore[arg-type]
-                                               margin=margin)
-        draw_scene(canvas, scene, viewport=canvas.fit(scene, margin=margin))
-        return canvas
+        return render_side(side_picture(self.brief), cols, rows, ascii=self.ascii)  # type: ignore[arg-type]
 
     def render(self):
         if self.brief is None:
