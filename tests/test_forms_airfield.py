@@ -316,3 +316,49 @@ async def test_keys_typed_right_after_enter_on_add_land_in_the_new_row():
         for _ in range(25):
             await pilot.pause(0.02)
         assert screen.texts["runways"][1]["threshold_a"]["designator"] == "18"
+
+
+async def test_a_second_runway_placed_where_the_centrelines_cross():
+    """The airport diagram's 'runway 18 crosses 09/27 3000 ft from threshold 08, 2000 ft from
+    threshold 18', typed into the crossing rows, places the runway as the file form does
+    (`briefer.core.layout.crossing_threshold`)."""
+    from briefer.core.layout import crossing_threshold
+
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        await pilot.press("2")
+        await pilot.pause()
+        await pilot.press("f2")
+        await pilot.pause()
+        screen = app.screen
+        await type_fields(pilot, NEW_AIRFIELD)
+        screen.query_one("#" + widget_id("add", ("runways",))).focus()
+        await pilot.press("enter")
+        await pilot.pause()
+        rw = ("runways", 1)
+        await type_fields(pilot, [
+            (rw + ("threshold_a", "designator"), "18"), (rw + ("threshold_a", "elevation_ft"), "4195"),
+            (rw + ("threshold_b", "designator"), "36"), (rw + ("threshold_b", "elevation_ft"), "4185"),
+            (rw + ("heading_deg_mag",), "175"), (rw + ("length_ft",), "5000")])
+        for _ in range(2):
+            screen.query_one("#" + widget_id("add", rw + ("crossing",))).focus()
+            await pilot.press("enter")
+            await pilot.pause()
+        await type_fields(pilot, [
+            (rw + ("crossing", 0, "threshold"), "08"), (rw + ("crossing", 0, "distance_ft"), "3000"),
+            (rw + ("crossing", 1, "threshold"), "18"), (rw + ("crossing", 1, "distance_ft"), "610 m")])
+        screen.revalidate()
+        assert screen.verdict.ok, (screen.verdict.errors, screen.verdict.required, screen.verdict.general)
+        model = screen.verdict.model
+        crossing = model.runways[1].crossing
+        assert [(c.threshold, c.distance_ft, c.distance_m) for c in crossing] == [("08", 3000, None),
+                                                                                  ("18", None, 610)]
+        lay = model.layout
+        want = crossing_threshold(lay.thresholds_m["08"], lay.headings_deg["08"], 3000 * 0.3048,
+                                  (175 + 3) % 360, 610)
+        assert lay.thresholds_m["18"] == pytest.approx(want, abs=0.5)
+        assert "runway 2" not in " ".join(plan_scene(screen.verdict.built.mapping)[1])      # drawn
+        # the file form reads back through the form (nothing lost)
+        texts = to_texts(AIRFIELD_FORM, model.to_mapping())
+        assert check_texts(AIRFIELD_FORM, texts).model == model

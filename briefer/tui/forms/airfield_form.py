@@ -20,6 +20,7 @@ from briefer.model import (
     OBSTACLE_KINDS,
     Airfield,
     CirclingMinimum,
+    CrossingPoint,
     Fix,
     Obstacle,
     Sector,
@@ -102,6 +103,13 @@ def _new_approach(rows) -> dict[str, Any]:
             "not_authorised_sectors": [], "missed_approach": "", "rnav_gps": ""}
 
 
+CROSSING_ALT = {"NM": ("distance_nm", 1.0), "m": ("distance_m", 1.0)}
+
+
+def _new_crossing(rows) -> dict[str, Any]:
+    return {"threshold": "", "distance_ft": ""}
+
+
 def _new_runway(rows) -> dict[str, Any]:
     row: dict[str, Any] = {
         "threshold_a": {"designator": "", "elevation_ft": "", "displaced_threshold_m": "", "tch_ft": "",
@@ -140,12 +148,19 @@ RUNWAY_ITEMS = (
     Field("heading_deg_mag", "Heading A to B", "number", "°M", width=6, alt={"°T": ("heading_deg_true", 1.0)}),
     Field("length_ft", "Length", "number", "ft", width=6, alt={"m": ("length_m", 1.0)}),
     Field("width_m", "Width", "number", "m", width=6, hint="optional"),
-    Group("position", "Placed from (runways after the first)", (
+    Group("position", "Placed (runways after the first): its threshold at a distance and bearing from a point",
+          (
         Field("threshold", "Its threshold", width=5, hint="A"),
         Field("from_point", "From point", width=5, hint="13 / ARP"),
         Field("distance_nm", "Distance", "number", "NM", width=6, alt=DISTANCE_ALT),
         Field("bearing_deg_mag", "Bearing", "number", "°M", width=6, alt=BEARING_ALT),
     ), optional=True),
+    Repeat("crossing", "or where the centrelines cross: a threshold of this runway and one of a runway "
+           "before it, each with its distance to the crossing", "Crossing", (
+        Field("threshold", "From threshold", width=5, hint="18"),
+        Field("distance_ft", "", "number", "ft", width=6, alt=CROSSING_ALT),
+    ), row=True, optional=True, new_item=_new_crossing,
+        check=lambda m, p: CrossingPoint.from_mapping(m, path=p)),
 )
 
 
