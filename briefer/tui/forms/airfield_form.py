@@ -27,7 +27,7 @@ from briefer.model import (
     StraightInMinimum,
 )
 from briefer.tui.forms.check import Verdict
-from briefer.tui.forms.spec import Field, FormSpec, Group, Repeat
+from briefer.tui.forms.spec import Field, FormPath, FormSpec, Group, Repeat
 
 DISTANCE_ALT = {"ft": ("distance_ft", 1.0), "m": ("distance_m", 1.0)}
 BEARING_ALT = {"°T": ("bearing_deg_true", 1.0)}
@@ -222,3 +222,28 @@ def airfield_side(verdict: Verdict, width: int, height: int, ascii: bool) -> Any
         return text
     canvas = render_plan(scene, width, rows, ascii=ascii)
     return RichGroup(text, canvas, Text("\n".join(notes), style="dim"))
+
+
+# --------------------------------------------------------------------------------------------
+# Runways imported from the open airport database (`briefer.io.runway_import`)
+# --------------------------------------------------------------------------------------------
+IMPORTED_KEYS = ("ident", "name", "elevation_ft", "reference_point", "runways")
+"""What an import fills in; the approaches, obstacles and variation the crew typed stay."""
+
+MISSING_WORDS = "not in the database: type it from the chart"
+
+
+def imported_texts(texts: dict[str, Any], mapping: dict[str, Any],
+                   missing: list[str]) -> tuple[dict[str, Any], dict[FormPath, str]]:
+    """The form's texts with an import's airfield, reference point and runways, and a note for
+    each value the database lacks (form path -> words), to show beside its field.
+
+    An approach row is there to type into: the import brings none (the chart gives them)."""
+    from briefer.tui.forms.spec import split_path, to_texts
+
+    shown = to_texts(AIRFIELD_FORM, {k: v for k, v in mapping.items() if k in IMPORTED_KEYS})
+    out = {**texts, **{k: shown[k] for k in IMPORTED_KEYS}}
+    if not out.get("approaches"):
+        out["approaches"] = [_new_approach([])]
+    flags = {tuple(split_path(p)): MISSING_WORDS for p in missing}
+    return out, flags

@@ -60,8 +60,13 @@ def form_for(app: BriefingApp, kind: str, *, edit: bool) -> FormScreen | str:
             return (f"the form cannot show everything {item.source or name} holds ({lost}), so it would not "
                     f"save it back unchanged; edit the file by hand, or start a new one (F2)")
         source, builtin = item.source, item.builtin or not item.source
+    on_import = None
+    if kind == KIND_AIRFIELD:
+        from briefer.tui.forms.import_dialog import ask_import
+
+        on_import = ask_import
     return FormScreen(_spec(kind), mapping=mapping, source=source, builtin=builtin, side=_painter(kind),
-                      ascii=bool(getattr(app, "ascii", False)))
+                      ascii=bool(getattr(app, "ascii", False)), on_import=on_import)
 
 
 def form_loses(spec: Any, mapping: dict[str, Any], model: Any) -> str:

@@ -118,12 +118,14 @@ class FormScreen(Screen[Saved | None]):
         Binding("ctrl+n", "add_row", "Add row", priority=True),
         Binding("enter", "press_add", "Add", show=False, priority=True),
         Binding("ctrl+r", "remove_row", "Remove row", priority=True),
+        Binding("f4", "import", "Import runways", priority=True),
         Binding("pageup", "page(-1)", "Page up", show=False),
         Binding("pagedown", "page(1)", "Page down", show=False),
     ]
 
     def __init__(self, spec: FormSpec, *, mapping: dict[str, Any] | None = None, source: str | None = None,
-                 builtin: bool = False, side: SidePainter | None = None, ascii: bool = False) -> None:
+                 builtin: bool = False, side: SidePainter | None = None, ascii: bool = False,
+                 on_import: Callable[[FormScreen], None] | None = None) -> None:
         """Args:
             spec: The form.
             mapping: The file mapping to edit (None: a new, empty form).
@@ -132,6 +134,7 @@ class FormScreen(Screen[Saved | None]):
                 user's folder).
             side: Draws the side panel from the verdict.
             ascii: Draw in ASCII instead of braille.
+            on_import: F4: fills the form from another source (the airfield form's runway import).
         """
         super().__init__(classes="form-screen")
         from briefer.tui.forms.spec import to_texts
@@ -149,12 +152,19 @@ class FormScreen(Screen[Saved | None]):
         self._overwrite_ok: Path | None = None
         self._target: Target | None = None
         self.status_text = ""
+        self.on_import = on_import
+        self.flags: dict[FormPath, str] = {}
+        """Field -> a reminder shown beside it while it is empty (a value an import lacks)."""
+        self.notes: list[str] = []
+        """Shown above the fields (what an import did)."""
 
     # --- building ---------------------------------------------------------------------------
     def compose(self) -> ComposeResult:
         what = "Edit" if self.saved_texts != blank_texts(self.spec) else "New"
-        yield Static(Text.assemble((f" {what} {self.spec.title.lower()} ", "bold reverse"),
-                                   " Tab next  ^n add row  ^r remove row  ^s save  Esc close"),
+        keys = " Tab next  ^n add row  ^r remove row  ^s save  Esc close"
+        if self.on_import is not None:
+            keys = " Tab next  ^n add  ^r remove  F4 import  ^s save  Esc close"
+        yield Static(Text.assemble((f" {what} {self.spec.title.lower()} ", "bold reverse"), keys),
                      id="form-title")
         with Horizontal(id="form-main"):
             body = VerticalScroll(*self._body(), id="form-body")
@@ -168,7 +178,10 @@ class FormScreen(Screen[Saved | None]):
     def _body(self) -> list[Widget]:
         self._msgs.clear()
         self._inputs.clear()
-        return self._items(self.spec.items, self.texts, ())
+        notes: list[Widget] = []
+        if self.notes:
+            notes.append(Static("\n".join(f"• {n}" for n in self.notes), id="form-notes", markup=False))
+        return notes + self._items(self.spec.items, self.texts, ())
 
     def _message(self, fpath: FormPath, classes: str = "form-msg") -> Static:
         msg = Static("", id=widget_id("msg", fpath), classes=classes, markup=False)
@@ -291,7 +304,10 @@ class FormScreen(Screen[Saved | None]):
                 shown.setdefault(msg, ("error", ERROR_MARK + (f"{label}: " if label else "") + v.errors[fpath]))
             elif fpath in v.required and msg not in shown:
                 label = self._label_of(fpath) if "form-row-msg" in msg.classes else ""
-                shown[msg] = ("required", (f"{label}: " if label else "") + v.required[fpath])
+                words = self.flags.get(fpath, v.required[fpath])
+                shown[msg] = ("required", (f"{label}: " if label else "") + words)
+            elif fpath in self.flags and msg not in shown and not self._text_at(fpath).strip():
+                shown[msg] = ("required", self.flags[fpath])
         for msg in set(self._msgs.values()):
             kind, text = shown.get(msg, ("", ""))
             msg.set_class(kind == "error", "-error")
@@ -304,6 +320,15 @@ class FormScreen(Screen[Saved | None]):
         side = self.query(SidePanel)
         if side:
             side.first().show(v)
+
+    def _text_at(self, fpath: FormPath) -> str:
+        cur: Any = self.texts
+        for tok in fpath:
+            try:
+                cur = cur[tok]
+            except (KeyError, IndexError, TypeError):
+                return ""
+        return cur if isinstance(cur, str) else ""
 
     def _label_of(self, fpath: FormPath) -> str:
         f = self._field_at(fpath)
@@ -451,6 +476,8 @@ class FormScreen(Screen[Saved | None]):
             await self._add_at(rpath)
 
     def check_action(self, action: str, parameters: tuple[object, ...]) -> bool | None:
+        if action == "import":
+            return self.on_import is not None
         if action == "press_add":
             return isinstance(self.focused, Button) and "form-add" in self.focused.classes
         return True
@@ -508,6 +535,20 @@ class FormScreen(Screen[Saved | None]):
             target = self.query_one("#" + widget_id("add", add_button), Button)
         if target is not None:
             self.set_focus(target)          # before the keys already queued (see `_add_at`)
+
+    def action_import(self) -> None:
+        if self.on_import is not None:
+            self.on_import(self)
+
+    async def replace_texts(self, texts: dict[str, Any], *, flags: dict[FormPath, str] | None = None,
+                            notes: list[str] | None = None, focus: FormPath | None = None) -> None:
+        """Show other texts (an import filled the form); kept unsaved until ^s."""
+        self.texts = texts
+        self.flags = dict(flags or {})
+        self.notes = list(notes or [])
+        self._overwrite_ok = None
+        await self._rebuild(focus=focus)
+        self.query_one("#form-body", VerticalScroll).scroll_home(animate=False)
 
     def action_page(self, direction: int) -> None:
         body = self.query_one("#form-body", VerticalScroll)
