@@ -220,11 +220,22 @@ def test_an_imported_airfield_reads_back_through_the_form():
 
 
 def test_the_form_shows_latitude_longitude_only_where_the_file_has_them():
-    from briefer.tui.forms.screen import _shown
+    """Latitude/longitude lines where a file has them; the chart's placement lines (heading,
+    length, distances and bearings) where it has those (or nothing yet)."""
+    from briefer.tui.forms.screen import _child
+    from briefer.tui.forms.spec import shown
 
-    lat = next(f for f in AIRFIELD_FORM.items[2].items[0].items if f.key == "lat_deg")
-    assert lat.reveal
-    assert _shown(lat, {"lat_deg": "36.933184"}) and not _shown(lat, {"lat_deg": ""})
+    runway = _child(AIRFIELD_FORM.items, "runways")
+    threshold = _child(runway.items, "threshold_a")
+    lat = _child(threshold.items, "lat_deg")
+    heading, position, crossing = (_child(runway.items, k) for k in ("heading_deg_mag", "position", "crossing"))
+    assert shown(lat, {"lat_deg": "36.933184"}) and not shown(lat, {"lat_deg": ""})
+    by_coordinates = {"threshold_a": {"lat_deg": "36.933184"}, "heading_deg_mag": "", "position": {}, "crossing": []}
+    assert not any(shown(i, by_coordinates) for i in (heading, position, crossing))
+    by_chart = {"threshold_a": {"lat_deg": ""}, "heading_deg_mag": "", "position": {}, "crossing": []}
+    assert all(shown(i, by_chart) for i in (heading, position, crossing))
+    both = dict(by_coordinates, heading_deg_mag="131")         # never hide what holds text
+    assert shown(heading, both)
 
 
 async def test_edit_a_latitude_longitude_airfield_add_an_approach_and_brief_it():
@@ -244,7 +255,7 @@ async def test_edit_a_latitude_longitude_airfield_add_an_approach_and_brief_it()
         assert isinstance(screen, FormScreen), "F3 did not open the form"
         lat = screen._inputs[("runways", 0, "threshold_a", "lat_deg")]
         assert lat.value == "36.933184"
-        assert ("approaches", 0, "map_fix", "distance_nm") in screen._inputs      # chart fields stay
+        assert ("approaches", 0, "map_fix", "distance_nm") not in screen._inputs    # a MAP by lat/lon
         n = len(screen.texts["approaches"])
         add = screen.query_one("#" + widget_id("add", ("approaches",)))
         add.focus()
@@ -252,6 +263,7 @@ async def test_edit_a_latitude_longitude_airfield_add_an_approach_and_brief_it()
         await pilot.pause()
         ap = ("approaches", n)
         assert (ap + ("map_fix", "lat_deg")) not in screen._inputs     # a new approach: chart numbers
+        assert (ap + ("map_fix", "distance_nm")) in screen._inputs
         await type_fields(pilot, [
             (ap + ("name",), "NDB-C"), (ap + ("final_course_deg_mag",), "130"),
             (ap + ("map_fix", "name"), "QMN NDB"), (ap + ("map_fix", "from_point"), "ARP"),

@@ -45,7 +45,7 @@ def _threshold(key: str, title: str) -> Group:
         Field("designator", "Designator", width=5, hint="13"),
         *_LATLON,
         Field("elevation_ft", "Elevation", "number", "ft", width=7, hint="or TDZE", alt=TDZE_ALT),
-        Field("displaced_threshold_m", "Displaced by", "number", "m", width=7, hint="optional"),
+        Field("displaced_threshold_m", "Displaced by", "number", "m", width=8, hint="optional"),
         Field("tch_ft", "TCH", "number", "ft", width=7, hint="50"),
         Field("glide_path_deg", "Glide path", "number", "°", width=7, hint="3.0"),
     ))
@@ -57,7 +57,7 @@ def _fix(key: str, title: str, *, faf: bool) -> Group:
         *_LATLON,
     )
     if faf:
-        place += (Field("distance_nm", "Before the MAP", "number", "NM", width=6, alt=DISTANCE_ALT),
+        place += (Field("distance_nm", "Before the MAP", "number", "NM", width=6, alt=DISTANCE_ALT, chart=True),
                   Field("altitude_ft", "Altitude", "number", "ft", width=7),
                   # a file may place its FAF as the MAP is placed (shown when it does)
                   Field("threshold", "At threshold", width=5, reveal=True),
@@ -66,10 +66,11 @@ def _fix(key: str, title: str, *, faf: bool) -> Group:
                         reveal=True))
         note = "(distance along the final course to the MAP)"
     else:
-        place += (Field("threshold", "At threshold", width=5, hint="or blank"),
-                  Field("distance_nm", "Distance", "number", "NM", width=6, alt=DISTANCE_ALT, hint="optional"),
-                  Field("from_point", "or from point", width=5, hint="13 / ARP"),
-                  Field("bearing_deg_mag", "Bearing from it", "number", "°M", width=6, alt=BEARING_ALT),
+        place += (Field("threshold", "At threshold", width=5, hint="13", chart=True),
+                  Field("distance_nm", "Distance", "number", "NM", width=8, alt=DISTANCE_ALT, hint="optional",
+                        chart=True),
+                  Field("from_point", "or from point", width=6, hint="13/ARP", chart=True),
+                  Field("bearing_deg_mag", "Bearing from it", "number", "°M", width=6, alt=BEARING_ALT, chart=True),
                   Field("altitude_ft", "Altitude", "number", "ft", width=7, reveal=True))
         note = "(at a threshold, a distance before it, or a distance and bearing from a point)"
     return Group(key, f"{title} {note}", place, check=lambda m, p: Fix.from_mapping(m, path=p))
@@ -145,21 +146,22 @@ APPROACH_ITEMS = (
 RUNWAY_ITEMS = (
     _threshold("threshold_a", "Threshold A"),
     _threshold("threshold_b", "Threshold B"),
-    Field("heading_deg_mag", "Heading A to B", "number", "°M", width=6, alt={"°T": ("heading_deg_true", 1.0)}),
-    Field("length_ft", "Length", "number", "ft", width=6, alt={"m": ("length_m", 1.0)}),
-    Field("width_m", "Width", "number", "m", width=6, hint="optional"),
+    Field("heading_deg_mag", "Heading A to B", "number", "°M", width=6, alt={"°T": ("heading_deg_true", 1.0)},
+          chart=True),
+    Field("length_ft", "Length", "number", "ft", width=6, alt={"m": ("length_m", 1.0)}, chart=True),
+    Field("width_m", "Width", "number", "m", width=8, hint="optional"),
     Group("position", "Placed (runways after the first): its threshold at a distance and bearing from a point",
           (
         Field("threshold", "Its threshold", width=5, hint="A"),
-        Field("from_point", "From point", width=5, hint="13 / ARP"),
+        Field("from_point", "From point", width=6, hint="13/ARP"),
         Field("distance_nm", "Distance", "number", "NM", width=6, alt=DISTANCE_ALT),
         Field("bearing_deg_mag", "Bearing", "number", "°M", width=6, alt=BEARING_ALT),
-    ), optional=True),
+    ), optional=True, chart=True),
     Repeat("crossing", "or where the centrelines cross: a threshold of this runway and one of a runway "
            "before it, each with its distance to the crossing", "Crossing", (
         Field("threshold", "From threshold", width=5, hint="18"),
         Field("distance_ft", "", "number", "ft", width=6, alt=CROSSING_ALT),
-    ), row=True, optional=True, new_item=_new_crossing,
+    ), row=True, optional=True, new_item=_new_crossing, chart=True,
         check=lambda m, p: CrossingPoint.from_mapping(m, path=p)),
 )
 
@@ -191,11 +193,11 @@ AIRFIELD_FORM = FormSpec(
             Field("name", "Name", width=10),
             Field("kind", "Kind", "choice", width=9, hint="tower"),
             *_LATLON,
-            Field("from_point", "From point", width=5, hint="13 / ARP"),
-            Field("distance_nm", "Distance", "number", "NM", width=6, alt=DISTANCE_ALT),
-            Field("bearing_deg_mag", "Bearing", "number", "°M", width=6, alt=BEARING_ALT),
+            Field("from_point", "From point", width=6, hint="13/ARP", chart=True),
+            Field("distance_nm", "Distance", "number", "NM", width=6, alt=DISTANCE_ALT, chart=True),
+            Field("bearing_deg_mag", "Bearing", "number", "°M", width=6, alt=BEARING_ALT, chart=True),
             Field("elevation_ft", "Elevation", "number", "ft", width=6),
-            Field("height_agl_ft", "Height AGL", "number", "ft", width=6, hint="optional"),
+            Field("height_agl_ft", "Height AGL", "number", "ft", width=8, hint="optional"),
         ), optional=True, check=lambda m, p: Obstacle.from_mapping(m, path=p)),
     ),
 )

@@ -24,7 +24,7 @@ from textual.widget import Widget
 from textual.widgets import Button, Footer, Input, Label, Static
 
 from briefer.tui.forms.check import Checker, Verdict
-from briefer.tui.forms.spec import Field, FormPath, FormSpec, Group, Item, Repeat, blank_texts, new_row
+from briefer.tui.forms.spec import Field, FormPath, FormSpec, Group, Item, Repeat, blank_texts, new_row, shown
 from briefer.tui.forms.store import SaveError, Target, file_name, save_model, target_folder
 
 ERROR_MARK = "✗ "
@@ -202,8 +202,10 @@ class FormScreen(Screen[Saved | None]):
         out: list[Widget] = []
         for item in items:
             if isinstance(item, Field):
-                if _shown(item, texts):
+                if shown(item, texts):
                     out.append(self._field_line(item, texts, fpath))
+            elif not shown(item, texts):
+                continue
             elif isinstance(item, Group):
                 if item.title:
                     out.append(Static(item.title, classes="form-heading", markup=False))
@@ -234,7 +236,7 @@ class FormScreen(Screen[Saved | None]):
             cells: list[Widget] = []
             for f in rep.items:
                 assert isinstance(f, Field)
-                if not _shown(f, row):
+                if not shown(f, row):
                     continue
                 if f.label:
                     cells.append(Label(f.label, classes="form-cell-label"))
@@ -604,11 +606,6 @@ class FormScreen(Screen[Saved | None]):
                 self.dismiss(None)
 
         self.app.push_screen(ConfirmClose(), chosen)
-
-
-def _shown(f: Field, texts: dict[str, Any]) -> bool:
-    """A field gets a line unless it is one shown only when it holds text (`Field.reveal`)."""
-    return not f.reveal or bool(str(texts.get(f.key, "")).strip())
 
 
 def _child(items: tuple[Item, ...], tok: object) -> Item | None:

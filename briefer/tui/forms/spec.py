@@ -41,6 +41,8 @@ class Field:
         reveal: Shown only when it holds text as the form is built: a form the chart does not
             print but a file may hold (latitude/longitude of an imported or hand-written
             airfield), kept and editable, out of the way of a crew entering the chart's numbers.
+        chart: A chart number placing a point (heading, length, distance, bearing...): left out
+            where the point is given by latitude/longitude instead, unless it holds text.
     """
 
     key: str
@@ -52,6 +54,7 @@ class Field:
     alt: Mapping[str, tuple[str, float]] = field(default_factory=dict)
     owns: tuple[str, ...] = ()
     reveal: bool = False
+    chart: bool = False
 
     @property
     def file_keys(self) -> tuple[str, ...]:
@@ -119,6 +122,7 @@ class Group:
     optional: bool = False
     check: Check | None = None
     note: str = ""
+    chart: bool = False
 
 
 @dataclass(frozen=True, slots=True)
@@ -145,9 +149,28 @@ class Repeat:
     new_item: Callable[[Sequence[Mapping[str, Any]]], dict[str, Any]] | None = None
     optional: bool = False
     note: str = ""
+    chart: bool = False
 
 
 Item = Union[Field, Group, Repeat]
+
+
+def _latlon_given(texts: Mapping[str, Any]) -> bool:
+    """The mapping's point is given by latitude/longitude (a runway: its threshold A's)."""
+    a = texts.get("threshold_a")
+    return not _empty(texts.get("lat_deg", "")) or (isinstance(a, Mapping) and not _empty(a.get("lat_deg", "")))
+
+
+def shown(item: Item, texts: Mapping[str, Any]) -> bool:
+    """Whether an item gets its lines in the mapping whose texts are `texts`: not a field shown
+    only when it holds text (`Field.reveal`), nor a chart placement of a point given by
+    latitude/longitude (`chart`), while it holds no text."""
+    if item.key is None:
+        return True
+    empty = _empty(texts.get(item.key, ""))
+    if empty and isinstance(item, Field) and item.reveal:
+        return False
+    return not (empty and item.chart and _latlon_given(texts))
 
 
 @dataclass(frozen=True, slots=True)
