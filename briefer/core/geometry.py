@@ -855,11 +855,17 @@ def _bisector_depth_m(sec: BearingSector, track: npt.NDArray[np.float64],
     idx = np.nonzero(cross)
     t = a[idx] / (a[idx] - b[idx])
     p0, p1 = track[..., :-1, :][idx], track[..., 1:, :][idx]
-    c = np.asarray(sec.clearance_m(p0 + t[:, None] * (p1 - p0)), dtype=float)
-    if edge_tolerance_m is not None:
-        c = np.where(c < -edge_tolerance_m, c, np.inf)
+    c = _counted_clearance_m(sec.clearance_m(p0 + t[:, None] * (p1 - p0)), edge_tolerance_m)
     np.minimum.at(out, idx[:-1], c)
     return out
+
+
+def _counted_clearance_m(clearance_m: Numeric, edge_tolerance_m: float | None) -> npt.NDArray[np.float64]:
+    """A sector's signed clearance where it limits the area margin (`ProtectedArea.margin_m`):
+    everywhere without a tolerance; with one, only more than `edge_tolerance_m` inside the sector
+    (+inf elsewhere). [m]"""
+    c = np.asarray(clearance_m, dtype=float)
+    return c if edge_tolerance_m is None else np.where(c < -edge_tolerance_m, c, np.inf)
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -955,11 +961,7 @@ class ProtectedArea:
         p = _points(points)
         margin = self.radius_m - np.asarray(self.distance_to_hull_m(p))
         for s in self.excluded:
-            clear = np.asarray(s.clearance_m(p), dtype=float)
-            if sector_edge_tolerance_m is None:
-                margin = np.minimum(margin, clear)
-            else:
-                margin = np.where(clear < -sector_edge_tolerance_m, np.minimum(margin, clear), margin)
+            margin = np.minimum(margin, _counted_clearance_m(s.clearance_m(p), sector_edge_tolerance_m))
         return as_float(margin)
 
     def contains(self, points: ArrayLike) -> Union[bool, npt.NDArray[np.bool_]]:
@@ -1009,10 +1011,7 @@ class ProtectedArea:
         hull_margin = hull.reshape(shp).min(axis=-1)
         margin = hull_margin
         for sec in self.excluded:
-            clear = np.asarray(sec.clearance_m(pts), dtype=float).reshape(shp)
-            if sector_edge_tolerance_m is not None:
-                clear = np.where(clear < -sector_edge_tolerance_m, clear, np.inf)
-            depth = clear.min(axis=-1)
+            depth = _counted_clearance_m(sec.clearance_m(pts), sector_edge_tolerance_m).reshape(shp).min(axis=-1)
             if isinstance(sec, BearingSector) and shp[-1] >= 2:
                 depth = np.minimum(depth, _bisector_depth_m(sec, t, sector_edge_tolerance_m))
             margin = np.minimum(margin, depth)
