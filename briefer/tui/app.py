@@ -339,7 +339,8 @@ class BriefingApp(App[None]):
             self._timer.stop()
             self._timer = None
         if self.computing:
-            return                       # _brief_done / _brief_failed start the next one
+            self._again = True           # _brief_done / _brief_failed start the next one
+            return
         if delay > 0.0:
             self._timer = self.set_timer(delay, self._compute)
         else:
@@ -350,10 +351,14 @@ class BriefingApp(App[None]):
         self.computing = True
         self._brief_worker(self.inputs)
 
+    _again = False                       # asked to brief again while one was being built
+
     def _newer_inputs(self, inputs: BriefingInputs) -> bool:
-        """A brief for ``inputs`` is done: if the inputs changed meanwhile, build the next one."""
+        """A brief for ``inputs`` is done: if the inputs changed meanwhile (or a brief was asked
+        for again, e.g. the catalog changed), build the next one instead of showing this one."""
         self.computing = False
-        if inputs == self.inputs:
+        again, self._again = self._again or inputs != self.inputs, False
+        if not again:
             return False
         self._schedule(self.debounce_s)
         return True
