@@ -356,22 +356,12 @@ SCENARIO_HEADER = ("# Practice scenario for briefer (kind: scenario). Invented d
                    "# navigation. The published procedure, the flight manual and local rules govern.\n")
 
 
-def _tidy(value: Any) -> Any:
-    """Whole-number floats as ints (260 rather than 260.0); loads back equal."""
-    if isinstance(value, float) and value.is_integer() and abs(value) < 1e15:
-        return int(value)
-    if isinstance(value, dict):
-        return {k: _tidy(v) for k, v in value.items()}
-    if isinstance(value, list):
-        return [_tidy(v) for v in value]
-    return value
-
-
 def scenario_yaml(scenario: Scenario) -> str:
     """The YAML text of a scenario (loads back equal)."""
+    from briefer.io.drafts import whole_numbers
     from briefer.io.yamlload import dump_yaml
 
-    return SCENARIO_HEADER + dump_yaml(_tidy(scenario.to_mapping()))
+    return SCENARIO_HEADER + dump_yaml(whole_numbers(scenario.to_mapping()))
 
 
 def write_scenario(path: str | PathLike[str], scenario: Scenario, *, overwrite: bool = False) -> Path:
