@@ -84,17 +84,6 @@ def key_value_table(title: str, rows: list[tuple[str, str]]) -> Any:
     return t
 
 
-def finite_float(text: str) -> float:
-    """argparse type: a finite number (prefer `ranged`, which also states the range)."""
-    try:
-        value = float(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"expected a number, got {text!r}") from None
-    if not math.isfinite(value):
-        raise argparse.ArgumentTypeError(f"expected a finite number, got {text!r}")
-    return value
-
-
 def _num_text(x: float) -> str:
     if abs(x) < 1e6:
         return f"{x:g}"
