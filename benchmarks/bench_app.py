@@ -123,8 +123,8 @@ def first_frame() -> None:
 
 def edit_to_brief(runs: int = RUNS * 2, yardstick: Callable[[], object] | None = None
                   ) -> dict[str, list[float]]:
-    """Edit -> brief shown in the app as a user has it (headless, the app's own debounce): from a
-    new value in the wind field (what a keystroke ends in) to the brief built for it pushed into
+    """Edit -> brief shown in the app as a user has it (headless, the app's own debounce, on the
+    weather step): from a new value in the wind field (what a keystroke ends in) to the brief built for it pushed into
     the widgets and the screen's next refresh done. Also (b) build_brief in the worker, (c) the
     push into the widgets; with ``yardstick``, its wall time just before each edit. [s]"""
     import asyncio
@@ -162,6 +162,8 @@ def edit_to_brief(runs: int = RUNS * 2, yardstick: Callable[[], object] | None =
         try:
             app = BriefingApp(demo_catalog(), demo_inputs())
             async with app.run_test(size=(80, 24)) as pilot:
+                await settle(app, pilot)
+                await pilot.press("4")                 # the weather step, where a crew types the wind
                 await settle(app, pilot)
                 wind = app.main.query_one("#wind", Input)
                 for i in range(runs + 2):
