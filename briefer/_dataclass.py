@@ -43,8 +43,9 @@ def dataclass(cls: type | None = None, /, *, init: bool = True, repr: bool = Tru
                 and _plain_annotations(c)):
             return _process(c, repr=repr, eq=eq, frozen=frozen, match_args=match_args, kw_only=kw_only,
                             slots=slots)
+        extra = {"weakref_slot": True} if weakref_slot else {}     # (Python 3.10 has no weakref_slot)
         return _dc.dataclass(c, init=init, repr=repr, eq=eq, order=order, unsafe_hash=unsafe_hash, frozen=frozen,
-                             match_args=match_args, kw_only=kw_only, slots=slots, weakref_slot=weakref_slot)
+                             match_args=match_args, kw_only=kw_only, slots=slots, **extra)
 
     return wrap if cls is None else wrap(cls)
 

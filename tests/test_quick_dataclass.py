@@ -157,3 +157,10 @@ def test_mutable_defaults_and_missing_annotations_are_refused_as_by_the_standard
             class Bad3:
                 a: int = 1
                 b: int
+
+
+def test_other_pythons_get_the_standard_decorator(monkeypatch):
+    monkeypatch.setattr(_dataclass, "_QUICK", False)     # as on Python 3.10 or 3.12+
+    std, quick = _pair(_frozen_kw)
+    assert repr(std(x_m=2.0)) == repr(quick(x_m=2.0))
+    assert quick.__init__.__qualname__.endswith("Point.__init__")
