@@ -160,6 +160,22 @@ def timing_words(plan, runway: str) -> str:
     return f"roll-in {-t:.0f} s before {where} ({abs(d):.2f} NM before abeam)"
 
 
+def wind_words(wind, *, compact: bool = False) -> str:
+    """The wind used, true (`wind` is a WindInfo): '240° true 10 kt, gusts 16 kt', 'VRB 5 kt',
+    'calm or not given'; `compact` (the screen's grids): '240/10G16 kt true', 'VRB/5 kt true',
+    'calm / not given'."""
+    if not wind.reported:
+        return "calm / not given" if compact else "calm or not given"
+    direction = "VRB" if wind.from_deg_true is None else f"{wind.from_deg_true:03.0f}"
+    speed = f"{wind.speed_kt:.0f}"
+    gust = f"{wind.gust_kt:.0f}" if wind.gust_kt else ""
+    if compact:
+        return f"{direction}/{speed}{'G' + gust if gust else ''} kt true"
+    if wind.from_deg_true is not None:
+        direction += "° true"
+    return f"{direction} {speed} kt{', gusts ' + gust + ' kt' if gust else ''}"
+
+
 def wind_limits_words(wind) -> str:
     """The configuration's wind limits as the brief used them (`wind` is a WindInfo):
     'limits: crosswind 24 kt, tailwind 10 kt (profile)', 'limits not given', or one of each."""
@@ -174,4 +190,4 @@ def wind_limits_words(wind) -> str:
 
 
 __all__ = ["area_edge_words", "visibility_words", "stall_margin_words", "signed", "break_off_words", "timing_words", "category_speed_parts", "category_words", "circling_speed_words", "vref_words", "components_words", "crosswind_side", "crosswind_words", "headwind_words", "wind_components_text",
-           "wind_limits_words"]
+           "wind_limits_words", "wind_words"]

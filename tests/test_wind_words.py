@@ -141,3 +141,20 @@ def test_icao_demo_field_both_sides():
         assert round(abs(brief.wind.crosswind_from_right_kt)) == 10
         for text in (_render(BriefView(brief)), _flat(card_text(brief)), _render(runway_implies(brief))):
             _no_wrong_side(text, side, 10)
+
+
+@pytest.mark.parametrize("from_deg, speed, gust, card, screen", [
+    # the wind as the card and the screen's grids say it (one formatter, two forms)
+    (240.0, 10.0, 16.0, "240° true 10 kt, gusts 16 kt", "240/10G16 kt true"),
+    (5.0, 8.0, None, "005° true 8 kt", "005/8 kt true"),
+    (None, 5.0, None, "VRB 5 kt", "VRB/5 kt true"),
+    (None, 0.0, None, "calm or not given", "calm / not given"),
+])
+def test_wind_words_card_and_compact_forms(from_deg, speed, gust, card, screen):
+    from briefer.result import WindInfo
+    from briefer.wording import wind_words
+
+    w = WindInfo(reported=speed > 0, from_deg_true=from_deg, speed_kt=speed, gust_kt=gust, headwind_kt=0.0,
+                 crosswind_from_right_kt=0.0, gust_headwind_kt=None, gust_crosswind_from_right_kt=None)
+    assert wind_words(w) == card
+    assert wind_words(w, compact=True) == screen

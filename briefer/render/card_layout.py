@@ -26,7 +26,7 @@ from briefer.cautions import CAUTIONS, SHORT_CAUTION
 from briefer.render.brief_scene import scene_from_brief
 from briefer.render.scene import ROLE_STYLES, Role, Scene
 from briefer.render.side_scene import SidePicture, side_picture
-from briefer.wording import area_edge_words, stall_margin_words, category_words, wind_components_text, wind_limits_words
+from briefer.wording import area_edge_words, stall_margin_words, category_words, wind_components_text, wind_limits_words, wind_words
 from briefer.display_units import (DEFAULT_UNITS, altimeter_words, finding_text, visibility_reported_words,
                                    visibility_required_words, weight_words)
 from briefer.result import Brief, Finding
@@ -344,16 +344,6 @@ def _timing_figure(p, runway: str) -> Figure:
     return Figure(label="TIMING", value=num(t, ".0f", " s"), note=f"abeam thr {runway} to roll-in")
 
 
-def wind_text(brief: Brief) -> str:
-    """The wind used: '240° true 10 kt, gusts 16 kt', 'VRB 5 kt', or 'calm or not given'."""
-    w = brief.wind
-    if not w.reported:
-        return "calm or not given"
-    d = "VRB" if w.from_deg_true is None else f"{w.from_deg_true:03.0f}° true"
-    g = f", gusts {w.gust_kt:.0f} kt" if w.gust_kt else ""
-    return f"{d} {w.speed_kt:.0f} kt{g}"
-
-
 def _wind(brief: Brief, units: str) -> Section:
     w, wx, pf, h = brief.wind, brief.weather, brief.performance, brief.header
     comp = f"rwy {h.landing_runway}: {wind_components_text(w)}; {wind_limits_words(w)}"
@@ -362,8 +352,8 @@ def _wind(brief: Brief, units: str) -> Section:
     weather = (f"OAT {wx.oat_c:.0f} °C, altimeter {altimeter_words(wx.altimeter_hpa, units)}, visibility "
                f"{visibility_reported_words(wx.visibility_sm, metre_minimums=brief.minimums.visibility_in_metres, units=units)}, ceiling "
                f"{num(wx.ceiling_ft, '.0f', ' ft') if wx.ceiling_ft is not None else 'not reported'} ({source})")
-    rows = [Row(label="Wind", text=(f"{wind_text(brief)}; " + comp if w.reported
-                                    else f"{wind_text(brief)}; {wind_limits_words(w)}")),
+    rows = [Row(label="Wind", text=(f"{wind_words(w)}; " + comp if w.reported
+                                    else f"{wind_words(w)}; {wind_limits_words(w)}")),
             Row(label="Weather", text=weather)]
     if wx.report:
         rows.append(Row(label="Report", text=wx.report))

@@ -12,7 +12,7 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
-from briefer.wording import area_edge_words, stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words
+from briefer.wording import area_edge_words, stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words, wind_words
 from briefer.display_units import (DEFAULT_UNITS, altimeter_words, finding_text, said_in, visibility_reported_words,
                                    visibility_required_words, weight_words)
 from briefer.result import Brief, Finding
@@ -26,15 +26,6 @@ def fmt(value: float | None, spec: str = ".0f", unit: str = "", none: str = "n/r
     if value is None:
         return none
     return f"{value:{spec}}{unit}"
-
-
-def wind_text(brief: Brief) -> str:
-    w = brief.wind
-    if not w.reported:
-        return "calm / not given"
-    d = "VRB" if w.from_deg_true is None else f"{w.from_deg_true:03.0f}"
-    g = f"G{w.gust_kt:.0f}" if w.gust_kt else ""
-    return f"{d}/{w.speed_kt:.0f}{g} kt true"
 
 
 def _kv_grid() -> Table:
@@ -161,7 +152,7 @@ class PerformanceView:
         sb = "n/a" if pf.stall_bank_deg is None else f"{pf.stall_bank_deg:.0f}°"
         g.add_row("Stall", f"{pf.stall_speed_kt:.0f} kt in the turn ({stall_margin_words(pf.stall_margin_pct).replace('stall margin', 'margin')}); "
                            f"AoA {pf.aoa_in_turn:.1f} of {pf.aoa_stall:.1f} {pf.aoa_unit}; wing stalls at {sb} bank")
-        g.add_row("Wind", f"{wind_text(self.brief)}: {wind_components_text(w)}; {wind_limits_words(w)}")
+        g.add_row("Wind", f"{wind_words(w, compact=True)}: {wind_components_text(w)}; {wind_limits_words(w)}")
         yield g
 
 

@@ -12,10 +12,10 @@ from rich.console import Group, RenderableType
 from rich.table import Table
 from rich.text import Text
 
-from briefer.render.views import MARK, STYLE, MinimumsView, PerformanceView, fmt, wind_text
+from briefer.render.views import MARK, STYLE, MinimumsView, PerformanceView, fmt
 from briefer.display_units import (DEFAULT_UNITS, altimeter_words, finding_text, visibility_reported_words,
                                    visibility_required_words, weight_words)
-from briefer.wording import area_edge_words, circling_speed_words, vref_words, wind_components_text, wind_limits_words
+from briefer.wording import area_edge_words, circling_speed_words, vref_words, wind_components_text, wind_limits_words, wind_words
 from briefer.result import Brief
 
 
@@ -104,7 +104,7 @@ def runway_implies(brief: Brief, units: str = DEFAULT_UNITS) -> RenderableType:
     m, p, w = brief.minimums, brief.plan, brief.wind
     g = _grid()
     g.add_row("Land", f"runway {brief.header.landing_runway}, final heading {p.final_heading_deg_mag:03.0f}° M")
-    g.add_row("Wind", f"{wind_text(brief)}: {wind_components_text(w)}")
+    g.add_row("Wind", f"{wind_words(w, compact=True)}: {wind_components_text(w)}")
     if m.circling_only_reasons:
         for r in m.circling_only_reasons:
             g.add_row("Circling only", r.text)
@@ -120,7 +120,7 @@ def weather_implies(brief: Brief, units: str = DEFAULT_UNITS) -> RenderableType:
     g = _grid()
     g.add_row("Source", {"manual": "typed values", "report": "the report (typed values override it)",
                          "standard": "nothing given: standard values"}.get(wu.source, wu.source))
-    g.add_row("Wind", f"{wind_text(brief)}: {wind_components_text(w)}; {wind_limits_words(w)}")
+    g.add_row("Wind", f"{wind_words(w, compact=True)}: {wind_components_text(w)}; {wind_limits_words(w)}")
     g.add_row("Temp/alt", f"OAT {wu.oat_c:.0f} °C, altimeter {altimeter_words(wu.altimeter_hpa, units, spec='.1f')}; "
                           f"TAS {pf.tas_kt:.0f} kt at the MDA")
     vis = {True: "OK", False: "BELOW MINIMUM", None: "not checked"}[m.visibility_ok]
