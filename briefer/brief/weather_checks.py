@@ -72,50 +72,48 @@ def _limits_source(cfg) -> str:
     return "profile" if all(given) else "part" if any(given) else "not given"
 
 
+def _worst(steady: float, gust: float | None) -> tuple[float, bool]:
+    """The larger of the steady value and the gust value (both counted toward the limit), and
+    whether the gust gives it."""
+    if gust is not None and gust > steady:
+        return gust, True
+    return steady, False
+
+
 def _wind_limit_findings(cfg, hw: float, xw: float, ghw: float | None, gxw: float | None,
                          found: FindingList) -> tuple[str, ...]:
     """The wind against the configuration's limits (worst of steady and gust, in whole knots as
     printed): beyond the profile's limit a DANGER (and the plan is withheld); where the profile
     gives none, "not given" and the common-practice defaults, beyond which a WARNING."""
-    cross, cross_gust = abs(xw), False
-    if gxw is not None and abs(gxw) > cross:
-        cross, cross_gust = abs(gxw), True
-    cross_signed = (gxw if cross_gust else xw)
-    tail, tail_gust = -hw, False
-    if ghw is not None and -ghw > tail:
-        tail, tail_gust = -ghw, True
+    cross, cross_gust = _worst(abs(xw), None if gxw is None else abs(gxw))
+    tail, tail_gust = _worst(-hw, None if ghw is None else -ghw)
     in_gusts = " in the gusts"
+    checks = (  # (kind, worst value, its words, profile limit, common-practice limit, limit's name,
+                #  what the flight manual calls it)
+        ("crosswind", cross, f"crosswind {crosswind_words(gxw if cross_gust else xw)}{in_gusts if cross_gust else ''}",
+         cfg.max_demonstrated_crosswind_kt, COMMON_PRACTICE_CROSSWIND_KT, "maximum demonstrated crosswind",
+         "demonstrated crosswind"),
+        ("tailwind", tail, f"{headwind_words(-tail)}{in_gusts if tail_gust else ''}",
+         cfg.tailwind_limit_kt, COMMON_PRACTICE_TAILWIND_KT, "tailwind limit", "tailwind limit"),
+    )
     beyond: list[str] = []
-    xw_lim, tw_lim = cfg.max_demonstrated_crosswind_kt, cfg.tailwind_limit_kt
-    if xw_lim is not None and round(cross) > xw_lim:
-        text = (f"crosswind {crosswind_words(cross_signed)}{in_gusts if cross_gust else ''} is beyond the maximum "
-                f"demonstrated crosswind of {xw_lim:.0f} kt ({cfg.name})")
-        beyond.append(text)
-        found.add("danger", "crosswind-beyond-limit", f"The {text}: no plan is recommended; land on another runway "
-                  "or divert.")
-    if tw_lim is not None and round(tail) > tw_lim:
-        text = (f"{headwind_words(-tail)}{in_gusts if tail_gust else ''} is beyond the tailwind limit of "
-                f"{tw_lim:.0f} kt ({cfg.name})")
-        beyond.append(text)
-        found.add("danger", "tailwind-beyond-limit", f"The {text}: no plan is recommended; land on another runway "
-                  "or divert.")
-    missing = [w for w, v in (("crosswind", xw_lim), ("tailwind", tw_lim)) if v is None]
+    for kind, value, words, limit, _, limit_name, _ in checks:
+        if limit is not None and round(value) > limit:
+            text = f"{words} is beyond the {limit_name} of {limit:.0f} kt ({cfg.name})"
+            beyond.append(text)
+            found.add("danger", f"{kind}-beyond-limit", f"The {text}: no plan is recommended; land on another "
+                      "runway or divert.")
+    missing = [(kind, default) for kind, _, _, limit, default, _, _ in checks if limit is None]
     if missing:
         found.add("info", "wind-limits-not-given",
-                  f"The profile's {' and '.join(missing)} limit for {cfg.name}: not given. Checked instead against "
-                  f"common practice (from memory, not the flight manual): "
-                  + ", ".join(f"{w} {COMMON_PRACTICE_CROSSWIND_KT if w == 'crosswind' else COMMON_PRACTICE_TAILWIND_KT:.0f} kt"
-                              for w in missing) + ".")
-    if xw_lim is None and round(cross) > COMMON_PRACTICE_CROSSWIND_KT:
-        found.add("warning", "crosswind-beyond-default",
-                  f"Crosswind {crosswind_words(cross_signed)}{in_gusts if cross_gust else ''} is beyond "
-                  f"{COMMON_PRACTICE_CROSSWIND_KT:.0f} kt, a common-practice limit (the profile gives none): check the "
-                  "flight manual's demonstrated crosswind.")
-    if tw_lim is None and round(tail) > COMMON_PRACTICE_TAILWIND_KT:
-        found.add("warning", "tailwind-beyond-default",
-                  f"{headwind_words(-tail).capitalize()}{in_gusts if tail_gust else ''} is beyond "
-                  f"{COMMON_PRACTICE_TAILWIND_KT:.0f} kt, a common-practice limit (the profile gives none): check the "
-                  "flight manual's tailwind limit.")
+                  f"The profile's {' and '.join(kind for kind, _ in missing)} limit for {cfg.name}: not given. "
+                  f"Checked instead against common practice (from memory, not the flight manual): "
+                  + ", ".join(f"{kind} {default:.0f} kt" for kind, default in missing) + ".")
+    for kind, value, words, limit, default, _, manual_name in checks:
+        if limit is None and round(value) > default:
+            found.add("warning", f"{kind}-beyond-default",
+                      f"{words.capitalize()} is beyond {default:.0f} kt, a common-practice limit (the "
+                      f"profile gives none): check the flight manual's {manual_name}.")
     return tuple(beyond)
 
 
