@@ -208,25 +208,22 @@ class InstructorScreen(Screen[None]):
     def _value(self, selector: str) -> str:
         return str(self.query_one(selector, Select).value)
 
-    def _seed(self) -> int:
-        text = self.query_one("#seed", Input).value.strip()
+    def _whole_number(self, selector: str, what: str, lo: int, hi: int, range_words: str) -> int:
+        """The whole number typed in an input, from `lo` to `hi`; else a BriefingError naming it."""
+        text = self.query_one(selector, Input).value.strip()
         try:
             value = int(text)
         except ValueError:
-            raise BriefingError(f"the seed must be a whole number, got {text!r}") from None
-        if not 0 <= value < 2**63:
-            raise BriefingError(f"the seed must be from 0 to 2^63-1, got {value}")
+            raise BriefingError(f"the {what} must be a whole number, got {text!r}") from None
+        if not lo <= value <= hi:
+            raise BriefingError(f"the {what} must be {range_words}, got {value}")
         return value
 
+    def _seed(self) -> int:
+        return self._whole_number("#seed", "seed", 0, 2**63 - 1, "from 0 to 2^63-1")
+
     def _count(self) -> int:
-        text = self.query_one("#deck-count", Input).value.strip()
-        try:
-            value = int(text)
-        except ValueError:
-            raise BriefingError(f"the deck size must be a whole number, got {text!r}") from None
-        if not 1 <= value <= 50:
-            raise BriefingError(f"the deck size must be 1 to 50, got {value}")
-        return value
+        return self._whole_number("#deck-count", "deck size", 1, 50, "1 to 50")
 
     def choices(self) -> dict[str, Any]:
         """The airfield and profile models, the emphasis (None: drawn) and the seed chosen."""
