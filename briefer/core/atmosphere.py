@@ -106,6 +106,17 @@ def _oat_k(oat_c: Numeric) -> np.ndarray:
     return units.kelvin_from_celsius(_checked("oat_c", oat_c, *OAT_RANGE_C, "degC"))
 
 
+def _sound_speed_kt(t_k: np.ndarray) -> np.ndarray:
+    """Speed of sound [kt] at a temperature [K] (already checked): a = sqrt(gamma R T) [1]."""
+    return np.sqrt(GAMMA * R_J_PER_KG_K * t_k) * units.MPS_TO_KT
+
+
+def _static_air(pressure_altitude_ft: Numeric, oat_c: Numeric) -> tuple[np.ndarray, np.ndarray]:
+    """Static pressure [Pa] at a pressure altitude and the air's temperature [K], both checked."""
+    _, p = _isa_t_p(_pressure_altitude_m(pressure_altitude_ft))
+    return p, _oat_k(oat_c)
+
+
 def _isa_t_p(h_m: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """ISA temperature [K] and pressure [Pa] at geopotential height h (already checked)."""
     tropo = h_m <= TROPOPAUSE_M
@@ -273,7 +284,7 @@ def speed_of_sound_kt(oat_c: Numeric) -> Numeric:
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 2
        (speed of sound, gamma = 1.4).
     """
-    return angles.as_float(np.sqrt(GAMMA * R_J_PER_KG_K * _oat_k(oat_c)) * units.MPS_TO_KT)  # [1] eq. a
+    return angles.as_float(_sound_speed_kt(_oat_k(oat_c)))               # [1] eq. a
 
 
 def isa_speed_of_sound_kt(pressure_altitude_ft: Numeric) -> Numeric:
@@ -282,7 +293,7 @@ def isa_speed_of_sound_kt(pressure_altitude_ft: Numeric) -> Numeric:
     Raises `DomainError` outside -5,000 to 60,000 ft. See :func:`speed_of_sound_kt`.
     """
     t_k = np.asarray(isa_temperature_k(pressure_altitude_ft))
-    return angles.as_float(np.sqrt(GAMMA * R_J_PER_KG_K * t_k) * units.MPS_TO_KT)
+    return angles.as_float(_sound_speed_kt(t_k))
 
 
 def pressure_altitude_ft(altitude_ft: Numeric, *, altimeter_hpa: Numeric) -> Numeric:
@@ -426,8 +437,7 @@ def density_ratio(pressure_altitude_ft: Numeric, *, oat_c: Numeric) -> Numeric:
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 2 (equation
        of state rho = p/(R T)).
     """
-    _, p = _isa_t_p(_pressure_altitude_m(pressure_altitude_ft))
-    t = _oat_k(oat_c)
+    p, t = _static_air(pressure_altitude_ft, oat_c)
     return angles.as_float((p / P0_PA) * (T0_K / t))                 # [1] eq. rho = p/(R T)
 
 
@@ -489,7 +499,7 @@ def _tas_from_cas(cas_kt: np.ndarray, p_pa: np.ndarray, t_k: np.ndarray) -> np.n
     if (mach >= 1.0).any():
         raise DomainError("the calibrated airspeed gives a true Mach number of 1 or more at this "
                           "altitude; only subsonic flight is modelled")
-    a_kt = np.sqrt(GAMMA * R_J_PER_KG_K * t_k) * units.MPS_TO_KT
+    a_kt = _sound_speed_kt(t_k)
     return mach * a_kt                                                # [3] eq. TAS = M a
 
 
@@ -528,8 +538,7 @@ def tas_from_cas_kt(cas_kt: Numeric, *, pressure_altitude_ft: Numeric, oat_c: Nu
     .. [3] NASA RP-1046, 1980, subsonic airspeed equations.
     """
     cas = _cas_checked(cas_kt)
-    _, p = _isa_t_p(_pressure_altitude_m(pressure_altitude_ft))
-    t = _oat_k(oat_c)
+    p, t = _static_air(pressure_altitude_ft, oat_c)
     return angles.as_float(_tas_from_cas(cas, p, t))
 
 
@@ -563,9 +572,8 @@ def cas_from_tas_kt(tas_kt: Numeric, *, pressure_altitude_ft: Numeric, oat_c: Nu
     ----------
     .. [3] NASA RP-1046, 1980, subsonic airspeed equations.
     """
-    _, p = _isa_t_p(_pressure_altitude_m(pressure_altitude_ft))
-    t = _oat_k(oat_c)
-    a_kt = np.sqrt(GAMMA * R_J_PER_KG_K * t) * units.MPS_TO_KT
+    p, t = _static_air(pressure_altitude_ft, oat_c)
+    a_kt = _sound_speed_kt(t)
     tas = _checked("tas_kt", tas_kt, 0.0, float(np.min(a_kt)), "kt", lo_open=True, hi_open=True)
     mach = tas / a_kt
     qc = p * ((1.0 + 0.2 * mach ** 2) ** 3.5 - 1.0)                   # [3] eq. qc/p = (1 + 0.2 M^2)^3.5 - 1
