@@ -77,6 +77,11 @@ def _speed(name: str, speed_kt: Numeric) -> np.ndarray:
     return _checked(name, speed_kt, 0.0, SPEED_MAX_KT, "kt", lo_open=True)
 
 
+def _tas_mps(tas_kt: Numeric) -> np.ndarray:
+    """Checked TAS (0 < TAS <= 1000 kt) in m/s."""
+    return _speed("tas_kt", tas_kt) * units.KT_TO_MPS
+
+
 def _weight_ratio(weight_ratio: Numeric) -> np.ndarray:
     return _checked("weight_ratio", weight_ratio, 0.0, WEIGHT_RATIO_MAX, "", lo_open=True)
 
@@ -111,7 +116,7 @@ def turn_radius_m(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
     .. [2] ICAO Doc 8168, Vol II, Part I, Section 2, Chapter 3 (r = V/(20 pi R)).
     .. [3] Flight-mechanics textbooks, the level turn (from memory).
     """
-    v_mps = _speed("tas_kt", tas_kt) * units.KT_TO_MPS
+    v_mps = _tas_mps(tas_kt)
     bank = _bank(bank_deg, turning=True)
     return angles.as_float(v_mps ** 2 / (units.G0_MPS2 * angles.tand(bank)))   # [3] eq. r = V^2/(g tan phi)
 
@@ -156,7 +161,7 @@ def turn_rate_deg_per_s(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
     .. [2] ICAO Doc 8168, Vol II, Part I, Section 2, Chapter 3.
     .. [3] Flight-mechanics textbooks, the level turn (from memory).
     """
-    v_mps = _speed("tas_kt", tas_kt) * units.KT_TO_MPS
+    v_mps = _tas_mps(tas_kt)
     bank = _bank(bank_deg, turning=False)
     return angles.as_float(np.degrees(units.G0_MPS2 * angles.tand(bank) / v_mps))  # [3] eq. omega = g tan phi / V
 
@@ -274,8 +279,7 @@ def stall_speed_in_turn_kt(vs1g_kt: Numeric, bank_deg: Numeric, *, weight_ratio:
     """
     vs = _speed("vs1g_kt", vs1g_kt)
     w = _weight_ratio(weight_ratio)
-    n = np.asarray(load_factor(bank_deg))
-    return angles.as_float(vs * np.sqrt(n) * np.sqrt(w))             # [1] eq. Vs sqrt(n), lift = W n
+    return angles.as_float(vs * np.asarray(stall_speed_factor(bank_deg)) * np.sqrt(w))  # [1] eq. Vs sqrt(n), lift = W n
 
 
 def stall_bank_deg(speed_kt: Numeric, vs1g_kt: Numeric, *, weight_ratio: Numeric = 1.0) -> Numeric:
@@ -355,7 +359,7 @@ def bank_for_rate_deg(tas_kt: Numeric, *, rate_deg_per_s: Numeric = STANDARD_RAT
     ----------
     .. [3] Flight-mechanics textbooks, the level turn (from memory).
     """
-    v_mps = _speed("tas_kt", tas_kt) * units.KT_TO_MPS
+    v_mps = _tas_mps(tas_kt)
     rate = _checked("rate_deg_per_s", rate_deg_per_s, 0.0, 30.0, "deg/s")
     return angles.as_float(angles.atand(np.radians(rate) * v_mps / units.G0_MPS2))  # [3] eq. tan phi = omega V/g
 
@@ -384,7 +388,7 @@ def bank_for_radius_deg(tas_kt: Numeric, *, radius_m: Numeric) -> Numeric:
     ----------
     .. [3] Flight-mechanics textbooks, the level turn (from memory).
     """
-    v_mps = _speed("tas_kt", tas_kt) * units.KT_TO_MPS
+    v_mps = _tas_mps(tas_kt)
     r = _checked("radius_m", radius_m, 0.0, np.inf, "m", lo_open=True)
     return angles.as_float(angles.atand(v_mps ** 2 / (units.G0_MPS2 * r)))  # [3] eq. tan phi = V^2/(g r)
 
@@ -602,5 +606,5 @@ def turn_performance(tas_kt: float, bank_deg: float) -> TurnPerformance:
         time_180_s=180.0 / rate,
         time_360_s=360.0 / rate,
         load_factor=n,
-        stall_speed_factor=float(np.sqrt(n)),
+        stall_speed_factor=float(stall_speed_factor(bank_deg)),
     )
