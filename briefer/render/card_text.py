@@ -149,20 +149,9 @@ def layout_text(layout: CardLayout) -> str:
     lines = _wrap(first, WIDTH) if len(first) > WIDTH else [_t(first)]
     lines += _wrap(layout.approach, WIDTH)
     lines += _wrap(f"{layout.aircraft}; criteria {layout.criteria}", WIDTH)
-    lines.append("")
-    lines += _section(layout.minimums)
-    lines.append("")
-    lines += _section(layout.plan)
-    lines.append("")
-    lines += _plan_view(layout)
-    lines.append("")
-    lines += _side_view(layout.side_view)
-    lines.append("")
-    lines += _section(layout.wind)
-    lines.append("")
-    lines += _warnings(layout)
-    lines.append("")
-    lines += _cautions(layout)
+    for block in (_section(layout.minimums), _section(layout.plan), _plan_view(layout),
+                  _side_view(layout.side_view), _section(layout.wind), _warnings(layout), _cautions(layout)):
+        lines += ["", *block]         # a blank line before each block, in reading order
     lines += _wrap(layout.footer, WIDTH)
     return "\n".join(ln.rstrip() for ln in lines) + "\n"
 
