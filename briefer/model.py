@@ -977,6 +977,7 @@ BEARING = Forms("bearing", (("bearing_deg_mag",), ("bearing_deg_true",)), requir
 HEADING = Forms("heading", (("heading_deg_mag",), ("heading_deg_true",)), required=False, checked=False)
 LENGTH = Forms("length", (("length_ft",), ("length_m",)), required=False, checked=False)
 VISIBILITY = Forms("visibility", (("visibility_sm",), ("visibility_m",)), required=False, checked=False)
+ELEVATION = Forms("elevation", (("elevation_ft",), ("tdze_ft",)), checked=False)
 PLACE_KEYS = ("from_point", *DISTANCE.keys, *BEARING.keys)
 """The keys of a chart placement: a distance and a bearing from a threshold or ARP."""
 _UNIT_RANGES = {"distance_nm": CHART_DISTANCE_NM, "distance_ft": CHART_DISTANCE_FT, "distance_m": CHART_DISTANCE_M,
@@ -1168,7 +1169,7 @@ class Threshold(_Model):
     _help: ClassVar[str] = ("A runway threshold (landing end): coordinates, or none when the runway is given by the "
                             "chart's heading and length.")
     _forms: ClassVar[tuple[Forms, ...]] = (
-        COORDINATES, Forms("elevation", (("elevation_ft",), ("tdze_ft",)), checked=False))
+        COORDINATES, ELEVATION)
 
     designator: str = designator_field("Runway designator, e.g. '09' or '27L' (quote it; 9 and '9' mean '09').")
     elevation_ft: float | None = num_field(

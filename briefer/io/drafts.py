@@ -29,8 +29,14 @@ from yaml.nodes import ScalarNode
 from briefer.errors import DataFileError
 from briefer.io.yamlload import YamlDocument, _Builder, _Loader, dump_yaml, load_bytes
 from briefer.model import (
+    BEARING,
+    DISTANCE,
+    ELEVATION,
+    HEADING,
     KIND_AIRFIELD,
     KIND_PROFILE,
+    LENGTH,
+    VISIBILITY,
     AircraftProfile,
     Airfield,
     Approach,
@@ -147,11 +153,11 @@ def _find_example(cls: Any, kind: str) -> dict[str, Any] | None:
     return None
 
 
-_TWINS = (("heading_deg_mag", "heading_deg_true"), ("length_ft", "length_m"),
-          ("distance_nm", "distance_ft", "distance_m"), ("bearing_deg_mag", "bearing_deg_true"),
-          ("elevation_ft", "tdze_ft"), ("visibility_sm", "visibility_m"), ("position", "crossing"),
-          ("lat_deg", "threshold", "from_point"), ("lon_deg", "threshold", "from_point"),
+_TWINS = (HEADING.keys, LENGTH.keys, DISTANCE.keys, BEARING.keys, ELEVATION.keys, VISIBILITY.keys,
+          ("position", "crossing"), ("lat_deg", "threshold", "from_point"), ("lon_deg", "threshold", "from_point"),
           ("mda_ft", "not_authorised"))
+"""Keys that stand for one another in a form (the model's alternative units and forms, and the
+alternatives of a position or a minimum)."""
 
 
 def _about(exc: FieldError, path: str) -> bool:
