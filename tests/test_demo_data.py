@@ -587,3 +587,52 @@ def test_every_shipped_and_test_data_file_validates_against_its_schema() -> None
             assert schema_errors(data, schema(kind)) == [], path
             seen[kind] = seen.get(kind, 0) + 1
     assert set(seen) == {KIND_PROFILE, KIND_AIRFIELD, "scenario"}
+
+
+def _number_leaves(value: Any, path: str = "") -> list[str]:
+    """The dotted paths of every number in a file's mapping (as the loader names them)."""
+    from briefer.model import join_path
+
+    if isinstance(value, dict):
+        return [p for k, v in value.items() for p in _number_leaves(v, join_path(path, str(k)))]
+    if isinstance(value, list):
+        return [p for i, v in enumerate(value) for p in _number_leaves(v, f"{path}[{i}]")]
+    return [path] if isinstance(value, (int, float)) and not isinstance(value, bool) else []
+
+
+def _set_leaf(data: Any, path: str, value: Any) -> Any:
+    import copy
+
+    out = copy.deepcopy(data)
+    tokens = [t for t in re.split(r"\.|\[(\d+)\]", path) if t]
+    node = out
+    for tok in tokens[:-1]:
+        node = node[int(tok)] if isinstance(node, list) else node[tok]
+    last = tokens[-1]
+    node[int(last) if isinstance(node, list) else last] = value
+    return out
+
+
+@pytest.mark.parametrize("name", ["tests/bad_files/good-profile.yaml", "tests/bad_files/good-airfield.yaml",
+                                  "tests/chart_files/good-chart.yaml", "profiles/demo-bizjet.yaml",
+                                  "scenarios/v2rl-low-visibility-by-hand.yaml"])
+def test_loader_and_schema_refuse_the_same_out_of_range_numbers(name: str) -> None:
+    """For every number of a good file: far out of range, or text, both the loader (naming that
+    very field) and the generated schema refuse it. Both come from one declaration per field."""
+    from briefer.instructor.scenario_format import Scenario
+    from briefer.model import FieldError
+
+    path_on_disk = ROOT / name
+    data = parse_yaml_mapping(path_on_disk.read_bytes(), path_on_disk.name).data
+    kind = data.get("kind", "scenario")
+    model = {KIND_PROFILE: AircraftProfile, KIND_AIRFIELD: Airfield, "scenario": Scenario}[kind]
+    check = _validator(schema(kind))
+    leaves = _number_leaves(data)
+    assert leaves
+    for leaf in leaves:
+        for bad in (1e12, "seven"):
+            mutated = _set_leaf(data, leaf, bad)
+            assert not check.is_valid(mutated), (leaf, bad)
+            with pytest.raises(FieldError) as info:
+                model.from_mapping(mutated)
+            assert info.value.context == leaf, (leaf, bad, str(info.value))
