@@ -409,7 +409,7 @@ class Spec:
     model: Any = None                      # 'model', 'models', 'categories': the nested model class
     min_items: int = 0
     max_items: int | None = None
-    schema: Mapping[str, Any] | None = None  # 'custom' (and 'model' variants): the JSON Schema
+    schema: Mapping[str, Any] | None = None  # 'custom': its JSON Schema
     schema_ref: str | None = None          # 'model': a named variant of the nested model's schema
     others: tuple[str, ...] = ()           # number: the keys of the same quantity in other units
     nullable: bool | None = None           # schema: null allowed (default: when optional); False for
