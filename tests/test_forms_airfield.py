@@ -374,3 +374,21 @@ async def test_a_second_runway_placed_where_the_centrelines_cross():
         # the file form reads back through the form (nothing lost)
         texts = to_texts(AIRFIELD_FORM, model.to_mapping())
         assert check_texts(AIRFIELD_FORM, texts).model == model
+
+
+async def test_a_saved_file_is_briefed_even_when_a_brief_was_being_built_with_the_old_one():
+    """The form saves while the brief of the same names is being built from the file as it was:
+    that brief must not be the last word (the app builds one brief at a time)."""
+    from briefer.tui.forms.app_hooks import _catalog_with
+    from briefer.tui.forms.screen import Saved
+
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        old_request, old_brief, inputs = app.request, app.brief, app.inputs
+        changed = replace(old_request.airfield, elevation_ft=old_request.airfield.elevation_ft + 10)
+        app.computing = True                      # a brief of these inputs is on its way
+        app.use_catalog(_catalog_with(app.catalog, Saved(KIND_AIRFIELD, changed, Path("x.yaml"))), inputs)
+        app._brief_done(inputs, old_request, old_brief)      # ... and arrives, built from the old file
+        await settle(app, pilot)
+        assert app.request.airfield.elevation_ft == changed.elevation_ft
