@@ -392,3 +392,18 @@ async def test_a_saved_file_is_briefed_even_when_a_brief_was_being_built_with_th
         app._brief_done(inputs, old_request, old_brief)      # ... and arrives, built from the old file
         await settle(app, pilot)
         assert app.request.airfield.elevation_ft == changed.elevation_ft
+
+
+def test_cross_field_messages_of_several_approaches_and_obstacles_show_at_once():
+    """The loader stops at its first error; the form shows each approach's and obstacle's own."""
+    texts, _ = _q7hm_texts()
+    texts["approaches"][0]["map_fix"]["threshold"] = "04"                 # no threshold 04 here
+    texts["approaches"][1]["map_fix"]["distance_nm"] = "40"               # a MAP 40 NM away
+    texts["approaches"][1]["map_fix"]["distance_ft"] = ""
+    texts["obstacles"][2]["from_point"] = "22"                            # no threshold 22 either
+    verdict = check_texts(AIRFIELD_FORM, texts)
+    where = {p[:2] for p in verdict.errors}
+    assert {("approaches", 0), ("approaches", 1), ("obstacles", 2)} <= where, verdict.errors
+    assert "04" in verdict.errors[("approaches", 0, "map_fix", "threshold")]
+    assert "22" in verdict.errors[("obstacles", 2, "from_point")]
+    assert verdict.model is None

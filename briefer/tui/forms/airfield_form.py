@@ -176,6 +176,7 @@ AIRFIELD_FORM = FormSpec(
     name_key="ident",
     header={"kind": KIND_AIRFIELD, "format_version": FORMAT_VERSION},
     read_model=_read_airfield,
+    independent=("approaches", "obstacles"),
     items=(
         Group(None, "Airfield (airport diagram)", (
             Field("ident", "Identifier", width=6, hint="Q7HM"),

@@ -23,6 +23,9 @@ from briefer.tui.forms.spec import Built, FormPath, FormSpec, get_path, to_mappi
 from briefer.tui.forms.values import number_text
 
 _MISSING = re.compile(r"missing required key '([^']+)'")
+_ITEM = re.compile(r"([a-z_]+)\[(\d+)\]")
+MORE_CROSS_FIELD = 6
+"""At most this many more cross-field messages after the loader's first (one read each)."""
 
 
 @dataclass
@@ -130,10 +133,37 @@ class Checker:
             model = self.spec.read_model(draft)
         except DataFileError as exc:
             self._place(verdict, built, exc)
+            self._more_cross_field(verdict, built, draft, exc)
         else:
             if not verdict.errors and not verdict.required:
                 verdict.model = model
         return verdict
+
+    def _more_cross_field(self, verdict: Verdict, built: Built, draft: dict[str, Any], exc: DataFileError) -> None:
+        """The loader stops at its first error. When that lies in an item of a list whose items
+        do not depend on each other (an approach, an obstacle: `FormSpec.independent`), the draft
+        is read again without it, so the crew sees every such message at once (up to
+        `MORE_CROSS_FIELD` more)."""
+        kept = {key: list(range(len(draft.get(key) or []))) for key in self.spec.independent}
+        trial = dict(draft)
+        for _ in range(MORE_CROSS_FIELD):
+            m = _ITEM.match(exc.context or "")
+            if m is None or m.group(1) not in kept or len(trial[m.group(1)]) <= 1:
+                return
+            key, index = m.group(1), int(m.group(2))
+            del kept[key][index]
+            trial[key] = [item for i, item in enumerate(trial[key]) if i != index]
+            try:
+                self.spec.read_model(trial)
+            except DataFileError as again:
+                exc = again
+            else:
+                return
+            hit = _ITEM.match(exc.context or "")
+            context = exc.context
+            if hit is not None and hit.group(1) in kept:      # back to the form's numbering
+                context = f"{hit.group(1)}[{kept[hit.group(1)][int(hit.group(2))]}]{context[hit.end():]}"
+            self._place(verdict, built, DataFileError(exc.message, context=context))
 
     @staticmethod
     def _drop_echoes(verdict: Verdict, built: Built, draft: dict[str, Any]) -> None:

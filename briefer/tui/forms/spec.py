@@ -184,6 +184,8 @@ class FormSpec:
         read_model: The loader's reader of the whole mapping (`Model.from_mapping`).
         name_key: The file key that names the file ('name', 'ident').
         header: The file's first keys (kind, format_version).
+        independent: Top-level lists whose items do not refer to each other (approaches,
+            obstacles): a cross-field message in one does not hide those of the others.
     """
 
     kind: str
@@ -192,6 +194,7 @@ class FormSpec:
     read_model: Callable[[Any], Any]
     name_key: str
     header: Mapping[str, Any] = field(default_factory=dict)
+    independent: tuple[str, ...] = ()
 
 
 # --------------------------------------------------------------------------------------------
