@@ -216,13 +216,18 @@ def wind_envelope(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: fl
         beyond |= np.round(np.abs(spds[None, :] * np.sin(rel))).ravel() > crosswind_limit_kt   # whole knots,
     if tailwind_limit_kt is not None:                                                         # as the brief says
         beyond |= np.round(-spds[None, :] * np.cos(rel)).ravel() > tailwind_limit_kt
-    j = judge_winds(inputs, wx_mps=wx, wy_mps=wy, margin_fn=margin_fn, visibility_m=visibility_m,
+    # cells beyond the limits are not judged (no plan is offered there); a wind's judgement does
+    # not depend on the other winds of the batch, so the others are as if all were judged
+    within = np.flatnonzero(~beyond)
+    j = judge_winds(inputs, wx_mps=wx[within], wy_mps=wy[within], margin_fn=margin_fn, visibility_m=visibility_m,
                     bank_limit_deg=bank_limit_deg, area_radius_m=area_radius_m, aoa_margin_fn=aoa_margin_fn,
                     bank_step_deg=bank_step_deg, roll_out_steps=roll_out_steps, turn_step_deg=turn_step_deg,
                     n_straight=n_straight)
 
     def cut(a: npt.NDArray, value: object) -> npt.NDArray:
-        return np.where(beyond, value, a).reshape(shp)
+        out = np.full(wx.shape, value, dtype=a.dtype)
+        out[within] = a
+        return out.reshape(shp)
 
     return Envelope(wind_from_relative_deg=dirs, wind_speed_kt=spds, candidates=j.candidates,
                     status=cut(j.status, DOES_NOT_FIT), reasons=cut(j.reasons, REASON_LIMIT),
