@@ -368,11 +368,12 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
                              best_candidate=best_c, area_margin_m=best_area, max_distance_from_runway_m=best_dist,
                              level_slack_m=slack)
 
-    def solve(rows: npt.NDArray[np.int_], lv: list[tuple[int, int]]) -> list[LevelBest]:
-        """One batch for the given winds at each of the levels ``lv``; the best per level."""
+    def solve(rows: npt.NDArray[np.int_], lv: list[tuple[int, int]], shown: bool = True) -> list[LevelBest]:
+        """One batch for the given winds at each of the levels ``lv``; the best per level (with
+        ``shown``, the fallback level's margins in full: its best is shown where nothing fits)."""
         k, m = len(lv), rows.size
         bank = np.repeat([levels.bank_deg[b] for _, b in lv], m)
-        full = np.repeat([lvl == fallback for lvl in lv], m)
+        full = np.repeat([shown and lvl == fallback for lvl in lv], m)
         batch = solve_candidates(inputs, cands, wx_mps=np.tile(wx[rows], k), wy_mps=np.tile(wy[rows], k),
                                  bank_deg=bank, roll_out_m=np.repeat([levels.roll_out_m[r] for r, _ in lv], m),
                                  margin_fn=margin_fn, descent=descent, turn_step_deg=turn_step_deg,
@@ -382,11 +383,11 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
                            area_radius_m=area_radius_m, aoa_margin_deg=aoa_rows)
         return [LevelBest(**{f: getattr(lb, f)[i * m:(i + 1) * m] for f in LevelBest.__slots__}) for i in range(k)]
 
-    def settle(rows: npt.NDArray[np.int_], lvl: tuple[int, int], lb: LevelBest) -> None:
+    def settle(rows: npt.NDArray[np.int_], lvl: tuple[int, int], lb: LevelBest, shown: bool = True) -> None:
         r, b = lvl
         slack[rows, order.index(lvl)] = lb.slack_m
         fit = lb.fits & ~resolved[rows]
-        keep = fit | ((lvl == fallback) & ~resolved[rows])
+        keep = fit | ((shown and lvl == fallback) & ~resolved[rows])
         cells = rows[keep]
         status[cells] = np.where(fit[keep], np.where(lb.marginal[keep] == 0, FITS, MARGINAL), DOES_NOT_FIT)
         reasons[cells] = np.where(fit[keep], lb.marginal[keep],
@@ -401,11 +402,19 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         for lvl, lb in zip(order, solve(everything, order)):
             settle(everything, lvl, lb)
     else:
+        # the fallback's failures are reported only for the winds that fit at no level: when
+        # later levels follow it, it is first solved as any level (pruned, for the winds it
+        # fits), then again in full for the winds left (a wind's numbers do not depend on the
+        # other winds of a batch, so these are the numbers of one batch of every wind)
+        shown_in_turn = fallback == order[-1]
         for lvl in order:
             pending = np.flatnonzero(~resolved)
             if pending.size == 0:
                 break
-            settle(pending, lvl, solve(pending, [lvl])[0])
+            settle(pending, lvl, solve(pending, [lvl], shown_in_turn)[0], shown_in_turn)
+        left = np.flatnonzero(~resolved)
+        if not shown_in_turn and left.size:
+            settle(left, fallback, solve(left, [fallback])[0])
     fits = status != DOES_NOT_FIT
     bank_needed = np.where(fits, np.asarray(levels.bank_deg)[np.maximum(b_idx, 0)], np.nan)
     roll_out = np.where(fits, np.asarray(levels.roll_out_m)[np.maximum(r_idx, 0)], np.nan)
