@@ -152,3 +152,38 @@ def test_wind_limits_cut_cells_by_their_components():
     np.testing.assert_array_equal(limited, [[False, False, False], [False, False, True], [False, True, True]])
     assert np.all(env.status[limited] == DOES_NOT_FIT) and np.all(np.isnan(env.bank_needed_deg[limited]))
     assert env.reason_texts(1, 2) == ("beyond the crosswind or tailwind limit",)
+
+
+GRID_DIRS = np.arange(0.0, 360.0, 20.0)
+GRID_SPEEDS = np.arange(0.0, 41.0, 5.0)     # 18 x 9 = 162 winds: enough rows for the batch to leave some out
+
+
+@pytest.mark.parametrize("inp, vis", SCENARIOS)
+def test_a_grid_level_by_level_gives_what_one_batch_of_every_level_gives(inp, vis):
+    # the envelope's way (level by level, only the winds still without a plan; the fallback level
+    # solved in full only for the winds that fit nowhere) against every level of every wind at once
+    kw = dict(margin_fn=margins, visibility_m=vis, bank_limit_deg=35.0, area_radius_m=R_M, aoa_margin_fn=aoa_margin)
+    rel = np.radians(np.repeat(GRID_DIRS, GRID_SPEEDS.size))
+    spd = np.tile(GRID_SPEEDS, GRID_DIRS.size) * KT_TO_MPS
+    wx, wy = -spd * np.cos(rel), -spd * np.sin(rel)
+    grid = judge_winds(inp, wx_mps=wx, wy_mps=wy, **kw)
+    every = judge_winds(inp, wx_mps=wx, wy_mps=wy, eager=True, **kw)
+    for name in ("status", "reasons", "roll_out_index", "bank_index", "best_candidate", "bank_needed_deg",
+                 "roll_out_m", "area_margin_m", "max_distance_from_runway_m"):
+        np.testing.assert_array_equal(getattr(grid, name), getattr(every, name), err_msg=name)
+
+
+def test_cells_beyond_the_wind_limits_leave_the_other_cells_as_they_were():
+    # the envelope does not judge the winds beyond the limits; every other cell is what it is
+    # without limits
+    kw = dict(margin_fn=margins, visibility_m=4500.0, bank_limit_deg=35.0, area_radius_m=R_M,
+              wind_from_relative_deg=GRID_DIRS, wind_speed_kt=GRID_SPEEDS, aoa_margin_fn=aoa_margin)
+    free = wind_envelope(reciprocal(), **kw)
+    cut = wind_envelope(reciprocal(), crosswind_limit_kt=20.0, tailwind_limit_kt=10.0, **kw)
+    from briefer.core.maneuver import REASON_LIMIT
+
+    within = (cut.reasons & REASON_LIMIT) == 0
+    assert 0 < within.sum() < within.size
+    for name in ("status", "reasons", "bank_needed_deg", "best_candidate", "area_margin_m",
+                 "max_distance_from_runway_m", "roll_out_m"):
+        np.testing.assert_array_equal(getattr(cut, name)[within], getattr(free, name)[within], err_msg=name)
