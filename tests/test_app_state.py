@@ -114,3 +114,18 @@ def test_app_command_demo_inputs_do_not_import_the_brief():
             "p, _ = build_parser(); inputs_from_args(p.parse_args(['app'])); print('briefer.brief' in sys.modules)")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout.split()
     assert out[-1] == "False"
+
+
+def test_one_reader_of_typed_numbers_fields_and_counts():
+    """The weather fields and the instructor's seed and deck size read through one function."""
+    from briefer.tui.state import parse_optional_number
+
+    assert parse_optional_number(" ", what="lb", lo=0, hi=10) is None
+    assert parse_optional_number("12.5", what="lb", lo=0, hi=20) == 12.5
+    with pytest.raises(ValueError, match=r"expected 0 to 10 lb, got 12.5"):
+        parse_optional_number("12.5", what="lb", lo=0, hi=10)
+    assert parse_optional_number("7", what="", lo=1, hi=50, whole=True) == 7
+    with pytest.raises(ValueError, match=r"expected a whole number, got '1.5'"):
+        parse_optional_number("1.5", what="", lo=1, hi=50, whole=True)
+    with pytest.raises(ValueError, match=r"expected 0 to 2\^63-1, got -2"):
+        parse_optional_number("-2", what="", lo=0, hi=2**63 - 1, whole=True, range_words="0 to 2^63-1")

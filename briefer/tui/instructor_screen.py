@@ -209,18 +209,21 @@ class InstructorScreen(Screen[None]):
         return str(self.query_one(selector, Select).value)
 
     def _whole_number(self, selector: str, what: str, lo: int, hi: int, range_words: str) -> int:
-        """The whole number typed in an input, from `lo` to `hi`; else a BriefingError naming it."""
-        text = self.query_one(selector, Input).value.strip()
+        """The whole number typed in an input, from `lo` to `hi` (the app's one reader of typed
+        numbers); else a BriefingError naming it."""
+        from briefer.tui.state import parse_optional_number
+
         try:
-            value = int(text)
-        except ValueError:
-            raise BriefingError(f"the {what} must be a whole number, got {text!r}") from None
-        if not lo <= value <= hi:
-            raise BriefingError(f"the {what} must be {range_words}, got {value}")
-        return value
+            value = parse_optional_number(self.query_one(selector, Input).value, what="", lo=lo, hi=hi,
+                                          whole=True, range_words=range_words)
+        except ValueError as exc:
+            raise BriefingError(f"the {what}: {exc}") from None
+        if value is None:
+            raise BriefingError(f"the {what}: expected a whole number, {range_words}; the field is empty")
+        return int(value)
 
     def _seed(self) -> int:
-        return self._whole_number("#seed", "seed", 0, 2**63 - 1, "from 0 to 2^63-1")
+        return self._whole_number("#seed", "seed", 0, 2**63 - 1, "0 to 2^63-1")
 
     def _count(self) -> int:
         return self._whole_number("#deck-count", "deck size", 1, 50, "1 to 50")

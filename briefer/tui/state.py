@@ -277,16 +277,22 @@ def request_from_inputs(inputs: BriefingInputs, catalog: AppCatalog):
 # --------------------------------------------------------------------------------------------
 # Field parsers (text typed in a field -> typed value; ValueError with a short message)
 # --------------------------------------------------------------------------------------------
-def parse_optional_number(text: str, *, what: str, lo: float, hi: float) -> float | None:
+def parse_optional_number(text: str, *, what: str, lo: float, hi: float, whole: bool = False,
+                          range_words: str | None = None) -> float | None:
+    """A number typed in a field, `lo` to `hi` (None when the field is empty): the one reader of
+    the app's typed numbers. `what` is the unit ('' for a count), `whole` asks for an integer,
+    `range_words` says the range where `lo:g to hi:g` would not read well."""
     t = text.strip()
     if not t:
         return None
+    kind = "a whole number" if whole else "a number"
     try:
-        value = float(t)
+        value = int(t) if whole else float(t)
     except ValueError:
-        raise ValueError(f"expected a number ({what}), got '{t}'") from None
+        raise ValueError(f"expected {kind}{f' ({what})' if what else ''}, got '{t}'") from None
     if not lo <= value <= hi:
-        raise ValueError(f"expected {lo:g} to {hi:g} {what}, got {value:g}")
+        within = range_words or f"{lo:g} to {hi:g}{f' {what}' if what else ''}"
+        raise ValueError(f"expected {within}, got {value if whole else format(value, 'g')}")
     return value
 
 
