@@ -23,7 +23,8 @@ be flown at all).
 
 The brief solves its one wind with every level in a single call (``eager``) and then builds the
 full sampled plans only at the chosen level (the chosen plan and the alternatives shown); the
-envelope solves level by level, each time only for the winds still without a fitting plan.
+envelope solves level by level, each time only for the winds still without a fitting plan, and
+the fallback level's full margins (its best is shown) only for the winds that fit at no level.
 
 References
 ----------
