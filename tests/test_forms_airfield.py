@@ -407,3 +407,19 @@ def test_cross_field_messages_of_several_approaches_and_obstacles_show_at_once()
     assert "04" in verdict.errors[("approaches", 0, "map_fix", "threshold")]
     assert "22" in verdict.errors[("obstacles", 2, "from_point")]
     assert verdict.model is None
+
+
+@pytest.mark.parametrize("key", ["f2", "f3"])
+async def test_escape_on_an_untouched_airfield_form_closes_it_without_asking(key):
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        await pilot.press("2")
+        await pilot.pause()
+        await pilot.press(key)
+        await pilot.pause()
+        assert isinstance(app.screen, FormScreen)
+        assert not app.screen.dirty
+        await pilot.press("escape")
+        await pilot.pause()
+        assert not isinstance(app.screen, FormScreen), type(app.screen).__name__

@@ -180,7 +180,7 @@ AIRFIELD_FORM = FormSpec(
     items=(
         Group(None, "Airfield (airport diagram)", (
             Field("ident", "Identifier", width=6, hint="Q7HM"),
-            Field("name", "Name", width=22),
+            Field("name", "Name", width=20),
             Field("elevation_ft", "Elevation", "number", "ft", width=6),
             Field("magnetic_variation_deg", "Variation", "variation", "°", width=6, hint="9E / 4W"),
         )),

@@ -68,6 +68,7 @@ class ImportRunways(ModalScreen["ImportResult | None"]):
                     ("runways", "runways.csv", _LAST.get("runways", ""), _hint("runways.csv"))):
                 inp = Input(value, placeholder=hint, id=f"import-{key}", compact=True)
                 inp.cursor_blink = False
+                inp.styles.width = "1fr"
                 yield Horizontal(Label(label, classes="import-label"), inp, classes="import-line")
             yield Static("", id="import-message", markup=False)
             with Horizontal(id="import-buttons"):

@@ -269,7 +269,9 @@ class FormScreen(Screen[Saved | None]):
     # --- editing -------------------------------------------------------------------------------
     @property
     def dirty(self) -> bool:
-        return self.texts != self.saved_texts
+        """Something typed differs from what was opened or saved (the screen's empty groups and
+        spaces alone are no change)."""
+        return _meaning(self.texts) != _meaning(self.saved_texts)
 
     def _set_text(self, fpath: FormPath, text: str) -> None:
         cur: Any = self.texts
@@ -606,6 +608,19 @@ class FormScreen(Screen[Saved | None]):
                 self.dismiss(None)
 
         self.app.push_screen(ConfirmClose(), chosen)
+
+
+def _meaning(texts: Any) -> Any:
+    """Texts without empty entries and outer spaces: two forms that say the same compare equal
+    (a group the screen added empty, a field left blank)."""
+    if isinstance(texts, str):
+        return texts.strip()
+    if isinstance(texts, dict):
+        kept = {k: _meaning(v) for k, v in texts.items()}
+        return {k: v for k, v in kept.items() if v not in ("", {}, [])}
+    if isinstance(texts, list):
+        return [_meaning(v) for v in texts]
+    return texts
 
 
 def _child(items: tuple[Item, ...], tok: object) -> Item | None:
