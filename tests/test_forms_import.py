@@ -22,6 +22,7 @@ from briefer.model import KIND_AIRFIELD, BriefRequest, Weather
 from briefer.tui.app import BriefingApp
 from briefer.tui.forms.airfield_form import AIRFIELD_FORM, MISSING_WORDS
 from briefer.tui.forms.import_dialog import ImportRunways
+from briefer.tui.forms.plan import plan_scene
 from briefer.tui.forms.screen import FormScreen
 from briefer.tui.forms.store import file_text, target_folder
 
@@ -90,6 +91,8 @@ async def test_import_fills_the_form_then_an_approach_is_added_saved_and_briefed
         notes = str(screen.query_one("#form-notes").content)
         assert all(n in notes for n in want.notes)
         assert app.focused is screen._inputs[AP + ("name",)]          # the approach comes next
+        assert "notes above the fields" in screen.status_text
+        assert any("World Magnetic Model" in n for n in plan_scene(screen.verdict.built.mapping)[1])
         await type_fields(pilot, APPROACH)
         screen.revalidate()
         assert screen.verdict.ok, (screen.verdict.errors, screen.verdict.required, screen.verdict.general)
@@ -120,6 +123,8 @@ async def test_values_the_database_lacks_are_flagged_beside_their_fields():
         for fpath in (("elevation_ft",), ("runways", 0, "threshold_a", "elevation_ft")):
             assert screen._inputs[fpath].value == ""
             assert message_of(screen, fpath) == MISSING_WORDS, fpath
+        assert app.focused is screen._inputs[("elevation_ft",)]          # the first value to type
+        assert "2 values to type from the chart" in screen.status_text
         await type_field(pilot, ("elevation_ft",), "165")
         screen.revalidate()
         assert message_of(screen, ("elevation_ft",)) == ""

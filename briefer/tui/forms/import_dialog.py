@@ -37,13 +37,17 @@ def examples_folder() -> Path | None:
     return here if (here / "airports.csv").is_file() else None
 
 
-def _hint(name: str) -> str:
+def _hint(name: str, width: int = 50) -> str:
+    """The example file as a hint, short enough for one line of the field."""
     folder = examples_folder()
     if folder is None:
-        return f"path of the database's {name}"
+        return f"the database's {name}"
     path = str(folder / name)
+    rel = os.path.relpath(path)
     home = str(Path.home())
-    return "e.g. " + ("~" + path[len(home):] if path.startswith(home + os.sep) else path)
+    shown = min((p for p in (path, rel, "~" + path[len(home):] if path.startswith(home + os.sep) else path)
+                 if not p.startswith(".." + os.sep)), key=len, default=path)
+    return shown if len(shown) <= width else "…" + shown[-(width - 1):]
 
 
 class ImportRunways(ModalScreen["ImportResult | None"]):
@@ -150,7 +154,9 @@ def ask_import(screen: FormScreen) -> None:
         approaches = texts["approaches"]
         first = next((i for i, a in enumerate(approaches) if not str(a.get("name", "")).strip()),
                      len(approaches) - 1)
-        screen.call_later(screen.replace_texts, texts, flags=flags, notes=notes,
-                          focus=("approaches", first, "name"))
+        focus = min(flags, key=len) if flags else ("approaches", first, "name")    # a value to type first
+        status = (f"Imported {result.ident}: {len(notes)} notes above the fields (PageUp); "
+                  + (f"{len(flags)} values to type from the chart" if flags else "now the approach"))
+        screen.call_later(screen.replace_texts, texts, flags=flags, notes=notes, focus=focus, status=status)
 
     screen.app.push_screen(ImportRunways(str(screen.texts.get("ident", ""))), done)

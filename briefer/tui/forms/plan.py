@@ -43,6 +43,17 @@ def _read(cls: Any, mapping: Any, path: str) -> Any:
         return None
 
 
+def _model_variation(ref: LatLon) -> float | None:
+    """The World Magnetic Model's variation at the reference point today (as `Airfield` uses
+    when a file gives none), or None."""
+    from briefer.core import magvar
+
+    try:
+        return float(magvar.model_variation(ref.lat_deg, ref.lon_deg, magvar.today_utc()).variation_deg)
+    except BriefingError:
+        return None
+
+
 def _layout(d: _Draft) -> Any:
     from briefer.core.layout import layout_airfield
 
@@ -57,12 +68,16 @@ def _parts(draft: dict[str, Any], notes: list[str]) -> tuple[_Draft, Any]:
         var = check_number("magnetic_variation_deg", draft.get("magnetic_variation_deg"), VARIATION_DEG)
     except BriefingError:
         var = None
+    ref = draft.get("reference_point")
+    ref_point = _read(LatLon, ref, "reference_point") if isinstance(ref, dict) else None
+    if var is None and ref_point is not None:      # as the loader does: the World Magnetic Model's
+        var = _model_variation(ref_point)
+        if var is not None:
+            notes.append(f"variation {abs(var):.1f}°{'W' if var < 0 else 'E'} (World Magnetic Model)")
     if var is None:
         notes.append("variation not entered: drawn as 0")
     d = _Draft(magnetic_variation_deg=var or 0.0)
-    ref = draft.get("reference_point")
-    if isinstance(ref, dict):
-        d.reference_point = _read(LatLon, ref, "reference_point")
+    d.reference_point = ref_point
     layout = None
     for i, m in enumerate(draft.get("runways") or []):
         rw = _read(Runway, m, f"runways[{i}]")
@@ -111,7 +126,7 @@ def plan_scene(draft: dict[str, Any]) -> tuple[Any, list[str]]:
     notes: list[str] = []
     d, layout = _parts(draft, notes)
     if layout is None:
-        if not notes or notes == ["variation not entered: drawn as 0"]:
+        if not any(n.startswith("runway") for n in notes):
             notes.append("Enter a runway: designators, heading and length.")
         return None, notes
     items: list[Any] = []

@@ -284,6 +284,8 @@ class FormScreen(Screen[Saved | None]):
         event.stop()
         inp = event.input
         assert isinstance(inp, FormInput)
+        if event.value != self._text_at(inp.form_path):
+            self._said = None                    # the crew types: the status line follows the form
         self._set_text(inp.form_path, event.value)
         self._overwrite_ok = None
         if self._timer is not None:
@@ -372,8 +374,12 @@ class FormScreen(Screen[Saved | None]):
         name = str(m.get(self.spec.name_key) or "")
         return self._target.folder / file_name(self.spec.kind, name or "unnamed", str(m.get("name") or ""))
 
+    _said: str | None = None
+    """Said in the status line until the crew next types (what an import did)."""
+
     def _show_status(self, extra: str | None = None) -> None:
         v = self.verdict
+        extra = extra or self._said
         t = Text(no_wrap=True, overflow="ellipsis")
         n = len(v.errors)
         if extra:
@@ -545,14 +551,16 @@ class FormScreen(Screen[Saved | None]):
             self.on_import(self)
 
     async def replace_texts(self, texts: dict[str, Any], *, flags: dict[FormPath, str] | None = None,
-                            notes: list[str] | None = None, focus: FormPath | None = None) -> None:
-        """Show other texts (an import filled the form); kept unsaved until ^s."""
+                            notes: list[str] | None = None, focus: FormPath | None = None,
+                            status: str | None = None) -> None:
+        """Show other texts (an import filled the form), the cursor on `focus`; kept unsaved
+        until ^s. `status` is said in the status line until the next keystroke."""
         self.texts = texts
         self.flags = dict(flags or {})
         self.notes = list(notes or [])
         self._overwrite_ok = None
+        self._said = status
         await self._rebuild(focus=focus)
-        self.query_one("#form-body", VerticalScroll).scroll_home(animate=False)
 
     def action_page(self, direction: int) -> None:
         body = self.query_one("#form-body", VerticalScroll)
