@@ -91,6 +91,9 @@ async def test_import_fills_the_form_then_an_approach_is_added_saved_and_briefed
         notes = str(screen.query_one("#form-notes").content)
         assert all(n in notes for n in want.notes)
         assert app.focused is screen._inputs[AP + ("name",)]          # the approach comes next
+        for _ in range(25):                                             # ... and in view
+            await pilot.pause(0.02)
+        assert 0 < app.focused.region.y < 22 and app.focused.region.height == 1
         assert "notes above the fields" in screen.status_text
         assert any("World Magnetic Model" in n for n in plan_scene(screen.verdict.built.mapping)[1])
         await type_fields(pilot, APPROACH)

@@ -561,6 +561,10 @@ class FormScreen(Screen[Saved | None]):
         self._overwrite_ok = None
         self._said = status
         await self._rebuild(focus=focus)
+        target = self.focused
+        if target is not None:       # the new fields are laid out at the next refresh
+            self.call_after_refresh(lambda: self.query_one("#form-body", VerticalScroll).scroll_to_widget(
+                target, animate=False))
 
     def action_page(self, direction: int) -> None:
         body = self.query_one("#form-body", VerticalScroll)
