@@ -173,3 +173,23 @@ async def test_the_aircraft_form_has_no_import():
         await pilot.press("f4")
         await pilot.pause()
         assert app.screen is screen
+
+
+async def test_keys_typed_right_after_f4_land_in_the_dialogs_fields():
+    """F4, the identifier, Tab and the first file typed in one burst (a fast typist, a slow
+    link): each lands in its own field of the dialog."""
+    from textual import events
+
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await _open_new_airfield_form(app, pilot)
+        for key, char in [("f4", None), ("W", "W"), ("5", "5"), ("T", "T"), ("B", "B"), ("tab", None),
+                          ("a", "a"), ("tab", None), ("r", "r")]:
+            event = events.Key(key, char)
+            event.set_sender(app)
+            app._driver.send_message(event)
+        for _ in range(25):
+            await pilot.pause(0.02)
+        dialog = app.screen
+        assert isinstance(dialog, ImportRunways)
+        assert [dialog.query_one(f"#import-{k}").value for k in ("ident", "airports", "runways")] == ["W5TB", "a", "r"]

@@ -53,7 +53,12 @@ def _hint(name: str, width: int = 50) -> str:
 class ImportRunways(ModalScreen["ImportResult | None"]):
     """Identifier and the two CSV files -> the import (dismissed with it), or None."""
 
-    BINDINGS = [Binding("escape", "cancel", "Cancel")]
+    BINDINGS = [Binding("escape", "cancel", "Cancel"),
+                # Tab in a fixed order, at once: right after F4 the dialog is not laid out yet, and
+                # the focus chain (which follows the layout) would drop a Tab typed that early.
+                Binding("tab", "move(1)", "Next field", show=False, priority=True),
+                Binding("shift+tab", "move(-1)", "Previous field", show=False, priority=True)]
+    ORDER = ("import-ident", "import-airports", "import-runways", "import-ok", "import-cancel")
 
     def __init__(self, ident: str = "") -> None:
         super().__init__(classes="import-screen")
@@ -80,7 +85,14 @@ class ImportRunways(ModalScreen["ImportResult | None"]):
                 yield Button("Cancel (Esc)", id="import-cancel", compact=True)
 
     def on_mount(self) -> None:
-        self.query_one("#import-ident", Input).focus()
+        # At once, not after the keys already queued (Widget.focus defers it): the identifier
+        # and a Tab typed right after F4 belong to the dialog's fields.
+        self.set_focus(self.query_one("#import-ident", Input))
+
+    def action_move(self, step: int) -> None:
+        current = getattr(self.focused, "id", None)
+        index = self.ORDER.index(current) if current in self.ORDER else -step
+        self.set_focus(self.query_one("#" + self.ORDER[(index + step) % len(self.ORDER)]))
 
     def _value(self, key: str) -> str:
         return self.query_one(f"#import-{key}", Input).value.strip()
