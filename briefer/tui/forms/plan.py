@@ -63,6 +63,16 @@ def _layout(d: _Draft) -> Any:
         return None
 
 
+def _placed(d: _Draft, items: list[Any], item: Any) -> Any:
+    """Add `item` to the draft's list `items` if the layout still places everything: the new
+    layout, or None (and `item` left out)."""
+    items.append(item)
+    trial = _layout(d)
+    if trial is None:
+        items.pop()
+    return trial
+
+
 def _parts(draft: dict[str, Any], notes: list[str]) -> tuple[_Draft, Any]:
     try:
         var = check_number("magnetic_variation_deg", draft.get("magnetic_variation_deg"), VARIATION_DEG)
@@ -84,10 +94,8 @@ def _parts(draft: dict[str, Any], notes: list[str]) -> tuple[_Draft, Any]:
         if rw is None:
             notes.append(f"runway {i + 1} not drawn yet")
             break
-        d.runways.append(rw)
-        trial = _layout(d)
+        trial = _placed(d, d.runways, rw)
         if trial is None:
-            d.runways.pop()
             notes.append(f"runway {i + 1} cannot be placed")
             break
         layout = trial
@@ -95,23 +103,17 @@ def _parts(draft: dict[str, Any], notes: list[str]) -> tuple[_Draft, Any]:
         return d, None
     for i, m in enumerate(draft.get("obstacles") or []):
         ob = _read(Obstacle, m, f"obstacles[{i}]")
-        if ob is not None:
-            d.obstacles.append(ob)
-            trial = _layout(d)
-            if trial is None:
-                d.obstacles.pop()
-            else:
-                layout = trial
+        trial = None if ob is None else _placed(d, d.obstacles, ob)
+        if trial is not None:
+            layout = trial
     for i, m in enumerate(draft.get("approaches") or []):
         ap = _read(Approach, m, f"approaches[{i}]")
         name = (m or {}).get("name") or f"approach {i + 1}"
         if ap is None:
             notes.append(f"{name}: not drawn yet")
             continue
-        d.approaches.append(ap)
-        trial = _layout(d)
+        trial = _placed(d, d.approaches, ap)
         if trial is None:
-            d.approaches.pop()
             notes.append(f"{name}: fixes cannot be placed")
         else:
             layout = trial
