@@ -341,24 +341,27 @@ class FormScreen(Screen[Saved | None]):
         return f.label if f is not None else ""
 
     def _field_at(self, fpath: FormPath) -> Field | None:
-        items: tuple[Item, ...] = self.spec.items
-        found: Item | None = None
-        i = 0
-        while i < len(fpath):
-            tok = fpath[i]
-            nxt = _child(items, tok)
-            if nxt is None:
-                return None
-            found = nxt
-            if isinstance(nxt, Repeat):
-                i += 2
-                items = nxt.items  # type: ignore[assignment]
-            elif isinstance(nxt, Group):
-                i += 1
-                items = nxt.items
-            else:
-                i += 1
+        found = self._item_at(fpath)
         return found if isinstance(found, Field) else None
+
+    def _item_at(self, path: FormPath) -> Item | None:
+        """The item the last key of `path` names (a repeating group's key is followed by a row
+        index, except at the end of the path), or None."""
+        items: tuple[Item, ...] = self.spec.items
+        i = 0
+        while i < len(path):
+            nxt = _child(items, path[i])
+            if nxt is None or i == len(path) - 1:
+                return nxt
+            if isinstance(nxt, Repeat):
+                items = nxt.items  # type: ignore[assignment]
+                i += 2
+            elif isinstance(nxt, Group):
+                items = nxt.items
+                i += 1
+            else:
+                return None
+        return None
 
     # --- status line ---------------------------------------------------------------------------
     def save_path(self) -> Path:
@@ -445,24 +448,8 @@ class FormScreen(Screen[Saved | None]):
         return out
 
     def _repeat_at(self, rpath: FormPath) -> tuple[Repeat, FormPath, None] | None:
-        items: tuple[Item, ...] = self.spec.items
-        found: Repeat | None = None
-        i = 0
-        while i < len(rpath):
-            tok = rpath[i]
-            nxt = _child(items, tok)
-            if nxt is None:
-                return None
-            if isinstance(nxt, Repeat):
-                found = nxt if i == len(rpath) - 1 else None
-                items = nxt.items  # type: ignore[assignment]
-                i += 2
-            elif isinstance(nxt, Group):
-                items = nxt.items
-                i += 1
-            else:
-                return None
-        return (found, rpath, None) if found is not None else None
+        found = self._item_at(rpath)
+        return (found, rpath, None) if isinstance(found, Repeat) else None
 
     def _rows(self, rpath: FormPath) -> list[dict[str, Any]]:
         cur: Any = self.texts
