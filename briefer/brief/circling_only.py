@@ -45,7 +45,7 @@ def circling_only_reasons(s: Situation, category: str, crit: str) -> tuple[tuple
     reasons = tuple(CirclingOnly(code=r.code, text=r.text, value=float(r.value), limit=float(r.limit))
                     for r in assess.reasons)
     if appr.runway is None and not reasons:
-        reasons = (CirclingOnly(code="no-runway", text="the procedure serves no runway (circling only)",
+        reasons = (CirclingOnly(code="no-runway", text="the procedure serves no runway",
                                 value=0.0, limit=0.0),)
     straight_in = (assess.straight_in_allowed and appr.straight_in is not None
                    and appr.straight_in.runway == request.landing_runway)
