@@ -129,3 +129,28 @@ def test_one_reader_of_typed_numbers_fields_and_counts():
         parse_optional_number("1.5", what="", lo=1, hi=50, whole=True)
     with pytest.raises(ValueError, match=r"expected 0 to 2\^63-1, got -2"):
         parse_optional_number("-2", what="", lo=0, hi=2**63 - 1, whole=True, range_words="0 to 2^63-1")
+
+
+def test_the_briefing_fields_refuse_what_the_model_refuses():
+    """The briefing step's typed numbers use the model's declared ranges (briefer.model, the one
+    declaration of BriefRequest's and Weather's fields): the weight field accepted 0 to 2,000,000
+    lb while a landing weight must be 300 to 1,500,000 lb."""
+    from dataclasses import fields
+
+    from briefer.model import BriefRequest, Weather
+    from briefer.tui.briefing_screen import NUMBER_FIELDS, number_parser
+
+    declared = {"weight": (BriefRequest, "weight_lb"), "bank": (BriefRequest, "bank_deg"),
+                "oat": (Weather, "oat_c"), "visibility": (Weather, "visibility_sm"),
+                "ceiling": (Weather, "ceiling_ft")}
+    assert set(NUMBER_FIELDS) == set(declared)
+    for key, (cls, name) in declared.items():
+        rng, _ = NUMBER_FIELDS[key]
+        field_range = next(f.metadata["spec"].range for f in fields(cls) if f.name == name)
+        assert (rng.lo, rng.hi) == (field_range.lo, field_range.hi), key
+        read = number_parser(key)
+        assert read(f"{rng.lo:g}") == rng.lo and read(f"{rng.hi:g}") == rng.hi
+        with pytest.raises(ValueError):
+            read(f"{rng.hi * 1.01 + 1:g}")
+    with pytest.raises(ValueError, match="300"):
+        number_parser("weight")("100")

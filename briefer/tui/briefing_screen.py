@@ -16,12 +16,28 @@ from textual.widget import Widget
 from textual.widgets import Footer, Label, RadioButton, RadioSet, Static, TabbedContent, TabPane
 
 from briefer.cautions import SHORT_CAUTION
+from briefer.model import BANK_DEG, CEILING_FT, OAT_C, WEIGHT_LB, WX_VISIBILITY_SM, Range
 from briefer.tui.state import (
     parse_altimeter_hpa,
     parse_optional_number,
     parse_wind_text,
 )
 from briefer.tui.widgets import Choice, ChoiceList, EnvelopePolar, FieldRow, PlanCanvas, SideView
+
+# The briefing step's typed numbers: unit words and the model's own plausibility range (the one
+# declared with BriefRequest's and Weather's fields), so that a value is refused beside its field
+# with the same limits the loader and the brief apply.
+NUMBER_FIELDS: dict[str, tuple[Range, str]] = {
+    "weight": (WEIGHT_LB, "lb"), "bank": (BANK_DEG, "degrees"), "oat": (OAT_C, "°C"),
+    "visibility": (WX_VISIBILITY_SM, "SM"), "ceiling": (CEILING_FT, "ft above the field"),
+}
+
+
+def number_parser(key: str):
+    """The reader of the briefing field `key` (see NUMBER_FIELDS)."""
+    rng, what = NUMBER_FIELDS[key]
+    return lambda t: parse_optional_number(t, what=what, lo=rng.lo, hi=rng.hi)
+
 
 if TYPE_CHECKING:   # the views import numpy and the result model: imported with the first brief
     from briefer.result import Brief
@@ -102,10 +118,8 @@ class BriefingScreen(Screen):
                     with Vertical(classes="step-inputs"):
                         yield ChoiceList(id="profile")
                         yield ChoiceList(id="configuration")
-                        yield FieldRow("weight", "Weight lb", lambda t: parse_optional_number(
-                            t, what="lb", lo=0, hi=2_000_000), placeholder="max landing")
-                        yield FieldRow("bank", "Bank °", lambda t: parse_optional_number(
-                            t, what="degrees", lo=5, hi=60), placeholder="profile's")
+                        yield FieldRow("weight", "Weight lb", number_parser("weight"), placeholder="max landing")
+                        yield FieldRow("bank", "Bank °", number_parser("bank"), placeholder="profile's")
                     with VerticalScroll(classes="implies"):
                         yield Static("", id="implies-aircraft")
             with TabPane(STEPS[1][1], id="airfield"):
@@ -132,12 +146,10 @@ class BriefingScreen(Screen):
                         with RadioSet(id="wind-ref"):
                             yield MarkedRadioButton("true (report)", value=True, id="ref-true")
                             yield MarkedRadioButton("magnetic (tower)", id="ref-magnetic")
-                    yield FieldRow("oat", "Temp °C", lambda t: parse_optional_number(t, what="°C", lo=-90, hi=60))
+                    yield FieldRow("oat", "Temp °C", number_parser("oat"))
                     yield FieldRow("altimeter", "Altimeter", parse_altimeter_hpa, placeholder="1013 or 29.92")
-                    yield FieldRow("visibility", "Visibility SM", lambda t: parse_optional_number(
-                        t, what="SM", lo=0, hi=100))
-                    yield FieldRow("ceiling", "Ceiling ft", lambda t: parse_optional_number(
-                        t, what="ft above the field", lo=0, hi=50000))
+                    yield FieldRow("visibility", "Visibility SM", number_parser("visibility"))
+                    yield FieldRow("ceiling", "Ceiling ft", number_parser("ceiling"))
                     yield Static("", id="implies-weather", classes="implies-below")
             with TabPane(STEPS[4][1], id="brief"):
                 with self._lazy(VerticalScroll(id="brief-scroll")):
