@@ -41,3 +41,26 @@ def message_of(screen: FormScreen, fpath: tuple) -> str:
 
 def brief_json(request, report=None) -> str:
     return json.dumps(brief_to_dict(build_brief(request, weather_report=report)), sort_keys=True)
+
+
+def form_app():
+    """The app on the demo catalog, as the form tests drive it (a short debounce)."""
+    from test_app_support import demo_catalog, demo_inputs
+
+    from briefer.tui.app import BriefingApp
+
+    return BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+
+
+async def open_new_form(app, pilot, step: str, spec) -> FormScreen:
+    """Settle, go to `step` ('1' aircraft, '2' airfield) and press F2: the new form of `spec`."""
+    from test_app_support import settle
+
+    await settle(app, pilot)
+    await pilot.press(step)
+    await pilot.pause()
+    await pilot.press("f2")
+    await pilot.pause()
+    screen = pilot.app.screen
+    assert isinstance(screen, FormScreen) and screen.spec is spec
+    return screen

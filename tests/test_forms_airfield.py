@@ -11,13 +11,12 @@ from dataclasses import replace
 from pathlib import Path
 
 import pytest
-from forms_support import brief_json, keys_of, type_fields
-from test_app_support import demo_catalog, demo_inputs, settle
+from forms_support import brief_json, form_app, keys_of, open_new_form, type_fields
+from test_app_support import settle
 from test_forms_profile import NEW_AIRCRAFT
 
 from briefer.io.yamlload import load_airfield, load_profile
 from briefer.model import KIND_AIRFIELD, KIND_PROFILE, Airfield, BriefRequest, Weather
-from briefer.tui.app import BriefingApp
 from briefer.tui.forms.airfield_form import AIRFIELD_FORM
 from briefer.tui.forms.app_hooks import form_loses
 from briefer.tui.forms.check import check_texts
@@ -56,15 +55,9 @@ SECTOR = [(AP + ("not_authorised_sectors", 0, "where"), "south of 08/26"),
 
 
 async def test_type_an_airfield_and_an_aircraft_save_both_and_brief_with_them():
-    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(app, pilot)
-        await pilot.press("2")
-        await pilot.pause()
-        await pilot.press("f2")
-        await pilot.pause()
-        screen = app.screen
-        assert isinstance(screen, FormScreen) and screen.spec is AIRFIELD_FORM
+        screen = await open_new_form(app, pilot, "2", AIRFIELD_FORM)
         await type_fields(pilot, NEW_AIRFIELD)
         add = screen.query_one("#" + widget_id("add", AP + ("not_authorised_sectors",)))
         add.focus()
@@ -242,7 +235,7 @@ async def test_edit_a_latitude_longitude_airfield_add_an_approach_and_brief_it()
     """F3 on a demo airfield given by latitude/longitude opens it; an approach typed from the
     chart is added; the saved file keeps every latitude/longitude and the brief uses the new
     approach."""
-    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
         await settle(app, pilot)
         await pilot.press("2")
@@ -305,14 +298,9 @@ def _burst(app, text: str) -> None:
 
 
 async def test_keys_typed_right_after_enter_on_add_land_in_the_new_row():
-    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(app, pilot)
-        await pilot.press("2")
-        await pilot.pause()
-        await pilot.press("f2")
-        await pilot.pause()
-        screen = app.screen
+        screen = await open_new_form(app, pilot, "2", AIRFIELD_FORM)
         rpath = AP + ("not_authorised_sectors",)
         screen.query_one("#" + widget_id("add", rpath)).focus()
         await pilot.pause()
@@ -336,14 +324,9 @@ async def test_a_second_runway_placed_where_the_centrelines_cross():
     (`briefer.core.layout.crossing_threshold`)."""
     from briefer.core.layout import crossing_threshold
 
-    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(app, pilot)
-        await pilot.press("2")
-        await pilot.pause()
-        await pilot.press("f2")
-        await pilot.pause()
-        screen = app.screen
+        screen = await open_new_form(app, pilot, "2", AIRFIELD_FORM)
         await type_fields(pilot, NEW_AIRFIELD)
         screen.query_one("#" + widget_id("add", ("runways",))).focus()
         await pilot.press("enter")
@@ -382,7 +365,7 @@ async def test_a_saved_file_is_briefed_even_when_a_brief_was_being_built_with_th
     from briefer.tui.forms.app_hooks import _catalog_with
     from briefer.tui.forms.screen import Saved
 
-    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
         await settle(app, pilot)
         old_request, old_brief, inputs = app.request, app.brief, app.inputs
@@ -411,7 +394,7 @@ def test_cross_field_messages_of_several_approaches_and_obstacles_show_at_once()
 
 @pytest.mark.parametrize("key", ["f2", "f3"])
 async def test_escape_on_an_untouched_airfield_form_closes_it_without_asking(key):
-    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
         await settle(app, pilot)
         await pilot.press("2")

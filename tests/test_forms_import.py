@@ -13,13 +13,12 @@ from __future__ import annotations
 from pathlib import Path
 
 import pytest
-from forms_support import brief_json, message_of, type_field, type_fields
-from test_app_support import demo_catalog, demo_inputs, settle
+from forms_support import brief_json, form_app, message_of, open_new_form, type_field, type_fields
+from test_app_support import settle
 
 from briefer.io.runway_import import import_airfield
 from briefer.io.yamlload import load_airfield
 from briefer.model import KIND_AIRFIELD, BriefRequest, Weather
-from briefer.tui.app import BriefingApp
 from briefer.tui.forms.airfield_form import AIRFIELD_FORM, MISSING_WORDS
 from briefer.tui.forms.import_dialog import ImportRunways
 from briefer.tui.forms.plan import plan_scene
@@ -36,14 +35,7 @@ def _config_home(tmp_path, monkeypatch):
 
 
 async def _open_new_airfield_form(app, pilot) -> FormScreen:
-    await settle(app, pilot)
-    await pilot.press("2")
-    await pilot.pause()
-    await pilot.press("f2")
-    await pilot.pause()
-    screen = app.screen
-    assert isinstance(screen, FormScreen) and screen.spec is AIRFIELD_FORM
-    return screen
+    return await open_new_form(app, pilot, "2", AIRFIELD_FORM)
 
 
 async def _import(app, pilot, ident: str, airports: Path, runways: Path) -> None:
@@ -78,7 +70,7 @@ APPROACH = [
 
 
 async def test_import_fills_the_form_then_an_approach_is_added_saved_and_briefed():
-    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
         screen = await _open_new_airfield_form(app, pilot)
         await _import(app, pilot, "w5tb", AIRPORTS, RUNWAYS)
@@ -119,7 +111,7 @@ async def test_import_fills_the_form_then_an_approach_is_added_saved_and_briefed
 
 
 async def test_values_the_database_lacks_are_flagged_beside_their_fields():
-    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
         screen = await _open_new_airfield_form(app, pilot)
         await _import(app, pilot, "B6NS", AIRPORTS, RUNWAYS)
@@ -142,7 +134,7 @@ def _bad_runways(tmp_path: Path) -> Path:
 
 
 async def test_a_bad_csv_file_is_the_importers_file_line_column_message_in_the_dialog(tmp_path):
-    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
         screen = await _open_new_airfield_form(app, pilot)
         bad = _bad_runways(tmp_path)
@@ -164,7 +156,7 @@ async def test_a_bad_csv_file_is_the_importers_file_line_column_message_in_the_d
 
 
 async def test_the_aircraft_form_has_no_import():
-    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
         await settle(app, pilot)
         await pilot.press("f2")
@@ -180,7 +172,7 @@ async def test_keys_typed_right_after_f4_land_in_the_dialogs_fields():
     link): each lands in its own field of the dialog."""
     from textual import events
 
-    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
         await _open_new_airfield_form(app, pilot)
         for key, char in [("f4", None), ("W", "W"), ("5", "5"), ("T", "T"), ("B", "B"), ("tab", None),

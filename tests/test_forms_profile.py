@@ -12,8 +12,8 @@ import os
 from pathlib import Path
 
 import pytest
-from forms_support import brief_json, message_of, type_field, type_fields
-from test_app_support import demo_catalog, demo_inputs, settle
+from forms_support import brief_json, form_app, message_of, type_field, type_fields
+from test_app_support import settle
 
 from briefer.errors import DataFileError
 from briefer.io.catalog import builtin_files, list_profiles, load_config
@@ -186,7 +186,7 @@ NEW_AIRCRAFT = [
 
 
 def _app() -> BriefingApp:
-    return BriefingApp(demo_catalog(), demo_inputs(), ascii=False, debounce_s=0.01)
+    return form_app()
 
 
 async def test_type_a_new_aircraft_save_it_and_the_brief_uses_it():
