@@ -25,3 +25,11 @@ DOWNWIND_SHAPES: tuple[str, ...] = ("downwind-join", "break-and-return", "overfl
 EMPHASES: tuple[str, ...] = ("tailwind-on-base", "low-visibility", "reciprocal", "hot-high", "cold",
                              "familiar-picture", "gusty-category")
 """What an instructor's practice scenario is meant to exercise."""
+
+SEED_MAX: int = 2**63 - 1
+SEED_WORDS: str = "a whole number from 0 to 2^63-1"
+"""An instructor's scenario seed and how every message says its range (CLI, file, app)."""
+
+DECK_SIZE_MAX: int = 50
+DECK_SIZE_WORDS: str = f"1 to {DECK_SIZE_MAX} scenarios"
+"""The most scenarios in one deck and how every message says the range."""

@@ -154,3 +154,31 @@ async def test_escape_closes(small_catalog, tmp_path):
         await pilot.press("escape")
         await pilot.pause()
         assert host.screen is not screen
+
+
+async def test_the_screen_says_the_seed_and_deck_ranges_as_the_command_line_does(small_catalog, tmp_path):
+    """The instructor screen said "the seed: expected 0 to 2^63-1, got -2" where the command line
+    and the scenario file say "expected a whole number from 0 to 2^63-1"; one wording now
+    (briefer.vocabulary SEED_WORDS, DECK_SIZE_WORDS)."""
+    import argparse
+
+    from briefer.commands.scenario import _count, _seed
+    from briefer.errors import BriefingError
+
+    def cli_words(parse, text: str) -> str:
+        with pytest.raises(argparse.ArgumentTypeError) as exc:
+            parse(text)
+        return str(exc.value)
+
+    screen = InstructorScreen(small_catalog, seed=1, out_dir=tmp_path)
+    async with Host(screen).run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen.query_one("#seed", Input).value = "-2"
+        with pytest.raises(BriefingError) as seed_exc:
+            screen._seed()
+        screen.query_one("#deck-count", Input).value = "51"
+        with pytest.raises(BriefingError) as count_exc:
+            screen._count()
+    assert str(seed_exc.value) == "the seed: " + cli_words(_seed, "-2")
+    assert str(seed_exc.value) == "the seed: expected a whole number from 0 to 2^63-1, got -2"
+    assert str(count_exc.value) == "the deck size: " + cli_words(_count, "51")

@@ -21,8 +21,10 @@ def _seed(text: str) -> int:
         value = int(text, 10)
     except ValueError:
         raise argparse.ArgumentTypeError(f"expected a whole number, got {text!r}") from None
-    if not 0 <= value < 2**63:
-        raise argparse.ArgumentTypeError(f"expected a whole number from 0 to 2^63-1, got {text}")
+    from briefer.vocabulary import SEED_MAX, SEED_WORDS
+
+    if not 0 <= value <= SEED_MAX:
+        raise argparse.ArgumentTypeError(f"expected {SEED_WORDS}, got {text}")
     return value
 
 
@@ -31,8 +33,10 @@ def _count(text: str) -> int:
         value = int(text, 10)
     except ValueError:
         raise argparse.ArgumentTypeError(f"expected a whole number, got {text!r}") from None
-    if not 1 <= value <= 50:
-        raise argparse.ArgumentTypeError(f"expected 1 to 50 scenarios, got {value}")
+    from briefer.vocabulary import DECK_SIZE_MAX, DECK_SIZE_WORDS
+
+    if not 1 <= value <= DECK_SIZE_MAX:
+        raise argparse.ArgumentTypeError(f"expected {DECK_SIZE_WORDS}, got {value}")
     return value
 
 

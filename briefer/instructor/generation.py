@@ -34,6 +34,7 @@ from typing import Any
 from briefer import units
 from briefer.core import angles
 from briefer.errors import DomainError
+from briefer.vocabulary import SEED_MAX, SEED_WORDS
 from briefer.wording import signed
 from briefer.model import AircraftProfile, Airfield, BriefRequest, Weather
 from briefer.instructor.scenario_format import EMPHASES, EMPHASIS_TITLES, LoadedScenario, Scenario, ScenarioWeather
@@ -635,8 +636,8 @@ def generate_scenario(*, airfield: Airfield, profile: AircraftProfile, emphasis:
         When the emphasis cannot be exercised here (the message says why), or for an unknown
         approach, runway or emphasis.
     """
-    if not (isinstance(seed, int) and not isinstance(seed, bool) and 0 <= seed < 2**63):
-        raise DomainError(f"seed must be a whole number from 0 to 2^63-1; got {seed!r}")
+    if not (isinstance(seed, int) and not isinstance(seed, bool) and 0 <= seed <= SEED_MAX):
+        raise DomainError(f"seed must be {SEED_WORDS}; got {seed!r}")
     rng = random.Random(seed)
     if emphasis is None:
         emphasis = rng.choice(EMPHASES)

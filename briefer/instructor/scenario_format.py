@@ -45,6 +45,7 @@ from pathlib import Path
 from typing import Any, ClassVar
 
 from briefer import vocabulary
+from briefer.vocabulary import SEED_MAX, SEED_WORDS
 from briefer.errors import BriefingError, DataFileError
 from briefer.safetext import excerpt
 from briefer.io.metar import MetarError, MetarReport, decode_metar, weather_from_metar
@@ -85,7 +86,6 @@ EMPHASIS_TITLES: Mapping[str, str] = {
 }
 
 NOTES_MAX = 2000
-SEED_MAX = 2**63 - 1
 REPORT_WIND_TOL_KT = 0.5           # report values are whole knots
 REPORT_TEMPERATURE_TOL_C = 0.5     # and whole degrees Celsius
 REPORT_ALTIMETER_TOL_HPA = 0.5     # A2992 is 1013.2 hPa; Q1013 is 1013 hPa
@@ -222,7 +222,7 @@ class Scenario(_Model):
         seed = self.seed
         if seed is not None and (isinstance(seed, bool) or not isinstance(seed, numbers.Integral)
                                  or not 0 <= seed <= SEED_MAX):
-            raise InvariantError(f"expected a whole number from 0 to 2^63-1, got {_describe(seed)}", field="seed")
+            raise InvariantError(f"expected {SEED_WORDS}, got {_describe(seed)}", field="seed")
 
     @classmethod
     def from_mapping(cls, data: Any, *, path: str = "") -> Any:

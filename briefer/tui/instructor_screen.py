@@ -29,6 +29,7 @@ from textual.widgets import Button, Checkbox, Footer, Input, Label, Select, Stat
 
 from briefer.cautions import SHORT_CAUTION
 from briefer.errors import BriefingError
+from briefer.vocabulary import DECK_SIZE_MAX, DECK_SIZE_WORDS, SEED_MAX, SEED_WORDS
 from briefer.instructor.scenario_format import EMPHASES, EMPHASIS_TITLES
 
 ANY_EMPHASIS = "any"
@@ -223,10 +224,10 @@ class InstructorScreen(Screen[None]):
         return int(value)
 
     def _seed(self) -> int:
-        return self._whole_number("#seed", "seed", 0, 2**63 - 1, "0 to 2^63-1")
+        return self._whole_number("#seed", "seed", 0, SEED_MAX, SEED_WORDS)
 
     def _count(self) -> int:
-        return self._whole_number("#deck-count", "deck size", 1, 50, "1 to 50")
+        return self._whole_number("#deck-count", "deck size", 1, DECK_SIZE_MAX, DECK_SIZE_WORDS)
 
     def choices(self) -> dict[str, Any]:
         """The airfield and profile models, the emphasis (None: drawn) and the seed chosen."""
