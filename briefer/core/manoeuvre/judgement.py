@@ -62,6 +62,7 @@ from briefer.core.manoeuvre.solver import (
     CircleInputs,
     DescentGeometry,
     Shape,
+    ShapeSolution,
     Side,
     applicable_candidates,
     descent_geometry,
@@ -131,6 +132,8 @@ class CandidateBatch:
     sector_bound: npt.NDArray[np.bool_]
     max_distance_from_runway_m: FloatArray
     total_time_s: FloatArray
+    solutions: tuple[tuple[tuple[int, ...], ShapeSolution], ...] = field(default=(), compare=False)
+    """Per shape: its candidates' indices and their solution (rows: side by side, then row)."""
 
 
 def _margins(margin_fn: MarginFn, xy: FloatArray) -> tuple[FloatArray, npt.NDArray[np.bool_]]:
@@ -152,7 +155,9 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
 
     Rows are independent: the sample counts of a track depend on the candidate and the
     situation only (each turn by its calm-wind angle, each straight ``n_straight`` points), so a
-    row's numbers do not depend on which other rows share the batch.
+    row's numbers do not depend on which other rows share the batch. Both sides of a shape are
+    one solve (the side a sign per row) and one sampling call (each row's turns at its own
+    counts, :func:`sample_solution` ``pad_rows``).
 
     With ``visibility_m``, the area margins of a row whose every flyable candidate takes the
     runway beyond the visibility (a row that cannot fit, whatever its margins) are left NaN,
@@ -164,7 +169,6 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
     bank = np.asarray(bank_deg, dtype=float).ravel() + np.zeros(m)
     d = np.asarray(roll_out_m, dtype=float).ravel() + np.zeros(m)
     dg = descent if descent is not None else descent_geometry(inputs)
-    length = inputs.runway_length_m
     c = len(candidates)
     ok = np.zeros((m, c), dtype=bool)
     area = np.full((m, c), np.nan)
@@ -174,58 +178,77 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
     if m == 0:
         return CandidateBatch(ok=ok, area_margin_m=area, sector_bound=sector, max_distance_from_runway_m=dist,
                               total_time_s=ttime)
-    sols = []
-    for shape, side in candidates:
-        sol = solve_inputs(inputs, shape, sigma=1.0 if side == "right" else -1.0, wx_mps=wx, wy_mps=wy,
-                           bank_deg=bank, descent=dg, roll_out_m=d)
-        ok[:, len(sols)] = sol.ok
-        ttime[:, len(sols)] = np.where(sol.ok, sum(lg.duration for lg in sol.legs), np.nan)
-        sols.append(sol)
+    groups: dict[Shape, list[int]] = {}
+    for ci, (shape, _side) in enumerate(candidates):
+        groups.setdefault(shape, []).append(ci)
+    solved = []
+    for shape, cis in groups.items():
+        g = len(cis)
+        sigma = np.repeat([1.0 if candidates[ci][1] == "right" else -1.0 for ci in cis], m)
+        sol = solve_inputs(inputs, shape, sigma=sigma, wx_mps=np.tile(wx, g), wy_mps=np.tile(wy, g),
+                           bank_deg=np.tile(bank, g), descent=dg, roll_out_m=np.tile(d, g))
+        ok_g = sol.ok.reshape(g, m)
+        ok[:, cis] = ok_g.T
+        ttime[:, cis] = np.where(ok_g, sum(lg.duration for lg in sol.legs).reshape(g, m), np.nan).T
+        solved.append((cis, sol))
+    _sample_and_margins(inputs, solved, ok, m, margin_fn=margin_fn, turn_step_deg=turn_step_deg,
+                        n_straight=n_straight, visibility_m=visibility_m, all_margins=all_margins,
+                        area=area, sector=sector, dist=dist)
+    return CandidateBatch(ok=ok, area_margin_m=area, sector_bound=sector, max_distance_from_runway_m=dist,
+                          total_time_s=ttime, solutions=tuple((tuple(cis), sol) for cis, sol in solved))
+
+
+def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], ShapeSolution]],
+                        ok: npt.NDArray[np.bool_], m: int, *, margin_fn: MarginFn, turn_step_deg: float,
+                        n_straight: int, visibility_m: float | None, all_margins: npt.ArrayLike, area: FloatArray,
+                        sector: npt.NDArray[np.bool_], dist: FloatArray) -> None:
+    """The sampled tracks' largest distances from the runway and area margins, into ``dist``,
+    ``area`` and ``sector`` (M, C) (one sampling and one margin call per shape)."""
+    length = inputs.runway_length_m
     # rows that cannot fit (every flyable candidate already takes the runway out of sight at a leg's
     # start point, an exact track point) are not sampled, except where all_margins asks for them
     want = ok.any(axis=1)
-    if visibility_m is not None and m >= _PRUNE_MIN_ROWS:
-        lower = np.stack([leg_end_distance_m(sol, length) for sol in sols], axis=1)
+    prune = visibility_m is not None and m >= _PRUNE_MIN_ROWS
+    if prune:
+        lower = np.full(ok.shape, np.nan)
+        for cis, sol in solved:
+            lower[:, cis] = leg_end_distance_m(sol, length).reshape(len(cis), m).T
         dist[:] = np.where(ok, lower, np.nan)        # replaced by the sampled tracks' where sampled
         with np.errstate(invalid="ignore"):
             near = lower <= visibility_m
         want &= np.any(ok & near, axis=1) | (np.asarray(all_margins, dtype=bool) + np.zeros(m, dtype=bool))
-    tracks: list[tuple[npt.NDArray[np.bool_], FloatArray] | None] = []
-    for ci, sol in enumerate(sols):
-        rows = want & ok[:, ci]
+    tracks = []
+    for cis, sol in solved:
+        rows = (want[None, :] & ok[:, cis].T).ravel()        # (side, row) in the solution's order
         if not rows.any():
-            tracks.append(None)
             continue
         # a small batch samples every row (taking rows out costs more than sampling them)
         sub = sol if rows.all() or m < _PRUNE_MIN_ROWS else take_rows(sol, np.flatnonzero(rows))
-        xy = sample_solution(sub, turn_step_deg=turn_step_deg, n_straight=n_straight, running_product=True).xy
+        xy = sample_solution(sub, turn_step_deg=turn_step_deg, n_straight=n_straight, running_product=True,
+                             pad_rows=True).xy
         if not sub.ok.all():
             xy[~sub.ok] = 0.0
         if sub is sol and not rows.all():
             xy = xy[rows]
         x = xy[..., 0]
         d2 = np.max(np.square(x - np.minimum(np.maximum(x, 0.0), length)) + np.square(xy[..., 1]), axis=-1)
-        dist[rows, ci] = np.sqrt(d2)
-        tracks.append((rows, xy))
+        flat = np.flatnonzero(rows)
+        r_idx, c_idx = flat % m, np.asarray(cis)[flat // m]
+        dist[r_idx, c_idx] = np.sqrt(d2)
+        tracks.append((r_idx, c_idx, xy))
     # rows left out, or whose sampled tracks all take the runway beyond the visibility, get no margins
     need = want.copy()
-    if visibility_m is not None and m >= _PRUNE_MIN_ROWS:
+    if prune:
         with np.errstate(invalid="ignore"):
             need &= np.any(ok & (dist <= visibility_m), axis=1) | (np.asarray(all_margins, dtype=bool)
                                                                    + np.zeros(m, dtype=bool))
-    for ci, tr in enumerate(tracks):
-        if tr is None:
-            continue
-        rows, xy = tr
-        sel = need[rows]
+    for r_idx, c_idx, xy in tracks:
+        sel = need[r_idx]
         if not sel.any():
             continue
         a, sec = _margins(margin_fn, xy if sel.all() else xy[sel])
-        idx = np.flatnonzero(rows)[sel]
-        area[idx, ci] = a
-        sector[idx, ci] = sec
-    return CandidateBatch(ok=ok, area_margin_m=area, sector_bound=sector, max_distance_from_runway_m=dist,
-                          total_time_s=ttime)
+        area[r_idx[sel], c_idx[sel]] = a
+        sector[r_idx[sel], c_idx[sel]] = sec
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -305,6 +328,8 @@ class WindJudgement:
         Per level (in ``levels.order()``), the largest min(area margin, visibility margin) of
         the candidates failing neither bank nor stall (-inf: none; NaN: level not solved). A
         level that fails with a slack a few metres below zero might fit on a denser track. [m]
+    solutions : the eager batch's solutions (``CandidateBatch.solutions``; rows: level by
+        level, then wind); empty when solved level by level
     """
 
     candidates: tuple[tuple[Shape, Side], ...]
@@ -319,6 +344,7 @@ class WindJudgement:
     area_margin_m: FloatArray = field(compare=False)
     max_distance_from_runway_m: FloatArray = field(compare=False)
     level_slack_m: FloatArray = field(compare=False)
+    solutions: tuple[tuple[tuple[int, ...], ShapeSolution], ...] = field(default=(), compare=False)
 
 
 def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.ArrayLike, margin_fn: MarginFn,
@@ -369,6 +395,8 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
                              best_candidate=best_c, area_margin_m=best_area, max_distance_from_runway_m=best_dist,
                              level_slack_m=slack)
 
+    kept: list[tuple[tuple[int, ...], ShapeSolution]] = []
+
     def solve(rows: npt.NDArray[np.int_], lv: list[tuple[int, int]], shown: bool = True) -> list[LevelBest]:
         """One batch for the given winds at each of the levels ``lv``; the best per level (with
         ``shown``, the fallback level's margins in full: its best is shown where nothing fits)."""
@@ -379,6 +407,8 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
                                  bank_deg=bank, roll_out_m=np.repeat([levels.roll_out_m[r] for r, _ in lv], m),
                                  margin_fn=margin_fn, descent=descent, turn_step_deg=turn_step_deg,
                                  n_straight=n_straight, visibility_m=visibility_m, all_margins=full)
+        if eager:
+            kept.extend(batch.solutions)
         aoa_rows = None if aoa_margin_fn is None else np.repeat([aoa[levels.bank_deg[b]] for _, b in lv], m)
         lb = best_of_level(batch, bank_deg=bank, bank_limit_deg=bank_limit_deg, visibility_m=visibility_m,
                            area_radius_m=area_radius_m, aoa_margin_deg=aoa_rows)
@@ -421,7 +451,8 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
     roll_out = np.where(fits, np.asarray(levels.roll_out_m)[np.maximum(r_idx, 0)], np.nan)
     return WindJudgement(candidates=cands, levels=levels, status=status, reasons=reasons, roll_out_index=r_idx,
                          bank_index=b_idx, bank_needed_deg=bank_needed, roll_out_m=roll_out, best_candidate=best_c,
-                         area_margin_m=best_area, max_distance_from_runway_m=best_dist, level_slack_m=slack)
+                         area_margin_m=best_area, max_distance_from_runway_m=best_dist, level_slack_m=slack,
+                         solutions=tuple(kept))
 
 
 def choose_plan_at_wind(inputs: CircleInputs, *, margin_fn: MarginFn, batch_margin_fn: MarginFn | None = None,
@@ -453,9 +484,11 @@ def choose_plan_at_wind(inputs: CircleInputs, *, margin_fn: MarginFn, batch_marg
     chosen = order.index((int(j.roll_out_index[0]), int(j.bank_index[0]))) if j.status[0] != DOES_NOT_FIT else -1
 
     def ranked_at(lvl: tuple[int, int]) -> tuple:
-        r, b = lvl
+        # the level's rows of the batch (row i of each side) are the plans' solutions: not solved again
+        r, b, i, rows = lvl[0], lvl[1], order.index(lvl), len(order)
+        solved = {j.candidates[cis[0]][0]: take_rows(sol, np.arange(len(cis)) * rows + i) for cis, sol in j.solutions}
         plans = candidate_plans(dataclasses.replace(inputs, bank_deg=banks[b],
-                                                    roll_out_distance_m=levels.roll_out_chosen[r]))
+                                                    roll_out_distance_m=levels.roll_out_chosen[r]), solved=solved)
         return rank_plans(plans, margin_fn=margin_fn, **kw)
 
     shown = None

@@ -18,6 +18,7 @@ References
 from __future__ import annotations
 
 import math
+from collections.abc import Mapping
 from briefer._dataclass import dataclass, field
 
 import numpy as np
@@ -375,23 +376,27 @@ def solve_plan(inputs: CircleInputs, *, shape: Shape, side: Side) -> Plan:
     return _solve_sides(inputs, shape, (side,))[0]
 
 
-def candidate_plans(inputs: CircleInputs) -> tuple[Plan, ...]:
+def candidate_plans(inputs: CircleInputs, *, solved: Mapping[Shape, ShapeSolution] | None = None
+                    ) -> tuple[Plan, ...]:
     """Every applicable (shape, side) for the arrival, solved at the inputs' bank.
 
     Both sides of a shape are solved in one vectorised call. Returns an empty tuple for an
-    arrival aligned with the landing direction (a straight-in).
+    arrival aligned with the landing direction (a straight-in). ``solved``: the shapes already
+    solved for these inputs (one row per applicable side, in the order of
+    :func:`applicable_candidates`; e.g. rows of the judgement's batch), not solved again.
     """
     by_shape: dict[Shape, list[Side]] = {}
     for s, d in applicable_candidates(inputs.arrival_course_deg):
         by_shape.setdefault(s, []).append(d)
     plans = {}
     for s, sides in by_shape.items():
-        for d, p in zip(sides, _solve_sides(inputs, s, tuple(sides))):
+        for d, p in zip(sides, _solve_sides(inputs, s, tuple(sides), None if solved is None else solved.get(s))):
             plans[(s, d)] = p
     return tuple(plans[c] for c in applicable_candidates(inputs.arrival_course_deg))
 
 
-def _solve_sides(inputs: CircleInputs, shape: Shape, sides: tuple[Side, ...]) -> list[Plan]:
+def _solve_sides(inputs: CircleInputs, shape: Shape, sides: tuple[Side, ...],
+                 solved: ShapeSolution | None = None) -> list[Plan]:
     descent = descent_geometry(inputs)
     applicable = applicable_candidates(inputs.arrival_course_deg)
     out: list[Plan | None] = [None] * len(sides)
@@ -406,9 +411,12 @@ def _solve_sides(inputs: CircleInputs, shape: Shape, sides: tuple[Side, ...]) ->
                                    f"{float(wrap_180(inputs.arrival_course_deg)):.0f} deg to the runway",))
     if todo:
         sigma = np.array([1.0 if sides[i] == "right" else -1.0 for i in todo])
-        wx, wy = inputs.wind.mps()
-        sol = solve_inputs(inputs, shape, sigma=sigma, wx_mps=wx, wy_mps=wy, bank_deg=inputs.bank_deg,
-                           descent=descent)
+        if solved is not None and len(todo) == len(sides) and solved.ok.shape == sigma.shape:
+            sol = solved
+        else:
+            wx, wy = inputs.wind.mps()
+            sol = solve_inputs(inputs, shape, sigma=sigma, wx_mps=wx, wy_mps=wy, bank_deg=inputs.bank_deg,
+                               descent=descent)
         trk = None
         if sol.ok.any():
             trk = sample_solution(sol, turn_step_deg=PLAN_TURN_STEP_DEG, n_straight=2,

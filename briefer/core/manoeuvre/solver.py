@@ -324,7 +324,8 @@ class LegArrays:
     sign: FloatArray | None = None
     dx: FloatArray | None = None        # ground displacement of the whole turn
     dy: FloatArray | None = None
-    nominal_rad: float = 0.0            # the turn angle in calm wind (sets the sample count)
+    nominal_rad: float = 0.0            # the turn angle in calm wind (sets the sample count) ...
+    nominal_rows: FloatArray | None = None   # ... and per row (rows of different sides differ)
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -369,14 +370,16 @@ def _pick_turn(mask: npt.NDArray[np.bool_], a: LegArrays, b: LegArrays | None, n
         prof = TurnProfile(angle=pick(pa.angle, 0.0), tas=pa.tas, tr=pick(pa.tr, 0.0), tc=pick(pa.tc, 0.0),
                            dp=pick(pa.dp, 0.0), wp=pa.wp, c=pa.c, k=pa.k, total=pick(pa.total, 0.0))
         return LegArrays(kind="turn", name=name, duration=prof.total, psi0=a.psi0, prof=prof, sign=a.sign,
-                         dx=pick(a.dx, 0.0), dy=pick(a.dy, 0.0), nominal_rad=nominal_rad)
+                         dx=pick(a.dx, 0.0), dy=pick(a.dy, 0.0), nominal_rad=nominal_rad,
+                         nominal_rows=np.full(mask.shape, nominal_rad))
     pb = b.prof
     assert pb is not None and b.dx is not None and b.dy is not None
     prof = TurnProfile(angle=pick(pa.angle, pb.angle), tas=pa.tas, tr=pick(pa.tr, pb.tr), tc=pick(pa.tc, pb.tc),
                        dp=pick(pa.dp, pb.dp), wp=pick(pa.wp, pb.wp), c=pa.c, k=pa.k,
                        total=pick(pa.total, pb.total))
     return LegArrays(kind="turn", name=name, duration=prof.total, psi0=pick(a.psi0, b.psi0), prof=prof,
-                     sign=a.sign, dx=pick(a.dx, b.dx), dy=pick(a.dy, b.dy), nominal_rad=nominal_rad)
+                     sign=a.sign, dx=pick(a.dx, b.dx), dy=pick(a.dy, b.dy), nominal_rad=nominal_rad,
+                     nominal_rows=np.full(mask.shape, nominal_rad))
 
 
 def _flag(ok: npt.NDArray[np.bool_], flag: int) -> npt.NDArray[np.int_]:
@@ -423,7 +426,8 @@ class _Kernel:
             p_i = TurnProfile(angle=prof.angle[i], tas=prof.tas[i], tr=prof.tr[i], tc=prof.tc[i], dp=prof.dp[i],
                               wp=prof.wp[i], c=prof.c[i], k=prof.k, total=prof.total[i])
             out.append(LegArrays(kind="turn", name=sp[3], duration=p_i.total, psi0=psi_a[i], prof=p_i,
-                                 sign=sgn[i], dx=dx[i], dy=dy[i], nominal_rad=float(np.max(sp[4]))))
+                                 sign=sgn[i], dx=dx[i], dy=dy[i], nominal_rad=float(np.max(sp[4])),
+                                 nominal_rows=sp[4] + zero))
         return out
 
     def straight(self, psi: FloatArray, gx: FloatArray, gy: FloatArray, t: FloatArray, name: str,
@@ -676,10 +680,19 @@ def _take(value: object, rows: npt.NDArray[np.int_], m: int) -> object:
     return value
 
 
+def _take_leg(lg: LegArrays, rows: npt.NDArray[np.int_], m: int) -> LegArrays:
+    """A leg's rows; a turn's calm-wind angle (its sample count) becomes the largest of those rows'."""
+    out = _take(lg, rows, m)
+    assert isinstance(out, LegArrays)
+    if out.nominal_rows is not None and out.nominal_rows.size:
+        object.__setattr__(out, "nominal_rad", float(np.max(out.nominal_rows)))
+    return out
+
+
 def take_rows(sol: ShapeSolution, rows: npt.NDArray[np.int_]) -> ShapeSolution:
-    """The rows ``rows`` of a solution solved over one leading axis of M rows (winds, levels)."""
+    """The rows ``rows`` of a solution solved over one leading axis of M rows (winds, levels, sides)."""
     m = sol.ok.shape[0]
-    return ShapeSolution(**{f: (tuple(_take(lg, rows, m) for lg in sol.legs) if f == "legs"
+    return ShapeSolution(**{f: (tuple(_take_leg(lg, rows, m) for lg in sol.legs) if f == "legs"
                                 else _take(getattr(sol, f), rows, m)) for f in ShapeSolution.__slots__})
 
 
@@ -744,11 +757,27 @@ def _arc_count(lg: LegArrays, turn_step_deg: float, actual: bool, ok: npt.NDArra
     return turn_sample_count(nominal, turn_step_deg)
 
 
-def _leg_counts(sol: ShapeSolution, turn_step_deg: float, n_straight: int, straight_step_m: float | None
-                ) -> list[int]:
+def _arc_counts_by_row(lg: LegArrays, turn_step_deg: float) -> npt.NDArray[np.int_]:
+    """:func:`turn_sample_count` of each row's own calm-wind angle (rows of both sides differ)."""
+    assert lg.nominal_rows is not None
+    return np.maximum(3, np.ceil(np.degrees(lg.nominal_rows) / turn_step_deg - 1e-9).astype(np.int64) + 1)
+
+
+def _leg_counts(sol: ShapeSolution, turn_step_deg: float, n_straight: int, straight_step_m: float | None,
+                by_row: list[npt.NDArray[np.int_] | None] | None = None) -> list[int]:
+    """Samples of each leg (the most of any row); with ``by_row`` (a list, filled here), also
+    each turn's arc samples per row (None where every row has the same)."""
     ramps = bool(sol.legs) and any(lg.prof is not None and lg.prof.k > 0.0 for lg in sol.legs)
     out = []
     for lg in sol.legs:
+        if by_row is not None:
+            rows = _arc_counts_by_row(lg, turn_step_deg) if lg.kind == "turn" and lg.nominal_rows is not None \
+                else None
+            na = None if rows is None or rows.size == 0 else int(rows.max())
+            by_row.append(None if na is None or bool((rows == na).all()) else rows)
+            if na is not None:
+                out.append(na + (2 * N_RAMP if ramps else 0))
+                continue
         if lg.kind == "turn":
             out.append(_arc_count(lg, turn_step_deg, straight_step_m is not None, sol.ok)
                        + (2 * N_RAMP if ramps else 0))
@@ -768,29 +797,53 @@ def _ramp_q(tau: FloatArray, prof: TurnProfile) -> npt.NDArray[np.complex128]:
     return ramp_q(tau, prof.c, prof.tas, prof.k)
 
 
+class _ArcSamples:
+    """Where the arc samples of a turn fall: ``fa`` (na, ...) the fractions of the arc, ``den``
+    the steps of each row's arc (na - 1, or per row), ``pad`` True past a row's own last sample
+    (None: every row has ``na``): there the row repeats its end point."""
+
+    __slots__ = ("fa", "den", "pad")
+
+    def __init__(self, na: int, lead: tuple[int, ...], rows: npt.NDArray[np.int_] | None) -> None:
+        if rows is None:
+            self.fa, self.den, self.pad = (np.arange(na) / (na - 1)).reshape((na,) + lead), na - 1, None
+            return
+        k = np.arange(na).reshape((na,) + (1,) * rows.ndim)
+        self.den = rows - 1
+        self.fa = np.minimum(k, self.den) / self.den       # k / (n - 1) up to the row's n, then 1
+        self.pad = k > self.den
+
+    def repeat_end(self, a_seg: npt.NDArray[np.complex128]) -> None:
+        """Padded samples of a running product: the row's own last point (na - 1 = den)."""
+        if self.pad is not None:
+            np.copyto(a_seg, np.take_along_axis(a_seg, np.asarray(self.den)[None], axis=0), where=self.pad)
+
+
 def _running_arc(a_seg: npt.NDArray[np.complex128], first: npt.NDArray[np.complex128] | complex,
-                 step_angle: FloatArray) -> None:
+                 step_angle: FloatArray, arc: _ArcSamples | None = None) -> None:
     """a_seg[k] = first exp(i step k), k = 0..na-1, by a running product over the samples (one
-    complex multiply per point; rounding grows like k eps). ``a_seg``: (na, ...) contiguous."""
+    complex multiply per point; rounding grows like k eps). ``a_seg``: (na, ...) contiguous.
+    With ``arc``, samples past a row's own count repeat its last one."""
     na = a_seg.shape[0]
     a_seg[0] = first
     step = np.exp(1j * step_angle).reshape(-1)
     rows = a_seg.reshape(na, -1)                 # a view: rows of the contiguous block
     for k in range(1, na):                       # loop over samples, not cells
         np.multiply(rows[k - 1], step, out=rows[k])
+    if arc is not None:
+        arc.repeat_end(a_seg)
 
 
-def _sample_arc_instant(seg: npt.NDArray[np.complex128], leg: LegArrays, fa: FloatArray, p0: npt.ArrayLike,
+def _sample_arc_instant(seg: npt.NDArray[np.complex128], leg: LegArrays, arc: _ArcSamples, p0: npt.ArrayLike,
                         wind: npt.ArrayLike) -> None:
     """Instant bank, many tracks: p_k = C - i s r exp(i psi_k) + w t_k with C = p0 + i s r exp(i psi0);
     exp(i psi_k) by a running product."""
     pr = leg.prof
     assert pr is not None
-    na = seg.shape[0]
     rot = np.exp(1j * leg.psi0)
     sr = leg.sign * (pr.tas / np.maximum(pr.wp, 1e-12))
-    _running_arc(seg, -1j * sr * rot, leg.sign * (pr.angle - 2.0 * pr.dp) / (na - 1))
-    seg += (p0 + 1j * sr * rot) + (wind * pr.tc) * fa
+    _running_arc(seg, -1j * sr * rot, leg.sign * (pr.angle - 2.0 * pr.dp) / arc.den, arc)
+    seg += (p0 + 1j * sr * rot) + (wind * pr.tc) * arc.fa
 
 
 class _Ramps:
@@ -808,12 +861,13 @@ class _Ramps:
         self.e_a = np.exp(1j * pr.angle)
 
 
-def _sample_turn(seg: npt.NDArray[np.complex128], leg: LegArrays, nr: int, many: bool, fa: FloatArray,
+def _sample_turn(seg: npt.NDArray[np.complex128], leg: LegArrays, nr: int, many: bool, arc_at: _ArcSamples,
                  p0: npt.ArrayLike, wind: npt.ArrayLike, lead: tuple[int, ...]) -> tuple[FloatArray, _Ramps | None]:
     """Positions of a turn's samples into ``seg``: the roll-in ramp (``nr`` points), the arc, the
     roll-out ramp; returns the samples' times from the turn's start and the ramps (None: instant)."""
     pr = leg.prof
     assert pr is not None and leg.sign is not None
+    fa = arc_at.fa
     na = fa.shape[0]
     arc = pr.angle - 2.0 * pr.dp
     r = pr.tas / np.maximum(pr.wp, 1e-12)
@@ -824,7 +878,7 @@ def _sample_turn(seg: npt.NDArray[np.complex128], leg: LegArrays, nr: int, many:
     if not many:                                   # a few tracks: direct exponentials
         a_seg[...] = np.exp(1j * (pr.dp + arc * fa))
     else:
-        _running_arc(a_seg, np.exp(1j * pr.dp), arc / (na - 1))
+        _running_arc(a_seg, np.exp(1j * pr.dp), arc / arc_at.den, arc_at)
     a_end = a_seg[na - 1] - a_seg[0]
     a_seg -= a_seg[0].copy()
     a_seg *= -1j * r
@@ -859,7 +913,8 @@ def _turn_headings(leg: LegArrays, fa: FloatArray, ramps: _Ramps | None, nr: int
 
 
 def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int, straight_step_m: float | None = None,
-                    with_heading: bool = False, running_product: bool | None = None) -> SolutionTrack:
+                    with_heading: bool = False, running_product: bool | None = None,
+                    pad_rows: bool = False) -> SolutionTrack:
     """Sample every leg of a solved shape (vectorised): tracks of shape (..., N, 2).
 
     Each straight gets ``n_straight`` points (the final, on the centreline, only its two
@@ -870,7 +925,10 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     ``straight_step_m`` (a single plan's track) straights get one point per that many metres of
     their longest instance and arcs use the larger of the calm and the actual angle.
     ``running_product`` chooses how arc points are made (None: by the number of tracks); a batch
-    whose rows must not depend on its size fixes it.
+    whose rows must not depend on its size fixes it. ``pad_rows`` (a batch, without
+    ``straight_step_m``): each row's turns get the count of that row's own calm-wind angle
+    (rows of both sides in one call: the same points as each side alone), a row with fewer
+    arc samples repeating its arc's end point up to the most of any row.
 
     Notes
     -----
@@ -884,7 +942,10 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     Steps: :func:`_sample_arc_instant` (instant bank, many tracks), :func:`_sample_turn` (the
     general turn), straights in place; :func:`_turn_headings` when headings are asked for.
     """
-    counts = _leg_counts(sol, turn_step_deg, n_straight, straight_step_m)
+    if pad_rows and straight_step_m is not None:
+        raise DomainError("pad_rows samples a batch: turns by their calm-wind angle only (no straight_step_m)")
+    by_row: list[npt.NDArray[np.int_] | None] | None = [] if pad_rows else None
+    counts = _leg_counts(sol, turn_step_deg, n_straight, straight_step_m, by_row)
     ramps = bool(sol.legs) and any(lg.prof is not None and lg.prof.k > 0.0 for lg in sol.legs)
     nr = N_RAMP if ramps else 0                  # _leg_counts added 2 N_RAMP ramp samples per turn
     shp = sol.ok.shape
@@ -898,19 +959,18 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     j = 0
     t_start = np.zeros(shp)
     with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
-        for leg, n in zip(sol.legs, counts):
+        for i, (leg, n) in enumerate(zip(sol.legs, counts)):
             seg = out[j:j + n]
             p0 = leg.x0 + 1j * leg.y0
             if leg.kind == "turn":
-                na = n - 2 * nr
-                fa = (np.arange(na) / (na - 1)).reshape((na,) + lead)
+                arc = _ArcSamples(n - 2 * nr, lead, None if by_row is None else by_row[i])
                 if not nr and many:
-                    _sample_arc_instant(seg, leg, fa, p0, wind)
-                    t_rel, turn_ramps = leg.prof.tr + leg.prof.tc * fa, None
+                    _sample_arc_instant(seg, leg, arc, p0, wind)
+                    t_rel, turn_ramps = leg.prof.tr + leg.prof.tc * arc.fa, None
                 else:
-                    t_rel, turn_ramps = _sample_turn(seg, leg, nr, many, fa, p0, wind, lead)
+                    t_rel, turn_ramps = _sample_turn(seg, leg, nr, many, arc, p0, wind, lead)
                 if hdg is not None and tim is not None:
-                    hdg[j:j + n] = leg.psi0 + leg.sign * _turn_headings(leg, fa, turn_ramps, nr)
+                    hdg[j:j + n] = leg.psi0 + leg.sign * _turn_headings(leg, arc.fa, turn_ramps, nr)
                     tim[j:j + n] = t_start + t_rel
             else:
                 assert leg.gx is not None and leg.gy is not None

@@ -1,0 +1,165 @@
+"""The judgement's batch (both sides of a shape in one solve and one sampling call, every level
+and wind as rows) against each cell solved alone: one candidate, one side, one row.
+
+A cell solved alone is the solver's plain use (``solve_inputs`` with one side's sign and one
+wind, bank and roll-out; ``sample_solution`` at that side's own sample counts), so a batch that
+mixed the sides' turn counts or let a row depend on its neighbours would differ here. The
+numbers must be equal to the last bit, not close: the brief and the envelope read the same
+cells. Then the brief's full plans built from the batch's rows against plans solved afresh.
+
+The margins are this file's own: a stadium of radius R about the runway (ICAO Doc 8168 Vol II,
+Part I, Section 4, Chapter 7: arcs about the thresholds joined by tangents) with a half-plane
+not-authorised to the right of a line 1500 m right of the centreline (an invented sector).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+
+import numpy as np
+import pytest
+
+from briefer.core.manoeuvre.judgement import (
+    BATCH_N_STRAIGHT,
+    BATCH_TURN_STEP_DEG,
+    judge_winds,
+    judgement_levels,
+    solve_candidates,
+)
+from briefer.core.manoeuvre.plans import candidate_plans
+from briefer.core.manoeuvre.solver import (
+    CircleInputs,
+    applicable_candidates,
+    descent_geometry,
+    sample_solution,
+    solve_inputs,
+    take_rows,
+    turn_sample_count,
+)
+from briefer.core.manoeuvre.legs import runway_wind_from
+from briefer.units import KT_TO_MPS, NM_TO_M
+
+RUNWAY_M = 2500.0
+R_M = 2.66 * NM_TO_M          # ICAO Cat B circling radius, Doc 8168 (as in tests/test_envelope.py)
+SECTOR_Y_M = 1500.0
+
+
+def margins(xy):
+    """(margin, sector_bound) of tracks (..., N, 2): the stadium, limited by the sector's depth."""
+    x, y = xy[..., 0], xy[..., 1]
+    hull = np.min(R_M - np.hypot(x - np.clip(x, 0.0, RUNWAY_M), y), axis=-1)
+    depth = np.min(np.where(y > SECTOR_Y_M, SECTOR_Y_M - y, np.inf), axis=-1)
+    m = np.minimum(hull, depth)
+    return m, m < hull
+
+
+def _inputs(**kw) -> CircleInputs:
+    base = dict(tas_kt=120.0, bank_deg=25.0, wind=runway_wind_from(0.0, 0.0), arrival_x_m=RUNWAY_M + 1500.0,
+                arrival_y_m=0.0, arrival_course_deg=178.0, circling_height_ft=600.0, runway_length_m=RUNWAY_M,
+                roll_rate_deg_per_s=10.0)
+    base.update(kw)
+    return CircleInputs(**base)
+
+
+# arrivals a little off the reciprocal (each side's turn onto the downwind has its own calm-wind
+# angle, so its own sample count), aligned (the overfly circuit), at an angle (direct turn and
+# join); with roll ramps and with instant bank
+SCENARIOS = [
+    _inputs(),
+    _inputs(arrival_course_deg=183.0, roll_rate_deg_per_s=None),
+    _inputs(arrival_course_deg=200.0, tas_kt=160.0, circling_height_ft=900.0),
+    _inputs(arrival_course_deg=0.0, arrival_x_m=-4000.0, roll_rate_deg_per_s=15.0),
+    _inputs(arrival_course_deg=60.0, arrival_x_m=-3000.0, arrival_y_m=-2500.0),
+]
+
+
+def _rows(inp: CircleInputs):
+    """Winds (every 45 deg, 0/15/30 kt) x every level of the judgement, as rows."""
+    levels = judgement_levels(inp, bank_limit_deg=35.0)
+    wx, wy, bank, ro = [], [], [], []
+    for r, b in levels.order():
+        for deg in range(0, 360, 45):
+            for kt in (0.0, 15.0, 30.0):
+                wx.append(kt * KT_TO_MPS * math.cos(math.radians(deg)))
+                wy.append(kt * KT_TO_MPS * math.sin(math.radians(deg)))
+                bank.append(levels.bank_deg[b])
+                ro.append(levels.roll_out_m[r])
+    return np.array(wx), np.array(wy), np.array(bank), np.array(ro)
+
+
+def _cell_alone(inp, shape, side, wx, wy, bank, ro, vis):
+    """One candidate on one row, solved and sampled alone: (ok, total time, distance, margin, sector)."""
+    sol = solve_inputs(inp, shape, sigma=1.0 if side == "right" else -1.0, wx_mps=np.array([wx]),
+                       wy_mps=np.array([wy]), bank_deg=np.array([bank]), roll_out_m=np.array([ro]),
+                       descent=descent_geometry(inp))
+    if not sol.ok[0]:
+        return False, None, None, None, None
+    xy = sample_solution(sol, turn_step_deg=BATCH_TURN_STEP_DEG, n_straight=BATCH_N_STRAIGHT,
+                         running_product=True).xy
+    x = xy[..., 0]
+    d = float(np.sqrt(np.max(np.square(x - np.minimum(np.maximum(x, 0.0), RUNWAY_M)) + np.square(xy[..., 1]),
+                             axis=-1))[0])
+    m, sec = margins(xy)
+    return True, float(sum(lg.duration for lg in sol.legs)[0]), d, float(m[0]), bool(sec[0])
+
+
+@pytest.mark.parametrize("inp", SCENARIOS)
+def test_every_cell_of_the_batch_is_the_cell_solved_alone(inp):
+    cands = applicable_candidates(inp.arrival_course_deg)
+    wx, wy, bank, ro = _rows(inp)
+    vis = 3.0 * NM_TO_M
+    batch = solve_candidates(inp, cands, wx_mps=wx, wy_mps=wy, bank_deg=bank, roll_out_m=ro, margin_fn=margins)
+    step = 7                                     # every 7th row (the rows are alike; the test stays quick)
+    for i in range(0, wx.size, step):
+        for ci, (shape, side) in enumerate(cands):
+            ok, t, d, m, sec = _cell_alone(inp, shape, side, wx[i], wy[i], bank[i], ro[i], vis)
+            assert bool(batch.ok[i, ci]) == ok, (i, shape, side)
+            if not ok:
+                continue
+            assert batch.total_time_s[i, ci] == t
+            assert batch.max_distance_from_runway_m[i, ci] == d
+            assert batch.area_margin_m[i, ci] == m
+            assert bool(batch.sector_bound[i, ci]) == sec
+
+
+def test_the_scenarios_mix_turn_counts_of_the_two_sides_in_one_call():
+    """The point of the padded sampling: some shape's two sides sample a turn at different counts."""
+    mixed = False
+    for inp in SCENARIOS:
+        shapes = {s for s, _ in applicable_candidates(inp.arrival_course_deg)}
+        for shape in shapes:
+            sols = [solve_inputs(inp, shape, sigma=sg, wx_mps=0.0, wy_mps=0.0, bank_deg=inp.bank_deg)
+                    for sg in (-1.0, 1.0)]
+            for a, b in zip(sols[0].legs, sols[1].legs):
+                if a.kind == "turn" and (turn_sample_count(a.nominal_rad, BATCH_TURN_STEP_DEG)
+                                         != turn_sample_count(b.nominal_rad, BATCH_TURN_STEP_DEG)):
+                    mixed = True
+    assert mixed
+
+
+def _plan_fields(p):
+    out = {}
+    for f in dataclasses.fields(p):
+        v = getattr(p, f.name)
+        out[f.name] = v.tolist() if isinstance(v, np.ndarray) else v
+    return out
+
+
+@pytest.mark.parametrize("inp", SCENARIOS)
+@pytest.mark.parametrize("wind", [(0.0, 0.0), (130.0, 20.0), (250.0, 12.0)])
+def test_plans_built_from_the_batch_rows_are_the_plans_solved_afresh(inp, wind):
+    """choose_plan_at_wind builds the chosen level's plans from the judgement's own rows."""
+    inp = dataclasses.replace(inp, wind=runway_wind_from(*wind))
+    wx, wy = inp.wind.mps()
+    j = judge_winds(inp, wx_mps=[wx], wy_mps=[wy], margin_fn=margins, visibility_m=3.0 * NM_TO_M,
+                    bank_limit_deg=35.0, area_radius_m=R_M, eager=True)
+    order = j.levels.order()
+    for i, (r, b) in enumerate(order):
+        lvl_inputs = dataclasses.replace(inp, bank_deg=j.levels.bank_deg[b],
+                                         roll_out_distance_m=j.levels.roll_out_chosen[r])
+        solved = {j.candidates[cis[0]][0]: take_rows(sol, np.arange(len(cis)) * len(order) + i)
+                  for cis, sol in j.solutions}
+        from_batch = candidate_plans(lvl_inputs, solved=solved)
+        afresh = candidate_plans(lvl_inputs)
+        assert [_plan_fields(p) for p in from_batch] == [_plan_fields(p) for p in afresh]
