@@ -41,7 +41,9 @@ def _parser_class() -> type:
     return _Parser
 
 
-def _command_modules() -> list[ModuleType]:
+def _command_modules(word: str | None = None) -> list[ModuleType]:
+    """Every command module, in help order; with ``word``, only the module of that command
+    when there is one (``briefer brief ...`` imports and sets up one command, not all of them)."""
     import importlib
     import os
 
@@ -49,6 +51,11 @@ def _command_modules() -> list[ModuleType]:
 
     names = sorted({f[:-3] for d in pkg.__path__ for f in os.listdir(d)
                     if f.endswith(".py") and not f.startswith("_")})
+    own = None if word is None else word.replace("-", "_")
+    if own in names:
+        mod = importlib.import_module(f"briefer.commands.{own}")
+        if getattr(mod, "NAME", None) == word and hasattr(mod, "run"):
+            return [mod]
     mods = []
     for name in names:
         mod = importlib.import_module(f"briefer.commands.{name}")
@@ -79,9 +86,10 @@ def _state_ranges(parser: argparse.ArgumentParser) -> None:
 
 
 def build_parser(only: str | None = None) -> tuple[argparse.ArgumentParser, dict[str, ModuleType]]:
-    """The parser with every sub-command; with ``only``, the options of that command alone
-    (the others listed with their help line: what ``briefer COMMAND ...`` needs, at a fraction of
-    the start-up: argparse checks every option as it is added)."""
+    """The parser with every sub-command; with ``only``, that command alone (what
+    ``briefer COMMAND ...`` needs, at a fraction of the start-up: argparse checks every option as
+    it is added, and each command module is imported to be listed). A word that names no command
+    gets every command listed, so the error names the choices."""
     _Parser = _parser_class()
     parser = _Parser(
         prog="briefer",
@@ -91,7 +99,7 @@ def build_parser(only: str | None = None) -> tuple[argparse.ArgumentParser, dict
     parser.add_argument("--version", action="version", version=f"briefer {__version__}")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     commands: dict[str, ModuleType] = {}
-    for mod in _command_modules():
+    for mod in _command_modules(only):
         p = sub.add_parser(mod.NAME, help=mod.HELP, description=getattr(mod, "DESCRIPTION", mod.HELP))
         if only is not None and mod.NAME != only:
             continue
