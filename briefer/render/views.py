@@ -7,10 +7,10 @@ colour alone.
 
 from __future__ import annotations
 
-from rich.console import Console, ConsoleOptions, Group, RenderResult
-from rich.panel import Panel
-from rich.table import Table
+from rich.console import Console, ConsoleOptions, RenderResult
 from rich.text import Text
+
+from briefer.render.text_layout import LabelRows, TitledBox
 
 from briefer.wording import area_edge_words, stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words, wind_words
 from briefer.display_units import (DEFAULT_UNITS, altimeter_words, finding_text, said_in, visibility_reported_words,
@@ -28,11 +28,9 @@ def fmt(value: float | None, spec: str = ".0f", unit: str = "", none: str = "n/r
     return f"{value:{spec}}{unit}"
 
 
-def _kv_grid() -> Table:
-    t = Table.grid(padding=(0, 1))
-    t.add_column(style="bold", no_wrap=True)
-    t.add_column()
-    return t
+def _kv_grid() -> LabelRows:
+    """Bold labels, values wrapped beside them."""
+    return LabelRows()
 
 
 class FindingsView:
@@ -186,7 +184,7 @@ class CautionsView:
         self.cautions = cautions
 
     def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
-        yield Panel(Group(*[Text(f"- {c}") for c in self.cautions]), title="CAUTIONS", title_align="left")
+        yield TitledBox("CAUTIONS", [f"- {c}" for c in self.cautions])
 
 
 def header_text(brief: Brief, units: str = DEFAULT_UNITS) -> Text:

@@ -1,0 +1,89 @@
+"""The text views' light layout (render/text_layout.py) against Rich's own: label/value rows lay out
+as a Rich grid of two columns (``Table.grid(padding=(0, 1))``, bold labels that do not wrap) and
+the cautions box as a Rich ``Panel`` with a left title, cell for cell (character and style), at
+every width; and names from a data file are shown as typed (Rich markup and emoji codes in them are
+text, not commands).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import io
+
+import pytest
+from rich.console import Console, Group
+from rich.panel import Panel
+from rich.style import Style
+from rich.table import Table
+from rich.text import Text
+
+from briefer.brief import build_brief, demo_request
+from briefer.render.text_layout import LabelRows, TitledBox
+from briefer.render.views import BriefView, MinimumsView
+
+ROWS = [("Category", "D (certified C, raised by the circling speed): circling 163 kt IAS = 152 kt + 11 kt "
+                     "wind additive; VREF 133 kt"),
+        ("MDA", "1860 ft   HAA 740 ft"),
+        ("", "a row without a label, and a_very_long_word_that_does_not_fit_anywhere_in_a_narrow_column"),
+        ("Missed appr", "climbing turn RIGHT toward the runway,\nthen as published"),
+        ("Empty", ""),
+        ("Tabbed", "a\tb\tc")]
+CAUTIONS = ["- Not for navigation. A briefing aid only.",
+            "- The published procedure, the aircraft flight manual, local rules and licensed practice govern.",
+            "- " + "x" * 90]
+
+
+class _AsciiFile(io.StringIO):
+    encoding = "ascii"
+
+
+def _cells(renderable, width: int, *, ascii_only: bool = False) -> list[list[tuple[str, Style]]]:
+    """Each line's (character, style) pairs as the console lays them out."""
+    c = Console(file=_AsciiFile() if ascii_only else io.StringIO(), width=width, force_terminal=True,
+                color_system="truecolor")
+    lines: list[list[tuple[str, Style]]] = [[]]
+    for seg in c.render(renderable, c.options):
+        for ch in seg.text:
+            if ch == "\n":
+                lines.append([])
+            else:
+                lines[-1].append((ch, seg.style or Style.null()))
+    return lines
+
+
+def _rich_grid(rows) -> Table:
+    t = Table.grid(padding=(0, 1))
+    t.add_column(style="bold", no_wrap=True)
+    t.add_column()
+    for label, value in rows:
+        t.add_row(Text(label), Text(value))
+    return t
+
+
+@pytest.mark.parametrize("width", [5, 12, 13, 14, 20, 40, 79, 80, 81, 120, 200])
+def test_label_rows_lay_out_as_a_rich_grid(width):
+    rows = LabelRows()
+    for label, value in ROWS:
+        rows.add_row(label, value)
+    assert _cells(rows, width) == _cells(_rich_grid(ROWS), width)
+
+
+@pytest.mark.parametrize("width", [4, 5, 10, 12, 13, 40, 80, 120])
+@pytest.mark.parametrize("ascii_only", [False, True])
+def test_titled_box_lays_out_as_a_rich_panel(width, ascii_only):
+    panel = Panel(Group(*[Text(t) for t in CAUTIONS]), title="CAUTIONS", title_align="left")
+    assert _cells(TitledBox("CAUTIONS", CAUTIONS), width, ascii_only=ascii_only) == _cells(panel, width,
+                                                                                           ascii_only=ascii_only)
+
+
+def test_a_name_that_looks_like_markup_is_shown_as_typed():
+    """An obstacle named with brackets or colons (a data file may hold any text) is printed as
+    typed; the grid read it as Rich markup, so '[/b]' stopped the brief with a MarkupError and
+    ':thumbs_up:' became a picture."""
+    b = build_brief(demo_request(), computed_utc="x")
+    name = "north-hill [/b] [bold]x :thumbs_up:"
+    b = dataclasses.replace(b, minimums=dataclasses.replace(b.minimums, controlling_obstacle=name))
+    for view in (BriefView(b), MinimumsView(b)):
+        c = Console(record=True, width=120, file=io.StringIO())
+        c.print(view)
+        assert f"Obstacle   {name}, clearance" in c.export_text()
