@@ -792,11 +792,6 @@ def _leg_counts(sol: ShapeSolution, turn_step_deg: float, n_straight: int, strai
     return out
 
 
-def _ramp_q(tau: FloatArray, prof: TurnProfile) -> npt.NDArray[np.complex128]:
-    """C + i S: air path of a roll-in ramp at times tau (n, ...) (right turn from heading 0)."""
-    return ramp_q(tau, prof.c, prof.tas, prof.k)
-
-
 class _ArcSamples:
     """Where the arc samples of a turn fall: ``fa`` (na, ...) the fractions of the arc, ``den``
     the steps of each row's arc (na - 1, or per row), ``pad`` True past a row's own last sample
@@ -851,18 +846,35 @@ class _Ramps:
 
     __slots__ = ("fr", "tau_in", "q_in", "q_tr", "q_out", "e_a")
 
-    def __init__(self, pr: TurnProfile, nr: int, lead: tuple[int, ...]) -> None:
-        self.fr = fr = (np.arange(nr) / nr).reshape((nr,) + lead)
-        self.tau_in = tau_in = pr.tr * fr
-        tau_out = pr.tr * (1.0 - fr - 1.0 / nr)                    # tau3 = tr (nr-1-j)/nr
-        # one quadrature call for the roll-in samples, the full ramp and the roll-out samples
-        q_all = _ramp_q(np.concatenate([tau_in, pr.tr[None] + 0.0 * tau_in[:1], tau_out], axis=0), pr)
+    def __init__(self, fr: FloatArray, tau_in: FloatArray, q_all: npt.NDArray[np.complex128],
+                 e_a: npt.NDArray[np.complex128]) -> None:
+        nr = fr.shape[0]
+        self.fr, self.tau_in, self.e_a = fr, tau_in, e_a
         self.q_in, self.q_tr, self.q_out = q_all[:nr], q_all[nr], q_all[nr + 1:]
-        self.e_a = np.exp(1j * pr.angle)
+
+
+def _all_ramps(legs: tuple[LegArrays, ...], nr: int, shp: tuple[int, ...]) -> dict[int, _Ramps]:
+    """The ramps of every turn of a solution (by leg index), in one quadrature call: each turn's
+    roll-in samples, its full ramp and its roll-out samples, the turns stacked on a new axis."""
+    turns = [i for i, lg in enumerate(legs) if lg.kind == "turn"]
+    profs = [legs[i].prof for i in turns]
+    assert all(pr is not None for pr in profs)
+    st = {}
+    for f in ("tr", "c", "tas", "angle"):
+        parts = [getattr(pr, f) for pr in profs]
+        st[f] = np.array(parts if all(np.shape(x) == shp for x in parts) else [x + np.zeros(shp) for x in parts])
+    lead = (1,) * len(shp)
+    fr = (np.arange(nr) / nr).reshape((nr, 1) + lead)
+    tau_in = st["tr"] * fr
+    tau_out = st["tr"] * (1.0 - fr - 1.0 / nr)                     # tau3 = tr (nr-1-j)/nr
+    q_all = ramp_q(np.concatenate([tau_in, st["tr"][None] + 0.0 * tau_in[:1], tau_out], axis=0), st["c"],
+                   st["tas"], profs[0].k)  # type: ignore[union-attr]
+    e_a = np.exp(1j * st["angle"])
+    return {i: _Ramps(fr[:, 0], tau_in[:, n], q_all[:, n], e_a[n]) for n, i in enumerate(turns)}
 
 
 def _sample_turn(seg: npt.NDArray[np.complex128], leg: LegArrays, nr: int, many: bool, arc_at: _ArcSamples,
-                 p0: npt.ArrayLike, wind: npt.ArrayLike, lead: tuple[int, ...]) -> tuple[FloatArray, _Ramps | None]:
+                 p0: npt.ArrayLike, wind: npt.ArrayLike, ramps: _Ramps | None) -> tuple[FloatArray, _Ramps | None]:
     """Positions of a turn's samples into ``seg``: the roll-in ramp (``nr`` points), the arc, the
     roll-out ramp; returns the samples' times from the turn's start and the ramps (None: instant)."""
     pr = leg.prof
@@ -871,7 +883,6 @@ def _sample_turn(seg: npt.NDArray[np.complex128], leg: LegArrays, nr: int, many:
     na = fa.shape[0]
     arc = pr.angle - 2.0 * pr.dp
     r = pr.tas / np.maximum(pr.wp, 1e-12)
-    ramps = _Ramps(pr, nr, lead) if nr else None
     q_tr = ramps.q_tr if ramps is not None else np.zeros(np.shape(pr.angle), dtype=np.complex128)
     # the arc in the right-turn frame from heading 0: -i r (exp(i h) - exp(i dp)) + Q(tr)
     a_seg = seg[nr:nr + na]
@@ -959,6 +970,7 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     j = 0
     t_start = np.zeros(shp)
     with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
+        all_ramps = _all_ramps(sol.legs, nr, shp) if nr else {}
         for i, (leg, n) in enumerate(zip(sol.legs, counts)):
             seg = out[j:j + n]
             p0 = leg.x0 + 1j * leg.y0
@@ -968,7 +980,8 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                     _sample_arc_instant(seg, leg, arc, p0, wind)
                     t_rel, turn_ramps = leg.prof.tr + leg.prof.tc * arc.fa, None
                 else:
-                    t_rel, turn_ramps = _sample_turn(seg, leg, nr, many, arc, p0, wind, lead)
+                    t_rel, turn_ramps = _sample_turn(seg, leg, nr, many, arc, p0, wind,
+                                                     all_ramps[i] if nr else None)
                 if hdg is not None and tim is not None:
                     hdg[j:j + n] = leg.psi0 + leg.sign * _turn_headings(leg, arc.fa, turn_ramps, nr)
                     tim[j:j + n] = t_start + t_rel
