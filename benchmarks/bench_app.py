@@ -127,8 +127,9 @@ def edit_to_brief(runs: int = RUNS * 2, yardstick: Callable[[], object] | None =
                   ) -> dict[str, list[float]]:
     """Edit -> brief shown in the app as a user has it (headless, the app's own debounce, on the
     weather step): from a new value in the wind field (what a keystroke ends in) to the brief built for it pushed into
-    the widgets and the screen's next refresh done. Also (b) build_brief in the worker, (c) the
-    push into the widgets; with ``yardstick``, its wall time just before each edit. [s]"""
+    the widgets and the next frame written. Also (b) build_brief in the worker, (c) the push into
+    the widgets, (d) the app thread's CPU time from the edit to that frame (the worker's is not in
+    it: a figure the load moves less); with ``yardstick``, its wall time just before each edit. [s]"""
     import asyncio
 
     async def run() -> dict[str, list[float]]:
@@ -139,7 +140,7 @@ def edit_to_brief(runs: int = RUNS * 2, yardstick: Callable[[], object] | None =
         import briefer.brief
         from briefer.tui.app import BriefingApp
 
-        parts: dict[str, list[float]] = {"worker": [], "push": [], "shown": [], "yardstick": []}
+        parts: dict[str, list[float]] = {"worker": [], "push": [], "shown": [], "app_cpu": [], "yardstick": []}
         real_build = briefer.brief.build_brief
 
         def timed_build(*a, **k):                 # (b) build_brief as the worker runs it
@@ -165,6 +166,7 @@ def edit_to_brief(runs: int = RUNS * 2, yardstick: Callable[[], object] | None =
         BriefingApp._brief_done = timed_done
         real_display = BriefingApp._display
         frames: list[float] = []
+        frame_cpu: list[float] = []               # the app thread's CPU time at each frame
         framed = asyncio.Event()
 
         def timed_display(self, screen, renderable):   # a frame written to the terminal
@@ -173,6 +175,7 @@ def edit_to_brief(runs: int = RUNS * 2, yardstick: Callable[[], object] | None =
                 if self.is_headless and hasattr(renderable, "render_segments"):
                     renderable.render_segments(self.console)   # the bytes a real terminal is sent
                 frames.append(time.perf_counter())
+                frame_cpu.append(time.thread_time())
                 framed.set()
 
         BriefingApp._display = timed_display
@@ -193,7 +196,7 @@ def edit_to_brief(runs: int = RUNS * 2, yardstick: Callable[[], object] | None =
                         parts["yardstick"].append(time.perf_counter() - t)
                     text = f"{250 + i}/15"
                     pushed.clear()
-                    t = time.perf_counter()
+                    t, cpu = time.perf_counter(), time.thread_time()
                     wind.value = text                  # what one keystroke ends in: a new field value
                     while not (app.settled and app.brief_inputs == app.inputs
                                and app.inputs.weather.wind_from_deg == 250 + i):
@@ -203,7 +206,9 @@ def edit_to_brief(runs: int = RUNS * 2, yardstick: Callable[[], object] | None =
                     while not (frames and frames[-1] >= done):
                         framed.clear()
                         await asyncio.wait_for(framed.wait(), timeout=10.0)
-                    parts["shown"].append(next(f for f in frames if f >= done) - t)
+                    k = next(k for k, f in enumerate(frames) if f >= done)
+                    parts["shown"].append(frames[k] - t)
+                    parts["app_cpu"].append(frame_cpu[k] - cpu)
                     await pilot.pause()                # idle again before the next edit (not timed)
         finally:
             BriefingApp._display = real_display
@@ -229,6 +234,7 @@ def keystroke() -> None:
     print(f"edit -> brief shown       {median_ms(parts['shown'])}  (headless, the app's own debounce)")
     print(f"  (b) build_brief, worker {median_ms(parts['worker'])}")
     print(f"  (c) push to widgets     {median_ms(parts['push'])}")
+    print(f"  (d) the app thread's CPU {median_ms(parts['app_cpu'])}  (from the edit to the frame; the worker's not in it)")
 
 
 if __name__ == "__main__":

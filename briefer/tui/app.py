@@ -10,6 +10,7 @@ screen's widgets; widgets post messages up.
 from __future__ import annotations
 
 from collections.abc import Iterable
+from contextlib import ExitStack
 from dataclasses import replace
 from typing import TYPE_CHECKING, Any
 
@@ -37,6 +38,7 @@ if TYPE_CHECKING:   # numpy and the brief are imported by the first brief's work
     from briefer.result import Brief
 
 DEBOUNCE_S = 0.0   # an edit starts the brief at once; edits made while one is built are coalesced
+FRAME_HOLD_S = 1 / 60   # an edit's echo waits at most one 60 Hz frame for the brief it asks for
 ENVELOPE_DIRECTIONS_DEG = tuple(range(0, 360, 10))
 ENVELOPE_SPEEDS_KT = tuple(float(s) for s in range(0, 41, 2))
 
@@ -82,7 +84,8 @@ class BriefingApp(App[None]):
         Binding("escape", "leave_field", "Leave a field (then digits switch steps)", show=False),
     ]
 
-    inputs: reactive[BriefingInputs] = reactive(None, init=False, always_update=False)  # type: ignore[arg-type]
+    # repaint=False: the inputs are shown by the widgets, not by the app; an edit must not repaint the screen
+    inputs: reactive[BriefingInputs] = reactive(None, init=False, always_update=False, repaint=False)  # type: ignore[arg-type]
 
     def __init__(self, catalog: AppCatalog, inputs: BriefingInputs, *, ascii: bool | None = None,
                  night: bool = False, debounce_s: float = DEBOUNCE_S, inputs_path: str | None = None,
@@ -116,6 +119,7 @@ class BriefingApp(App[None]):
         self.envelope_request = None
         self.computing = False
         self._timer = None
+        self._hold: tuple[ExitStack, Any] | None = None   # repaints held for an edit's brief (hold_frame)
         self._pushed: dict[str, tuple[str, Any]] = {}
         self._day_theme = "textual-dark"
         for theme in THEMES:
@@ -229,6 +233,26 @@ class BriefingApp(App[None]):
         else:
             self.main.set_note("report", "")
 
+    # --- one frame per edit ----------------------------------------------------------------
+    def hold_frame(self) -> None:
+        """An edit was typed: hold the screen's repaints until the brief it asks for is shown (or
+        the edit is refused, or changes nothing), one frame (FRAME_HOLD_S) at most, so that the
+        typed character and the brief it leads to reach the terminal in the same frame instead
+        of the echo in one frame and the brief a frame later."""
+        if self._hold is None and self.is_running:
+            stack = ExitStack()
+            stack.enter_context(self.batch_update())
+            self._hold = (stack, self.set_timer(FRAME_HOLD_S, self.release_frame, name="frame-hold"))
+
+    def release_frame(self) -> None:
+        """Let the held repaints through (see `hold_frame`)."""
+        if self._hold is not None:
+            stack, timer = self._hold
+            self._hold = None
+            timer.stop()
+            stack.close()
+            self.screen.check_idle()      # the screen paints what changed meanwhile
+
     # --- messages up from the widgets ------------------------------------------------------
     @on(ChoiceList.Changed)
     def _choice(self, event: ChoiceList.Changed) -> None:
@@ -287,6 +311,7 @@ class BriefingApp(App[None]):
             new = cur.with_weather(**{key: value})
         if new == cur:
             self._refresh_stale()
+            self.release_frame()         # no brief to wait for
         self.inputs = new
 
     def _new_report(self, cur: BriefingInputs, text: str) -> BriefingInputs:
@@ -308,6 +333,7 @@ class BriefingApp(App[None]):
     def _invalid(self, event: FieldRow.Invalid) -> None:
         self.field_errors[event.name] = event.message
         self._refresh_stale()
+        self.release_frame()             # the refusal is all there is to show
 
     @on(RadioSet.Changed, "#wind-ref")
     def _wind_ref(self, event: RadioSet.Changed) -> None:
@@ -391,6 +417,7 @@ class BriefingApp(App[None]):
                 self.main.set_field_error(name, None)
         self._refresh_stale(show=False)
         self.main.show_brief(brief, self.stale)
+        self.release_frame()
         if self._envelope_visible():        # else when the envelope view is next shown
             self._want_envelope()
 
@@ -403,6 +430,7 @@ class BriefingApp(App[None]):
         else:
             self.notify(message, severity="error", timeout=8)
         self._refresh_stale()
+        self.release_frame()
 
     _model_error: tuple[str | None, str] | None = None
 

@@ -16,6 +16,7 @@ from textual.widget import Widget
 from textual.widgets import Footer, Label, RadioButton, RadioSet, Static, TabbedContent, TabPane
 
 from briefer.cautions import SHORT_CAUTION
+from briefer.tui.rendered_once import RenderedOnce
 from briefer.model import BANK_DEG, CEILING_FT, OAT_C, WEIGHT_LB, WX_VISIBILITY_SM, Range
 from briefer.tui.state import (
     parse_altimeter_hpa,
@@ -92,6 +93,7 @@ class BriefingScreen(Screen):
         self._wind_ref = "true"
         self._node_cache: dict = {}           # selector -> widget (the DOM never changes: no re-query per keystroke)
         self._shown: dict[str, object] = {}   # Static id -> the Text it shows (unchanged text: no update)
+        self._heights: dict[str, tuple[int, int | None]] = {}   # Static id -> (width, content height) shown
 
     def node(self, selector, expect_type=None):
         """`query_one`, remembered (a query walks the whole DOM; this screen's widgets stay put)."""
@@ -101,13 +103,24 @@ class BriefingScreen(Screen):
             self._node_cache[selector] = w
         return w
 
-    def _update(self, static_id: str, content, *, layout: bool = True) -> None:
-        """Update a Static, unless it already shows this very Text (no refresh, no layout)."""
+    def _update(self, static_id: str, content) -> None:
+        """Update a Static, unless it already shows this very Text (no refresh, no layout). The
+        screen is laid out again only when the new content's height differs from the old one's
+        at the Static's width (a layout reflows and repaints the whole screen; a repaint of the
+        Static alone is enough for new text of the same height)."""
         old = self._shown.get(static_id)
         if isinstance(content, Text) and isinstance(old, Text) and old == content:
             return
         self._shown[static_id] = content
-        self.node(f"#{static_id}", Static).update(content, layout=layout)
+        static = self.node(f"#{static_id}", Static)
+        width = static.size.width
+        if not isinstance(content, (str, Text)):     # a table or group: rendered once, not per question
+            content = RenderedOnce(static, content)
+        static.update(content, layout=False)
+        height = static.visual.get_height(static.styles, width) if width else None
+        if height is None or self._heights.get(static_id) != (width, height):
+            static.refresh(layout=True)
+        self._heights[static_id] = (width, height)
 
     def compose(self) -> ComposeResult:
         yield Static("", id="summary")
@@ -303,11 +316,11 @@ class BriefingScreen(Screen):
             warnings.set_class(stale is not None, "-stale")
             summary.set_class(stale is not None, "-stale")
         if brief is None:
-            self._update("summary", Text("No brief yet.", style="bold"), layout=False)   # one line, always
+            self._update("summary", Text("No brief yet.", style="bold"))   # one line, always
         else:
             from briefer.tui import views
 
-            self._update("summary", views.summary_text(brief), layout=False)
+            self._update("summary", views.summary_text(brief))
         if stale is not None:
             t = Text()
             t.append(" STALE ", style="bold reverse")

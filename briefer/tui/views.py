@@ -8,7 +8,9 @@ from __future__ import annotations
 
 import math
 
-from rich.console import Group, RenderableType
+from rich.cells import cell_len
+from rich.console import Console, ConsoleOptions, Group, RenderableType, RenderResult
+from rich.measure import Measurement
 from rich.table import Table
 from rich.text import Text
 
@@ -19,11 +21,46 @@ from briefer.wording import area_edge_words, circling_speed_words, vref_words, w
 from briefer.result import Brief
 
 
-def _grid() -> Table:
-    t = Table.grid(padding=(0, 1))
-    t.add_column(style="bold", no_wrap=True)
-    t.add_column()
-    return t
+class LabelGrid:
+    """Label/value rows, laid out as `Table.grid(padding=(0, 1))` with a bold unwrapped label
+    column lays them out (the same lines), but with the two columns' widths worked out from the
+    text's own lengths: a table measures every cell by rendering it, most of its cost, and the app
+    draws these grids on every brief."""
+
+    def __init__(self) -> None:
+        self.rows: list[tuple[str | Text, str | Text]] = []
+
+    def add_row(self, label: str | Text, value: str | Text) -> None:
+        self.rows.append((label, value))
+
+    def table(self, max_width: int) -> Table:
+        """The grid as a table of fixed column widths for `max_width` cells (what Rich's own
+        measuring gives: labels as wide as the widest, values as wide as the widest or what is
+        left beside the labels and their one-cell gap)."""
+        label_w = max((_text_width(label) for label, _ in self.rows), default=0)
+        value_w = max((_text_width(value) for _, value in self.rows), default=0)
+        t = Table.grid(padding=(0, 1))
+        t.add_column(style="bold", no_wrap=True, width=label_w)
+        t.add_column(width=max(1, min(value_w, max_width - label_w - 1)))
+        for row in self.rows:
+            t.add_row(*row)
+        return t
+
+    def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
+        yield self.table(options.max_width)
+
+    def __rich_measure__(self, console: Console, options: ConsoleOptions) -> Measurement:
+        return Measurement.get(console, options, self.table(options.max_width))
+
+
+def _text_width(cell: str | Text) -> int:
+    """Cells of the longest line of `cell` (what Rich measures as a text's widest)."""
+    plain = cell.plain if isinstance(cell, Text) else cell
+    return max((cell_len(line) for line in plain.split("\n")), default=0)
+
+
+def _grid() -> LabelGrid:
+    return LabelGrid()
 
 
 def _num(value: float | None, spec: str, unit: str = "") -> str:

@@ -101,6 +101,9 @@ class FieldRow(Widget):
     @on(Input.Changed)
     def _changed(self, event: Input.Changed) -> None:
         event.stop()
+        hold = getattr(self.app, "hold_frame", None)   # the echo waits (a frame at most) for what the
+        if hold is not None:                           # edit leads to, to show both in one frame
+            hold()
         try:
             value = self.parser(event.value)
         except ValueError as exc:

@@ -1,0 +1,118 @@
+"""What an edit costs the screen: the typed character and the brief it leads to reach the terminal
+in one frame; an edit repaints the widgets it changes, never the whole screen; a new brief whose
+text keeps its height lays nothing out again, and one that changes a height is laid out (its new
+line shows). (Behaviour of the app itself: no outside source; Textual's documented
+`App.batch_update` and `Widget.refresh(layout=...)` are what is relied on.)"""
+
+from __future__ import annotations
+
+import threading
+
+from test_app_support import demo_catalog, demo_inputs, settle
+from textual.screen import Screen
+from textual.widgets import Input, Static
+
+import briefer.brief
+import briefer.tui.app as app_module
+from briefer.tui.app import BriefingApp
+
+
+def _frames(monkeypatch, app: BriefingApp) -> list[float | None]:
+    """The wind the brief on screen answered, for every frame written to the terminal from now."""
+    seen: list[float | None] = []
+    real = BriefingApp._display
+
+    def display(self, screen, renderable):
+        real(self, screen, renderable)
+        if renderable is not None and not self._batch_count:
+            seen.append(None if self.brief_inputs is None else self.brief_inputs.weather.wind_from_deg)
+
+    monkeypatch.setattr(BriefingApp, "_display", display)
+    return seen
+
+
+async def _on_weather_step(app, pilot) -> Input:
+    await settle(app, pilot)
+    await pilot.press("4")
+    await settle(app, pilot)
+    wind = app.main.query_one("#wind", Input)
+    wind.value = "251/15"                 # a first edit (its field's first repaint lays it out)
+    await settle(app, pilot)
+    return wind
+
+
+async def test_the_typed_character_and_its_brief_reach_the_terminal_in_one_frame(monkeypatch):
+    monkeypatch.setattr(app_module, "FRAME_HOLD_S", 30.0, raising=False)   # the brief, however slow here, is waited for
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False)
+    async with app.run_test(size=(80, 24)) as pilot:
+        wind = await _on_weather_step(app, pilot)
+        frames = _frames(monkeypatch, app)
+        wind.value = "252/15"
+        await settle(app, pilot)
+        assert frames and frames[0] == 252.0      # no frame with the new text beside the old brief
+
+
+async def test_a_slow_brief_does_not_hold_the_typed_character_back(monkeypatch):
+    monkeypatch.setattr(app_module, "FRAME_HOLD_S", 0.05)
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False)
+    async with app.run_test(size=(80, 24)) as pilot:
+        wind = await _on_weather_step(app, pilot)
+        real, gate = briefer.brief.build_brief, threading.Event()
+
+        def held(request, **kw):
+            gate.wait(10.0)
+            return real(request, **kw)
+
+        monkeypatch.setattr(briefer.brief, "build_brief", held)
+        frames = _frames(monkeypatch, app)
+        wind.value = "253/15"
+        await pilot.pause(0.3)
+        assert app.computing and frames and frames[0] == 251.0   # the echo is shown, the brief not yet
+        assert wind.value == "253/15"
+        gate.set()
+        await settle(app, pilot)
+        assert frames[-1] == 253.0
+
+
+async def test_an_edit_repaints_the_widgets_it_changes_not_the_whole_screen(monkeypatch):
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False)
+    async with app.run_test(size=(80, 24)) as pilot:
+        wind = await _on_weather_step(app, pilot)
+        whole: list[Screen] = []
+        real = Screen.refresh
+
+        def refresh(self, *regions, **kw):
+            if not regions:
+                whole.append(self)
+            return real(self, *regions, **kw)
+
+        monkeypatch.setattr(Screen, "refresh", refresh)
+        wind.value = "254/15"
+        await settle(app, pilot)
+        assert app.brief_inputs.weather.wind_from_deg == 254.0
+        assert whole == []
+
+
+async def test_a_brief_of_the_same_heights_lays_nothing_out_and_a_new_line_is_laid_out(monkeypatch):
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False)
+    async with app.run_test(size=(80, 24)) as pilot:
+        wind = await _on_weather_step(app, pilot)
+        layouts: list[Screen] = []
+        real = Screen._refresh_layout
+
+        def refresh_layout(self, *a, **kw):
+            layouts.append(self)
+            return real(self, *a, **kw)
+
+        monkeypatch.setattr(Screen, "_refresh_layout", refresh_layout)
+        implies = app.main.query_one("#implies-weather", Static)
+        lines = implies.size.height
+        wind.value = "252/15"                     # new numbers, the same lines
+        await settle(app, pilot)
+        assert app.brief_inputs.weather.wind_from_deg == 252.0
+        assert implies.size.height == lines and layouts == []
+        oat = app.main.query_one("#oat", Input)
+        oat.value = "-35"                         # a cold-temperature line more in the weather pane
+        await settle(app, pilot)
+        assert app.brief.minimums.cold is not None
+        assert layouts and implies.size.height == lines + 1

@@ -1,0 +1,55 @@
+"""The app's label/value grids (briefer.tui.views.LabelGrid) show exactly what Rich's own
+`Table.grid(padding=(0, 1))` with a bold unwrapped label column shows (Rich, the reference: the
+grid only works out the column widths itself instead of measuring every cell), at every width from
+12 to 120 cells, for the views of a sample of the demo briefs."""
+
+from __future__ import annotations
+
+import io
+
+import pytest
+from rich.console import Console
+from rich.table import Table
+from test_golden_briefs import demo_cases
+
+import briefer.tui.views as views
+from briefer.brief import build_brief
+
+
+def _rich_grid(grid: views.LabelGrid) -> Table:
+    t = Table.grid(padding=(0, 1))
+    t.add_column(style="bold", no_wrap=True)
+    t.add_column()
+    for row in grid.rows:
+        t.add_row(*row)
+    return t
+
+
+def _grids(monkeypatch, brief) -> list[views.LabelGrid]:
+    made: list[views.LabelGrid] = []
+    real = views._grid
+
+    def grid():
+        made.append(real())
+        return made[-1]
+
+    monkeypatch.setattr(views, "_grid", grid)
+    for units in ("us", "icao"):
+        views.aircraft_implies(brief, units)
+        views.runway_implies(brief, units)
+        views.weather_implies(brief, units)
+    views.plan_numbers(brief)
+    return made
+
+
+@pytest.mark.parametrize("label,request_", list(demo_cases())[::97])
+def test_label_grids_render_as_rich_grids(monkeypatch, label, request_):
+    console = Console(file=io.StringIO(), width=200, color_system="truecolor", force_terminal=True,
+                      legacy_windows=False)
+    grids = _grids(monkeypatch, build_brief(request_))
+    assert grids
+    for grid in grids:
+        for width in range(12, 121):
+            options = console.options.update_width(width)
+            assert console.render_lines(grid, options, pad=False) == console.render_lines(
+                _rich_grid(grid), options, pad=False), (label, width)
