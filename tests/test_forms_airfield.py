@@ -406,3 +406,35 @@ async def test_escape_on_an_untouched_airfield_form_closes_it_without_asking(key
         await pilot.press("escape")
         await pilot.pause()
         assert not isinstance(app.screen, FormScreen), type(app.screen).__name__
+
+
+async def test_clearing_a_runways_latitude_longitude_shows_its_chart_lines_at_once():
+    """A runway given by latitude/longitude has no heading or length lines (the coordinates place
+    it). Clearing its latitude and longitude showed those lines only after the form was closed
+    and opened again; now they appear once typing pauses, the cleared lines stay and the cursor
+    stays in the field typed."""
+    import yaml
+    from textual.app import App
+
+    mapping = yaml.safe_load((Path(__file__).parent.parent / "airfields_demo" / "q7hm-qorvel-mesa.yaml")
+                             .read_text(encoding="utf-8"))
+    mapping.update(runways=mapping["runways"][:1], approaches=[], obstacles=[])
+    screen = FormScreen(AIRFIELD_FORM, mapping=mapping)
+
+    class Host(App):
+        def on_mount(self) -> None:
+            self.push_screen(screen)
+
+    rw = ("runways", 0)
+    async with Host().run_test(size=(80, 24)) as pilot:
+        await pilot.pause()
+        assert rw + ("heading_deg_mag",) not in screen._inputs        # placed by its coordinates
+        await type_fields(pilot, [(rw + ("threshold_a", "lat_deg"), ""), (rw + ("threshold_a", "lon_deg"), "")])
+        await pilot.pause(0.3)                                           # typing pauses: checked
+        await pilot.pause()
+        for key in ("heading_deg_mag", "length_ft"):
+            assert rw + (key,) in screen._inputs, f"no {key} line after the coordinates were cleared"
+        assert rw + ("threshold_a", "lat_deg") in screen._inputs           # the cleared lines stay
+        assert screen.focused is screen._inputs[rw + ("threshold_a", "lon_deg")]
+        await type_fields(pilot, [(rw + ("heading_deg_mag",), "131"), (rw + ("length_ft",), "8000")])
+        assert screen.texts["runways"][0]["heading_deg_mag"] == "131"

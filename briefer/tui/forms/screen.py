@@ -149,6 +149,10 @@ class FormScreen(Screen[Saved | None]):
         self.verdict: Verdict = self.checker.check(self.texts)
         self._msgs: dict[FormPath, Static] = {}
         self._inputs: dict[FormPath, FormInput] = {}
+        self._built: set[FormPath] = set()
+        """The items that have their lines on the screen (fields, groups, repeating groups)."""
+        self._keep: set[FormPath] = set()
+        """Items kept on the screen while an item box is built again (see `_reveal`)."""
         self._overwrite_ok: Path | None = None
         self._target: Target | None = None
         self.status_text = ""
@@ -178,6 +182,7 @@ class FormScreen(Screen[Saved | None]):
     def _body(self) -> list[Widget]:
         self._msgs.clear()
         self._inputs.clear()
+        self._built.clear()
         notes: list[Widget] = []
         if self.notes:
             notes.append(Static("\n".join(f"• {n}" for n in self.notes), id="form-notes", markup=False))
@@ -202,9 +207,9 @@ class FormScreen(Screen[Saved | None]):
         out: list[Widget] = []
         for item in items:
             if isinstance(item, Field):
-                if shown(item, texts):
+                if self._visible(item, texts, fpath):
                     out.append(self._field_line(item, texts, fpath))
-            elif not shown(item, texts):
+            elif not self._visible(item, texts, fpath):
                 continue
             elif isinstance(item, Group):
                 if item.title:
@@ -236,7 +241,7 @@ class FormScreen(Screen[Saved | None]):
             cells: list[Widget] = []
             for f in rep.items:
                 assert isinstance(f, Field)
-                if not shown(f, row):
+                if not self._visible(f, row, ipath):
                     continue
                 if f.label:
                     cells.append(Label(f.label, classes="form-cell-label"))
@@ -251,6 +256,64 @@ class FormScreen(Screen[Saved | None]):
                      self._message(ipath, "form-msg form-group-msg"),
                      *self._items(rep.items, row, ipath)]    # type: ignore[arg-type]
         return Vertical(*parts, classes="form-item", id=widget_id("box", ipath))
+
+    def _visible(self, item: Item, texts: dict[str, Any], fpath: FormPath) -> bool:
+        """`shown`, or kept while its box is built again; recorded as built."""
+        path = fpath if item.key is None else fpath + (item.key,)
+        if shown(item, texts) or path in self._keep:
+            self._built.add(path)
+            return True
+        return False
+
+    def _wanted(self, items: tuple[Item, ...], texts: dict[str, Any], fpath: FormPath, out: set[FormPath]) -> None:
+        """The items `shown` for the texts as they are now (the walk `_items` makes)."""
+        for item in items:
+            path = fpath if item.key is None else fpath + (item.key,)
+            if not shown(item, texts):
+                continue
+            out.add(path)
+            if isinstance(item, Group):
+                self._wanted(item.items, texts if item.key is None else texts.get(item.key, {}), path, out)
+            elif isinstance(item, Repeat):
+                for i, row in enumerate(texts.get(item.key, [])):
+                    self._wanted(item.items, row, path + (i,), out)   # type: ignore[arg-type]
+
+    async def _reveal(self) -> None:
+        """Give their lines to items the texts now call for (a runway's latitude cleared: its
+        heading and length from the chart): the item boxes concerned are built again, keeping
+        every line already there and the cursor where it was."""
+        wanted: set[FormPath] = set()
+        self._wanted(self.spec.items, self.texts, (), wanted)
+        new = wanted - self._built
+        boxes = sorted({p[:2] for p in new if len(p) >= 2 and isinstance(p[1], int)})
+        if not boxes:
+            return
+        focus = next((p for p, w in self._inputs.items() if w is self.focused), None)
+        cursor = self.focused.cursor_position if isinstance(self.focused, Input) else None
+        for ipath in boxes:
+            rep = self._item_at(ipath[:1])
+            old = self.query_one("#" + widget_id("box", ipath), Vertical)
+            parent, index = old.parent, old.parent.children.index(old) if old.parent else 0
+            self._keep = {p for p in self._built if p[:2] == ipath}
+            for table in (self._inputs, self._msgs):
+                for p in [p for p in table if p[:2] == ipath]:
+                    del table[p]
+            self._built -= self._keep
+            try:
+                box = self._repeat_item(rep, ipath[:1], ipath[1], self.texts[ipath[0]][ipath[1]])
+            finally:
+                self._keep = set()
+            await old.remove()
+            if index < len(parent.children):
+                await parent.mount(box, before=index)
+            else:
+                await parent.mount(box)
+        self._show_verdict()
+        target = self._inputs.get(focus) if focus is not None else None
+        if target is not None:
+            self.set_focus(target)
+            if cursor is not None:
+                target.cursor_position = cursor
 
     def _row_message(self, rep: Repeat, ipath: FormPath) -> Static:
         """One message line under a short row, for the row and each of its fields."""
@@ -300,6 +363,7 @@ class FormScreen(Screen[Saved | None]):
             self._timer = None
         self.verdict = self.checker.check(self.texts)
         self._show_verdict()
+        self.call_later(self._reveal)
 
     def _show_verdict(self) -> None:
         v = self.verdict
