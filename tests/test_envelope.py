@@ -8,9 +8,7 @@ agreement with the single-plan path (choose_plan) on a few cells.
 
 from __future__ import annotations
 
-import importlib.util
 import math
-from pathlib import Path
 
 import numpy as np
 import pytest
@@ -29,21 +27,10 @@ from briefer.core.maneuver import (
 )
 from briefer.errors import DomainError
 from briefer.units import NM_TO_M
+from scalar_reference_support import REF
 
 RUNWAY_M = 2500.0
 R_CAT_B_M = 2.66 * NM_TO_M          # docs/REFERENCES.md 4b: ICAO Cat B R = 2.66 NM (published)
-
-
-def _load_reference():
-    path = Path(__file__).resolve().parent.parent / "benchmarks" / "envelope_scalar_reference.py"
-    spec = importlib.util.spec_from_file_location("envelope_scalar_reference", path)
-    mod = importlib.util.module_from_spec(spec)
-    assert spec.loader is not None
-    spec.loader.exec_module(mod)
-    return mod
-
-
-REF = _load_reference()
 
 
 def stadium(radius_m):

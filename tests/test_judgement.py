@@ -17,9 +17,7 @@ not-authorised to the right of a line 1500 m right of the centreline (our invent
 
 from __future__ import annotations
 
-import importlib.util
 import math
-from pathlib import Path
 
 import numpy as np
 import pytest
@@ -34,22 +32,11 @@ from briefer.core.maneuver import (
     wind_envelope,
 )
 from briefer.units import KT_TO_MPS, NM_TO_M
+from scalar_reference_support import REF
 
 RUNWAY_M = 2500.0
 R_M = 2.66 * NM_TO_M          # ICAO Cat B circling radius, Doc 8168 (as in tests/test_envelope.py)
 SECTOR_Y_M = 1500.0           # not authorised: y > 1500 m (right of the centreline)
-
-
-def _reference():
-    path = Path(__file__).resolve().parent.parent / "benchmarks" / "envelope_scalar_reference.py"
-    spec = importlib.util.spec_from_file_location("envelope_scalar_reference", path)
-    mod = importlib.util.module_from_spec(spec)
-    assert spec.loader is not None
-    spec.loader.exec_module(mod)
-    return mod
-
-
-REF = _reference()
 
 
 def margins(xy):
