@@ -436,5 +436,7 @@ async def test_clearing_a_runways_latitude_longitude_shows_its_chart_lines_at_on
             assert rw + (key,) in screen._inputs, f"no {key} line after the coordinates were cleared"
         assert rw + ("threshold_a", "lat_deg") in screen._inputs           # the cleared lines stay
         assert screen.focused is screen._inputs[rw + ("threshold_a", "lon_deg")]
+        # the status line names the item at fault (it read '1 to fix - : missing lat_deg ...')
+        assert "1 to fix - Runway 1" in screen.status_text and " - :" not in screen.status_text
         await type_fields(pilot, [(rw + ("heading_deg_mag",), "131"), (rw + ("length_ft",), "8000")])
         assert screen.texts["runways"][0]["heading_deg_mag"] == "131"

@@ -404,6 +404,28 @@ class FormScreen(Screen[Saved | None]):
         f = self._field_at(fpath)
         return f.label if f is not None else ""
 
+    def _place_words(self, path: FormPath) -> str:
+        """What the status line calls the item at `path`: the rows it is in and its label or
+        short title ('Runway 1, Threshold A', 'Approach 2, Missed approach point')."""
+        words: list[str] = []
+        for n, tok in enumerate(path):
+            if isinstance(tok, int):
+                rep = self._item_at(path[:n])
+                if isinstance(rep, Repeat):
+                    try:
+                        rows = self._rows(path[:n])
+                    except (KeyError, IndexError, TypeError):    # a path the texts no longer have
+                        rows = []
+                    named = str(rows[tok].get(rep.by, "")).strip() if rep.by and tok < len(rows) else ""
+                    words.append(f"{rep.item_title} {named.upper() or tok + 1}")   # 'Category C
+        item = self._item_at(path) if not isinstance(path[-1], int) else None
+        title = item.label if isinstance(item, Field) else getattr(item, "title", "") or ""
+        if title and not isinstance(item, Field):
+            title = title.split(" (")[0].split(":")[0]
+        if isinstance(item, Field):
+            return title                     # a field: its label, as beside the field
+        return ", ".join(words + ([title] if title else []))
+
     def _field_at(self, fpath: FormPath) -> Field | None:
         found = self._item_at(fpath)
         return found if isinstance(found, Field) else None
@@ -454,7 +476,8 @@ class FormScreen(Screen[Saved | None]):
         elif n:
             _path, msg = v.first_problem() or (None, "")
             t.append(f"{ERROR_MARK}{n} to fix", style="bold")
-            t.append(f" - {self._label_of(_path) if _path else ''}: {msg}" if _path else f" - {msg}")
+            where = self._place_words(_path) if _path else ""
+            t.append(f" - {where}: {msg}" if where else f" - {msg}")
         elif v.required:
             t.append(f"{len(v.required)} required still empty", style="bold")
         elif v.general:
