@@ -116,3 +116,12 @@ async def test_a_brief_of_the_same_heights_lays_nothing_out_and_a_new_line_is_la
         await settle(app, pilot)
         assert app.brief.minimums.cold is not None
         assert layouts and implies.size.height == lines + 1
+
+
+async def test_a_hold_that_runs_out_while_the_app_closes_does_no_harm():
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await _on_weather_step(app, pilot)
+        app.hold_frame()                    # an edit's hold ...
+    app.release_frame()                     # ... running out once the screens are gone
+    assert app._hold is None

@@ -15,7 +15,7 @@ from dataclasses import replace
 from typing import TYPE_CHECKING, Any
 
 from textual import on, work
-from textual.app import App, SystemCommand
+from textual.app import App, ScreenStackError, SystemCommand
 from textual.binding import Binding
 from textual.reactive import reactive
 from textual.screen import Screen
@@ -251,7 +251,11 @@ class BriefingApp(App[None]):
             self._hold = None
             timer.stop()
             stack.close()
-            self.screen.check_idle()      # the screen paints what changed meanwhile
+            try:
+                screen = self.screen
+            except ScreenStackError:      # the app is closing
+                return
+            screen.check_idle()           # the screen paints what changed meanwhile
 
     # --- messages up from the widgets ------------------------------------------------------
     @on(ChoiceList.Changed)
