@@ -185,8 +185,8 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
     for shape, cis in groups.items():
         g = len(cis)
         sigma = np.repeat([1.0 if candidates[ci][1] == "right" else -1.0 for ci in cis], m)
-        sol = solve_inputs(inputs, shape, sigma=sigma, wx_mps=np.tile(wx, g), wy_mps=np.tile(wy, g),
-                           bank_deg=np.tile(bank, g), descent=dg, roll_out_m=np.tile(d, g))
+        sol = solve_inputs(inputs, shape, sigma=sigma, wx_mps=_tile(wx, g), wy_mps=_tile(wy, g),
+                           bank_deg=_tile(bank, g), descent=dg, roll_out_m=_tile(d, g))
         ok_g = sol.ok.reshape(g, m)
         ok[:, cis] = ok_g.T
         ttime[:, cis] = np.where(ok_g, sum(lg.duration for lg in sol.legs).reshape(g, m), np.nan).T
@@ -196,6 +196,11 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
                         area=area, sector=sector, dist=dist)
     return CandidateBatch(ok=ok, area_margin_m=area, sector_bound=sector, max_distance_from_runway_m=dist,
                           total_time_s=ttime, solutions=tuple((tuple(cis), sol) for cis, sol in solved))
+
+
+def _tile(a: FloatArray, k: int) -> FloatArray:
+    """``np.tile`` of a 1-d array (k copies end to end), without its overhead on small arrays."""
+    return a if k == 1 else np.concatenate([a] * k)
 
 
 def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], ShapeSolution]],
@@ -397,13 +402,15 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
 
     kept: list[tuple[tuple[int, ...], ShapeSolution]] = []
 
-    def solve(rows: npt.NDArray[np.int_], lv: list[tuple[int, int]], shown: bool = True) -> list[LevelBest]:
+    def solve(rows: npt.NDArray[np.int_], lv: list[tuple[int, int]], shown: bool = True,
+              every: bool = False) -> list[LevelBest]:
         """One batch for the given winds at each of the levels ``lv``; the best per level (with
-        ``shown``, the fallback level's margins in full: its best is shown where nothing fits)."""
+        ``shown``, the fallback level's margins in full: its best is shown where nothing fits;
+        with ``every``, one LevelBest of every level's rows, level by level)."""
         k, m = len(lv), rows.size
         bank = np.repeat([levels.bank_deg[b] for _, b in lv], m)
         full = np.repeat([shown and lvl == fallback for lvl in lv], m)
-        batch = solve_candidates(inputs, cands, wx_mps=np.tile(wx[rows], k), wy_mps=np.tile(wy[rows], k),
+        batch = solve_candidates(inputs, cands, wx_mps=_tile(wx[rows], k), wy_mps=_tile(wy[rows], k),
                                  bank_deg=bank, roll_out_m=np.repeat([levels.roll_out_m[r] for r, _ in lv], m),
                                  margin_fn=margin_fn, descent=descent, turn_step_deg=turn_step_deg,
                                  n_straight=n_straight, visibility_m=visibility_m, all_margins=full)
@@ -412,6 +419,8 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         aoa_rows = None if aoa_margin_fn is None else np.repeat([aoa[levels.bank_deg[b]] for _, b in lv], m)
         lb = best_of_level(batch, bank_deg=bank, bank_limit_deg=bank_limit_deg, visibility_m=visibility_m,
                            area_radius_m=area_radius_m, aoa_margin_deg=aoa_rows)
+        if every:
+            return [lb]
         return [LevelBest(**{f: getattr(lb, f)[i * m:(i + 1) * m] for f in LevelBest.__slots__}) for i in range(k)]
 
     def settle(rows: npt.NDArray[np.int_], lvl: tuple[int, int], lb: LevelBest, shown: bool = True) -> None:
@@ -429,9 +438,9 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         resolved[rows[fit]] = True
 
     if eager:
-        everything = np.arange(n)
-        for lvl, lb in zip(order, solve(everything, order)):
-            settle(everything, lvl, lb)
+        lb_all = solve(np.arange(n), order, every=True)[0]
+        status, reasons, r_idx, b_idx, best_c, best_area, best_dist, slack = _settle_every_level(
+            lb_all, order, fallback, n)
     else:
         # the fallback's failures are reported only for the winds that fit at no level: when
         # later levels follow it, it is first solved as any level (pruned, for the winds it
@@ -453,6 +462,28 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
                          bank_index=b_idx, bank_needed_deg=bank_needed, roll_out_m=roll_out, best_candidate=best_c,
                          area_margin_m=best_area, max_distance_from_runway_m=best_dist, level_slack_m=slack,
                          solutions=tuple(kept))
+
+
+def _settle_every_level(lb: LevelBest, order: list[tuple[int, int]], fallback: tuple[int, int], n: int) -> tuple:
+    """The judgement of N winds from one LevelBest of every level (rows level by level, then
+    wind): the first level that fits, else the fallback level (its best shown with its
+    failures). What settling the levels one by one in ``order`` gives, in one step.
+
+    Returns (status, reasons, roll-out index, bank index, best candidate, its area margin, its
+    largest distance from the runway, the slack of each level (N, L)).
+    """
+    k = len(order)
+    fits = lb.fits.reshape(k, n)
+    any_fit = fits.any(axis=0)
+    level = np.where(any_fit, np.argmax(fits, axis=0), order.index(fallback))
+    pick = level * n + np.arange(n)
+    best, marg, fail = lb.best[pick], lb.marginal[pick], lb.failures[pick]
+    status = np.where(any_fit, np.where(marg == 0, FITS, MARGINAL), DOES_NOT_FIT).astype(np.int64)
+    reasons = np.where(any_fit, marg, np.where(best < 0, REASON_WIND, fail | REASON_BANK)).astype(np.int64)
+    r_idx = np.array([r for r, _ in order], dtype=np.int64)[level]
+    b_idx = np.array([b for _, b in order], dtype=np.int64)[level]
+    return (status, reasons, r_idx, b_idx, best.astype(np.int64), lb.area_margin_m[pick],
+            lb.max_distance_from_runway_m[pick], lb.slack_m.reshape(k, n).T.copy())
 
 
 def choose_plan_at_wind(inputs: CircleInputs, *, margin_fn: MarginFn, batch_margin_fn: MarginFn | None = None,
