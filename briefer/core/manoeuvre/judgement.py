@@ -43,7 +43,7 @@ from briefer._dataclass import dataclass, field
 import numpy as np
 import numpy.typing as npt
 
-from briefer.core.manoeuvre.legs import FloatArray
+from briefer.core.manoeuvre.legs import FloatArray, TurnProfile, ramp_q
 from briefer.core.manoeuvre.plans import candidate_plans
 from briefer.core.manoeuvre.ranking import (
     PlanChoice,
@@ -61,15 +61,16 @@ from briefer.core.manoeuvre.ranking import (
 from briefer.core.manoeuvre.solver import (
     CircleInputs,
     DescentGeometry,
+    LegArrays,
     Shape,
     ShapeSolution,
     Side,
     applicable_candidates,
     descent_geometry,
-    leg_end_distance_m,
     sample_solution,
     solve_inputs,
     take_rows,
+    turn_sample_count,
 )
 from briefer.errors import DomainError
 
@@ -80,6 +81,7 @@ BATCH_TURN_STEP_DEG = 7.5            # batch tracks: a point every 7.5 deg of ea
 BATCH_N_STRAIGHT = 5                 # ... and 5 points per straight (the final: its two ends)
 _INFEASIBLE = 1000                   # failure count of a candidate that cannot be flown
 DENSE_CHECK_M = 50.0                 # a level the batch rejects by less than this is checked on the full plans
+PROOF_MARGIN_M = 5.0                 # a coarse bound proves a failure only beyond the threshold by this
 _PRUNE_MIN_ROWS = 64                 # below this many rows every row is sampled (pruning costs more)
 
 
@@ -146,6 +148,129 @@ def _margins(margin_fn: MarginFn, xy: FloatArray) -> tuple[FloatArray, npt.NDArr
     return m, np.zeros(m.shape, dtype=bool)
 
 
+def _ramp_end_q(pr: TurnProfile, cache: dict[tuple[float, ...], complex]
+                ) -> tuple[FloatArray | float, FloatArray | float]:
+    """Q(tr) = C + i S of each row's roll-in ramp (:func:`briefer.core.manoeuvre.legs.ramp_q`),
+    (real, imag); computed once (and kept in ``cache``) when every row has the same ramp (one
+    bank, TAS and roll rate: the full turns of a level of the envelope)."""
+    if not pr.k > 0.0:
+        return 0.0, 0.0
+    tr, c, v = (np.asarray(a, dtype=float) for a in (pr.tr, pr.c, pr.tas))
+    if tr.size and tr.min() == tr.max() and c.min() == c.max() and v.min() == v.max():
+        key = (float(tr.flat[0]), float(c.flat[0]), float(v.flat[0]), pr.k)
+        if key not in cache:
+            cache[key] = complex(ramp_q(key[0], key[1], key[2], pr.k))
+        return cache[key].real, cache[key].imag
+    q = ramp_q(tr, c, v, pr.k)
+    return q.real, q.imag
+
+
+def _arc_counts(lg: LegArrays, turn_step_deg: float) -> npt.NDArray[np.int_] | int:
+    """The arc samples of a turn in the batch track: :func:`turn_sample_count` of each row's own
+    calm-wind angle (``nominal_rows``; one count for all rows without it)."""
+    if lg.nominal_rows is None:
+        return turn_sample_count(lg.nominal_rad, turn_step_deg)
+    return np.maximum(3, np.ceil(np.degrees(lg.nominal_rows) / turn_step_deg - 1e-9).astype(np.int64) + 1)
+
+
+def _coarse_points(sol: ShapeSolution, turn_step_deg: float, cache: dict[tuple[float, ...], complex]
+                   ) -> tuple[FloatArray, FloatArray]:
+    """A few of the batch track's points, x and y of shape (K, M): every leg's start and the
+    middle sample of the final turn's constant-bank arc (the farthest part of most tracks from
+    the runway), each the point :func:`sample_solution` makes up to rounding (there by a running
+    product over the arc, here directly: a few 1e-12 m apart at the demo's scale); rows that
+    cannot be flown hold garbage. [m]
+
+    The arc sample k of n (:func:`turn_sample_count` of the row's calm-wind angle) is at the
+    fraction f = k / (n - 1) of the arc. In the frame of a right turn from heading 0 the air
+    position is Q(tr) + r (sin h - sin dp, cos dp - cos h), h = dp + (A - 2 dp) f, r = V / w (the
+    circle of the constant-bank arc after the roll-in ramp, whose end is Q(tr)); a left turn
+    mirrors y; then the rotation to the entry heading psi0, the start point and the wind drift
+    w (tr + tc f) (the trochoid: ICAO Doc 8168 Vol II, Part I, Section 4, Chapter 7, wind
+    throughout the turn).
+    """
+    xs = [lg.x0 for lg in sol.legs]
+    ys = [lg.y0 for lg in sol.legs]
+    lg = sol.legs[sol.final_turn]
+    pr = lg.prof
+    assert pr is not None and lg.sign is not None
+    with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
+        n = _arc_counts(lg, turn_step_deg)
+        f = ((n - 1) // 2) / (n - 1)
+        r = pr.tas / np.maximum(pr.wp, 1e-12)
+        h = pr.dp + (pr.angle - 2.0 * pr.dp) * f
+        qx, qy = _ramp_end_q(pr, cache)
+        ax = qx + r * (np.sin(h) - np.sin(pr.dp))
+        ay = lg.sign * (qy + r * (np.cos(pr.dp) - np.cos(h)))
+        c0, s0 = np.cos(lg.psi0), np.sin(lg.psi0)
+        t = pr.tr + pr.tc * f
+        xs.append(lg.x0 + (ax * c0 - ay * s0) + sol.wx * t)
+        ys.append(lg.y0 + (ax * s0 + ay * c0) + sol.wy * t)
+    return np.stack(xs), np.stack(ys)
+
+
+def _runway_distance_m(x: FloatArray, y: FloatArray, runway_length_m: float) -> FloatArray:
+    """Distance from points to the runway (the segment from the threshold to the far end). [m]"""
+    return np.sqrt(np.square(x - np.minimum(np.maximum(x, 0.0), runway_length_m)) + np.square(y))
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class _Coarse:
+    """What a few track points prove, arrays (M, C): ``proven`` the candidate fails whatever its
+    other samples (its runway distance or area margin at a coarse point is beyond the threshold
+    by more than PROOF_MARGIN_M); the coarse largest runway distance and smallest margin."""
+
+    proven: npt.NDArray[np.bool_]
+    distance_m: FloatArray
+    margin_m: FloatArray
+    sector_bound: npt.NDArray[np.bool_]
+
+
+def _coarse_pass(solved: list[tuple[list[int], ShapeSolution]], ok: npt.NDArray[np.bool_], *,
+                 runway_length_m: float, visibility_m: float, margin_fn: MarginFn, turn_step_deg: float) -> _Coarse:
+    """Which flyable candidates (``ok``, (M, C)) fail on a few of their own track points (see
+    :class:`_Coarse`); ``solved``: (candidate indices, their solution, rows side-major).
+
+    The judged largest runway distance and smallest area margin of a track are the largest and
+    smallest over its samples; a coarse point is a sample (to rounding, under 1e-9 m), so a coarse
+    distance beyond the visibility, or a coarse margin below zero, by more than PROOF_MARGIN_M is
+    a failure of the sampled track too: more than the rounding, and more than any step the margin
+    function makes near zero (the area's sector edge tolerance, 1 m, below which a sector does
+    not count). A candidate proven to fail is not the best of a row that fits (it has a failure,
+    the best has none), so only the candidates not proven need their full samples.
+    """
+    m, c = ok.shape
+    dist = np.full((m, c), np.nan)
+    margin = np.full((m, c), np.nan)
+    sector = np.zeros((m, c), dtype=bool)
+    proven = np.zeros((m, c), dtype=bool)
+    cache: dict[tuple[float, ...], complex] = {}
+    for cis, sol in solved:
+        ok_s = ok[:, cis].T.ravel()                          # (side, row) in the solution's order
+        flat = np.flatnonzero(ok_s)
+        if flat.size == 0:
+            continue
+        r_idx, c_idx = flat % m, np.asarray(cis)[flat // m]
+        px, py = _coarse_points(sol, turn_step_deg, cache)
+        px, py = px[:, flat], py[:, flat]
+        d = np.max(_runway_distance_m(px, py, runway_length_m), axis=0)
+        dist[r_idx, c_idx] = d
+        far = d > visibility_m + PROOF_MARGIN_M
+        proven[r_idx[far], c_idx[far]] = True
+        near = ~far
+        if not near.any():
+            continue
+        xy = np.stack([px[:, near].T, py[:, near].T], axis=-1)[:, :, None, :]   # (tracks, K, 1, 2)
+        a, sec = _margins(margin_fn, xy)
+        worst = np.argmin(a, axis=1)
+        k = np.arange(worst.size)
+        rn, cn = r_idx[near], c_idx[near]
+        margin[rn, cn] = a[k, worst]
+        sector[rn, cn] = sec[k, worst]
+        proven[rn, cn] = a[k, worst] < -PROOF_MARGIN_M
+    return _Coarse(proven=proven, distance_m=dist, margin_m=margin, sector_bound=sector)
+
+
 def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side], ...], *, wx_mps: FloatArray,
                      wy_mps: FloatArray, bank_deg: FloatArray, roll_out_m: FloatArray, margin_fn: MarginFn,
                      descent: DescentGeometry | None = None, turn_step_deg: float = BATCH_TURN_STEP_DEG,
@@ -159,9 +284,9 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
     one solve (the side a sign per row) and one sampling call (each row's turns at its own
     counts, :func:`sample_solution` ``pad_rows``).
 
-    With ``visibility_m``, the area margins of a row whose every flyable candidate takes the
-    runway beyond the visibility (a row that cannot fit, whatever its margins) are left NaN,
-    except on the rows where ``all_margins`` is True (the level whose failures are reported).
+    With ``visibility_m`` (and many rows), a candidate that fails on a few of its own track
+    points is not sampled in full (:func:`_sample_and_margins`), except on the rows where
+    ``all_margins`` is True (the level whose failures are reported).
     """
     wx = np.asarray(wx_mps, dtype=float).ravel()
     m = wx.size
@@ -208,23 +333,30 @@ def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], Shap
                         n_straight: int, visibility_m: float | None, all_margins: npt.ArrayLike, area: FloatArray,
                         sector: npt.NDArray[np.bool_], dist: FloatArray) -> None:
     """The sampled tracks' largest distances from the runway and area margins, into ``dist``,
-    ``area`` and ``sector`` (M, C) (one sampling and one margin call per shape)."""
+    ``area`` and ``sector`` (M, C) (one sampling and one margin call per shape).
+
+    With ``visibility_m`` and at least ``_PRUNE_MIN_ROWS`` rows, a candidate that fails on a few
+    of its own track points (:func:`_coarse_pass`) is not sampled in full: it keeps the coarse
+    runway distance and area margin (enough to fail it), except on the rows where ``all_margins``
+    is True (the level whose failures are reported: every number exact); a candidate sampled
+    whose runway is beyond the visibility gets no area margin (NaN) except on those rows. The
+    candidates that might pass get every number exact, so whether a row fits, and its best
+    candidate, are what the full evaluation gives.
+    """
     length = inputs.runway_length_m
-    # rows that cannot fit (every flyable candidate already takes the runway out of sight at a leg's
-    # start point, an exact track point) are not sampled, except where all_margins asks for them
-    want = ok.any(axis=1)
+    full = np.asarray(all_margins, dtype=bool) + np.zeros(m, dtype=bool)
     prune = visibility_m is not None and m >= _PRUNE_MIN_ROWS
+    sampled = ok
     if prune:
-        lower = np.full(ok.shape, np.nan)
-        for cis, sol in solved:
-            lower[:, cis] = leg_end_distance_m(sol, length).reshape(len(cis), m).T
-        dist[:] = np.where(ok, lower, np.nan)        # replaced by the sampled tracks' where sampled
-        with np.errstate(invalid="ignore"):
-            near = lower <= visibility_m
-        want &= np.any(ok & near, axis=1) | (np.asarray(all_margins, dtype=bool) + np.zeros(m, dtype=bool))
+        co = _coarse_pass(solved, ok & ~full[:, None], runway_length_m=length, visibility_m=visibility_m,
+                          margin_fn=margin_fn, turn_step_deg=turn_step_deg)
+        sampled = ok & ~co.proven
+        dist[:] = np.where(co.proven, co.distance_m, np.nan)     # enough to fail them
+        area[:] = np.where(co.proven, co.margin_m, np.nan)
+        sector[:] = co.proven & co.sector_bound
     tracks = []
     for cis, sol in solved:
-        rows = (want[None, :] & ok[:, cis].T).ravel()        # (side, row) in the solution's order
+        rows = sampled[:, cis].T.ravel()                     # (side, row) in the solution's order
         if not rows.any():
             continue
         # a small batch samples every row (taking rows out costs more than sampling them)
@@ -241,14 +373,14 @@ def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], Shap
         r_idx, c_idx = flat % m, np.asarray(cis)[flat // m]
         dist[r_idx, c_idx] = np.sqrt(d2)
         tracks.append((r_idx, c_idx, xy))
-    # rows left out, or whose sampled tracks all take the runway beyond the visibility, get no margins
-    need = want.copy()
+    # a candidate whose sampled track takes the runway beyond the visibility fails whatever its
+    # margin: no margin, except on the rows reported in full
+    need = sampled
     if prune:
         with np.errstate(invalid="ignore"):
-            need &= np.any(ok & (dist <= visibility_m), axis=1) | (np.asarray(all_margins, dtype=bool)
-                                                                   + np.zeros(m, dtype=bool))
+            need = sampled & (~(dist > visibility_m) | full[:, None])
     for r_idx, c_idx, xy in tracks:
-        sel = need[r_idx]
+        sel = need[r_idx, c_idx]
         if not sel.any():
             continue
         a, sec = _margins(margin_fn, xy if sel.all() else xy[sel])
