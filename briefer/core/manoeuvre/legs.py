@@ -449,12 +449,32 @@ def _turn_air(t: Numeric, prof: TurnProfile, expand: int, heading: bool
     return x, y, h
 
 
+def _turn_air_end(prof: TurnProfile) -> tuple[FloatArray, FloatArray]:
+    """``_turn_air(prof.total, prof, 0, False)[:2]``, the air displacement over the whole turn,
+    with one quadrature: at the end the roll-in ramp is complete (Q(t1) = Q(tr)) and the roll-out
+    ramp too (t3 = 0, Q(0) = 0), so only Q(tr) is computed (the same numbers to the last bit)."""
+    tr, tc, dp, wp, v, a = prof.tr, prof.tc, prof.dp, prof.wp, prof.tas, prof.angle
+    t = prof.total
+    tc_ = _uclip(t - tr, 0.0, tc)
+    rp = v / np.maximum(wp, _TINY)
+    hb = dp + wp * tc_
+    x = rp * (np.sin(hb) - np.sin(dp))
+    y = rp * (np.cos(dp) - np.cos(hb))
+    if prof.k > 0.0:
+        q = _ramp_q_expanded(np.minimum(t, tr) + 0.0 * t, prof, 0)     # t1 = tr: the whole roll-in ramp
+        cr, sr = q.real, q.imag
+        ca, sa = np.cos(a), np.sin(a)
+        x = x + cr + ca * cr + sa * sr
+        y = y + sr + sa * cr - ca * sr
+    return x, y
+
+
 def turn_end_displacement(prof: TurnProfile, *, psi0: FloatArray, sign: FloatArray, wx: FloatArray,
                           wy: FloatArray) -> tuple[FloatArray, FloatArray]:
     """Ground displacement over a whole turn: ``turn_ground(prof.total, prof, x0=0, y0=0, ...)[:2]``
     without the heading (array kernel, arrays of one shape; the solver's turn legs)."""
     t = prof.total
-    big_x, big_y, _ = _turn_air(t, prof, 0, False)
+    big_x, big_y = _turn_air_end(prof)
     c0, s0 = np.cos(psi0), np.sin(psi0)
     sy = sign * big_y
     return 0.0 + big_x * c0 - sy * s0 + wx * t, 0.0 + big_x * s0 + sy * c0 + wy * t
