@@ -1007,15 +1007,35 @@ class ProtectedArea:
         t = t.reshape((-1,) + t.shape[-2:])                 # (tracks, N, 2)
         shp = t.shape[:-1]
         pts = np.ascontiguousarray(t.reshape(-1, 2))
-        hull = self.radius_m - np.asarray(self.distance_to_hull_m(pts), dtype=float)
-        hull_margin = hull.reshape(shp).min(axis=-1)
+        hull_margin = self._track_hull_margin_m(pts, shp)
         margin = hull_margin
         for sec in self.excluded:
-            depth = _counted_clearance_m(sec.clearance_m(pts), sector_edge_tolerance_m).reshape(shp).min(axis=-1)
+            # the smallest counted clearance of a track is its smallest clearance where that counts
+            # (counted: below -tolerance, else +inf), the same number without a test per point
+            low = np.asarray(sec.clearance_m(pts), dtype=float).reshape(shp).min(axis=-1)
+            depth = _counted_clearance_m(low, sector_edge_tolerance_m)
             if isinstance(sec, BearingSector) and shp[-1] >= 2:
                 depth = np.minimum(depth, _bisector_depth_m(sec, t, sector_edge_tolerance_m))
             margin = np.minimum(margin, depth)
         return margin.reshape(out_shape), (margin < hull_margin).reshape(out_shape)
+
+    def _track_hull_margin_m(self, pts: npt.NDArray[np.float64], shp: tuple[int, ...]) -> npt.NDArray[np.float64]:
+        """min over each track of R - dist(p, hull), points (T N, 2) of tracks of shape ``shp``.
+
+        With one or two hull vertices (a circle, a stadium) the distance is to one segment, and
+        R - sqrt(max of the squared distances) is the same number as the smallest R - distance
+        (sqrt and the subtraction round monotonically): one square root per track. [m]
+        """
+        if len(self.hull_m) > 2:
+            return (self.radius_m - np.asarray(self.distance_to_hull_m(pts), dtype=float)).reshape(shp).min(axis=-1)
+        (ax, ay), (bx, by) = self.hull_m[0], self.hull_m[-1]
+        sx, sy = bx - ax, by - ay
+        ss = sx * sx + sy * sy
+        rx, ry = pts[:, 0] - ax, pts[:, 1] - ay
+        if ss > 0.0:                          # as distance_to_segments_m does for one segment
+            t = np.clip((rx * sx + ry * sy) / ss, 0.0, 1.0)
+            rx, ry = rx - t * sx, ry - t * sy
+        return self.radius_m - np.sqrt((rx * rx + ry * ry).reshape(shp).max(axis=-1))
 
     def sector_clearance_m(self, points: ArrayLike) -> float:
         """Smallest signed clearance of the points to any excluded sector (negative: inside one);
