@@ -82,6 +82,7 @@ BATCH_N_STRAIGHT = 5                 # ... and 5 points per straight (the final:
 _INFEASIBLE = 1000                   # failure count of a candidate that cannot be flown
 DENSE_CHECK_M = 50.0                 # a level the batch rejects by less than this is checked on the full plans
 PROOF_MARGIN_M = 5.0                 # a coarse bound proves a failure only beyond the threshold by this
+_TAIL_ROWS = 512                     # few winds left: every level left in one batch (rows x levels)
 _PRUNE_MIN_ROWS = 64                 # below this many rows every row is sampled (pruning costs more)
 
 
@@ -574,19 +575,7 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         status, reasons, r_idx, b_idx, best_c, best_area, best_dist, slack = _settle_every_level(
             lb_all, order, fallback, n)
     else:
-        # the fallback's failures are reported only for the winds that fit at no level: when
-        # later levels follow it, it is first solved as any level (pruned, for the winds it
-        # fits), then again in full for the winds left (a wind's numbers do not depend on the
-        # other winds of a batch, so these are the numbers of one batch of every wind)
-        shown_in_turn = fallback == order[-1]
-        for lvl in order:
-            pending = np.flatnonzero(~resolved)
-            if pending.size == 0:
-                break
-            settle(pending, lvl, solve(pending, [lvl], shown_in_turn)[0], shown_in_turn)
-        left = np.flatnonzero(~resolved)
-        if not shown_in_turn and left.size:
-            settle(left, fallback, solve(left, [fallback])[0])
+        _level_by_level(order, fallback, resolved, solve, settle)
     fits = status != DOES_NOT_FIT
     bank_needed = np.where(fits, np.asarray(levels.bank_deg)[np.maximum(b_idx, 0)], np.nan)
     roll_out = np.where(fits, np.asarray(levels.roll_out_m)[np.maximum(r_idx, 0)], np.nan)
@@ -594,6 +583,39 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
                          bank_index=b_idx, bank_needed_deg=bank_needed, roll_out_m=roll_out, best_candidate=best_c,
                          area_margin_m=best_area, max_distance_from_runway_m=best_dist, level_slack_m=slack,
                          solutions=tuple(kept))
+
+
+def _level_by_level(order: list[tuple[int, int]], fallback: tuple[int, int], resolved: npt.NDArray[np.bool_],
+                    solve: Callable[..., list[LevelBest]], settle: Callable[..., None]) -> None:
+    """The envelope's way: level by level, each only for the winds still without a fitting plan.
+
+    The fallback's failures are reported only for the winds that fit at no level: when later
+    levels follow it, it is first solved as any level (pruned, for the winds it fits), then
+    again in full for the winds left. When few winds are left (``_TAIL_ROWS`` rows for every
+    level left and the fallback), every level left and the fallback in full are one batch:
+    a wind's numbers do not depend on the other rows of a batch, so each settles as if solved
+    alone, and a batch costs more than its rows when they are few.
+    """
+    shown_in_turn = fallback == order[-1]
+    for i, lvl in enumerate(order):
+        pending = np.flatnonzero(~resolved)
+        if pending.size == 0:
+            return
+        rest = order[i:]
+        if i > 0 and pending.size * (len(rest) + 1) <= _TAIL_ROWS:
+            lv = rest if fallback in rest else rest + [fallback]
+            lbs = dict(zip(lv, solve(pending, lv, True)))       # the fallback's rows in full
+            for later in rest:
+                settle(pending, later, lbs[later], shown_in_turn)
+            left = ~resolved[pending]
+            if not shown_in_turn and left.any():
+                lb = lbs[fallback]
+                settle(pending[left], fallback, LevelBest(**{f: getattr(lb, f)[left] for f in LevelBest.__slots__}))
+            return
+        settle(pending, lvl, solve(pending, [lvl], shown_in_turn)[0], shown_in_turn)
+    left_rows = np.flatnonzero(~resolved)
+    if not shown_in_turn and left_rows.size:
+        settle(left_rows, fallback, solve(left_rows, [fallback])[0])
 
 
 def _settle_every_level(lb: LevelBest, order: list[tuple[int, int]], fallback: tuple[int, int], n: int) -> tuple:
