@@ -247,28 +247,26 @@ def _coarse_pass(solved: list[tuple[list[int], ShapeSolution]], ok: npt.NDArray[
     proven = np.zeros((m, c), dtype=bool)
     cache: dict[tuple[float, ...], complex] = {}
     for cis, sol in solved:
+        g = len(cis)
         ok_s = ok[:, cis].T.ravel()                          # (side, row) in the solution's order
-        flat = np.flatnonzero(ok_s)
-        if flat.size == 0:
+        if not ok_s.any():
             continue
-        r_idx, c_idx = flat % m, np.asarray(cis)[flat // m]
-        px, py = _coarse_points(sol, turn_step_deg, cache)
-        px, py = px[:, flat], py[:, flat]
-        d = np.max(_runway_distance_m(px, py, runway_length_m), axis=0)
-        dist[r_idx, c_idx] = d
-        far = d > visibility_m + PROOF_MARGIN_M
-        proven[r_idx[far], c_idx[far]] = True
-        near = ~far
-        if not near.any():
-            continue
-        xy = np.stack([px[:, near].T, py[:, near].T], axis=-1)[:, :, None, :]   # (tracks, K, 1, 2)
-        a, sec = _margins(margin_fn, xy)
-        worst = np.argmin(a, axis=1)
-        k = np.arange(worst.size)
-        rn, cn = r_idx[near], c_idx[near]
-        margin[rn, cn] = a[k, worst]
-        sector[rn, cn] = sec[k, worst]
-        proven[rn, cn] = a[k, worst] < -PROOF_MARGIN_M
+        px, py = _coarse_points(sol, turn_step_deg, cache)   # every row (garbage where not ok)
+        with np.errstate(invalid="ignore", over="ignore"):
+            d = np.where(ok_s, np.max(_runway_distance_m(px, py, runway_length_m), axis=0), np.nan)
+            prov = d > visibility_m + PROOF_MARGIN_M
+        near = np.flatnonzero(ok_s & ~prov)
+        mg = np.full(g * m, np.nan)
+        sb = np.zeros(g * m, dtype=bool)
+        if near.size:
+            xy = np.stack([px[:, near].T, py[:, near].T], axis=-1)[:, :, None, :]   # (tracks, K, 1, 2)
+            a, sec = _margins(margin_fn, xy)
+            worst = np.argmin(a, axis=1)
+            k = np.arange(near.size)
+            mg[near], sb[near] = a[k, worst], sec[k, worst]
+            prov[near] = mg[near] < -PROOF_MARGIN_M
+        for arr, val in ((dist, d), (margin, mg), (sector, sb), (proven, prov)):
+            arr[:, cis] = val.reshape(g, m).T
     return _Coarse(proven=proven, distance_m=dist, margin_m=margin, sector_bound=sector)
 
 
