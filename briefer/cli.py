@@ -29,11 +29,37 @@ if TYPE_CHECKING:
 # console script imports this module, and `briefer --version` needs neither.
 
 
+def _terminal_columns() -> int:
+    """The terminal's width as ``shutil.get_terminal_size().columns`` says it (COLUMNS, else the
+    terminal of stdout, else 80), without importing shutil and the archive modules it brings."""
+    import os
+
+    try:
+        columns = int(os.environ["COLUMNS"])
+    except (KeyError, ValueError):
+        columns = 0
+    if columns <= 0:
+        try:
+            columns = os.get_terminal_size(sys.__stdout__.fileno()).columns or 80
+        except (AttributeError, ValueError, OSError):
+            columns = 80
+    return columns
+
+
 def _parser_class() -> type:
     import argparse
 
+    def help_formatter(prog: str) -> argparse.HelpFormatter:
+        # argparse's own width (the terminal's less 2); argparse makes a formatter for every
+        # option it adds, and the default one imports shutil to ask the width
+        return argparse.HelpFormatter(prog, width=_terminal_columns() - 2)
+
     class _Parser(argparse.ArgumentParser):
         """ArgumentParser whose usage errors are one line and exit code 2."""
+
+        def __init__(self, *args, **kwargs) -> None:
+            kwargs.setdefault("formatter_class", help_formatter)
+            super().__init__(*args, **kwargs)
 
         def error(self, message: str) -> None:  # type: ignore[override]
             self.exit(2, f"{self.prog}: error: {message} (see '{self.prog} --help')\n")

@@ -24,7 +24,6 @@ This module is pure: no file I/O, no YAML.
 from __future__ import annotations
 
 import datetime as _dt
-import difflib
 import math
 import numbers
 import re
@@ -213,6 +212,8 @@ def _describe(value: Any) -> str:
 
 def did_you_mean(word: str, options: Any) -> str:
     """' (did you mean 'x'?)' for the closest option, or ''."""
+    import difflib          # only when a word is wrong (start-up)
+
     options = list(options)
     lowered = {o.lower(): o for o in options}
     match = difflib.get_close_matches(str(word).lower(), list(lowered), n=1, cutoff=0.6)

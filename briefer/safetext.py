@@ -11,15 +11,26 @@ from __future__ import annotations
 import re
 
 _OTHERS = "\x7f-\x9f\u2028\u2029\u202a-\u202e\u2066-\u2069\ud800-\udfff"
-_CONTROL = re.compile(f"[\x00-\x08\x0b-\x1f{_OTHERS}]")       # tab and newline allowed
-_CONTROL_ANY = re.compile(f"[\x00-\x08\x0a-\x1f{_OTHERS}]")   # tab allowed
+_C0 = {True: "\x00-\x08\x0b-\x1f", False: "\x00-\x08\x0a-\x1f"}   # by allow_newline (tab always allowed)
+# ASCII text can hold only C0 and DEL: a small pattern, quick to compile; the full one (a character
+# class up to U+DFFF costs a millisecond to compile) only when some text is not ASCII
+_ASCII = {nl: re.compile(f"[{c0}\x7f]") for nl, c0 in _C0.items()}
+_FULL: dict[bool, re.Pattern[str]] = {}
 EXCERPT_CHARS = 60
+
+
+def _pattern(text: str, allow_newline: bool) -> re.Pattern[str]:
+    if text.isascii():
+        return _ASCII[allow_newline]
+    if allow_newline not in _FULL:
+        _FULL[allow_newline] = re.compile(f"[{_C0[allow_newline]}{_OTHERS}]")
+    return _FULL[allow_newline]
 
 
 def control_character(text: str, *, allow_newline: bool = False) -> str | None:
     """The first control character (or lone surrogate, or bidi override) in `text` as
     ``\\xNN``/``\\uNNNN``, or None. Tab is allowed; newline only with `allow_newline`."""
-    m = (_CONTROL if allow_newline else _CONTROL_ANY).search(text)
+    m = _pattern(text, allow_newline).search(text)
     return None if m is None else _code(m.group())
 
 
@@ -30,7 +41,7 @@ def _code(ch: str) -> str:
 
 def escape_text(text: str, *, keep_newline: bool = False) -> str:
     """`text` with control characters and lone surrogates escaped (``\\x1b``, ``\\ud800``)."""
-    return (_CONTROL if keep_newline else _CONTROL_ANY).sub(lambda m: _code(m.group()), text)
+    return _pattern(text, keep_newline).sub(lambda m: _code(m.group()), text)
 
 
 def excerpt(text: str, limit: int = EXCERPT_CHARS) -> str:
