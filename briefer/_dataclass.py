@@ -3,10 +3,13 @@
 Python 3.11's ``dataclasses.dataclass`` compiles every generated method (``__init__``,
 ``__repr__``, ``__eq__``, ``__hash__``, ``__setattr__``, ``__delattr__``) from source, one
 ``exec`` each: about a millisecond a class, and briefer defines about a hundred dataclasses, so
-that compiling was a third of ``briefer brief``'s own start-up. Here only ``__init__`` is
-compiled (its signature must be exact), when a class of its module is first instantiated, for
-all the module's classes in one ``exec`` (compiling costs mostly per call); the other
-methods are closures over the field names, with the same behaviour as the generated ones:
+that compiling was a third of ``briefer brief``'s own start-up. Here nothing is compiled when a
+class is defined. ``__init__`` (its signature must be exact) is a precompiled template whose
+parameters are renamed and counted for the class (``code.replace``, no ``exec``); once a class
+has made `UPGRADE_AFTER` instances, its own ``__init__`` is compiled from the standard source
+and replaces the template (the classes a brief makes a few times never pay for compiling, the
+ones made often run the compiled one). The other methods are closures over the field names,
+with the same behaviour as the generated ones:
 
 * ``__repr__``: ``Name(a=1, b='x')`` over the fields with ``repr=True``;
 * ``__eq__``: the tuples of the fields with ``compare=True``, for instances of the same class
@@ -23,9 +26,9 @@ another Python than 3.11) goes to the standard decorator unchanged.
 
 from __future__ import annotations
 
-import _thread
 import dataclasses as _dc
 import sys
+import types as _types
 from dataclasses import MISSING, Field, FrozenInstanceError, field, fields, replace
 
 __all__ = ["MISSING", "Field", "FrozenInstanceError", "dataclass", "field", "fields", "replace"]
@@ -159,47 +162,95 @@ def _check_defaults_order(all_fields: dict[str, Field]) -> None:
             raise TypeError(f"non-default argument {f.name!r} follows default argument")
 
 
-_pending: dict[str, list[tuple[list[type], dict[str, Field], bool, bool]]] = {}   # by module
-_lock = _thread.allocate_lock()
+UPGRADE_AFTER = 16
+"""Instances made with the quick ``__init__`` before the class's own is compiled."""
+
+_HAS_DEFAULT_FACTORY = _dc._HAS_DEFAULT_FACTORY          # type: ignore[attr-defined]
+_PLAIN, _FACTORY_ARG, _FACTORY, _DEFAULT = range(4)
 
 
-def _compile_pending(module: str) -> None:
-    """Compile the ``__init__`` of every class of ``module`` still waiting, in one ``exec``
-    (compiling is mostly a fixed cost per call), and put each in its class."""
-    with _lock:
-        batch = _pending.pop(module, [])
-        if not batch:
-            return
-        env: dict[str, object] = {"__dataclass_HAS_DEFAULT_FACTORY__": _dc._HAS_DEFAULT_FACTORY,  # type: ignore[attr-defined]
-                                  "__dataclass_builtins_object__": object}
-        src = "".join(_init_source(box[0], flds, frozen, slots, str(i), env)
-                      for i, (box, flds, frozen, slots) in enumerate(batch))
-        exec(src, env)
-        for i, (box, flds, _frozen, _slots) in enumerate(batch):
-            fn = env[f"__init_{i}__"]
-            cls = box[0]
-            fn.__name__ = "__init__"                                          # type: ignore[attr-defined]
-            fn.__qualname__ = f"{cls.__qualname__}.__init__"                  # type: ignore[attr-defined]
-            fn.__annotations__ = {**{f.name: f.type for f in flds.values() if f.init},  # type: ignore[attr-defined]
-                                  "return": None}
-            type.__setattr__(cls, "__init__", fn)
+def _fill(self, values: dict[str, object], spec: tuple) -> None:
+    """The body of every quick ``__init__``: set each field from the arguments (``values``, the
+    ``__init__``'s locals) as the generated body would, then ``__post_init__``."""
+    setter, plan, post_init, state = spec
+    for name, how, extra in plan:
+        if how == _PLAIN:
+            setter(self, name, values[name])
+        elif how == _FACTORY_ARG:
+            value = values[name]
+            setter(self, name, extra() if value is _HAS_DEFAULT_FACTORY else value)
+        elif how == _FACTORY:
+            setter(self, name, extra())
+        else:
+            setter(self, name, extra)
+    state[0] -= 1
+    if state[0] == 0:
+        _compile_init(*state[1:])
+    if post_init:
+        self.__post_init__()
 
 
-def _lazy_init(cls_box: list[type], all_fields: dict[str, Field], frozen: bool, slots: bool):
-    """An ``__init__`` that, when a class of its module is first instantiated, compiles the real
-    ones of that module's classes (:func:`_compile_pending`) and runs its own (a module none of
-    whose classes is instantiated in a run costs no compiling)."""
-    module = cls_box[0].__module__
-    _pending.setdefault(module, []).append((cls_box, all_fields, frozen, slots))
+def _template(__dataclass_self__):
+    _fill(__dataclass_self__, locals(), "__dataclass_spec__")
 
-    def __init__(self, *args, **kwargs) -> None:
-        _compile_pending(module)
-        real = cls_box[0].__dict__["__init__"]
-        if real is __init__:       # pragma: no cover - another thread is compiling this module
-            with _lock:
-                real = cls_box[0].__dict__["__init__"]
-        real(self, *args, **kwargs)
-    return __init__
+
+def _quick_init(cls_box: list[type], all_fields: dict[str, Field], frozen: bool, slots: bool):
+    """An ``__init__`` with the standard signature made without compiling anything: the code of
+    `_template` with the parameters renamed and counted (``code.replace``; its body reads them
+    through ``locals()``), so defining a class costs no ``exec``. After `UPGRADE_AFTER`
+    instances, the class's own ``__init__`` (generated source, as the standard decorator makes
+    it) is compiled and put in its place, so a class made often runs the compiled one."""
+    cls = cls_box[0]
+    init_fields = [f for f in all_fields.values() if f.init]
+    positional = [f for f in init_fields if not f.kw_only]
+    keyword = [f for f in init_fields if f.kw_only]
+    self_name = "__dataclass_self__" if "self" in all_fields else "self"
+    plan = []
+    for f in all_fields.values():
+        if f.default_factory is not MISSING:
+            plan.append((f.name, _FACTORY_ARG if f.init else _FACTORY, f.default_factory))
+        elif f.init:
+            plan.append((f.name, _PLAIN, None))
+        elif slots and f.default is not MISSING:
+            plan.append((f.name, _DEFAULT, f.default))
+
+    def default(f: Field) -> object:
+        return _HAS_DEFAULT_FACTORY if f.default_factory is not MISSING else f.default
+
+    state = [UPGRADE_AFTER, cls_box, all_fields, frozen, slots]
+    spec = (object.__setattr__ if frozen else setattr, tuple(plan), hasattr(cls, "__post_init__"), state)
+    code = _template.__code__
+    qualname = f"{cls.__qualname__}.__init__"
+    code = code.replace(co_argcount=1 + len(positional), co_kwonlyargcount=len(keyword),
+                        co_nlocals=1 + len(init_fields),
+                        co_varnames=(self_name, *(f.name for f in positional), *(f.name for f in keyword)),
+                        co_consts=tuple(spec if c == "__dataclass_spec__" else c for c in code.co_consts),
+                        co_name="__init__", co_qualname=qualname)
+    defaults = tuple(default(f) for f in positional if f.default is not MISSING or f.default_factory is not MISSING)
+    fn = _types.FunctionType(code, _template.__globals__, "__init__", defaults or None)
+    fn.__kwdefaults__ = {f.name: default(f) for f in keyword
+                         if f.default is not MISSING or f.default_factory is not MISSING} or None
+    _name_init(fn, cls, all_fields)
+    return fn
+
+
+def _name_init(fn, cls: type, all_fields: dict[str, Field]) -> None:
+    fn.__name__ = "__init__"
+    fn.__qualname__ = f"{cls.__qualname__}.__init__"
+    fn.__module__ = cls.__module__
+    fn.__annotations__ = {**{f.name: f.type for f in all_fields.values() if f.init}, "return": None}
+
+
+def _compile_init(cls_box: list[type], all_fields: dict[str, Field], frozen: bool, slots: bool) -> None:
+    """Compile the class's own ``__init__`` (the standard decorator's source) and put it in the
+    class, in place of the quick one (same signature, same behaviour)."""
+    cls = cls_box[0]
+    env: dict[str, object] = {"__dataclass_HAS_DEFAULT_FACTORY__": _HAS_DEFAULT_FACTORY,
+                              "__dataclass_builtins_object__": object}
+    exec(_init_source(cls, all_fields, frozen, slots, "0", env), env)
+    fn = env["__init_0__"]
+    _name_init(fn, cls, all_fields)
+    type.__setattr__(cls, "__init__", fn)
 
 
 def _row(names: tuple[str, ...]):
@@ -270,7 +321,7 @@ def _process(cls: type, *, repr: bool, eq: bool, frozen: bool, match_args: bool,
     cls_box = [cls]
     if "__init__" not in cls.__dict__:
         _check_defaults_order(all_fields)
-        cls.__init__ = _lazy_init(cls_box, all_fields, frozen, slots)             # type: ignore[misc]
+        cls.__init__ = _quick_init(cls_box, all_fields, frozen, slots)            # type: ignore[misc]
     for name, fn in _methods(cls_box, all_fields, repr=repr, eq=eq, frozen=frozen,
                              explicit_hash=explicit_hash).items():
         if name == "__hash__":

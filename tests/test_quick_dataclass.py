@@ -6,11 +6,22 @@ from __future__ import annotations
 
 import copy
 import dataclasses
+import inspect
 from typing import ClassVar
 
 import pytest
 
 from briefer import _dataclass
+
+
+@pytest.fixture(autouse=True, params=["quick", "compiled"])
+def init_kind(request, monkeypatch):
+    """Every test runs on both ``__init__``s a quick class has: the one made without compiling
+    (its first instances) and the compiled one that replaces it (from the first instance on,
+    here, instead of after ``UPGRADE_AFTER``)."""
+    if request.param == "compiled":
+        monkeypatch.setattr(_dataclass, "UPGRADE_AFTER", 1)
+    return request.param
 
 
 def _pair(make):
@@ -164,3 +175,22 @@ def test_other_pythons_get_the_standard_decorator(monkeypatch):
     std, quick = _pair(_frozen_kw)
     assert repr(std(x_m=2.0)) == repr(quick(x_m=2.0))
     assert quick.__init__.__qualname__.endswith("Point.__init__")
+
+
+def test_the_compiled_init_replaces_the_quick_one_after_some_instances(init_kind):
+    """Both ``__init__``s give the same instances, defaults, factories and argument errors as
+    the standard decorator's (reference), before and after the switch."""
+    std, quick = _pair(_frozen_positional)
+    first = quick.__init__
+    for i in range(_dataclass.UPGRADE_AFTER + 2):
+        assert repr(quick(i)).split(".")[-1] == repr(std(i)).split(".")[-1]
+        assert quick(i, "x", c=2.5) == quick(i, "x", 2.5)
+        for args, kwargs in (((), {}), ((1, "b", 1.0, 2), {}), ((1,), {"zz": 1}), ((1,), {"a": 2})):
+            errors = []
+            for cls in (std, quick):
+                with pytest.raises(TypeError) as exc:
+                    cls(*args, **kwargs)
+                errors.append(str(exc.value))
+            assert errors[0] == errors[1]
+    assert quick.__init__ is not first                                 # compiled by now
+    assert str(inspect.signature(quick)) == str(inspect.signature(std))
