@@ -476,6 +476,11 @@ def custom_field(schema: Mapping[str, Any], help: str, *, default: Any = MISSING
 _SPECS: dict[type, tuple[tuple[Any, Spec], ...]] = {}
 
 
+_KEYS: dict[type, tuple[str, ...]] = {}          # by model class: keys(), required_keys(), nested_models()
+_REQUIRED: dict[type, tuple[str, ...]] = {}
+_NESTED: dict[tuple[type, str], dict[str, type]] = {}
+
+
 def declared_fields(cls: type) -> tuple[tuple[Any, Spec], ...]:
     """(dataclass field, Spec) of every declared field of a model class, in the file's order."""
     found = _SPECS.get(cls)
@@ -625,13 +630,20 @@ class _Model:
     @classmethod
     def keys(cls) -> tuple[str, ...]:
         """Every key the file form of this model accepts, in the order files should use."""
-        header = ("kind", "format_version") if cls._kind else ()
-        return header + tuple(cls._extra_fields) + tuple(f.name for f in fields(cls) if f.init)  # type: ignore[arg-type]
+        found = _KEYS.get(cls)
+        if found is None:
+            header = ("kind", "format_version") if cls._kind else ()
+            found = _KEYS[cls] = header + tuple(cls._extra_fields) + tuple(f.name for f in fields(cls)  # type: ignore[arg-type]
+                                                                             if f.init)
+        return found
 
     @classmethod
     def required_keys(cls) -> tuple[str, ...]:
-        return tuple(f.name for f in fields(cls)  # type: ignore[arg-type]
-                     if f.init and f.default is MISSING and f.default_factory is MISSING)
+        found = _REQUIRED.get(cls)
+        if found is None:
+            found = _REQUIRED[cls] = tuple(f.name for f in fields(cls)  # type: ignore[arg-type]
+                                           if f.init and f.default is MISSING and f.default_factory is MISSING)
+        return found
 
     @classmethod
     def from_mapping(cls, data: Any, *, path: str = "") -> Any:
@@ -661,8 +673,11 @@ class _Model:
     @classmethod
     def nested_models(cls, kind: str = "") -> dict[str, type]:
         """Fields holding a nested model ('model'), a list of them ('models'), or either ('')."""
-        return {f.name: s.model for f, s in declared_fields(cls)
-                if s.kind in ("model", "models") and (s.kind == kind or not kind)}
+        found = _NESTED.get((cls, kind))
+        if found is None:
+            found = _NESTED[cls, kind] = {f.name: s.model for f, s in declared_fields(cls)
+                                          if s.kind in ("model", "models") and (s.kind == kind or not kind)}
+        return dict(found)
 
     @classmethod
     def _read(cls, data: Mapping[str, Any], path: str) -> dict[str, Any]:

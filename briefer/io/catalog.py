@@ -35,7 +35,7 @@ from typing import Any
 
 from briefer.errors import BriefingError, DataFileError
 from briefer.io.safefile import read_regular_file
-from briefer.io.yamlload import load_airfield, load_bytes, load_profile, parse_yaml_mapping
+from briefer.io.yamlload import load_airfield, load_bytes, load_profile, model_from_document, parse_yaml_mapping
 from briefer.model import KIND_AIRFIELD, KIND_PROFILE, AircraftProfile, Airfield, did_you_mean
 from briefer.safetext import excerpt
 
@@ -212,12 +212,17 @@ def _sources(kind: str, dirs: Sequence[str | PathLike[str]], use_config: bool) -
     return sources
 
 
-def _load(source: _Source, kind: str) -> Any:
+def _document(source: _Source) -> Any:
+    """The parsed file of a source (a `YamlDocument`; unreadable or bad YAML: `DataFileError`)."""
     try:
         data = source.read()
     except OSError as exc:
         raise DataFileError(f"cannot read the file ({exc.strerror or exc})", file=source.name) from None
-    return load_bytes(data, file=source.name, expected_kind=kind)
+    return parse_yaml_mapping(data, source.name)
+
+
+def _load(source: _Source, kind: str) -> Any:
+    return model_from_document(_document(source), kind)
 
 
 def _entry(source: _Source, kind: str) -> CatalogEntry:
@@ -261,6 +266,16 @@ def _names(model: Any, kind: str) -> Iterable[str]:
     return (model.name,) if kind == KIND_PROFILE else (model.ident, model.name)
 
 
+def _may_be_named(data: dict[str, Any], kind: str, wanted: str) -> bool:
+    """False when the file's own name keys (text, as the model takes them) are not `wanted`:
+    then its model, which carries those names, is not either, and need not be built."""
+    keys = ("name",) if kind == KIND_PROFILE else ("ident", "name")
+    values = [data.get(k) for k in keys]
+    if not all(isinstance(v, str) for v in values):
+        return True                                  # let the model say what it makes of them
+    return any(_loose(v) == wanted for v in values)
+
+
 def _find(kind: str, name_or_path: str | PathLike[str], dirs: Sequence[str | PathLike[str]],
           use_config: bool, names_only: bool = False) -> Any:
     text = str(name_or_path).strip()
@@ -268,16 +283,25 @@ def _find(kind: str, name_or_path: str | PathLike[str], dirs: Sequence[str | Pat
         path = os.path.expanduser(text)
         return load_profile(path) if kind == KIND_PROFILE else load_airfield(path)
     wanted = _loose(text)
-    available = []
-    for source in _sources(kind, dirs, use_config):  # in priority order: the first match wins
+    sources = _sources(kind, dirs, use_config)
+    for source in sources:                           # in priority order: the first match wins
         if _loose(source.stem) == wanted:
             return _load(source, kind)               # named by its file: a broken file says why
         try:
-            model = _load(source, kind)
+            doc = _document(source)
+            if not _may_be_named(doc.data, kind, wanted):
+                continue                             # its names are not the one asked for
+            model = model_from_document(doc, kind)
         except DataFileError:
             continue
         if any(_loose(n) == wanted for n in _names(model, kind)):
             return model
+    available = []                                   # not found: what the valid files are named
+    for source in sources:
+        try:
+            model = _load(source, kind)
+        except DataFileError:
+            continue
         available.append(model.name if kind == KIND_PROFILE else model.ident)
     hint = did_you_mean(text, available)
     listing = ", ".join(sorted(set(available))) or "none"
