@@ -1,7 +1,5 @@
 """`python -m briefer`."""
 
-import sys
+from briefer.cli import run
 
-from briefer.cli import main
-
-sys.exit(main())
+run()

@@ -209,5 +209,39 @@ def main(argv: list[str] | None = None) -> int:
         return 0
 
 
+def _nothing_left_to_clean_up() -> bool:
+    """No other thread and no exit handler: what the interpreter's teardown would do is only
+    freeing memory the process gives back anyway."""
+    import atexit
+
+    threading = sys.modules.get("threading")
+    if threading is not None and (threading.active_count() > 1 or getattr(threading, "_threading_atexits", None)):
+        return False
+    count = getattr(atexit, "_ncallbacks", None)
+    return count is not None and count() == 0
+
+
+def run() -> None:
+    """The ``briefer`` command (and ``python -m briefer``): `main`, then the process ends.
+
+    When the command is done and nothing is left to clean up (`_nothing_left_to_clean_up`), the
+    output is flushed and the process ends at once, without the interpreter's teardown (collecting
+    and freeing every object, unloading every module: a tenth of a brief's run). Otherwise, or
+    when flushing fails, the normal exit runs (which reports a failed flush).
+    """
+    code = main()
+    if _nothing_left_to_clean_up():
+        try:
+            for stream in (sys.stdout, sys.stderr):
+                if stream is not None:
+                    stream.flush()
+        except Exception:  # noqa: BLE001 - the normal exit says what went wrong
+            sys.exit(code)
+        import os
+
+        os._exit(code)
+    sys.exit(code)
+
+
 if __name__ == "__main__":
-    sys.exit(main())
+    run()
