@@ -3,8 +3,9 @@
 1. `briefer --version` start-up vs `python -c pass` (target: within 2x; must not import Textual).
 2. The app's first frame vs a minimal Textual app's first frame, in a fresh process each
    (headless run_test; target within 1.5x). "First frame" = the first screen update written to the
-   (headless) terminal, timed from the process's first line (imports included); the brief itself
-   follows in a worker, timed separately ("first brief"). (This was the end of the first
+   (headless) terminal, timed from the process's first line (imports included): the screen's
+   frame (title lines, tabs, caution); the step shown follows, filled ("step filled": its lists
+   and fields), then the brief, in a worker ("first brief"), each timed separately. (This was the end of the first
    `pilot.pause()` before, which waits for an idle CPU, i.e. for the first brief too.)
 3. Edit -> brief shown (in process, headless, with the app's own debounce; target <= 16 ms
    median): from an edit of the wind field to the brief built for it pushed into the widgets and
@@ -64,6 +65,18 @@ _App._display = _display
 from briefer.cli import build_parser
 from briefer.commands.app import inputs_from_args
 from briefer.tui.app import BriefingApp
+_filled = []
+_real_push = BriefingApp._push_inputs
+def _push(self, *a):                        # the inputs pushed into the lists and fields
+    _real_push(self, *a)
+    _pushed.append(1)
+_pushed = []
+BriefingApp._push_inputs = _push
+def _display2(self, screen, renderable):    # the first frame after that: the step shown filled
+    _display(self, screen, renderable)
+    if renderable is not None and _pushed and not _filled and not self._batch_count:
+        _filled.append(time.perf_counter() - t0)
+_App._display = _display2
 async def main():
     try:
         p, _ = build_parser("app")          # what `briefer app` builds: the app command's options only
@@ -75,7 +88,7 @@ async def main():
     async with app.run_test(size=(80, 24)) as pilot:
         while not (app.settled and app.brief is not None):
             await pilot.pause(0.005)
-        print(_first[0], time.perf_counter() - t0)
+        print(_filled[0] if _filled else float("nan"), _first[0], time.perf_counter() - t0)
 import asyncio; asyncio.run(main())
 """
 
@@ -100,26 +113,30 @@ def startup() -> None:
     print(f"  --version imports Textual: {out}")
 
 
-def first_frame_pairs(runs: int = RUNS) -> tuple[float, float, float, float]:
+def first_frame_pairs(runs: int = RUNS) -> tuple[float, float, float, float, float]:
     """(briefer app first frame, minimal app first frame, median of the pairwise ratios, briefer's
-    first brief), ms, medians, the two apps started in turn in fresh processes (the first pair
-    warms the file cache and is not counted)."""
-    frames, minimal, briefs = [], [], []
+    first brief, briefer's first frame with the step shown filled: its lists and fields), ms,
+    medians, the two apps started in turn in fresh processes (the first pair warms the file cache
+    and is not counted)."""
+    frames, minimal, briefs, filled = [], [], [], []
     for i in range(runs + 1):
         m = float(subprocess.run([PY, "-c", MINIMAL_APP], capture_output=True, text=True, check=True).stdout.split()[-1])
-        a, b = subprocess.run([PY, "-c", BRIEFER_APP], capture_output=True, text=True, check=True).stdout.split()[-2:]
+        f, a, b = subprocess.run([PY, "-c", BRIEFER_APP], capture_output=True, text=True, check=True).stdout.split()[-3:]
         if i:
             minimal.append(m)
             frames.append(float(a))
             briefs.append(float(b))
+            filled.append(float(f))
     return (statistics.median(frames) * 1e3, statistics.median(minimal) * 1e3,
-            statistics.median(f / m for f, m in zip(frames, minimal)), statistics.median(briefs) * 1e3)
+            statistics.median(f / m for f, m in zip(frames, minimal)), statistics.median(briefs) * 1e3,
+            statistics.median(filled) * 1e3)
 
 
 def first_frame() -> None:
-    app, minimal, ratio, brief = first_frame_pairs()
+    app, minimal, ratio, brief, filled = first_frame_pairs()
     print(f"minimal app first frame   {minimal:7.1f} ms")
     print(f"briefer app first frame   {app:7.1f} ms   ratio {ratio:.2f}x (median of pairs)")
+    print(f"briefer app step filled   {filled:7.1f} ms   (the first frame with the step's lists and fields)")
     print(f"briefer app first brief   {brief:7.1f} ms")
 
 

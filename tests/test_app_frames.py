@@ -125,3 +125,42 @@ async def test_a_hold_that_runs_out_while_the_app_closes_does_no_harm():
         app.hold_frame()                    # an edit's hold ...
     app.release_frame()                     # ... running out once the screens are gone
     assert app._hold is None
+
+
+async def test_the_step_shown_first_is_filled_before_the_other_steps_are_mounted(monkeypatch):
+    """The first frames: the screen's frame, then the aircraft step with its lists filled, and
+    only then the hidden steps and views are mounted (their widgets are most of the screen's)."""
+    seen: list[tuple[bool, bool]] = []          # per frame: (profile list filled, weather step mounted)
+    real = BriefingApp._display
+
+    def display(self, screen, renderable):
+        real(self, screen, renderable)
+        if renderable is not None and not self._batch_count and screen is self.main:
+            filled = bool(self.main.query("#profile") and self.main.query_one("#profile").option_count)
+            seen.append((filled, bool(self.main.query("#row-wind"))))
+
+    monkeypatch.setattr(BriefingApp, "_display", display)
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        assert app.main.query_one("#row-wind")
+    assert (True, False) in seen                # a frame with the step filled, the weather step not there yet
+    assert seen[-1] == (True, True)
+
+
+async def test_what_is_pushed_to_a_step_not_mounted_yet_reaches_it(monkeypatch):
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False)
+    real = app.main.__class__._mount_rest
+
+    async def later(self):                      # the app pushes a wind while the weather step is not there
+        assert not self.query("#row-wind")
+        self.set_field_text("wind", "300/20")
+        self.set_wind_reference("magnetic")
+        await real(self)
+
+    monkeypatch.setattr(app.main.__class__, "_mount_rest", later)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        assert app.main.query_one("#wind", Input).value == "300/20"
+        assert app.main.query_one("#ref-magnetic").value
+        assert app.inputs.weather.wind_from_deg == 300.0 and app.brief_inputs == app.inputs

@@ -102,8 +102,8 @@ class BriefingApp(App[None]):
             units: Display units, "us" or "icao" (briefer.display_units); `u` switches them.
         """
         super().__init__()
-        self._ascii_auto = ascii is None     # decided once the first frame is up (the check imports
-        ascii = bool(ascii)                  # the drawing code, which imports numpy)
+        self._ascii_auto = ascii is None     # decided when the first brief is back (_decide_ascii)
+        ascii = bool(ascii)
         self.catalog = catalog
         self.ascii = ascii
         self.debounce_s = debounce_s
@@ -134,12 +134,6 @@ class BriefingApp(App[None]):
 
     @on(BriefingScreen.Ready)
     def _screen_ready(self) -> None:
-        if self._ascii_auto:
-            from briefer.render.planview import braille_supported
-
-            self._ascii_auto = False
-            if self.ascii != (not braille_supported()):
-                self.action_toggle_ascii()
         self._push_inputs(self.inputs)
         # The first brief (and the numpy/core imports it needs) starts once the first frame is
         # painted: the screen shows "computing the brief..." until then.
@@ -150,6 +144,18 @@ class BriefingApp(App[None]):
 
     _starting = False
 
+    def _decide_ascii(self) -> None:
+        """Braille or ASCII drawings, as the terminal allows: decided when the first brief is
+        back (the check's module imports the drawing code and numpy, which the brief's worker
+        has imported by then; nothing is drawn before there is a brief but the envelope's
+        legend, which is redrawn)."""
+        if self._ascii_auto:
+            from briefer.render.planview import braille_supported
+
+            self._ascii_auto = False
+            if self.ascii != (not braille_supported()):
+                self.action_toggle_ascii()
+
     def _first_compute(self) -> None:
         self._starting = False
         if self._timer is None and not self.computing:
@@ -157,8 +163,9 @@ class BriefingApp(App[None]):
 
     @property
     def settled(self) -> bool:
-        """True when what is shown answers the current inputs (or they cannot be briefed)."""
-        return self._timer is None and not self.computing and not self._starting and (
+        """True when what is shown answers the current inputs (or they cannot be briefed), every
+        step mounted."""
+        return self._timer is None and not self.computing and not self._starting and self.main.all_mounted and (
             self.brief_inputs == self.inputs or self.stale is not None)
 
     # --- pushing inputs into the widgets ---------------------------------------------------
@@ -412,6 +419,7 @@ class BriefingApp(App[None]):
             self.call_from_thread(self._brief_done, inputs, request, brief)
 
     def _brief_done(self, inputs: BriefingInputs, request, brief: Brief) -> None:
+        self._decide_ascii()
         if self._newer_inputs(inputs):
             return                       # a newer edit is on its way
         self.brief, self.request, self.brief_inputs = brief, request, inputs
@@ -426,6 +434,7 @@ class BriefingApp(App[None]):
             self._want_envelope()
 
     def _brief_failed(self, inputs: BriefingInputs, message: str, field: str | None) -> None:
+        self._decide_ascii()
         if self._newer_inputs(inputs):
             return
         self._model_error = (field, message)
@@ -520,7 +529,7 @@ class BriefingApp(App[None]):
         tabs.active = pane_id
         first = self.FIRST_FOCUS.get(pane_id)
         if first is not None:
-            self.main.node(first).focus()
+            self.main.focus_node(first)
 
     def _move_step(self, delta: int) -> None:
         tabs = self.main.node("#steps", TabbedContent)

@@ -3,6 +3,7 @@
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from typing import TYPE_CHECKING
 
 from rich.text import Text
@@ -69,18 +70,18 @@ def _report_parser(text: str) -> str:
 
 
 class _LazyPane(Lazy):
-    """`textual.lazy.Lazy` that tells its screen once its widget is mounted."""
+    """`textual.lazy.Lazy` mounted when its screen says so (`BriefingScreen._mount_steps`)."""
 
     async def mount_composed_widgets(self, widgets: list[Widget]) -> None:
-        parent, screen = self.parent, self.screen
+        self.screen._lazies.append(self)
 
-        async def mount() -> None:
-            await parent.mount(self._replace_widget, after=self)
-            await self.remove()
-            screen._lazy_mounted()
+    @property
+    def pane_id(self) -> str:
+        return self.parent.id or ""
 
-        if parent is not None:
-            self.call_after_refresh(mount)
+    async def mount_now(self) -> None:
+        await self.parent.mount(self._replace_widget, after=self)
+        await self.remove()
 
 
 class BriefingScreen(Screen):
@@ -94,6 +95,9 @@ class BriefingScreen(Screen):
         self._node_cache: dict = {}           # selector -> widget (the DOM never changes: no re-query per keystroke)
         self._shown: dict[str, object] = {}   # Static id -> the Text it shows (unchanged text: no update)
         self._heights: dict[str, tuple[int, int | None]] = {}   # Static id -> (width, content height) shown
+        self._lazies = []                     # steps and views not mounted yet (see _lazy)
+        self._mounted_panes = set()
+        self._pending = {}                    # (kind, selector) -> what to do with it once mounted
 
     def node(self, selector, expect_type=None):
         """`query_one`, remembered (a query walks the whole DOM; this screen's widgets stay put)."""
@@ -127,7 +131,7 @@ class BriefingScreen(Screen):
         yield Static("", id="warnings")
         with TabbedContent(id="steps"):
             with TabPane(STEPS[0][1], id="aircraft"):
-                with Horizontal(classes="step"):
+                with self._lazy(Horizontal(classes="step")):
                     with Vertical(classes="step-inputs"):
                         yield ChoiceList(id="profile")
                         yield ChoiceList(id="configuration")
@@ -189,61 +193,113 @@ class BriefingScreen(Screen):
         yield Footer()
 
     def _lazy(self, widget):
-        """`widget`, mounted after the first frame (the hidden steps and views: fewer widgets to
-        style and lay out before the screen first shows)."""
-        self._lazy_pending += 1
+        """`widget`, mounted after the first frame: the step shown first, once that frame is
+        painted, then (once it is painted too) the other steps and views. The first frame has
+        fewer widgets to style and lay out, and the step the crew looks at is filled before the
+        hidden ones are mounted."""
         return _LazyPane(widget)
 
-    _lazy_pending = 0
+    _lazies: list[_LazyPane]
+    _mounted_panes: set[str]
+    _pending: dict[tuple[str, str], Callable[[Widget], object]]
 
-    def _lazy_mounted(self) -> None:
-        self._lazy_pending -= 1
-        if self._lazy_pending == 0:
-            self._all_mounted()
+    @property
+    def all_mounted(self) -> bool:
+        """Every step and view is mounted (their widgets can be queried)."""
+        return not self._lazies and self.is_mounted
 
     def on_mount(self) -> None:
-        if self._lazy_pending == 0:
-            self._all_mounted()
+        self.call_after_refresh(self._mount_steps)
 
-    def _all_mounted(self) -> None:
-        self.node("#profile", ChoiceList).border_title = "Aircraft profile"
-        self.node("#configuration", ChoiceList).border_title = "Configuration"
-        self.node("#airfield-list", ChoiceList).border_title = "Airfield"
-        for list_id in ("#profile", "#airfield-list"):       # the forms (briefer.tui.forms)
-            self.node(list_id, ChoiceList).border_subtitle = "F2 new  F3 edit"
-        self.node("#approach", ChoiceList).border_title = "Approach"
-        self.node("#runway-list", ChoiceList).border_title = "Landing runway"
+    async def _mount_steps(self) -> None:
+        active = self.node("#steps", TabbedContent).active
+        self._lazies.sort(key=lambda lazy: lazy.pane_id != active)     # the step shown first
+        if self._lazies:
+            await self._mount_lazy(self._lazies[0])
         self.post_message(self.Ready())
+        self.call_after_refresh(self._mount_rest)
+
+    async def _mount_rest(self) -> None:
+        while self._lazies:
+            await self._mount_lazy(self._lazies[0])
+
+    async def _mount_lazy(self, lazy: _LazyPane) -> None:
+        pane_id = lazy.pane_id
+        await lazy.mount_now()
+        self._lazies.remove(lazy)
+        self._mounted_panes.add(pane_id)
+        self._titles()
+        for key, call in list(self._pending.items()):     # what the app pushed before it was there
+            try:
+                widget = self.node(key[1])
+            except NoMatches:
+                continue
+            del self._pending[key]
+            call(widget)
+        if pane_id == self.node("#steps", TabbedContent).active:
+            self._draw_pane(pane_id)
+
+    def _titles(self) -> None:
+        for list_id, title, subtitle in (("#profile", "Aircraft profile", "F2 new  F3 edit"),
+                                         ("#configuration", "Configuration", ""),
+                                         ("#airfield-list", "Airfield", "F2 new  F3 edit"),   # the forms
+                                         ("#approach", "Approach", ""), ("#runway-list", "Landing runway", "")):
+            try:
+                choices = self.node(list_id, ChoiceList)
+            except NoMatches:
+                continue
+            choices.border_title = title
+            if subtitle:
+                choices.border_subtitle = subtitle
+
+    def _on_widget(self, kind: str, selector: str, call: Callable[[Widget], object]) -> None:
+        """`call(widget)` now, or when the step holding `selector` is mounted (the last call
+        of each `kind` for a widget is kept)."""
+        try:
+            widget = self.node(selector)
+        except NoMatches:
+            self._pending[(kind, selector)] = call
+            return
+        call(widget)
+
+    def focus_node(self, selector: str) -> None:
+        """Focus `selector` now, or when its step is mounted if that step is still shown (a
+        focused widget in a hidden step would pull its step back)."""
+        def focus(widget: Widget) -> None:
+            if self.node("#steps", TabbedContent).active_pane in widget.ancestors_with_self:
+                widget.focus()
+
+        self._on_widget("focus", selector, focus)
 
     class Ready(Message):
-        """The screen's widgets are mounted (the hidden panes' too, after the first frame): the
-        app may push the inputs down."""
+        """The step shown first is mounted (the others follow, see `all_mounted`): the app may
+        push the inputs down (what goes to steps not mounted yet is kept until they are)."""
 
     # --- pushed down by the app -------------------------------------------------------------
     def set_choices(self, list_id: str, choices: list[Choice], chosen: str | None) -> None:
-        self.node(f"#{list_id}", ChoiceList).set_choices(choices, chosen)
+        self._on_widget("choices", f"#{list_id}", lambda w: w.set_choices(choices, chosen))
 
     def set_field_text(self, name: str, text: str) -> None:
-        self.node(f"#row-{name}", FieldRow).set_text(text)
+        self._on_widget("text", f"#row-{name}", lambda w: w.set_text(text))
 
     def set_placeholder(self, name: str, text: str) -> None:
-        self.node(f"#row-{name}", FieldRow).set_placeholder(text)
+        self._on_widget("placeholder", f"#row-{name}", lambda w: w.set_placeholder(text))
 
     def set_note(self, name: str, text: str) -> None:
-        self.node(f"#row-{name}", FieldRow).show_note(text)
+        self._on_widget("note", f"#row-{name}", lambda w: w.show_note(text))
 
     def set_field_error(self, name: str, message: str | None) -> None:
-        try:
-            row = self.node(f"#row-{name}", FieldRow)
-        except NoMatches:
-            return
-        row.show_error(message)
+        self._on_widget("error", f"#row-{name}", lambda w: w.show_error(message))
 
     def set_wind_reference(self, reference: str) -> None:
         self._wind_ref = reference
-        button = self.node("#ref-magnetic" if reference == "magnetic" else "#ref-true", RadioButton)
-        if not button.value:
-            button.value = True
+        selector = "#ref-magnetic" if reference == "magnetic" else "#ref-true"
+
+        def press(button: Widget) -> None:
+            if not button.value:
+                button.value = True
+
+        self._on_widget("wind-ref", "#ref-true", lambda w: press(self.node(selector)))
 
     def set_units(self, units: str) -> None:
         """Show the brief's views in other display units (redrawn from the same brief)."""
@@ -258,9 +314,9 @@ class BriefingScreen(Screen):
 
     def set_ascii(self, ascii: bool) -> None:
         self.ascii = ascii
-        self.node(PlanCanvas).ascii = ascii
-        self.node(SideView).ascii = ascii
-        self.node(EnvelopePolar).unicode = not ascii
+        self._on_widget("ascii", "#plan-canvas", lambda w: setattr(w, "ascii", ascii))
+        self._on_widget("ascii", "#side-view", lambda w: setattr(w, "ascii", ascii))
+        self._on_widget("ascii", "#polar", lambda w: setattr(w, "unicode", not ascii))
         if self._legend_shown:
             self.show_envelope_legend()
         self._dirty |= {"plan", "sight"}
@@ -284,6 +340,8 @@ class BriefingScreen(Screen):
         self._draw_pane(event.pane.id or "")
 
     def _draw_pane(self, pane_id: str) -> None:
+        if pane_id not in self._mounted_panes:
+            return                     # drawn when it is mounted (see _mount_lazy)
         if pane_id == "envelope" and not self._legend_shown:
             self.show_envelope_legend()
         brief = self.brief
@@ -332,8 +390,11 @@ class BriefingScreen(Screen):
             self._update("warnings", views.warnings_line(brief, self.units))
 
     def show_envelope(self, envelope, brief: Brief | None) -> None:
-        self.node(EnvelopePolar).show(envelope, brief)
+        if "envelope" not in self._mounted_panes:
+            self._on_widget("envelope", "#polar", lambda w: self.show_envelope(envelope, brief))
+            return
         polar = self.node(EnvelopePolar)
+        polar.show(envelope, brief)
         text = ""
         if envelope is not None and brief is not None and brief.wind.reported:
             import math
