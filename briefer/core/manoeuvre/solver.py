@@ -672,15 +672,18 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
                          wx=k.wx, wy=k.wy)
 
 
-def _take(value: object, rows: npt.NDArray[np.int_], m: int) -> object:
-    if isinstance(value, np.ndarray):
+Rows = npt.NDArray[np.int_] | slice
+
+
+def _take(value: object, rows: Rows, m: int) -> object:
+    if type(value) is np.ndarray:
         return value[rows] if value.ndim >= 1 and value.shape[0] == m else value
-    if isinstance(value, (LegArrays, TurnProfile)):
+    if type(value) is LegArrays or type(value) is TurnProfile:
         return type(value)(**{f: _take(getattr(value, f), rows, m) for f in type(value).__slots__})
     return value
 
 
-def _take_leg(lg: LegArrays, rows: npt.NDArray[np.int_], m: int) -> LegArrays:
+def _take_leg(lg: LegArrays, rows: Rows, m: int) -> LegArrays:
     """A leg's rows; a turn's calm-wind angle (its sample count) becomes the largest of those rows'."""
     out = _take(lg, rows, m)
     assert isinstance(out, LegArrays)
@@ -689,8 +692,9 @@ def _take_leg(lg: LegArrays, rows: npt.NDArray[np.int_], m: int) -> LegArrays:
     return out
 
 
-def take_rows(sol: ShapeSolution, rows: npt.NDArray[np.int_]) -> ShapeSolution:
-    """The rows ``rows`` of a solution solved over one leading axis of M rows (winds, levels, sides)."""
+def take_rows(sol: ShapeSolution, rows: Rows) -> ShapeSolution:
+    """The rows ``rows`` of a solution solved over one leading axis of M rows (winds, levels, sides);
+    a slice gives views of the solution's arrays (read only: nothing here writes into them)."""
     m = sol.ok.shape[0]
     return ShapeSolution(**{f: (tuple(_take_leg(lg, rows, m) for lg in sol.legs) if f == "legs"
                                 else _take(getattr(sol, f), rows, m)) for f in ShapeSolution.__slots__})
