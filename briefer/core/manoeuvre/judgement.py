@@ -67,6 +67,7 @@ from briefer.core.manoeuvre.solver import (
     Side,
     applicable_candidates,
     descent_geometry,
+    merge_for_sampling,
     sample_solution,
     solve_inputs,
     take_rows,
@@ -327,6 +328,35 @@ def _tile(a: FloatArray, k: int) -> FloatArray:
     return a if k == 1 else np.concatenate([a] * k)
 
 
+def _sampled(solved: list[tuple[list[int], ShapeSolution]], sampled: npt.NDArray[np.bool_], m: int, *,
+             turn_step_deg: float, n_straight: int) -> list[tuple[npt.NDArray[np.int_], ...]]:
+    """(rows, candidates, tracks) of the cells ``sampled`` (M, C): every shape sampled in one
+    call where their legs match (:func:`merge_for_sampling`), else one call per shape."""
+    subs, idx = [], []
+    for cis, sol in solved:
+        rows = sampled[:, cis].T.ravel()                     # (side, row) in the solution's order
+        if not rows.any():
+            continue
+        # a small batch samples every row (taking rows out costs more than sampling them)
+        sub = sol if rows.all() or m < _PRUNE_MIN_ROWS else take_rows(sol, np.flatnonzero(rows))
+        flat = np.flatnonzero(rows)
+        subs.append((sub, None if sub is not sol or rows.all() else rows))
+        idx.append((flat % m, np.asarray(cis)[flat // m]))
+    merged = merge_for_sampling([sub for sub, _ in subs]) if len(subs) > 1 else None
+    groups = [merged] if merged is not None else [sub for sub, _ in subs]
+    xys = []
+    for sol in groups:
+        xy = sample_solution(sol, turn_step_deg=turn_step_deg, n_straight=n_straight, running_product=True,
+                             pad_rows=True).xy
+        if not sol.ok.all():
+            xy[~sol.ok] = 0.0
+        xys.append(xy)
+    if merged is not None:      # back to each shape's rows
+        ends = np.cumsum([sub.ok.shape[0] for sub, _ in subs])
+        xys = np.split(xys[0], ends[:-1])
+    return [(r, c, xy if keep is None else xy[keep]) for (r, c), (_, keep), xy in zip(idx, subs, xys)]
+
+
 def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], ShapeSolution]],
                         ok: npt.NDArray[np.bool_], m: int, *, margin_fn: MarginFn, turn_step_deg: float,
                         n_straight: int, visibility_m: float | None, all_margins: npt.ArrayLike, area: FloatArray,
@@ -354,22 +384,9 @@ def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], Shap
         area[:] = np.where(co.proven, co.margin_m, np.nan)
         sector[:] = co.proven & co.sector_bound
     tracks = []
-    for cis, sol in solved:
-        rows = sampled[:, cis].T.ravel()                     # (side, row) in the solution's order
-        if not rows.any():
-            continue
-        # a small batch samples every row (taking rows out costs more than sampling them)
-        sub = sol if rows.all() or m < _PRUNE_MIN_ROWS else take_rows(sol, np.flatnonzero(rows))
-        xy = sample_solution(sub, turn_step_deg=turn_step_deg, n_straight=n_straight, running_product=True,
-                             pad_rows=True).xy
-        if not sub.ok.all():
-            xy[~sub.ok] = 0.0
-        if sub is sol and not rows.all():
-            xy = xy[rows]
+    for r_idx, c_idx, xy in _sampled(solved, sampled, m, turn_step_deg=turn_step_deg, n_straight=n_straight):
         x = xy[..., 0]
         d2 = np.max(np.square(x - np.minimum(np.maximum(x, 0.0), length)) + np.square(xy[..., 1]), axis=-1)
-        flat = np.flatnonzero(rows)
-        r_idx, c_idx = flat % m, np.asarray(cis)[flat // m]
         dist[r_idx, c_idx] = np.sqrt(d2)
         tracks.append((r_idx, c_idx, xy))
     # a candidate whose sampled track takes the runway beyond the visibility fails whatever its
@@ -378,13 +395,14 @@ def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], Shap
     if prune:
         with np.errstate(invalid="ignore"):
             need = sampled & (~(dist > visibility_m) | full[:, None])
-    for r_idx, c_idx, xy in tracks:
-        sel = need[r_idx, c_idx]
-        if not sel.any():
-            continue
-        a, sec = _margins(margin_fn, xy if sel.all() else xy[sel])
-        area[r_idx[sel], c_idx[sel]] = a
-        sector[r_idx[sel], c_idx[sel]] = sec
+    picked = [(r[sel], c[sel], xy if sel.all() else xy[sel]) for r, c, xy in tracks
+              for sel in (need[r, c],) if sel.any()]
+    if len({xy.shape[-2] for _, _, xy in picked}) == 1 and len(picked) > 1:    # one call for tracks of one length
+        picked = [tuple(np.concatenate(part) for part in zip(*picked))]
+    for r_idx, c_idx, xy in picked:
+        a, sec = _margins(margin_fn, xy)
+        area[r_idx, c_idx] = a
+        sector[r_idx, c_idx] = sec
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

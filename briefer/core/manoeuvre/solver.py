@@ -700,6 +700,69 @@ def take_rows(sol: ShapeSolution, rows: Rows) -> ShapeSolution:
                                 else _take(getattr(sol, f), rows, m)) for f in ShapeSolution.__slots__})
 
 
+def _no_turn(before: LegArrays, like: LegArrays) -> LegArrays:
+    """A turn of no angle and no time at the start of leg ``before``: its samples are all that
+    point (the profile's speed and ramp constant from turn ``like``, so every number is finite)."""
+    pr = like.prof
+    assert pr is not None
+    z = np.zeros(np.shape(before.duration))
+    prof = TurnProfile(angle=z, tas=pr.tas + z, tr=z, tc=z, dp=z, wp=z, c=pr.c + z, k=pr.k, total=z)
+    return LegArrays(kind="turn", name="none", duration=z, x0=before.x0, y0=before.y0, psi0=before.psi0, prof=prof,
+                     sign=z + 1.0, dx=z, dy=z, nominal_rad=0.0, nominal_rows=z)
+
+
+def _concat_legs(legs: list[LegArrays]) -> LegArrays:
+    """Legs of one kind from several solutions, their rows end to end (the fields sampling reads)."""
+    cat = np.concatenate
+    a = legs[0]
+    if a.kind == "straight":
+        return LegArrays(kind="straight", name=a.name, duration=cat([lg.duration for lg in legs]),
+                         x0=cat([lg.x0 for lg in legs]), y0=cat([lg.y0 for lg in legs]),
+                         psi0=cat([lg.psi0 for lg in legs]), gx=cat([lg.gx for lg in legs]),
+                         gy=cat([lg.gy for lg in legs]))
+    profs = [lg.prof for lg in legs]
+    prof = TurnProfile(k=a.prof.k, **{f: cat([getattr(pr, f) for pr in profs])  # type: ignore[union-attr]
+                                       for f in ("angle", "tas", "tr", "tc", "dp", "wp", "c", "total")})
+    return LegArrays(kind="turn", name=a.name, duration=prof.total, x0=cat([lg.x0 for lg in legs]),
+                     y0=cat([lg.y0 for lg in legs]), psi0=cat([lg.psi0 for lg in legs]), prof=prof,
+                     sign=cat([lg.sign for lg in legs]), nominal_rad=max(lg.nominal_rad for lg in legs),
+                     nominal_rows=cat([lg.nominal_rows for lg in legs]))
+
+
+def merge_for_sampling(sols: list[ShapeSolution]) -> ShapeSolution | None:
+    """Solutions of several shapes (rows of one axis) as one, to be sampled in one call
+    (:func:`sample_solution` with ``pad_rows``): their legs matched kind by kind, a shape with
+    one leg fewer than the longest given a turn of no angle at its start (samples that repeat
+    its arrival point: the same track points, one more time). None when the legs do not match,
+    or the roll ramps differ. Only the fields sampling reads are meaningful.
+    """
+    n = max(len(sol.legs) for sol in sols)
+    legs: list[tuple[LegArrays, ...]] = []
+    for sol in sols:
+        lg = sol.legs
+        turns = [x for x in lg if x.kind == "turn"]
+        if len(lg) == n - 1 and lg[0].kind == "straight" and turns:
+            lg = (_no_turn(lg[0], turns[0]),) + lg
+        if len(lg) != n:
+            return None
+        legs.append(lg)
+    for i in range(n):
+        kinds = {lg[i].kind for lg in legs}
+        finals = {lg[i].name == "final" for lg in legs}
+        ks = {lg[i].prof.k for lg in legs if lg[i].prof is not None}
+        if len(kinds) > 1 or len(finals) > 1 or len(ks) > 1:
+            return None
+    cat = np.concatenate
+    ok = cat([sol.ok for sol in sols])
+    first = sols[0]
+    return ShapeSolution(shape=first.shape, ok=ok, reasons=cat([sol.reasons for sol in sols]),
+                         legs=tuple(_concat_legs([lg[i] for lg in legs]) for i in range(n)), x_ri=first.x_ri,
+                         y_ri=first.y_ri, offset=first.offset, roll_out_d=first.roll_out_d, abeam_s=None, break_s=None,
+                         psi_f=first.psi_f, gs_f=first.gs_f, psi_d=first.psi_d, gs_d=first.gs_d,
+                         final_turn=first.final_turn, turns_to_final=first.turns_to_final,
+                         wx=cat([sol.wx for sol in sols]), wy=cat([sol.wy for sol in sols]))
+
+
 def leg_end_distance_m(sol: ShapeSolution, runway_length_m: float) -> FloatArray:
     """Largest distance from the runway (threshold to far end) over the start points of the
     legs: exact track points, so a lower bound of the sampled track's largest distance. [m]"""
