@@ -22,10 +22,10 @@ from briefer.result import Brief
 
 
 class LabelGrid:
-    """Label/value rows, laid out as `Table.grid(padding=(0, 1))` with a bold unwrapped label
-    column lays them out (the same lines), but with the two columns' widths worked out from the
-    text's own lengths: a table measures every cell by rendering it, most of its cost, and the app
-    draws these grids on every brief."""
+    """Label/value rows drawn as `Table.grid(padding=(0, 1))` with a bold unwrapped label column
+    draws them (the same lines), the two columns' widths worked out from the text's own lengths:
+    a table measures every cell by rendering it, most of its cost, and the app draws these grids
+    on every brief."""
 
     def __init__(self) -> None:
         self.rows: list[tuple[str | Text, str | Text]] = []
