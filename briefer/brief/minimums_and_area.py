@@ -183,9 +183,10 @@ def _obstacles(s: Situation):
     (`core.minimums.controlling_obstacle_index`)."""
     obs = s.request.airfield.obstacles
     xy = [np.array(ob_xy, dtype=float) for ob_xy in s.layout.obstacles_m]
+    inside = minimums.obstacles_inside(s.area, np.array(xy).reshape(-1, 2)) if obs else ()
     drawn = tuple(ObstacleDrawing(name=ob.name, xy_m=frozen_array(oxy), elevation_ft=ob.elevation_ft,
-                                  inside_area=bool(s.area.contains(oxy))) for ob, oxy in zip(obs, xy))
-    idx = minimums.controlling_obstacle_index(s.area, np.array(xy).reshape(-1, 2), [ob.elevation_ft for ob in obs])
+                                  inside_area=bool(ins)) for ob, oxy, ins in zip(obs, xy, inside))
+    idx = minimums.highest_inside_index(inside, [ob.elevation_ft for ob in obs]) if obs else None
     return drawn, None if idx is None else obs[idx]
 
 

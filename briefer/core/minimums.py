@@ -58,6 +58,8 @@ __all__ = [
     "practice_minimums",
     "practice_minimums_for_airfield",
     "controlling_obstacle_index",
+    "highest_inside_index",
+    "obstacles_inside",
 ]
 
 PRACTICE_NOTICE = "PRACTICE VALUES — NOT A PUBLISHED PROCEDURE"
@@ -320,7 +322,18 @@ def controlling_obstacle_index(area: geometry.ProtectedArea, points_m: Any,
     """
     if len(elevations_ft) == 0:
         return None
-    inside = np.atleast_1d(np.asarray(area.contains(np.asarray(points_m, dtype=float).reshape(-1, 2))))
+    return highest_inside_index(obstacles_inside(area, points_m), elevations_ft)
+
+
+def obstacles_inside(area: geometry.ProtectedArea, points_m: Any) -> np.ndarray:
+    """Whether each obstacle (K, 2) (east, north) [m] is inside the authorised area, its boundary
+    included (`ProtectedArea.contains`, all in one call): shape (K,)."""
+    return np.atleast_1d(np.asarray(area.contains(np.asarray(points_m, dtype=float).reshape(-1, 2))))
+
+
+def highest_inside_index(inside: Sequence[bool] | np.ndarray, elevations_ft: Sequence[float]) -> int | None:
+    """Index of the highest obstacle among those ``inside`` (the first charted wins a tie); None
+    if none is (:func:`controlling_obstacle_index`)."""
     best: int | None = None
     for i in np.flatnonzero(inside):
         if best is None or elevations_ft[i] > elevations_ft[best]:
