@@ -220,6 +220,17 @@ def isa_pressure_hpa(pressure_altitude_ft: Numeric) -> Numeric:
     return angles.as_float(p / units.HPA_TO_PA)
 
 
+_PRESSURE_RANGE_HPA: list[tuple[float, float]] = []
+
+
+def _pressure_range_hpa() -> tuple[float, float]:
+    """The standard pressures at the top and the bottom of the altitude range [hPa] (computed once)."""
+    if not _PRESSURE_RANGE_HPA:
+        lo_ft, hi_ft = PRESSURE_ALTITUDE_RANGE_FT
+        _PRESSURE_RANGE_HPA.append((float(isa_pressure_hpa(hi_ft)), float(isa_pressure_hpa(lo_ft))))
+    return _PRESSURE_RANGE_HPA[0]
+
+
 def isa_pressure_altitude_ft(pressure_hpa: Numeric) -> Numeric:
     """Pressure altitude of a static pressure in the ICAO Standard Atmosphere (inverse of
     :func:`isa_pressure_hpa`).
@@ -249,9 +260,7 @@ def isa_pressure_altitude_ft(pressure_hpa: Numeric) -> Numeric:
     ----------
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 3.
     """
-    lo_ft, hi_ft = PRESSURE_ALTITUDE_RANGE_FT
-    p_min = float(isa_pressure_hpa(hi_ft))
-    p_max = float(isa_pressure_hpa(lo_ft))
+    p_min, p_max = _pressure_range_hpa()
     # a few 1e-9 of slack so the round trip at the range ends does not fail on rounding
     p_pa = _checked("pressure_hpa", pressure_hpa, p_min * (1 - 1e-9), p_max * (1 + 1e-9), "hPa") * units.HPA_TO_PA
     h_tropo = (T0_K / LAPSE_K_PER_M) * ((p_pa / P0_PA) ** (1.0 / _N_TROPO) - 1.0)   # [1] eq. inverted
