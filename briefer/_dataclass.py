@@ -27,6 +27,7 @@ another Python than 3.11) goes to the standard decorator unchanged.
 from __future__ import annotations
 
 import dataclasses as _dc
+import itertools as _itertools
 import sys
 import types as _types
 from dataclasses import MISSING, Field, FrozenInstanceError, field, fields, replace
@@ -313,19 +314,20 @@ def _methods(cls_box: list[type], all_fields: dict[str, Field], *, repr: bool, e
 
 
 def _process(cls: type, *, repr: bool, eq: bool, frozen: bool, match_args: bool, kw_only: bool, slots: bool) -> type:
-    cls.__dataclass_params__ = _dc._DataclassParams(True, repr, eq, False, False, frozen)  # type: ignore[attr-defined]
+    params = _dc._DataclassParams(True, repr, eq, False, False, frozen)          # type: ignore[attr-defined]
+    cls.__dataclass_params__ = params                                           # type: ignore[attr-defined]
     all_fields = _collect_fields(cls, frozen, kw_only)
-    cls.__dataclass_fields__ = all_fields                                       # type: ignore[attr-defined]
+    attrs: dict[str, object] = {"__dataclass_params__": params, "__dataclass_fields__": all_fields}
     class_hash = cls.__dict__.get("__hash__", MISSING)
     explicit_hash = not (class_hash is MISSING or (class_hash is None and "__eq__" in cls.__dict__))
     cls_box = [cls]
     if "__init__" not in cls.__dict__:
         _check_defaults_order(all_fields)
-        cls.__init__ = _quick_init(cls_box, all_fields, frozen, slots)            # type: ignore[misc]
+        attrs["__init__"] = _quick_init(cls_box, all_fields, frozen, slots)
     for name, fn in _methods(cls_box, all_fields, repr=repr, eq=eq, frozen=frozen,
                              explicit_hash=explicit_hash).items():
         if name == "__hash__":
-            cls.__hash__ = fn                                                       # type: ignore[assignment]
+            attrs["__hash__"] = fn
             continue
         if name in cls.__dict__:
             if name in ("__setattr__", "__delattr__"):
@@ -333,12 +335,33 @@ def _process(cls: type, *, repr: bool, eq: bool, frozen: bool, match_args: bool,
             continue
         if callable(fn):
             fn.__qualname__ = f"{cls.__qualname__}.{name}"                        # type: ignore[attr-defined]
-        setattr(cls, name, fn)
+        attrs[name] = fn
     if not getattr(cls, "__doc__"):
-        cls.__doc__ = f"{cls.__name__}({', '.join(all_fields)})"
+        attrs["__doc__"] = f"{cls.__name__}({', '.join(all_fields)})"
     if match_args and "__match_args__" not in cls.__dict__:
-        cls.__match_args__ = tuple(f.name for f in all_fields.values() if f.init and not f.kw_only)  # type: ignore[attr-defined]
+        attrs["__match_args__"] = tuple(f.name for f in all_fields.values() if f.init and not f.kw_only)
     if slots:
-        cls = _dc._add_slots(cls, frozen, False)                                  # type: ignore[attr-defined]
-        cls_box[0] = cls
+        cls = cls_box[0] = _slotted(cls, all_fields, frozen, attrs)
+        return cls
+    for name, value in attrs.items():
+        setattr(cls, name, value)
     return cls
+
+
+def _slotted(cls: type, all_fields: dict[str, Field], frozen: bool, attrs: dict[str, object]) -> type:
+    """The class made again with ``__slots__`` and `attrs` in its namespace, in one step (as
+    ``dataclasses._add_slots`` makes it, without setting each method on the class first: every
+    special method set on a class updates its slots)."""
+    cls_dict = dict(cls.__dict__)
+    cls_dict.update(attrs)
+    inherited = set(_itertools.chain.from_iterable(map(_dc._get_slots, cls.__mro__[1:-1])))  # type: ignore[attr-defined]
+    cls_dict["__slots__"] = tuple(name for name in all_fields if name not in inherited)
+    for name in all_fields:
+        cls_dict.pop(name, None)
+    cls_dict.pop("__dict__", None)
+    cls_dict.pop("__weakref__", None)
+    cls_dict["__qualname__"] = cls.__qualname__
+    if frozen:
+        cls_dict.setdefault("__getstate__", _dc._dataclass_getstate)              # type: ignore[attr-defined]
+        cls_dict.setdefault("__setstate__", _dc._dataclass_setstate)              # type: ignore[attr-defined]
+    return type(cls)(cls.__name__, cls.__bases__, cls_dict)

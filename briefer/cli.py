@@ -228,7 +228,14 @@ def run() -> None:
     output is flushed and the process ends at once, without the interpreter's teardown (collecting
     and freeing every object, unloading every module: a tenth of a brief's run). Otherwise, or
     when flushing fails, the normal exit runs (which reports a failed flush).
+
+    The cyclic garbage collector is off while a command runs (reference counting still frees
+    all but cycles): a command is short, and collecting while hundreds of modules and classes
+    load took a twentieth of a brief's run. The app, which runs for hours, turns it back on.
     """
+    import gc
+
+    gc.disable()
     code = main()
     if _nothing_left_to_clean_up():
         try:

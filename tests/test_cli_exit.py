@@ -61,3 +61,31 @@ def test_an_exit_handler_or_a_thread_gets_the_normal_exit(setup):
     done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, timeout=120)
     assert done.returncode == 0
     assert done.stdout.splitlines()[0].startswith("briefer ") and "ran" in done.stdout.splitlines()[-1]
+
+
+def test_the_app_collects_its_garbage(monkeypatch):
+    """cli.run turns the cyclic collector off for a command; the app, which runs for hours,
+    turns it back on before it starts."""
+    import gc
+
+    import briefer.tui.app
+    from briefer.cli import build_parser
+    from briefer.commands import app as app_command
+
+    seen = []
+
+    class FakeApp:
+        def __init__(self, *args, **kwargs) -> None:
+            pass
+
+        def run(self) -> None:
+            seen.append(gc.isenabled())
+
+    monkeypatch.setattr(briefer.tui.app, "BriefingApp", FakeApp)
+    parser, _ = build_parser("app")
+    gc.disable()
+    try:
+        assert app_command.run(parser.parse_args(["app", "--demo"])) == 0
+    finally:
+        gc.enable()
+    assert seen == [True]

@@ -96,6 +96,9 @@ def inputs_from_args(args: argparse.Namespace):
 
 
 def run(args: argparse.Namespace) -> int:
+    import gc
+
+    gc.enable()          # the app runs for hours: its garbage is collected (briefer.cli.run)
     from briefer.io.catalog import configured_units
 
     units = args.units or configured_units()
