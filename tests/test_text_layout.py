@@ -37,10 +37,11 @@ class _AsciiFile(io.StringIO):
     encoding = "ascii"
 
 
-def _cells(renderable, width: int, *, ascii_only: bool = False) -> list[list[tuple[str, Style]]]:
+def _cells(renderable, width: int, *, ascii_only: bool = False, legacy_windows: bool = False
+           ) -> list[list[tuple[str, Style]]]:
     """Each line's (character, style) pairs as the console lays them out."""
     c = Console(file=_AsciiFile() if ascii_only else io.StringIO(), width=width, force_terminal=True,
-                color_system="truecolor")
+                color_system="truecolor", legacy_windows=legacy_windows)
     lines: list[list[tuple[str, Style]]] = [[]]
     for seg in c.render(renderable, c.options):
         for ch in seg.text:
@@ -69,11 +70,11 @@ def test_label_rows_lay_out_as_a_rich_grid(width):
 
 
 @pytest.mark.parametrize("width", [4, 5, 10, 12, 13, 40, 80, 120])
-@pytest.mark.parametrize("ascii_only", [False, True])
-def test_titled_box_lays_out_as_a_rich_panel(width, ascii_only):
+@pytest.mark.parametrize("output", [{}, {"ascii_only": True}, {"legacy_windows": True},
+                                    {"ascii_only": True, "legacy_windows": True}])
+def test_titled_box_lays_out_as_a_rich_panel(width, output):
     panel = Panel(Group(*[Text(t) for t in CAUTIONS]), title="CAUTIONS", title_align="left")
-    assert _cells(TitledBox("CAUTIONS", CAUTIONS), width, ascii_only=ascii_only) == _cells(panel, width,
-                                                                                           ascii_only=ascii_only)
+    assert _cells(TitledBox("CAUTIONS", CAUTIONS), width, **output) == _cells(panel, width, **output)
 
 
 def test_a_name_that_looks_like_markup_is_shown_as_typed():

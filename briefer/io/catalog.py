@@ -212,13 +212,16 @@ def _sources(kind: str, dirs: Sequence[str | PathLike[str]], use_config: bool) -
     return sources
 
 
-def _document(source: _Source) -> Any:
-    """The parsed file of a source (a `YamlDocument`; unreadable or bad YAML: `DataFileError`)."""
+def _bytes(source: _Source) -> bytes:
     try:
-        data = source.read()
+        return source.read()
     except OSError as exc:
         raise DataFileError(f"cannot read the file ({exc.strerror or exc})", file=source.name) from None
-    return parse_yaml_mapping(data, source.name)
+
+
+def _document(source: _Source) -> Any:
+    """The parsed file of a source (a `YamlDocument`; unreadable or bad YAML: `DataFileError`)."""
+    return parse_yaml_mapping(_bytes(source), source.name)
 
 
 def _load(source: _Source, kind: str) -> Any:
@@ -266,6 +269,13 @@ def _names(model: Any, kind: str) -> Iterable[str]:
     return (model.name,) if kind == KIND_PROFILE else (model.ident, model.name)
 
 
+def _mentions(data: bytes, wanted: str) -> bool:
+    """False when the file's text cannot hold a value that is `wanted` loosely (`_loose`): every
+    value is written out in the text (a folded line or a quote doubled leaves its letters and
+    digits in order), except through an escape, so a file with a backslash is always read."""
+    return b"\\" in data or wanted in _loose(data.decode("utf-8", "replace"))
+
+
 def _may_be_named(data: dict[str, Any], kind: str, wanted: str) -> bool:
     """False when the file's own name keys (text, as the model takes them) are not `wanted`:
     then its model, which carries those names, is not either, and need not be built."""
@@ -288,7 +298,10 @@ def _find(kind: str, name_or_path: str | PathLike[str], dirs: Sequence[str | Pat
         if _loose(source.stem) == wanted:
             return _load(source, kind)               # named by its file: a broken file says why
         try:
-            doc = _document(source)
+            data = _bytes(source)
+            if not _mentions(data, wanted):
+                continue                             # the name asked for is nowhere in its text
+            doc = parse_yaml_mapping(data, source.name)
             if not _may_be_named(doc.data, kind, wanted):
                 continue                             # its names are not the one asked for
             model = model_from_document(doc, kind)

@@ -77,6 +77,17 @@ class LabelRows:
         return t
 
 
+_ROUNDED, _SQUARE, _ASCII = "╭─╮│╰╯", "┌─┐│└┘", "+-+|++"   # corners, line, side: rich.box's
+
+
+def _box(console: Console, options: ConsoleOptions) -> str:
+    """The box characters Rich's ``box.ROUNDED.substitute`` gives for this output: square corners
+    on a legacy Windows console (with safe boxes), plain ASCII where only ASCII can be shown."""
+    if options.ascii_only:
+        return _ASCII
+    return _SQUARE if options.legacy_windows and console.safe_box else _ROUNDED
+
+
 class TitledBox:
     """Lines of text in a box as wide as the space, the title on its top edge at the left
     (rounded corners; plain ASCII where the output cannot show box drawing)."""
@@ -86,18 +97,16 @@ class TitledBox:
         self.lines = lines
 
     def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
-        from rich.box import ROUNDED
-
         width = options.max_width
         title = f" {self.title} "
         if width < cell_len(title) + 4:
             yield self._panel()
             return
-        box = ROUNDED.substitute(options, safe=console.safe_box)
-        yield Segment(box.top_left + box.top + title + box.top * (width - 3 - cell_len(title)) + box.top_right)
+        top_left, edge, top_right, side, bottom_left, bottom_right = _box(console, options)
+        yield Segment(top_left + edge + title + edge * (width - 3 - cell_len(title)) + top_right)
         yield _NEW_LINE
         inner = width - 4
-        left, right = Segment(box.mid_left + " "), Segment(" " + box.mid_right)
+        left, right = Segment(side + " "), Segment(" " + side)
         for text in self.lines:
             for line in Text(text).wrap(console, inner, justify=options.justify, overflow=options.overflow,
                                         tab_size=console.tab_size or 8, no_wrap=options.no_wrap or False):
@@ -105,7 +114,7 @@ class TitledBox:
                 yield from Segment.adjust_line_length(list(line.render(console)), inner)
                 yield right
                 yield _NEW_LINE
-        yield Segment(box.bottom_left + box.bottom * (width - 2) + box.bottom_right)
+        yield Segment(bottom_left + edge * (width - 2) + bottom_right)
         yield _NEW_LINE
 
     def _panel(self):
