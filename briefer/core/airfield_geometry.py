@@ -22,7 +22,9 @@ from briefer._dataclass import dataclass, field
 from typing import Any
 
 import numpy as np
-import numpy.typing as npt
+TYPE_CHECKING = False
+if TYPE_CHECKING:    # numpy.typing for the type checker only (its import is slow)
+    import numpy.typing as npt
 
 from briefer.core import criteria as cr
 from briefer.core import geometry

@@ -32,7 +32,9 @@ from collections.abc import Mapping
 from typing import Any, Literal, Union
 
 import numpy as np
-import numpy.typing as npt
+TYPE_CHECKING = False
+if TYPE_CHECKING:    # numpy.typing for the type checker only (its import is slow)
+    import numpy.typing as npt
 
 from briefer.core._types import Numeric
 from briefer.errors import DomainError
@@ -61,7 +63,7 @@ __all__ = [
     "magnetic_from_true_deg",
 ]
 
-ArrayLike = npt.ArrayLike
+ArrayLike = npt.ArrayLike if TYPE_CHECKING else object
 
 WGS84_A_M = 6378137.0                 # [1] Table 3.1, semi-major axis
 WGS84_F = 1.0 / 298.257223563         # [1] Table 3.1, flattening

@@ -29,7 +29,9 @@ from briefer._dataclass import dataclass, field
 from typing import Literal, Union
 
 import numpy as np
-import numpy.typing as npt
+TYPE_CHECKING = False
+if TYPE_CHECKING:    # numpy.typing for the type checker only (its import is slow)
+    import numpy.typing as npt
 
 from briefer.core._types import Numeric
 from briefer.core.ranges import checked
@@ -38,7 +40,7 @@ from briefer.errors import DomainError
 from briefer.units import G0_MPS2, KT_TO_MPS, MPS_TO_KT
 from briefer.core.angles import cosd, sind, wrap_360
 
-FloatArray = npt.NDArray[np.float64]
+FloatArray = npt.NDArray[np.float64] if TYPE_CHECKING else np.ndarray
 Direction = Literal["left", "right"]
 
 BANK_MAX_DEG = 90.0

@@ -22,7 +22,9 @@ from collections.abc import Mapping
 from briefer._dataclass import dataclass, field
 
 import numpy as np
-import numpy.typing as npt
+TYPE_CHECKING = False
+if TYPE_CHECKING:    # numpy.typing for the type checker only (its import is slow)
+    import numpy.typing as npt
 
 from briefer.core.manoeuvre.legs import (
     FloatArray,

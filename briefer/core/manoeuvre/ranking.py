@@ -28,7 +28,9 @@ from briefer._dataclass import dataclass
 from typing import Callable, Literal
 
 import numpy as np
-import numpy.typing as npt
+TYPE_CHECKING = False
+if TYPE_CHECKING:    # numpy.typing for the type checker only (its import is slow)
+    import numpy.typing as npt
 
 from briefer.core.manoeuvre.plans import Plan, candidate_plans
 from briefer.core.manoeuvre.solver import CircleInputs
@@ -45,7 +47,8 @@ REASON_BANK, REASON_AREA, REASON_VISIBILITY, REASON_WIND, REASON_SECTOR, REASON_
 REASON_LIMIT = 64        # the wind is beyond the aircraft's crosswind or tailwind limit (no plan is offered)
 REASON_NOT_AUTHORISED = 128   # circling is not authorised for the category (no plan is offered)
 
-MarginFn = Callable[[npt.NDArray[np.float64]], "float | npt.NDArray[np.float64] | tuple"]
+MarginFn = (Callable[[npt.NDArray[np.float64]], "float | npt.NDArray[np.float64] | tuple"]
+            if TYPE_CHECKING else Callable)
 """margin_fn(track_xy) -> minimum area margin [m], positive inside. ``track_xy`` is a runway-frame
 array of shape (..., N, 2); the result has shape (...) (a float for one (N, 2) track). It may also
 answer a pair (margins, sector_bound): sector_bound True where the margin is a not-authorised

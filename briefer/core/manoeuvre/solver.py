@@ -79,7 +79,9 @@ from briefer._dataclass import dataclass, field
 from typing import Literal
 
 import numpy as np
-import numpy.typing as npt
+TYPE_CHECKING = False
+if TYPE_CHECKING:    # numpy.typing for the type checker only (its import is slow)
+    import numpy.typing as npt
 
 from briefer.core.manoeuvre.legs import (
     BANK_MAX_DEG,
@@ -672,7 +674,7 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
                          wx=k.wx, wy=k.wy)
 
 
-Rows = npt.NDArray[np.int_] | slice
+Rows = (npt.NDArray[np.int_] | slice) if TYPE_CHECKING else object
 
 
 def _take(value: object, rows: Rows, m: int) -> object:
