@@ -424,6 +424,13 @@ class LevelBest:
         return (self.best >= 0) & (self.failures == 0)
 
 
+_FAILURE_GROUPS = (REASON_BANK, REASON_AREA | REASON_SECTOR, REASON_VISIBILITY, REASON_STALL)
+_FAILURE_BITS = REASON_BANK | REASON_AREA | REASON_SECTOR | REASON_VISIBILITY | REASON_STALL
+_FAILURE_COUNT = np.array([sum((f & g) != 0 for g in _FAILURE_GROUPS) for f in range(_FAILURE_BITS + 1)],
+                          dtype=np.int64)
+"""The number of failures of each combination of failure bits (area and sector count as one)."""
+
+
 def best_of_level(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_deg: float, visibility_m: float,
                   area_radius_m: float | None, aoa_margin_deg: npt.ArrayLike | None) -> LevelBest:
     """Rank the candidates of each row as rank_plans does and check the best one (``bank_deg``
@@ -438,10 +445,7 @@ def best_of_level(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_
                              sector_bound=batch.sector_bound, visibility_m=visibility_m,
                              max_distance_from_runway_m=batch.max_distance_from_runway_m,
                              area_radius_m=area_radius_m, aoa_margin_deg=aoa_margin_deg)
-    nf = np.zeros(fail.shape, dtype=np.int64)
-    for bit in (REASON_BANK, REASON_AREA | REASON_SECTOR, REASON_VISIBILITY, REASON_STALL):
-        nf += (fail & bit) != 0
-    nf = np.where(batch.ok, nf, _INFEASIBLE)
+    nf = np.where(batch.ok, _FAILURE_COUNT[fail & _FAILURE_BITS], _INFEASIBLE)
     with np.errstate(invalid="ignore"):
         k2 = -np.round(np.minimum(batch.area_margin_m, visibility_m - batch.max_distance_from_runway_m))
         k3 = np.round(batch.total_time_s, 1)
