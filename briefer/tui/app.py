@@ -136,7 +136,7 @@ class BriefingApp(App[None]):
     def _screen_ready(self) -> None:
         self._push_inputs(self.inputs)
         # The first brief (and the numpy/core imports it needs) starts once the first frame is
-        # painted: the screen shows "computing the brief..." until then.
+        # painted: the summary line reads "computing the brief..." until then.
         self._starting = True
         self.call_after_refresh(self._first_compute)
         if self._notice:

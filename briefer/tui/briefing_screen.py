@@ -127,7 +127,7 @@ class BriefingScreen(Screen):
         self._heights[static_id] = (width, height)
 
     def compose(self) -> ComposeResult:
-        yield Static("", id="summary")
+        yield Static(Text("computing the brief...", style="bold"), id="summary")   # until the first one is back
         yield Static("", id="warnings")
         with TabbedContent(id="steps"):
             with TabPane(STEPS[0][1], id="aircraft"):
