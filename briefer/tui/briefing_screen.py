@@ -374,7 +374,8 @@ class BriefingScreen(Screen):
             warnings.set_class(stale is not None, "-stale")
             summary.set_class(stale is not None, "-stale")
         if brief is None:
-            self._update("summary", Text("No brief yet.", style="bold"))   # one line, always
+            self._update("summary", Text("No brief yet." if stale is not None else "computing the brief...",
+                                         style="bold"))   # one line, always
         else:
             from briefer.tui import views
 
