@@ -113,19 +113,17 @@ def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"
     codes = np.where(a <= AHEAD_TOL_DEG, 0, np.where(a >= 180.0 - AHEAD_TOL_DEG, 1, np.where(rel > 0, 2, 3)))
     dirs: list[MissedDirection] = [_DIRECTIONS[c] for c in codes.tolist()]
     # segments: runs of one (leg, direction), from the first point's time to the last's
-    times = np.asarray(plan.track_time_s, dtype=float).tolist()
-    legs = np.asarray(plan.track_leg_index).tolist()
+    times = np.asarray(plan.track_time_s, dtype=float)
+    legs = np.asarray(plan.track_leg_index)
     names = plan.leg_names
-    segs: list[MissedTurnSegment] = []
     n = min(len(dirs), len(times), len(legs))
-    i = 0
-    while i < n:
-        name, d = names[int(legs[i])], dirs[i]
-        j = i + 1
-        while j < n and dirs[j] == d and names[int(legs[j])] == name:
-            j += 1
-        segs.append(MissedTurnSegment(leg_name=name, start_s=float(times[i]), end_s=float(times[j - 1]), direction=d))
-        i = j
+    # runs of one (direction, leg name): a new run where either changes
+    name_ids = {name: k for k, name in enumerate(dict.fromkeys(names))}
+    key = codes[:n] * len(name_ids) + np.array([name_ids[name] for name in names])[legs[:n]]
+    starts = np.flatnonzero(np.concatenate([[True], key[1:] != key[:-1]])) if n else np.zeros(0, dtype=int)
+    ends = np.concatenate([starts[1:], [n]]) - 1
+    segs = [MissedTurnSegment(leg_name=names[int(legs[i])], start_s=float(times[i]), end_s=float(times[j]),
+                              direction=dirs[i]) for i, j in zip(starts.tolist(), ends.tolist())]
     return MissedApproachGuide(reference_xy_m=ref, relative_bearing_deg=rel, direction=tuple(dirs),
                                segments=tuple(segs))
 
@@ -148,10 +146,12 @@ def headline_missed_direction(plan: Plan, guide: MissedApproachGuide) -> str:
     skip = {i for i, name in enumerate(plan.leg_names) if name == "arrival"}
     if plan.leg_names and plan.leg_names[-1] == "final":
         skip.add(len(plan.leg_names) - 1)
-    weight = {"left": 0.0, "right": 0.0}
-    for d, t, leg in zip(guide.direction[:-1], dt.tolist(), legs.tolist()):
-        if d in weight and leg not in skip:
-            weight[d] += t
+    counted = ~np.isin(legs, list(skip))
+    sides = np.array(guide.direction[:-1], dtype=object)
+    weight = {}
+    for side in ("left", "right"):
+        held = dt[counted & (sides == side)]      # summed in order, as one running total
+        weight[side] = float(np.cumsum(held)[-1]) if held.size else 0.0
     if weight["left"] == weight["right"]:
         return plan.side if weight["left"] > 0 else ""
     return "left" if weight["left"] > weight["right"] else "right"
