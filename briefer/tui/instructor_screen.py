@@ -31,6 +31,7 @@ from briefer.cautions import SHORT_CAUTION
 from briefer.errors import BriefingError
 from briefer.vocabulary import DECK_SIZE_MAX, DECK_SIZE_WORDS, SEED_MAX, SEED_WORDS
 from briefer.instructor.scenario_format import EMPHASES, EMPHASIS_TITLES
+from briefer.tui.widgets._typing_input import TypingInput
 
 ANY_EMPHASIS = "any"
 
@@ -143,12 +144,12 @@ class InstructorScreen(Screen[None]):
                     yield row("Aircraft profile", Select(profs, id="profile", allow_blank=False,
                                                          value=self.first_profile or Select.BLANK))
                     yield row("Emphasis", Select(emph, id="emphasis", allow_blank=False, value=ANY_EMPHASIS))
-                    yield row("Seed", Input(str(self.seed), id="seed", type="integer"))
+                    yield row("Seed", TypingInput(str(self.seed), id="seed", type="integer"))
                     yield row("", Button("Generate (ctrl+g)", id="generate", variant="primary"))
-                    yield row("Scenario file", Input("", id="scenario-path", placeholder="scenario.yaml"))
+                    yield row("Scenario file", TypingInput("", id="scenario-path", placeholder="scenario.yaml"))
                     yield row("", Button("Write scenario (ctrl+w)", id="write-scenario"))
-                    yield row("Deck: how many scenarios", Input(str(self.deck_count), id="deck-count", type="integer"))
-                    yield row("Deck PDF", Input(str(self.out_dir / f"deck-{self.seed}.pdf"), id="deck-path"))
+                    yield row("Deck: how many scenarios", TypingInput(str(self.deck_count), id="deck-count", type="integer"))
+                    yield row("Deck PDF", TypingInput(str(self.out_dir / f"deck-{self.seed}.pdf"), id="deck-path"))
                     yield row("", Checkbox("Overwrite existing files", id="overwrite"))
                     yield row("", Button("Write deck (ctrl+d)", id="write-deck"))
             with TabPane("2 Student page", id="student-tab"):

@@ -14,6 +14,8 @@ from textual.containers import Horizontal, Vertical
 from textual.screen import ModalScreen
 from textual.widgets import Button, Checkbox, Input, Label, Static
 
+from briefer.tui.widgets._typing_input import TypingInput
+
 REPLACE_LABEL = "replace an existing file"
 
 
@@ -43,7 +45,7 @@ class PathScreen(ModalScreen["str | None"]):
     def compose(self) -> ComposeResult:
         with Vertical(id="path-dialog"):
             yield Label(self.title_text, id="path-title")
-            inp = Input(self.default, id="path-input")
+            inp = TypingInput(self.default, id="path-input")
             inp.cursor_blink = False
             yield inp
             yield Static("", id="path-error", markup=False)

@@ -21,6 +21,7 @@ from textual.screen import ModalScreen
 from textual.widgets import Button, Input, Label, Static
 
 from briefer.errors import BriefingError
+from briefer.tui.widgets._typing_input import TypingInput
 
 if TYPE_CHECKING:
     from briefer.io.runway_import import ImportResult
@@ -75,7 +76,7 @@ class ImportRunways(ModalScreen["ImportResult | None"]):
                     ("ident", "Identifier", self.ident or _LAST.get("ident", ""), "Q7HM"),
                     ("airports", "airports.csv", _LAST.get("airports", ""), _hint("airports.csv")),
                     ("runways", "runways.csv", _LAST.get("runways", ""), _hint("runways.csv"))):
-                inp = Input(value, placeholder=hint, id=f"import-{key}", compact=True)
+                inp = TypingInput(value, placeholder=hint, id=f"import-{key}", compact=True)
                 inp.cursor_blink = False
                 inp.styles.width = "1fr"
                 yield Horizontal(Label(label, classes="import-label"), inp, classes="import-line")

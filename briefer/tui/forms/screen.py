@@ -24,6 +24,7 @@ from textual.widget import Widget
 from textual.widgets import Button, Footer, Input, Label, Static
 
 from briefer.tui.forms.check import Checker, Verdict
+from briefer.tui.widgets._typing_input import TypingInput
 from briefer.tui.forms.spec import Field, FormPath, FormSpec, Group, Item, Repeat, blank_texts, new_row, shown
 from briefer.tui.forms.store import SaveError, Target, file_name, save_model, target_folder
 
@@ -48,7 +49,7 @@ def widget_id(prefix: str, fpath: FormPath) -> str:
     return prefix + "-" + "-".join(str(p) for p in fpath) if fpath else prefix
 
 
-class FormInput(Input):
+class FormInput(TypingInput):
     """A field's input; knows where its text lives in the form."""
 
     def __init__(self, fpath: FormPath, text: str, *, width: int, hint: str) -> None:

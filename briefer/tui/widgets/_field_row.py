@@ -12,6 +12,8 @@ from textual.widget import Widget
 from textual.message import Message
 from textual.widgets import Input, Label, Static
 
+from briefer.tui.widgets._typing_input import TypingInput
+
 ERROR_MARK = "✗ "
 
 
@@ -59,7 +61,7 @@ class FieldRow(Widget):
 
     def compose(self) -> ComposeResult:
         yield Label(self.label, classes="field-label")
-        inp = Input(placeholder=self._placeholder, id=self.field_name, compact=True, classes=self._input_classes)
+        inp = TypingInput(placeholder=self._placeholder, id=self.field_name, compact=True, classes=self._input_classes)
         inp.cursor_blink = False   # no idle redraws over a slow link
         yield inp
         yield Static(self._note, classes="field-note", markup=False)
