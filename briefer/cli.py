@@ -207,6 +207,18 @@ def main(argv: list[str] | None = None) -> int:
         return 130
     except BrokenPipeError:
         return 0
+    except OSError as exc:       # the output cannot be written (a full disk, a closed terminal)
+        _cannot_write(args.command, exc)
+        return 2
+
+
+def _cannot_write(command: str, exc: OSError) -> None:
+    """Say on stderr that the output could not be written (no traceback)."""
+    where = f" {exc.filename}" if getattr(exc, "filename", None) else " the output"
+    try:
+        print(f"briefer {command}: error: cannot write{where}: {exc.strerror or exc}", file=sys.stderr, flush=True)
+    except OSError:  # pragma: no cover - stderr itself is gone
+        pass
 
 
 def _nothing_left_to_clean_up() -> bool:
@@ -236,12 +248,25 @@ def run() -> None:
     import gc
 
     gc.disable()
-    code = main()
+    try:
+        code = main()
+    except OSError as exc:   # --version or the help could not be written (a command says so itself)
+        if isinstance(exc, BrokenPipeError):
+            code = 0
+        else:
+            _cannot_write(sys.argv[1] if len(sys.argv) > 1 else "app", exc)
+            code = 2
     if _nothing_left_to_clean_up():
         try:
             for stream in (sys.stdout, sys.stderr):
                 if stream is not None:
                     stream.flush()
+        except OSError as exc:   # the output's last part cannot be written (a full disk)
+            if code == 0:
+                _cannot_write(sys.argv[1] if len(sys.argv) > 1 else "app", exc)
+            import os
+
+            os._exit(2)
         except Exception:  # noqa: BLE001 - the normal exit says what went wrong
             sys.exit(code)
         import os

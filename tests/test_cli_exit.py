@@ -89,3 +89,15 @@ def test_the_app_collects_its_garbage(monkeypatch):
     finally:
         gc.enable()
     assert seen == [True]
+
+
+@pytest.mark.skipif(not os.path.exists("/dev/full"), reason="needs /dev/full (a device that is always full)")
+@pytest.mark.parametrize("args", [["brief", "--demo"], ["brief", "--demo", "--json"], ["--version"]])
+def test_output_that_cannot_be_written_is_one_message_and_exit_code_2(args):
+    """Writing to a full disk ended in a Python traceback (exit 1): one line now names the
+    problem, exit code 2 (bad input or a failed write never crashes)."""
+    with open("/dev/full", "w") as full:
+        done = subprocess.run(BRIEFER + args, stdout=full, stderr=subprocess.PIPE, text=True, timeout=120)
+    assert done.returncode == 2, done.stderr
+    assert "Traceback" not in done.stderr and "No space left on device" in done.stderr
+    assert len(done.stderr.strip().splitlines()) == 1
