@@ -53,3 +53,18 @@ def test_label_grids_render_as_rich_grids(monkeypatch, label, request_):
             options = console.options.update_width(width)
             assert console.render_lines(grid, options, pad=False) == console.render_lines(
                 _rich_grid(grid), options, pad=False), (label, width)
+
+
+def test_the_aircraft_steps_rows_line_up_in_one_column():
+    """The aircraft step's 'what this gives' was two grids, Category/Speeds/Weight then
+    Speed/Turn/Stall/Wind, whose texts started at different columns ('Weight   31000 lb' over
+    'Speed 163 kt IAS'); it is one grid now: every text starts in the same column."""
+    from briefer.brief import demo_request
+
+    console = Console(file=io.StringIO(), width=60, color_system=None, legacy_windows=False)
+    console.print(views.aircraft_implies(build_brief(demo_request())))
+    lines = console.file.getvalue().splitlines()[1:]          # below the heading
+    labelled = [ln for ln in lines if ln and not ln.startswith(" ")]
+    assert [ln.split()[0] for ln in labelled] == ["Category", "Speeds", "Weight", "Speed", "Turn", "Stall", "Wind"]
+    starts = {len(ln) - len(ln[len(ln.split()[0]):].lstrip()) for ln in labelled}
+    assert starts == {len("Category") + 1}, starts

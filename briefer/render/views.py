@@ -141,17 +141,26 @@ class PerformanceView:
         self.brief = brief
 
     def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
-        pf, w = self.brief.performance, self.brief.wind
         g = _kv_grid()
-        g.add_row("Speed", f"{pf.ias_kt:.0f} kt IAS = {pf.tas_kt:.0f} kt TAS at the MDA "
-                           f"(OAT {pf.oat_at_mda_c:.0f} °C, ISA{signed(pf.isa_deviation_c)}, DA {pf.density_altitude_ft:.0f} ft)")
-        g.add_row("Turn", f"{pf.bank_target_deg:.0f}° bank: radius {pf.turn_radius_nm:.2f} NM, "
-                          f"{pf.turn_rate_deg_per_s:.1f}°/s, 180° in {pf.time_180_s:.0f} s, {pf.load_factor:.2f} g")
-        sb = "n/a" if pf.stall_bank_deg is None else f"{pf.stall_bank_deg:.0f}°"
-        g.add_row("Stall", f"{pf.stall_speed_kt:.0f} kt in the turn ({stall_margin_words(pf.stall_margin_pct).replace('stall margin', 'margin')}); "
-                           f"AoA {pf.aoa_in_turn:.1f} of {pf.aoa_stall:.1f} {pf.aoa_unit}; wing stalls at {sb} bank")
-        g.add_row("Wind", f"{wind_words(w, compact=True)}: {wind_components_text(w)}; {wind_limits_words(w)}")
+        for label, text in performance_rows(self.brief):
+            g.add_row(label, text)
         yield g
+
+
+def performance_rows(brief: Brief) -> list[tuple[str, str]]:
+    """The performance at the MDA as (label, text) rows: speed, turn, stall, wind."""
+    pf, w = brief.performance, brief.wind
+    sb = "n/a" if pf.stall_bank_deg is None else f"{pf.stall_bank_deg:.0f}°"
+    margin = stall_margin_words(pf.stall_margin_pct).replace("stall margin", "margin")
+    return [
+        ("Speed", f"{pf.ias_kt:.0f} kt IAS = {pf.tas_kt:.0f} kt TAS at the MDA "
+                  f"(OAT {pf.oat_at_mda_c:.0f} °C, ISA{signed(pf.isa_deviation_c)}, DA {pf.density_altitude_ft:.0f} ft)"),
+        ("Turn", f"{pf.bank_target_deg:.0f}° bank: radius {pf.turn_radius_nm:.2f} NM, "
+                 f"{pf.turn_rate_deg_per_s:.1f}°/s, 180° in {pf.time_180_s:.0f} s, {pf.load_factor:.2f} g"),
+        ("Stall", f"{pf.stall_speed_kt:.0f} kt in the turn ({margin}); "
+                  f"AoA {pf.aoa_in_turn:.1f} of {pf.aoa_stall:.1f} {pf.aoa_unit}; wing stalls at {sb} bank"),
+        ("Wind", f"{wind_words(w, compact=True)}: {wind_components_text(w)}; {wind_limits_words(w)}"),
+    ]
 
 
 class SightPictureView:

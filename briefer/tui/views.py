@@ -14,7 +14,7 @@ from rich.measure import Measurement
 from rich.table import Table
 from rich.text import Text
 
-from briefer.render.views import MARK, STYLE, MinimumsView, PerformanceView, fmt
+from briefer.render.views import MARK, STYLE, MinimumsView, fmt, performance_rows
 from briefer.display_units import (DEFAULT_UNITS, altimeter_words, finding_text, visibility_reported_words,
                                    visibility_required_words, weight_words)
 from briefer.wording import area_edge_words, circling_speed_words, vref_words, wind_components_text, wind_limits_words, wind_words
@@ -128,7 +128,9 @@ def aircraft_implies(brief: Brief, units: str = DEFAULT_UNITS) -> RenderableType
     g.add_row("Category", cat)
     g.add_row("Speeds", f"{circling_speed_words(c)}; {vref_words(c)}")
     g.add_row("Weight", weight_words(brief.header.weight_lb, units))
-    return Group(Text("WHAT THIS GIVES", style="bold underline"), g, PerformanceView(brief))
+    for label, text in performance_rows(brief):      # one grid: the labels line up
+        g.add_row(label, text)
+    return Group(Text("WHAT THIS GIVES", style="bold underline"), g)
 
 
 def airfield_implies(brief: Brief, units: str = DEFAULT_UNITS) -> RenderableType:
