@@ -37,3 +37,23 @@ async def test_a_burst_of_editing_keys_and_characters_lands_in_the_order_typed()
         assert wind.value == "312/25"          # 310/20, 310/25, then 31|/25 -> 312/25
         await settle(app, pilot)
         assert app.inputs.weather.wind_from_deg == 312 and app.inputs.weather.wind_speed_kt == 25
+
+
+async def test_characters_typed_right_after_tab_go_to_the_next_field():
+    """Tab moved the focus only after the key had passed up to the app, so '270/12' typed right
+    after Tab went into the METAR field being left; Tab is now the screen's priority binding."""
+    app = BriefingApp(demo_catalog(), demo_inputs())
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        await pilot.press("4")
+        await settle(app, pilot)
+        report = app.main.query_one("#report", Input)
+        report.focus()
+        await settle(app, pilot)
+        _burst(app, ["tab", "end", "ctrl+u", *"270/12"])
+        await settle(app, pilot)
+        assert report.value == ""
+        assert app.main.query_one("#wind", Input).value == "270/12"
+        _burst(app, ["shift+tab", *"x", "tab"])     # back, a slip in the METAR field, forward again
+        await settle(app, pilot)
+        assert report.value == "x" and app.focused is app.main.query_one("#wind", Input)

@@ -25,6 +25,7 @@ from briefer.tui.state import (
     parse_wind_text,
 )
 from briefer.tui.widgets import Choice, ChoiceList, EnvelopePolar, FieldRow, PlanCanvas, SideView
+from briefer.tui.widgets._typing_input import FOCUS_KEYS
 
 # The briefing step's typed numbers: unit words and the model's own plausibility range (the one
 # declared with BriefRequest's and Weather's fields), so that a value is refused beside its field
@@ -86,6 +87,8 @@ class _LazyPane(Lazy):
 
 class BriefingScreen(Screen):
     """Steps and views in tabs, the brief's summary and warnings on top, the caution below."""
+
+    BINDINGS = [*FOCUS_KEYS]
 
     def __init__(self, *, ascii: bool = False, units: str = "us") -> None:
         super().__init__(id="briefing")

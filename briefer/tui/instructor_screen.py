@@ -31,7 +31,7 @@ from briefer.cautions import SHORT_CAUTION
 from briefer.errors import BriefingError
 from briefer.vocabulary import DECK_SIZE_MAX, DECK_SIZE_WORDS, SEED_MAX, SEED_WORDS
 from briefer.instructor.scenario_format import EMPHASES, EMPHASIS_TITLES
-from briefer.tui.widgets._typing_input import TypingInput
+from briefer.tui.widgets._typing_input import FOCUS_KEYS, TypingInput
 
 ANY_EMPHASIS = "any"
 
@@ -80,6 +80,7 @@ class InstructorScreen(Screen[None]):
     """
 
     BINDINGS = [
+        *FOCUS_KEYS,
         Binding("ctrl+g", "generate", "Generate"),
         Binding("ctrl+w", "write_scenario", "Write scenario"),
         Binding("ctrl+d", "write_deck", "Write deck"),

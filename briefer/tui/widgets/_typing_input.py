@@ -3,7 +3,16 @@
 from __future__ import annotations
 
 from textual import events
+from textual.binding import Binding
 from textual.widgets import Input
+
+FOCUS_KEYS = [
+    Binding("tab", "app.focus_next", "Next field", show=False, priority=True),
+    Binding("shift+tab", "app.focus_previous", "Previous field", show=False, priority=True),
+]
+"""Tab and shift+Tab as a screen's priority bindings: the focus moves when the key arrives, before
+the keys typed after it are handed out (as a plain binding Tab took effect only after passing up
+to the app, so characters typed right after it went into the field being left)."""
 
 
 class TypingInput(Input):
