@@ -22,15 +22,21 @@ def _burst(app, keys: list[str]) -> None:
         app.post_message(events.Key(_character_to_key(k) if len(k) == 1 else k, k if len(k) == 1 else None))
 
 
+async def _in_weather_field(app, pilot, field_id: str) -> Input:
+    """Settle, show the weather step (4) and put the cursor in one of its fields."""
+    await settle(app, pilot)
+    await pilot.press("4")
+    await settle(app, pilot)
+    field = app.main.query_one(f"#{field_id}", Input)
+    field.focus()
+    await settle(app, pilot)
+    return field
+
+
 async def test_a_burst_of_editing_keys_and_characters_lands_in_the_order_typed():
     app = BriefingApp(demo_catalog(), demo_inputs())
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(app, pilot)
-        await pilot.press("4")
-        await settle(app, pilot)
-        wind = app.main.query_one("#wind", Input)
-        wind.focus()
-        await settle(app, pilot)
+        wind = await _in_weather_field(app, pilot, "wind")
         assert wind.value == "240/10G16"
         _burst(app, ["end", "ctrl+u", *"310/20", "backspace", "5", "left", "left", "left", "backspace", "2"])
         await settle(app, pilot)
@@ -44,12 +50,7 @@ async def test_characters_typed_right_after_tab_go_to_the_next_field():
     after Tab went into the METAR field being left; Tab is now the screen's priority binding."""
     app = BriefingApp(demo_catalog(), demo_inputs())
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(app, pilot)
-        await pilot.press("4")
-        await settle(app, pilot)
-        report = app.main.query_one("#report", Input)
-        report.focus()
-        await settle(app, pilot)
+        report = await _in_weather_field(app, pilot, "report")
         _burst(app, ["tab", "end", "ctrl+u", *"270/12"])
         await settle(app, pilot)
         assert report.value == ""
