@@ -22,6 +22,7 @@ from briefer.model import KIND_AIRFIELD, BriefRequest, Weather
 from briefer.tui.forms.airfield_form import AIRFIELD_FORM, MISSING_WORDS
 from briefer.tui.forms.import_dialog import ImportRunways
 from briefer.tui.forms.plan import plan_scene
+from briefer.tui.forms.profile_form import PROFILE_FORM
 from briefer.tui.forms.screen import FormScreen
 from briefer.tui.forms.store import file_text, target_folder
 
@@ -158,10 +159,7 @@ async def test_a_bad_csv_file_is_the_importers_file_line_column_message_in_the_d
 async def test_the_aircraft_form_has_no_import():
     app = form_app()
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(app, pilot)
-        await pilot.press("f2")
-        await pilot.pause()
-        screen = app.screen
+        screen = await open_new_form(app, pilot, "1", PROFILE_FORM)
         await pilot.press("f4")
         await pilot.pause()
         assert app.screen is screen

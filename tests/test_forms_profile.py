@@ -12,7 +12,7 @@ import os
 from pathlib import Path
 
 import pytest
-from forms_support import brief_json, form_app, message_of, type_field, type_fields
+from forms_support import brief_json, form_app, message_of, open_new_form, type_field, type_fields
 from test_app_support import settle
 
 from briefer.errors import DataFileError
@@ -192,10 +192,7 @@ def _app() -> BriefingApp:
 async def test_type_a_new_aircraft_save_it_and_the_brief_uses_it():
     app = _app()
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(app, pilot)
-        await pilot.press("f2")
-        await pilot.pause()
-        screen = app.screen
+        screen = await open_new_form(app, pilot, "1", PROFILE_FORM)
         assert isinstance(screen, FormScreen) and screen.spec is PROFILE_FORM
         await type_fields(pilot, NEW_AIRCRAFT)
         assert screen.verdict.ok, (screen.verdict.errors, screen.verdict.required)
@@ -218,10 +215,7 @@ async def test_type_a_new_aircraft_save_it_and_the_brief_uses_it():
 async def test_a_bad_entry_is_refused_beside_the_field_and_nothing_is_saved():
     app = _app()
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(app, pilot)
-        await pilot.press("f2")
-        await pilot.pause()
-        screen = app.screen
+        screen = await open_new_form(app, pilot, "1", PROFILE_FORM)
         await type_fields(pilot, NEW_AIRCRAFT)
         await type_field(pilot, ("configurations", 0, "vref_kt"), "80")      # below Vs1g 85
         fpath = ("configurations", 0, "vref_kt")
@@ -238,10 +232,7 @@ async def test_a_bad_entry_is_refused_beside_the_field_and_nothing_is_saved():
 async def test_escape_with_unsaved_changes_asks_first():
     app = _app()
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(app, pilot)
-        await pilot.press("f2")
-        await pilot.pause()
-        screen = app.screen
+        screen = await open_new_form(app, pilot, "1", PROFILE_FORM)
         await pilot.press("escape")              # nothing typed: closes at once
         await pilot.pause()
         assert not isinstance(app.screen, FormScreen)
@@ -284,10 +275,7 @@ async def test_edit_a_demo_profile_saves_a_copy_in_the_user_folder():
 async def test_the_aircraft_form_fits_80x24_and_scrolls():
     app = _app()
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(app, pilot)
-        await pilot.press("f2")
-        await pilot.pause()
-        screen = app.screen
+        screen = await open_new_form(app, pilot, "1", PROFILE_FORM)
         for fpath, inp in screen._inputs.items():
             inp.focus()
             for _ in range(50):                  # scrolling into view takes a frame or two
