@@ -11,7 +11,9 @@ import numpy as np
 from briefer.core._types import Numeric
 from briefer.errors import DomainError
 
-__all__ = ["checked"]
+__all__ = ["SCALAR_TYPES", "checked", "checked_float"]
+
+SCALAR_TYPES = frozenset((float, int, np.float64))   # what the scalar paths of the core take as one number
 
 
 def checked(name: str, value: Numeric, lo: float, hi: float, unit: str, *,
@@ -39,3 +41,14 @@ def checked(name: str, value: Numeric, lo: float, hi: float, unit: str, *,
         raise DomainError(f"{name} = {first:g} {unit} is outside the valid range "
                           f"{lo:g} {lo_op} {name} {hi_op} {hi:g} {unit}".replace("  ", " ").rstrip())
     return arr
+
+
+def checked_float(name: str, value: float, lo: float, hi: float, unit: str, *,
+                  lo_open: bool = False, hi_open: bool = False) -> float:
+    """`checked` for one number (a float, an int or a numpy float64): the same rule and error,
+    the value as a Python float (the core's scalar paths compute on it with `math`)."""
+    v = float(value)
+    if math.isfinite(v) and (v > lo if lo_open else v >= lo) and (v < hi if hi_open else v <= hi):
+        return v
+    checked(name, value, lo, hi, unit, lo_open=lo_open, hi_open=hi_open)   # raises the same DomainError
+    return v

@@ -28,6 +28,8 @@ References
 
 from __future__ import annotations
 
+import math
+
 from briefer._dataclass import dataclass
 
 import numpy as np
@@ -35,7 +37,9 @@ import numpy as np
 from briefer import units
 from briefer.core import angles
 from briefer.core._types import Numeric
+from briefer.core.ranges import SCALAR_TYPES as _S
 from briefer.core.ranges import checked as _checked  # the one range check of the core
+from briefer.core.ranges import checked_float as _checked_f
 from briefer.errors import DomainError
 
 __all__ = [
@@ -86,6 +90,21 @@ def _weight_ratio(weight_ratio: Numeric) -> np.ndarray:
     return _checked("weight_ratio", weight_ratio, 0.0, WEIGHT_RATIO_MAX, "", lo_open=True)
 
 
+# The scalar paths: one number in, a Python float out, the same operations in the same order as
+# the array path (numpy and `math` round + - * / sqrt sin cos tan atan acos alike; a numpy
+# float64 ** 2 is `pow`, as a float's), so a brief's single figures skip numpy's per-call cost.
+def _bank_f(bank_deg: float, *, turning: bool) -> float:
+    return _checked_f("bank_deg", bank_deg, 0.0, BANK_MAX_DEG, "deg", lo_open=turning, hi_open=True)
+
+
+def _speed_f(name: str, speed_kt: float) -> float:
+    return _checked_f(name, speed_kt, 0.0, SPEED_MAX_KT, "kt", lo_open=True)
+
+
+def _weight_ratio_f(weight_ratio: float) -> float:
+    return _checked_f("weight_ratio", weight_ratio, 0.0, WEIGHT_RATIO_MAX, "", lo_open=True)
+
+
 def turn_radius_m(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
     """Radius of a coordinated level turn.
 
@@ -116,6 +135,9 @@ def turn_radius_m(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
     .. [2] ICAO Doc 8168, Vol II, Part I, Section 2, Chapter 3 (r = V/(20 pi R)).
     .. [3] Flight-mechanics textbooks, the level turn (from memory).
     """
+    if type(tas_kt) in _S and type(bank_deg) in _S:
+        v = _speed_f("tas_kt", tas_kt) * units.KT_TO_MPS
+        return v ** 2 / (units.G0_MPS2 * math.tan(math.radians(_bank_f(bank_deg, turning=True))))
     v_mps = _tas_mps(tas_kt)
     bank = _bank(bank_deg, turning=True)
     return angles.as_float(v_mps ** 2 / (units.G0_MPS2 * angles.tand(bank)))   # [3] eq. r = V^2/(g tan phi)
@@ -123,12 +145,14 @@ def turn_radius_m(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
 
 def turn_radius_ft(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
     """Radius of a coordinated level turn. [ft] See :func:`turn_radius_m`."""
-    return angles.as_float(np.asarray(turn_radius_m(tas_kt, bank_deg)) * units.M_TO_FT)
+    r = turn_radius_m(tas_kt, bank_deg)
+    return r * units.M_TO_FT if type(r) is float else angles.as_float(np.asarray(r) * units.M_TO_FT)
 
 
 def turn_radius_nm(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
     """Radius of a coordinated level turn. [NM] See :func:`turn_radius_m`."""
-    return angles.as_float(np.asarray(turn_radius_m(tas_kt, bank_deg)) * units.M_TO_NM)
+    r = turn_radius_m(tas_kt, bank_deg)
+    return r * units.M_TO_NM if type(r) is float else angles.as_float(np.asarray(r) * units.M_TO_NM)
 
 
 def turn_rate_deg_per_s(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
@@ -161,6 +185,9 @@ def turn_rate_deg_per_s(tas_kt: Numeric, bank_deg: Numeric) -> Numeric:
     .. [2] ICAO Doc 8168, Vol II, Part I, Section 2, Chapter 3.
     .. [3] Flight-mechanics textbooks, the level turn (from memory).
     """
+    if type(tas_kt) in _S and type(bank_deg) in _S:
+        v = _speed_f("tas_kt", tas_kt) * units.KT_TO_MPS
+        return math.degrees(units.G0_MPS2 * math.tan(math.radians(_bank_f(bank_deg, turning=False))) / v)
     v_mps = _tas_mps(tas_kt)
     bank = _bank(bank_deg, turning=False)
     return angles.as_float(np.degrees(units.G0_MPS2 * angles.tand(bank) / v_mps))  # [3] eq. omega = g tan phi / V
@@ -220,6 +247,8 @@ def load_factor(bank_deg: Numeric) -> Numeric:
     ----------
     .. [1] FAA, PHAK, FAA-H-8083-25, "Aerodynamics of Flight", load factor chart.
     """
+    if type(bank_deg) in _S:
+        return 1.0 / math.cos(math.radians(_bank_f(bank_deg, turning=False)))
     bank = _bank(bank_deg, turning=False)
     return angles.as_float(1.0 / angles.cosd(bank))                   # [1] eq. n = 1/cos(phi)
 
@@ -247,7 +276,8 @@ def stall_speed_factor(bank_deg: Numeric) -> Numeric:
     .. [1] FAA, PHAK, FAA-H-8083-25, "Aerodynamics of Flight" (stall speed increases in
        proportion to the square root of the load factor).
     """
-    return angles.as_float(np.sqrt(np.asarray(load_factor(bank_deg))))  # [1] eq. Vs_n = Vs sqrt(n)
+    n = load_factor(bank_deg)
+    return math.sqrt(n) if type(n) is float else angles.as_float(np.sqrt(np.asarray(n)))  # [1] eq. Vs_n = Vs sqrt(n)
 
 
 def stall_speed_in_turn_kt(vs1g_kt: Numeric, bank_deg: Numeric, *, weight_ratio: Numeric = 1.0) -> Numeric:
@@ -277,6 +307,10 @@ def stall_speed_in_turn_kt(vs1g_kt: Numeric, bank_deg: Numeric, *, weight_ratio:
     ----------
     .. [1] FAA, PHAK, FAA-H-8083-25, "Aerodynamics of Flight".
     """
+    if type(vs1g_kt) in _S and type(weight_ratio) in _S and type(bank_deg) in _S:
+        vs_f = _speed_f("vs1g_kt", vs1g_kt)
+        w_f = _weight_ratio_f(weight_ratio)
+        return vs_f * stall_speed_factor(bank_deg) * math.sqrt(w_f)
     vs = _speed("vs1g_kt", vs1g_kt)
     w = _weight_ratio(weight_ratio)
     return angles.as_float(vs * np.asarray(stall_speed_factor(bank_deg)) * np.sqrt(w))  # [1] eq. Vs sqrt(n), lift = W n
@@ -313,6 +347,8 @@ def stall_bank_deg(speed_kt: Numeric, vs1g_kt: Numeric, *, weight_ratio: Numeric
     ----------
     .. [1] FAA, PHAK, FAA-H-8083-25, "Aerodynamics of Flight".
     """
+    if type(speed_kt) in _S and type(vs1g_kt) in _S and type(weight_ratio) in _S:
+        return _stall_bank_deg_f(speed_kt, vs1g_kt, weight_ratio)
     v = _speed("speed_kt", speed_kt)
     vs = _speed("vs1g_kt", vs1g_kt)
     w = _weight_ratio(weight_ratio)
@@ -328,6 +364,16 @@ def stall_bank_deg(speed_kt: Numeric, vs1g_kt: Numeric, *, weight_ratio: Numeric
                           "at this weight: the wing is stalled wings-level, no bank is possible")
     cos_phi = (vs_w / v) ** 2                                         # [1] eq. n_stall = (V/Vs)^2
     return angles.as_float(np.degrees(np.arccos(np.minimum(cos_phi, 1.0))))
+
+
+def _stall_bank_deg_f(speed_kt: float, vs1g_kt: float, weight_ratio: float) -> float:
+    """`stall_bank_deg` of one number each (the same checks, operations and error)."""
+    v = _speed_f("speed_kt", speed_kt)
+    vs_w = _speed_f("vs1g_kt", vs1g_kt) * math.sqrt(_weight_ratio_f(weight_ratio))
+    if v < vs_w * (1.0 - 1e-12):
+        raise DomainError(f"speed_kt = {v:g} kt is below the 1-g stall speed {vs_w:g} kt "
+                          "at this weight: the wing is stalled wings-level, no bank is possible")
+    return math.degrees(math.acos(min((vs_w / v) ** 2, 1.0)))
 
 
 def bank_for_rate_deg(tas_kt: Numeric, *, rate_deg_per_s: Numeric = STANDARD_RATE_DEG_PER_S) -> Numeric:
@@ -388,6 +434,10 @@ def bank_for_radius_deg(tas_kt: Numeric, *, radius_m: Numeric) -> Numeric:
     ----------
     .. [3] Flight-mechanics textbooks, the level turn (from memory).
     """
+    if type(tas_kt) in _S and type(radius_m) in _S:
+        v = _speed_f("tas_kt", tas_kt) * units.KT_TO_MPS
+        r_f = _checked_f("radius_m", radius_m, 0.0, math.inf, "m", lo_open=True)
+        return math.degrees(math.atan(v ** 2 / (units.G0_MPS2 * r_f)))
     v_mps = _tas_mps(tas_kt)
     r = _checked("radius_m", radius_m, 0.0, np.inf, "m", lo_open=True)
     return angles.as_float(angles.atand(v_mps ** 2 / (units.G0_MPS2 * r)))  # [3] eq. tan phi = V^2/(g r)
@@ -495,6 +545,8 @@ def angle_of_attack_in_turn(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Nume
     .. [1] FAA, PHAK, FAA-H-8083-25, "Aerodynamics of Flight" (load factor).
     .. [3] Flight-mechanics textbooks, the linear lift curve (from memory).
     """
+    if all(type(x) in _S for x in (ias_kt, bank_deg, vref_kt, vs1g_kt, aoa_ref, aoa_stall, weight_ratio)):
+        return _angle_of_attack_f(ias_kt, bank_deg, vref_kt, vs1g_kt, aoa_ref, aoa_stall, weight_ratio)
     v = _speed("ias_kt", ias_kt)
     vref = _speed("vref_kt", vref_kt)
     vs = _speed("vs1g_kt", vs1g_kt)
@@ -510,6 +562,25 @@ def angle_of_attack_in_turn(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Nume
     return angles.as_float(a0 + n * w * (vref / v) ** 2 * (a_ref - a0))   # [3] eq. C_L = a (alpha - alpha_0)
 
 
+def _angle_of_attack_f(ias_kt: float, bank_deg: float, vref_kt: float, vs1g_kt: float, aoa_ref: float,
+                       aoa_stall: float, weight_ratio: float) -> float:
+    """`angle_of_attack_in_turn` of one number each (the same checks, operations and errors)."""
+    v = _speed_f("ias_kt", ias_kt)
+    vref = _speed_f("vref_kt", vref_kt)
+    vs = _speed_f("vs1g_kt", vs1g_kt)
+    w = _weight_ratio_f(weight_ratio)
+    a_ref = _checked_f("aoa_ref", aoa_ref, -1e6, 1e6, "")
+    a_stall = _checked_f("aoa_stall", aoa_stall, -1e6, 1e6, "")
+    if vref <= vs:
+        raise DomainError("vref_kt must be greater than vs1g_kt for the angle-of-attack model")
+    if a_stall <= a_ref:
+        raise DomainError("aoa_stall must be greater than aoa_ref for the angle-of-attack model")
+    n = load_factor(bank_deg)
+    r = (vs / vref) ** 2                                              # CL_ref / CL_max
+    a0 = (a_ref - r * a_stall) / (1.0 - r)
+    return a0 + n * w * (vref / v) ** 2 * (a_ref - a0)
+
+
 def aoa_margin_to_stall(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Numeric, vs1g_kt: Numeric,
                         aoa_ref: Numeric, aoa_stall: Numeric, weight_ratio: Numeric = 1.0) -> Numeric:
     """Angle-of-attack margin to the stall in a level turn: aoa_stall - alpha.
@@ -521,6 +592,11 @@ def aoa_margin_to_stall(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Numeric,
                                                aoa_ref=aoa_ref, aoa_stall=aoa_stall,
                                                weight_ratio=weight_ratio))
     return angles.as_float(np.asarray(aoa_stall, dtype=float) - alpha)
+
+
+def _isclose(a: float, b: float) -> bool:
+    """numpy.isclose(a, b, rtol=1e-9) of two numbers: |a - b| <= 1e-8 + 1e-9 |b| (equal infinities too)."""
+    return a == b or abs(a - b) <= 1e-8 + 1e-9 * abs(b)
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -561,11 +637,11 @@ class TurnPerformance:
             raise DomainError("tas_kt, radius_m and turn_rate_deg_per_s must be positive")
         if not self.load_factor >= 1.0:
             raise DomainError(f"load_factor = {self.load_factor:g} must be at least 1 in a level turn")
-        if not np.isclose(self.stall_speed_factor ** 2, self.load_factor, rtol=1e-9):
+        if not _isclose(self.stall_speed_factor ** 2, self.load_factor):
             raise DomainError("stall_speed_factor must equal sqrt(load_factor)")
-        if not np.isclose(self.radius_ft * units.FT_TO_M, self.radius_m, rtol=1e-9):
+        if not _isclose(self.radius_ft * units.FT_TO_M, self.radius_m):
             raise DomainError("radius_ft and radius_m disagree")
-        if not np.isclose(self.time_360_s, 2.0 * self.time_180_s, rtol=1e-9):
+        if not _isclose(self.time_360_s, 2.0 * self.time_180_s):
             raise DomainError("time_360_s must be twice time_180_s")
 
 

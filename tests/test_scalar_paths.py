@@ -1,0 +1,80 @@
+"""The core's scalar paths (one Python number in, a float out, computed with `math`) give the
+array path's numbers to the last bit and raise the same errors.
+
+A brief computes most of its single figures (turn, stall, angle of attack, atmosphere at the
+MDA, sight picture) through these paths; the golden briefs pin them too, but only at the demo
+cases' values. Here every function is called with random numbers over its range, once as a
+float and once as a 0-d array (which takes the array path), and the two answers compared with
+``==``. The references for the formulas themselves are in each module's own tests.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+
+from briefer.core import turn
+from briefer.errors import DomainError
+
+RNG_SEED = 20261203
+N = 3000
+
+
+def _outcome(fn, *args, **kwargs):
+    try:
+        return ("ok", fn(*args, **kwargs))
+    except DomainError as exc:
+        return ("error", str(exc))
+
+
+def _assert_same(fn, args: tuple, kwargs: dict) -> None:
+    """fn on floats == fn on 0-d arrays, bit for bit (or the same error message)."""
+    scalar = _outcome(fn, *args, **kwargs)
+    arrays = _outcome(fn, *(np.asarray(a) for a in args), **{k: np.asarray(v) for k, v in kwargs.items()})
+    assert scalar[0] == arrays[0], (fn.__name__, args, kwargs, scalar, arrays)
+    if scalar[0] == "error":
+        assert scalar[1] == arrays[1]
+        return
+    assert type(scalar[1]) is float, (fn.__name__, type(scalar[1]))
+    assert scalar[1] == float(arrays[1]) or (math.isnan(scalar[1]) and math.isnan(float(arrays[1]))), (
+        fn.__name__, args, kwargs, scalar[1].hex(), float(arrays[1]).hex())
+
+
+def _turn_cases():
+    rng = np.random.default_rng(RNG_SEED)
+    for i in range(N):
+        tas, bank, ias = rng.uniform(40, 400), rng.uniform(0.5, 75), rng.uniform(60, 250)
+        vs = rng.uniform(40, 140)
+        vref, w, aref = vs * rng.uniform(1.05, 1.5), rng.uniform(0.5, 1.5), rng.uniform(0, 10)
+        if i % 40 == 0:      # the ends and outside of the ranges
+            bank = [0.0, 90.0, -1.0, 89.999, math.nan, 30.0][i // 40 % 6]
+            tas = [tas, 0.0, 1000.0, 1001.0, math.inf][i // 40 % 5]
+        yield float(tas), float(bank), float(ias), float(vs), float(vref), float(w), float(aref)
+
+
+@pytest.mark.parametrize("name", ["turn_radius_m", "turn_radius_nm", "turn_radius_ft", "turn_rate_deg_per_s"])
+def test_turn_tas_bank_functions(name):
+    fn = getattr(turn, name)
+    for tas, bank, *_ in _turn_cases():
+        _assert_same(fn, (tas, bank), {})
+
+
+def test_turn_load_factor_and_stall():
+    for tas, bank, ias, vs, _vref, w, _aref in _turn_cases():
+        _assert_same(turn.load_factor, (bank,), {})
+        _assert_same(turn.stall_speed_factor, (bank,), {})
+        _assert_same(turn.stall_speed_in_turn_kt, (vs, bank), {"weight_ratio": w})
+        _assert_same(turn.stall_bank_deg, (ias, vs), {"weight_ratio": w})
+        _assert_same(turn.stall_bank_deg, (vs * math.sqrt(w) * (1.0 + 1e-13), vs), {"weight_ratio": w})
+        _assert_same(turn.bank_for_radius_deg, (tas,), {"radius_m": tas * 10.0})
+
+
+def test_turn_angle_of_attack():
+    for _tas, bank, ias, vs, vref, w, aref in _turn_cases():
+        stall = aref + 9.0
+        kw = {"vref_kt": vref, "vs1g_kt": vs, "aoa_ref": aref, "aoa_stall": stall, "weight_ratio": w}
+        _assert_same(turn.angle_of_attack_in_turn, (ias, bank), kw)
+        _assert_same(turn.angle_of_attack_in_turn, (ias, bank), {**kw, "vref_kt": vs * 0.9})      # error
+        _assert_same(turn.angle_of_attack_in_turn, (ias, bank), {**kw, "aoa_stall": aref - 1.0})  # error
