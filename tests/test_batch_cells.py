@@ -35,6 +35,7 @@ from briefer.core.manoeuvre.solver import (
     sample_solution,
     solve_inputs,
     take_rows,
+    turn_rows,
     turn_sample_count,
 )
 from briefer.core.manoeuvre.legs import runway_wind_from
@@ -163,3 +164,43 @@ def test_plans_built_from_the_batch_rows_are_the_plans_solved_afresh(inp, wind):
         from_batch = candidate_plans(lvl_inputs, solved=solved)
         afresh = candidate_plans(lvl_inputs)
         assert [_plan_fields(p) for p in from_batch] == [_plan_fields(p) for p in afresh]
+
+
+def _arrays(value, path="sol"):
+    """Every array of a solution (its legs and their profiles included), by path."""
+    if isinstance(value, np.ndarray):
+        yield path, value
+    elif isinstance(value, (tuple, list)):
+        for i, v in enumerate(value):
+            yield from _arrays(v, f"{path}[{i}]")
+    elif hasattr(value, "__slots__") and not isinstance(value, str):
+        for f in value.__slots__:
+            yield from _arrays(getattr(value, f), f"{path}.{f}")
+
+
+@pytest.mark.parametrize("inp", SCENARIOS)
+def test_turns_solved_at_one_roll_out_give_the_solve_at_another(inp):
+    """The envelope solves each wind's turns once per bank (solve_shape's made/turns): a solve at a
+    closer roll-out given the turns made at the first one, on some of its rows in another order,
+    is the solve afresh to the last bit; turns made at another bank are not (the check can fail)."""
+    wx, wy, bank, ro = _rows(inp)
+    levels = judgement_levels(inp, bank_limit_deg=35.0)
+    first, closer = levels.roll_out_m[0], levels.roll_out_m[-1]
+    assert closer != first
+    rows = np.array([5, 0, 17, 3, 3, 11])
+    for shape in {s for s, _ in applicable_candidates(inp.arrival_course_deg)}:
+        sigma = np.repeat([1.0, -1.0], 24)
+        kw = dict(sigma=sigma, wx_mps=np.tile(wx[:24], 2), wy_mps=np.tile(wy[:24], 2), descent=descent_geometry(inp))
+        made, made_steeper = [], []
+        solve_inputs(inp, shape, bank_deg=bank[0], roll_out_m=first, made=made, **kw)
+        solve_inputs(inp, shape, bank_deg=bank[0] + 5.0, roll_out_m=first, made=made_steeper, **kw)
+        idx = np.concatenate([rows, rows + 24])          # both sides, some winds, in another order
+        sub = dict(sigma=sigma[idx], wx_mps=kw["wx_mps"][idx], wy_mps=kw["wy_mps"][idx], descent=kw["descent"],
+                   bank_deg=bank[0], roll_out_m=closer)
+        afresh = dict(_arrays(solve_inputs(inp, shape, **sub)))
+        given = dict(_arrays(solve_inputs(inp, shape, turns=turn_rows([(made, idx)]), **sub)))
+        assert given.keys() == afresh.keys()
+        for path, a in afresh.items():
+            np.testing.assert_array_equal(given[path], a, err_msg=f"{shape} {path}")
+        wrong = dict(_arrays(solve_inputs(inp, shape, turns=turn_rows([(made_steeper, idx)]), **sub)))
+        assert any(not np.array_equal(wrong[p], a, equal_nan=True) for p, a in afresh.items())

@@ -37,7 +37,7 @@ from __future__ import annotations
 
 import dataclasses
 import math
-from collections.abc import Callable
+from collections.abc import Callable, Mapping, Sequence
 from briefer._dataclass import dataclass, field
 
 import numpy as np
@@ -73,6 +73,7 @@ from briefer.core.manoeuvre.solver import (
     sample_solution,
     solve_inputs,
     take_rows,
+    turn_rows,
     turn_sample_count,
 )
 from briefer.errors import DomainError
@@ -277,7 +278,8 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
                      wy_mps: FloatArray, bank_deg: FloatArray, roll_out_m: FloatArray, margin_fn: MarginFn,
                      descent: DescentGeometry | None = None, turn_step_deg: float = BATCH_TURN_STEP_DEG,
                      n_straight: int = BATCH_N_STRAIGHT, visibility_m: float | None = None,
-                     all_margins: npt.ArrayLike = True) -> CandidateBatch:
+                     all_margins: npt.ArrayLike = True, turns: Mapping[Shape, Sequence[LegArrays]] | None = None,
+                     made: dict[Shape, list[LegArrays]] | None = None) -> CandidateBatch:
     """Solve every candidate on every row (wind, bank, roll-out), vectorised over the rows.
 
     Rows are independent: the sample counts of a track depend on the candidate and the
@@ -289,6 +291,9 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
     With ``visibility_m`` (and many rows), a candidate that fails on a few of its own track
     points is not sampled in full (:func:`_sample_and_margins`), except on the rows where
     ``all_margins`` is True (the level whose failures are reported).
+
+    ``turns`` and ``made``: per shape, the turns of these rows already solved (at another roll-out),
+    and a dict to receive each shape's turns (see :func:`briefer.core.manoeuvre.solver.solve_shape`).
     """
     wx = np.asarray(wx_mps, dtype=float).ravel()
     m = wx.size
@@ -313,7 +318,9 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
         g = len(cis)
         sigma = np.repeat([1.0 if candidates[ci][1] == "right" else -1.0 for ci in cis], m)
         sol = solve_inputs(inputs, shape, sigma=sigma, wx_mps=_tile(wx, g), wy_mps=_tile(wy, g),
-                           bank_deg=_tile(bank, g), descent=dg, roll_out_m=_tile(d, g))
+                           bank_deg=_tile(bank, g), descent=dg, roll_out_m=_tile(d, g),
+                           turns=None if turns is None else turns[shape],
+                           made=None if made is None else made.setdefault(shape, []))
         ok_g = sol.ok.reshape(g, m)
         ok[:, cis] = ok_g.T
         ttime[:, cis] = np.where(ok_g, sum(lg.duration for lg in sol.legs).reshape(g, m), np.nan).T
@@ -556,6 +563,7 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
                              level_slack_m=slack)
 
     kept: list[tuple[tuple[int, ...], ShapeSolution]] = []
+    turn_store = _TurnStore(n)
 
     def solve(rows: npt.NDArray[np.int_], lv: list[tuple[int, int]], shown: bool = True,
               every: bool = False) -> list[LevelBest]:
@@ -565,10 +573,15 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         k, m = len(lv), rows.size
         bank = np.repeat([levels.bank_deg[b] for _, b in lv], m)
         full = np.repeat([shown and lvl == fallback for lvl in lv], m)
+        given = None if eager else turn_store.given(rows, [b for _, b in lv])
+        made = None if eager or given is not None or k > 1 else {}
         batch = solve_candidates(inputs, cands, wx_mps=_tile(wx[rows], k), wy_mps=_tile(wy[rows], k),
                                  bank_deg=bank, roll_out_m=np.repeat([levels.roll_out_m[r] for r, _ in lv], m),
                                  margin_fn=margin_fn, descent=descent, turn_step_deg=turn_step_deg,
-                                 n_straight=n_straight, visibility_m=visibility_m, all_margins=full)
+                                 n_straight=n_straight, visibility_m=visibility_m, all_margins=full, turns=given,
+                                 made=made)
+        if made:
+            turn_store.keep(rows, lv[0][1], made)
         if eager:
             kept.extend(batch.solutions)
         aoa_rows = None if aoa_margin_fn is None else np.repeat([aoa[levels.bank_deg[b]] for _, b in lv], m)
@@ -605,6 +618,51 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
                          bank_index=b_idx, bank_needed_deg=bank_needed, roll_out_m=roll_out, best_candidate=best_c,
                          area_margin_m=best_area, max_distance_from_runway_m=best_dist, level_slack_m=slack,
                          solutions=tuple(kept))
+
+
+class _TurnStore:
+    """Each wind's turns at each bank level, solved once: a turn (its profile, entry heading and
+    displacement) depends on the wind, the side and the bank, not on the roll-out distance, so
+    the closer roll-outs take the turns solved at the first roll-out tried (the same numbers,
+    not computed again; :func:`briefer.core.manoeuvre.solver.solve_shape` ``turns``)."""
+
+    __slots__ = ("n", "made")
+
+    def __init__(self, n: int) -> None:
+        self.n = n
+        self.made: dict[int, tuple[npt.NDArray[np.int_], int, dict[Shape, list[LegArrays]]]] = {}
+
+    def keep(self, rows: npt.NDArray[np.int_], bank_index: int, made: dict[Shape, list[LegArrays]]) -> None:
+        """The turns of a solve of the winds ``rows`` at one bank level (rows side by side, then wind)."""
+        if bank_index not in self.made:
+            pos = np.full(self.n, -1, dtype=np.int64)
+            pos[rows] = np.arange(rows.size)
+            self.made[bank_index] = (pos, rows.size, made)
+
+    def given(self, rows: npt.NDArray[np.int_], bank_indices: list[int]) -> dict[Shape, list[LegArrays]] | None:
+        """Per shape, the turns of a solve of the winds ``rows`` at each of the bank levels given
+        (rows: side, level, wind), or None if some were not solved before."""
+        if any(b not in self.made for b in bank_indices):
+            return None
+        at = []
+        for b in bank_indices:
+            pos, m0, made = self.made[b]
+            p = pos[rows]
+            if p.size and p.min() < 0:
+                return None
+            at.append((b, p, m0, made))
+        out = {}
+        for shape in at[0][3]:
+            g = int(np.shape(at[0][3][shape][0].duration)[0]) // at[0][2]     # sides
+            pieces: list[tuple[list[LegArrays], npt.NDArray[np.int_]]] = []
+            for side in range(g):
+                for b, p, m0, made in at:
+                    if pieces and pieces[-1][0] is made[shape]:
+                        pieces[-1] = (made[shape], np.concatenate([pieces[-1][1], side * m0 + p]))
+                    else:
+                        pieces.append((made[shape], side * m0 + p))
+            out[shape] = turn_rows(pieces)
+        return out
 
 
 def _level_by_level(order: list[tuple[int, int]], fallback: tuple[int, int], resolved: npt.NDArray[np.bool_],

@@ -76,6 +76,7 @@ from __future__ import annotations
 
 import math
 from briefer._dataclass import dataclass, field
+from collections.abc import Sequence
 from typing import Literal
 
 import numpy as np
@@ -392,11 +393,12 @@ def _flag(ok: npt.NDArray[np.bool_], flag: int) -> npt.NDArray[np.int_]:
 class _Kernel:
     """What every leg of one solve shares: the broadcast inputs and the leg makers."""
 
-    __slots__ = ("zero", "sig", "wx", "wy", "bank", "v", "roll_rate_rad", "x0", "y0", "c0_rad", "d_m")
+    __slots__ = ("zero", "sig", "wx", "wy", "bank", "v", "roll_rate_rad", "x0", "y0", "c0_rad", "d_m", "given", "made")
 
     def __init__(self, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.ArrayLike, wy: npt.ArrayLike,
                  bank_rad: npt.ArrayLike, roll_rate_rad: float | None, x0: float, y0: float, c0_rad: float,
-                 d_m: float | FloatArray) -> None:
+                 d_m: float | FloatArray, given: Sequence[LegArrays] | None = None,
+                 made: list[LegArrays] | None = None) -> None:
         sig = np.asarray(sigma, dtype=float)
         wx = np.asarray(wx, dtype=float)
         wy = np.asarray(wy, dtype=float)
@@ -407,10 +409,18 @@ class _Kernel:
         self.v = float(tas_mps)
         self.roll_rate_rad = roll_rate_rad
         self.x0, self.y0, self.c0_rad, self.d_m = x0, y0, c0_rad, d_m
+        self.given, self.made = given, made
 
     def turns(self, *specs: tuple[FloatArray, FloatArray, FloatArray, str, FloatArray]) -> list[LegArrays]:
         """Turn legs from (entry heading, angle, sign, name, calm-wind angle) specs, all computed in
-        one call of the (elementwise) kernels: the specs are stacked on a new leading axis."""
+        one call of the (elementwise) kernels: the specs are stacked on a new leading axis.
+
+        With ``given``, those legs instead (the same turns solved before, see :func:`solve_shape`);
+        with ``made``, the legs are also appended to that list."""
+        if self.given is not None:
+            if len(self.given) != len(specs):
+                raise DomainError(f"{len(self.given)} turns given where the shape makes {len(specs)}")
+            return list(self.given)
         zero, v, wx, wy = self.zero, self.v, self.wx, self.wy
         psi_a = np.concatenate([(sp[0] + zero)[None] for sp in specs])
         angle = np.concatenate([(sp[1] + zero)[None] for sp in specs])
@@ -430,6 +440,8 @@ class _Kernel:
             out.append(LegArrays(kind="turn", name=sp[3], duration=p_i.total, psi0=psi_a[i], prof=p_i,
                                  sign=sgn[i], dx=dx[i], dy=dy[i], nominal_rad=float(np.max(sp[4])),
                                  nominal_rows=sp[4] + zero))
+        if self.made is not None:
+            self.made.extend(out)
         return out
 
     def straight(self, psi: FloatArray, gx: FloatArray, gy: FloatArray, t: FloatArray, name: str,
@@ -629,7 +641,8 @@ def _chain_starts(legs: list[LegArrays], x0: float, y0: float, zero: FloatArray)
 def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.ArrayLike, wy: npt.ArrayLike,
                 bank_rad: npt.ArrayLike, roll_rate_rad: float | None, x0: float, y0: float, c0_rad: float,
                 d_m: float | FloatArray, d_stab_m: float, break_rad: float, teardrop_rad: float,
-                circuit_turn_x_m: float = 0.0) -> ShapeSolution:
+                circuit_turn_x_m: float = 0.0, turns: Sequence[LegArrays] | None = None,
+                made: list[LegArrays] | None = None) -> ShapeSolution:
     """Solve one plan shape over broadcast arrays of sides, winds and banks (array kernel).
 
     Parameters are in SI and radians; ``sigma`` = +1 right side, -1 left side. Every output
@@ -643,11 +656,16 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
     linear equations in y (and x for the teardrop); the circuit's crosswind and base legs from
     a maximum of two such solutions. One step per shape (``_solve_<shape>``), after the tracks
     every shape shares (:class:`_Tracks`); then the legs' start points are chained.
+
+    A turn does not depend on the roll-out distance: ``made`` (a list) receives the shape's turn
+    legs as they are made, and ``turns`` gives them back to a solve of the same shape, rows
+    (sides, winds, banks) and inputs at other roll-out distances, which then makes none (the
+    legs given become the solution's: give legs of their own, e.g. from :func:`turn_rows`).
     """
     if shape not in SHAPES:
         raise DomainError(f"unknown plan shape {shape!r}; expected one of {SHAPES}")
     k = _Kernel(sigma=sigma, tas_mps=tas_mps, wx=wx, wy=wy, bank_rad=bank_rad, roll_rate_rad=roll_rate_rad, x0=x0,
-                y0=y0, c0_rad=c0_rad, d_m=d_m)
+                y0=y0, c0_rad=c0_rad, d_m=d_m, given=turns, made=made)
     zero = k.zero
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         t = _Tracks(k)
@@ -700,6 +718,31 @@ def take_rows(sol: ShapeSolution, rows: Rows) -> ShapeSolution:
     m = sol.ok.shape[0]
     return ShapeSolution(**{f: (tuple(_take_leg(lg, rows, m) for lg in sol.legs) if f == "legs"
                                 else _take(getattr(sol, f), rows, m)) for f in ShapeSolution.__slots__})
+
+
+def _rows_of(values: list[object], rows: list[npt.NDArray[np.int_]], m: list[int]) -> object:
+    """The rows of each value (arrays of their solve's M rows, legs, profiles), end to end."""
+    v0 = values[0]
+    if type(v0) is np.ndarray:
+        if v0.ndim == 0 or v0.shape[0] != m[0]:
+            return v0
+        return v0[rows[0]] if len(values) == 1 else np.concatenate([v[r] for v, r in zip(values, rows)])  # type: ignore[index]
+    if type(v0) is LegArrays or type(v0) is TurnProfile:
+        return type(v0)(**{f: _rows_of([getattr(v, f) for v in values], rows, m) for f in type(v0).__slots__})
+    return v0
+
+
+def turn_rows(pieces: Sequence[tuple[Sequence[LegArrays], npt.NDArray[np.int_]]]) -> list[LegArrays]:
+    """Turn legs made by solves of one shape (``made`` of :func:`solve_shape`), the rows given of
+    each (legs, rows) piece end to end: new legs for a solve of those rows (its ``turns``)."""
+    m = [int(np.shape(legs[0].duration)[0]) for legs, _ in pieces]
+    out = []
+    for i in range(len(pieces[0][0])):
+        lg = _rows_of([legs[i] for legs, _ in pieces], [rows for _, rows in pieces], m)
+        assert isinstance(lg, LegArrays) and lg.nominal_rows is not None
+        object.__setattr__(lg, "nominal_rad", float(np.max(lg.nominal_rows, initial=0.0)))
+        out.append(lg)
+    return out
 
 
 def _no_turn(before: LegArrays, like: LegArrays) -> LegArrays:
@@ -777,9 +820,11 @@ def leg_end_distance_m(sol: ShapeSolution, runway_length_m: float) -> FloatArray
 
 def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx_mps: npt.ArrayLike,
                  wy_mps: npt.ArrayLike, bank_deg: npt.ArrayLike, descent: DescentGeometry | None = None,
-                 roll_out_m: npt.ArrayLike | None = None) -> ShapeSolution:
+                 roll_out_m: npt.ArrayLike | None = None, turns: Sequence[LegArrays] | None = None,
+                 made: list[LegArrays] | None = None) -> ShapeSolution:
     """:func:`solve_shape` with the fixed parts taken from ``inputs`` (winds, sides, banks vary;
-    ``roll_out_m`` may vary too: roll-out distances, default the descent geometry's). [m]"""
+    ``roll_out_m`` may vary too: roll-out distances, default the descent geometry's; ``turns``
+    and ``made``: turns solved once for several roll-outs, see :func:`solve_shape`). [m]"""
     b = np.asarray(bank_deg, dtype=float)
     if not ((b > 0.0) & (b < BANK_MAX_DEG)).all():
         raise DomainError(f"bank_deg = {bank_deg}: a turn needs 0 < bank < 90")
@@ -791,7 +836,7 @@ def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx
                        d_m=dg.roll_out_distance_m if roll_out_m is None else np.asarray(roll_out_m, dtype=float),
                        d_stab_m=dg.stabilised_distance_m, break_rad=math.radians(inputs.break_angle_deg),
                        teardrop_rad=math.radians(inputs.teardrop_angle_deg),
-                       circuit_turn_x_m=inputs.circuit_turn_past_threshold_m)
+                       circuit_turn_x_m=inputs.circuit_turn_past_threshold_m, turns=turns, made=made)
 
 
 N_RAMP = 3
