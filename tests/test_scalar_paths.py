@@ -78,3 +78,30 @@ def test_turn_angle_of_attack():
         _assert_same(turn.angle_of_attack_in_turn, (ias, bank), kw)
         _assert_same(turn.angle_of_attack_in_turn, (ias, bank), {**kw, "vref_kt": vs * 0.9})      # error
         _assert_same(turn.angle_of_attack_in_turn, (ias, bank), {**kw, "aoa_stall": aref - 1.0})  # error
+
+
+def _atmosphere_cases():
+    rng = np.random.default_rng(RNG_SEED + 1)
+    for i in range(N):
+        pa = rng.uniform(-5000.0, 60000.0) if i % 3 else rng.uniform(-2000.0, 15000.0)
+        oat, alt, elev = rng.uniform(-60.0, 50.0), rng.uniform(-2000.0, 60000.0), rng.uniform(-1000.0, 12000.0)
+        hpa, cas = rng.uniform(850.0, 1100.0), rng.uniform(40.0, 600.0)
+        if i % 50 == 0:      # the ends and outside of the ranges
+            pa = [-5000.0, 60000.0, 60001.0, -5001.0, math.nan][i // 50 % 5]
+            hpa = [850.0, 1100.0, 849.0, 1013.25][i // 50 % 4]
+            oat = [-100.0, 60.0, 61.0, oat][i // 50 % 4]
+        yield float(pa), float(oat), float(alt), float(elev), float(hpa), float(cas)
+
+
+def test_atmosphere():
+    from briefer.core import atmosphere as atm
+    for pa, oat, alt, elev, hpa, cas in _atmosphere_cases():
+        _assert_same(atm.isa_temperature_k, (pa,), {})
+        _assert_same(atm.isa_temperature_c, (pa,), {})
+        if -5000.0 <= pa <= 60000.0:
+            _assert_same(atm.isa_pressure_altitude_ft, (float(atm.isa_pressure_hpa(pa)),), {})
+        _assert_same(atm.pressure_altitude_ft, (alt,), {"altimeter_hpa": hpa})
+        _assert_same(atm.oat_at_altitude_c, (oat,), {"surface_elevation_ft": elev, "altitude_ft": alt})
+        _assert_same(atm.density_ratio, (pa,), {"oat_c": oat})
+        _assert_same(atm.density_altitude_ft, (pa,), {"oat_c": oat})
+        _assert_same(atm.tas_from_cas_kt, (cas,), {"pressure_altitude_ft": pa, "oat_c": oat})

@@ -41,7 +41,9 @@ import numpy as np
 from briefer import units
 from briefer.core import angles
 from briefer.core._types import Numeric
+from briefer.core.ranges import SCALAR_TYPES as _S
 from briefer.core.ranges import checked as _checked  # the one range check of the core
+from briefer.core.ranges import checked_float as _checked_f
 from briefer.errors import DomainError
 
 __all__ = [
@@ -130,6 +132,27 @@ def _isa_t_p(h_m: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     return t, p
 
 
+# The scalar paths: one number in, a Python float out, the array path's operations in its order
+# with `math` (only the branch the array path selects is computed), so a brief's single figures
+# skip numpy's per-call cost. tests/test_scalar_paths.py holds them to the array path bit for bit.
+def _isa_t_p_f(h_m: float) -> tuple[float, float]:
+    """`_isa_t_p` of one checked height [m]: ISA temperature [K] and pressure [Pa]."""
+    if h_m <= TROPOPAUSE_M:
+        t_tropo = T0_K + LAPSE_K_PER_M * h_m
+        return t_tropo, P0_PA * (t_tropo / T0_K) ** _N_TROPO
+    return T11_K, P11_PA * math.exp(-units.G0_MPS2 * (h_m - TROPOPAUSE_M) / (R_J_PER_KG_K * T11_K))
+
+
+def _pressure_altitude_m_f(pressure_altitude_ft: float) -> float:
+    return _checked_f("pressure_altitude_ft", pressure_altitude_ft, *PRESSURE_ALTITUDE_RANGE_FT, "ft") * units.FT_TO_M
+
+
+def _static_air_f(pressure_altitude_ft: float, oat_c: float) -> tuple[float, float]:
+    """`_static_air` of one number each: static pressure [Pa], temperature [K]."""
+    _, p = _isa_t_p_f(_pressure_altitude_m_f(pressure_altitude_ft))
+    return p, units.kelvin_from_celsius(_checked_f("oat_c", oat_c, *OAT_RANGE_C, "degC"))
+
+
 def isa_temperature_k(pressure_altitude_ft: Numeric) -> Numeric:
     """Temperature of the ICAO Standard Atmosphere at a pressure altitude.
 
@@ -156,6 +179,8 @@ def isa_temperature_k(pressure_altitude_ft: Numeric) -> Numeric:
     ----------
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 2, Table A.
     """
+    if type(pressure_altitude_ft) in _S:
+        return _isa_t_p_f(_pressure_altitude_m_f(pressure_altitude_ft))[0]
     t, _ = _isa_t_p(_pressure_altitude_m(pressure_altitude_ft))
     return angles.as_float(t)
 
@@ -186,7 +211,10 @@ def isa_temperature_c(pressure_altitude_ft: Numeric) -> Numeric:
     ----------
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 2, Table A.
     """
-    return angles.as_float(units.celsius_from_kelvin(np.asarray(isa_temperature_k(pressure_altitude_ft))))
+    t_k = isa_temperature_k(pressure_altitude_ft)
+    if type(t_k) is float:
+        return units.celsius_from_kelvin(t_k)
+    return angles.as_float(units.celsius_from_kelvin(np.asarray(t_k)))
 
 
 def isa_pressure_hpa(pressure_altitude_ft: Numeric) -> Numeric:
@@ -262,6 +290,11 @@ def isa_pressure_altitude_ft(pressure_hpa: Numeric) -> Numeric:
     """
     p_min, p_max = _pressure_range_hpa()
     # a few 1e-9 of slack so the round trip at the range ends does not fail on rounding
+    if type(pressure_hpa) in _S:
+        p_f = _checked_f("pressure_hpa", pressure_hpa, p_min * (1 - 1e-9), p_max * (1 + 1e-9), "hPa") * units.HPA_TO_PA
+        if p_f >= P11_PA:
+            return (T0_K / LAPSE_K_PER_M) * ((p_f / P0_PA) ** (1.0 / _N_TROPO) - 1.0) * units.M_TO_FT
+        return (TROPOPAUSE_M - (R_J_PER_KG_K * T11_K / units.G0_MPS2) * math.log(p_f / P11_PA)) * units.M_TO_FT
     p_pa = _checked("pressure_hpa", pressure_hpa, p_min * (1 - 1e-9), p_max * (1 + 1e-9), "hPa") * units.HPA_TO_PA
     h_tropo = (T0_K / LAPSE_K_PER_M) * ((p_pa / P0_PA) ** (1.0 / _N_TROPO) - 1.0)   # [1] eq. inverted
     with np.errstate(divide="ignore"):
@@ -339,6 +372,9 @@ def pressure_altitude_ft(altitude_ft: Numeric, *, altimeter_hpa: Numeric) -> Num
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 3.
     .. [2] ICAO Doc 8168, Vol I, Part III, Section 1, Chapter 4.
     """
+    if type(altitude_ft) in _S and type(altimeter_hpa) in _S:
+        alt_f = _checked_f("altitude_ft", altitude_ft, *ALTITUDE_RANGE_FT, "ft")
+        return alt_f + isa_pressure_altitude_ft(_checked_f("altimeter_hpa", altimeter_hpa, *ALTIMETER_RANGE_HPA, "hPa"))
     alt = _checked("altitude_ft", altitude_ft, *ALTITUDE_RANGE_FT, "ft")
     setting = _checked("altimeter_hpa", altimeter_hpa, *ALTIMETER_RANGE_HPA, "hPa")
     return angles.as_float(alt + np.asarray(isa_pressure_altitude_ft(setting)))   # [2] datum shift
@@ -413,6 +449,11 @@ def oat_at_altitude_c(surface_oat_c: Numeric, *, surface_elevation_ft: Numeric,
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 2 (lapse rate
        -6.5 K/km).
     """
+    if type(surface_oat_c) in _S and type(surface_elevation_ft) in _S and type(altitude_ft) in _S:
+        t_f = _checked_f("surface_oat_c", surface_oat_c, *OAT_RANGE_C, "degC")
+        elev_f = _checked_f("surface_elevation_ft", surface_elevation_ft, *ALTITUDE_RANGE_FT, "ft")
+        alt_f = _checked_f("altitude_ft", altitude_ft, *ALTITUDE_RANGE_FT, "ft")
+        return _checked_f("oat_c (lapse-rate result)", t_f + LAPSE_C_PER_FT * (alt_f - elev_f), *OAT_RANGE_C, "degC")
     t_sfc = _checked("surface_oat_c", surface_oat_c, *OAT_RANGE_C, "degC")
     elev = _checked("surface_elevation_ft", surface_elevation_ft, *ALTITUDE_RANGE_FT, "ft")
     alt = _checked("altitude_ft", altitude_ft, *ALTITUDE_RANGE_FT, "ft")
@@ -446,6 +487,9 @@ def density_ratio(pressure_altitude_ft: Numeric, *, oat_c: Numeric) -> Numeric:
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 2 (equation
        of state rho = p/(R T)).
     """
+    if type(pressure_altitude_ft) in _S and type(oat_c) in _S:
+        p_f, t_f = _static_air_f(pressure_altitude_ft, oat_c)
+        return (p_f / P0_PA) * (T0_K / t_f)
     p, t = _static_air(pressure_altitude_ft, oat_c)
     return angles.as_float((p / P0_PA) * (T0_K / t))                 # [1] eq. rho = p/(R T)
 
@@ -493,8 +537,16 @@ def density_altitude_ft(pressure_altitude_ft: Numeric, *, oat_c: Numeric) -> Num
     ----------
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993, Section 3.
     """
-    sigma = np.asarray(density_ratio(pressure_altitude_ft, oat_c=oat_c))
-    return angles.as_float(_altitude_ft_from_density_ratio(sigma))
+    sigma = density_ratio(pressure_altitude_ft, oat_c=oat_c)
+    if type(sigma) is float:
+        if sigma >= SIGMA11:
+            h_m = T0_K * (sigma ** (1.0 / (_N_TROPO - 1.0)) - 1.0) / LAPSE_K_PER_M
+        else:
+            h_m = TROPOPAUSE_M - (R_J_PER_KG_K * T11_K / units.G0_MPS2) * math.log(sigma / SIGMA11)
+        if h_m > STRATOSPHERE_TOP_M:
+            _altitude_ft_from_density_ratio(np.asarray(sigma))       # raises the array path's error
+        return h_m * units.M_TO_FT
+    return angles.as_float(_altitude_ft_from_density_ratio(np.asarray(sigma)))
 
 
 def _cas_checked(cas_kt: Numeric) -> np.ndarray:
@@ -546,6 +598,14 @@ def tas_from_cas_kt(cas_kt: Numeric, *, pressure_altitude_ft: Numeric, oat_c: Nu
     .. [1] ICAO, "Manual of the ICAO Standard Atmosphere," Doc 7488/3, 1993.
     .. [3] NASA RP-1046, 1980, subsonic airspeed equations.
     """
+    if type(cas_kt) in _S and type(pressure_altitude_ft) in _S and type(oat_c) in _S:
+        cas_f = _checked_f("cas_kt", cas_kt, 0.0, CAS_MAX_KT, "kt", lo_open=True)
+        p_f, t_f = _static_air_f(pressure_altitude_ft, oat_c)
+        qc = P0_PA * ((1.0 + 0.2 * (cas_f / (A0_MPS * units.MPS_TO_KT)) ** 2) ** 3.5 - 1.0)   # as _tas_from_cas
+        mach = math.sqrt(5.0 * ((qc / p_f + 1.0) ** (2.0 / 7.0) - 1.0))
+        if mach >= 1.0:
+            _tas_from_cas(np.asarray(cas_f), np.asarray(p_f), np.asarray(t_f))   # raises the array path's error
+        return mach * (math.sqrt(GAMMA * R_J_PER_KG_K * t_f) * units.MPS_TO_KT)
     cas = _cas_checked(cas_kt)
     p, t = _static_air(pressure_altitude_ft, oat_c)
     return angles.as_float(_tas_from_cas(cas, p, t))

@@ -101,7 +101,25 @@ def _points(points: ArrayLike, name: str = "points") -> npt.NDArray[np.float64]:
     return arr
 
 
+def _one_point(point: Any) -> tuple[float, float] | None:
+    """One finite point given as a tuple of two floats or a float array of shape (2,), as two
+    floats; None for anything else (the caller takes its general path)."""
+    if type(point) is tuple:
+        if len(point) == 2 and type(point[0]) is float and type(point[1]) is float:
+            e, n = point
+        else:
+            return None
+    elif type(point) is np.ndarray and point.shape == (2,) and point.dtype == np.float64:
+        e, n = point.tolist()
+    else:
+        return None
+    return (e, n) if math.isfinite(e) and math.isfinite(n) else None
+
+
 def _point(point: ArrayLike, name: str) -> tuple[float, float]:
+    one = _one_point(point)
+    if one is not None:
+        return one
     arr = _points(point, name)
     if arr.shape != (2,):
         raise DomainError(f"{name} must be one point (east_m, north_m); got shape {arr.shape}")
@@ -404,6 +422,11 @@ class RunwayFrame:
             Distance to the right of the extended centreline seen in the landing direction
             (negative = left). [m]
         """
+        one = _one_point(points)
+        if one is not None:          # one point: the same two products and sum as the matmul of (2,) by (2,)
+            de, dn = one[0] - float(self.threshold_xy_m[0]), one[1] - float(self.threshold_xy_m[1])
+            (ue, un), (re_, rn) = self.along_unit, self.right_unit
+            return de * float(ue) + dn * float(un), de * float(re_) + dn * float(rn)
         d = _points(points) - np.asarray(self.threshold_xy_m)
         along = d @ np.asarray(self.along_unit)
         right = d @ np.asarray(self.right_unit)
@@ -1129,7 +1152,7 @@ def area_in_runway_axes(area: ProtectedArea, runway: RunwayFrame) -> ProtectedAr
         The same area, points as (right_m, along_m). [m]
     """
     def pseudo(p: ArrayLike) -> tuple[float, float]:
-        along, right = runway.to_runway_coords(np.asarray(p, dtype=float))
+        along, right = runway.to_runway_coords(p if _one_point(p) is not None else np.asarray(p, dtype=float))
         return float(right), float(along)
 
     course = runway.landing_course_deg_true
