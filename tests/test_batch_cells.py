@@ -204,3 +204,40 @@ def test_turns_solved_at_one_roll_out_give_the_solve_at_another(inp):
             np.testing.assert_array_equal(given[path], a, err_msg=f"{shape} {path}")
         wrong = dict(_arrays(solve_inputs(inp, shape, turns=turn_rows([(made_steeper, idx)]), **sub)))
         assert any(not np.array_equal(wrong[p], a, equal_nan=True) for p, a in afresh.items())
+
+
+def _generic_take(value, rows, m):
+    """Every dataclass field, recursively: an array over the M rows taken, anything else kept."""
+    if isinstance(value, np.ndarray):
+        return value[rows] if value.ndim >= 1 and value.shape[0] == m else value
+    if dataclasses.is_dataclass(value):
+        return {f.name: _generic_take(getattr(value, f.name), rows, m) for f in dataclasses.fields(value)}
+    if isinstance(value, tuple):
+        return tuple(_generic_take(v, rows, m) for v in value)
+    return value
+
+
+def _same(a, b):
+    if isinstance(a, np.ndarray) or isinstance(b, np.ndarray):
+        return np.array_equal(a, b, equal_nan=True)
+    if isinstance(a, dict):
+        return a.keys() == b.keys() and all(_same(a[k], b[k]) for k in a)
+    if isinstance(a, tuple):
+        return len(a) == len(b) and all(_same(x, y) for x, y in zip(a, b))
+    return a == b
+
+
+@pytest.mark.parametrize("shape", ["break-and-return", "teardrop", "overfly-circuit", "downwind-join"])
+def test_take_rows_takes_every_field_of_the_solution(shape):
+    """take_rows (written field by field) against every dataclass field taken: no field left out
+    or kept whole; each turn's calm-wind angle is the largest of the rows taken."""
+    inp = _inputs(arrival_course_deg=0.0 if shape == "overfly-circuit" else (90.0 if shape == "downwind-join" else 178.0))
+    m = 6
+    sol = solve_inputs(inp, shape, sigma=np.repeat([1.0, -1.0], 3), wx_mps=np.linspace(-5, 5, m),
+                       wy_mps=np.linspace(3, -3, m), bank_deg=np.repeat([25.0, 30.0], 3))
+    for rows in (np.array([4, 1]), slice(1, None, 3)):
+        got, want = _generic_take(take_rows(sol, rows), rows, 10**9), _generic_take(sol, rows, m)
+        for lg in want["legs"]:
+            if lg["nominal_rows"] is not None and lg["nominal_rows"].size:
+                lg["nominal_rad"] = float(np.max(lg["nominal_rows"]))
+        assert _same(got, want)

@@ -146,11 +146,13 @@ def headline_missed_direction(plan: Plan, guide: MissedApproachGuide) -> str:
     skip = {i for i, name in enumerate(plan.leg_names) if name == "arrival"}
     if plan.leg_names and plan.leg_names[-1] == "final":
         skip.add(len(plan.leg_names) - 1)
-    counted = ~np.isin(legs, list(skip))
-    sides = np.array(guide.direction[:-1], dtype=object)
+    counted = np.ones(legs.shape, dtype=bool)
+    for i in skip:
+        counted &= legs != i
+    sides = guide.direction[:-1]
     weight = {}
     for side in ("left", "right"):
-        held = dt[counted & (sides == side)]      # summed in order, as one running total
+        held = dt[counted & np.array([d == side for d in sides], dtype=bool)]   # summed in order, one running total
         weight[side] = float(np.cumsum(held)[-1]) if held.size else 0.0
     if weight["left"] == weight["right"]:
         return plan.side if weight["left"] > 0 else ""

@@ -193,18 +193,23 @@ def rank_plans(plans: tuple[Plan, ...] | list[Plan], *, margin_fn: MarginFn, vis
     if not 0.0 < bank_limit_deg < 90.0:
         raise DomainError(f"bank_limit_deg = {bank_limit_deg}: valid range is (0, 90)")
     rows = []
+    flyable = [p for p in plans if p.feasible]
+    areas = [float(np.asarray(margin_fn(p.track_xy_m))) for p in flyable]
+    aoas = [None if aoa_margin_fn is None else float(aoa_margin_fn(p.bank_deg)) for p in flyable]
+    if flyable:     # one check of every flyable plan (elementwise: the same bits as one by one)
+        fail_bits, marg_bits = plan_checks(
+            bank_deg=[p.bank_deg for p in flyable], bank_limit_deg=bank_limit_deg, area_margin_m=areas,
+            sector_bound=False, visibility_m=visibility_m,
+            max_distance_from_runway_m=[p.max_distance_from_runway_m for p in flyable],
+            area_radius_m=area_radius_m, aoa_margin_deg=None if aoa_margin_fn is None else aoas)
+        checks = iter(zip(areas, aoas, fail_bits.tolist(), marg_bits.tolist()))
     for p in plans:
         if not p.feasible:
             rows.append(((10**6, 0.0, 0.0, 0.0, 0.0), p, None, None, None, tuple(p.reasons), ()))
             continue
-        area = float(np.asarray(margin_fn(p.track_xy_m)))
+        area, aoa, fbits, mbits = next(checks)
         assert p.max_distance_from_runway_m is not None and p.total_time_s is not None
         vis = visibility_m - p.max_distance_from_runway_m
-        aoa = None if aoa_margin_fn is None else float(aoa_margin_fn(p.bank_deg))
-        fbits, mbits = (int(b) for b in plan_checks(
-            bank_deg=p.bank_deg, bank_limit_deg=bank_limit_deg, area_margin_m=area, sector_bound=False,
-            visibility_m=visibility_m, max_distance_from_runway_m=p.max_distance_from_runway_m,
-            area_radius_m=area_radius_m, aoa_margin_deg=aoa))
         fails, marg = [], []
         if fbits & REASON_BANK:
             fails.append(f"needs {p.bank_deg:g} deg bank, above the {bank_limit_deg:g} deg limit")

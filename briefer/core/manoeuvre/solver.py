@@ -696,28 +696,45 @@ Rows = (npt.NDArray[np.int_] | slice) if TYPE_CHECKING else object
 
 
 def _take(value: object, rows: Rows, m: int) -> object:
-    if type(value) is np.ndarray:
-        return value[rows] if value.ndim >= 1 and value.shape[0] == m else value
-    if type(value) is LegArrays or type(value) is TurnProfile:
-        return type(value)(**{f: _take(getattr(value, f), rows, m) for f in type(value).__slots__})
-    return value
+    """The rows of an array over the M rows (anything else as it is)."""
+    return value[rows] if type(value) is np.ndarray and value.ndim >= 1 and value.shape[0] == m else value
+
+
+def _take_prof(pr: TurnProfile | None, rows: Rows, m: int) -> TurnProfile | None:
+    if pr is None:
+        return None
+    t = _take
+    return TurnProfile(angle=t(pr.angle, rows, m), tas=t(pr.tas, rows, m), tr=t(pr.tr, rows, m),
+                       tc=t(pr.tc, rows, m), dp=t(pr.dp, rows, m), wp=t(pr.wp, rows, m), c=t(pr.c, rows, m),
+                       k=pr.k, total=t(pr.total, rows, m))
 
 
 def _take_leg(lg: LegArrays, rows: Rows, m: int) -> LegArrays:
     """A leg's rows; a turn's calm-wind angle (its sample count) becomes the largest of those rows'."""
-    out = _take(lg, rows, m)
-    assert isinstance(out, LegArrays)
-    if out.nominal_rows is not None and out.nominal_rows.size:
-        object.__setattr__(out, "nominal_rad", float(np.max(out.nominal_rows)))
-    return out
+    t = _take
+    nominal_rows = t(lg.nominal_rows, rows, m)
+    nominal = lg.nominal_rad
+    if nominal_rows is not None and nominal_rows.size:
+        nominal = float(np.max(nominal_rows))
+    return LegArrays(kind=lg.kind, name=lg.name, duration=t(lg.duration, rows, m), x0=t(lg.x0, rows, m),
+                     y0=t(lg.y0, rows, m), psi0=t(lg.psi0, rows, m), gx=t(lg.gx, rows, m), gy=t(lg.gy, rows, m),
+                     track_rad=t(lg.track_rad, rows, m), prof=_take_prof(lg.prof, rows, m),
+                     sign=t(lg.sign, rows, m), dx=t(lg.dx, rows, m), dy=t(lg.dy, rows, m), nominal_rad=nominal,
+                     nominal_rows=nominal_rows)
 
 
 def take_rows(sol: ShapeSolution, rows: Rows) -> ShapeSolution:
     """The rows ``rows`` of a solution solved over one leading axis of M rows (winds, levels, sides);
     a slice gives views of the solution's arrays (read only: nothing here writes into them)."""
     m = sol.ok.shape[0]
-    return ShapeSolution(**{f: (tuple(_take_leg(lg, rows, m) for lg in sol.legs) if f == "legs"
-                                else _take(getattr(sol, f), rows, m)) for f in ShapeSolution.__slots__})
+    t = _take
+    return ShapeSolution(shape=sol.shape, ok=t(sol.ok, rows, m), reasons=t(sol.reasons, rows, m),
+                         legs=tuple([_take_leg(lg, rows, m) for lg in sol.legs]), x_ri=t(sol.x_ri, rows, m),
+                         y_ri=t(sol.y_ri, rows, m), offset=t(sol.offset, rows, m),
+                         roll_out_d=t(sol.roll_out_d, rows, m), abeam_s=t(sol.abeam_s, rows, m),
+                         break_s=t(sol.break_s, rows, m), psi_f=t(sol.psi_f, rows, m), gs_f=t(sol.gs_f, rows, m),
+                         psi_d=t(sol.psi_d, rows, m), gs_d=t(sol.gs_d, rows, m), final_turn=sol.final_turn,
+                         turns_to_final=sol.turns_to_final, wx=t(sol.wx, rows, m), wy=t(sol.wy, rows, m))
 
 
 def _rows_of(values: list[object], rows: list[npt.NDArray[np.int_]], m: list[int]) -> object:
