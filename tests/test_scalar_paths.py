@@ -105,3 +105,24 @@ def test_atmosphere():
         _assert_same(atm.density_ratio, (pa,), {"oat_c": oat})
         _assert_same(atm.density_altitude_ft, (pa,), {"oat_c": oat})
         _assert_same(atm.tas_from_cas_kt, (cas,), {"pressure_altitude_ft": pa, "oat_c": oat})
+
+
+def test_sight_picture():
+    from briefer.core import sightpicture as sp
+    rng = np.random.default_rng(RNG_SEED + 2)
+    for i in range(N):
+        h, d, dep = float(rng.uniform(1.0, 5000.0)), float(rng.uniform(0.01, 10.0)), float(rng.uniform(0.01, 89.99))
+        if i % 50 == 0:
+            d, dep = [0.0, -1.0, math.inf, d][i // 50 % 4], [90.0, 95.0, 0.0, dep][i // 50 % 4]
+        _assert_same(sp.depression_angle_deg, (h, d), {})
+        _assert_same(sp.offset_for_depression_nm, (h, dep), {})
+
+
+def test_sight_picture_linspace_is_numpys():
+    from briefer.core.sightpicture import _linspace
+    rng = np.random.default_rng(RNG_SEED + 3)
+    for _ in range(N):
+        a = float(rng.uniform(-1e4, 1e4))
+        for b, num in ((a + 2500.0, 8), (a + float(rng.uniform(-1e4, 1e4)), 6), (a, 5)):
+            mine, numpys = _linspace(a, b, num), np.linspace(a, b, num)
+            assert mine.dtype == numpys.dtype and np.array_equal(mine, numpys)

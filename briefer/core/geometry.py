@@ -445,7 +445,11 @@ class RunwayFrame:
         ndarray, shape (..., 2)
             Points (east, north). [m]
         """
-        a, r = np.broadcast_arrays(np.asarray(along_m, dtype=float), np.asarray(right_m, dtype=float))
+        if (type(along_m) is np.ndarray and type(right_m) is np.ndarray and along_m.dtype == np.float64
+                and right_m.dtype == np.float64 and along_m.shape == right_m.shape):
+            a, r = along_m, right_m            # already float arrays of one shape: nothing to broadcast
+        else:
+            a, r = np.broadcast_arrays(np.asarray(along_m, dtype=float), np.asarray(right_m, dtype=float))
         return (np.asarray(self.threshold_xy_m) + a[..., None] * np.asarray(self.along_unit)
                 + r[..., None] * np.asarray(self.right_unit))
 

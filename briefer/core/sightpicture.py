@@ -27,7 +27,7 @@ import numpy as np
 from briefer import units
 from briefer.core import angles
 from briefer.core._types import Numeric
-from briefer.core.ranges import checked
+from briefer.core.ranges import SCALAR_TYPES, checked, checked_float
 from briefer.core.turn import (
     angle_of_attack_in_turn,
     bank_for_radius_deg,
@@ -49,6 +49,13 @@ __all__ = [
 
 def _positive(name: str, value: Numeric, unit: str) -> np.ndarray:
     return checked(name, value, 0.0, math.inf, unit, lo_open=True, hi_open=True)
+
+
+def _positive_float(name: str, value: Numeric, unit: str) -> float:
+    """`_positive` as a float (one number: without numpy)."""
+    if type(value) in SCALAR_TYPES:
+        return checked_float(name, value, 0.0, math.inf, unit, lo_open=True, hi_open=True)
+    return float(_positive(name, value, unit))
 
 
 def depression_angle_deg(height_ft: Numeric, offset_nm: Numeric) -> Numeric:
@@ -80,6 +87,9 @@ def depression_angle_deg(height_ft: Numeric, offset_nm: Numeric) -> Numeric:
     ----------
     .. [3] Hand-derived sight-line trigonometry (module references).
     """
+    if type(height_ft) in SCALAR_TYPES and type(offset_nm) in SCALAR_TYPES:    # one number: math, same operations
+        h_f = _positive_float("height_ft", height_ft, "ft") * units.FT_TO_M
+        return math.degrees(math.atan(h_f / (_positive_float("offset_nm", offset_nm, "NM") * units.NM_TO_M)))
     h_m = _positive("height_ft", height_ft, "ft") * units.FT_TO_M
     d_m = _positive("offset_nm", offset_nm, "NM") * units.NM_TO_M
     return angles.as_float(angles.atand(h_m / d_m))                  # [3] depression = atan(h / d)
@@ -109,6 +119,11 @@ def offset_for_depression_nm(height_ft: Numeric, depression_deg: Numeric) -> Num
     ----------
     .. [3] Hand-derived sight-line trigonometry (module references).
     """
+    if type(height_ft) in SCALAR_TYPES and type(depression_deg) in SCALAR_TYPES:  # one number: math, same operations
+        h_f = _positive_float("height_ft", height_ft, "ft") * units.FT_TO_M
+        dep_f = _positive_float("depression_deg", depression_deg, "deg")
+        if dep_f < 90.0:
+            return h_f / math.tan(math.radians(dep_f)) * units.M_TO_NM
     h_m = _positive("height_ft", height_ft, "ft") * units.FT_TO_M
     dep = _positive("depression_deg", depression_deg, "deg")
     if np.any(dep >= 90.0):
@@ -148,7 +163,7 @@ def reversal_lateral_factor(tas_kt: float, *, crosswind_toward_runway_kt: float 
     k = 2 cos(c) + (W / V)(pi + 2c). k > 0 for |c| < 90 deg. The along-runway wind component
     does not change k.
     """
-    v = float(_positive("tas_kt", tas_kt, "kt"))
+    v = _positive_float("tas_kt", tas_kt, "kt")
     w = float(crosswind_toward_runway_kt)
     if not (math.isfinite(w) and abs(w) < v):
         raise DomainError(f"crosswind_toward_runway_kt = {w:g} kt is outside the valid range "
@@ -358,11 +373,11 @@ def compare_sight_picture(*, circling_height_ft: float, planned_offset_nm: float
     .. [2] ICAO Doc 8168, Vol II, Part I, Section 4, Chapter 7 (R = 2r + S).
     .. [3] Hand-derived sight-line trigonometry.
     """
-    h_circ = float(_positive("circling_height_ft", circling_height_ft, "ft"))
-    d_plan = float(_positive("planned_offset_nm", planned_offset_nm, "NM"))
-    h_fam = float(_positive("familiar_height_ft", familiar_height_ft, "ft"))
-    d_fam = float(_positive("familiar_offset_nm", familiar_offset_nm, "NM"))
-    ias = float(_positive("ias_kt", ias_kt, "kt"))
+    h_circ = _positive_float("circling_height_ft", circling_height_ft, "ft")
+    d_plan = _positive_float("planned_offset_nm", planned_offset_nm, "NM")
+    h_fam = _positive_float("familiar_height_ft", familiar_height_ft, "ft")
+    d_fam = _positive_float("familiar_offset_nm", familiar_offset_nm, "NM")
+    ias = _positive_float("ias_kt", ias_kt, "kt")
     if not (math.isfinite(bank_limit_deg) and 0.0 < bank_limit_deg < 90.0):
         raise DomainError(f"bank_limit_deg = {bank_limit_deg:g} deg is outside the valid range "
                           "0 < bank_limit_deg < 90 deg")
@@ -430,9 +445,35 @@ def familiar_turn_track_m(*, side: str, roll_in_along_m: float, offset_m: float,
     """
     sign = 1.0 if side == "right" else -1.0
     x_ri = roll_in_along_m
-    down = np.column_stack([np.linspace(x_ri + 2500.0, x_ri, 8), np.full(8, sign * offset_m)])
-    th = np.linspace(0.0, math.pi, 37)
-    turn_pts = np.column_stack([x_ri - radius_m * np.sin(th), sign * (offset_m - radius_m * (1 - np.cos(th)))])
-    y_end = sign * (offset_m - 2 * radius_m)
-    final = np.column_stack([np.linspace(x_ri, x_ri + 1500.0, 6), np.full(6, y_end)])
-    return np.vstack([down, turn_pts, final])
+    sin_th, one_minus_cos_th = _half_turn()
+    out = np.empty((51, 2))
+    out[:8, 0] = _linspace(x_ri + 2500.0, x_ri, 8)                  # downwind
+    out[:8, 1] = sign * offset_m
+    out[8:45, 0] = x_ri - radius_m * sin_th                         # 180 deg of turn, 37 points
+    out[8:45, 1] = sign * (offset_m - radius_m * one_minus_cos_th)
+    out[45:, 0] = _linspace(x_ri, x_ri + 1500.0, 6)                 # final
+    out[45:, 1] = sign * (offset_m - 2 * radius_m)
+    return out
+
+
+_HALF_TURN: list[tuple[np.ndarray, np.ndarray]] = []
+
+
+def _half_turn() -> tuple[np.ndarray, np.ndarray]:
+    """sin(th) and 1 - cos(th) at 37 angles th from 0 to pi (computed once)."""
+    if not _HALF_TURN:
+        th = np.linspace(0.0, math.pi, 37)
+        _HALF_TURN.append((np.sin(th), 1 - np.cos(th)))
+    return _HALF_TURN[0]
+
+
+def _linspace(start: float, stop: float, num: int) -> np.ndarray:
+    """numpy.linspace(start, stop, num) of two numbers, by its own steps (arange * step + start,
+    the last point set to stop) without its argument handling."""
+    step = (stop - start) / (num - 1)
+    if step == 0.0 or not math.isfinite(step):
+        return np.linspace(start, stop, num)
+    y = np.arange(0.0, num) * step
+    y += start
+    y[-1] = stop
+    return y
