@@ -118,8 +118,8 @@ def test_sight_picture():
         _assert_same(sp.offset_for_depression_nm, (h, dep), {})
 
 
-def test_sight_picture_linspace_is_numpys():
-    from briefer.core.sightpicture import _linspace
+def test_linspace_is_numpys():
+    from briefer.core.geometry import linspace as _linspace
     rng = np.random.default_rng(RNG_SEED + 3)
     for _ in range(N):
         a = float(rng.uniform(-1e4, 1e4))

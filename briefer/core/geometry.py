@@ -126,6 +126,18 @@ def _point(point: ArrayLike, name: str) -> tuple[float, float]:
     return (float(arr[0]), float(arr[1]))
 
 
+def linspace(start: float, stop: float, num: int) -> npt.NDArray[np.float64]:
+    """numpy.linspace(start, stop, num) of two numbers (num >= 2), by its own steps (arange *
+    step + start, the last point set to stop) without its argument handling: the same array."""
+    step = (stop - start) / (num - 1)
+    if step == 0.0 or not math.isfinite(step):
+        return np.linspace(start, stop, num)
+    y = np.arange(0.0, num) * step
+    y += start
+    y[-1] = stop
+    return y
+
+
 def _cross(o: npt.NDArray[np.float64], a: npt.NDArray[np.float64], b: npt.NDArray[np.float64]) -> Numeric:
     return (a[..., 0] - o[..., 0]) * (b[..., 1] - o[..., 1]) - (a[..., 1] - o[..., 1]) * (b[..., 0] - o[..., 0])
 
@@ -817,9 +829,12 @@ class SideSector:
         half = math.degrees(math.acos(-h / radius_m))   # half-angle of the arc on the excluded side
         centre_brg = float(atand2(nrm[0], nrm[1]))
         k = max(2, int(math.ceil(n * 2.0 * half / 360.0)) + 1)
-        brg = centre_brg + np.linspace(-half, half, k)
-        arc = c + radius_m * np.stack([sind(brg), cosd(brg)], axis=-1)
-        return np.vstack([arc, arc[:1]])
+        brg = centre_brg + linspace(-half, half, k)
+        arc = np.empty((k + 1, 2))
+        arc[:k, 0] = c[0] + radius_m * sind(brg)
+        arc[:k, 1] = c[1] + radius_m * cosd(brg)
+        arc[k] = arc[0]
+        return arc
 
 
 Sector = Union[BearingSector, SideSector]
@@ -1094,17 +1109,22 @@ class ProtectedArea:
             ang = np.linspace(0.0, 2.0 * math.pi, n + 1)[:-1]
             circle = h[0] + self.radius_m * np.stack([np.cos(ang), np.sin(ang)], axis=-1)
             return np.vstack([circle, circle[:1]])
-        d = np.roll(h, -1, axis=0) - h                        # edge i: vertex i -> i+1
-        normal_ang = np.arctan2(-d[:, 0], d[:, 1])            # outward (right-hand) normal angle
-        pieces = []
+        d = np.concatenate((h[1:], h[:1])) - h                # edge i: vertex i -> i+1
+        normal_ang = np.arctan2(-d[:, 0], d[:, 1]).tolist()   # outward (right-hand) normal angle
+        angs, counts = [], []
         for i in range(len(h)):
             start = normal_ang[i - 1]
             sweep = (normal_ang[i] - start) % (2.0 * math.pi)
             k = max(2, int(math.ceil(n * sweep / (2.0 * math.pi))) + 1)
-            ang = start + np.linspace(0.0, sweep, k)
-            pieces.append(h[i] + self.radius_m * np.stack([np.cos(ang), np.sin(ang)], axis=-1))
-        poly = np.vstack(pieces)
-        return np.vstack([poly, poly[:1]])
+            angs.append(start + linspace(0.0, sweep, k))
+            counts.append(k)
+        ang = np.concatenate(angs)                            # every arc's angles: one cos, one sin
+        m = len(ang)
+        poly = np.empty((m + 1, 2))
+        poly[:m, 0] = np.repeat(h[:, 0], counts) + self.radius_m * np.cos(ang)
+        poly[:m, 1] = np.repeat(h[:, 1], counts) + self.radius_m * np.sin(ang)
+        poly[m] = poly[0]
+        return poly
 
 
 def charted_sector(sector: Any, airfield: Any, thresholds_xy: Mapping[str, ArrayLike]) -> Sector:

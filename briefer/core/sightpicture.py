@@ -27,6 +27,7 @@ import numpy as np
 from briefer import units
 from briefer.core import angles
 from briefer.core._types import Numeric
+from briefer.core.geometry import linspace as _linspace
 from briefer.core.ranges import SCALAR_TYPES, checked, checked_float
 from briefer.core.turn import (
     angle_of_attack_in_turn,
@@ -466,14 +467,3 @@ def _half_turn() -> tuple[np.ndarray, np.ndarray]:
         _HALF_TURN.append((np.sin(th), 1 - np.cos(th)))
     return _HALF_TURN[0]
 
-
-def _linspace(start: float, stop: float, num: int) -> np.ndarray:
-    """numpy.linspace(start, stop, num) of two numbers, by its own steps (arange * step + start,
-    the last point set to stop) without its argument handling."""
-    step = (stop - start) / (num - 1)
-    if step == 0.0 or not math.isfinite(step):
-        return np.linspace(start, stop, num)
-    y = np.arange(0.0, num) * step
-    y += start
-    y[-1] = stop
-    return y
