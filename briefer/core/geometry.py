@@ -624,15 +624,19 @@ def convex_hull(points: ArrayLike) -> npt.NDArray[np.float64]:
     ----------
     .. [1] A. M. Andrew, Information Processing Letters 9(5), 1979, pp. 216-219.
     """
-    pts = _points(points)
+    return np.array(_hull_vertices(_points(points)))
+
+
+def _hull_vertices(pts: npt.NDArray[np.float64]) -> list[tuple[float, float]]:
+    """`convex_hull` of checked points, as a list of (east, north) floats."""
     if pts.ndim != 2 or pts.shape[0] < 1:
         raise DomainError(f"points must be an (N, 2) array with N >= 1; got shape {pts.shape}")
     uniq: list[tuple[float, float]] = []
-    for e, n in sorted((float(e), float(n)) for e, n in pts):
+    for e, n in sorted(map(tuple, pts.tolist())):
         if all(math.hypot(e - u[0], n - u[1]) >= _COINCIDENT_M for u in uniq):
             uniq.append((e, n))
     if len(uniq) == 1:
-        return np.array(uniq)
+        return uniq
 
     def turn(o: tuple[float, float], a: tuple[float, float], b: tuple[float, float]) -> float:
         return (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0])
@@ -659,7 +663,7 @@ def convex_hull(points: ArrayLike) -> npt.NDArray[np.float64]:
                 del hull[i]
                 changed = True
                 break
-    return np.array(hull)
+    return hull
 
 
 # --------------------------------------------------------------------------------------------
@@ -964,10 +968,10 @@ class ProtectedArea:
         for s in self.excluded:
             if not isinstance(s, (BearingSector, SideSector)):
                 raise DomainError(f"excluded sectors must be BearingSector or SideSector; got {type(s).__name__}")
-        object.__setattr__(self, "centres_m", tuple((float(e), float(n)) for e, n in c))
+        object.__setattr__(self, "centres_m", tuple(map(tuple, c.tolist())))
         object.__setattr__(self, "excluded", tuple(self.excluded))
         object.__setattr__(self, "radius_m", float(self.radius_m))
-        object.__setattr__(self, "hull_m", tuple((float(e), float(n)) for e, n in convex_hull(c)))
+        object.__setattr__(self, "hull_m", tuple(_hull_vertices(c)))
 
     def _edges(self) -> tuple[npt.NDArray[np.float64], npt.NDArray[np.float64]]:
         h = np.asarray(self.hull_m)
