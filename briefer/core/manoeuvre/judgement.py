@@ -45,7 +45,7 @@ TYPE_CHECKING = False
 if TYPE_CHECKING:    # numpy.typing for the type checker only (its import is slow)
     import numpy.typing as npt
 
-from briefer.core.manoeuvre.legs import FloatArray, TurnProfile, ramp_q
+from briefer.core.manoeuvre.legs import FloatArray, ramp_q
 from briefer.core.manoeuvre.plans import candidate_plans
 from briefer.core.manoeuvre.ranking import (
     PlanChoice,
@@ -153,38 +153,27 @@ def _margins(margin_fn: MarginFn, xy: FloatArray) -> tuple[FloatArray, npt.NDArr
     return m, np.zeros(m.shape, dtype=bool)
 
 
-def _ramp_end_q(pr: TurnProfile, cache: dict[tuple[float, ...], complex]
-                ) -> tuple[FloatArray | float, FloatArray | float]:
-    """Q(tr) = C + i S of each row's roll-in ramp (:func:`briefer.core.manoeuvre.legs.ramp_q`),
-    (real, imag); computed once (and kept in ``cache``) when every row has the same ramp (one
-    bank, TAS and roll rate: the full turns of a level of the envelope)."""
-    if not pr.k > 0.0:
-        return 0.0, 0.0
-    tr, c, v = (np.asarray(a, dtype=float) for a in (pr.tr, pr.c, pr.tas))
+def _ramp_end_q(tr: FloatArray, c: FloatArray, v: FloatArray, k: float, cache: dict[tuple[float, ...], complex]
+                ) -> complex | npt.NDArray[np.complex128]:
+    """Q(tr) = C + i S of each row's roll-in ramp (:func:`briefer.core.manoeuvre.legs.ramp_q`);
+    computed once (and kept in ``cache``) when every row has the same ramp (one bank, TAS and
+    roll rate: the full turns of a level of the envelope)."""
+    if not k > 0.0:
+        return 0j
     if tr.size and tr.min() == tr.max() and c.min() == c.max() and v.min() == v.max():
-        key = (float(tr.flat[0]), float(c.flat[0]), float(v.flat[0]), pr.k)
+        key = (float(tr.flat[0]), float(c.flat[0]), float(v.flat[0]), k)
         if key not in cache:
-            cache[key] = complex(ramp_q(key[0], key[1], key[2], pr.k))
-        return cache[key].real, cache[key].imag
-    q = ramp_q(tr, c, v, pr.k)
-    return q.real, q.imag
+            cache[key] = complex(ramp_q(key[0], key[1], key[2], k))
+        return cache[key]
+    return ramp_q(tr, c, v, k)
 
 
-def _arc_counts(lg: LegArrays, turn_step_deg: float) -> npt.NDArray[np.int_] | int:
-    """The arc samples of a turn in the batch track: :func:`turn_sample_count` of each row's own
-    calm-wind angle (``nominal_rows``; one count for all rows without it)."""
-    if lg.nominal_rows is None:
-        return turn_sample_count(lg.nominal_rad, turn_step_deg)
-    return np.maximum(3, np.ceil(np.degrees(lg.nominal_rows) / turn_step_deg - 1e-9).astype(np.int64) + 1)
-
-
-def _coarse_points(sol: ShapeSolution, turn_step_deg: float, cache: dict[tuple[float, ...], complex]
-                   ) -> tuple[FloatArray, FloatArray]:
-    """A few of the batch track's points, x and y of shape (K, M): every leg's start and the
-    middle sample of the final turn's constant-bank arc (the farthest part of most tracks from
-    the runway), each the point :func:`sample_solution` makes up to rounding (there by a running
-    product over the arc, here directly: a few 1e-12 m apart at the demo's scale); rows that
-    cannot be flown hold garbage. [m]
+def _final_turn_middle(sol: ShapeSolution, rows: npt.NDArray[np.int_], turn_step_deg: float,
+                       cache: dict[tuple[float, ...], complex]) -> tuple[FloatArray, FloatArray]:
+    """The middle sample of the final turn's constant-bank arc on the rows given, x and y: the
+    point :func:`sample_solution` makes up to rounding (there by a running product over the arc,
+    here directly: a few 1e-12 m apart at the demo's scale), the farthest part of most tracks
+    from the runway. [m]
 
     The arc sample k of n (:func:`turn_sample_count` of the row's calm-wind angle) is at the
     fraction f = k / (n - 1) of the arc. In the frame of a right turn from heading 0 the air
@@ -194,24 +183,24 @@ def _coarse_points(sol: ShapeSolution, turn_step_deg: float, cache: dict[tuple[f
     w (tr + tc f) (the trochoid: ICAO Doc 8168 Vol II, Part I, Section 4, Chapter 7, wind
     throughout the turn).
     """
-    xs = [lg.x0 for lg in sol.legs]
-    ys = [lg.y0 for lg in sol.legs]
     lg = sol.legs[sol.final_turn]
     pr = lg.prof
     assert pr is not None and lg.sign is not None
+    tas, wp, dp, angle, tr, tc, c = (np.asarray(getattr(pr, f))[rows] for f in ("tas", "wp", "dp", "angle", "tr",
+                                                                               "tc", "c"))
     with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
-        n = _arc_counts(lg, turn_step_deg)
+        n = (turn_sample_count(lg.nominal_rad, turn_step_deg) if lg.nominal_rows is None else
+             np.maximum(3, np.ceil(np.degrees(lg.nominal_rows[rows]) / turn_step_deg - 1e-9).astype(np.int64) + 1))
         f = ((n - 1) // 2) / (n - 1)
-        r = pr.tas / np.maximum(pr.wp, 1e-12)
-        h = pr.dp + (pr.angle - 2.0 * pr.dp) * f
-        qx, qy = _ramp_end_q(pr, cache)
-        ax = qx + r * (np.sin(h) - np.sin(pr.dp))
-        ay = lg.sign * (qy + r * (np.cos(pr.dp) - np.cos(h)))
-        c0, s0 = np.cos(lg.psi0), np.sin(lg.psi0)
-        t = pr.tr + pr.tc * f
-        xs.append(lg.x0 + (ax * c0 - ay * s0) + sol.wx * t)
-        ys.append(lg.y0 + (ax * s0 + ay * c0) + sol.wy * t)
-    return np.stack(xs), np.stack(ys)
+        r = tas / np.maximum(wp, 1e-12)
+        h = dp + (angle - 2.0 * dp) * f
+        q = _ramp_end_q(tr, c, tas, pr.k, cache)
+        ax = q.real + r * (np.sin(h) - np.sin(dp))
+        ay = lg.sign[rows] * (q.imag + r * (np.cos(dp) - np.cos(h)))
+        psi0 = lg.psi0[rows]
+        c0, s0 = np.cos(psi0), np.sin(psi0)
+        t = tr + tc * f
+        return lg.x0[rows] + (ax * c0 - ay * s0) + sol.wx[rows] * t, lg.y0[rows] + (ax * s0 + ay * c0) + sol.wy[rows] * t
 
 
 def _runway_distance_m(x: FloatArray, y: FloatArray, runway_length_m: float) -> FloatArray:
@@ -236,13 +225,15 @@ def _coarse_pass(solved: list[tuple[list[int], ShapeSolution]], ok: npt.NDArray[
     """Which flyable candidates (``ok``, (M, C)) fail on a few of their own track points (see
     :class:`_Coarse`); ``solved``: (candidate indices, their solution, rows side-major).
 
-    The judged largest runway distance and smallest area margin of a track are the largest and
-    smallest over its samples; a coarse point is a sample (to rounding, under 1e-9 m), so a coarse
-    distance beyond the visibility, or a coarse margin below zero, by more than PROOF_MARGIN_M is
-    a failure of the sampled track too: more than the rounding, and more than any step the margin
-    function makes near zero (the area's sector edge tolerance, 1 m, below which a sector does
-    not count). A candidate proven to fail is not the best of a row that fits (it has a failure,
-    the best has none), so only the candidates not proven need their full samples.
+    The coarse points are every leg's start, then (where those do not prove it) the middle
+    sample of the final turn's arc (:func:`_final_turn_middle`). The judged largest runway
+    distance and smallest area margin of a track are the largest and smallest over its samples;
+    a coarse point is a sample (to rounding, under 1e-9 m), so a coarse distance beyond the
+    visibility, or a coarse margin below zero, by more than PROOF_MARGIN_M is a failure of the
+    sampled track too: more than the rounding, and more than any step the margin function makes
+    near zero (the area's sector edge tolerance, 1 m, below which a sector does not count). A
+    candidate proven to fail is not the best of a row that fits (it has a failure, the best has
+    none), so only the candidates not proven need their full samples.
     """
     m, c = ok.shape
     dist = np.full((m, c), np.nan)
@@ -250,27 +241,38 @@ def _coarse_pass(solved: list[tuple[list[int], ShapeSolution]], ok: npt.NDArray[
     sector = np.zeros((m, c), dtype=bool)
     proven = np.zeros((m, c), dtype=bool)
     cache: dict[tuple[float, ...], complex] = {}
+    beyond = visibility_m + PROOF_MARGIN_M
     for cis, sol in solved:
         g = len(cis)
         ok_s = ok[:, cis].T.ravel()                          # (side, row) in the solution's order
-        if not ok_s.any():
+        rows = np.flatnonzero(ok_s)
+        if not rows.size:
             continue
-        px, py = _coarse_points(sol, turn_step_deg, cache)   # every row (garbage where not ok)
-        with np.errstate(invalid="ignore", over="ignore"):
-            d = np.where(ok_s, np.max(_runway_distance_m(px, py, runway_length_m), axis=0), np.nan)
-            prov = d > visibility_m + PROOF_MARGIN_M
-        near = np.flatnonzero(ok_s & ~prov)
-        mg = np.full(g * m, np.nan)
-        sb = np.zeros(g * m, dtype=bool)
+        px = np.stack([lg.x0[rows] for lg in sol.legs])      # (legs, rows): every leg's start
+        py = np.stack([lg.y0[rows] for lg in sol.legs])
+        d = np.max(_runway_distance_m(px, py, runway_length_m), axis=0)
+        prov = d > beyond
+        left = np.flatnonzero(~prov)
+        mx, my = _final_turn_middle(sol, rows[left], turn_step_deg, cache)
+        with np.errstate(invalid="ignore"):
+            d[left] = np.maximum(d[left], _runway_distance_m(mx, my, runway_length_m))
+            prov[left] = d[left] > beyond
+        near = left[~prov[left]]
+        mg = np.full(rows.size, np.nan)
+        sb = np.zeros(rows.size, dtype=bool)
         if near.size:
-            xy = np.stack([px[:, near].T, py[:, near].T], axis=-1)[:, :, None, :]   # (tracks, K, 1, 2)
+            at = np.searchsorted(left, near)
+            xy = np.stack([np.concatenate([px[:, near], mx[None, at]]).T,
+                           np.concatenate([py[:, near], my[None, at]]).T], axis=-1)[:, :, None, :]   # (tracks, K, 1, 2)
             a, sec = _margins(margin_fn, xy)
             worst = np.argmin(a, axis=1)
             k = np.arange(near.size)
             mg[near], sb[near] = a[k, worst], sec[k, worst]
             prov[near] = mg[near] < -PROOF_MARGIN_M
         for arr, val in ((dist, d), (margin, mg), (sector, sb), (proven, prov)):
-            arr[:, cis] = val.reshape(g, m).T
+            full = arr[:, cis].T.ravel()                     # a copy, side-major
+            full[rows] = val
+            arr[:, cis] = full.reshape(g, m).T
     return _Coarse(proven=proven, distance_m=dist, margin_m=margin, sector_bound=sector)
 
 
@@ -340,19 +342,23 @@ def _tile(a: FloatArray, k: int) -> FloatArray:
 def _sampled(solved: list[tuple[list[int], ShapeSolution]], sampled: npt.NDArray[np.bool_], m: int, *,
              turn_step_deg: float, n_straight: int) -> list[tuple[npt.NDArray[np.int_], ...]]:
     """(rows, candidates, tracks) of the cells ``sampled`` (M, C): every shape sampled in one
-    call where their legs match (:func:`merge_for_sampling`), else one call per shape."""
+    call where their legs match (:func:`merge_for_sampling`, which takes the rows sampled of
+    each), else one call per shape."""
     subs, idx = [], []
     for cis, sol in solved:
         rows = sampled[:, cis].T.ravel()                     # (side, row) in the solution's order
         if not rows.any():
             continue
-        # a small batch samples every row (taking rows out costs more than sampling them)
-        sub = sol if rows.all() or m < _PRUNE_MIN_ROWS else take_rows(sol, np.flatnonzero(rows))
         flat = np.flatnonzero(rows)
-        subs.append((sub, None if sub is not sol or rows.all() else rows))
+        # a small batch samples every row (taking rows out costs more than sampling them)
+        every = bool(rows.all()) or m < _PRUNE_MIN_ROWS
+        subs.append((sol, None if every else flat, None if not every or rows.all() else rows))
         idx.append((flat % m, np.asarray(cis)[flat // m]))
-    merged = merge_for_sampling([sub for sub, _ in subs]) if len(subs) > 1 else None
-    groups = [merged] if merged is not None else [sub for sub, _ in subs]
+    if not subs:
+        return []
+    merged = merge_for_sampling([sol for sol, _, _ in subs], [take for _, take, _ in subs])
+    groups = [merged] if merged is not None else [sol if take is None else take_rows(sol, take)
+                                                  for sol, take, _ in subs]
     xys = []
     for sol in groups:
         xy = sample_solution(sol, turn_step_deg=turn_step_deg, n_straight=n_straight, running_product=True,
@@ -360,10 +366,10 @@ def _sampled(solved: list[tuple[list[int], ShapeSolution]], sampled: npt.NDArray
         if not sol.ok.all():
             xy[~sol.ok] = 0.0
         xys.append(xy)
-    if merged is not None:      # back to each shape's rows
-        ends = np.cumsum([sub.ok.shape[0] for sub, _ in subs])
+    if merged is not None and len(subs) > 1:      # back to each shape's rows
+        ends = np.cumsum([sol.ok.shape[0] if take is None else take.size for sol, take, _ in subs])
         xys = np.split(xys[0], ends[:-1])
-    return [(r, c, xy if keep is None else xy[keep]) for (r, c), (_, keep), xy in zip(idx, subs, xys)]
+    return [(r, c, xy if keep is None else xy[keep]) for (r, c), (_, _, keep), xy in zip(idx, subs, xys)]
 
 
 def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], ShapeSolution]],

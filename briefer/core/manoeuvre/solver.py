@@ -737,28 +737,31 @@ def take_rows(sol: ShapeSolution, rows: Rows) -> ShapeSolution:
                          turns_to_final=sol.turns_to_final, wx=t(sol.wx, rows, m), wy=t(sol.wy, rows, m))
 
 
-def _rows_of(values: list[object], rows: list[npt.NDArray[np.int_]], m: list[int]) -> object:
-    """The rows of each value (arrays of their solve's M rows, legs, profiles), end to end."""
-    v0 = values[0]
-    if type(v0) is np.ndarray:
-        if v0.ndim == 0 or v0.shape[0] != m[0]:
-            return v0
-        return v0[rows[0]] if len(values) == 1 else np.concatenate([v[r] for v, r in zip(values, rows)])  # type: ignore[index]
-    if type(v0) is LegArrays or type(v0) is TurnProfile:
-        return type(v0)(**{f: _rows_of([getattr(v, f) for v in values], rows, m) for f in type(v0).__slots__})
-    return v0
+def _gather(arrays: list[FloatArray], rows: Sequence[npt.NDArray[np.int_]]) -> FloatArray:
+    """The rows of each array, end to end."""
+    return arrays[0][rows[0]] if len(arrays) == 1 else np.concatenate([a[r] for a, r in zip(arrays, rows)])
+
+
+_PROFILE_ROWS = ("angle", "tas", "tr", "tc", "dp", "wp", "c", "total")
 
 
 def turn_rows(pieces: Sequence[tuple[Sequence[LegArrays], npt.NDArray[np.int_]]]) -> list[LegArrays]:
     """Turn legs made by solves of one shape (``made`` of :func:`solve_shape`), the rows given of
-    each (legs, rows) piece end to end: new legs for a solve of those rows (its ``turns``)."""
-    m = [int(np.shape(legs[0].duration)[0]) for legs, _ in pieces]
+    each (legs, rows) piece end to end: new legs for a solve of those rows (its ``turns``; their
+    start points are left for that solve to set)."""
+    rows = [r for _, r in pieces]
     out = []
     for i in range(len(pieces[0][0])):
-        lg = _rows_of([legs[i] for legs, _ in pieces], [rows for _, rows in pieces], m)
-        assert isinstance(lg, LegArrays) and lg.nominal_rows is not None
-        object.__setattr__(lg, "nominal_rad", float(np.max(lg.nominal_rows, initial=0.0)))
-        out.append(lg)
+        legs = [made[i] for made, _ in pieces]
+        a = legs[0]
+        profs = [lg.prof for lg in legs]
+        assert a.prof is not None and a.nominal_rows is not None
+        pr = TurnProfile(k=a.prof.k, **{f: _gather([getattr(p, f) for p in profs], rows) for f in _PROFILE_ROWS})
+        nominal = _gather([lg.nominal_rows for lg in legs], rows)
+        out.append(LegArrays(kind="turn", name=a.name, duration=pr.total, psi0=_gather([lg.psi0 for lg in legs], rows),
+                             prof=pr, sign=_gather([lg.sign for lg in legs], rows),
+                             dx=_gather([lg.dx for lg in legs], rows), dy=_gather([lg.dy for lg in legs], rows),
+                             nominal_rad=float(np.max(nominal, initial=0.0)), nominal_rows=nominal))
     return out
 
 
@@ -773,9 +776,18 @@ def _no_turn(before: LegArrays, like: LegArrays) -> LegArrays:
                      sign=z + 1.0, dx=z, dy=z, nominal_rad=0.0, nominal_rows=z)
 
 
-def _concat_legs(legs: list[LegArrays]) -> LegArrays:
-    """Legs of one kind from several solutions, their rows end to end (the fields sampling reads)."""
-    cat = np.concatenate
+def _cat_rows(arrays: list[FloatArray], rows: Sequence[npt.NDArray[np.int_] | None]) -> FloatArray:
+    """The rows of each array (all of them where None), end to end."""
+    parts = [a if r is None else a[r] for a, r in zip(arrays, rows)]
+    return parts[0] if len(parts) == 1 else np.concatenate(parts)
+
+
+def _concat_legs(legs: list[LegArrays], rows: Sequence[npt.NDArray[np.int_] | None]) -> LegArrays:
+    """Legs of one kind from several solutions, the rows given of each end to end (the fields
+    sampling reads)."""
+    def cat(values: list[FloatArray]) -> FloatArray:
+        return _cat_rows(values, rows)
+
     a = legs[0]
     if a.kind == "straight":
         return LegArrays(kind="straight", name=a.name, duration=cat([lg.duration for lg in legs]),
@@ -785,19 +797,25 @@ def _concat_legs(legs: list[LegArrays]) -> LegArrays:
     profs = [lg.prof for lg in legs]
     prof = TurnProfile(k=a.prof.k, **{f: cat([getattr(pr, f) for pr in profs])  # type: ignore[union-attr]
                                        for f in ("angle", "tas", "tr", "tc", "dp", "wp", "c", "total")})
+    nominal = cat([lg.nominal_rows for lg in legs])
+    whole = all(r is None for r in rows)
     return LegArrays(kind="turn", name=a.name, duration=prof.total, x0=cat([lg.x0 for lg in legs]),
                      y0=cat([lg.y0 for lg in legs]), psi0=cat([lg.psi0 for lg in legs]), prof=prof,
-                     sign=cat([lg.sign for lg in legs]), nominal_rad=max(lg.nominal_rad for lg in legs),
-                     nominal_rows=cat([lg.nominal_rows for lg in legs]))
+                     sign=cat([lg.sign for lg in legs]),
+                     nominal_rad=max(lg.nominal_rad for lg in legs) if whole else float(np.max(nominal, initial=0.0)),
+                     nominal_rows=nominal)
 
 
-def merge_for_sampling(sols: list[ShapeSolution]) -> ShapeSolution | None:
+def merge_for_sampling(sols: list[ShapeSolution], rows: Sequence[npt.NDArray[np.int_] | None] | None = None
+                       ) -> ShapeSolution | None:
     """Solutions of several shapes (rows of one axis) as one, to be sampled in one call
     (:func:`sample_solution` with ``pad_rows``): their legs matched kind by kind, a shape with
     one leg fewer than the longest given a turn of no angle at its start (samples that repeat
     its arrival point: the same track points, one more time). None when the legs do not match,
-    or the roll ramps differ. Only the fields sampling reads are meaningful.
+    or the roll ramps differ. Only the fields sampling reads are meaningful. ``rows``: per
+    solution, the rows taken (None: all), as :func:`take_rows` would, only the fields read.
     """
+    rows = [None] * len(sols) if rows is None else list(rows)
     n = max(len(sol.legs) for sol in sols)
     legs: list[tuple[LegArrays, ...]] = []
     for sol in sols:
@@ -814,15 +832,14 @@ def merge_for_sampling(sols: list[ShapeSolution]) -> ShapeSolution | None:
         ks = {lg[i].prof.k for lg in legs if lg[i].prof is not None}
         if len(kinds) > 1 or len(finals) > 1 or len(ks) > 1:
             return None
-    cat = np.concatenate
-    ok = cat([sol.ok for sol in sols])
+    ok = _cat_rows([sol.ok for sol in sols], rows)
     first = sols[0]
-    return ShapeSolution(shape=first.shape, ok=ok, reasons=cat([sol.reasons for sol in sols]),
-                         legs=tuple(_concat_legs([lg[i] for lg in legs]) for i in range(n)), x_ri=first.x_ri,
+    return ShapeSolution(shape=first.shape, ok=ok, reasons=_cat_rows([sol.reasons for sol in sols], rows),
+                         legs=tuple(_concat_legs([lg[i] for lg in legs], rows) for i in range(n)), x_ri=first.x_ri,
                          y_ri=first.y_ri, offset=first.offset, roll_out_d=first.roll_out_d, abeam_s=None, break_s=None,
                          psi_f=first.psi_f, gs_f=first.gs_f, psi_d=first.psi_d, gs_d=first.gs_d,
                          final_turn=first.final_turn, turns_to_final=first.turns_to_final,
-                         wx=cat([sol.wx for sol in sols]), wy=cat([sol.wy for sol in sols]))
+                         wx=_cat_rows([sol.wx for sol in sols], rows), wy=_cat_rows([sol.wy for sol in sols], rows))
 
 
 def leg_end_distance_m(sol: ShapeSolution, runway_length_m: float) -> FloatArray:
