@@ -126,3 +126,56 @@ def test_linspace_is_numpys():
         for b, num in ((a + 2500.0, 8), (a + float(rng.uniform(-1e4, 1e4)), 6), (a, 5)):
             mine, numpys = _linspace(a, b, num), np.linspace(a, b, num)
             assert mine.dtype == numpys.dtype and np.array_equal(mine, numpys)
+
+
+def test_wind_components():
+    from briefer.core import wind
+    rng = np.random.default_rng(RNG_SEED + 4)
+    for i in range(N):
+        wdir, ws, crs = float(rng.uniform(0.0, 360.0)), float(rng.uniform(0.0, 60.0)), float(rng.uniform(-720.0, 720.0))
+        if i % 50 == 0:
+            wdir, crs = [360.0, 361.0, -0.5, wdir][i // 50 % 4], [math.nan, math.inf, crs][i // 50 % 3]
+        for fn, args in ((lambda *a: wind.wind_components_kt(*a[:2], course_deg=a[2]).headwind_kt, (wdir, ws, crs)),
+                         (lambda *a: wind.wind_components_kt(*a[:2], course_deg=a[2]).crosswind_from_right_kt,
+                          (wdir, ws, crs))):
+            _assert_same(fn, args, {})
+
+
+def test_runway_course_is_wrapped_atan2_in_degrees():
+    """geometry.runway_axes's landing course (math) against angles.wrap_360(angles.atand2) (numpy)."""
+    from briefer.core import angles, geometry
+    rng = np.random.default_rng(RNG_SEED + 5)
+    for _ in range(N):
+        de, dn = (float(v) for v in rng.uniform(-4000.0, 4000.0, 2))
+        if abs(de) + abs(dn) < 1.0:
+            continue
+        course = geometry.runway_axes((0.0, 0.0), (de, dn)).landing_course_deg_true
+        assert course == float(angles.wrap_360(angles.atand2(de, dn))), (de, dn)
+    for de, dn in ((0.0, 100.0), (0.0, -100.0), (100.0, 0.0), (-100.0, 0.0), (-1e-300, 100.0)):
+        course = geometry.runway_axes((0.0, 0.0), (de, dn)).landing_course_deg_true
+        assert course == float(angles.wrap_360(angles.atand2(de, dn)))
+
+
+def test_criteria_scalar_paths():
+    from briefer.core import angles, criteria, geometry
+    rng = np.random.default_rng(RNG_SEED + 6)
+    for i in range(N):
+        g = float(rng.uniform(0.0, 1200.0)) if i % 50 else [-1.0, math.inf, 0.0][i // 50 % 3]
+        _assert_same(criteria.angle_deg_from_gradient_ft_per_nm, (g,), {})
+        faf, thr, tch, dist = (float(rng.uniform(500.0, 5000.0)), float(rng.uniform(0.0, 3000.0)),
+                               float(rng.uniform(0.0, 200.0)), float(rng.uniform(0.1, 30.0)))
+        _assert_same(lambda a, b, c, d: criteria.descent_gradient_ft_per_nm(
+            faf_altitude_ft=a, threshold_elevation_ft=b, tch_ft=c, distance_nm=d), (faf, thr, tch, dist), {})
+        bank, v = float(rng.uniform(1.0, 60.0)), float(rng.uniform(60.0, 300.0))
+        assert criteria._doc8168_rate_deg_per_s(v, bank) == criteria._doc8168_rate_deg_per_s(v, np.asarray(bank))
+        mag, var = float(rng.uniform(-360.0, 720.0)), float(rng.uniform(-30.0, 30.0))
+        assert geometry.true_from_magnetic_deg(mag, var) == float(angles.wrap_360(np.asarray(mag) + var))
+
+
+def test_wrap_180_of_floats_is_numpys():
+    """The float form of angles.wrap_180 written out in criteria.straight_in_assessment and the
+    circling-only check: (a - b + 180) % 360 - 180 equals numpy's for every pair."""
+    from briefer.core import angles
+    rng = np.random.default_rng(RNG_SEED + 7)
+    for a, b in rng.uniform(-720.0, 720.0, (N, 2)).tolist() + [(180.0, 0.0), (-180.0, 0.0), (0.0, 0.0), (360.0, 0.0)]:
+        assert abs((a - b + 180.0) % 360.0 - 180.0) == abs(float(angles.wrap_180(a - b)))

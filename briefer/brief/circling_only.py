@@ -6,7 +6,6 @@ from __future__ import annotations
 import numpy as np
 
 from briefer import units
-from briefer.core import angles
 from briefer.brief.situation_inputs import Situation
 from briefer.core import criteria, geometry
 from briefer.result import CirclingOnly
@@ -28,7 +27,7 @@ def circling_only_reasons(s: Situation, category: str, crit: str) -> tuple[tuple
             thr, _ = af.runway_by_designator(des)
             a = s.thresholds_xy[thr.designator]
             course = s.airfield_geometry.runway(des).landing_course_deg_true
-            diff = abs(float(angles.wrap_180(final_true - course)))
+            diff = abs((final_true - course + 180.0) % 360.0 - 180.0)    # angles.wrap_180 of two floats
             if best is None or diff < best[0]:
                 best = (diff, thr, a, course)
     _, thr, a, course = best

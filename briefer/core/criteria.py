@@ -56,7 +56,7 @@ import numpy as np
 from briefer.core._types import Numeric
 from briefer.errors import DomainError
 from briefer import vocabulary
-from briefer.core.ranges import checked
+from briefer.core.ranges import SCALAR_TYPES, checked, checked_float
 from briefer.units import KM_TO_M, M_TO_FT, M_TO_SM, NM_TO_FT, SM_TO_M, FT_TO_M
 from briefer.core.angles import as_float, atand, tand, wrap_180
 
@@ -115,7 +115,10 @@ def check_category(category: str) -> str:
 def _check_range(name: str, value: float, low: float, high: float, unit: str, *,
                  low_inclusive: bool = True, high_inclusive: bool = True) -> float:
     """`briefer.core.ranges.checked` (the core's one range check); returns value unchanged."""
-    checked(name, value, low, high, unit, lo_open=not low_inclusive, hi_open=not high_inclusive)
+    if type(value) in SCALAR_TYPES:
+        checked_float(name, value, low, high, unit, lo_open=not low_inclusive, hi_open=not high_inclusive)
+    else:
+        checked(name, value, low, high, unit, lo_open=not low_inclusive, hi_open=not high_inclusive)
     return value
 
 
@@ -732,6 +735,8 @@ def tas_icao_procedure_kt(ias_kt: Numeric, *, altitude_ft: Numeric,
 
 
 def _doc8168_rate_deg_per_s(v_kt: float, bank_deg: float) -> float:
+    if type(bank_deg) in SCALAR_TYPES:    # tand with math: the same value
+        return float(_DOC8168_RATE_CONSTANT * math.tan(math.radians(bank_deg)) / (math.pi * v_kt))   # [6] 3.1.2.2
     return float(_DOC8168_RATE_CONSTANT * tand(bank_deg) / (math.pi * v_kt))   # [6] 3.1.2.2
 
 
@@ -1433,6 +1438,8 @@ def angle_deg_from_gradient_ft_per_nm(gradient_ft_per_nm: Numeric) -> Numeric:
     Raises DomainError for a negative or non-finite gradient.
     """
     _check_range("gradient", gradient_ft_per_nm, 0.0, math.inf, "ft/NM")
+    if type(gradient_ft_per_nm) in SCALAR_TYPES:     # one number: math, the same operations
+        return math.degrees(math.atan(float(gradient_ft_per_nm) / NM_TO_FT))
     return as_float(atand(np.asarray(gradient_ft_per_nm, dtype=float) / NM_TO_FT))
 
 
@@ -1472,6 +1479,10 @@ def descent_gradient_ft_per_nm(*, faf_altitude_ft: Numeric, threshold_elevation_
     _check_range("FAF altitude", faf_altitude_ft, MDA_MIN_FT, MDA_MAX_FT, "ft")
     _check_range("threshold elevation", threshold_elevation_ft, AIRPORT_ELEVATION_MIN_FT,
                  AIRPORT_ELEVATION_MAX_FT, "ft")
+    if all(type(v) in SCALAR_TYPES for v in (faf_altitude_ft, threshold_elevation_ft, tch_ft, distance_nm)):
+        drop_f = float(faf_altitude_ft) - (float(threshold_elevation_ft) + float(tch_ft))
+        if drop_f >= 0.0:                    # one number each: the same operations without numpy
+            return drop_f / float(distance_nm)
     drop = (np.asarray(faf_altitude_ft, dtype=float)
             - (np.asarray(threshold_elevation_ft, dtype=float) + np.asarray(tch_ft, dtype=float)))
     if np.any(drop < 0.0):
@@ -1589,7 +1600,10 @@ def straight_in_assessment(*, final_course_deg: float, runway_course_deg: float,
     gradient_deg = float(angle_deg_from_gradient_ft_per_nm(gradient_ft_per_nm))
     gradient = float(gradient_ft_per_nm)
     gradient_pct = gradient / NM_TO_FT * 100.0
-    alignment = abs(float(wrap_180(final_course_deg - runway_course_deg)))
+    if type(final_course_deg) in SCALAR_TYPES and type(runway_course_deg) in SCALAR_TYPES:   # wrap_180 with floats
+        alignment = abs((float(final_course_deg) - float(runway_course_deg) + 180.0) % 360.0 - 180.0)
+    else:
+        alignment = abs(float(wrap_180(final_course_deg - runway_course_deg)))
 
     reasons: list[CirclingOnlyReason] = []
     if criteria == "icao":

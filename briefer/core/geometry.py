@@ -81,6 +81,8 @@ _CONTAINS_TOL_M = 1e-6                # boundary points count as inside within t
 
 def true_from_magnetic_deg(deg_mag: float, variation_deg: float) -> float:
     """A true direction from a magnetic one; variation east positive (true = magnetic + variation). [deg]"""
+    if type(deg_mag) is float and type(variation_deg) is float:
+        return (deg_mag + variation_deg) % 360.0          # wrap_360 of one float: the same value
     return float(wrap_360(deg_mag + variation_deg))
 
 
@@ -492,8 +494,8 @@ def runway_axes(threshold_xy: ArrayLike, opposite_threshold_xy: ArrayLike) -> Ru
     if length < _COINCIDENT_M:
         raise DomainError(f"runway thresholds coincide at {t}")
     ue, un = de / length, dn / length
-    return RunwayFrame(threshold_xy_m=t, opposite_threshold_xy_m=o,
-                       landing_course_deg_true=float(wrap_360(atand2(de, dn))),
+    return RunwayFrame(threshold_xy_m=t, opposite_threshold_xy_m=o,   # wrap_360(atand2(de, dn)) with math: the same
+                       landing_course_deg_true=math.degrees(math.atan2(de, dn)) % 360.0,
                        along_unit=(ue, un), right_unit=(un, -ue), length_m=length)
 
 

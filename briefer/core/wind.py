@@ -26,6 +26,7 @@ References
 
 from __future__ import annotations
 
+import math
 import re
 from briefer._dataclass import dataclass
 from typing import Literal, NamedTuple
@@ -35,7 +36,9 @@ import numpy as np
 from briefer import units
 from briefer.core import angles
 from briefer.core._types import Numeric
+from briefer.core.ranges import SCALAR_TYPES as _S
 from briefer.core.ranges import checked as _checked  # the one range check of the core
+from briefer.core.ranges import checked_float as _checked_f
 from briefer.errors import DomainError
 
 __all__ = [
@@ -251,6 +254,14 @@ def wind_components_kt(wind_from_deg: Numeric, wind_speed_kt: Numeric, *, course
     ----------
     .. [1] FAA, PHAK, FAA-H-8083-25, "Airplane Performance", crosswind component chart.
     """
+    if type(wind_from_deg) in _S and type(wind_speed_kt) in _S and type(course_deg) in _S:
+        # one number each: math, the array path's operations (tests/test_scalar_paths.py)
+        wdir_f = _checked_f("wind_from_deg", wind_from_deg, 0.0, 360.0, "deg")
+        ws_f = _checked_f("wind_speed_kt", wind_speed_kt, 0.0, WIND_SPEED_MAX_KT, "kt")
+        if not math.isfinite(course_deg):
+            raise DomainError("course_deg must be a finite number of degrees")
+        rel_rad = math.radians(wdir_f - float(course_deg))
+        return WindComponents(headwind_kt=ws_f * math.cos(rel_rad), crosswind_from_right_kt=ws_f * math.sin(rel_rad))
     wdir = _direction("wind_from_deg", wind_from_deg)
     ws = _wind_speed("wind_speed_kt", wind_speed_kt)
     crs = _finite("course_deg", course_deg)
