@@ -940,135 +940,115 @@ def _leg_counts(sol: ShapeSolution, turn_step_deg: float, n_straight: int, strai
     return out
 
 
-class _ArcSamples:
-    """Where the arc samples of a turn fall: ``fa`` (na, ...) the fractions of the arc, ``den``
-    the steps of each row's arc (na - 1, or per row), ``pad`` True past a row's own last sample
-    (None: every row has ``na``): there the row repeats its end point."""
+def _stacked(values: list, shp: tuple[int, ...]) -> FloatArray:
+    """Per-turn arrays stacked on a new leading axis (T,) + shp (each broadcast to shp as it is)."""
+    return np.array(values if all(np.shape(x) == shp for x in values) else [np.broadcast_to(x, shp) for x in values])
 
-    __slots__ = ("fa", "den", "pad")
 
-    def __init__(self, na: int, lead: tuple[int, ...], rows: npt.NDArray[np.int_] | None) -> None:
-        if rows is None:
-            self.fa, self.den, self.pad = (np.arange(na) / (na - 1)).reshape((na,) + lead), na - 1, None
-            return
-        k = np.arange(na).reshape((na,) + (1,) * rows.ndim)
-        self.den = rows - 1
+class _Turns:
+    """Every turn of a solution stacked on axis 1, as arrays (1, T, *shp) (samples on axis 0, so
+    that a sample of every turn is one contiguous block, as a sample of one turn was): profile
+    fields, entry heading and point, sign, start time; ``den`` each row's arc steps (its own
+    sample count - 1), ``fa`` (na, T, *shp) the fractions of the arc at the samples (k / den up
+    to a row's own count, then 1), ``pad`` True past a row's own count."""
+
+    __slots__ = ("angle", "tas", "tr", "tc", "dp", "wp", "c", "k", "psi0", "sign", "p0", "t0", "den", "fa", "pad",
+                 "na")
+
+    def __init__(self, legs: list[LegArrays], t0: list[FloatArray], na: list[int],
+                 rows: list[npt.NDArray[np.int_] | None], shp: tuple[int, ...]) -> None:
+        profs = [lg.prof for lg in legs]
+        assert all(pr is not None for pr in profs)
+        for f in ("angle", "tas", "tr", "tc", "dp", "wp", "c"):
+            setattr(self, f, _stacked([getattr(pr, f) for pr in profs], shp)[None])
+        self.k = profs[0].k  # type: ignore[union-attr]
+        self.psi0 = _stacked([lg.psi0 for lg in legs], shp)[None]
+        self.sign = _stacked([lg.sign for lg in legs], shp)[None]
+        self.p0 = _stacked([lg.x0 for lg in legs], shp)[None] + 1j * _stacked([lg.y0 for lg in legs], shp)[None]
+        self.t0 = _stacked(t0, shp)[None]
+        self.na = max(na)
+        self.den = _stacked([n - 1 if r is None else r - 1 for n, r in zip(na, rows)], shp)[None]
+        k = np.arange(self.na).reshape((self.na, 1) + (1,) * len(shp))
         self.fa = np.minimum(k, self.den) / self.den       # k / (n - 1) up to the row's n, then 1
         self.pad = k > self.den
 
-    def repeat_end(self, a_seg: npt.NDArray[np.complex128]) -> None:
-        """Padded samples of a running product: the row's own last point (na - 1 = den)."""
-        if self.pad is not None:
-            np.copyto(a_seg, np.take_along_axis(a_seg, np.asarray(self.den)[None], axis=0), where=self.pad)
+
+def _turn_ramps(tn: _Turns, nr: int, shp: tuple[int, ...]) -> tuple:
+    """The roll-in and roll-out ramps of every turn, in one quadrature call: sample fractions
+    (nr, 1, ...), roll-in times and air path (nr, T, ...), the full ramp's Q(tr) (1, T, ...), the
+    roll-out samples' air path (nr, T, ...) and exp(i A) (1, T, ...)."""
+    tr = tn.tr[0]
+    fr = (np.arange(nr) / nr).reshape((nr, 1) + (1,) * len(shp))
+    tau_in = tr * fr
+    tau_out = tr * (1.0 - fr - 1.0 / nr)                     # tau3 = tr (nr-1-j)/nr
+    q_all = ramp_q(np.concatenate([tau_in, tr[None] + 0.0 * tau_in[:1], tau_out], axis=0), tn.c[0], tn.tas[0],
+                   tn.k)
+    return fr, tau_in, q_all[:nr], q_all[nr:nr + 1], q_all[nr + 1:], np.exp(1j * tn.angle)
 
 
-def _running_arc(a_seg: npt.NDArray[np.complex128], first: npt.NDArray[np.complex128] | complex,
-                 step_angle: FloatArray, arc: _ArcSamples | None = None) -> None:
-    """a_seg[k] = first exp(i step k), k = 0..na-1, by a running product over the samples (one
-    complex multiply per point; rounding grows like k eps). ``a_seg``: (na, ...) contiguous.
-    With ``arc``, samples past a row's own count repeat its last one."""
-    na = a_seg.shape[0]
-    a_seg[0] = first
-    step = np.exp(1j * step_angle).reshape(-1)
-    rows = a_seg.reshape(na, -1)                 # a view: rows of the contiguous block
-    for k in range(1, na):                       # loop over samples, not cells
-        np.multiply(rows[k - 1], step, out=rows[k])
-    if arc is not None:
-        arc.repeat_end(a_seg)
+def _running_arc(a: npt.NDArray[np.complex128], first: npt.NDArray[np.complex128], step_angle: FloatArray,
+                 tn: _Turns) -> None:
+    """a[k] = first exp(i step k), k = 0..na-1, by a running product over the samples (one
+    complex multiply per point; rounding grows like k eps); samples past a row's own count
+    repeat its last one. ``a``: (na, ...) contiguous (each sample a block apart from the others)."""
+    a[0] = first
+    step = np.exp(1j * step_angle)[0]
+    for k in range(1, a.shape[0]):               # loop over samples, not cells
+        np.multiply(a[k - 1], step, out=a[k])
+    np.copyto(a, np.take_along_axis(a, tn.den, axis=0), where=tn.pad)
 
 
-def _sample_arc_instant(seg: npt.NDArray[np.complex128], leg: LegArrays, arc: _ArcSamples, p0: npt.ArrayLike,
-                        wind: npt.ArrayLike) -> None:
-    """Instant bank, many tracks: p_k = C - i s r exp(i psi_k) + w t_k with C = p0 + i s r exp(i psi0);
-    exp(i psi_k) by a running product."""
-    pr = leg.prof
-    assert pr is not None
-    rot = np.exp(1j * leg.psi0)
-    sr = leg.sign * (pr.tas / np.maximum(pr.wp, 1e-12))
-    _running_arc(seg, -1j * sr * rot, leg.sign * (pr.angle - 2.0 * pr.dp) / arc.den, arc)
-    seg += (p0 + 1j * sr * rot) + (wind * pr.tc) * arc.fa
-
-
-class _Ramps:
-    """Sample fractions, times and air path (C + i S) of the roll-in and roll-out ramps of a turn."""
-
-    __slots__ = ("fr", "tau_in", "q_in", "q_tr", "q_out", "e_a")
-
-    def __init__(self, fr: FloatArray, tau_in: FloatArray, q_all: npt.NDArray[np.complex128],
-                 e_a: npt.NDArray[np.complex128]) -> None:
-        nr = fr.shape[0]
-        self.fr, self.tau_in, self.e_a = fr, tau_in, e_a
-        self.q_in, self.q_tr, self.q_out = q_all[:nr], q_all[nr], q_all[nr + 1:]
-
-
-def _all_ramps(legs: tuple[LegArrays, ...], nr: int, shp: tuple[int, ...]) -> dict[int, _Ramps]:
-    """The ramps of every turn of a solution (by leg index), in one quadrature call: each turn's
-    roll-in samples, its full ramp and its roll-out samples, the turns stacked on a new axis."""
-    turns = [i for i, lg in enumerate(legs) if lg.kind == "turn"]
-    profs = [legs[i].prof for i in turns]
-    assert all(pr is not None for pr in profs)
-    st = {}
-    for f in ("tr", "c", "tas", "angle"):
-        parts = [getattr(pr, f) for pr in profs]
-        st[f] = np.array(parts if all(np.shape(x) == shp for x in parts) else [x + np.zeros(shp) for x in parts])
-    lead = (1,) * len(shp)
-    fr = (np.arange(nr) / nr).reshape((nr, 1) + lead)
-    tau_in = st["tr"] * fr
-    tau_out = st["tr"] * (1.0 - fr - 1.0 / nr)                     # tau3 = tr (nr-1-j)/nr
-    q_all = ramp_q(np.concatenate([tau_in, st["tr"][None] + 0.0 * tau_in[:1], tau_out], axis=0), st["c"],
-                   st["tas"], profs[0].k)  # type: ignore[union-attr]
-    e_a = np.exp(1j * st["angle"])
-    return {i: _Ramps(fr[:, 0], tau_in[:, n], q_all[:, n], e_a[n]) for n, i in enumerate(turns)}
-
-
-def _sample_turn(seg: npt.NDArray[np.complex128], leg: LegArrays, nr: int, many: bool, arc_at: _ArcSamples,
-                 p0: npt.ArrayLike, wind: npt.ArrayLike, ramps: _Ramps | None) -> tuple[FloatArray, _Ramps | None]:
-    """Positions of a turn's samples into ``seg``: the roll-in ramp (``nr`` points), the arc, the
-    roll-out ramp; returns the samples' times from the turn's start and the ramps (None: instant)."""
-    pr = leg.prof
-    assert pr is not None and leg.sign is not None
-    fa = arc_at.fa
-    na = fa.shape[0]
-    arc = pr.angle - 2.0 * pr.dp
-    r = pr.tas / np.maximum(pr.wp, 1e-12)
-    q_tr = ramps.q_tr if ramps is not None else np.zeros(np.shape(pr.angle), dtype=np.complex128)
-    # the arc in the right-turn frame from heading 0: -i r (exp(i h) - exp(i dp)) + Q(tr)
-    a_seg = seg[nr:nr + na]
-    if not many:                                   # a few tracks: direct exponentials
-        a_seg[...] = np.exp(1j * (pr.dp + arc * fa))
+def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_heading: bool,
+                  shp: tuple[int, ...]) -> tuple[npt.NDArray[np.complex128], FloatArray | None, FloatArray | None]:
+    """Positions (2 nr + na, T, *shp) of every turn's samples -- the roll-in ramp (``nr`` points),
+    the arc (``na``, a turn with fewer repeating its end), the roll-out ramp -- with headings and
+    times (None without ``with_heading``)."""
+    na = tn.na
+    blk = np.empty((2 * nr + na, tn.angle.shape[1]) + shp, dtype=np.complex128)
+    a_seg = blk[nr:nr + na]
+    arc = tn.angle - 2.0 * tn.dp
+    if not nr and many:     # instant bank, many tracks: p_k = C - i s r exp(i psi_k) + w t_k, C = p0 + i s r exp(i psi0)
+        rot = np.exp(1j * tn.psi0)
+        sr = tn.sign * (tn.tas / np.maximum(tn.wp, 1e-12))
+        _running_arc(a_seg, (-1j * sr * rot)[0], tn.sign * arc / tn.den, tn)
+        a_seg += (tn.p0 + 1j * sr * rot) + (wind * tn.tc) * tn.fa
+        t_all, ramps = tn.tr + tn.tc * tn.fa, None
     else:
-        _running_arc(a_seg, np.exp(1j * pr.dp), arc / arc_at.den, arc_at)
-    a_end = a_seg[na - 1] - a_seg[0]
-    a_seg -= a_seg[0].copy()
-    a_seg *= -1j * r
-    a_seg += q_tr
-    t_arc = pr.tr + pr.tc * fa
-    if ramps is not None:
-        seg[:nr] = ramps.q_in
-        arc_end = q_tr - 1j * r * a_end
-        seg[nr + na:] = arc_end + ramps.e_a * np.conj(q_tr) - ramps.e_a * np.conj(ramps.q_out)
-        t_all = np.concatenate([ramps.tau_in, t_arc, pr.tr + pr.tc + pr.tr * (ramps.fr + 1.0 / nr)], axis=0)
+        r = tn.tas / np.maximum(tn.wp, 1e-12)
+        ramps = _turn_ramps(tn, nr, shp) if nr else None
+        q_tr = ramps[3] if ramps is not None else np.zeros(tn.angle.shape, dtype=np.complex128)
+        # the arc in the right-turn frame from heading 0: -i r (exp(i h) - exp(i dp)) + Q(tr)
+        if not many:                                   # a few tracks: direct exponentials
+            a_seg[...] = np.exp(1j * (tn.dp + arc * tn.fa))
+        else:
+            _running_arc(a_seg, np.exp(1j * tn.dp)[0], arc / tn.den, tn)
+        a_end = a_seg[na - 1:] - a_seg[:1]
+        a_seg -= a_seg[:1].copy()
+        a_seg *= -1j * r
+        a_seg += q_tr
+        t_arc = tn.tr + tn.tc * tn.fa
+        if ramps is not None:
+            fr, tau_in, q_in, _, q_out, e_a = ramps
+            blk[:nr] = q_in
+            arc_end = q_tr - 1j * r * a_end
+            blk[nr + na:] = arc_end + e_a * np.conj(q_tr) - e_a * np.conj(q_out)
+            t_all = np.concatenate([tau_in, t_arc, tn.tr + tn.tc + tn.tr * (fr + 1.0 / nr)], axis=0)
+        else:
+            t_all = t_arc
+        # left turns mirror (conjugate), then rotate to the entry heading, then drift
+        blk.imag *= tn.sign
+        blk *= np.exp(1j * tn.psi0)
+        blk += tn.p0 + wind * t_all
+    if not with_heading:
+        return blk, None, None
+    if ramps is None:       # heading relative to the entry heading, turn direction positive
+        h = arc * tn.fa
     else:
-        t_all = t_arc
-    # left turns mirror (conjugate), then rotate to the entry heading, then drift
-    seg.imag *= leg.sign
-    seg *= np.exp(1j * leg.psi0)
-    seg += p0 + wind * t_all
-    return t_all, ramps
-
-
-def _turn_headings(leg: LegArrays, fa: FloatArray, ramps: _Ramps | None, nr: int) -> FloatArray:
-    """Heading of each of a turn's samples relative to its entry heading, turn direction positive."""
-    pr = leg.prof
-    assert pr is not None
-    arc = pr.angle - 2.0 * pr.dp
-    if ramps is None:
-        return arc * fa
-    fr = ramps.fr
-    kt = pr.k * pr.tr
-    h_ramp = pr.c * -np.log(np.cos(np.concatenate([kt * fr, kt * (1.0 - fr - 1.0 / nr)], axis=0)))
-    h_in, h_out = h_ramp[:nr], pr.angle - h_ramp[nr:]
-    return np.concatenate([h_in, pr.dp + arc * fa, h_out], axis=0)
+        fr = ramps[0]
+        kt = tn.k * tn.tr
+        h_ramp = tn.c * -np.log(np.cos(np.concatenate([kt * fr, kt * (1.0 - fr - 1.0 / nr)], axis=0)))
+        h = np.concatenate([h_ramp[:nr], tn.dp + arc * tn.fa, tn.angle - h_ramp[nr:]], axis=0)
+    return blk, tn.psi0 + tn.sign * h, tn.t0 + t_all
 
 
 def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int, straight_step_m: float | None = None,
@@ -1115,33 +1095,37 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     wind = sol.wx + 1j * sol.wy
     lead = (1,) * len(shp)
     many = math.prod(shp) >= _RUNNING_PRODUCT_MIN_CELLS if running_product is None else running_product
-    j = 0
+    starts = np.cumsum([0] + counts[:-1]).tolist()
     t_start = np.zeros(shp)
+    turns, t0 = [], []
     with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
-        all_ramps = _all_ramps(sol.legs, nr, shp) if nr else {}
-        for i, (leg, n) in enumerate(zip(sol.legs, counts)):
-            seg = out[j:j + n]
-            p0 = leg.x0 + 1j * leg.y0
+        for i, (leg, n, j) in enumerate(zip(sol.legs, counts, starts)):
             if leg.kind == "turn":
-                arc = _ArcSamples(n - 2 * nr, lead, None if by_row is None else by_row[i])
-                if not nr and many:
-                    _sample_arc_instant(seg, leg, arc, p0, wind)
-                    t_rel, turn_ramps = leg.prof.tr + leg.prof.tc * arc.fa, None
-                else:
-                    t_rel, turn_ramps = _sample_turn(seg, leg, nr, many, arc, p0, wind,
-                                                     all_ramps[i] if nr else None)
-                if hdg is not None and tim is not None:
-                    hdg[j:j + n] = leg.psi0 + leg.sign * _turn_headings(leg, arc.fa, turn_ramps, nr)
-                    tim[j:j + n] = t_start + t_rel
+                turns.append(i)
+                t0.append(t_start)
             else:
                 assert leg.gx is not None and leg.gy is not None
                 f = (np.arange(n) / (n - 1)).reshape((n,) + lead)
-                seg[...] = p0 + ((leg.gx + 1j * leg.gy) * leg.duration) * f
+                out[j:j + n] = (leg.x0 + 1j * leg.y0) + ((leg.gx + 1j * leg.gy) * leg.duration) * f
                 if hdg is not None and tim is not None:
                     hdg[j:j + n] = leg.psi0
                     tim[j:j + n] = t_start + leg.duration * f
             t_start = t_start + leg.duration
-            j += n
+        if turns:       # every turn in one block, then each into its place
+            na = [counts[i] - 2 * nr for i in turns]
+            tn = _Turns([sol.legs[i] for i in turns], t0, na, [None if by_row is None else by_row[i] for i in turns],
+                        shp)
+            blocks = _sample_turns(tn, nr, many, wind, hdg is not None, shp)
+            for dst, blk in zip((out, hdg, tim), blocks):
+                if dst is None:
+                    continue
+                for b, (i, n_arc) in enumerate(zip(turns, na)):
+                    j = starts[i]
+                    if n_arc == tn.na:
+                        dst[j:j + counts[i]] = blk[:, b]
+                    else:      # the arc's own samples, then the roll-out ramp's
+                        dst[j:j + nr + n_arc] = blk[:nr + n_arc, b]
+                        dst[j + nr + n_arc:j + counts[i]] = blk[nr + tn.na:, b]
     order = tuple(range(1, len(shp) + 1)) + (0,)      # the sample axis last (np.moveaxis(a, 0, -1))
     last = (lambda a: a) if not shp else (lambda a: a.transpose(order))  # noqa: E731
     xy = np.ascontiguousarray(last(out)).view(np.float64).reshape(shp + (nt, 2))
