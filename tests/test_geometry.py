@@ -524,3 +524,49 @@ def test_track_margin_reads_the_track_as_a_polyline_between_its_samples():
     # the second track (y = -3000) stays south of the wedge: R - |(3000, -3000)| = 10000 - 4242.6
     assert_allclose(margin, [depth, 10_000.0 - math.hypot(3000.0, 3000.0)], atol=1e-6)
     assert by_sector.tolist() == [True, False]
+
+
+def _general_track_margins(area, tracks, tolerance):
+    """The track-margin rule with every term written out (any hull segment, any sector line):
+    R - the largest distance to the hull segment, limited by the smallest counted clearance
+    -(d . u) of the side sector, d @ u on one (n, 2) stack of the points."""
+    t = np.ascontiguousarray(np.asarray(tracks, dtype=float)).reshape(-1, 2)
+    (ax, ay), (bx, by) = area.hull_m[0], area.hull_m[-1]
+    sx, sy = bx - ax, by - ay
+    rx, ry = t[:, 0] - ax, t[:, 1] - ay
+    u = np.clip((rx * sx + ry * sy) / (sx * sx + sy * sy), 0.0, 1.0)
+    rx, ry = rx - u * sx, ry - u * sy
+    shp = np.shape(tracks)[:-1]
+    hull = area.radius_m - np.sqrt((rx * rx + ry * ry).reshape(shp).max(axis=-1))
+    margin = hull
+    for sec in area.excluded:
+        c = -((t - np.asarray(sec.line_a_m)) @ np.asarray(sec.outward_unit))
+        low = c.reshape(shp).min(axis=-1)
+        margin = np.minimum(margin, low if tolerance is None else np.where(low < -tolerance, low, np.inf))
+    return margin, margin < hull
+
+
+@pytest.mark.parametrize("tolerance", [None, 0.0, 1.0])
+@pytest.mark.parametrize("runway", [((0.0, 0.0), (0.0, 2305.4557)), ((0.0, 0.0), (2305.4557, 0.0)),
+                                    ((12.5, -3.0), (12.5, 2600.0)), ((0.0, 0.0), (1600.0, 1200.0))])
+@pytest.mark.parametrize("side", ["left", "right"])
+def test_track_margins_in_runway_axes_are_the_general_rule_to_the_last_bit(runway, side, tolerance):
+    """ProtectedArea.track_margins_m leaves out the terms with a zero factor when the area is in
+    runway axes (a threshold at the origin, the runway and a side sector's line along an axis) and
+    reads the tracks' coordinates as two columns: the margins must be the general rule's to the
+    last bit (not only close), tracks given in any layout (here a reversed view, as the runway
+    frame's (along, right) tracks are read as (east, north)), points on the sector line included."""
+    a, b = runway
+    area = ProtectedArea(centres_m=[a, b], radius_m=6852.4, excluded=(SideSector(line_a_m=b, line_b_m=a, side=side),))
+    rng = np.random.default_rng(7)
+    tracks = rng.uniform(-9000.0, 9000.0, size=(40, 25, 2))
+    tracks[:5, :, 0] = a[0]                          # on the line (the final)
+    tracks[5:8, :3] = np.round(tracks[5:8, :3])       # whole metres: exact zeros and ties
+    tracks[8] = np.array(a) + np.outer(np.linspace(-3.0, 3.0, 25), np.subtract(b, a))
+    along_right = np.ascontiguousarray(tracks[..., ::-1])
+    for given_tracks in (tracks, along_right[..., ::-1]):
+        margin, by_sector = area.track_margins_m(given_tracks, sector_edge_tolerance_m=tolerance)
+        ref_margin, ref_by_sector = _general_track_margins(area, tracks, tolerance)
+        np.testing.assert_array_equal(margin, ref_margin)
+        np.testing.assert_array_equal(by_sector, ref_by_sector)
+        assert np.array_equal(np.signbit(margin), np.signbit(ref_margin))

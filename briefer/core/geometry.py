@@ -28,7 +28,7 @@ from __future__ import annotations
 import functools
 import math
 from briefer._dataclass import dataclass, field
-from collections.abc import Mapping
+from collections.abc import Callable, Mapping
 from typing import Any, Literal, Union
 
 import numpy as np
@@ -793,8 +793,11 @@ class SideSector:
 
     def clearance_m(self, points: ArrayLike) -> Numeric:
         """Signed distance to the excluded half-plane: positive outside, negative inside."""
-        d = _points(points) - np.asarray(self.line_a_m)
-        return as_float(-(d @ np.asarray(self.outward_unit)))
+        return as_float(self._clearance_m(_points(points)))
+
+    def _clearance_m(self, p: npt.NDArray[np.float64]) -> npt.NDArray[np.float64]:
+        """`clearance_m` of points already checked (an (n, 2) stack, n >= 2: see track_margins_m)."""
+        return -((p - np.asarray(self.line_a_m)) @ np.asarray(self.outward_unit))
 
     def contains(self, points: ArrayLike) -> Union[bool, npt.NDArray[np.bool_]]:
         """Whether points lie on the excluded side (the centreline itself included)."""
@@ -908,6 +911,40 @@ def _bisector_depth_m(sec: BearingSector, track: npt.NDArray[np.float64],
     c = _counted_clearance_m(sec.clearance_m(p0 + t[:, None] * (p1 - p0)), edge_tolerance_m)
     np.minimum.at(out, idx[:-1], c)
     return out
+
+
+def _track_columns(tracks: ArrayLike) -> tuple[npt.NDArray[np.float64], npt.NDArray[np.float64],
+                                               npt.NDArray[np.float64]]:
+    """Tracks (..., N, 2), N >= 1, checked as `_points` checks them, and their east and north
+    coordinates as two contiguous arrays (made with one pass each, whatever the tracks' layout)."""
+    t = np.asarray(tracks, dtype=float)
+    if t.ndim < 2 or t.shape[-1] != 2 or t.shape[-2] < 1:
+        t = _points(tracks, "track")                       # its errors first (last axis, finite)
+        raise DomainError(f"track must be an (N, 2) array with N >= 1; got shape {t.shape}")
+    e, n = t[..., 0].ravel(), t[..., 1].ravel()
+    if not (math.isfinite(np.add.reduce(e)) and math.isfinite(np.add.reduce(n))):
+        _points(t, "track")                                 # raises if any is not finite
+    return t, e, n
+
+
+def _axis_clearance_m(sec: Sector, e: npt.NDArray[np.float64], n: npt.NDArray[np.float64],
+                      edge_tolerance_m: float | None) -> npt.NDArray[np.float64] | None:
+    """A side sector's clearance of the points when its line runs along an axis (outward unit
+    (+-1, +-0) or (+-0, +-1): the runway frame's centreline) and only clearances below minus a
+    tolerance >= 0 count: -(d . u) is then the one coordinate difference d, negated or not, to
+    the last bit (the other product is a zero, which leaves a nonzero sum as it is); a zero
+    clearance may differ in sign, which does not count. None otherwise."""
+    if not isinstance(sec, SideSector) or edge_tolerance_m is None or not edge_tolerance_m >= 0.0:
+        return None
+    ux, uy = sec.outward_unit
+    (ax, ay) = sec.line_a_m
+    if uy == 0.0 and abs(ux) == 1.0:
+        d = e - ax if ax != 0.0 else e
+        return -d if ux > 0.0 else d
+    if ux == 0.0 and abs(uy) == 1.0:
+        d = n - ay if ay != 0.0 else n
+        return -d if uy > 0.0 else d
+    return None
 
 
 def _counted_clearance_m(clearance_m: Numeric, edge_tolerance_m: float | None) -> npt.NDArray[np.float64]:
@@ -1050,41 +1087,56 @@ class ProtectedArea:
         by_sector : ndarray of bool, shape (...)
             Whether that margin is a not-authorised sector's (deeper than the radius margin).
         """
-        t = _points(tracks, "track")
-        if t.ndim < 2 or t.shape[-2] < 1:
-            raise DomainError(f"track must be an (N, 2) array with N >= 1; got shape {t.shape}")
+        t, e, n = _track_columns(tracks)
         out_shape = t.shape[:-2]
         t = t.reshape((-1,) + t.shape[-2:])                 # (tracks, N, 2)
         shp = t.shape[:-1]
-        pts = np.ascontiguousarray(t.reshape(-1, 2))
-        hull_margin = self._track_hull_margin_m(pts, shp)
+        stack: list[npt.NDArray[np.float64]] = []
+
+        def pts() -> npt.NDArray[np.float64]:               # the points as one (T N, 2) stack, made once
+            if not stack:
+                stack.append(np.stack([e, n], axis=-1))
+            return stack[0]
+
+        hull_margin = self._track_hull_margin_m(e, n, shp, pts)
         margin = hull_margin
         for sec in self.excluded:
             # the smallest counted clearance of a track is its smallest clearance where that counts
             # (counted: below -tolerance, else +inf), the same number without a test per point
-            low = np.asarray(sec.clearance_m(pts), dtype=float).reshape(shp).min(axis=-1)
+            c = _axis_clearance_m(sec, e, n, sector_edge_tolerance_m)
+            if c is None:
+                c = sec._clearance_m(pts()) if isinstance(sec, SideSector) else np.asarray(sec.clearance_m(pts()),
+                                                                                          dtype=float)
+            low = c.reshape(shp).min(axis=-1)
             depth = _counted_clearance_m(low, sector_edge_tolerance_m)
             if isinstance(sec, BearingSector) and shp[-1] >= 2:
                 depth = np.minimum(depth, _bisector_depth_m(sec, t, sector_edge_tolerance_m))
             margin = np.minimum(margin, depth)
         return margin.reshape(out_shape), (margin < hull_margin).reshape(out_shape)
 
-    def _track_hull_margin_m(self, pts: npt.NDArray[np.float64], shp: tuple[int, ...]) -> npt.NDArray[np.float64]:
-        """min over each track of R - dist(p, hull), points (T N, 2) of tracks of shape ``shp``.
+    def _track_hull_margin_m(self, e: npt.NDArray[np.float64], n: npt.NDArray[np.float64], shp: tuple[int, ...],
+                             pts: Callable[[], npt.NDArray[np.float64]]) -> npt.NDArray[np.float64]:
+        """min over each track of R - dist(p, hull), points (east ``e``, north ``n``, or ``pts()``
+        as one (T N, 2) stack) of tracks of shape ``shp``.
 
         With one or two hull vertices (a circle, a stadium) the distance is to one segment, and
         R - sqrt(max of the squared distances) is the same number as the smallest R - distance
         (sqrt and the subtraction round monotonically): one square root per track. [m]
         """
         if len(self.hull_m) > 2:
-            return (self.radius_m - np.asarray(self.distance_to_hull_m(pts), dtype=float)).reshape(shp).min(axis=-1)
+            return (self.radius_m - np.asarray(self.distance_to_hull_m(pts()), dtype=float)).reshape(shp).min(axis=-1)
         (ax, ay), (bx, by) = self.hull_m[0], self.hull_m[-1]
         sx, sy = bx - ax, by - ay
         ss = sx * sx + sy * sy
-        rx, ry = pts[:, 0] - ax, pts[:, 1] - ay
+        # a term with a zero factor (a vertex at the origin, a segment along an axis: the runway
+        # frame) is left out: p - 0 is p, and q + (+-0) is q or a zero that is squared below
+        rx = e - ax if ax != 0.0 else e
+        ry = n - ay if ay != 0.0 else n
         if ss > 0.0:                          # as distance_to_segments_m does for one segment
-            t = np.clip((rx * sx + ry * sy) / ss, 0.0, 1.0)
-            rx, ry = rx - t * sx, ry - t * sy
+            along = rx * sx + ry * sy if sx != 0.0 and sy != 0.0 else (ry * sy if sx == 0.0 else rx * sx)
+            t = np.clip(along / ss, 0.0, 1.0)
+            rx = rx - t * sx if sx != 0.0 else rx
+            ry = ry - t * sy if sy != 0.0 else ry
         return self.radius_m - np.sqrt((rx * rx + ry * ry).reshape(shp).max(axis=-1))
 
     def sector_clearance_m(self, points: ArrayLike) -> float:
