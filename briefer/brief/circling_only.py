@@ -16,7 +16,7 @@ def circling_only_reasons(s: Situation, category: str, crit: str) -> tuple[tuple
     procedure serves, or the best-aligned runway when it serves none; and whether a straight-in
     is published for the landing runway and allowed by the criteria."""
     request = s.request
-    appr = request.selected_approach()
+    appr = s.approach
     af, var = request.airfield, request.airfield.magnetic_variation_deg
     final_true = geometry.true_from_magnetic_deg(appr.final_course_deg_mag, var)
     best = None

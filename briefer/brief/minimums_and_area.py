@@ -41,8 +41,7 @@ class MinimumsAndArea(SectionResult):
 def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
     """Category, minimums, circling-only reasons, cold correction and obstacle clearance."""
     request = s.request
-    prof, cfg, af, appr = (request.profile, request.selected_configuration(), request.airfield,
-                           request.selected_approach())
+    prof, cfg, af, appr = request.profile, request.selected_configuration(), request.airfield, s.approach
     crit = request.options.criteria or appr.criteria
     det = s.category
     cat = det.category
@@ -197,7 +196,7 @@ def _sector_text(sector: Sector) -> str:
 def area_info(s: Situation, required_radius_nm: float) -> AreaInfo:
     """The protected area as drawn: boundary, centres, not-authorised sectors and their texts."""
     request = s.request
-    appr = request.selected_approach()
+    appr = s.approach
     crit = request.options.criteria or appr.criteria
     radius = s.area_radius
     clip_m = radius.radius_nm * units.NM_TO_M + s.runway.length_m / 2.0   # draw sectors within the area

@@ -24,7 +24,7 @@ from briefer.core import angles
 from briefer.core import atmosphere, criteria, geometry, maneuver, turn, wind
 from briefer.core.airfield_geometry import AirfieldGeometry
 from briefer.core.layout import Layout
-from briefer.model import BriefRequest
+from briefer.model import Approach, BriefRequest
 
 STANDARD_ALTIMETER_HPA = 1013.25
 EDGE_TOLERANCE_M = 1.0   # a track on a sector's edge (e.g. the centreline of a side sector) is authorised
@@ -36,6 +36,7 @@ class Situation:
     """What the plan solver and the envelope share: the composed inputs of one request."""
 
     request: BriefRequest
+    approach: Approach                # request.selected_approach(), looked up once
     layout: Layout                    # every threshold, fix and obstacle in the local frame
     runway: geometry.RunwayFrame
     area: geometry.ProtectedArea
@@ -163,7 +164,7 @@ def situation(request: BriefRequest) -> Situation:
                 aoa_stall=cfg.aoa_stall, weight_ratio=weight_ratio))
         return m
 
-    return Situation(request=request, layout=layout, runway=rf, area=area, area_rw=area_rw, area_radius=radius,
+    return Situation(request=request, approach=appr, layout=layout, runway=rf, area=area, area_rw=area_rw, area_radius=radius,
                      inputs=inputs,
                      visibility_m=float(vis_m), visibility_reported=vis_reported,
                      bank_limit_deg=cfg.bank_limit_deg, aoa_margin_fn=aoa_margin, category=det, mda_ft=mda,

@@ -591,14 +591,14 @@ def distance_to_segments_m(points: ArrayLike, starts: ArrayLike, ends: ArrayLike
         ss = sx * sx + sy * sy
         rx, ry = q[..., 0] - ax, q[..., 1] - ay
         if ss > 0.0:
-            t = np.clip((rx * sx + ry * sy) / ss, 0.0, 1.0)
+            t = np.minimum(np.maximum((rx * sx + ry * sy) / ss, 0.0), 1.0)   # clip: the sign of a 0 never reaches the distance
             rx, ry = rx - t * sx, ry - t * sy
         return np.sqrt(rx * rx + ry * ry)
     p = _points(points)[..., None, :]                          # (..., 1, 2)
     d = np.asarray(ends, dtype=float) - a                      # (K, 2)
     dd = np.sum(d * d, axis=-1)
     t = np.sum((p - a) * d, axis=-1) / np.where(dd > 0.0, dd, 1.0)
-    t = np.clip(np.where(dd > 0.0, t, 0.0), 0.0, 1.0)
+    t = np.minimum(np.maximum(np.where(dd > 0.0, t, 0.0), 0.0), 1.0)    # clip
     closest = a + t[..., None] * d
     return np.min(np.hypot(p[..., 0] - closest[..., 0], p[..., 1] - closest[..., 1]), axis=-1)
 

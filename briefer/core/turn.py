@@ -545,7 +545,8 @@ def angle_of_attack_in_turn(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Nume
     .. [1] FAA, PHAK, FAA-H-8083-25, "Aerodynamics of Flight" (load factor).
     .. [3] Flight-mechanics textbooks, the linear lift curve (from memory).
     """
-    if all(type(x) in _S for x in (ias_kt, bank_deg, vref_kt, vs1g_kt, aoa_ref, aoa_stall, weight_ratio)):
+    if (type(ias_kt) in _S and type(bank_deg) in _S and type(vref_kt) in _S and type(vs1g_kt) in _S
+            and type(aoa_ref) in _S and type(aoa_stall) in _S and type(weight_ratio) in _S):
         return _angle_of_attack_f(ias_kt, bank_deg, vref_kt, vs1g_kt, aoa_ref, aoa_stall, weight_ratio)
     v = _speed("ias_kt", ias_kt)
     vref = _speed("vref_kt", vref_kt)
