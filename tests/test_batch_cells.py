@@ -164,6 +164,11 @@ def test_plans_built_from_the_batch_rows_are_the_plans_solved_afresh(inp, wind):
         from_batch = candidate_plans(lvl_inputs, solved=solved)
         afresh = candidate_plans(lvl_inputs)
         assert [_plan_fields(p) for p in from_batch] == [_plan_fields(p) for p in afresh]
+        # the batch with each side's row (as choose_plan_at_wind gives it): rows taken out only
+        # for a shape with a flyable side
+        in_batch = candidate_plans(lvl_inputs, solved={j.candidates[cis[0]][0]: (sol, slice(i, None, len(order)))
+                                                       for cis, sol in j.solutions})
+        assert [_plan_fields(p) for p in in_batch] == [_plan_fields(p) for p in afresh]
 
 
 def _arrays(value, path="sol"):

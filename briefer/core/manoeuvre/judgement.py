@@ -757,7 +757,7 @@ def choose_plan_at_wind(inputs: CircleInputs, *, margin_fn: MarginFn, batch_marg
     def ranked_at(lvl: tuple[int, int]) -> tuple:
         # the level's rows of the batch (row i of each side) are the plans' solutions: not solved again
         r, b, i, rows = lvl[0], lvl[1], order.index(lvl), len(order)
-        solved = {j.candidates[cis[0]][0]: take_rows(sol, slice(i, None, rows)) for cis, sol in j.solutions}
+        solved = {j.candidates[cis[0]][0]: (sol, slice(i, None, rows)) for cis, sol in j.solutions}
         plans = candidate_plans(dataclasses.replace(inputs, bank_deg=banks[b],
                                                     roll_out_distance_m=levels.roll_out_chosen[r]), solved=solved)
         return rank_plans(plans, margin_fn=margin_fn, **kw)

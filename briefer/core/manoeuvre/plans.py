@@ -53,11 +53,13 @@ from briefer.core.manoeuvre.solver import (
     Shape,
     ShapeSolution,
     Side,
+    Rows,
     SolutionTrack,
     applicable_candidates,
     descent_geometry,
     sample_solution,
     solve_inputs,
+    take_rows,
 )
 from briefer.errors import DomainError
 from briefer.units import KT_TO_MPS, M_TO_NM
@@ -378,14 +380,16 @@ def solve_plan(inputs: CircleInputs, *, shape: Shape, side: Side) -> Plan:
     return _solve_sides(inputs, shape, (side,))[0]
 
 
-def candidate_plans(inputs: CircleInputs, *, solved: Mapping[Shape, ShapeSolution] | None = None
-                    ) -> tuple[Plan, ...]:
+def candidate_plans(inputs: CircleInputs, *, solved: Mapping[Shape, ShapeSolution | tuple[ShapeSolution, Rows]]
+                    | None = None) -> tuple[Plan, ...]:
     """Every applicable (shape, side) for the arrival, solved at the inputs' bank.
 
     Both sides of a shape are solved in one vectorised call. Returns an empty tuple for an
     arrival aligned with the landing direction (a straight-in). ``solved``: the shapes already
-    solved for these inputs (one row per applicable side, in the order of
-    :func:`applicable_candidates`; e.g. rows of the judgement's batch), not solved again.
+    solved for these inputs, not solved again: a solution with one row per applicable side, in
+    the order of :func:`applicable_candidates`, or (solution, rows) with the row of each side in
+    a bigger solution (e.g. the judgement's batch: only a shape with a flyable side has its rows
+    taken out and sampled).
     """
     by_shape: dict[Shape, list[Side]] = {}
     for s, d in applicable_candidates(inputs.arrival_course_deg):
@@ -398,7 +402,7 @@ def candidate_plans(inputs: CircleInputs, *, solved: Mapping[Shape, ShapeSolutio
 
 
 def _solve_sides(inputs: CircleInputs, shape: Shape, sides: tuple[Side, ...],
-                 solved: ShapeSolution | None = None) -> list[Plan]:
+                 solved: ShapeSolution | tuple[ShapeSolution, Rows] | None = None) -> list[Plan]:
     descent = descent_geometry(inputs)
     applicable = applicable_candidates(inputs.arrival_course_deg)
     out: list[Plan | None] = [None] * len(sides)
@@ -412,20 +416,35 @@ def _solve_sides(inputs: CircleInputs, shape: Shape, sides: tuple[Side, ...],
                           reasons=(f"{shape} on the {side} does not suit an arrival course of "
                                    f"{float(wrap_180(inputs.arrival_course_deg)):.0f} deg to the runway",))
     if todo:
-        sigma = np.array([1.0 if sides[i] == "right" else -1.0 for i in todo])
-        if solved is not None and len(todo) == len(sides) and solved.ok.shape == sigma.shape:
-            sol = solved
-        else:
-            wx, wy = inputs.wind.mps()
-            sol = solve_inputs(inputs, shape, sigma=sigma, wx_mps=wx, wy_mps=wy, bank_deg=inputs.bank_deg,
-                               descent=descent)
+        sol, ks = _solution_rows(inputs, shape, [sides[i] for i in todo], len(todo) == len(sides), solved, descent)
         trk = None
-        if sol.ok.any():
+        if sol.ok[ks].any():
             trk = sample_solution(sol, turn_step_deg=PLAN_TURN_STEP_DEG, n_straight=2,
                                   straight_step_m=PLAN_STRAIGHT_STEP_M, with_heading=True)
-        for k, i in enumerate(todo):
+        for k, i in zip(ks, todo):
             out[i] = _plan_from_row(inputs, shape, sides[i], sol, trk, k, descent)
     return [p for p in out if p is not None]
+
+
+def _solution_rows(inputs: CircleInputs, shape: Shape, sides: list[Side], every_side: bool,
+                   solved: ShapeSolution | tuple[ShapeSolution, Rows] | None, descent: DescentGeometry
+                   ) -> tuple[ShapeSolution, list[int]]:
+    """The solution of the sides (solved now unless given) and the row of each side in it: a
+    given batch's own rows when no side is flyable (only read), else those rows taken out (the
+    track is sampled over the sides' rows alone)."""
+    if isinstance(solved, tuple) and every_side:
+        batch, rows = solved
+        ks = list(range(batch.ok.shape[0])[rows]) if isinstance(rows, slice) else [int(r) for r in rows]
+        if len(ks) == len(sides):
+            if not batch.ok[ks].any():
+                return batch, ks
+            return take_rows(batch, rows), list(range(len(ks)))
+    elif solved is not None and not isinstance(solved, tuple) and every_side and solved.ok.shape == (len(sides),):
+        return solved, list(range(len(sides)))
+    sigma = np.array([1.0 if side == "right" else -1.0 for side in sides])
+    wx, wy = inputs.wind.mps()
+    return solve_inputs(inputs, shape, sigma=sigma, wx_mps=wx, wy_mps=wy, bank_deg=inputs.bank_deg,
+                        descent=descent), list(range(len(sides)))
 
 
 def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSolution, trk: SolutionTrack | None,
