@@ -366,9 +366,13 @@ def _sampled(solved: list[tuple[list[int], ShapeSolution]], sampled: npt.NDArray
         if not sol.ok.all():
             xy[~sol.ok] = 0.0
         xys.append(xy)
-    if merged is not None and len(subs) > 1:      # back to each shape's rows
-        ends = np.cumsum([sol.ok.shape[0] if take is None else take.size for sol, take, _ in subs])
-        xys = np.split(xys[0], ends[:-1])
+    if merged is not None and len(subs) > 1:      # one group: every shape's rows end to end
+        keeps = [keep for _, _, keep in subs]
+        keep = None if all(k is None for k in keeps) else np.concatenate(
+            [np.ones(sol.ok.shape[0] if take is None else take.size, dtype=bool) if k is None else k
+             for (sol, take, _), k in zip(subs, keeps)])
+        idx = [tuple(np.concatenate(part) for part in zip(*idx))]
+        subs = [(merged, None, keep)]
     return [(r, c, xy if keep is None else xy[keep]) for (r, c), (_, _, keep), xy in zip(idx, subs, xys)]
 
 
@@ -400,8 +404,8 @@ def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], Shap
         sector[:] = co.proven & co.sector_bound
     tracks = []
     for r_idx, c_idx, xy in _sampled(solved, sampled, m, turn_step_deg=turn_step_deg, n_straight=n_straight):
-        x = xy[..., 0]
-        d2 = np.max(np.square(x - np.minimum(np.maximum(x, 0.0), length)) + np.square(xy[..., 1]), axis=-1)
+        x, y = xy[..., 0].copy(), xy[..., 1].copy()        # contiguous: each read once, not strided
+        d2 = np.max(np.square(x - np.minimum(np.maximum(x, 0.0), length)) + np.square(y), axis=-1)
         dist[r_idx, c_idx] = np.sqrt(d2)
         tracks.append((r_idx, c_idx, xy))
     # a candidate whose sampled track takes the runway beyond the visibility fails whatever its
