@@ -875,6 +875,7 @@ def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx
 
 N_RAMP = 3
 _RUNNING_PRODUCT_MIN_CELLS = 16     # below this many tracks, exp() directly beats the running product
+_BLOCK_MAX_CELLS = 64               # from this many tracks, turns are sampled one by one (no padded block)
 """Samples per roll-in (and per roll-out) ramp when turns have roll ramps."""
 
 
@@ -999,12 +1000,14 @@ def _running_arc(a: npt.NDArray[np.complex128], first: npt.NDArray[np.complex128
 
 
 def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_heading: bool,
-                  shp: tuple[int, ...]) -> tuple[npt.NDArray[np.complex128], FloatArray | None, FloatArray | None]:
+                  shp: tuple[int, ...], blk: npt.NDArray[np.complex128] | None = None
+                  ) -> tuple[npt.NDArray[np.complex128], FloatArray | None, FloatArray | None]:
     """Positions (2 nr + na, T, *shp) of every turn's samples -- the roll-in ramp (``nr`` points),
-    the arc (``na``, a turn with fewer repeating its end), the roll-out ramp -- with headings and
-    times (None without ``with_heading``)."""
+    the arc (``na``, a turn with fewer repeating its end), the roll-out ramp -- into ``blk``
+    (contiguous; None: a new array), with headings and times (None without ``with_heading``)."""
     na = tn.na
-    blk = np.empty((2 * nr + na, tn.angle.shape[1]) + shp, dtype=np.complex128)
+    if blk is None:
+        blk = np.empty((2 * nr + na, tn.angle.shape[1]) + shp, dtype=np.complex128)
     a_seg = blk[nr:nr + na]
     arc = tn.angle - 2.0 * tn.dp
     if not nr and many:     # instant bank, many tracks: p_k = C - i s r exp(i psi_k) + w t_k, C = p0 + i s r exp(i psi0)
@@ -1049,6 +1052,29 @@ def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_hea
         h_ramp = tn.c * -np.log(np.cos(np.concatenate([kt * fr, kt * (1.0 - fr - 1.0 / nr)], axis=0)))
         h = np.concatenate([h_ramp[:nr], tn.dp + arc * tn.fa, tn.angle - h_ramp[nr:]], axis=0)
     return blk, tn.psi0 + tn.sign * h, tn.t0 + t_all
+
+
+def _place_turns(out: npt.NDArray[np.complex128], hdg: FloatArray | None, tim: FloatArray | None,
+                 legs: tuple[LegArrays, ...], grp: list[int], t0: list[FloatArray], counts: list[int],
+                 starts: list[int], by_row: list | None, nr: int, many: bool, wind: npt.ArrayLike,
+                 shp: tuple[int, ...]) -> None:
+    """Sample the turns ``grp`` (leg indices) in one block and put each into its place in ``out``
+    (and ``hdg``, ``tim``); one turn is sampled in place."""
+    na = [counts[i] - 2 * nr for i in grp]
+    tn = _Turns([legs[i] for i in grp], t0, na, [None if by_row is None else by_row[i] for i in grp], shp)
+    one = len(grp) == 1
+    blk = out[starts[grp[0]]:starts[grp[0]] + counts[grp[0]]][:, None] if one else None
+    blocks = _sample_turns(tn, nr, many, wind, hdg is not None, shp, blk)
+    for dst, blk in zip((out, hdg, tim), blocks):
+        if dst is None or (one and dst is out):
+            continue
+        for b, (i, n_arc) in enumerate(zip(grp, na)):
+            j = starts[i]
+            if n_arc == tn.na:
+                dst[j:j + counts[i]] = blk[:, b]
+            else:      # the arc's own samples, then the roll-out ramp's
+                dst[j:j + nr + n_arc] = blk[:nr + n_arc, b]
+                dst[j + nr + n_arc:j + counts[i]] = blk[nr + tn.na:, b]
 
 
 def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int, straight_step_m: float | None = None,
@@ -1111,21 +1137,11 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
                     hdg[j:j + n] = leg.psi0
                     tim[j:j + n] = t_start + leg.duration * f
             t_start = t_start + leg.duration
-        if turns:       # every turn in one block, then each into its place
-            na = [counts[i] - 2 * nr for i in turns]
-            tn = _Turns([sol.legs[i] for i in turns], t0, na, [None if by_row is None else by_row[i] for i in turns],
-                        shp)
-            blocks = _sample_turns(tn, nr, many, wind, hdg is not None, shp)
-            for dst, blk in zip((out, hdg, tim), blocks):
-                if dst is None:
-                    continue
-                for b, (i, n_arc) in enumerate(zip(turns, na)):
-                    j = starts[i]
-                    if n_arc == tn.na:
-                        dst[j:j + counts[i]] = blk[:, b]
-                    else:      # the arc's own samples, then the roll-out ramp's
-                        dst[j:j + nr + n_arc] = blk[:nr + n_arc, b]
-                        dst[j + nr + n_arc:j + counts[i]] = blk[nr + tn.na:, b]
+        # a few tracks: every turn in one block (the calls are the cost); many: turn by turn
+        # (the arithmetic is: no padding to the longest arc, positions written in place)
+        for grp in ([turns] if math.prod(shp) < _BLOCK_MAX_CELLS else [[i] for i in turns]) if turns else ():
+            _place_turns(out, hdg, tim, sol.legs, grp, [t0[turns.index(i)] for i in grp], counts, starts,
+                         by_row, nr, many, wind, shp)
     order = tuple(range(1, len(shp) + 1)) + (0,)      # the sample axis last (np.moveaxis(a, 0, -1))
     last = (lambda a: a) if not shp else (lambda a: a.transpose(order))  # noqa: E731
     xy = np.ascontiguousarray(last(out)).view(np.float64).reshape(shp + (nt, 2))
