@@ -106,8 +106,9 @@ def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"
     ref = (plan.inputs.runway_length_m / 2.0 if toward == "midpoint" else 0.0, 0.0)
     psi = np.radians(plan.track_heading_deg)
     dx, dy = ref[0] - plan.track_xy_m[:, 0], ref[1] - plan.track_xy_m[:, 1]
-    cross = np.cos(psi) * dy - np.sin(psi) * dx          # > 0: runway to the right
-    dot = np.cos(psi) * dx + np.sin(psi) * dy
+    cos_psi, sin_psi = np.cos(psi), np.sin(psi)
+    cross = cos_psi * dy - sin_psi * dx          # > 0: runway to the right
+    dot = cos_psi * dx + sin_psi * dy
     rel = np.degrees(np.arctan2(cross, dot))
     a = np.abs(rel)
     codes = np.where(a <= AHEAD_TOL_DEG, 0, np.where(a >= 180.0 - AHEAD_TOL_DEG, 1, np.where(rel > 0, 2, 3)))
@@ -149,10 +150,10 @@ def headline_missed_direction(plan: Plan, guide: MissedApproachGuide) -> str:
     counted = np.ones(legs.shape, dtype=bool)
     for i in skip:
         counted &= legs != i
-    sides = guide.direction[:-1]
+    sides = np.array(guide.direction[:-1])
     weight = {}
     for side in ("left", "right"):
-        held = dt[counted & np.array([d == side for d in sides], dtype=bool)]   # summed in order, one running total
+        held = dt[counted & (sides == side)]      # summed in order, as one running total
         weight[side] = float(np.cumsum(held)[-1]) if held.size else 0.0
     if weight["left"] == weight["right"]:
         return plan.side if weight["left"] > 0 else ""
