@@ -246,3 +246,21 @@ def test_take_rows_takes_every_field_of_the_solution(shape):
             if lg["nominal_rows"] is not None and lg["nominal_rows"].size:
                 lg["nominal_rad"] = float(np.max(lg["nominal_rows"]))
         assert _same(got, want)
+
+
+@pytest.mark.parametrize("inp", SCENARIOS)
+def test_shapes_solved_together_are_each_shape_solved_alone(inp):
+    """solve_inputs_shapes solves the shapes of one set of rows in one pass (one call of the turn
+    kernels for all their turns): each shape's solution is its solve alone to the last bit."""
+    from briefer.core.manoeuvre.solver import solve_inputs_shapes
+    wx, wy, bank, ro = _rows(inp)
+    shapes = sorted({s for s, _ in applicable_candidates(inp.arrival_course_deg)})
+    kw = dict(sigma=np.repeat([1.0, -1.0], wx.size), wx_mps=np.tile(wx, 2), wy_mps=np.tile(wy, 2),
+              bank_deg=np.tile(bank, 2), roll_out_m=np.tile(ro, 2), descent=descent_geometry(inp))
+    together = solve_inputs_shapes(inp, shapes, **kw)
+    for shape, sol in zip(shapes, together):
+        alone = dict(_arrays(solve_inputs(inp, shape, **kw)))
+        got = dict(_arrays(sol))
+        assert got.keys() == alone.keys()
+        for path, a in alone.items():
+            np.testing.assert_array_equal(got[path], a, err_msg=f"{shape} {path}")

@@ -71,7 +71,7 @@ from briefer.core.manoeuvre.solver import (
     descent_geometry,
     merge_for_sampling,
     sample_solution,
-    solve_inputs,
+    solve_inputs_shapes,
     take_rows,
     turn_rows,
     turn_sample_count,
@@ -315,14 +315,20 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
     groups: dict[Shape, list[int]] = {}
     for ci, (shape, _side) in enumerate(candidates):
         groups.setdefault(shape, []).append(ci)
+    by_sides: dict[tuple[Side, ...], list[Shape]] = {}     # shapes on the same sides: one solve
+    for shape, cis in groups.items():
+        by_sides.setdefault(tuple(candidates[ci][1] for ci in cis), []).append(shape)
+    sols: dict[Shape, ShapeSolution] = {}
+    for sides, shapes in by_sides.items():
+        g = len(sides)
+        sigma = np.repeat([1.0 if side == "right" else -1.0 for side in sides], m)
+        sols.update(zip(shapes, solve_inputs_shapes(
+            inputs, shapes, sigma=sigma, wx_mps=_tile(wx, g), wy_mps=_tile(wy, g), bank_deg=_tile(bank, g),
+            descent=dg, roll_out_m=_tile(d, g), turns=None if turns is None else [turns[sh] for sh in shapes],
+            made=None if made is None else [made.setdefault(sh, []) for sh in shapes])))
     solved = []
     for shape, cis in groups.items():
-        g = len(cis)
-        sigma = np.repeat([1.0 if candidates[ci][1] == "right" else -1.0 for ci in cis], m)
-        sol = solve_inputs(inputs, shape, sigma=sigma, wx_mps=_tile(wx, g), wy_mps=_tile(wy, g),
-                           bank_deg=_tile(bank, g), descent=dg, roll_out_m=_tile(d, g),
-                           turns=None if turns is None else turns[shape],
-                           made=None if made is None else made.setdefault(shape, []))
+        g, sol = len(cis), sols[shape]
         ok_g = sol.ok.reshape(g, m)
         ok[:, cis] = ok_g.T
         ttime[:, cis] = np.where(ok_g, sum(lg.duration for lg in sol.legs).reshape(g, m), np.nan).T

@@ -76,7 +76,7 @@ from __future__ import annotations
 
 import math
 from briefer._dataclass import dataclass, field
-from collections.abc import Sequence
+from collections.abc import Generator, Sequence
 from typing import Literal
 
 import numpy as np
@@ -393,12 +393,11 @@ def _flag(ok: npt.NDArray[np.bool_], flag: int) -> npt.NDArray[np.int_]:
 class _Kernel:
     """What every leg of one solve shares: the broadcast inputs and the leg makers."""
 
-    __slots__ = ("zero", "sig", "wx", "wy", "bank", "v", "roll_rate_rad", "x0", "y0", "c0_rad", "d_m", "given", "made")
+    __slots__ = ("zero", "sig", "wx", "wy", "bank", "v", "roll_rate_rad", "x0", "y0", "c0_rad", "d_m")
 
     def __init__(self, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.ArrayLike, wy: npt.ArrayLike,
                  bank_rad: npt.ArrayLike, roll_rate_rad: float | None, x0: float, y0: float, c0_rad: float,
-                 d_m: float | FloatArray, given: Sequence[LegArrays] | None = None,
-                 made: list[LegArrays] | None = None) -> None:
+                 d_m: float | FloatArray) -> None:
         sig = np.asarray(sigma, dtype=float)
         wx = np.asarray(wx, dtype=float)
         wy = np.asarray(wy, dtype=float)
@@ -409,18 +408,10 @@ class _Kernel:
         self.v = float(tas_mps)
         self.roll_rate_rad = roll_rate_rad
         self.x0, self.y0, self.c0_rad, self.d_m = x0, y0, c0_rad, d_m
-        self.given, self.made = given, made
 
     def turns(self, *specs: tuple[FloatArray, FloatArray, FloatArray, str, FloatArray]) -> list[LegArrays]:
         """Turn legs from (entry heading, angle, sign, name, calm-wind angle) specs, all computed in
-        one call of the (elementwise) kernels: the specs are stacked on a new leading axis.
-
-        With ``given``, those legs instead (the same turns solved before, see :func:`solve_shape`);
-        with ``made``, the legs are also appended to that list."""
-        if self.given is not None:
-            if len(self.given) != len(specs):
-                raise DomainError(f"{len(self.given)} turns given where the shape makes {len(specs)}")
-            return list(self.given)
+        one call of the (elementwise) kernels: the specs are stacked on a new leading axis."""
         zero, v, wx, wy = self.zero, self.v, self.wx, self.wy
         psi_a = np.concatenate([(sp[0] + zero)[None] for sp in specs])
         angle = np.concatenate([(sp[1] + zero)[None] for sp in specs])
@@ -440,8 +431,6 @@ class _Kernel:
             out.append(LegArrays(kind="turn", name=sp[3], duration=p_i.total, psi0=psi_a[i], prof=p_i,
                                  sign=sgn[i], dx=dx[i], dy=dy[i], nominal_rad=float(np.max(sp[4])),
                                  nominal_rows=sp[4] + zero))
-        if self.made is not None:
-            self.made.extend(out)
         return out
 
     def straight(self, psi: FloatArray, gx: FloatArray, gy: FloatArray, t: FloatArray, name: str,
@@ -465,6 +454,12 @@ class _Tracks:
         self.reasons = _flag(ok_f & ok_d & ok0, R_WIND)
         self.final_leg = k.straight(self.psi_f, self.gs_f, k.zero, k.d_m / self.gs_f, "final", 0.0)
 
+    def final(self) -> LegArrays:
+        """The final straight, a leg of its own (the shapes of one solve share its arrays)."""
+        f = self.final_leg
+        return LegArrays(kind="straight", name="final", duration=f.duration, psi0=f.psi0, gx=f.gx, gy=f.gy,
+                         track_rad=f.track_rad)
+
 
 @dataclass(slots=True)
 class _Solved:
@@ -480,6 +475,11 @@ class _Solved:
     break_s: FloatArray | None = None
 
 
+_ShapeSteps = Generator[tuple, list[LegArrays], _Solved] if TYPE_CHECKING else object
+"""A shape's solve: it yields its turn specs (see :meth:`_Kernel.turns`), is sent the turn legs
+and returns its legs and unknowns."""
+
+
 def _final_turn_spec(k: _Kernel, t: _Tracks) -> tuple:
     """The one 180 deg turn from the downwind onto final (pattern hand)."""
     return (t.psi_d, _wrap_2pi(k.sig * (t.psi_f - t.psi_d)), k.sig, "final turn", np.pi + k.zero)
@@ -491,12 +491,12 @@ def _downwind_and_final(k: _Kernel, t: _Tracks, reasons: npt.NDArray[np.int_], f
     """The downwind shapes' common end: the downwind time from x, the legs in order."""
     t_dw = (x_j - x_ri) / t.gs_d
     reasons = reasons | _flag(t_j >= 0.0, R_NEG_LEG) | _flag(t_dw >= 0.0, R_INSIDE_TURN)
-    legs = first + [k.straight(t.psi_d, -t.gs_d, k.zero, t_dw, "downwind", math.pi)] + final_side + [t.final_leg]
+    legs = first + [k.straight(t.psi_d, -t.gs_d, k.zero, t_dw, "downwind", math.pi)] + final_side + [t.final()]
     return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m + k.zero,
                    abeam_s=-x_ri / t.gs_d, break_s=t_j)
 
 
-def _solve_downwind_join(k: _Kernel, t: _Tracks) -> _Solved:
+def _solve_downwind_join(k: _Kernel, t: _Tracks) -> _ShapeSteps:
     """Crossing leg, turn onto the downwind, downwind, then one 180 deg turn to final, or (when the
     join alone reaches beyond that turn's offset) a wider downwind with a base turn, base leg and
     final turn, as on the circuit's final side."""
@@ -504,7 +504,7 @@ def _solve_downwind_join(k: _Kernel, t: _Tracks) -> _Solved:
     psi0, psi_d, psi_f = t.psi0, t.psi_d, t.psi_f
     trk_b = -sig * (0.5 * np.pi)
     psi_b, gs_b, ok_b = wind_triangle(trk_b, k.v, k.wx, k.wy)
-    t_f180, t_join, t_bt90, t_f90 = k.turns(
+    t_f180, t_join, t_bt90, t_f90 = yield (
         _final_turn_spec(k, t), (psi0, _wrap_2pi(sig * (psi_d - psi0)), sig, "turn downwind",
                                  _wrap_2pi(sig * (np.pi - k.c0_rad))),
         (psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
@@ -531,12 +531,12 @@ def _solve_downwind_join(k: _Kernel, t: _Tracks) -> _Solved:
     return _downwind_and_final(k, t, reasons, first, final_side, x_j, t_j, x_ri, y_ri, offset)
 
 
-def _solve_break_and_return(k: _Kernel, t: _Tracks, break_rad: float) -> _Solved:
+def _solve_break_and_return(k: _Kernel, t: _Tracks, break_rad: float) -> _ShapeSteps:
     """Break turn away from the runway, break leg, turn onto the downwind, downwind, final turn."""
     sig, zero, x0, y0, v = k.sig, k.zero, k.x0, k.y0, k.v
     psi0 = t.psi0
     psi_b = psi0 - sig * break_rad
-    t_fin, t_brk, t_join = k.turns(
+    t_fin, t_brk, t_join = yield (
         _final_turn_spec(k, t), (psi0, break_rad + zero, -sig, "break turn", break_rad + zero),
         (psi_b, _wrap_2pi(sig * (t.psi_d - psi_b)), sig, "turn downwind",
          _wrap_2pi(sig * (np.pi - k.c0_rad) + break_rad)))
@@ -551,13 +551,13 @@ def _solve_break_and_return(k: _Kernel, t: _Tracks, break_rad: float) -> _Solved
     return _downwind_and_final(k, t, reasons, first, [t_fin], x_j, t_j, x_ri, y_ri, offset)
 
 
-def _solve_teardrop(k: _Kernel, t: _Tracks, teardrop_rad: float) -> _Solved:
+def _solve_teardrop(k: _Kernel, t: _Tracks, teardrop_rad: float) -> _ShapeSteps:
     """Outbound leg, offset turn, offset leg, one turn onto final: a 2x2 linear system."""
     sig, zero, x0, y0, v, d_m = k.sig, k.zero, k.x0, k.y0, k.v, k.d_m
     psi0, g0x, g0y = t.psi0, t.g0x, t.g0y
     psi_t = psi0 - sig * teardrop_rad
-    t_off, t_fin = k.turns((psi0, teardrop_rad + zero, -sig, "offset turn", teardrop_rad + zero),
-                           (psi_t, _wrap_2pi(sig * (t.psi_f - psi_t)), sig, "final turn",
+    t_off, t_fin = yield ((psi0, teardrop_rad + zero, -sig, "offset turn", teardrop_rad + zero),
+                          (psi_t, _wrap_2pi(sig * (t.psi_f - psi_t)), sig, "final turn",
                             _wrap_2pi(-sig * k.c0_rad + teardrop_rad)))
     gtx, gty = v * np.cos(psi_t) + k.wx, v * np.sin(psi_t) + k.wy
     bx = -d_m - x0 - t_off.dx - t_fin.dx
@@ -570,17 +570,17 @@ def _solve_teardrop(k: _Kernel, t: _Tracks, teardrop_rad: float) -> _Solved:
     reasons = (t.reasons | _flag(np.abs(det) > _SMALL_GS * v, R_NO_CONVERGE)
                | _flag((t1 >= 0.0) & (t2 >= 0.0), R_NEG_LEG) | _flag(offset > 0.0, R_WRONG_SIDE))
     legs = [k.straight(psi0, g0x, g0y, t1, "outbound", k.c0_rad), t_off,
-            k.straight(psi_t, gtx, gty, t2, "offset leg", None), t_fin, t.final_leg]
+            k.straight(psi_t, gtx, gty, t2, "offset leg", None), t_fin, t.final()]
     return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=d_m + zero,
                    break_s=t2)
 
 
-def _solve_direct_turn(k: _Kernel, t: _Tracks, d_stab_m: float) -> _Solved:
+def _solve_direct_turn(k: _Kernel, t: _Tracks, d_stab_m: float) -> _ShapeSteps:
     """Hold the arrival course until one turn rolls out on the centreline (roll-out a result)."""
     sig, zero, x0, y0 = k.sig, k.zero, k.x0, k.y0
     psi0, g0x, g0y = t.psi0, t.g0x, t.g0y
     ang = _wrap_2pi(sig * (t.psi_f - psi0))
-    (t_fin,) = k.turns((psi0, ang, sig, "final turn", _wrap_2pi(-sig * k.c0_rad)))
+    (t_fin,) = yield ((psi0, ang, sig, "final turn", _wrap_2pi(-sig * k.c0_rad)),)
     t1 = -(y0 + t_fin.dy) / g0y
     x_ri, y_ri = x0 + g0x * t1, y0 + g0y * t1
     roll_out = -(x_ri + t_fin.dx)
@@ -592,7 +592,7 @@ def _solve_direct_turn(k: _Kernel, t: _Tracks, d_stab_m: float) -> _Solved:
     return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=roll_out)
 
 
-def _solve_overfly_circuit(k: _Kernel, t: _Tracks, circuit_turn_x_m: float) -> _Solved:
+def _solve_overfly_circuit(k: _Kernel, t: _Tracks, circuit_turn_x_m: float) -> _ShapeSteps:
     """Upwind leg to the crosswind turn point, then the rectangular circuit on the chosen side."""
     sig, zero, x0, y0, v = k.sig, k.zero, k.x0, k.y0, k.v
     psi0, psi_d, g0x, g0y = t.psi0, t.psi_d, t.g0x, t.g0y
@@ -601,7 +601,7 @@ def _solve_overfly_circuit(k: _Kernel, t: _Tracks, circuit_turn_x_m: float) -> _
     psi_x, gs_x, ok_x = wind_triangle(trk_x, v, k.wx, k.wy)
     psi_b, gs_b, ok_b = wind_triangle(trk_b, v, k.wx, k.wy)
     t_up = np.maximum((circuit_turn_x_m - x0) / g0x, 0.0)
-    t_cw, t_dwt, t_bt, t_fin = k.turns(
+    t_cw, t_dwt, t_bt, t_fin = yield (
         (psi0, _wrap_2pi(sig * (psi_x - psi0)), sig, "crosswind turn", _wrap_2pi(0.5 * np.pi - sig * k.c0_rad)),
         (psi_x, _wrap_2pi(sig * (psi_d - psi_x)), sig, "downwind turn", 0.5 * np.pi + zero),
         (psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
@@ -621,7 +621,7 @@ def _solve_overfly_circuit(k: _Kernel, t: _Tracks, circuit_turn_x_m: float) -> _
     legs = [k.straight(psi0, g0x, g0y, t_up, "upwind", k.c0_rad), t_cw,
             k.straight(psi_x, zero, sig * gs_x, t_xw, "crosswind", trk_x), t_dwt,
             k.straight(psi_d, -t.gs_d, zero, t_dw, "downwind", math.pi), t_bt,
-            k.straight(psi_b, zero, -sig * gs_b, t_bl, "base", trk_b), t_fin, t.final_leg]
+            k.straight(psi_b, zero, -sig * gs_b, t_bl, "base", trk_b), t_fin, t.final()]
     return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m + zero,
                    abeam_s=-x_ri / t.gs_d, break_s=t_up)
 
@@ -662,25 +662,72 @@ def solve_shape(shape: Shape, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.A
     (sides, winds, banks) and inputs at other roll-out distances, which then makes none (the
     legs given become the solution's: give legs of their own, e.g. from :func:`turn_rows`).
     """
-    if shape not in SHAPES:
-        raise DomainError(f"unknown plan shape {shape!r}; expected one of {SHAPES}")
+    return solve_shapes((shape,), sigma=sigma, tas_mps=tas_mps, wx=wx, wy=wy, bank_rad=bank_rad,
+                        roll_rate_rad=roll_rate_rad, x0=x0, y0=y0, c0_rad=c0_rad, d_m=d_m, d_stab_m=d_stab_m,
+                        break_rad=break_rad, teardrop_rad=teardrop_rad, circuit_turn_x_m=circuit_turn_x_m,
+                        turns=(turns,), made=(made,))[0]
+
+
+def _shape_steps(shape: Shape, k: _Kernel, t: _Tracks, d_stab_m: float, break_rad: float, teardrop_rad: float,
+                 circuit_turn_x_m: float) -> _ShapeSteps:
+    if shape == "downwind-join":
+        return _solve_downwind_join(k, t)
+    if shape == "break-and-return":
+        return _solve_break_and_return(k, t, break_rad)
+    if shape == "teardrop":
+        return _solve_teardrop(k, t, teardrop_rad)
+    if shape == "direct-turn":
+        return _solve_direct_turn(k, t, d_stab_m)
+    return _solve_overfly_circuit(k, t, circuit_turn_x_m)
+
+
+def solve_shapes(shapes: Sequence[Shape], *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.ArrayLike,
+                 wy: npt.ArrayLike, bank_rad: npt.ArrayLike, roll_rate_rad: float | None, x0: float, y0: float,
+                 c0_rad: float, d_m: float | FloatArray, d_stab_m: float, break_rad: float, teardrop_rad: float,
+                 circuit_turn_x_m: float = 0.0, turns: Sequence[Sequence[LegArrays] | None] | None = None,
+                 made: Sequence[list[LegArrays] | None] | None = None) -> list[ShapeSolution]:
+    """:func:`solve_shape` of several shapes on the same rows, in one pass: the tracks every shape
+    uses are solved once, and every turn of every shape in one call of the turn kernels (each
+    shape's ``_solve_<shape>`` hands its turns over and gets them back); elementwise, so each
+    shape's numbers are its solve alone to the last bit. ``turns``, ``made``: per shape, as
+    :func:`solve_shape`'s."""
+    for shape in shapes:
+        if shape not in SHAPES:
+            raise DomainError(f"unknown plan shape {shape!r}; expected one of {SHAPES}")
+    n = len(shapes)
+    given = [None] * n if turns is None else list(turns)
+    makes = [None] * n if made is None else list(made)
     k = _Kernel(sigma=sigma, tas_mps=tas_mps, wx=wx, wy=wy, bank_rad=bank_rad, roll_rate_rad=roll_rate_rad, x0=x0,
-                y0=y0, c0_rad=c0_rad, d_m=d_m, given=turns, made=made)
-    zero = k.zero
+                y0=y0, c0_rad=c0_rad, d_m=d_m)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         t = _Tracks(k)
-        if shape == "downwind-join":
-            s = _solve_downwind_join(k, t)
-        elif shape == "break-and-return":
-            s = _solve_break_and_return(k, t, break_rad)
-        elif shape == "teardrop":
-            s = _solve_teardrop(k, t, teardrop_rad)
-        elif shape == "direct-turn":
-            s = _solve_direct_turn(k, t, d_stab_m)
-        else:
-            s = _solve_overfly_circuit(k, t, circuit_turn_x_m)
-        _chain_starts(s.legs, x0, y0, zero)
-    legs = s.legs
+        steps = [_shape_steps(shape, k, t, d_stab_m, break_rad, teardrop_rad, circuit_turn_x_m) for shape in shapes]
+        specs = [next(st) for st in steps]
+        todo = [sp for sps, gv in zip(specs, given) if gv is None for sp in sps]
+        fresh = k.turns(*todo) if todo else []
+        solved = []
+        for st, sps, gv, mk in zip(steps, specs, given, makes):
+            if gv is None:
+                legs, fresh = fresh[:len(sps)], fresh[len(sps):]
+                if mk is not None:
+                    mk.extend(legs)
+            elif len(gv) != len(sps):
+                raise DomainError(f"{len(gv)} turns given where the shape makes {len(sps)}")
+            else:
+                legs = list(gv)
+            try:
+                st.send(legs)
+            except StopIteration as done:
+                solved.append(done.value)
+            else:
+                raise RuntimeError("a shape's solve hands its turns over once")
+        for sv in solved:
+            _chain_starts(sv.legs, x0, y0, k.zero)
+    return [_solution(shape, sv, k, t) for shape, sv in zip(shapes, solved)]
+
+
+def _solution(shape: Shape, s: _Solved, k: _Kernel, t: _Tracks) -> ShapeSolution:
+    zero, legs = k.zero, s.legs
     reasons = np.asarray(s.reasons, dtype=np.int64) + np.zeros(zero.shape, dtype=np.int64)
     return ShapeSolution(shape=shape, ok=reasons == 0, reasons=reasons, legs=tuple(legs), x_ri=s.x_ri + zero,
                          y_ri=s.y_ri + zero, offset=s.offset + zero, roll_out_d=s.roll_out + zero,
@@ -859,18 +906,28 @@ def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx
     """:func:`solve_shape` with the fixed parts taken from ``inputs`` (winds, sides, banks vary;
     ``roll_out_m`` may vary too: roll-out distances, default the descent geometry's; ``turns``
     and ``made``: turns solved once for several roll-outs, see :func:`solve_shape`). [m]"""
+    return solve_inputs_shapes(inputs, (shape,), sigma=sigma, wx_mps=wx_mps, wy_mps=wy_mps, bank_deg=bank_deg,
+                               descent=descent, roll_out_m=roll_out_m, turns=(turns,), made=(made,))[0]
+
+
+def solve_inputs_shapes(inputs: CircleInputs, shapes: Sequence[Shape], *, sigma: npt.ArrayLike,
+                        wx_mps: npt.ArrayLike, wy_mps: npt.ArrayLike, bank_deg: npt.ArrayLike,
+                        descent: DescentGeometry | None = None, roll_out_m: npt.ArrayLike | None = None,
+                        turns: Sequence[Sequence[LegArrays] | None] | None = None,
+                        made: Sequence[list[LegArrays] | None] | None = None) -> list[ShapeSolution]:
+    """:func:`solve_inputs` of several shapes on the same rows in one pass (:func:`solve_shapes`)."""
     b = np.asarray(bank_deg, dtype=float)
     if not ((b > 0.0) & (b < BANK_MAX_DEG)).all():
         raise DomainError(f"bank_deg = {bank_deg}: a turn needs 0 < bank < 90")
     dg = descent if descent is not None else descent_geometry(inputs)
     rr = None if inputs.roll_rate_deg_per_s is None else math.radians(inputs.roll_rate_deg_per_s)
-    return solve_shape(shape, sigma=sigma, tas_mps=inputs.tas_kt * KT_TO_MPS, wx=wx_mps, wy=wy_mps,
-                       bank_rad=np.radians(b), roll_rate_rad=rr, x0=inputs.arrival_x_m, y0=inputs.arrival_y_m,
-                       c0_rad=math.radians(inputs.arrival_course_deg),
-                       d_m=dg.roll_out_distance_m if roll_out_m is None else np.asarray(roll_out_m, dtype=float),
-                       d_stab_m=dg.stabilised_distance_m, break_rad=math.radians(inputs.break_angle_deg),
-                       teardrop_rad=math.radians(inputs.teardrop_angle_deg),
-                       circuit_turn_x_m=inputs.circuit_turn_past_threshold_m, turns=turns, made=made)
+    return solve_shapes(shapes, sigma=sigma, tas_mps=inputs.tas_kt * KT_TO_MPS, wx=wx_mps, wy=wy_mps,
+                        bank_rad=np.radians(b), roll_rate_rad=rr, x0=inputs.arrival_x_m, y0=inputs.arrival_y_m,
+                        c0_rad=math.radians(inputs.arrival_course_deg),
+                        d_m=dg.roll_out_distance_m if roll_out_m is None else np.asarray(roll_out_m, dtype=float),
+                        d_stab_m=dg.stabilised_distance_m, break_rad=math.radians(inputs.break_angle_deg),
+                        teardrop_rad=math.radians(inputs.teardrop_angle_deg),
+                        circuit_turn_x_m=inputs.circuit_turn_past_threshold_m, turns=turns, made=made)
 
 
 N_RAMP = 3
