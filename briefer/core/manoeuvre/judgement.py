@@ -768,8 +768,10 @@ def choose_plan_at_wind(inputs: CircleInputs, *, margin_fn: MarginFn, batch_marg
         # the level's rows of the batch (row i of each side) are the plans' solutions: not solved again
         r, b, i, rows = lvl[0], lvl[1], order.index(lvl), len(order)
         solved = {j.candidates[cis[0]][0]: (sol, slice(i, None, rows)) for cis, sol in j.solutions}
-        plans = candidate_plans(dataclasses.replace(inputs, bank_deg=banks[b],
-                                                    roll_out_distance_m=levels.roll_out_chosen[r]), solved=solved)
+        same = banks[b] == inputs.bank_deg and levels.roll_out_chosen[r] == inputs.roll_out_distance_m
+        lvl_inputs = inputs if same else dataclasses.replace(inputs, bank_deg=banks[b],
+                                                             roll_out_distance_m=levels.roll_out_chosen[r])
+        plans = candidate_plans(lvl_inputs, solved=solved)
         return rank_plans(plans, margin_fn=margin_fn, **kw)
 
     shown = None

@@ -325,10 +325,10 @@ def _leave_mda(xy: FloatArray, hd: FloatArray, tm: FloatArray, li: npt.NDArray[n
         return LeaveMda(x_m=-descent.descent_point_m, y_m=0.0, heading_deg=math.degrees(float(hd[fin][0])) % 360.0,
                         in_turn=False, leg_name="final", along_track_to_threshold_m=descent.descent_point_m,
                         time_s=t), True
-    keep = li < last                      # everything before the final straight, walked backwards
-    x, y = xy[keep, 0][::-1], xy[keep, 1][::-1]
+    nk = int(np.searchsorted(li, last))   # everything before the final straight (legs in order), walked backwards
+    x, y = xy[:nk, 0][::-1], xy[:nk, 1][::-1]
     s = np.concatenate([[0.0], np.cumsum(np.hypot(np.diff(x), np.diff(y)))])
-    lk, tt, hh = li[keep][::-1], tm[keep][::-1], hd[keep][::-1]
+    lk, tt, hh = li[:nk][::-1], tm[:nk][::-1], hd[:nk][::-1]
     reached = bool(s[-1] >= need)
     j = max(1, int(np.searchsorted(s, need)) if reached else len(s) - 1)
     fr = 0.0 if s[j] == s[j - 1] else min(1.0, (need - s[j - 1]) / (s[j] - s[j - 1]))

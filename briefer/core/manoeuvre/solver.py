@@ -1000,7 +1000,8 @@ def _leg_counts(sol: ShapeSolution, turn_step_deg: float, n_straight: int, strai
 
 def _stacked(values: list, shp: tuple[int, ...]) -> FloatArray:
     """Per-turn arrays stacked on a new leading axis (T,) + shp (each broadcast to shp as it is)."""
-    return np.array(values if all(np.shape(x) == shp for x in values) else [np.broadcast_to(x, shp) for x in values])
+    return np.array(values if all(getattr(x, "shape", ()) == shp for x in values)
+                    else [np.broadcast_to(x, shp) for x in values])
 
 
 class _Turns:
