@@ -829,28 +829,37 @@ def _cat_rows(arrays: list[FloatArray], rows: Sequence[npt.NDArray[np.int_] | No
     return parts[0] if len(parts) == 1 else np.concatenate(parts)
 
 
-def _concat_legs(legs: list[LegArrays], rows: Sequence[npt.NDArray[np.int_] | None]) -> LegArrays:
-    """Legs of one kind from several solutions, the rows given of each end to end (the fields
-    sampling reads)."""
-    def cat(values: list[FloatArray]) -> FloatArray:
-        return _cat_rows(values, rows)
+_TURN_PROF = ("angle", "tas", "tr", "tc", "dp", "wp", "c", "total")
+_TURN_LEG = ("x0", "y0", "psi0", "sign", "nominal_rows")
+_STRAIGHT = ("duration", "x0", "y0", "psi0", "gx", "gy")
 
-    a = legs[0]
-    if a.kind == "straight":
-        return LegArrays(kind="straight", name=a.name, duration=cat([lg.duration for lg in legs]),
-                         x0=cat([lg.x0 for lg in legs]), y0=cat([lg.y0 for lg in legs]),
-                         psi0=cat([lg.psi0 for lg in legs]), gx=cat([lg.gx for lg in legs]),
-                         gy=cat([lg.gy for lg in legs]))
-    profs = [lg.prof for lg in legs]
-    prof = TurnProfile(k=a.prof.k, **{f: cat([getattr(pr, f) for pr in profs])  # type: ignore[union-attr]
-                                       for f in ("angle", "tas", "tr", "tc", "dp", "wp", "c", "total")})
-    nominal = cat([lg.nominal_rows for lg in legs])
-    whole = all(r is None for r in rows)
-    return LegArrays(kind="turn", name=a.name, duration=prof.total, x0=cat([lg.x0 for lg in legs]),
-                     y0=cat([lg.y0 for lg in legs]), psi0=cat([lg.psi0 for lg in legs]), prof=prof,
-                     sign=cat([lg.sign for lg in legs]),
-                     nominal_rad=max(lg.nominal_rad for lg in legs) if whole else float(np.max(nominal, initial=0.0)),
-                     nominal_rows=nominal)
+
+def _leg_columns(lg: LegArrays) -> list[FloatArray]:
+    """The arrays of a leg that sampling reads, in :func:`_legs_from_columns`' order."""
+    if lg.kind == "straight":
+        return [getattr(lg, f) for f in _STRAIGHT]
+    return [getattr(lg.prof, f) for f in _TURN_PROF] + [getattr(lg, f) for f in _TURN_LEG]
+
+
+def _legs_from_columns(like: list[LegArrays], cols: FloatArray, nominal_rad: list[float] | None) -> list[LegArrays]:
+    """Legs like ``like`` (kinds, names, ramp constants) from the rows of ``cols`` (F, M), one
+    array per field as :func:`_leg_columns` lists them; each turn's calm-wind angle the given one
+    (None: the largest of its rows)."""
+    out, j = [], 0
+    for i, a in enumerate(like):
+        if a.kind == "straight":
+            d, x0, y0, psi0, gx, gy = cols[j:j + 6]
+            out.append(LegArrays(kind="straight", name=a.name, duration=d, x0=x0, y0=y0, psi0=psi0, gx=gx, gy=gy))
+            j += 6
+            continue
+        angle, tas, tr, tc, dp, wp, c, total, x0, y0, psi0, sign, nominal = cols[j:j + 13]
+        j += 13
+        prof = TurnProfile(angle=angle, tas=tas, tr=tr, tc=tc, dp=dp, wp=wp, c=c, k=a.prof.k,  # type: ignore[union-attr]
+                           total=total)
+        out.append(LegArrays(kind="turn", name=a.name, duration=total, x0=x0, y0=y0, psi0=psi0, prof=prof, sign=sign,
+                             nominal_rad=(nominal_rad[i] if nominal_rad is not None
+                                          else float(np.max(nominal, initial=0.0))), nominal_rows=nominal))
+    return out
 
 
 def merge_for_sampling(sols: list[ShapeSolution], rows: Sequence[npt.NDArray[np.int_] | None] | None = None
@@ -881,12 +890,20 @@ def merge_for_sampling(sols: list[ShapeSolution], rows: Sequence[npt.NDArray[np.
             return None
     ok = _cat_rows([sol.ok for sol in sols], rows)
     first = sols[0]
+    # every field read, of every leg of a solution, as the rows of one array; the solutions' rows end to end
+    parts = []
+    for lgs, sol, r in zip(legs, sols, rows):
+        fields = [c for lg in lgs for c in _leg_columns(lg)] + [sol.wx, sol.wy]
+        parts.append(np.array(fields if r is None else [c[r] for c in fields]))
+    cols = parts[0] if len(parts) == 1 else np.concatenate(parts, axis=1)
+    whole = all(r is None for r in rows)
+    nominal = [max(lg[i].nominal_rad for lg in legs) for i in range(n)] if whole else None
     return ShapeSolution(shape=first.shape, ok=ok, reasons=_cat_rows([sol.reasons for sol in sols], rows),
-                         legs=tuple(_concat_legs([lg[i] for lg in legs], rows) for i in range(n)), x_ri=first.x_ri,
+                         legs=tuple(_legs_from_columns(list(legs[0]), cols, nominal)), x_ri=first.x_ri,
                          y_ri=first.y_ri, offset=first.offset, roll_out_d=first.roll_out_d, abeam_s=None, break_s=None,
                          psi_f=first.psi_f, gs_f=first.gs_f, psi_d=first.psi_d, gs_d=first.gs_d,
                          final_turn=first.final_turn, turns_to_final=first.turns_to_final,
-                         wx=_cat_rows([sol.wx for sol in sols], rows), wy=_cat_rows([sol.wy for sol in sols], rows))
+                         wx=cols[-2], wy=cols[-1])
 
 
 def leg_end_distance_m(sol: ShapeSolution, runway_length_m: float) -> FloatArray:
