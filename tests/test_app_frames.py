@@ -9,12 +9,14 @@ from __future__ import annotations
 import threading
 
 from test_app_support import demo_catalog, demo_inputs, settle
+from textual._compositor import Compositor
 from textual.screen import Screen
 from textual.widgets import Input, Static
 
 import briefer.brief
 import briefer.tui.app as app_module
 from briefer.tui.app import BriefingApp
+from briefer.tui.frame_compositor import ChangedRegionsCompositor
 
 
 def _frames(monkeypatch, app: BriefingApp) -> list[float | None]:
@@ -116,6 +118,42 @@ async def test_a_brief_of_the_same_heights_lays_nothing_out_and_a_new_line_is_la
         await settle(app, pilot)
         assert app.brief.minimums.cold is not None
         assert layouts and implies.size.height == lines + 1
+
+
+async def test_an_edits_frame_writes_what_textuals_own_compositor_writes(monkeypatch):
+    """The main screen's compositor renders for a partial frame only the widgets seen in the
+    regions that changed (briefer.tui.frame_compositor); Textual's own renders every widget in
+    the box around them. Each frame of a run of edits (new numbers, a new line laid out, a value
+    refused beside its field, another step) writes the same bytes as Textual's would."""
+    compared: list[int] = []
+    real = ChangedRegionsCompositor.render_partial_update
+
+    def both(self):
+        dirty = set(self._dirty_regions)
+        ours = real(self)
+        self._dirty_regions.update(dirty)
+        theirs = Compositor.render_partial_update(self)     # Textual's: every widget in the box
+        assert (ours is None) == (theirs is None)
+        if ours is not None:
+            console = app.console
+            assert ours.render_segments(console) == theirs.render_segments(console)
+            compared.append(len(dirty))
+        return ours
+
+    monkeypatch.setattr(ChangedRegionsCompositor, "render_partial_update", both)
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False)
+    async with app.run_test(size=(80, 24)) as pilot:
+        wind = await _on_weather_step(app, pilot)
+        for text in ("255/15", "260/25G35", "bad wind", "270/10"):
+            wind.value = text
+            await settle(app, pilot)
+        app.main.query_one("#oat", Input).value = "-35"      # a new line in the weather pane
+        await settle(app, pilot)
+        await pilot.press("escape", "6")                     # the plan view, then an edit's brief there
+        await settle(app, pilot)
+        app.inputs = app.inputs.with_weather(wind_from_deg=300.0, wind_speed_kt=20.0)
+        await settle(app, pilot)
+    assert len(compared) >= 6 and max(compared) >= 2         # frames of several changed regions among them
 
 
 async def test_a_hold_that_runs_out_while_the_app_closes_does_no_harm():

@@ -17,6 +17,7 @@ from textual.widget import Widget
 from textual.widgets import Footer, Label, RadioButton, RadioSet, Static, TabbedContent, TabPane
 
 from briefer.cautions import SHORT_CAUTION
+from briefer.tui.frame_compositor import ChangedRegionsCompositor
 from briefer.tui.rendered_once import RenderedOnce
 from briefer.model import BANK_DEG, CEILING_FT, OAT_C, WEIGHT_LB, WX_VISIBILITY_SM, Range
 from briefer.tui.state import (
@@ -92,6 +93,7 @@ class BriefingScreen(Screen):
 
     def __init__(self, *, ascii: bool = False, units: str = "us") -> None:
         super().__init__(id="briefing")
+        self._compositor = ChangedRegionsCompositor()   # an edit's frame renders only what it changes
         self.ascii = ascii
         self.units = units                    # display units of the brief's views (briefer.display_units)
         self._wind_ref = "true"
