@@ -11,6 +11,7 @@ import math
 from rich.cells import cell_len
 from rich.console import Console, ConsoleOptions, Group, RenderableType, RenderResult
 from rich.measure import Measurement
+from rich.segment import Segment
 from rich.table import Table
 from rich.text import Text
 
@@ -23,9 +24,12 @@ from briefer.result import Brief
 
 class LabelGrid:
     """Label/value rows drawn as `Table.grid(padding=(0, 1))` with a bold unwrapped label column
-    draws them (the same lines), the two columns' widths worked out from the text's own lengths:
-    a table measures every cell by rendering it, most of its cost, and the app draws these grids
-    on every brief."""
+    draws them (the same cells), the two columns' widths worked out from the text's own lengths
+    and each row laid out as that grid lays it out (the label padded to its column and a space,
+    the value wrapped in the width left): a table measures every cell by rendering it and
+    renders each through padding and cropping layers, most of its cost, and the app draws these
+    grids on every brief. Cells a quick layout cannot match (a label of several lines, a text
+    with its own wrapping or justification, widths too narrow for the labels) use the table."""
 
     def __init__(self) -> None:
         self.rows: list[tuple[str | Text, str | Text]] = []
@@ -33,21 +37,64 @@ class LabelGrid:
     def add_row(self, label: str | Text, value: str | Text) -> None:
         self.rows.append((label, value))
 
-    def table(self, max_width: int) -> Table:
-        """The grid as a table of fixed column widths for `max_width` cells (what Rich's own
-        measuring gives: labels as wide as the widest, values as wide as the widest or what is
-        left beside the labels and their one-cell gap)."""
+    def _widths(self, max_width: int) -> tuple[int, int]:
+        """(label column, value column) for `max_width` cells: labels as wide as the widest,
+        values as wide as the widest or what is left beside the labels and their one-cell gap
+        (what Rich's own measuring gives)."""
         label_w = max((_text_width(label) for label, _ in self.rows), default=0)
         value_w = max((_text_width(value) for _, value in self.rows), default=0)
+        return label_w, max(1, min(value_w, max_width - label_w - 1))
+
+    def table(self, max_width: int) -> Table:
+        """The grid as a table of fixed column widths for `max_width` cells (see `_widths`)."""
+        label_w, value_w = self._widths(max_width)
         t = Table.grid(padding=(0, 1))
         t.add_column(style="bold", no_wrap=True, width=label_w)
-        t.add_column(width=max(1, min(value_w, max_width - label_w - 1)))
+        t.add_column(width=value_w)
         for row in self.rows:
             t.add_row(*row)
         return t
 
+    def _quick(self, max_width: int) -> bool:
+        label_w, _ = self._widths(max_width)
+        return max_width >= label_w + 2 and not any(
+            "\n" in (label.plain if isinstance(label, Text) else label)
+            or (isinstance(cell, Text) and (cell.justify or cell.overflow or cell.no_wrap is not None
+                                            or cell.end != "\n"))
+            for label, value in self.rows for cell in (label, value))
+
     def __rich_console__(self, console: Console, options: ConsoleOptions) -> RenderResult:
-        yield self.table(options.max_width)
+        if not self._quick(options.max_width):
+            yield self.table(options.max_width)
+            return
+        label_w, value_w = self._widths(options.max_width)
+        bold = console.get_style("bold")
+        gap = Segment(" ", bold)
+        blank = Segment(" " * (label_w + 1), bold)
+        new_line = Segment.line()
+        tab_size = console.tab_size or 8
+
+        def text(cell: str | Text) -> Text:      # a str cell is read as the table reads it (markup, no highlighting)
+            return cell if isinstance(cell, Text) else console.render_str(
+                cell, highlight=False, markup=options.markup)
+
+        def lines(cell: str | Text, width: int, no_wrap: bool) -> list[list[Segment]]:
+            """The cell's lines as the table's Text renders them (its wrapped lines joined, so
+            that a line's own style is kept)."""
+            wrapped = text(cell).wrap(console, width, justify="left", overflow="ellipsis", no_wrap=no_wrap,
+                                      tab_size=tab_size)
+            return list(Segment.split_lines(Text("\n").join(wrapped).render(console)))
+
+        for label, value in self.rows:
+            head = lines(label, label_w, True)[0]
+            for i, line in enumerate(lines(value, value_w, False)):
+                if i:
+                    yield blank
+                else:
+                    yield from Segment.apply_style(head, bold)
+                    yield gap
+                yield from line
+                yield new_line
 
     def __rich_measure__(self, console: Console, options: ConsoleOptions) -> Measurement:
         return Measurement.get(console, options, self.table(options.max_width))
