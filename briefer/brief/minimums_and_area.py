@@ -12,7 +12,6 @@ from __future__ import annotations
 import re
 from briefer._dataclass import dataclass
 
-import numpy as np
 
 from briefer import units
 from briefer.brief.circling_only import circling_only_reasons
@@ -181,10 +180,10 @@ def _obstacles(s: Situation):
     """Every obstacle as drawn (inside the area or not) and the controlling one
     (`core.minimums.controlling_obstacle_index`)."""
     obs = s.request.airfield.obstacles
-    xy = [np.array(ob_xy, dtype=float) for ob_xy in s.layout.obstacles_m]
-    inside = minimums.obstacles_inside(s.area, np.array(xy).reshape(-1, 2)) if obs else ()
-    drawn = tuple(ObstacleDrawing(name=ob.name, xy_m=frozen_array(oxy), elevation_ft=ob.elevation_ft,
-                                  inside_area=bool(ins)) for ob, oxy, ins in zip(obs, xy, inside))
+    xy = frozen_array(s.layout.obstacles_m).reshape(-1, 2)     # read-only: each obstacle's row is a read-only view
+    inside = minimums.obstacles_inside(s.area, xy).tolist() if obs else ()
+    drawn = tuple(ObstacleDrawing(name=ob.name, xy_m=oxy, elevation_ft=ob.elevation_ft, inside_area=bool(ins))
+                  for ob, oxy, ins in zip(obs, xy, inside))
     idx = minimums.highest_inside_index(inside, [ob.elevation_ft for ob in obs]) if obs else None
     return drawn, None if idx is None else obs[idx]
 

@@ -335,9 +335,9 @@ def highest_inside_index(inside: Sequence[bool] | np.ndarray, elevations_ft: Seq
     """Index of the highest obstacle among those ``inside`` (the first charted wins a tie); None
     if none is (:func:`controlling_obstacle_index`)."""
     best: int | None = None
-    for i in np.flatnonzero(inside):
-        if best is None or elevations_ft[i] > elevations_ft[best]:
-            best = int(i)
+    for i, is_inside in enumerate(inside):
+        if is_inside and (best is None or elevations_ft[i] > elevations_ft[best]):
+            best = i
     return best
 
 
