@@ -468,27 +468,52 @@ def best_of_level(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_
                              sector_bound=batch.sector_bound, visibility_m=visibility_m,
                              max_distance_from_runway_m=batch.max_distance_from_runway_m,
                              area_radius_m=area_radius_m, aoa_margin_deg=aoa_margin_deg)
-    nf = np.where(batch.ok, _FAILURE_COUNT[fail & _FAILURE_BITS], _INFEASIBLE)
+    ok = batch.ok
+    nf = np.where(ok, _FAILURE_COUNT[fail & _FAILURE_BITS], _INFEASIBLE)
     with np.errstate(invalid="ignore"):
         k2 = -np.round(np.minimum(batch.area_margin_m, visibility_m - batch.max_distance_from_runway_m))
         k3 = np.round(batch.total_time_s, 1)
-    sel = nf == nf.min(axis=-1, keepdims=True)
-    k2 = np.where(sel & batch.ok, k2, np.inf)
-    sel &= (k2 == k2.min(axis=-1, keepdims=True)) | ~batch.ok
-    k3 = np.where(sel & batch.ok, k3, np.inf)
-    sel &= (k3 == k3.min(axis=-1, keepdims=True)) | ~batch.ok
-    best = np.argmax(sel, axis=-1)
-    rows = np.arange(best.size)
-    flyable = batch.ok[rows, best]
+    sel = nf == _by_row(np.minimum, nf)
+    k2 = np.where(sel & ok, k2, np.inf)
+    sel &= (k2 == _by_row(np.minimum, k2)) | ~ok
+    k3 = np.where(sel & ok, k3, np.inf)
+    sel &= (k3 == _by_row(np.minimum, k3)) | ~ok
+    best = _first_true(sel)
+    at = np.arange(best.size) * sel.shape[-1] + best          # (row, best) in the flattened (M, C)
+
+    def of_best(a: npt.NDArray) -> npt.NDArray:
+        return np.ravel(a)[at]
+
+    flyable = of_best(ok)
     with np.errstate(invalid="ignore"):
         room = np.minimum(np.where(np.isnan(batch.area_margin_m), np.inf, batch.area_margin_m),
                           visibility_m - batch.max_distance_from_runway_m)
-    usable = batch.ok & ((fail & (REASON_BANK | REASON_STALL)) == 0)
-    slack = np.max(np.where(usable, room, -np.inf), axis=-1, initial=-np.inf)
-    return LevelBest(best=np.where(flyable, best, -1), failures=np.where(flyable, fail[rows, best], 0),
-                     marginal=np.where(flyable, marg[rows, best], 0),
-                     area_margin_m=batch.area_margin_m[rows, best],
-                     max_distance_from_runway_m=batch.max_distance_from_runway_m[rows, best], slack_m=slack)
+    usable = ok & ((fail & (REASON_BANK | REASON_STALL)) == 0)
+    slack = _by_row(np.maximum, np.where(usable, room, -np.inf))[:, 0]
+    return LevelBest(best=np.where(flyable, best, -1), failures=np.where(flyable, of_best(fail), 0),
+                     marginal=np.where(flyable, of_best(marg), 0), area_margin_m=of_best(batch.area_margin_m),
+                     max_distance_from_runway_m=of_best(batch.max_distance_from_runway_m), slack_m=slack)
+
+
+def _by_row(op: np.ufunc, a: npt.NDArray) -> npt.NDArray:
+    """``op`` (minimum or maximum) of each row of ``a`` (M, C), shape (M, 1): column by column
+    (the same number as ``op.reduce`` along the rows, NaN included, without a reduction loop
+    per row of a few candidates)."""
+    out = a[:, 0].copy()
+    for j in range(1, a.shape[1]):
+        op(out, a[:, j], out=out)
+    return out[:, None]
+
+
+def _first_true(sel: npt.NDArray[np.bool_]) -> npt.NDArray[np.int_]:
+    """``np.argmax(sel, axis=-1)``: each row's first True column (0 where none), column by column."""
+    best = np.zeros(sel.shape[0], dtype=np.intp)
+    found = sel[:, 0].copy()
+    for j in range(1, sel.shape[1]):
+        new = sel[:, j] & ~found
+        best[new] = j
+        found |= new
+    return best
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
