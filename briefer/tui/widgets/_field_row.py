@@ -20,7 +20,9 @@ ERROR_MARK = "✗ "
 class FieldRow(Widget):
     """`label [input] note`. Each edit is read by `parser` (text -> value, ValueError with a
     short message); a good value posts `Changed`, a bad one shows the message beside the field
-    and posts `Invalid`."""
+    and posts `Invalid`. Both go to the app itself, which turns them into inputs: bubbled, they
+    passed through every container of the step first, a message hop each (~0.7 ms an edit, in
+    the time from a keystroke to its brief)."""
 
     class Changed(Message):
         """A field holds a readable value.
@@ -110,7 +112,7 @@ class FieldRow(Widget):
             value = self.parser(event.value)
         except ValueError as exc:
             self.show_error(str(exc))
-            self.post_message(self.Invalid(self.field_name, str(exc)))
+            self.app.post_message(self.Invalid(self.field_name, str(exc)))
             return
         self.show_error(None)
-        self.post_message(self.Changed(self.field_name, value))
+        self.app.post_message(self.Changed(self.field_name, value))
