@@ -583,9 +583,13 @@ def distance_to_segments_m(points: ArrayLike, starts: ArrayLike, ends: ArrayLike
     ndarray, shape (...)
         Distance to the nearest segment. [m]
     """
-    a = np.asarray(starts, dtype=float)
+    return _segments_distance_m(_points(points), np.asarray(starts, dtype=float), ends)
+
+
+def _segments_distance_m(q: npt.NDArray[np.float64], a: npt.NDArray[np.float64],
+                         ends: ArrayLike) -> npt.NDArray[np.float64]:
+    """`distance_to_segments_m` of checked points `q` from the float segment starts `a`."""
     if a.shape[0] == 1:                                         # one segment: no (..., K, 2) temporaries
-        q = _points(points)
         (ax, ay), (bx, by) = a[0], np.asarray(ends, dtype=float)[0]
         sx, sy = bx - ax, by - ay
         ss = sx * sx + sy * sy
@@ -594,7 +598,7 @@ def distance_to_segments_m(points: ArrayLike, starts: ArrayLike, ends: ArrayLike
             t = np.minimum(np.maximum((rx * sx + ry * sy) / ss, 0.0), 1.0)   # clip: the sign of a 0 never reaches the distance
             rx, ry = rx - t * sx, ry - t * sy
         return np.sqrt(rx * rx + ry * ry)
-    p = _points(points)[..., None, :]                          # (..., 1, 2)
+    p = q[..., None, :]                                        # (..., 1, 2)
     d = np.asarray(ends, dtype=float) - a                      # (K, 2)
     dd = np.sum(d * d, axis=-1)
     t = np.sum((p - a) * d, axis=-1) / np.where(dd > 0.0, dd, 1.0)
@@ -1020,13 +1024,16 @@ class ProtectedArea:
 
     def distance_to_hull_m(self, points: ArrayLike) -> Numeric:
         """Distance from points to the convex hull of the centres (0 inside the hull). [m]"""
-        p = _points(points)
+        return as_float(self._distance_to_hull_m(_points(points)))
+
+    def _distance_to_hull_m(self, p: npt.NDArray[np.float64]) -> npt.NDArray[np.float64]:
+        """`distance_to_hull_m` of points already checked."""
         a, b = self._edges()
-        dist = distance_to_segments_m(p, a, b)
+        dist = _segments_distance_m(p, a, b)
         if len(self.hull_m) >= 3:     # counter-clockwise: inside when left of (or on) every edge
             cr = _cross(a, b, p[..., None, :])
             dist = np.where(np.all(cr >= 0.0, axis=-1), 0.0, dist)
-        return as_float(dist)
+        return dist
 
     def margin_m(self, points: ArrayLike, *, sector_edge_tolerance_m: float | None = None) -> Numeric:
         """Distance left before leaving the authorised area; negative outside it. [m]
@@ -1045,10 +1052,11 @@ class ProtectedArea:
             along a sector's edge (the final on the centreline that bounds a side sector) keeps
             its radius margin. [m]
         """
-        p = _points(points)
-        margin = self.radius_m - np.asarray(self.distance_to_hull_m(p))
+        p = _points(points)           # checked once: the parts below take it as it is
+        margin = self.radius_m - self._distance_to_hull_m(p)
         for s in self.excluded:
-            margin = np.minimum(margin, _counted_clearance_m(s.clearance_m(p), sector_edge_tolerance_m))
+            c = s._clearance_m(p) if isinstance(s, SideSector) else s.clearance_m(p)
+            margin = np.minimum(margin, _counted_clearance_m(c, sector_edge_tolerance_m))
         return as_float(margin)
 
     def contains(self, points: ArrayLike) -> Union[bool, npt.NDArray[np.bool_]]:
