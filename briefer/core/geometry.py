@@ -1138,14 +1138,29 @@ class ProtectedArea:
         ss = sx * sx + sy * sy
         # a term with a zero factor (a vertex at the origin, a segment along an axis: the runway
         # frame) is left out: p - 0 is p, and q + (+-0) is q or a zero that is squared below
+        # (in place where the operands are this function's own: the same operations, fewer arrays)
         rx = e - ax if ax != 0.0 else e
         ry = n - ay if ay != 0.0 else n
         if ss > 0.0:                          # as distance_to_segments_m does for one segment
-            along = rx * sx + ry * sy if sx != 0.0 and sy != 0.0 else (ry * sy if sx == 0.0 else rx * sx)
-            t = np.clip(along / ss, 0.0, 1.0)
-            rx = rx - t * sx if sx != 0.0 else rx
-            ry = ry - t * sy if sy != 0.0 else ry
-        return self.radius_m - np.sqrt((rx * rx + ry * ry).reshape(shp).max(axis=-1))
+            if sx != 0.0 and sy != 0.0:
+                t = rx * sx
+                t += ry * sy
+            else:
+                t = ry * sy if sx == 0.0 else rx * sx
+            t /= ss
+            np.clip(t, 0.0, 1.0, out=t)
+            if sx != 0.0:
+                rx = rx - t * sx
+            if sy != 0.0:
+                np.multiply(t, sy, out=t)
+                ry = np.subtract(ry, t, out=t)
+        d2 = rx * rx
+        if ry is e or ry is n:
+            d2 += ry * ry
+        else:                                 # ry is this function's own array
+            np.multiply(ry, ry, out=ry)
+            d2 += ry
+        return self.radius_m - np.sqrt(d2.reshape(shp).max(axis=-1))
 
     def sector_clearance_m(self, points: ArrayLike) -> float:
         """Smallest signed clearance of the points to any excluded sector (negative: inside one);
