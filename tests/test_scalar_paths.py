@@ -179,3 +179,4 @@ def test_wrap_180_of_floats_is_numpys():
     rng = np.random.default_rng(RNG_SEED + 7)
     for a, b in rng.uniform(-720.0, 720.0, (N, 2)).tolist() + [(180.0, 0.0), (-180.0, 0.0), (0.0, 0.0), (360.0, 0.0)]:
         assert abs((a - b + 180.0) % 360.0 - 180.0) == abs(float(angles.wrap_180(a - b)))
+        assert (a - b) % 360.0 == float(angles.wrap_360(a - b))      # the float form of wrap_360 (situation, geometry)

@@ -20,7 +20,6 @@ from briefer._dataclass import dataclass
 import numpy as np
 
 from briefer import units
-from briefer.core import angles
 from briefer.core import atmosphere, criteria, geometry, maneuver, turn, wind
 from briefer.core.airfield_geometry import AirfieldGeometry
 from briefer.core.layout import Layout
@@ -137,8 +136,8 @@ def situation(request: BriefRequest) -> Situation:
     bank = request.bank_deg if request.bank_deg is not None else cfg.bank_target_deg
 
     ax, ay = rf.to_runway_coords(geo.fixes_xy_m(appr)[1])
-    arrival_course = float(angles.wrap_360(geometry.true_from_magnetic_deg(appr.final_course_deg_mag, var)
-                                          - rf.landing_course_deg_true))
+    arrival_course = (geometry.true_from_magnetic_deg(appr.final_course_deg_mag, var)   # angles.wrap_360 of a float
+                      - rf.landing_course_deg_true) % 360.0
     rel_wind = 0.0 if wind_from is None else float(wind_from - rf.landing_course_deg_true)
     inputs = maneuver.CircleInputs(
         tas_kt=tas, bank_deg=min(bank, 60.0), wind=maneuver.runway_wind_from(rel_wind, speed_for_plan),

@@ -88,6 +88,8 @@ def true_from_magnetic_deg(deg_mag: float, variation_deg: float) -> float:
 
 def magnetic_from_true_deg(deg_true: float, variation_deg: float) -> float:
     """A magnetic direction from a true one; variation east positive (magnetic = true - variation). [deg]"""
+    if type(deg_true) is float and type(variation_deg) is float:
+        return (deg_true - variation_deg) % 360.0         # wrap_360 of one float: the same value
     return float(wrap_360(deg_true - variation_deg))
 
 
