@@ -1035,13 +1035,15 @@ class _Turns:
                  rows: list[npt.NDArray[np.int_] | None], shp: tuple[int, ...]) -> None:
         profs = [lg.prof for lg in legs]
         assert all(pr is not None for pr in profs)
-        for f in ("angle", "tas", "tr", "tc", "dp", "wp", "c"):
-            setattr(self, f, _stacked([getattr(pr, f) for pr in profs], shp)[None])
+        names = ("angle", "tas", "tr", "tc", "dp", "wp", "c")
+        values = [getattr(pr, f) for f in names for pr in profs] + [getattr(lg, f) for f in ("psi0", "sign", "x0", "y0")
+                                                                      for lg in legs] + list(t0)
+        every = _stacked(values, shp).reshape((len(names) + 5, 1, len(legs)) + shp)    # one copy of them all
+        for i, f in enumerate(names):
+            setattr(self, f, every[i])
         self.k = profs[0].k  # type: ignore[union-attr]
-        self.psi0 = _stacked([lg.psi0 for lg in legs], shp)[None]
-        self.sign = _stacked([lg.sign for lg in legs], shp)[None]
-        self.p0 = _stacked([lg.x0 for lg in legs], shp)[None] + 1j * _stacked([lg.y0 for lg in legs], shp)[None]
-        self.t0 = _stacked(t0, shp)[None]
+        self.psi0, self.sign, self.t0 = every[7], every[8], every[11]
+        self.p0 = every[9] + 1j * every[10]
         self.na = max(na)
         self.den = _stacked([n - 1 if r is None else r - 1 for n, r in zip(na, rows)], shp)[None]
         k = np.arange(self.na).reshape((self.na, 1) + (1,) * len(shp))
