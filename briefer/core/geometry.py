@@ -831,10 +831,12 @@ class SideSector:
         """
         if not (math.isfinite(radius_m) and radius_m > 0.0):
             raise DomainError(f"radius_m must be positive; got {radius_m}")
-        c = (np.asarray(_point(about_m, "about_m")) if about_m is not None
-             else (np.asarray(self.line_a_m) + np.asarray(self.line_b_m)) / 2.0)
-        nrm = np.asarray(self.outward_unit)
-        h = float(-self.clearance_m(c))            # how far the circle's centre is inside
+        (ae, an), (be, bn) = self.line_a_m, self.line_b_m
+        ce, cn = _point(about_m, "about_m") if about_m is not None else ((ae + be) / 2.0, (an + bn) / 2.0)
+        c = np.array((ce, cn))
+        nrm = self.outward_unit
+        # how far the circle's centre is inside: -clearance_m(c), its (2,) @ (2,) product written out
+        h = (ce - ae) * nrm[0] + (cn - an) * nrm[1]
         if h >= radius_m:
             brg = np.linspace(0.0, 360.0, max(n, 8) + 1)[:-1]
             circle = c + radius_m * np.stack([sind(brg), cosd(brg)], axis=-1)
@@ -842,7 +844,7 @@ class SideSector:
         if h <= -radius_m:
             return np.empty((0, 2))
         half = math.degrees(math.acos(-h / radius_m))   # half-angle of the arc on the excluded side
-        centre_brg = float(atand2(nrm[0], nrm[1]))
+        centre_brg = math.degrees(math.atan2(nrm[0], nrm[1]))   # atand2 of two floats
         k = max(2, int(math.ceil(n * 2.0 * half / 360.0)) + 1)
         brg = centre_brg + linspace(-half, half, k)
         arc = np.empty((k + 1, 2))
