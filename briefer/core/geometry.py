@@ -955,6 +955,13 @@ def _axis_clearance_m(sec: Sector, e: npt.NDArray[np.float64], n: npt.NDArray[np
     return None
 
 
+def _per_track(op: np.ufunc, values: npt.NDArray[np.float64], shp: tuple[int, ...]) -> npt.NDArray[np.float64]:
+    """``op.reduce`` (minimum or maximum) of each track's values (points of tracks of shape ``shp``);
+    a track of one point is its value (no reduction loop per point)."""
+    v = values.reshape(shp)
+    return v[..., 0] if shp[-1] == 1 else op.reduce(v, axis=-1)
+
+
 def _counted_clearance_m(clearance_m: Numeric, edge_tolerance_m: float | None) -> npt.NDArray[np.float64]:
     """A sector's signed clearance where it limits the area margin (`ProtectedArea.margin_m`):
     everywhere without a tolerance; with one, only more than `edge_tolerance_m` inside the sector
@@ -1119,7 +1126,7 @@ class ProtectedArea:
             if c is None:
                 c = sec._clearance_m(pts()) if isinstance(sec, SideSector) else np.asarray(sec.clearance_m(pts()),
                                                                                           dtype=float)
-            low = c.reshape(shp).min(axis=-1)
+            low = _per_track(np.minimum, c, shp)
             depth = _counted_clearance_m(low, sector_edge_tolerance_m)
             if isinstance(sec, BearingSector) and shp[-1] >= 2:
                 depth = np.minimum(depth, _bisector_depth_m(sec, t, sector_edge_tolerance_m))
@@ -1136,7 +1143,7 @@ class ProtectedArea:
         (sqrt and the subtraction round monotonically): one square root per track. [m]
         """
         if len(self.hull_m) > 2:
-            return (self.radius_m - np.asarray(self.distance_to_hull_m(pts()), dtype=float)).reshape(shp).min(axis=-1)
+            return _per_track(np.minimum, self.radius_m - np.asarray(self.distance_to_hull_m(pts()), dtype=float), shp)
         (ax, ay), (bx, by) = self.hull_m[0], self.hull_m[-1]
         sx, sy = bx - ax, by - ay
         ss = sx * sx + sy * sy
@@ -1164,7 +1171,7 @@ class ProtectedArea:
         else:                                 # ry is this function's own array
             np.multiply(ry, ry, out=ry)
             d2 += ry
-        return self.radius_m - np.sqrt(d2.reshape(shp).max(axis=-1))
+        return self.radius_m - np.sqrt(_per_track(np.maximum, d2, shp))
 
     def sector_clearance_m(self, points: ArrayLike) -> float:
         """Smallest signed clearance of the points to any excluded sector (negative: inside one);

@@ -248,32 +248,41 @@ def _coarse_pass(solved: list[tuple[list[int], ShapeSolution]], ok: npt.NDArray[
         rows = np.flatnonzero(ok_s)
         if not rows.size:
             continue
-        px = np.stack([lg.x0[rows] for lg in sol.legs])      # (legs, rows): every leg's start
-        py = np.stack([lg.y0[rows] for lg in sol.legs])
-        d = np.max(_runway_distance_m(px, py, runway_length_m), axis=0)
+        px = np.stack([lg.x0 for lg in sol.legs])            # (legs, rows): every leg's start, every row
+        py = np.stack([lg.y0 for lg in sol.legs])
+        with np.errstate(invalid="ignore", over="ignore"):   # (garbage where not flyable)
+            d = np.max(_runway_distance_m(px, py, runway_length_m), axis=0)
+        d = np.where(ok_s, d, np.nan)
         prov = d > beyond
-        left = np.flatnonzero(~prov)
-        mx, my = _final_turn_middle(sol, rows[left], turn_step_deg, cache)
+        left = rows[~prov[rows]]
+        mx, my = _final_turn_middle(sol, left, turn_step_deg, cache)
         with np.errstate(invalid="ignore"):
             d[left] = np.maximum(d[left], _runway_distance_m(mx, my, runway_length_m))
             prov[left] = d[left] > beyond
-        near = left[~prov[left]]
-        mg = np.full(rows.size, np.nan)
-        sb = np.zeros(rows.size, dtype=bool)
+        near_at = np.flatnonzero(~prov[left])                # of ``left``
+        near = left[near_at]
+        mg = np.full(g * m, np.nan)
+        sb = np.zeros(g * m, dtype=bool)
         if near.size:
-            at = np.searchsorted(left, near)
-            xy = np.stack([np.concatenate([px[:, near], mx[None, at]]).T,
-                           np.concatenate([py[:, near], my[None, at]]).T], axis=-1)[:, :, None, :]   # (tracks, K, 1, 2)
+            xy = np.stack([np.concatenate([px[:, near], mx[None, near_at]]).T,
+                           np.concatenate([py[:, near], my[None, near_at]]).T], axis=-1)[:, :, None, :]  # (tracks, K, 1, 2)
             a, sec = _margins(margin_fn, xy)
-            worst = np.argmin(a, axis=1)
-            k = np.arange(near.size)
-            mg[near], sb[near] = a[k, worst], sec[k, worst]
+            mg[near], sb[near] = _worst_point(a, sec)
             prov[near] = mg[near] < -PROOF_MARGIN_M
         for arr, val in ((dist, d), (margin, mg), (sector, sb), (proven, prov)):
-            full = arr[:, cis].T.ravel()                     # a copy, side-major
-            full[rows] = val
-            arr[:, cis] = full.reshape(g, m).T
+            arr[:, cis] = val.reshape(g, m).T
     return _Coarse(proven=proven, distance_m=dist, margin_m=margin, sector_bound=sector)
+
+
+def _worst_point(a: FloatArray, sec: npt.NDArray[np.bool_]) -> tuple[FloatArray, npt.NDArray[np.bool_]]:
+    """Each track's smallest margin over its points (columns of ``a``, (T, K)) and the sector flag
+    of the first point that has it (``np.argmin`` along the rows), column by column."""
+    low, flag = a[:, 0].copy(), sec[:, 0].copy()
+    for j in range(1, a.shape[1]):
+        lower = a[:, j] < low
+        np.copyto(low, a[:, j], where=lower)
+        np.copyto(flag, sec[:, j], where=lower)
+    return low, flag
 
 
 def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side], ...], *, wx_mps: FloatArray,
