@@ -391,20 +391,25 @@ def candidate_plans(inputs: CircleInputs, *, solved: Mapping[Shape, ShapeSolutio
     a bigger solution (e.g. the judgement's batch: only a shape with a flyable side has its rows
     taken out and sampled).
     """
+    applicable = applicable_candidates(inputs.arrival_course_deg)
+    descent = descent_geometry(inputs)
     by_shape: dict[Shape, list[Side]] = {}
-    for s, d in applicable_candidates(inputs.arrival_course_deg):
+    for s, d in applicable:
         by_shape.setdefault(s, []).append(d)
     plans = {}
     for s, sides in by_shape.items():
-        for d, p in zip(sides, _solve_sides(inputs, s, tuple(sides), None if solved is None else solved.get(s))):
+        for d, p in zip(sides, _solve_sides(inputs, s, tuple(sides), None if solved is None else solved.get(s),
+                                            applicable=applicable, descent=descent)):
             plans[(s, d)] = p
-    return tuple(plans[c] for c in applicable_candidates(inputs.arrival_course_deg))
+    return tuple(plans[c] for c in applicable)
 
 
 def _solve_sides(inputs: CircleInputs, shape: Shape, sides: tuple[Side, ...],
-                 solved: ShapeSolution | tuple[ShapeSolution, Rows] | None = None) -> list[Plan]:
-    descent = descent_geometry(inputs)
-    applicable = applicable_candidates(inputs.arrival_course_deg)
+                 solved: ShapeSolution | tuple[ShapeSolution, Rows] | None = None, *,
+                 applicable: tuple[tuple[Shape, Side], ...] | None = None,
+                 descent: DescentGeometry | None = None) -> list[Plan]:
+    descent = descent_geometry(inputs) if descent is None else descent
+    applicable = applicable_candidates(inputs.arrival_course_deg) if applicable is None else applicable
     out: list[Plan | None] = [None] * len(sides)
     todo = []
     for i, side in enumerate(sides):
