@@ -195,8 +195,10 @@ def _final_turn_middle(sol: ShapeSolution, rows: npt.NDArray[np.int_], turn_step
         r = tas / np.maximum(wp, 1e-12)
         h = dp + (angle - 2.0 * dp) * f
         q = _ramp_end_q(tr, c, tas, pr.k, cache)
-        ax = q.real + r * (np.sin(h) - np.sin(dp))
-        ay = lg.sign[rows] * (q.imag + r * (np.cos(dp) - np.cos(h)))
+        # the ramp's heading change is one number on a level's full turns: its sine and cosine once
+        sd, cd = ((math.sin(dp[0]), math.cos(dp[0])) if dp.size and dp.min() == dp.max() else (np.sin(dp), np.cos(dp)))
+        ax = q.real + r * (np.sin(h) - sd)
+        ay = lg.sign[rows] * (q.imag + r * (cd - np.cos(h)))
         psi0 = lg.psi0[rows]
         c0, s0 = np.cos(psi0), np.sin(psi0)
         t = tr + tc * f
