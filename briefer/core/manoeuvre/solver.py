@@ -980,22 +980,21 @@ def _arc_count(lg: LegArrays, turn_step_deg: float, actual: bool, ok: npt.NDArra
     return turn_sample_count(nominal, turn_step_deg)
 
 
-def _arc_counts_by_row(lg: LegArrays, turn_step_deg: float) -> npt.NDArray[np.int_]:
-    """:func:`turn_sample_count` of each row's own calm-wind angle (rows of both sides differ)."""
-    assert lg.nominal_rows is not None
-    return np.maximum(3, np.ceil(np.degrees(lg.nominal_rows) / turn_step_deg - 1e-9).astype(np.int64) + 1)
-
-
 def _leg_counts(sol: ShapeSolution, turn_step_deg: float, n_straight: int, straight_step_m: float | None,
                 by_row: list[npt.NDArray[np.int_] | None] | None = None) -> list[int]:
     """Samples of each leg (the most of any row); with ``by_row`` (a list, filled here), also
     each turn's arc samples per row (None where every row has the same)."""
     ramps = bool(sol.legs) and any(lg.prof is not None and lg.prof.k > 0.0 for lg in sol.legs)
     out = []
+    turn_rows: list[npt.NDArray[np.int_]] = []
+    if by_row is not None:      # turn_sample_count of each row's own calm-wind angle, every turn in one pass
+        nominal = [lg.nominal_rows for lg in sol.legs if lg.kind == "turn" and lg.nominal_rows is not None]
+        if nominal:
+            turn_rows = list(np.maximum(3, np.ceil(np.degrees(np.array(nominal)) / turn_step_deg - 1e-9)
+                                        .astype(np.int64) + 1))
     for lg in sol.legs:
         if by_row is not None:
-            rows = _arc_counts_by_row(lg, turn_step_deg) if lg.kind == "turn" and lg.nominal_rows is not None \
-                else None
+            rows = turn_rows.pop(0) if lg.kind == "turn" and lg.nominal_rows is not None else None
             na = None if rows is None or rows.size == 0 else int(rows.max())
             by_row.append(None if na is None or bool((rows == na).all()) else rows)
             if na is not None:
