@@ -231,5 +231,4 @@ def _missed_approach(s: Situation, plan: maneuver.Plan) -> MissedApproachInfo:
             continue
         by_leg.append((seg.leg_name, seg.direction))
     main = headline_missed_direction(plan, guide)
-    return MissedApproachInfo(turn_direction=main, by_leg=tuple(by_leg),
-                              instruction=s.request.selected_approach().missed_approach)
+    return MissedApproachInfo(turn_direction=main, by_leg=tuple(by_leg), instruction=s.approach.missed_approach)

@@ -14,6 +14,7 @@ from briefer._dataclass import dataclass, field
 from typing import Literal
 
 import numpy as np
+import numpy.typing as npt
 
 from briefer.core.manoeuvre.legs import FloatArray
 from briefer.core.manoeuvre.plans import Plan
@@ -22,6 +23,16 @@ from briefer.errors import DomainError
 MissedDirection = Literal["left", "right", "ahead", "either"]
 AHEAD_TOL_DEG = 5.0
 _DIRECTIONS: tuple[MissedDirection, ...] = ("ahead", "either", "right", "left")
+_CODE_OF = {d: k for k, d in enumerate(_DIRECTIONS)}
+_NOT_COUNTED = len(_DIRECTIONS)          # a code for the headline's points that hold no time
+_DIRECTION_OF_CODE = np.array(_DIRECTIONS, dtype=object)     # the same str objects, by code
+# Bins of a relative bearing (-180, 180], ascending: either (<= -175), left, ahead ([-5, 5]),
+# right, either (>= 175). searchsorted puts a bearing equal to an edge in the bin below it; an
+# edge whose own value belongs to the bin above (-5, 175) is given as the float just below it.
+_BEARING_EDGES_DEG = np.array([-(180.0 - AHEAD_TOL_DEG), np.nextafter(-AHEAD_TOL_DEG, -np.inf), AHEAD_TOL_DEG,
+                               np.nextafter(180.0 - AHEAD_TOL_DEG, -np.inf)])
+_CODE_OF_BIN = np.array([_CODE_OF["either"], _CODE_OF["left"], _CODE_OF["ahead"], _CODE_OF["right"],
+                         _CODE_OF["either"]])
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -62,12 +73,15 @@ class MissedApproachGuide:
         Per track point: "left" | "right" | "ahead" | "either".
     segments : tuple of MissedTurnSegment
         Compact summary per leg.
+    direction_code : ndarray (N,) of int, optional
+        `direction` as indices into ("ahead", "either", "right", "left") (None: read `direction`).
     """
 
     reference_xy_m: tuple[float, float]
     relative_bearing_deg: FloatArray = field(compare=False, repr=False)
     direction: tuple[MissedDirection, ...] = field(compare=False, repr=False)
     segments: tuple[MissedTurnSegment, ...]
+    direction_code: npt.NDArray[np.int_] | None = field(default=None, compare=False, repr=False)
 
     def __post_init__(self) -> None:
         if len(self.direction) != len(self.relative_bearing_deg):
@@ -110,9 +124,8 @@ def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"
     cross = cos_psi * dy - sin_psi * dx          # > 0: runway to the right
     dot = cos_psi * dx + sin_psi * dy
     rel = np.degrees(np.arctan2(cross, dot))
-    a = np.abs(rel)
-    codes = np.where(a <= AHEAD_TOL_DEG, 0, np.where(a >= 180.0 - AHEAD_TOL_DEG, 1, np.where(rel > 0, 2, 3)))
-    dirs: list[MissedDirection] = [_DIRECTIONS[c] for c in codes.tolist()]
+    codes = _direction_codes(rel)
+    dirs: tuple[MissedDirection, ...] = tuple(_DIRECTION_OF_CODE[codes].tolist())
     # segments: runs of one (leg, direction), from the first point's time to the last's
     times = np.asarray(plan.track_time_s, dtype=float)
     legs = np.asarray(plan.track_leg_index)
@@ -123,10 +136,18 @@ def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"
     key = codes[:n] * len(name_ids) + np.array([name_ids[name] for name in names])[legs[:n]]
     starts = np.flatnonzero(np.concatenate([[True], key[1:] != key[:-1]])) if n else np.zeros(0, dtype=int)
     ends = np.concatenate([starts[1:], [n]]) - 1
-    segs = [MissedTurnSegment(leg_name=names[int(legs[i])], start_s=float(times[i]), end_s=float(times[j]),
-                              direction=dirs[i]) for i, j in zip(starts.tolist(), ends.tolist())]
-    return MissedApproachGuide(reference_xy_m=ref, relative_bearing_deg=rel, direction=tuple(dirs),
-                               segments=tuple(segs))
+    segs = [MissedTurnSegment(leg_name=names[k], start_s=t0, end_s=t1, direction=_DIRECTIONS[c])
+            for k, t0, t1, c in zip(legs[starts].tolist(), times[starts].tolist(), times[ends].tolist(),
+                                    codes[starts].tolist())]
+    return MissedApproachGuide(reference_xy_m=ref, relative_bearing_deg=rel, direction=dirs,
+                               segments=tuple(segs), direction_code=codes)
+
+
+def _direction_codes(rel: FloatArray) -> npt.NDArray[np.int_]:
+    """Indices into `_DIRECTIONS` of finite relative bearings: ahead within 5 deg of the nose
+    (|rel| <= 5), either within 5 deg of the tail (|rel| >= 175), else the side of the bearing's
+    sign: the bin of each bearing among `_BEARING_EDGES_DEG`, as one search."""
+    return _CODE_OF_BIN[np.searchsorted(_BEARING_EDGES_DEG, rel)]
 
 
 def headline_missed_direction(plan: Plan, guide: MissedApproachGuide) -> str:
@@ -150,14 +171,15 @@ def headline_missed_direction(plan: Plan, guide: MissedApproachGuide) -> str:
     counted = np.ones(legs.shape, dtype=bool)
     for i in skip:
         counted &= legs != i
-    sides = np.array(guide.direction[:-1])
-    weight = {}
-    for side in ("left", "right"):
-        held = dt[counted & (sides == side)]      # summed in order, as one running total
-        weight[side] = float(np.cumsum(held)[-1]) if held.size else 0.0
-    if weight["left"] == weight["right"]:
-        return plan.side if weight["left"] > 0 else ""
-    return "left" if weight["left"] > weight["right"] else "right"
+    codes = guide.direction_code
+    if codes is None:                             # a guide made by hand: its directions' indices
+        codes = np.array([_CODE_OF.get(d, _NOT_COUNTED) for d in guide.direction], dtype=int)
+    # each direction's time, summed in track order (bincount adds its weights one by one, in order)
+    held = np.bincount(np.where(counted, codes[:-1], _NOT_COUNTED), weights=dt, minlength=_NOT_COUNTED + 1)
+    left, right = float(held[_CODE_OF["left"]]), float(held[_CODE_OF["right"]])
+    if left == right:
+        return plan.side if left > 0 else ""
+    return "left" if left > right else "right"
 
 
 __all__ = ["MissedApproachGuide", "MissedTurnSegment", "headline_missed_direction", "missed_approach_turns"]
