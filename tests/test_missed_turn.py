@@ -116,3 +116,40 @@ def test_teardrop_headline_is_the_longer_side():
             assert headline_missed_direction(plan, guide) == ("left" if left > right else "right")
             seen += 1
     assert seen >= 1
+
+
+def test_direction_rule_at_the_tolerance_edges():
+    """The per-point direction against the rule written out (AIM 5-4-21(c): turn toward the
+    runway; "ahead"/"either" within 5 deg of the nose/tail, the module's documented tolerance),
+    at the edges and the floats beside them, and over a fine sweep of bearings."""
+    import numpy as np
+
+    from briefer.core.manoeuvre.missed import _DIRECTIONS, _direction_codes
+
+    def rule(rel: float) -> str:
+        a = abs(rel)
+        return "ahead" if a <= 5.0 else "either" if a >= 175.0 else "right" if rel > 0 else "left"
+
+    edges = [-180.0, -175.0, -5.0, -0.0, 0.0, 5.0, 175.0, 180.0]
+    rels = [np.nextafter(e, d) for e in edges for d in (-np.inf, np.inf)] + edges
+    rels += np.linspace(-180.0, 180.0, 14401).tolist()
+    got = [_DIRECTIONS[c] for c in _direction_codes(np.array(rels)).tolist()]
+    assert got == [rule(r) for r in rels]
+
+
+def test_brief_summary_is_the_guides_segments_and_headline():
+    """The brief's per-leg summary (missed_turns_by_leg) is the guide's segments, in order, and
+    its headline, on every feasible plan of the cases above."""
+    from briefer.core.manoeuvre.missed import missed_turns_by_leg
+
+    checked = 0
+    for off, w, kt, far in CASES[::3]:
+        for plan in candidate_plans(_arrival(off, w, kt, from_far_end=far)):
+            if not plan.feasible:
+                continue
+            guide = missed_approach_turns(plan)
+            runs, headline = missed_turns_by_leg(plan)
+            assert runs == tuple((seg.leg_name, seg.direction) for seg in guide.segments)
+            assert headline == headline_missed_direction(plan, guide)
+            checked += 1
+    assert checked >= 20

@@ -16,7 +16,7 @@ from briefer.brief.findings import FindingList, SectionResult
 from briefer.brief.roll_out import choose_with_closer_roll_out
 from briefer.brief.situation_inputs import Situation
 from briefer.core import geometry, maneuver
-from briefer.core.manoeuvre.missed import headline_missed_direction
+from briefer.core.manoeuvre.missed import missed_turns_by_leg
 from briefer.core.manoeuvre.ranking import reason_visibility_words
 from briefer.result import Alternative, MissedApproachInfo, PlanInfo, VisibilityMention, frozen_array
 
@@ -222,13 +222,12 @@ def _break_off(plan: maneuver.Plan, course_true: float, var: float) -> tuple[str
 
 def _missed_approach(s: Situation, plan: maneuver.Plan) -> MissedApproachInfo:
     """Which way to turn for the missed approach, leg by leg, and the main direction."""
-    guide = maneuver.missed_approach_turns(plan)
+    runs, main = missed_turns_by_leg(plan)       # (leg name, direction) of each segment of the guide
     by_leg: list[tuple[str, str]] = []
-    for seg in guide.segments:
-        if by_leg and by_leg[-1][0] == seg.leg_name:
-            if by_leg[-1][1] != seg.direction:
-                by_leg[-1] = (seg.leg_name, by_leg[-1][1] + "/" + seg.direction)
+    for leg_name, direction in runs:
+        if by_leg and by_leg[-1][0] == leg_name:
+            if by_leg[-1][1] != direction:
+                by_leg[-1] = (leg_name, by_leg[-1][1] + "/" + direction)
             continue
-        by_leg.append((seg.leg_name, seg.direction))
-    main = headline_missed_direction(plan, guide)
+        by_leg.append((leg_name, direction))
     return MissedApproachInfo(turn_direction=main, by_leg=tuple(by_leg), instruction=s.approach.missed_approach)

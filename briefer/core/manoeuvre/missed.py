@@ -115,6 +115,37 @@ def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"
     of the cross product of the heading unit vector with the vector to the runway point
     (positive = to the right in the runway frame, whose headings increase clockwise).
     """
+    ref, rel, codes = _bearings(plan, toward)
+    times = np.asarray(plan.track_time_s, dtype=float)
+    starts, ends, legs = _runs(plan, codes, len(times))
+    names = plan.leg_names
+    segs = [MissedTurnSegment(leg_name=names[k], start_s=t0, end_s=t1, direction=_DIRECTIONS[c])
+            for k, t0, t1, c in zip(legs[starts].tolist(), times[starts].tolist(), times[ends].tolist(),
+                                    codes[starts].tolist())]
+    return MissedApproachGuide(reference_xy_m=ref, relative_bearing_deg=rel,
+                               direction=tuple(_DIRECTION_OF_CODE[codes].tolist()),
+                               segments=tuple(segs), direction_code=codes)
+
+
+def missed_turns_by_leg(plan: Plan) -> tuple[tuple[tuple[str, MissedDirection], ...], str]:
+    """The (leg name, direction) of each segment of ``missed_approach_turns(plan)``, in order,
+    and ``headline_missed_direction`` of that guide: the brief's summary, without the guide's
+    per-point directions and segment objects.
+
+    Raises
+    ------
+    DomainError
+        If the plan is not feasible.
+    """
+    _, _, codes = _bearings(plan, "midpoint")
+    starts, _, legs = _runs(plan, codes, len(plan.track_time_s))
+    names = plan.leg_names
+    runs = tuple(zip([names[k] for k in legs[starts].tolist()], _DIRECTION_OF_CODE[codes[starts]].tolist()))
+    return runs, _headline(plan, codes)
+
+
+def _bearings(plan: Plan, toward: str) -> tuple[tuple[float, float], FloatArray, npt.NDArray[np.int_]]:
+    """`missed_approach_turns`' runway point, relative bearings and their direction codes."""
     if not plan.feasible:
         raise DomainError("missed_approach_turns needs a feasible plan")
     ref = (plan.inputs.runway_length_m / 2.0 if toward == "midpoint" else 0.0, 0.0)
@@ -124,23 +155,22 @@ def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"
     cross = cos_psi * dy - sin_psi * dx          # > 0: runway to the right
     dot = cos_psi * dx + sin_psi * dy
     rel = np.degrees(np.arctan2(cross, dot))
-    codes = _direction_codes(rel)
-    dirs: tuple[MissedDirection, ...] = tuple(_DIRECTION_OF_CODE[codes].tolist())
-    # segments: runs of one (leg, direction), from the first point's time to the last's
-    times = np.asarray(plan.track_time_s, dtype=float)
+    return ref, rel, _direction_codes(rel)
+
+
+def _runs(plan: Plan, codes: npt.NDArray[np.int_], n_times: int
+          ) -> tuple[npt.NDArray[np.intp], npt.NDArray[np.intp], npt.NDArray[np.int_]]:
+    """The segments: runs of one (leg name, direction), as their first and last point indices,
+    and the track's leg indices."""
     legs = np.asarray(plan.track_leg_index)
     names = plan.leg_names
-    n = min(len(dirs), len(times), len(legs))
+    n = min(len(codes), n_times, len(legs))
     # runs of one (direction, leg name): a new run where either changes
     name_ids = {name: k for k, name in enumerate(dict.fromkeys(names))}
     key = codes[:n] * len(name_ids) + np.array([name_ids[name] for name in names])[legs[:n]]
     starts = np.flatnonzero(np.concatenate([[True], key[1:] != key[:-1]])) if n else np.zeros(0, dtype=int)
     ends = np.concatenate([starts[1:], [n]]) - 1
-    segs = [MissedTurnSegment(leg_name=names[k], start_s=t0, end_s=t1, direction=_DIRECTIONS[c])
-            for k, t0, t1, c in zip(legs[starts].tolist(), times[starts].tolist(), times[ends].tolist(),
-                                    codes[starts].tolist())]
-    return MissedApproachGuide(reference_xy_m=ref, relative_bearing_deg=rel, direction=dirs,
-                               segments=tuple(segs), direction_code=codes)
+    return starts, ends, legs
 
 
 def _direction_codes(rel: FloatArray) -> npt.NDArray[np.int_]:
@@ -160,6 +190,14 @@ def headline_missed_direction(plan: Plan, guide: MissedApproachGuide) -> str:
     points with the runway within 5 deg of the nose or the tail. A tie goes to the pattern side
     (`plan.side`).
     """
+    codes = guide.direction_code
+    if codes is None:                             # a guide made by hand: its directions' indices
+        codes = np.array([_CODE_OF.get(d, _NOT_COUNTED) for d in guide.direction], dtype=int)
+    return _headline(plan, codes)
+
+
+def _headline(plan: Plan, codes: npt.NDArray[np.int_]) -> str:
+    """`headline_missed_direction` from the guide's direction codes."""
     times = np.asarray(plan.track_time_s, dtype=float)
     if len(times) < 2:
         return ""
@@ -171,9 +209,6 @@ def headline_missed_direction(plan: Plan, guide: MissedApproachGuide) -> str:
     counted = np.ones(legs.shape, dtype=bool)
     for i in skip:
         counted &= legs != i
-    codes = guide.direction_code
-    if codes is None:                             # a guide made by hand: its directions' indices
-        codes = np.array([_CODE_OF.get(d, _NOT_COUNTED) for d in guide.direction], dtype=int)
     # each direction's time, summed in track order (bincount adds its weights one by one, in order)
     held = np.bincount(np.where(counted, codes[:-1], _NOT_COUNTED), weights=dt, minlength=_NOT_COUNTED + 1)
     left, right = float(held[_CODE_OF["left"]]), float(held[_CODE_OF["right"]])
@@ -182,4 +217,5 @@ def headline_missed_direction(plan: Plan, guide: MissedApproachGuide) -> str:
     return "left" if left > right else "right"
 
 
-__all__ = ["MissedApproachGuide", "MissedTurnSegment", "headline_missed_direction", "missed_approach_turns"]
+__all__ = ["MissedApproachGuide", "MissedTurnSegment", "headline_missed_direction", "missed_approach_turns",
+           "missed_turns_by_leg"]
