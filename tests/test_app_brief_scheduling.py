@@ -66,3 +66,32 @@ async def test_a_changed_catalog_while_a_brief_is_built_briefs_again(monkeypatch
         gate.set()
         await settle(app, pilot)
         assert len(asked) == 2                        # the brief built from the old data is not kept
+
+
+async def test_the_briefs_are_built_in_one_thread_that_ends_with_the_app(monkeypatch):
+    """Every brief of the app is built in the same thread (not the app's), which ends when the
+    app closes, also while a brief is being built then (its result is dropped)."""
+    threads: list[threading.Thread] = []
+    real = briefer.brief.build_brief
+
+    def build(request, **kw):
+        threads.append(threading.current_thread())
+        return real(request, **kw)
+
+    monkeypatch.setattr(briefer.brief, "build_brief", build)
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        await pilot.press("4")
+        await settle(app, pilot)
+        app.main.query_one("#wind", Input).value = "280/12"
+        await settle(app, pilot)
+        assert len(threads) >= 2 and len(set(threads)) == 1 and threads[0] is not threading.main_thread()
+        asked, gate = _held_builds(monkeypatch)
+        gate.clear()
+        app.main.query_one("#wind", Input).value = "290/12"   # a brief still being built at the close
+        await pilot.pause(0.1)
+        assert asked == [290.0]
+    gate.set()
+    threads[0].join(10.0)
+    assert not threads[0].is_alive()

@@ -1,8 +1,9 @@
 """The Textual app: `BriefingApp` walks the crew through the inputs and shows the Brief.
 
 It computes nothing itself: every change builds a BriefRequest from the inputs
-(`briefer.tui.state.request_from_inputs`) and calls `briefer.brief.build_brief` (debounced, in a
-worker thread); the wind envelope comes from `briefer.brief.envelope_for`, also in a worker.
+(`briefer.tui.state.request_from_inputs`) and calls `briefer.brief.build_brief` (debounced, in the
+brief thread, `briefer.tui.brief_thread`); the wind envelope comes from `briefer.brief.envelope_for`,
+in a worker thread.
 State is one reactive holding the frozen `BriefingInputs`; results are pushed down into the
 screen's widgets; widgets post messages up.
 """
@@ -17,11 +18,13 @@ from typing import TYPE_CHECKING, Any
 from textual import on, work
 from textual.app import App, ScreenStackError, SystemCommand
 from textual.binding import Binding
+from textual.message import Message
 from textual.reactive import reactive
 from textual.screen import Screen
 from textual.widgets import RadioSet, TabbedContent
 
 from briefer.errors import BriefingError
+from briefer.tui.brief_thread import BriefThread
 from briefer.tui.briefing_screen import STEPS, BriefingScreen
 from briefer.tui.state import (
     AppCatalog,
@@ -121,6 +124,7 @@ class BriefingApp(App[None]):
         self._timer = None
         self._hold: tuple[ExitStack, Any] | None = None   # repaints held for an edit's brief (hold_frame)
         self._pushed: dict[str, tuple[str, Any]] = {}
+        self._briefs = BriefThread(self._build_brief)   # one brief at a time, in its own thread
         self._day_theme = "textual-dark"
         for theme in THEMES:
             self.register_theme(theme)
@@ -386,7 +390,7 @@ class BriefingApp(App[None]):
     def _compute(self) -> None:
         self._timer = None
         self.computing = True
-        self._brief_worker(self.inputs)
+        self._briefs.ask(self.inputs)
 
     _again = False                       # asked to brief again while one was being built
 
@@ -400,23 +404,44 @@ class BriefingApp(App[None]):
         self._schedule(self.debounce_s)
         return True
 
-    @work(thread=True, exclusive=True, group="brief")
-    def _brief_worker(self, inputs: BriefingInputs) -> None:
+    class BriefBuilt(Message):
+        """A brief asked for is built (posted by the brief thread): `brief` and its `request`, or
+        why not (`error`: the message and the field at fault, if one is)."""
+
+        def __init__(self, inputs: BriefingInputs, request, brief: Brief | None,
+                     error: tuple[str, str | None] | None = None) -> None:
+            super().__init__()
+            self.inputs, self.request, self.brief, self.error = inputs, request, brief, error
+
+    def _build_brief(self, inputs: BriefingInputs) -> None:
+        """Build the brief for `inputs` (in the brief thread) and post it to the app."""
         from briefer.brief import build_brief
         from briefer.tui.state import request_from_inputs
 
+        request = brief = error = None
         try:
             request, report = request_from_inputs(inputs, self.catalog)
             brief = build_brief(request, weather_report=report)
         except InputError as exc:
-            self.call_from_thread(self._brief_failed, inputs, str(exc.message), exc.field)
+            error = (str(exc.message), exc.field)
         except BriefingError as exc:
-            self.call_from_thread(self._brief_failed, inputs, str(exc), None)
+            error = (str(exc), None)
         except Exception as exc:  # a bug: keep the app up, say so, keep the last good brief
-            self.call_from_thread(self._brief_failed, inputs, f"unexpected error ({type(exc).__name__}: {exc})",
-                                  None)
+            error = (f"unexpected error ({type(exc).__name__}: {exc})", None)
+        try:
+            self.post_message(self.BriefBuilt(inputs, request, brief, error))
+        except RuntimeError:             # the app has closed (its loop with it)
+            pass
+
+    @on(BriefBuilt)
+    def _brief_built(self, message: BriefBuilt) -> None:
+        if message.error is None:
+            self._brief_done(message.inputs, message.request, message.brief)
         else:
-            self.call_from_thread(self._brief_done, inputs, request, brief)
+            self._brief_failed(message.inputs, *message.error)
+
+    def on_unmount(self) -> None:
+        self._briefs.stop()
 
     def _brief_done(self, inputs: BriefingInputs, request, brief: Brief) -> None:
         self._decide_ascii()
