@@ -163,9 +163,11 @@ def _plan_info(s: Situation, best: maneuver.RankedPlan, alts: tuple[Alternative,
         break_angle = s.inputs.break_angle_deg
     elif plan.shape == "teardrop":
         break_angle = s.inputs.teardrop_angle_deg
-    track_local = frozen_array(s.track_local(plan.track_xy_m))
-    roll_in = frozen_array(s.track_local(np.array([plan.roll_in_xy_m])))
-    descent = frozen_array(s.track_local(np.array([[lm.x_m, lm.y_m]])))
+    # the track, the roll-in point and the leave-MDA point to the local frame in one call (a
+    # point's result does not depend on the others: the same values as three calls)
+    local = s.track_local(np.concatenate((np.asarray(plan.track_xy_m, dtype=float).reshape(-1, 2),
+                                          np.array([plan.roll_in_xy_m, (lm.x_m, lm.y_m)], dtype=float))))
+    track_local, roll_in, descent = frozen_array(local[:-2]), frozen_array(local[-2:-1]), frozen_array(local[-1:])
     vis_ok = None
     if s.visibility_reported and best.visibility_margin_m is not None:
         vis_ok = best.visibility_margin_m >= 0
