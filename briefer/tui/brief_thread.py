@@ -9,7 +9,6 @@ build from a queue and posts the result to the app as a message (Textual's threa
 
 from __future__ import annotations
 
-import queue
 import threading
 from collections.abc import Callable
 from typing import Any
@@ -23,14 +22,17 @@ class BriefThread:
     def __init__(self, build: Callable[[Any], None], name: str = "brief") -> None:
         self._build = build
         self._name = name
-        self._asks: queue.SimpleQueue[Any] = queue.SimpleQueue()
+        self._asks: Any = None               # a queue.SimpleQueue, made with the thread
         self._thread: threading.Thread | None = None
 
     def ask(self, item: Any) -> None:
         """Build `item` once the items asked for before it are built (the thread starts with
         the first)."""
         if self._thread is None:
-            self._thread = threading.Thread(target=self._run, name=self._name, daemon=True)
+            import queue                     # after the app's first frame (not imported before)
+
+            self._asks = queue.SimpleQueue()
+            self._thread = threading.Thread(target=self._run, args=(self._asks,), name=self._name, daemon=True)
             self._thread.start()
         self._asks.put(item)
 
@@ -40,7 +42,6 @@ class BriefThread:
             self._asks.put(_STOP)
             self._thread = None
 
-    def _run(self) -> None:
-        asks = self._asks
+    def _run(self, asks: Any) -> None:
         while (item := asks.get()) is not _STOP:
             self._build(item)
