@@ -178,8 +178,10 @@ def _plan_info(s: Situation, best: maneuver.RankedPlan, alts: tuple[Alternative,
     # The clearance shown is the manoeuvre's: flying on the extended centreline (the final, or a
     # straight-in arrival) passes a side sector's edge or a sector's apex at the threshold by design.
     off_line = np.abs(np.asarray(plan.track_xy_m)[:, 1]) > CENTRELINE_BAND_M
-    if s.area.excluded and off_line.any():
-        sector_clear = s.area.sector_clearance_m(track_pts[off_line]) * nm
+    if s.area.excluded:
+        off_pts = track_pts.compress(off_line, axis=0)       # the rows of track_pts[off_line]
+        if len(off_pts):
+            sector_clear = s.area.sector_clearance_m(off_pts) * nm
     break_dir, break_hdg = _break_off(plan, course, var)
     shape_text = SHAPE_TEXT.get(plan.shape, plan.shape)
     base_s = dict(zip(plan.leg_names, plan.leg_times_s)).get("base", 0.0)
