@@ -117,7 +117,8 @@ def missed_approach_turns(plan: Plan, *, toward: Literal["threshold", "midpoint"
     """
     ref, rel, codes = _bearings(plan, toward)
     times = np.asarray(plan.track_time_s, dtype=float)
-    starts, ends, legs = _runs(plan, codes, len(times))
+    starts, legs, n = _runs(plan, codes, len(times))
+    ends = np.concatenate([starts[1:], [n]]) - 1
     names = plan.leg_names
     segs = [MissedTurnSegment(leg_name=names[k], start_s=t0, end_s=t1, direction=_DIRECTIONS[c])
             for k, t0, t1, c in zip(legs[starts].tolist(), times[starts].tolist(), times[ends].tolist(),
@@ -138,7 +139,7 @@ def missed_turns_by_leg(plan: Plan) -> tuple[tuple[tuple[str, MissedDirection], 
         If the plan is not feasible.
     """
     _, _, codes = _bearings(plan, "midpoint")
-    starts, _, legs = _runs(plan, codes, len(plan.track_time_s))
+    starts, legs, _ = _runs(plan, codes, len(plan.track_time_s))
     names = plan.leg_names
     runs = tuple(zip([names[k] for k in legs[starts].tolist()], _DIRECTION_OF_CODE[codes[starts]].tolist()))
     return runs, _headline(plan, codes)
@@ -159,9 +160,9 @@ def _bearings(plan: Plan, toward: str) -> tuple[tuple[float, float], FloatArray,
 
 
 def _runs(plan: Plan, codes: npt.NDArray[np.int_], n_times: int
-          ) -> tuple[npt.NDArray[np.intp], npt.NDArray[np.intp], npt.NDArray[np.int_]]:
-    """The segments: runs of one (leg name, direction), as their first and last point indices,
-    and the track's leg indices."""
+          ) -> tuple[npt.NDArray[np.intp], npt.NDArray[np.int_], int]:
+    """The segments: runs of one (leg name, direction), as their first point indices, the
+    track's leg indices and the number of points the runs cover."""
     legs = np.asarray(plan.track_leg_index)
     names = plan.leg_names
     n = min(len(codes), n_times, len(legs))
@@ -169,8 +170,7 @@ def _runs(plan: Plan, codes: npt.NDArray[np.int_], n_times: int
     name_ids = {name: k for k, name in enumerate(dict.fromkeys(names))}
     key = codes[:n] * len(name_ids) + np.array([name_ids[name] for name in names])[legs[:n]]
     starts = np.flatnonzero(np.concatenate([[True], key[1:] != key[:-1]])) if n else np.zeros(0, dtype=int)
-    ends = np.concatenate([starts[1:], [n]]) - 1
-    return starts, ends, legs
+    return starts, legs, n
 
 
 def _direction_codes(rel: FloatArray) -> npt.NDArray[np.int_]:
@@ -201,7 +201,7 @@ def _headline(plan: Plan, codes: npt.NDArray[np.int_]) -> str:
     times = np.asarray(plan.track_time_s, dtype=float)
     if len(times) < 2:
         return ""
-    dt = np.diff(times)
+    dt = times[1:] - times[:-1]                   # np.diff's own operation
     legs = np.asarray(plan.track_leg_index)[:-1]
     skip = {i for i, name in enumerate(plan.leg_names) if name == "arrival"}
     if plan.leg_names and plan.leg_names[-1] == "final":
