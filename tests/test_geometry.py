@@ -570,3 +570,24 @@ def test_track_margins_in_runway_axes_are_the_general_rule_to_the_last_bit(runwa
         np.testing.assert_array_equal(margin, ref_margin)
         np.testing.assert_array_equal(by_sector, ref_by_sector)
         assert np.array_equal(np.signbit(margin), np.signbit(ref_margin))
+
+
+def test_from_runway_coords_of_a_track_is_the_broadcast_bit_for_bit():
+    """A track's points (two 1-d arrays, contiguous or strided columns) to the local frame: the
+    same values to the last bit as the (N, 1) x (2,) broadcast of threshold + along * u + right * v."""
+    import numpy as np
+
+    from briefer.core.geometry import runway_axes
+
+    rng = np.random.default_rng(7)
+    for _ in range(200):
+        t = tuple(rng.normal(0.0, 5000.0, 2).tolist())
+        rf = runway_axes(t, tuple((np.array(t) + rng.normal(0.0, 3000.0, 2)).tolist()))
+        track = rng.normal(0.0, 8000.0, (int(rng.integers(0, 300)), 2))
+        if len(track):
+            track[0] = (-0.0, 0.0)
+        a, r = track[:, 0], track[:, 1]
+        want = (np.asarray(rf.threshold_xy_m) + a[..., None] * np.asarray(rf.along_unit)
+                + r[..., None] * np.asarray(rf.right_unit))
+        for got in (rf.from_runway_coords(a, r), rf.from_runway_coords(a.copy(), r.copy())):
+            assert got.shape == want.shape and got.tobytes() == want.tobytes()

@@ -463,11 +463,28 @@ class RunwayFrame:
         """
         if (type(along_m) is np.ndarray and type(right_m) is np.ndarray and along_m.dtype == np.float64
                 and right_m.dtype == np.float64 and along_m.shape == right_m.shape):
+            if along_m.ndim == 1:              # a track: each column as one pass (the (N, 1) x (2,)
+                return _track_from_runway(self, along_m, right_m)   # broadcasts loop row by row)
             a, r = along_m, right_m            # already float arrays of one shape: nothing to broadcast
         else:
             a, r = np.broadcast_arrays(np.asarray(along_m, dtype=float), np.asarray(right_m, dtype=float))
         return (np.asarray(self.threshold_xy_m) + a[..., None] * np.asarray(self.along_unit)
                 + r[..., None] * np.asarray(self.right_unit))
+
+
+def _track_from_runway(rf: RunwayFrame, a: npt.NDArray[np.float64],
+                       r: npt.NDArray[np.float64]) -> npt.NDArray[np.float64]:
+    """`RunwayFrame.from_runway_coords` of two 1-d float arrays: each column as
+    (threshold + along * along_unit) + right * right_unit, the broadcast's operations in its order."""
+    out = np.empty((a.shape[0], 2))
+    tmp = np.empty_like(a)
+    for k in (0, 1):
+        col = out[:, k]
+        np.multiply(a, float(rf.along_unit[k]), out=col)
+        np.add(float(rf.threshold_xy_m[k]), col, out=col)
+        np.multiply(r, float(rf.right_unit[k]), out=tmp)
+        np.add(col, tmp, out=col)
+    return out
 
 
 def runway_axes(threshold_xy: ArrayLike, opposite_threshold_xy: ArrayLike) -> RunwayFrame:
