@@ -548,16 +548,9 @@ def angle_of_attack_in_turn(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Nume
     if (type(ias_kt) in _S and type(bank_deg) in _S and type(vref_kt) in _S and type(vs1g_kt) in _S
             and type(aoa_ref) in _S and type(aoa_stall) in _S and type(weight_ratio) in _S):
         return _angle_of_attack_f(ias_kt, bank_deg, vref_kt, vs1g_kt, aoa_ref, aoa_stall, weight_ratio)
-    v = _speed("ias_kt", ias_kt)
-    vref = _speed("vref_kt", vref_kt)
-    vs = _speed("vs1g_kt", vs1g_kt)
-    w = _weight_ratio(weight_ratio)
-    a_ref = _checked("aoa_ref", aoa_ref, -1e6, 1e6, "")
-    a_stall = _checked("aoa_stall", aoa_stall, -1e6, 1e6, "")
-    if (vref <= vs).any():
-        raise DomainError("vref_kt must be greater than vs1g_kt for the angle-of-attack model")
-    if (a_stall <= a_ref).any():
-        raise DomainError("aoa_stall must be greater than aoa_ref for the angle-of-attack model")
+    v, vref, vs, w, a_ref, a_stall = _aoa_inputs(_speed, _weight_ratio, _checked, ias_kt, vref_kt, vs1g_kt,
+                                                 weight_ratio, aoa_ref, aoa_stall)
+    _check_aoa_model(bool((vref <= vs).any()), bool((a_stall <= a_ref).any()))
     n = np.asarray(load_factor(bank_deg))
     a0 = _alpha_zero_lift(vref_kt=vref, vs1g_kt=vs, aoa_ref=a_ref, aoa_stall=a_stall)
     return angles.as_float(a0 + n * w * (vref / v) ** 2 * (a_ref - a0))   # [3] eq. C_L = a (alpha - alpha_0)
@@ -566,20 +559,29 @@ def angle_of_attack_in_turn(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Nume
 def _angle_of_attack_f(ias_kt: float, bank_deg: float, vref_kt: float, vs1g_kt: float, aoa_ref: float,
                        aoa_stall: float, weight_ratio: float) -> float:
     """`angle_of_attack_in_turn` of one number each (the same checks, operations and errors)."""
-    v = _speed_f("ias_kt", ias_kt)
-    vref = _speed_f("vref_kt", vref_kt)
-    vs = _speed_f("vs1g_kt", vs1g_kt)
-    w = _weight_ratio_f(weight_ratio)
-    a_ref = _checked_f("aoa_ref", aoa_ref, -1e6, 1e6, "")
-    a_stall = _checked_f("aoa_stall", aoa_stall, -1e6, 1e6, "")
-    if vref <= vs:
-        raise DomainError("vref_kt must be greater than vs1g_kt for the angle-of-attack model")
-    if a_stall <= a_ref:
-        raise DomainError("aoa_stall must be greater than aoa_ref for the angle-of-attack model")
+    v, vref, vs, w, a_ref, a_stall = _aoa_inputs(_speed_f, _weight_ratio_f, _checked_f, ias_kt, vref_kt, vs1g_kt,
+                                                 weight_ratio, aoa_ref, aoa_stall)
+    _check_aoa_model(vref <= vs, a_stall <= a_ref)
     n = load_factor(bank_deg)
     r = (vs / vref) ** 2                                              # CL_ref / CL_max
     a0 = (a_ref - r * a_stall) / (1.0 - r)
     return a0 + n * w * (vref / v) ** 2 * (a_ref - a0)
+
+
+def _aoa_inputs(speed, weight_ratio_of, checked, ias_kt, vref_kt, vs1g_kt, weight_ratio, aoa_ref, aoa_stall):
+    """The angle-of-attack model's inputs checked by the array or the one-number checks given:
+    (ias, vref, vs1g, weight ratio, aoa_ref, aoa_stall)."""
+    return (speed("ias_kt", ias_kt), speed("vref_kt", vref_kt), speed("vs1g_kt", vs1g_kt),
+            weight_ratio_of(weight_ratio), checked("aoa_ref", aoa_ref, -1e6, 1e6, ""),
+            checked("aoa_stall", aoa_stall, -1e6, 1e6, ""))
+
+
+def _check_aoa_model(vref_not_above_vs: bool, stall_not_above_ref: bool) -> None:
+    """The angle-of-attack model needs VREF above VS1G and the stall angle above the reference angle."""
+    if vref_not_above_vs:
+        raise DomainError("vref_kt must be greater than vs1g_kt for the angle-of-attack model")
+    if stall_not_above_ref:
+        raise DomainError("aoa_stall must be greater than aoa_ref for the angle-of-attack model")
 
 
 def aoa_margin_to_stall(ias_kt: Numeric, bank_deg: Numeric, *, vref_kt: Numeric, vs1g_kt: Numeric,
