@@ -34,6 +34,16 @@ async def type_fields(pilot, entries: list[tuple[tuple, str]]) -> None:
         await type_field(pilot, fpath, text)
 
 
+async def wait_until(pilot, ready, *, timeout_s: float = 10.0) -> None:
+    """Let the app run until `ready()` holds, or `timeout_s` has passed (the caller then asserts):
+    on a loaded machine a timer's work can finish well after its delay."""
+    import time
+
+    end = time.monotonic() + timeout_s
+    while not ready() and time.monotonic() < end:
+        await pilot.pause(0.05)
+
+
 def message_of(screen: FormScreen, fpath: tuple) -> str:
     """The text shown beside a field."""
     return str(screen._msgs[fpath].content)

@@ -11,7 +11,7 @@ from dataclasses import replace
 from pathlib import Path
 
 import pytest
-from forms_support import brief_json, form_app, keys_of, open_new_form, type_fields
+from forms_support import brief_json, form_app, keys_of, open_new_form, type_fields, wait_until
 from test_app_support import settle
 from test_forms_profile import NEW_AIRCRAFT
 
@@ -431,6 +431,7 @@ async def test_clearing_a_runways_latitude_longitude_shows_its_chart_lines_at_on
         assert rw + ("heading_deg_mag",) not in screen._inputs        # placed by its coordinates
         await type_fields(pilot, [(rw + ("threshold_a", "lat_deg"), ""), (rw + ("threshold_a", "lon_deg"), "")])
         await pilot.pause(0.3)                                           # typing pauses: checked
+        await wait_until(pilot, lambda: rw + ("length_ft",) in screen._inputs)   # the box rebuilt
         await pilot.pause()
         for key in ("heading_deg_mag", "length_ft"):
             assert rw + (key,) in screen._inputs, f"no {key} line after the coordinates were cleared"
