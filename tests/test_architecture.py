@@ -60,6 +60,14 @@ def test_model_imports_no_numpy():
     assert "numpy" not in mods
 
 
+def test_the_brief_and_the_envelope_import_no_numpy_typing():
+    """numpy.typing is for the type checker only: its import was about 12 M instructions of a
+    `briefer brief` process (issue: start-up). Every module of the brief and the envelope,
+    missed approach included, names its array types without importing it at run time."""
+    mods = _modules_after("import briefer.brief, briefer.core.manoeuvre.missed, briefer.render.views")
+    assert "numpy" in mods and "numpy.typing" not in mods
+
+
 def test_every_help_imports_no_numpy():
     """`briefer --help` and `briefer <command> --help` print without loading numpy (one process,
     commands in turn: the first one that loads numpy is named)."""

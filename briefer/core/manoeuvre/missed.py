@@ -14,7 +14,10 @@ from briefer._dataclass import dataclass, field
 from typing import Literal
 
 import numpy as np
-import numpy.typing as npt
+
+TYPE_CHECKING = False
+if TYPE_CHECKING:    # numpy.typing for the type checker only (its import is slow)
+    import numpy.typing as npt
 
 from briefer.core.manoeuvre.legs import FloatArray
 from briefer.core.manoeuvre.plans import Plan
