@@ -298,10 +298,13 @@ def _flag(obj: Any, name: str) -> bool:
 
 
 _DESIGNATOR = re.compile(r"(0?[1-9]|[12][0-9]|3[0-6])([LCR]?)")
+_NORMAL_DESIGNATORS = frozenset(f"{n:02d}{s}" for n in range(1, 37) for s in ("", "L", "C", "R"))
 
 
 def normalise_designator(value: Any) -> str | None:
     """'9' -> '09', '27l' -> '27L', 27 -> '27'; None if it is not a runway designator."""
+    if type(value) is str and value in _NORMAL_DESIGNATORS:     # already normal: itself
+        return value
     if isinstance(value, bool):
         return None
     if isinstance(value, numbers.Integral):

@@ -24,6 +24,15 @@ def frozen_array(values) -> np.ndarray:
     return arr
 
 
+def frozen_own(arr: np.ndarray) -> np.ndarray:
+    """`frozen_array` of a float array the caller just made and hands over (no copy: the same
+    array, made read-only)."""
+    if type(arr) is not np.ndarray or arr.dtype != np.float64:
+        return frozen_array(arr)
+    arr.setflags(write=False)
+    return arr
+
+
 @dataclass(frozen=True, slots=True, kw_only=True)
 class VisibilityMention:
     """A visibility that a text of the brief names: the words written there (the tool's default

@@ -26,7 +26,8 @@ def circling_only_reasons(s: Situation, category: str, crit: str) -> tuple[tuple
                 continue
             thr, _ = af.runway_by_designator(des)
             a = s.thresholds_xy[thr.designator]
-            course = s.airfield_geometry.runway(des).landing_course_deg_true
+            rf = s.runway if thr is s.landing_threshold else s.airfield_geometry.runway(des)
+            course = rf.landing_course_deg_true
             diff = abs((final_true - course + 180.0) % 360.0 - 180.0)    # angles.wrap_180 of two floats
             if best is None or diff < best[0]:
                 best = (diff, thr, a, course)

@@ -22,7 +22,7 @@ from briefer.core import coldtemp, criteria, minimums
 from briefer.model import Sector
 from briefer.wording import visibility_words
 from briefer.result import (
-    AreaInfo, CategoryInfo, ColdCorrection, MinimumsInfo, ObstacleDrawing, VisibilityMention, frozen_array,
+    AreaInfo, CategoryInfo, ColdCorrection, MinimumsInfo, ObstacleDrawing, VisibilityMention, frozen_array, frozen_own,
 )
 
 COLD_CORRECTION_AT_OR_BELOW_C = 0.0
@@ -199,9 +199,9 @@ def area_info(s: Situation, required_radius_nm: float) -> AreaInfo:
     crit = request.options.criteria or appr.criteria
     radius = s.area_radius
     clip_m = radius.radius_nm * units.NM_TO_M + s.runway.length_m / 2.0   # draw sectors within the area
-    sector_polys = tuple(frozen_array(sec.polygon(clip_m)) for sec in s.area.excluded)
+    sector_polys = tuple(frozen_own(sec.polygon(clip_m)) for sec in s.area.excluded)
     return AreaInfo(criteria=crit, radius_nm=radius.radius_nm, basis=radius.basis,
                     provenance=criteria.provenance_label(radius.provenance),
                     required_radius_nm=required_radius_nm, centres_xy_m=frozen_array(s.area.centres_m),
-                    boundary_xy_m=frozen_array(s.area.boundary()), sectors_xy_m=sector_polys,
+                    boundary_xy_m=frozen_own(s.area.boundary()), sectors_xy_m=sector_polys,
                     sector_texts=tuple(_sector_text(x) for x in appr.not_authorised_sectors))

@@ -18,7 +18,7 @@ from briefer.brief.situation_inputs import Situation
 from briefer.core import geometry, maneuver
 from briefer.core.manoeuvre.missed import missed_turns_by_leg
 from briefer.core.manoeuvre.ranking import reason_visibility_words
-from briefer.result import Alternative, MissedApproachInfo, PlanInfo, VisibilityMention, frozen_array
+from briefer.result import Alternative, MissedApproachInfo, PlanInfo, VisibilityMention, frozen_array, frozen_own
 
 CENTRELINE_BAND_M = 30.0   # points this close to the extended centreline are "on the final"
 
@@ -167,7 +167,8 @@ def _plan_info(s: Situation, best: maneuver.RankedPlan, alts: tuple[Alternative,
     # point's result does not depend on the others: the same values as three calls)
     local = s.track_local(np.concatenate((np.asarray(plan.track_xy_m, dtype=float).reshape(-1, 2),
                                           np.array([plan.roll_in_xy_m, (lm.x_m, lm.y_m)], dtype=float))))
-    track_local, roll_in, descent = frozen_array(local[:-2]), frozen_array(local[-2:-1]), frozen_array(local[-1:])
+    frozen_own(local)                              # read-only: the three parts are views of it
+    track_local, roll_in, descent = local[:-2], local[-2:-1], local[-1:]
     vis_ok = None
     if s.visibility_reported and best.visibility_margin_m is not None:
         vis_ok = best.visibility_margin_m >= 0

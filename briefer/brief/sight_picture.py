@@ -16,7 +16,7 @@ from briefer.brief.findings import FindingList, SectionResult
 from briefer.brief.performance import STALL_MARGIN_WARNING_PCT
 from briefer.brief.situation_inputs import Situation
 from briefer.core import maneuver, sightpicture, turn
-from briefer.result import PerformanceInfo, PlanInfo, SightPictureInfo, frozen_array
+from briefer.result import PerformanceInfo, PlanInfo, SightPictureInfo, frozen_array, frozen_own
 from briefer.wording import stall_margin_words
 
 
@@ -50,7 +50,7 @@ def sight_picture_section(s: Situation, plan_info: PlanInfo, solved: maneuver.Pl
         fam_rw = sightpicture.familiar_turn_track_m(
             side=solved.side, roll_in_along_m=solved.roll_in_xy_m[0] if solved.roll_in_xy_m is not None else 0.0,
             offset_m=cmp.familiar_offset_at_circling_m, radius_m=float(turn.turn_radius_m(tas, solved.bank_deg)))
-        fam_track = frozen_array(s.track_local(fam_rw))
+        fam_track = frozen_own(s.track_local(fam_rw))
     if not cmp.familiar_possible:
         found.add("warning", "familiar-picture",
                   f"Your usual {fp.height_ft:.0f} ft pattern picture ({cmp.familiar_depression_deg:.1f}° below the "

@@ -23,7 +23,7 @@ from briefer import units
 from briefer.core import atmosphere, criteria, geometry, maneuver, turn, wind
 from briefer.core.airfield_geometry import AirfieldGeometry
 from briefer.core.layout import Layout
-from briefer.model import Approach, BriefRequest
+from briefer.model import Approach, BriefRequest, Threshold
 
 STANDARD_ALTIMETER_HPA = 1013.25
 EDGE_TOLERANCE_M = 1.0   # a track on a sector's edge (e.g. the centreline of a side sector) is authorised
@@ -38,6 +38,7 @@ class Situation:
     approach: Approach                # request.selected_approach(), looked up once
     layout: Layout                    # every threshold, fix and obstacle in the local frame
     runway: geometry.RunwayFrame
+    landing_threshold: Threshold      # the landing runway's threshold (request.landing_runway)
     area: geometry.ProtectedArea
     area_rw: geometry.ProtectedArea   # the same area in runway axes: (right_m, along_m) as (east, north)
     area_radius: criteria.AreaRadius
@@ -98,8 +99,8 @@ def situation(request: BriefRequest) -> Situation:
 
     geo = AirfieldGeometry(af)
     layout, xy = af.layout, geo.thresholds_xy_m
-    land, _ = af.runway_by_designator(request.landing_runway)
-    rf = geo.runway(request.landing_runway)
+    land, opp = af.runway_by_designator(request.landing_runway)
+    rf = geo.runway_of_ends(land, opp)
 
     wx = request.weather
     wind_from = wx.wind_from_deg_true(var)
@@ -163,7 +164,7 @@ def situation(request: BriefRequest) -> Situation:
                 aoa_stall=cfg.aoa_stall, weight_ratio=weight_ratio))
         return m
 
-    return Situation(request=request, approach=appr, layout=layout, runway=rf, area=area, area_rw=area_rw, area_radius=radius,
+    return Situation(request=request, approach=appr, layout=layout, runway=rf, landing_threshold=land, area=area, area_rw=area_rw, area_radius=radius,
                      inputs=inputs,
                      visibility_m=float(vis_m), visibility_reported=vis_reported,
                      bank_limit_deg=cfg.bank_limit_deg, aoa_margin_fn=aoa_margin, category=det, mda_ft=mda,

@@ -67,8 +67,11 @@ class AirfieldGeometry:
 
     def runway(self, designator: str) -> geometry.RunwayFrame:
         """Axes of the runway landed on at `designator` (landing course true, length)."""
-        land, opp = self.airfield.runway_by_designator(designator)
-        return geometry.runway_axes(self.thresholds_xy_m[land.designator], self.thresholds_xy_m[opp.designator])
+        return self.runway_of_ends(*self.airfield.runway_by_designator(designator))
+
+    def runway_of_ends(self, land: Any, opposite: Any) -> geometry.RunwayFrame:
+        """`runway` of the thresholds already looked up (landing, opposite)."""
+        return geometry.runway_axes(self.thresholds_xy_m[land.designator], self.thresholds_xy_m[opposite.designator])
 
     def runway_ends_xy_m(self, runway: Any) -> tuple[npt.NDArray[np.float64], npt.NDArray[np.float64]]:
         """The two thresholds of a runway (``threshold_a``, ``threshold_b``). [m]"""

@@ -188,34 +188,44 @@ class CircleInputs:
     circuit_turn_past_threshold_m: float = 0.0
 
     def __post_init__(self) -> None:
-        def need(ok: bool, msg: str) -> None:
-            if not ok:
-                raise DomainError(msg)
-        fin = all(math.isfinite(v) for v in (self.tas_kt, self.bank_deg, self.arrival_x_m, self.arrival_y_m,
-                                              self.arrival_course_deg, self.circling_height_ft, self.glide_path_deg,
-                                              self.tch_ft, self.stabilised_height_ft, self.break_angle_deg,
-                                              self.teardrop_angle_deg, self.runway_length_m,
-                                              self.circuit_turn_past_threshold_m))
-        need(fin, "CircleInputs values must be finite")
-        need(0.0 < self.tas_kt <= 500.0, f"tas_kt = {self.tas_kt}: valid range is 0 < TAS <= 500 kt")
-        need(0.0 < self.bank_deg <= 60.0, f"bank_deg = {self.bank_deg}: valid range is 0 < bank <= 60")
-        need(0.0 < self.glide_path_deg <= 10.0, f"glide_path_deg = {self.glide_path_deg}: valid range is (0, 10]")
-        need(self.tch_ft >= 0.0, f"tch_ft = {self.tch_ft}: must be >= 0")
-        need(self.circling_height_ft > self.tch_ft,
-             f"circling_height_ft = {self.circling_height_ft}: must be above tch_ft = {self.tch_ft}")
-        need(self.stabilised_height_ft > self.tch_ft,
-             f"stabilised_height_ft = {self.stabilised_height_ft}: must be above tch_ft = {self.tch_ft}")
-        need(self.roll_out_distance_m is None or (math.isfinite(self.roll_out_distance_m)
-                                                  and self.roll_out_distance_m >= 0.0),
-             f"roll_out_distance_m = {self.roll_out_distance_m}: must be >= 0 (or None)")
-        need(self.roll_rate_deg_per_s is None or (math.isfinite(self.roll_rate_deg_per_s)
-                                                  and self.roll_rate_deg_per_s > 0.0),
-             f"roll_rate_deg_per_s = {self.roll_rate_deg_per_s}: must be > 0 (or None)")
-        need(0.0 < self.break_angle_deg <= 90.0, f"break_angle_deg = {self.break_angle_deg}: valid range (0, 90]")
-        need(0.0 < self.teardrop_angle_deg < 90.0,
-             f"teardrop_angle_deg = {self.teardrop_angle_deg}: valid range (0, 90)")
-        need(self.runway_length_m >= 0.0, f"runway_length_m = {self.runway_length_m}: must be >= 0")
-        need(isinstance(self.wind, RunwayWind), "wind must be a RunwayWind")
+        bad = _circle_inputs_problem(self)
+        if bad is not None:
+            raise DomainError(bad)
+
+
+def _circle_inputs_problem(c: CircleInputs) -> str | None:
+    """The first of `CircleInputs`' checks that fails, as its message (None: all pass). Each
+    message is written only for the check that fails."""
+    if not all(math.isfinite(v) for v in (c.tas_kt, c.bank_deg, c.arrival_x_m, c.arrival_y_m, c.arrival_course_deg,
+                                          c.circling_height_ft, c.glide_path_deg, c.tch_ft, c.stabilised_height_ft,
+                                          c.break_angle_deg, c.teardrop_angle_deg, c.runway_length_m,
+                                          c.circuit_turn_past_threshold_m)):
+        return "CircleInputs values must be finite"
+    if not 0.0 < c.tas_kt <= 500.0:
+        return f"tas_kt = {c.tas_kt}: valid range is 0 < TAS <= 500 kt"
+    if not 0.0 < c.bank_deg <= 60.0:
+        return f"bank_deg = {c.bank_deg}: valid range is 0 < bank <= 60"
+    if not 0.0 < c.glide_path_deg <= 10.0:
+        return f"glide_path_deg = {c.glide_path_deg}: valid range is (0, 10]"
+    if not c.tch_ft >= 0.0:
+        return f"tch_ft = {c.tch_ft}: must be >= 0"
+    if not c.circling_height_ft > c.tch_ft:
+        return f"circling_height_ft = {c.circling_height_ft}: must be above tch_ft = {c.tch_ft}"
+    if not c.stabilised_height_ft > c.tch_ft:
+        return f"stabilised_height_ft = {c.stabilised_height_ft}: must be above tch_ft = {c.tch_ft}"
+    if not (c.roll_out_distance_m is None or (math.isfinite(c.roll_out_distance_m) and c.roll_out_distance_m >= 0.0)):
+        return f"roll_out_distance_m = {c.roll_out_distance_m}: must be >= 0 (or None)"
+    if not (c.roll_rate_deg_per_s is None or (math.isfinite(c.roll_rate_deg_per_s) and c.roll_rate_deg_per_s > 0.0)):
+        return f"roll_rate_deg_per_s = {c.roll_rate_deg_per_s}: must be > 0 (or None)"
+    if not 0.0 < c.break_angle_deg <= 90.0:
+        return f"break_angle_deg = {c.break_angle_deg}: valid range (0, 90]"
+    if not 0.0 < c.teardrop_angle_deg < 90.0:
+        return f"teardrop_angle_deg = {c.teardrop_angle_deg}: valid range (0, 90)"
+    if not c.runway_length_m >= 0.0:
+        return f"runway_length_m = {c.runway_length_m}: must be >= 0"
+    if not isinstance(c.wind, RunwayWind):
+        return "wind must be a RunwayWind"
+    return None
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
