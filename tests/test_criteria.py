@@ -8,6 +8,7 @@ document; the secondary sources behind each V2 value are listed in docs/REFERENC
 from __future__ import annotations
 
 import math
+import re
 from pathlib import Path
 
 import numpy as np
@@ -726,3 +727,18 @@ def test_alignment_symmetric_and_periodic(final, runway, turns):
 def test_negative_gradient_is_a_domain_error():
     with pytest.raises(DomainError, match="gradient"):
         _assess(0.0, 0.0, gradient=-10.0)
+
+
+@settings(max_examples=300)
+@given(vref=st.floats(40.0, 215.0), circ=st.floats(-10.0, 320.0),
+       crit=st.sampled_from(["terps-legacy", "terps-expanded", "icao"]))
+def test_category_at_speed_is_the_category_of_category_for_approach(vref, circ, crit):
+    # the same rule (14 CFR 97.3; Doc 8168 Table I-4-1-2) without its texts: the same category,
+    # or the same error for a speed or VAT outside the rule
+    try:
+        expected = cr.category_for_approach(vref_kt=vref, circling_speed_kt=circ, criteria=crit).category
+    except DomainError as exc:
+        with pytest.raises(DomainError, match=re.escape(str(exc))):
+            cr.category_at_speed(vref_kt=vref, circling_speed_kt=circ, criteria=crit)
+        return
+    assert cr.category_at_speed(vref_kt=vref, circling_speed_kt=circ, criteria=crit) == expected

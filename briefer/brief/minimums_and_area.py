@@ -134,9 +134,12 @@ def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
 def _reason_as_printed(reason: str) -> str:
     """The criteria's reason with its speeds in whole knots and the VREF named as the one at the
     maximum landing weight (the brief also shows VREF at today's weight)."""
-    reason = re.sub(r"VREF (\d+(?:\.\d+)?) kt", lambda m: f"the category speed {float(m.group(1)):.0f} kt at maximum landing weight",
-                    reason)
-    return re.sub(r"circling at (\d+(?:\.\d+)?) kt", lambda m: f"circling at {float(m.group(1)):.0f} kt IAS", reason)
+    reason = _VREF_KT.sub(lambda m: f"the category speed {float(m.group(1)):.0f} kt at maximum landing weight", reason)
+    return _CIRCLING_KT.sub(lambda m: f"circling at {float(m.group(1)):.0f} kt IAS", reason)
+
+
+_VREF_KT = re.compile(r"VREF (\d+(?:\.\d+)?) kt")
+_CIRCLING_KT = re.compile(r"circling at (\d+(?:\.\d+)?) kt")
 
 
 def _category_findings(s: Situation, crit: str, found: FindingList) -> None:
@@ -147,8 +150,8 @@ def _category_findings(s: Situation, crit: str, found: FindingList) -> None:
     if wx.gust_increment_kt > 0 and request.options.apply_wind_additive:
         steady = prof.wind_additive.additive_kt(headwind_kt=s.headwind_kt, gust_increment_kt=0.0)
         steady_ias = s.circling_ias_kt - s.wind_additive_kt + steady
-        steady_cat = criteria.category_for_approach(vref_kt=prof.approach_category_speed_kt(),
-                                                    circling_speed_kt=steady_ias, criteria=crit).category
+        steady_cat = criteria.category_at_speed(vref_kt=prof.approach_category_speed_kt(),
+                                                circling_speed_kt=steady_ias, criteria=crit)
         if steady_cat != cat:
             found.add("warning", "gust-raises-category",
                       f"The gust additive raises the circling speed to {s.circling_ias_kt:.0f} kt and the category "

@@ -49,7 +49,9 @@ def sight_picture_section(s: Situation, plan_info: PlanInfo, solved: maneuver.Pl
     if feasible:
         fam_rw = sightpicture.familiar_turn_track_m(
             side=solved.side, roll_in_along_m=solved.roll_in_xy_m[0] if solved.roll_in_xy_m is not None else 0.0,
-            offset_m=cmp.familiar_offset_at_circling_m, radius_m=float(turn.turn_radius_m(tas, solved.bank_deg)))
+            offset_m=cmp.familiar_offset_at_circling_m,
+            radius_m=(cmp.planned_turn_radius_m if solved.bank_deg == plan_info.bank_deg    # the same turn
+                      else float(turn.turn_radius_m(tas, solved.bank_deg))))
         fam_track = frozen_own(s.track_local(fam_rw))
     if not cmp.familiar_possible:
         found.add("warning", "familiar-picture",

@@ -292,6 +292,36 @@ class CategoryDetermination:
             raise DomainError("raised must be True exactly when category differs from certified_category")
 
 
+def category_at_speed(*, vref_kt: float, circling_speed_kt: float, criteria: str) -> str:
+    """``category_for_approach(...).category`` alone (the same checks and rule, no texts)."""
+    return _categories(vref_kt, circling_speed_kt, criteria)[1]
+
+
+def _categories(vref_kt: float, circling_speed_kt: float | None, criteria: str) -> tuple[str, str, bool]:
+    """`category_for_approach`'s rule: the certified category, the category at the circling
+    speed (the certified one without a speed) and whether that speed is within the category's
+    design speed, after its checks in its order."""
+    check_criteria(criteria)
+    certified = category_from_speed(vref_kt)
+    if criteria == "icao" and vref_kt >= ICAO_CAT_E_VAT_LIMIT_KT:
+        raise DomainError(f"VAT {vref_kt:g} kt is above the ICAO Cat E band (166 to 210 kt); "
+                          "no ICAO category applies")
+    if circling_speed_kt is None:
+        return certified, certified, True
+    _check_range("circling speed", circling_speed_kt, 0.0, MAX_SPEED_KT, "kt", low_inclusive=False)
+    cert_idx = CATEGORIES.index(certified)
+    if criteria == "icao":
+        idx = cert_idx
+        while idx < len(CATEGORIES) and circling_speed_kt > ICAO_MAX_CIRCLING_IAS_KT[CATEGORIES[idx]]:
+            idx += 1
+        if idx == len(CATEGORIES):
+            return certified, CATEGORIES[-1], False
+        return certified, CATEGORIES[idx], True
+    speed_cat = category_from_speed(circling_speed_kt)
+    # the raised category's band always contains the circling speed: within
+    return certified, CATEGORIES[max(cert_idx, CATEGORIES.index(speed_cat))], True
+
+
 _CATEGORY_SOURCE_TERPS = "14 CFR 97.3; FAA Pilot/Controller Glossary (a higher category must be used)"
 _CATEGORY_SOURCE_ICAO = ("ICAO Doc 8168 Vol I Part I Sec 4 Ch 1, Table I-4-1-2 (VAT bands; maximum "
                          "circling IAS)")
@@ -352,11 +382,7 @@ def category_for_approach(*, vref_kt: float, circling_speed_kt: float | None = N
     .. [3] ICAO Doc 8168 Vol I, 5th ed., 2006, Part I Section 4 Chapter 1, Table I-4-1-2;
        Vol II Part I Section 4 Chapter 7, 7.2.2 a).
     """
-    check_criteria(criteria)
-    certified = category_from_speed(vref_kt)
-    if criteria == "icao" and vref_kt >= ICAO_CAT_E_VAT_LIMIT_KT:
-        raise DomainError(f"VAT {vref_kt:g} kt is above the ICAO Cat E band (166 to 210 kt); "
-                          "no ICAO category applies")
+    certified, category, within = _categories(vref_kt, circling_speed_kt, criteria)
     source = _CATEGORY_SOURCE_ICAO if criteria == "icao" else _CATEGORY_SOURCE_TERPS
     cert_text = (f"Cat {certified} from VREF {vref_kt:g} kt "
                  f"(band {_band_text(certified, criteria)})")
@@ -370,17 +396,7 @@ def category_for_approach(*, vref_kt: float, circling_speed_kt: float | None = N
             reason=f"{cert_text}; no circling speed given, so the certified category applies.",
             source=source)
 
-    _check_range("circling speed", circling_speed_kt, 0.0, MAX_SPEED_KT, "kt", low_inclusive=False)
-    cert_idx = CATEGORIES.index(certified)
-
     if criteria == "icao":
-        within = True
-        idx = cert_idx
-        while idx < len(CATEGORIES) and circling_speed_kt > ICAO_MAX_CIRCLING_IAS_KT[CATEGORIES[idx]]:
-            idx += 1
-        if idx == len(CATEGORIES):
-            idx, within = len(CATEGORIES) - 1, False
-        category = CATEGORIES[idx]
         cat_max = ICAO_MAX_CIRCLING_IAS_KT[category]
         if not within:
             reason = (f"{cert_text}; circling at {circling_speed_kt:g} kt exceeds the Cat E maximum "
@@ -395,9 +411,6 @@ def category_for_approach(*, vref_kt: float, circling_speed_kt: float | None = N
             reason = (f"{cert_text}; circling at {circling_speed_kt:g} kt is within the Cat "
                       f"{category} maximum circling IAS of {cat_max:g} kt.")
     else:
-        speed_cat = category_from_speed(circling_speed_kt)
-        category = CATEGORIES[max(cert_idx, CATEGORIES.index(speed_cat))]
-        within = True   # the raised category's band always contains the circling speed
         if category != certified:
             _, high = category_speed_band_kt(certified, criteria=criteria)
             reason = (f"{cert_text}; circling at {circling_speed_kt:g} kt is at or above the Cat "
