@@ -144,12 +144,28 @@ def _init_source(cls: type, all_fields: dict[str, Field], frozen: bool, slots: b
             value = dflt
         else:
             continue
-        body.append(f"__dataclass_builtins_object__.__setattr__({self_name},{f.name!r},{value})" if frozen
-                    else f"{self_name}.{f.name}={value}")
+        slot_set = _slot_setter(cls, f.name) if frozen and slots else None
+        if slot_set is not None:      # the slot's own setter: what object.__setattr__ ends in, without the look-up
+            env[f"__dataclass_set_{tag}_{f.name}__"] = slot_set
+            body.append(f"__dataclass_set_{tag}_{f.name}__({self_name},{value})")
+        else:
+            body.append(f"__dataclass_builtins_object__.__setattr__({self_name},{f.name!r},{value})" if frozen
+                        else f"{self_name}.{f.name}={value}")
     if hasattr(cls, "__post_init__"):
         body.append(f"{self_name}.__post_init__()")
     params = [self_name] + [param(f) for f in positional] + (["*"] + [param(f) for f in keyword] if keyword else [])
     return f"def __init_{tag}__({','.join(params)}):\n " + ("\n ".join(body) if body else "pass") + "\n"
+
+
+def _slot_setter(cls: type, name: str):
+    """The ``__set__`` of the slot that holds field `name` of a slotted class (found along the
+    class's MRO, as ``object.__setattr__`` finds it on an instance of the class), or None when
+    the name is not a plain slot there (then ``object.__setattr__`` is used)."""
+    for klass in cls.__mro__:
+        if name in klass.__dict__:
+            d = klass.__dict__[name]
+            return d.__set__ if type(d) is _types.MemberDescriptorType else None
+    return None
 
 
 def _check_defaults_order(all_fields: dict[str, Field]) -> None:

@@ -194,3 +194,34 @@ def test_the_compiled_init_replaces_the_quick_one_after_some_instances(init_kind
             assert errors[0] == errors[1]
     assert quick.__init__ is not first                                 # compiled by now
     assert str(inspect.signature(quick)) == str(inspect.signature(std))
+
+
+def _slotted_family(dc, field):
+    @dc(frozen=True, slots=True, kw_only=True)
+    class Base:
+        a: int
+        b: tuple = field(default_factory=tuple)
+        c: float = field(default=2.5, init=False)
+
+    @dc(frozen=True, slots=True, kw_only=True)
+    class Child(Base):
+        d: str = "d"
+
+        def __post_init__(self) -> None:
+            object.__setattr__(self, "d", self.d.upper())
+    return Base, Child
+
+
+def test_frozen_slotted_fields_inherited_or_not_are_set_as_by_the_standard_one(init_kind):
+    """The compiled ``__init__`` of a frozen slotted class sets each field through its slot
+    (inherited slots included, a default factory, a field not in ``__init__``): the same
+    instances as the standard decorator's, still frozen."""
+    (std_base, std_child), (quick_base, quick_child) = _pair(_slotted_family)
+    for _ in range(_dataclass.UPGRADE_AFTER + 2):
+        for std, quick, kwargs in ((std_base, quick_base, {"a": 1}), (std_child, quick_child, {"a": 2, "d": "x"}),
+                                   (std_child, quick_child, {"a": 3, "b": (1,)})):
+            s, q = std(**kwargs), quick(**kwargs)
+            assert repr(q).split(".")[-1] == repr(s).split(".")[-1]
+            assert [getattr(q, f.name) for f in dataclasses.fields(q)] == [getattr(s, f.name) for f in dataclasses.fields(s)]
+            with pytest.raises(dataclasses.FrozenInstanceError):
+                q.a = 5
