@@ -58,8 +58,8 @@ from briefer.core.manoeuvre.solver import (
     applicable_candidates,
     descent_geometry,
     sample_solution,
+    sampling_rows,
     solve_inputs,
-    take_rows,
 )
 from briefer.errors import DomainError
 from briefer.units import KT_TO_MPS, M_TO_NM
@@ -421,40 +421,39 @@ def _solve_sides(inputs: CircleInputs, shape: Shape, sides: tuple[Side, ...],
                           reasons=(f"{shape} on the {side} does not suit an arrival course of "
                                    f"{float(wrap_180(inputs.arrival_course_deg)):.0f} deg to the runway",))
     if todo:
-        sol, ks = _solution_rows(inputs, shape, [sides[i] for i in todo], len(todo) == len(sides), solved, descent)
+        sol, ks, rows = _solution_rows(inputs, shape, [sides[i] for i in todo], len(todo) == len(sides), solved,
+                                       descent)
         trk = None
         if sol.ok[ks].any():
-            trk = sample_solution(sol, turn_step_deg=PLAN_TURN_STEP_DEG, n_straight=2,
-                                  straight_step_m=PLAN_STRAIGHT_STEP_M, with_heading=True)
-        for k, i in zip(ks, todo):
-            out[i] = _plan_from_row(inputs, shape, sides[i], sol, trk, k, descent)
+            trk = sample_solution(sol if rows is None else sampling_rows(sol, rows), turn_step_deg=PLAN_TURN_STEP_DEG,
+                                  n_straight=2, straight_step_m=PLAN_STRAIGHT_STEP_M, with_heading=True)
+        for t, (k, i) in enumerate(zip(ks, todo)):
+            out[i] = _plan_from_row(inputs, shape, sides[i], sol, trk, k, descent, k if rows is None else t)
     return [p for p in out if p is not None]
 
 
 def _solution_rows(inputs: CircleInputs, shape: Shape, sides: list[Side], every_side: bool,
                    solved: ShapeSolution | tuple[ShapeSolution, Rows] | None, descent: DescentGeometry
-                   ) -> tuple[ShapeSolution, list[int]]:
-    """The solution of the sides (solved now unless given) and the row of each side in it: a
-    given batch's own rows when no side is flyable (only read), else those rows taken out (the
-    track is sampled over the sides' rows alone)."""
+                   ) -> tuple[ShapeSolution, list[int], Rows | None]:
+    """The solution of the sides (solved now unless given), the row of each side in it, and the
+    rows to sample (None: all of them): a given batch is only read (its rows of the sides are
+    sampled alone, :func:`sampling_rows`)."""
     if isinstance(solved, tuple) and every_side:
         batch, rows = solved
         ks = list(range(batch.ok.shape[0])[rows]) if isinstance(rows, slice) else [int(r) for r in rows]
         if len(ks) == len(sides):
-            if not batch.ok[ks].any():
-                return batch, ks
-            return take_rows(batch, rows), list(range(len(ks)))
+            return batch, ks, rows
     elif solved is not None and not isinstance(solved, tuple) and every_side and solved.ok.shape == (len(sides),):
-        return solved, list(range(len(sides)))
+        return solved, list(range(len(sides))), None
     sigma = np.array([1.0 if side == "right" else -1.0 for side in sides])
     wx, wy = inputs.wind.mps()
     return solve_inputs(inputs, shape, sigma=sigma, wx_mps=wx, wy_mps=wy, bank_deg=inputs.bank_deg,
-                        descent=descent), list(range(len(sides)))
+                        descent=descent), list(range(len(sides))), None
 
 
 def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSolution, trk: SolutionTrack | None,
-                   k: int, descent: DescentGeometry) -> Plan:
-    """Plan of row k of a solved batch."""
+                   k: int, descent: DescentGeometry, t: int) -> Plan:
+    """Plan of row k of a solved batch, its track row t of ``trk``."""
     base = dict(shape=shape, side=side, bank_deg=inputs.bank_deg, tas_kt=inputs.tas_kt, inputs=inputs,
                 descent_point_m=descent.descent_point_m)
     flags = int(sol.reasons[k])
@@ -464,7 +463,7 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
     legs = _public_legs(sol, k, inputs)
     start = State(x_m=inputs.arrival_x_m, y_m=inputs.arrival_y_m,
                   heading_deg=math.degrees(float(sol.legs[0].psi0[k])), time_s=0.0)
-    xy, hdg, tim = trk.xy[k], trk.heading[k], trk.time[k]
+    xy, hdg, tim = trk.xy[t], trk.heading[t], trk.time[t]
     times = tuple(float(lg.duration[k]) for lg in sol.legs)
     names = tuple(lg.name for lg in sol.legs)
     roll_out_d = float(sol.roll_out_d[k])

@@ -842,44 +842,79 @@ def _cat_rows(arrays: list[FloatArray], rows: Sequence[npt.NDArray[np.int_] | No
 _TURN_PROF = ("angle", "tas", "tr", "tc", "dp", "wp", "c", "total")
 _TURN_LEG = ("x0", "y0", "psi0", "sign", "nominal_rows")
 _STRAIGHT = ("duration", "x0", "y0", "psi0", "gx", "gy")
+_T_ANGLE, _T_DP, _T_TOTAL, _T_NOMINAL = 0, 4, 7, 12          # rows of a turn's fields (_leg_columns' order)
+_TURN_GATHER = (0, 1, 2, 3, 4, 5, 6, 10, 11, 8, 9)           # _Turns' order: profile, psi0, sign, x0, y0
 
 
-def _leg_columns(lg: LegArrays) -> list[FloatArray]:
-    """The arrays of a leg that sampling reads, in :func:`_legs_from_columns`' order."""
+def _leg_columns(lg: LegArrays) -> list[FloatArray | float]:
+    """The arrays of a leg that sampling reads, in :class:`SamplingRows`' order (a turn with no
+    per-row calm-wind angle: its one angle)."""
     if lg.kind == "straight":
         return [getattr(lg, f) for f in _STRAIGHT]
-    return [getattr(lg.prof, f) for f in _TURN_PROF] + [getattr(lg, f) for f in _TURN_LEG]
+    return ([getattr(lg.prof, f) for f in _TURN_PROF] + [lg.x0, lg.y0, lg.psi0, lg.sign]
+            + [lg.nominal_rad if lg.nominal_rows is None else lg.nominal_rows])
 
 
-def _legs_from_columns(like: list[LegArrays], cols: FloatArray, nominal_rad: list[float] | None) -> list[LegArrays]:
-    """Legs like ``like`` (kinds, names, ramp constants) from the rows of ``cols`` (F, M), one
-    array per field as :func:`_leg_columns` lists them; each turn's calm-wind angle the given one
-    (None: the largest of its rows)."""
-    out, j = [], 0
-    for i, a in enumerate(like):
-        if a.kind == "straight":
-            d, x0, y0, psi0, gx, gy = cols[j:j + 6]
-            out.append(LegArrays(kind="straight", name=a.name, duration=d, x0=x0, y0=y0, psi0=psi0, gx=gx, gy=gy))
-            j += 6
-            continue
-        angle, tas, tr, tc, dp, wp, c, total, x0, y0, psi0, sign, nominal = cols[j:j + 13]
-        j += 13
-        prof = TurnProfile(angle=angle, tas=tas, tr=tr, tc=tc, dp=dp, wp=wp, c=c, k=a.prof.k,  # type: ignore[union-attr]
-                           total=total)
-        out.append(LegArrays(kind="turn", name=a.name, duration=total, x0=x0, y0=y0, psi0=psi0, prof=prof, sign=sign,
-                             nominal_rad=(nominal_rad[i] if nominal_rad is not None
-                                          else float(np.max(nominal, initial=0.0))), nominal_rows=nominal))
-    return out
+def _full(fields: list, shp: tuple[int, ...]) -> list:
+    """The fields as they are when each is an array of the solution's shape, else broadcast to it."""
+    if all(type(c) is np.ndarray and c.shape == shp for c in fields):
+        return fields
+    return [np.broadcast_to(c, shp) for c in fields]
+
+
+class SamplingRows:
+    """What :func:`sample_solution` reads of a solution (or of several merged), structure of
+    arrays: every field of every leg, then the wind (wx, wy), as the rows of one (F, M) array
+    ``cols`` over the M tracks (a straight: duration, x0, y0, psi0, gx, gy; a turn: angle, tas,
+    tr, tc, dp, wp, c, total, x0, y0, psi0, sign and its per-row calm-wind angle). ``at``: each
+    leg's first row; ``nominal_rad``: each turn's calm-wind angle (0 for a straight; None: the
+    largest of its rows); ``shape``: the solution's own broadcast shape (the tracks' order)."""
+
+    __slots__ = ("ok", "cols", "kinds", "names", "k", "nominal_rad", "at", "shape")
+
+    def __init__(self, ok: npt.NDArray[np.bool_], cols: FloatArray, like: Sequence[LegArrays],
+                 nominal_rad: list[float] | None, shape: tuple[int, ...] | None = None) -> None:
+        self.ok, self.cols = ok, cols
+        self.shape = ok.shape if shape is None else shape
+        self.kinds = [lg.kind for lg in like]
+        self.names = [lg.name for lg in like]
+        self.k = [0.0 if lg.prof is None else lg.prof.k for lg in like]
+        self.at = [0]
+        for kind in self.kinds:
+            self.at.append(self.at[-1] + (6 if kind == "straight" else 13))
+        if nominal_rad is None:     # the largest calm-wind angle of each turn's rows, every turn in one call
+            nominal_rad = [0.0] * len(like)
+            turns = [i for i, kind in enumerate(self.kinds) if kind == "turn"]
+            if turns:
+                big = cols[[self.at[i] + _T_NOMINAL for i in turns]].max(axis=1, initial=0.0).tolist()
+                for i, v in zip(turns, big):
+                    nominal_rad[i] = v
+        self.nominal_rad = nominal_rad
+
+
+def sampling_rows(sol: ShapeSolution, rows: Rows | None = None) -> SamplingRows:
+    """The fields of ``sol`` that sampling reads as :class:`SamplingRows` (one copy of them all),
+    of the rows ``rows`` of a solution over one axis (None: every track, in the solution's
+    shape; a turn's calm-wind angle then is the solution's own, else the largest of the rows',
+    as :func:`take_rows` makes it)."""
+    shp = sol.ok.shape
+    fields = _full([c for lg in sol.legs for c in _leg_columns(lg)] + [sol.wx, sol.wy], shp)
+    cols = np.array(fields)
+    if rows is None:
+        return SamplingRows(sol.ok.reshape(-1), cols.reshape(len(fields), -1), sol.legs,
+                            [lg.nominal_rad for lg in sol.legs], shp)
+    ok = sol.ok[rows]
+    return SamplingRows(ok, cols[:, rows], sol.legs, None if ok.size else [lg.nominal_rad for lg in sol.legs])
 
 
 def merge_for_sampling(sols: list[ShapeSolution], rows: Sequence[npt.NDArray[np.int_] | None] | None = None
-                       ) -> ShapeSolution | None:
+                       ) -> SamplingRows | None:
     """Solutions of several shapes (rows of one axis) as one, to be sampled in one call
     (:func:`sample_solution` with ``pad_rows``): their legs matched kind by kind, a shape with
     one leg fewer than the longest given a turn of no angle at its start (samples that repeat
     its arrival point: the same track points, one more time). None when the legs do not match,
-    or the roll ramps differ. Only the fields sampling reads are meaningful. ``rows``: per
-    solution, the rows taken (None: all), as :func:`take_rows` would, only the fields read.
+    or the roll ramps differ. ``rows``: per solution, the rows taken (None: all), as
+    :func:`take_rows` would; the solutions' rows end to end.
     """
     rows = [None] * len(sols) if rows is None else list(rows)
     n = max(len(sol.legs) for sol in sols)
@@ -899,21 +934,15 @@ def merge_for_sampling(sols: list[ShapeSolution], rows: Sequence[npt.NDArray[np.
         if len(kinds) > 1 or len(finals) > 1 or len(ks) > 1:
             return None
     ok = _cat_rows([sol.ok for sol in sols], rows)
-    first = sols[0]
     # every field read, of every leg of a solution, as the rows of one array; the solutions' rows end to end
     parts = []
     for lgs, sol, r in zip(legs, sols, rows):
-        fields = [c for lg in lgs for c in _leg_columns(lg)] + [sol.wx, sol.wy]
+        fields = _full([c for lg in lgs for c in _leg_columns(lg)] + [sol.wx, sol.wy], sol.ok.shape)
         parts.append(np.array(fields if r is None else [c[r] for c in fields]))
     cols = parts[0] if len(parts) == 1 else np.concatenate(parts, axis=1)
     whole = all(r is None for r in rows)
     nominal = [max(lg[i].nominal_rad for lg in legs) for i in range(n)] if whole else None
-    return ShapeSolution(shape=first.shape, ok=ok, reasons=_cat_rows([sol.reasons for sol in sols], rows),
-                         legs=tuple(_legs_from_columns(list(legs[0]), cols, nominal)), x_ri=first.x_ri,
-                         y_ri=first.y_ri, offset=first.offset, roll_out_d=first.roll_out_d, abeam_s=None, break_s=None,
-                         psi_f=first.psi_f, gs_f=first.gs_f, psi_d=first.psi_d, gs_d=first.gs_d,
-                         final_turn=first.final_turn, turns_to_final=first.turns_to_final,
-                         wx=cols[-2], wy=cols[-1])
+    return SamplingRows(ok, cols, legs[0], nominal)
 
 
 def leg_end_distance_m(sol: ShapeSolution, runway_length_m: float) -> FloatArray:
@@ -979,93 +1008,73 @@ class SolutionTrack:
     leg_index: npt.NDArray[np.int_]
 
 
-def _amax(a: FloatArray) -> float:
-    return float(a) if a.ndim == 0 else float(a.max(initial=0.0))
-
-
-def _arc_count(lg: LegArrays, turn_step_deg: float, actual: bool, ok: npt.NDArray[np.bool_]) -> int:
-    nominal = lg.nominal_rad
-    if actual and lg.prof is not None:
-        nominal = max(nominal, _amax(np.where(ok, lg.prof.angle - 2.0 * lg.prof.dp, 0.0)))
-    return turn_sample_count(nominal, turn_step_deg)
-
-
-def _leg_counts(sol: ShapeSolution, turn_step_deg: float, n_straight: int, straight_step_m: float | None,
-                by_row: list[npt.NDArray[np.int_] | None] | None = None) -> list[int]:
-    """Samples of each leg (the most of any row); with ``by_row`` (a list, filled here), also
-    each turn's arc samples per row (None where every row has the same)."""
-    ramps = bool(sol.legs) and any(lg.prof is not None and lg.prof.k > 0.0 for lg in sol.legs)
-    out = []
-    turn_rows: list[npt.NDArray[np.int_]] = []
-    if by_row is not None:      # turn_sample_count of each row's own calm-wind angle, every turn in one pass
-        nominal = [lg.nominal_rows for lg in sol.legs if lg.kind == "turn" and lg.nominal_rows is not None]
-        if nominal:
-            turn_rows = list(np.maximum(3, np.ceil(np.degrees(np.array(nominal)) / turn_step_deg - 1e-9)
-                                        .astype(np.int64) + 1))
-    for lg in sol.legs:
-        if by_row is not None:
-            rows = turn_rows.pop(0) if lg.kind == "turn" and lg.nominal_rows is not None else None
-            na = None if rows is None or rows.size == 0 else int(rows.max())
-            by_row.append(None if na is None or bool((rows == na).all()) else rows)
-            if na is not None:
-                out.append(na + (2 * N_RAMP if ramps else 0))
-                continue
-        if lg.kind == "turn":
-            out.append(_arc_count(lg, turn_step_deg, straight_step_m is not None, sol.ok)
-                       + (2 * N_RAMP if ramps else 0))
-        elif lg.name == "final":
-            out.append(2)             # the centreline from the roll-out to the threshold: its two ends
-        elif straight_step_m is None:
-            out.append(n_straight)
-        else:
-            assert lg.gx is not None and lg.gy is not None
-            length = _amax(np.where(sol.ok, np.hypot(lg.gx, lg.gy) * lg.duration, 0.0))
-            out.append(max(n_straight, int(math.ceil(length / straight_step_m)) + 1))
-    return out
-
-
-def _stacked(values: list, shp: tuple[int, ...]) -> FloatArray:
-    """Per-turn arrays stacked on a new leading axis (T,) + shp (each broadcast to shp as it is)."""
-    return np.array(values if all(getattr(x, "shape", ()) == shp for x in values)
-                    else [np.broadcast_to(x, shp) for x in values])
+def _row_counts(sr: SamplingRows, turn_step_deg: float, n_straight: int, straight_step_m: float | None,
+                pad_rows: bool) -> tuple[list[int], npt.NDArray[np.int_] | None]:
+    """Samples of each leg (the most of any row) and, with ``pad_rows``, each turn's arc samples
+    per row (T, M) (each row's own calm-wind angle); every turn, and every straight, in one pass."""
+    cols, ok, at = sr.cols, sr.ok, sr.at
+    extra = 2 * N_RAMP if any(k > 0.0 for k in sr.k) else 0
+    turns = [i for i, kind in enumerate(sr.kinds) if kind == "turn"]
+    counts = [2] * len(sr.kinds)           # the final: the centreline from the roll-out to the threshold, its two ends
+    per_row = None
+    m = ok.shape[0]
+    if turns and pad_rows and m:           # turn_sample_count of each row's own calm-wind angle
+        per_row = np.maximum(3, np.ceil(np.degrees(cols[[at[i] + _T_NOMINAL for i in turns]]) / turn_step_deg - 1e-9)
+                             .astype(np.int64) + 1)
+        arcs = per_row.max(axis=1).tolist()
+    elif turns:
+        nominal = [sr.nominal_rad[i] for i in turns]
+        if straight_step_m is not None and m:      # a plan's track: the larger of the calm and the actual angle
+            arc = cols[[at[i] + _T_ANGLE for i in turns]] - 2.0 * cols[[at[i] + _T_DP for i in turns]]
+            actual = np.where(ok, arc, 0.0).max(axis=1, initial=0.0).tolist()
+            nominal = [max(a, b) for a, b in zip(nominal, actual)]
+        arcs = [turn_sample_count(a, turn_step_deg) for a in nominal]
+    for i, n in zip(turns, arcs if turns else ()):
+        counts[i] = n + extra
+    inner = [i for i, kind in enumerate(sr.kinds) if kind == "straight" and sr.names[i] != "final"]
+    if straight_step_m is None:
+        for i in inner:
+            counts[i] = n_straight
+    elif inner:      # one point per straight_step_m of the longest ok row
+        g = cols[[[at[i] + f for i in inner] for f in (0, 4, 5)]]           # duration, gx, gy
+        length = np.where(ok, np.hypot(g[1], g[2]) * g[0], 0.0).max(axis=1, initial=0.0).tolist()
+        for i, d in zip(inner, length):
+            counts[i] = max(n_straight, int(math.ceil(d / straight_step_m)) + 1)
+    return counts, per_row
 
 
 class _Turns:
-    """Every turn of a solution stacked on axis 1, as arrays (1, T, *shp) (samples on axis 0, so
-    that a sample of every turn is one contiguous block, as a sample of one turn was): profile
-    fields, entry heading and point, sign, start time; ``den`` each row's arc steps (its own
-    sample count - 1), ``fa`` (na, T, *shp) the fractions of the arc at the samples (k / den up
-    to a row's own count, then 1), ``pad`` True past a row's own count."""
+    """Every turn of a group stacked on axis 1, as arrays (1, T, M) (samples on axis 0, so that a
+    sample of every turn is one contiguous block, as a sample of one turn was): profile fields,
+    entry heading and point, sign, start time; ``den`` each row's arc steps (its own sample
+    count - 1), ``fa`` (na, T, M) the fractions of the arc at the samples (k / den up to a row's
+    own count, then 1), ``pad`` True past a row's own count."""
 
     __slots__ = ("angle", "tas", "tr", "tc", "dp", "wp", "c", "k", "psi0", "sign", "p0", "t0", "den", "fa", "pad",
                  "na")
 
-    def __init__(self, legs: list[LegArrays], t0: list[FloatArray], na: list[int],
-                 rows: list[npt.NDArray[np.int_] | None], shp: tuple[int, ...]) -> None:
-        profs = [lg.prof for lg in legs]
-        assert all(pr is not None for pr in profs)
-        names = ("angle", "tas", "tr", "tc", "dp", "wp", "c")
-        values = [getattr(pr, f) for f in names for pr in profs] + [getattr(lg, f) for f in ("psi0", "sign", "x0", "y0")
-                                                                      for lg in legs] + list(t0)
-        every = _stacked(values, shp).reshape((len(names) + 5, 1, len(legs)) + shp)    # one copy of them all
-        for i, f in enumerate(names):
-            setattr(self, f, every[i])
-        self.k = profs[0].k  # type: ignore[union-attr]
-        self.psi0, self.sign, self.t0 = every[7], every[8], every[11]
+    def __init__(self, sr: SamplingRows, grp: list[int], t0: FloatArray | None, na: list[int],
+                 den: npt.NDArray[np.int_] | None) -> None:
+        every = sr.cols[[[sr.at[i] + f for i in grp] for f in _TURN_GATHER]][:, None]   # one copy of them all
+        self.angle, self.tas, self.tr, self.tc, self.dp, self.wp, self.c, self.psi0, self.sign = every[:9]
+        self.k = sr.k[grp[0]]
         self.p0 = every[9] + 1j * every[10]
+        self.t0 = t0
         self.na = max(na)
-        self.den = _stacked([n - 1 if r is None else r - 1 for n, r in zip(na, rows)], shp)[None]
-        k = np.arange(self.na).reshape((self.na, 1) + (1,) * len(shp))
+        m = sr.ok.shape[0]
+        self.den = (np.broadcast_to(np.array([n - 1 for n in na])[:, None], (len(grp), m)) if den is None
+                    else den)[None]
+        k = np.arange(self.na).reshape((self.na, 1, 1))
         self.fa = np.minimum(k, self.den) / self.den       # k / (n - 1) up to the row's n, then 1
         self.pad = k > self.den
 
 
-def _turn_ramps(tn: _Turns, nr: int, shp: tuple[int, ...]) -> tuple:
+def _turn_ramps(tn: _Turns, nr: int) -> tuple:
     """The roll-in and roll-out ramps of every turn, in one quadrature call: sample fractions
-    (nr, 1, ...), roll-in times and air path (nr, T, ...), the full ramp's Q(tr) (1, T, ...), the
-    roll-out samples' air path (nr, T, ...) and exp(i A) (1, T, ...)."""
+    (nr, 1, 1), roll-in times and air path (nr, T, M), the full ramp's Q(tr) (1, T, M), the
+    roll-out samples' air path (nr, T, M) and exp(i A) (1, T, M)."""
     tr = tn.tr[0]
-    fr = (np.arange(nr) / nr).reshape((nr, 1) + (1,) * len(shp))
+    fr = (np.arange(nr) / nr).reshape((nr, 1, 1))
     tau_in = tr * fr
     tau_out = tr * (1.0 - fr - 1.0 / nr)                     # tau3 = tr (nr-1-j)/nr
     q_all = ramp_q(np.concatenate([tau_in, tr[None] + 0.0 * tau_in[:1], tau_out], axis=0), tn.c[0], tn.tas[0],
@@ -1086,14 +1095,14 @@ def _running_arc(a: npt.NDArray[np.complex128], first: npt.NDArray[np.complex128
 
 
 def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_heading: bool,
-                  shp: tuple[int, ...], blk: npt.NDArray[np.complex128] | None = None
+                  blk: npt.NDArray[np.complex128] | None = None
                   ) -> tuple[npt.NDArray[np.complex128], FloatArray | None, FloatArray | None]:
-    """Positions (2 nr + na, T, *shp) of every turn's samples -- the roll-in ramp (``nr`` points),
+    """Positions (2 nr + na, T, M) of every turn's samples -- the roll-in ramp (``nr`` points),
     the arc (``na``, a turn with fewer repeating its end), the roll-out ramp -- into ``blk``
     (contiguous; None: a new array), with headings and times (None without ``with_heading``)."""
     na = tn.na
     if blk is None:
-        blk = np.empty((2 * nr + na, tn.angle.shape[1]) + shp, dtype=np.complex128)
+        blk = np.empty((2 * nr + na,) + tn.angle.shape[1:], dtype=np.complex128)
     a_seg = blk[nr:nr + na]
     arc = tn.angle - 2.0 * tn.dp
     if not nr and many:     # instant bank, many tracks: p_k = C - i s r exp(i psi_k) + w t_k, C = p0 + i s r exp(i psi0)
@@ -1104,7 +1113,7 @@ def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_hea
         t_all, ramps = tn.tr + tn.tc * tn.fa, None
     else:
         r = tn.tas / np.maximum(tn.wp, 1e-12)
-        ramps = _turn_ramps(tn, nr, shp) if nr else None
+        ramps = _turn_ramps(tn, nr) if nr else None
         q_tr = ramps[3] if ramps is not None else np.zeros(tn.angle.shape, dtype=np.complex128)
         # the arc in the right-turn frame from heading 0: -i r (exp(i h) - exp(i dp)) + Q(tr)
         if not many:                                   # a few tracks: direct exponentials
@@ -1140,36 +1149,53 @@ def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_hea
     return blk, tn.psi0 + tn.sign * h, tn.t0 + t_all
 
 
-def _place_turns(out: npt.NDArray[np.complex128], hdg: FloatArray | None, tim: FloatArray | None,
-                 legs: tuple[LegArrays, ...], grp: list[int], t0: list[FloatArray], counts: list[int],
-                 starts: list[int], by_row: list | None, nr: int, many: bool, wind: npt.ArrayLike,
-                 shp: tuple[int, ...]) -> None:
-    """Sample the turns ``grp`` (leg indices) in one block and put each into its place in ``out``
-    (and ``hdg``, ``tim``); one turn is sampled in place."""
+def _turns_in_place(out: npt.NDArray[np.complex128], hdg: FloatArray | None, tim: FloatArray | None,
+                    sr: SamplingRows, i: int, t0: FloatArray | None, counts: list[int], starts: list[int],
+                    den: npt.NDArray[np.int_] | None, nr: int, many: bool, wind: npt.ArrayLike) -> None:
+    """Sample turn ``i`` (a leg index) in place in ``out`` (and ``hdg``, ``tim``)."""
+    tn = _Turns(sr, [i], t0, [counts[i] - 2 * nr], den)
+    j, n = starts[i], counts[i]
+    blocks = _sample_turns(tn, nr, many, wind, hdg is not None, out[j:j + n][:, None])
+    for dst, blk in zip((hdg, tim), blocks[1:]):
+        if dst is not None:
+            dst[j:j + n] = blk[:, 0]
+
+
+def _turn_pieces(parts: list[list], sr: SamplingRows, grp: list[int], t0: FloatArray | None, counts: list[int],
+                 den: npt.NDArray[np.int_] | None, nr: int, many: bool, wind: npt.ArrayLike,
+                 with_heading: bool) -> None:
+    """Sample the turns ``grp`` (leg indices) in one block; each turn's (positions, headings,
+    times) pieces into ``parts`` (a turn with fewer arc samples: its arc's own, then its ramp)."""
     na = [counts[i] - 2 * nr for i in grp]
-    tn = _Turns([legs[i] for i in grp], t0, na, [None if by_row is None else by_row[i] for i in grp], shp)
-    one = len(grp) == 1
-    blk = out[starts[grp[0]]:starts[grp[0]] + counts[grp[0]]][:, None] if one else None
-    blocks = _sample_turns(tn, nr, many, wind, hdg is not None, shp, blk)
-    for dst, blk in zip((out, hdg, tim), blocks):
-        if dst is None or (one and dst is out):
-            continue
-        for b, (i, n_arc) in enumerate(zip(grp, na)):
-            j = starts[i]
-            if n_arc == tn.na:
-                dst[j:j + counts[i]] = blk[:, b]
-            else:      # the arc's own samples, then the roll-out ramp's
-                dst[j:j + nr + n_arc] = blk[:nr + n_arc, b]
-                dst[j + nr + n_arc:j + counts[i]] = blk[nr + tn.na:, b]
+    tn = _Turns(sr, grp, t0, na, den)
+    blocks = _sample_turns(tn, nr, many, wind, with_heading)
+    for b, (i, n_arc) in enumerate(zip(grp, na)):
+        cuts = (slice(None),) if n_arc == tn.na else (slice(0, nr + n_arc), slice(nr + tn.na, None))
+        parts[i] = [tuple(None if blk is None else blk[c, b] for blk in blocks) for c in cuts]
 
 
-def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int, straight_step_m: float | None = None,
-                    with_heading: bool = False, running_product: bool | None = None,
-                    pad_rows: bool = False) -> SolutionTrack:
+def _straights(sr: SamplingRows, legs: list[int], counts: list[int], t_start: FloatArray | None
+               ) -> tuple[FloatArray, ...]:
+    """The straights ``legs`` (leg indices), ``counts`` points each at equal steps, both ends
+    included: positions (S, n, M) for n up to the most of any (a straight's own count first),
+    headings and times (None without ``t_start``, each leg's start time (L, M))."""
+    d, x0, y0, psi0, gx, gy = sr.cols[[[sr.at[i] + f for i in legs] for f in range(6)]][:, :, None]   # (S, 1, M)
+    n = max(counts[i] for i in legs)
+    f = (np.arange(n) / np.array([[counts[i] - 1] for i in legs]))[..., None]   # k / (n - 1), as np.arange(n) / (n - 1)
+    xy = (x0 + 1j * y0) + ((gx + 1j * gy) * d) * f
+    if t_start is None:
+        return xy, None, None
+    return xy, np.broadcast_to(psi0, xy.shape), t_start[legs][:, None] + d * f
+
+
+def sample_solution(sol: ShapeSolution | SamplingRows, *, turn_step_deg: float, n_straight: int,
+                    straight_step_m: float | None = None, with_heading: bool = False,
+                    running_product: bool | None = None, pad_rows: bool = False) -> SolutionTrack:
     """Sample every leg of a solved shape (vectorised): tracks of shape (..., N, 2).
 
-    Each straight gets ``n_straight`` points (the final, on the centreline, only its two
-    ends), each turn :func:`turn_sample_count` points on its
+    ``sol``: a solution, or the fields sampling reads (:func:`sampling_rows`,
+    :func:`merge_for_sampling`). Each straight gets ``n_straight`` points (the final, on the
+    centreline, only its two ends), each turn :func:`turn_sample_count` points on its
     constant-bank arc (from its calm-wind angle, so the count does not depend on the wind)
     plus, with roll ramps, ``N_RAMP`` points at equal times in each ramp. Both ends of every
     leg are included (joins appear twice); rows that are not ok hold garbage. With
@@ -1190,48 +1216,60 @@ def sample_solution(sol: ShapeSolution, *, turn_step_deg: float, n_straight: int
     k eps). The air arc from heading h0 is -i r (exp(i h) - exp(i h0)) in a right-turn frame;
     the ramps use the roll-in integral Q(tau) = C + i S and the roll-out its mirror
     exp(i A) conj(Q); a left turn is the complex conjugate; the wind adds (wx + i wy) t.
-    Steps: :func:`_sample_arc_instant` (instant bank, many tracks), :func:`_sample_turn` (the
-    general turn), straights in place; :func:`_turn_headings` when headings are asked for.
+    Few tracks: every straight in one gather and every turn in one block (the calls are the
+    cost); many: leg by leg in place (the arithmetic is: no padding to the longest arc).
     """
     if pad_rows and straight_step_m is not None:
         raise DomainError("pad_rows samples a batch: turns by their calm-wind angle only (no straight_step_m)")
-    by_row: list[npt.NDArray[np.int_] | None] | None = [] if pad_rows else None
-    counts = _leg_counts(sol, turn_step_deg, n_straight, straight_step_m, by_row)
-    ramps = bool(sol.legs) and any(lg.prof is not None and lg.prof.k > 0.0 for lg in sol.legs)
-    nr = N_RAMP if ramps else 0                  # _leg_counts added 2 N_RAMP ramp samples per turn
-    shp = sol.ok.shape
-    nt = sum(counts)
-    out = np.empty((nt,) + shp, dtype=np.complex128)
-    hdg = np.empty((nt,) + shp) if with_heading else None
-    tim = np.empty((nt,) + shp) if with_heading else None
-    wind = sol.wx + 1j * sol.wy
-    lead = (1,) * len(shp)
-    many = math.prod(shp) >= _RUNNING_PRODUCT_MIN_CELLS if running_product is None else running_product
-    starts = np.cumsum([0] + counts[:-1]).tolist()
-    t_start = np.zeros(shp)
-    turns, t0 = [], []
+    sr = sol if isinstance(sol, SamplingRows) else sampling_rows(sol)
+    counts, per_row = _row_counts(sr, turn_step_deg, n_straight, straight_step_m, pad_rows)
+    nr = N_RAMP if any(k > 0.0 for k in sr.k) else 0     # _row_counts added 2 N_RAMP ramp samples per turn
+    m, nt, cols = sr.ok.shape[0], sum(counts), sr.cols
+    wind = cols[-2] + 1j * cols[-1]
+    many = m >= _RUNNING_PRODUCT_MIN_CELLS if running_product is None else running_product
+    starts = [0]
+    for n in counts[:-1]:
+        starts.append(starts[-1] + n)
+    turns = [i for i, kind in enumerate(sr.kinds) if kind == "turn"]
+    straights = [i for i, kind in enumerate(sr.kinds) if kind != "turn"]
+    t_start = None
+    if with_heading:        # each leg's start time: the durations before it added in order
+        t_start = np.zeros((len(counts) + 1, m))
+        t_start[1:] = cols[[sr.at[i] + (_T_TOTAL if kind == "turn" else 0) for i, kind in enumerate(sr.kinds)]]
+        t_start = np.cumsum(t_start, axis=0)
     with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
-        for i, (leg, n, j) in enumerate(zip(sol.legs, counts, starts)):
-            if leg.kind == "turn":
-                turns.append(i)
-                t0.append(t_start)
-            else:
-                assert leg.gx is not None and leg.gy is not None
-                f = (np.arange(n) / (n - 1)).reshape((n,) + lead)
-                out[j:j + n] = (leg.x0 + 1j * leg.y0) + ((leg.gx + 1j * leg.gy) * leg.duration) * f
-                if hdg is not None and tim is not None:
-                    hdg[j:j + n] = leg.psi0
-                    tim[j:j + n] = t_start + leg.duration * f
-            t_start = t_start + leg.duration
-        # a few tracks: every turn in one block (the calls are the cost); many: turn by turn
-        # (the arithmetic is: no padding to the longest arc, positions written in place)
-        for grp in ([turns] if math.prod(shp) < _BLOCK_MAX_CELLS else [[i] for i in turns]) if turns else ():
-            _place_turns(out, hdg, tim, sol.legs, grp, [t0[turns.index(i)] for i in grp], counts, starts,
-                         by_row, nr, many, wind, shp)
-    order = tuple(range(1, len(shp) + 1)) + (0,)      # the sample axis last (np.moveaxis(a, 0, -1))
-    last = (lambda a: a) if not shp else (lambda a: a.transpose(order))  # noqa: E731
-    xy = np.ascontiguousarray(last(out)).view(np.float64).reshape(shp + (nt, 2))
+        if m < _BLOCK_MAX_CELLS:     # few tracks: every straight, and every turn, in one block; pieces joined
+            parts: list[list] = [[] for _ in counts]
+            if straights:
+                blocks = _straights(sr, straights, counts, t_start)
+                for s, i in enumerate(straights):
+                    parts[i] = [tuple(None if blk is None else blk[s, :counts[i]] for blk in blocks)]
+            if turns:
+                _turn_pieces(parts, sr, turns, None if t_start is None else t_start[turns][None], counts,
+                             None if per_row is None else per_row - 1, nr, many, wind, with_heading)
+            pieces = [p for part in parts for p in part]
+            out = np.concatenate([p[0] for p in pieces]) if pieces else np.empty((0, m), dtype=np.complex128)
+            hdg = np.concatenate([p[1] for p in pieces]) if with_heading and pieces else None
+            tim = np.concatenate([p[2] for p in pieces]) if with_heading and pieces else None
+        else:                        # many: leg by leg, in place
+            out = np.empty((nt, m), dtype=np.complex128)
+            hdg = np.empty((nt, m)) if with_heading else None
+            tim = np.empty((nt, m)) if with_heading else None
+            if straights:
+                for s, i in enumerate(straights):
+                    blocks = _straights(sr, [i], counts, t_start)
+                    for dst, blk in zip((out, hdg, tim), blocks):
+                        if dst is not None:
+                            dst[starts[i]:starts[i] + counts[i]] = blk[0]
+            for q, i in enumerate(turns):
+                _turns_in_place(out, hdg, tim, sr, i, None if t_start is None else t_start[[i]][None], counts, starts,
+                                None if per_row is None else per_row[[q]] - 1, nr, many, wind)
+    shp = sr.shape
+    xy = np.ascontiguousarray(out.T).view(np.float64).reshape(shp + (nt, 2))
     leg_index = np.repeat(np.arange(len(counts)), counts)
     if hdg is None or tim is None:
         return SolutionTrack(xy=xy, heading=None, time=None, leg_index=leg_index)
-    return SolutionTrack(xy=xy, heading=last(hdg), time=last(tim), leg_index=leg_index)
+    heading, time = hdg.T, tim.T
+    if len(shp) != 1:
+        heading, time = heading.reshape(shp + (nt,)), time.reshape(shp + (nt,))
+    return SolutionTrack(xy=xy, heading=heading, time=time, leg_index=leg_index)

@@ -1,0 +1,86 @@
+"""The sampler's two layouts and its column form against the plain ones, to the last bit.
+
+``sample_solution`` builds few tracks (under 64) in one block per leg kind, pieces joined in leg
+order, and many tracks leg by leg in place; it reads a solution as one (F, M) array of the
+fields it needs (``sampling_rows``), also of some rows only (the brief's plans from the
+judgement's batch) instead of a solution with those rows taken out (``take_rows``). Each way
+must give the same points, headings and times: the brief's plans and the envelope read them.
+The geometry is the solver's own (tests/test_batch_cells.py checks it against cells solved alone).
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+
+from briefer.core.manoeuvre.solver import (
+    CircleInputs,
+    applicable_candidates,
+    sample_solution,
+    sampling_rows,
+    solve_inputs_shapes,
+    take_rows,
+)
+from briefer.core.manoeuvre.legs import runway_wind_from
+from briefer.units import KT_TO_MPS
+
+
+def _inputs(**kw) -> CircleInputs:
+    base = dict(tas_kt=120.0, bank_deg=25.0, wind=runway_wind_from(0.0, 0.0), arrival_x_m=4000.0, arrival_y_m=0.0,
+                arrival_course_deg=178.0, circling_height_ft=600.0, runway_length_m=2500.0, roll_rate_deg_per_s=10.0)
+    base.update(kw)
+    return CircleInputs(**base)
+
+
+SCENARIOS = [_inputs(), _inputs(arrival_course_deg=183.0, roll_rate_deg_per_s=None),
+             _inputs(arrival_course_deg=0.0, arrival_x_m=-4000.0), _inputs(arrival_course_deg=60.0, arrival_x_m=-3000.0,
+                                                                        arrival_y_m=-2500.0)]
+
+
+def _solutions(inp: CircleInputs, m: int):
+    """Every applicable shape on m rows: winds every few degrees at 0-30 kt, both sides, two banks."""
+    i = np.arange(m)
+    deg, kt = np.radians(i * 37.0 % 360.0), (i % 4) * 10.0
+    shapes = sorted({s for s, _ in applicable_candidates(inp.arrival_course_deg)})
+    return shapes, solve_inputs_shapes(inp, shapes, sigma=np.where(i % 2, 1.0, -1.0), wx_mps=kt * KT_TO_MPS * np.cos(deg),
+                                       wy_mps=kt * KT_TO_MPS * np.sin(deg), bank_deg=np.where(i % 3, 25.0, 30.0))
+
+
+def _same(a, b):
+    for f in ("xy", "heading", "time", "leg_index"):
+        x, y = getattr(a, f), getattr(b, f)
+        assert (x is None) == (y is None), f
+        if x is not None:
+            assert x.shape == y.shape and np.array_equal(np.ascontiguousarray(x).view(np.uint8),
+                                                         np.ascontiguousarray(y).view(np.uint8)), f
+
+
+@pytest.mark.parametrize("inp", SCENARIOS)
+def test_many_tracks_in_place_are_the_tracks_sampled_a_few_at_a_time(inp):
+    """Rows sampled in one call of 80 (leg by leg in place) = the same rows 8 at a time (one
+    block per leg kind): every bit of points, headings and times (running product fixed)."""
+    _, sols = _solutions(inp, 80)
+    for sol in sols:
+        for kw in (dict(pad_rows=True), dict(with_heading=True)):
+            whole = sample_solution(sol, turn_step_deg=7.5, n_straight=5, running_product=True, **kw)
+            for r in range(0, 80, 8):
+                part = sample_solution(take_rows(sol, slice(r, r + 8)), turn_step_deg=7.5, n_straight=5,
+                                       running_product=True, **kw)
+                if kw.get("pad_rows"):      # counts of the rows' own calm-wind angles: the whole call pads to its most
+                    assert part.xy.shape[1] <= whole.xy.shape[1]
+                    continue
+                _same(part, type(part)(xy=whole.xy[r:r + 8], heading=whole.heading[r:r + 8],
+                                       time=whole.time[r:r + 8], leg_index=whole.leg_index))
+
+
+@pytest.mark.parametrize("inp", SCENARIOS)
+def test_rows_read_in_place_are_the_rows_taken_out(inp):
+    """A plan's dense track from the batch's rows read in place (sampling_rows) = from those
+    rows taken out of the solution (take_rows), slices and index arrays alike."""
+    _, sols = _solutions(inp, 16)
+    for sol in sols:
+        for rows in (slice(2, None, 8), np.array([5, 1]), slice(0, 16)):
+            kw = dict(turn_step_deg=2.0, n_straight=2, straight_step_m=100.0, with_heading=True)
+            _same(sample_solution(sampling_rows(sol, rows), **kw), sample_solution(take_rows(sol, rows), **kw))
