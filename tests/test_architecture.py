@@ -68,6 +68,16 @@ def test_the_brief_and_the_envelope_import_no_numpy_typing():
     assert "numpy" in mods and "numpy.typing" not in mods
 
 
+def test_the_app_draws_its_first_frame_without_the_model():
+    """The app's modules (what `briefer app` imports to draw its first frame) import no
+    briefer.model: the model, about 30 M instructions of start-up with its dataclasses, loads with
+    the catalog after the first frame (the briefing fields read the model's ranges when a value
+    is first read)."""
+    mods = _modules_after("import briefer.commands.app, briefer.tui.app")
+    assert "briefer.tui.briefing_screen" in mods
+    assert "briefer.model" not in mods and "numpy" not in mods
+
+
 def test_every_help_imports_no_numpy():
     """`briefer --help` and `briefer <command> --help` print without loading numpy (one process,
     commands in turn: the first one that loads numpy is named)."""

@@ -69,6 +69,28 @@ def test_label_rows_lay_out_as_a_rich_grid(width):
     assert _cells(rows, width) == _cells(_rich_grid(ROWS), width)
 
 
+# values that fit their column and values that just do not: the rows skip Rich's word wrap for a
+# value that stays one line as it is (text_layout._one_line), and must lay it out as the wrap does
+ODD_VALUES = ["", " ", "fits", "fits exactly", "fits exactly ", "  leading spaces", "trailing spaces   ",
+              "wide 機能 characters", "e\u0301 combining", "no-break\u00a0space", "bell\x07 and\r return",
+              "°C 25° ±3", "x" * 11, "x" * 12, "x" * 13, "two words_longer_than_the_column"]
+
+
+@pytest.mark.parametrize("width", [5, 13, 14, 15, 16, 20, 24, 25, 26, 27, 40])
+def test_label_rows_that_fit_lay_out_as_a_rich_grid(width):
+    rows = [("Label", v) for v in ODD_VALUES]
+    grid = LabelRows()
+    for label, value in rows:
+        grid.add_row(label, value)
+    assert _cells(grid, width) == _cells(_rich_grid(rows), width)
+
+
+@pytest.mark.parametrize("width", [8, 14, 15, 16, 17, 20, 30, 40])
+def test_titled_box_lines_that_fit_lay_out_as_a_rich_panel(width):
+    panel = Panel(Group(*[Text(t) for t in ODD_VALUES]), title="CAUTIONS", title_align="left")
+    assert _cells(TitledBox("CAUTIONS", ODD_VALUES), width) == _cells(panel, width)
+
+
 @pytest.mark.parametrize("width", [4, 5, 10, 12, 13, 40, 80, 120])
 @pytest.mark.parametrize("output", [{}, {"ascii_only": True}, {"legacy_windows": True},
                                     {"ascii_only": True, "legacy_windows": True}])

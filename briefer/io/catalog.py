@@ -30,14 +30,16 @@ import sys
 from collections.abc import Callable, Iterable, Sequence
 from briefer._dataclass import dataclass
 from os import PathLike
-from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from briefer.errors import BriefingError, DataFileError
 from briefer.io.safefile import read_regular_file
 from briefer.io.yamlload import load_airfield, load_bytes, load_profile, model_from_document, parse_yaml_mapping
 from briefer.model import KIND_AIRFIELD, KIND_PROFILE, AircraftProfile, Airfield, did_you_mean
 from briefer.safetext import excerpt
+
+if TYPE_CHECKING:   # pathlib (and the urllib and ipaddress modules it imports) loads only where a Path is made:
+    from pathlib import Path   # finding a name in the built-in files and an absent config file need none
 
 CONFIG_KEYS = {KIND_PROFILE: "profile_dirs", KIND_AIRFIELD: "airfield_dirs"}
 UNITS_KEY = "display_units"
@@ -83,17 +85,39 @@ class CatalogConfig:
 # --------------------------------------------------------------------------------------------
 # The config file
 # --------------------------------------------------------------------------------------------
-def config_path() -> Path:
-    """Where the user's config file lives (it need not exist)."""
+def _config_base() -> str | None:
     base = os.environ.get("XDG_CONFIG_HOME")
     if not base and sys.platform == "win32":
         base = os.environ.get("APPDATA")
+    return base
+
+
+def config_path() -> Path:
+    """Where the user's config file lives (it need not exist)."""
+    from pathlib import Path
+
+    base = _config_base()
     root = Path(base) if base else Path.home() / ".config"
     return root / "briefer" / "config.yaml"
 
 
+def _config_absent() -> bool:
+    """True when there is nothing at `config_path()` (told without making a Path)."""
+    base = _config_base()
+    if not base:
+        base = os.path.expanduser("~")
+        if base.startswith("~"):          # no home directory: config_path() says so
+            return False
+        base = os.path.join(base, ".config")
+    return not os.path.lexists(os.path.join(base, "briefer", "config.yaml"))
+
+
 def load_config(path: str | PathLike[str] | None = None) -> CatalogConfig:
     """Read the config file (an absent file is an empty config; a bad one a `DataFileError`)."""
+    if path is None and _config_absent():
+        return CatalogConfig()
+    from pathlib import Path
+
     p = Path(path) if path is not None else config_path()
     if not os.path.lexists(p):
         return CatalogConfig()
@@ -167,6 +191,8 @@ def builtin_folder(kind: str) -> Any:
     """The folder of the shipped demo files of a kind ("aircraft-profile", "airfield",
     "scenario"): inside the installed package, else the repository's top-level folder when running
     from a checkout (an `importlib.resources` Traversable for a package in a zip file)."""
+    from pathlib import Path
+
     name = BUILTIN_FOLDERS[kind]
     package = Path(__file__).resolve().parent.parent
     for folder in (package / "data" / name, package.parent / name):
@@ -186,9 +212,30 @@ def builtin_files(kind: str) -> list[Any]:
                   key=lambda f: f.name)
 
 
+def _builtin_paths(kind: str) -> list[str] | None:
+    """The paths of `builtin_files` as text, without making a Path (None: a package that is not
+    in a folder, whose files only `builtin_files` reads)."""
+    name = BUILTIN_FOLDERS[kind]
+    package = os.path.dirname(os.path.dirname(os.path.realpath(__file__)))
+    for folder in (os.path.join(package, "data", name), os.path.join(os.path.dirname(package), name)):
+        if os.path.isdir(folder):
+            paths = (os.path.join(folder, f) for f in sorted(os.listdir(folder)) if f.endswith(_SUFFIXES))
+            return [p for p in paths if os.path.isfile(p)]
+    return None
+
+
+def _read_file(path: str) -> bytes:
+    with open(path, "rb") as f:
+        return f.read()
+
+
 def search_dirs(kind: str, dirs: Sequence[str | PathLike[str]] = (), *, use_config: bool = True) -> list[Path]:
     """The user folders searched for a kind: `dirs`, then the config file's."""
-    out = [Path(d).expanduser() for d in dirs or ()]
+    out = []
+    if dirs:
+        from pathlib import Path
+
+        out = [Path(d).expanduser() for d in dirs]
     for d in out:
         if not os.path.isdir(d):
             raise DataFileError("no such folder", file=str(d))
@@ -207,8 +254,13 @@ def _sources(kind: str, dirs: Sequence[str | PathLike[str]], use_config: bool) -
         for f in files:
             if f.suffix in _SUFFIXES and os.path.isfile(f):
                 sources.append(_Source(str(f), f.stem, lambda f=f: read_regular_file(f), False))
-    for t in builtin_files(kind):
-        sources.append(_Source(str(t), t.name.rsplit(".", 1)[0], t.read_bytes, True))
+    paths = _builtin_paths(kind)
+    if paths is None:
+        for t in builtin_files(kind):
+            sources.append(_Source(str(t), t.name.rsplit(".", 1)[0], t.read_bytes, True))
+        return sources
+    for path in paths:
+        sources.append(_Source(path, os.path.basename(path).rsplit(".", 1)[0], lambda p=path: _read_file(p), True))
     return sources
 
 

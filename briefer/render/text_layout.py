@@ -29,6 +29,17 @@ def _widest_line(text: str) -> int:
     return max((cell_len(line) for line in text.splitlines()), default=0)
 
 
+def _one_line(text: str, width: int) -> int | None:
+    """The cells of `text` when Rich's word wrap at `width` would leave it as it is, one line
+    (printable: no line break, tab or control code, which ``Text`` splits, expands or strips;
+    no wider than `width`); else None. Most values of a brief are such a line, and wrapping one
+    cost a fifth of printing the brief."""
+    if not text.isprintable():
+        return None
+    cells = cell_len(text)
+    return cells if cells <= width else None
+
+
 class LabelRows:
     """Rows of a bold label and a value; the values wrap in the width left beside the labels
     (one space between), continuation lines start under the value."""
@@ -58,6 +69,11 @@ class LabelRows:
         tab_size = console.tab_size or 8
         for label, value in self.rows:
             yield Segment(label + " " * (label_w - cell_len(label)), _BOLD)
+            cells = _one_line(value, value_w)
+            if cells is not None:             # the wrap's one line, padded to the column (justify="left")
+                yield Segment(value + " " * (value_w - cells))
+                yield _NEW_LINE
+                continue
             lines = Text(value).wrap(console, value_w, justify="left", overflow="ellipsis", tab_size=tab_size)
             for i, line in enumerate(lines):
                 if i:
@@ -108,6 +124,12 @@ class TitledBox:
         inner = width - 4
         left, right = Segment(side + " "), Segment(" " + side)
         for text in self.lines:
+            if options.justify is None and _one_line(text, inner) is not None:   # the wrap's one line
+                yield left
+                yield from Segment.adjust_line_length([Segment(text)], inner)
+                yield right
+                yield _NEW_LINE
+                continue
             for line in Text(text).wrap(console, inner, justify=options.justify, overflow=options.overflow,
                                         tab_size=console.tab_size or 8, no_wrap=options.no_wrap or False):
                 yield left

@@ -19,7 +19,6 @@ from textual.widgets import Footer, Label, RadioButton, RadioSet, Static, Tabbed
 from briefer.cautions import SHORT_CAUTION
 from briefer.tui.frame_compositor import ChangedRegionsCompositor
 from briefer.tui.rendered_once import RenderedOnce
-from briefer.model import BANK_DEG, CEILING_FT, OAT_C, WEIGHT_LB, WX_VISIBILITY_SM, Range
 from briefer.tui.state import (
     parse_altimeter_hpa,
     parse_optional_number,
@@ -30,20 +29,43 @@ from briefer.tui.widgets._typing_input import FOCUS_KEYS
 
 # The briefing step's typed numbers: unit words and the model's own plausibility range (the one
 # declared with BriefRequest's and Weather's fields), so that a value is refused beside its field
-# with the same limits the loader and the brief apply.
-NUMBER_FIELDS: dict[str, tuple[Range, str]] = {
-    "weight": (WEIGHT_LB, "lb"), "bank": (BANK_DEG, "degrees"), "oat": (OAT_C, "°C"),
-    "visibility": (WX_VISIBILITY_SM, "SM"), "ceiling": (CEILING_FT, "ft above the field"),
+# with the same limits the loader and the brief apply. The ranges are named here and read from
+# briefer.model when a value is first read: the model is imported after the first frame (with
+# the catalog), not to draw the empty fields.
+_NUMBER_RANGES = {
+    "weight": ("WEIGHT_LB", "lb"), "bank": ("BANK_DEG", "degrees"), "oat": ("OAT_C", "°C"),
+    "visibility": ("WX_VISIBILITY_SM", "SM"), "ceiling": ("CEILING_FT", "ft above the field"),
 }
 
 
+def number_field(key: str) -> tuple[Range, str]:
+    """(the model's range, unit words) of the briefing field `key`."""
+    from briefer import model
+
+    name, what = _NUMBER_RANGES[key]
+    return getattr(model, name), what
+
+
+def __getattr__(name: str):
+    """``NUMBER_FIELDS``: key -> (the model's range, unit words) of every briefing number field."""
+    if name == "NUMBER_FIELDS":
+        return {key: number_field(key) for key in _NUMBER_RANGES}
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+
+
 def number_parser(key: str):
-    """The reader of the briefing field `key` (see NUMBER_FIELDS)."""
-    rng, what = NUMBER_FIELDS[key]
-    return lambda t: parse_optional_number(t, what=what, lo=rng.lo, hi=rng.hi)
+    """The reader of the briefing field `key` (see `number_field`)."""
+    if key not in _NUMBER_RANGES:
+        raise KeyError(key)
+
+    def read(text: str):
+        rng, what = number_field(key)
+        return parse_optional_number(text, what=what, lo=rng.lo, hi=rng.hi)
+    return read
 
 
 if TYPE_CHECKING:   # the views import numpy and the result model: imported with the first brief
+    from briefer.model import Range
     from briefer.result import Brief
 
 STEPS = (("aircraft", "1 Aircraft"), ("airfield", "2 Airfield"), ("runway", "3 Runway"),
