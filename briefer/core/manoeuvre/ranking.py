@@ -89,6 +89,28 @@ def plan_checks(*, bank_deg: npt.ArrayLike, bank_limit_deg: float, area_margin_m
     return fail, marg
 
 
+def plan_checks_one(*, bank_deg: float, bank_limit_deg: float, area_margin_m: float, sector_bound: bool,
+                    visibility_m: float, max_distance_from_runway_m: float, area_radius_m: float | None,
+                    aoa_margin_deg: float | None) -> tuple[int, int]:
+    """:func:`plan_checks` of one plan in plain floats: the same comparisons and the same single
+    operations (IEEE, so the same bits), without the array calls. Returns (failures, marginal)."""
+    bank, area, dist = float(bank_deg), float(area_margin_m), float(max_distance_from_runway_m)
+    a_bit = REASON_SECTOR if sector_bound else REASON_AREA
+    over = bank > bank_limit_deg
+    fail = (REASON_BANK if over else 0) + (a_bit if area < 0.0 else 0) \
+        + (REASON_VISIBILITY if visibility_m - dist < 0.0 else 0)
+    marg = (REASON_BANK if not over and bank > bank_limit_deg - MARGINAL_BANK_DEG else 0) \
+        + (REASON_VISIBILITY if dist > MARGINAL_VISIBILITY_FRACTION * visibility_m and visibility_m - dist >= 0.0
+           else 0)
+    if area_radius_m is not None and area >= 0.0 and area < MARGINAL_AREA_FRACTION * area_radius_m:
+        marg += a_bit
+    if aoa_margin_deg is not None:
+        aoa = float(aoa_margin_deg)
+        fail += REASON_STALL if aoa < 0.0 else 0
+        marg += REASON_STALL if aoa >= 0.0 and aoa < MARGINAL_AOA_DEG else 0
+    return fail, marg
+
+
 Verdict = Literal["fits", "marginal", "does not fit"]
 
 
@@ -196,13 +218,10 @@ def rank_plans(plans: tuple[Plan, ...] | list[Plan], *, margin_fn: MarginFn, vis
     flyable = [p for p in plans if p.feasible]
     areas = [float(np.asarray(margin_fn(p.track_xy_m))) for p in flyable]
     aoas = [None if aoa_margin_fn is None else float(aoa_margin_fn(p.bank_deg)) for p in flyable]
-    if flyable:     # one check of every flyable plan (elementwise: the same bits as one by one)
-        fail_bits, marg_bits = plan_checks(
-            bank_deg=[p.bank_deg for p in flyable], bank_limit_deg=bank_limit_deg, area_margin_m=areas,
-            sector_bound=False, visibility_m=visibility_m,
-            max_distance_from_runway_m=[p.max_distance_from_runway_m for p in flyable],
-            area_radius_m=area_radius_m, aoa_margin_deg=None if aoa_margin_fn is None else aoas)
-        checks = iter(zip(areas, aoas, fail_bits.tolist(), marg_bits.tolist()))
+    checks = iter([(area, aoa, *plan_checks_one(  # each flyable plan: plan_checks' rule in plain floats
+        bank_deg=p.bank_deg, bank_limit_deg=bank_limit_deg, area_margin_m=area, sector_bound=False,
+        visibility_m=visibility_m, max_distance_from_runway_m=p.max_distance_from_runway_m,  # type: ignore[arg-type]
+        area_radius_m=area_radius_m, aoa_margin_deg=aoa)) for p, area, aoa in zip(flyable, areas, aoas)])
     for p in plans:
         if not p.feasible:
             rows.append(((10**6, 0.0, 0.0, 0.0, 0.0), p, None, None, None, tuple(p.reasons), ()))
@@ -325,5 +344,5 @@ def choose_plan(inputs: CircleInputs, *, margin_fn: MarginFn, visibility_m: floa
 
 
 __all__ = ["REASON_LIMIT", "REASON_AREA", "REASON_BANK", "REASON_SECTOR", "REASON_STALL", "REASON_VISIBILITY", "REASON_WIND",
-           "plan_checks", "MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION", "MARGINAL_BANK_DEG", "MARGINAL_VISIBILITY_FRACTION",
+           "plan_checks", "plan_checks_one", "MARGINAL_AOA_DEG", "MARGINAL_AREA_FRACTION", "MARGINAL_BANK_DEG", "MARGINAL_VISIBILITY_FRACTION",
            "MarginFn", "PlanChoice", "RankedPlan", "Verdict", "bank_levels_deg", "choose_plan", "rank_plans"]
