@@ -280,6 +280,16 @@ def test_byte_order_mark_is_accepted() -> None:
     assert parse_yaml_mapping("\ufeffkind: airfield\n".encode(), "x.yaml").data == {"kind": "airfield"}
 
 
+def test_a_bad_byte_after_a_byte_order_mark_is_named_at_its_line() -> None:
+    """A file that starts with a byte order mark and has a byte that is not UTF-8 further on: the
+    message names that byte and its line (it named the byte three places before it, counting from
+    after the mark: 'line 2 ... the byte 0x0a' for a 0xff on line 5)."""
+    for data, line in ((b"\xef\xbb\xbfkind: airfield\nname: ab\xffcd\n", 2), (b"\xef\xbb\xbfkind: a\n\n\n\n\xff", 5)):
+        with pytest.raises(DataFileError) as err:
+            parse_yaml_mapping(data, "f.yaml")
+        assert str(err.value) == f"f.yaml:{line}: expected UTF-8 text, got the byte 0xff"
+
+
 def test_unreadable_file(in_bad_files: Path, monkeypatch: pytest.MonkeyPatch) -> None:
     def refuse(*args: object, **kwargs: object) -> None:
         raise PermissionError(13, "Permission denied")

@@ -124,11 +124,13 @@ def parse_yaml_mapping(data: bytes, file: str, *, empty_message: str | None = No
                             "expected a small YAML file", file=file)
     if b"\x00" in data:
         raise DataFileError("expected a YAML text file, got binary data", file=file)
+    bom = 3 if data.startswith(b"\xef\xbb\xbf") else 0   # a byte order mark is allowed, and dropped
     try:
-        text = data.decode("utf-8-sig")
+        text = data[bom:].decode("utf-8")
     except UnicodeDecodeError as exc:
-        line = data[: exc.start].count(b"\n") + 1
-        raise DataFileError(f"expected UTF-8 text, got the byte 0x{data[exc.start]:02x}", file=file,
+        start = bom + exc.start          # in the file (the error counts from after the mark)
+        line = data[:start].count(b"\n") + 1
+        raise DataFileError(f"expected UTF-8 text, got the byte 0x{data[start]:02x}", file=file,
                             line=line) from None
     node = _fast_node(text)
     loader = None
