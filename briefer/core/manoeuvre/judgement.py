@@ -310,9 +310,9 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
     """
     wx = np.asarray(wx_mps, dtype=float).ravel()
     m = wx.size
-    wy = np.asarray(wy_mps, dtype=float).ravel() + np.zeros(m)
-    bank = np.asarray(bank_deg, dtype=float).ravel() + np.zeros(m)
-    d = np.asarray(roll_out_m, dtype=float).ravel() + np.zeros(m)
+    # one value per row (broadcast where one is given for all; the solve adds zeros to each again)
+    wy, bank, d = (a if a.size == m else a + np.zeros(m) for a in
+                   (np.asarray(x, dtype=float).ravel() for x in (wy_mps, bank_deg, roll_out_m)))
     dg = descent if descent is not None else descent_geometry(inputs)
     c = len(candidates)
     ok = np.zeros((m, c), dtype=bool)
@@ -492,15 +492,17 @@ def best_of_level(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_
                              max_distance_from_runway_m=batch.max_distance_from_runway_m,
                              area_radius_m=area_radius_m, aoa_margin_deg=aoa_margin_deg)
     ok = batch.ok
+    not_ok = ~ok
     nf = np.where(ok, _FAILURE_COUNT[fail & _FAILURE_BITS], _INFEASIBLE)
+    vis_margin = visibility_m - batch.max_distance_from_runway_m
     with np.errstate(invalid="ignore"):
-        k2 = -np.round(np.minimum(batch.area_margin_m, visibility_m - batch.max_distance_from_runway_m))
+        k2 = -np.round(np.minimum(batch.area_margin_m, vis_margin))
         k3 = np.round(batch.total_time_s, 1)
     sel = nf == _by_row(np.minimum, nf)
     k2 = np.where(sel & ok, k2, np.inf)
-    sel &= (k2 == _by_row(np.minimum, k2)) | ~ok
+    sel &= (k2 == _by_row(np.minimum, k2)) | not_ok
     k3 = np.where(sel & ok, k3, np.inf)
-    sel &= (k3 == _by_row(np.minimum, k3)) | ~ok
+    sel &= (k3 == _by_row(np.minimum, k3)) | not_ok
     best = _first_true(sel)
     at = np.arange(best.size) * sel.shape[-1] + best          # (row, best) in the flattened (M, C)
 
@@ -509,8 +511,7 @@ def best_of_level(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_
 
     flyable = of_best(ok)
     with np.errstate(invalid="ignore"):
-        room = np.minimum(np.where(np.isnan(batch.area_margin_m), np.inf, batch.area_margin_m),
-                          visibility_m - batch.max_distance_from_runway_m)
+        room = np.minimum(np.where(np.isnan(batch.area_margin_m), np.inf, batch.area_margin_m), vis_margin)
     usable = ok & ((fail & (REASON_BANK | REASON_STALL)) == 0)
     slack = _by_row(np.maximum, np.where(usable, room, -np.inf))[:, 0]
     return LevelBest(best=np.where(flyable, best, -1), failures=np.where(flyable, of_best(fail), 0),
@@ -518,10 +519,15 @@ def best_of_level(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_
                      max_distance_from_runway_m=of_best(batch.max_distance_from_runway_m), slack_m=slack)
 
 
+_FEW_ROWS = 64      # below this many rows, one reduction along the rows beats a call per column
+
+
 def _by_row(op: np.ufunc, a: npt.NDArray) -> npt.NDArray:
-    """``op`` (minimum or maximum) of each row of ``a`` (M, C), shape (M, 1): column by column
-    (the same number as ``op.reduce`` along the rows, NaN included, without a reduction loop
-    per row of a few candidates)."""
+    """``op`` (minimum or maximum) of each row of ``a`` (M, C), shape (M, 1): ``op.reduce`` along
+    the rows for a few rows, else column by column (the same number, NaN included, without a
+    reduction loop per row of a few candidates)."""
+    if a.shape[0] < _FEW_ROWS:
+        return op.reduce(a, axis=1, keepdims=True)
     out = a[:, 0].copy()
     for j in range(1, a.shape[1]):
         op(out, a[:, j], out=out)
@@ -529,7 +535,10 @@ def _by_row(op: np.ufunc, a: npt.NDArray) -> npt.NDArray:
 
 
 def _first_true(sel: npt.NDArray[np.bool_]) -> npt.NDArray[np.int_]:
-    """``np.argmax(sel, axis=-1)``: each row's first True column (0 where none), column by column."""
+    """``np.argmax(sel, axis=-1)``: each row's first True column (0 where none); column by column
+    when the rows are many."""
+    if sel.shape[0] < _FEW_ROWS:
+        return np.argmax(sel, axis=-1)
     best = np.zeros(sel.shape[0], dtype=np.intp)
     found = sel[:, 0].copy()
     for j in range(1, sel.shape[1]):
@@ -599,7 +608,7 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         raise DomainError(f"turn_step_deg = {turn_step_deg} must be in (0, 45] and n_straight = {n_straight} >= 2")
     wx = np.asarray(wx_mps, dtype=float).ravel()
     wy = np.asarray(wy_mps, dtype=float).ravel()
-    if wx.shape != wy.shape or not (np.all(np.isfinite(wx)) and np.all(np.isfinite(wy))):
+    if wx.shape != wy.shape or not (np.isfinite(wx).all() and np.isfinite(wy).all()):
         raise DomainError("wind components must be finite arrays of one shape")
     n = wx.size
     cands = applicable_candidates(inputs.arrival_course_deg)
@@ -611,16 +620,8 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
     descent = descent_geometry(inputs)
     aoa = {b: (None if aoa_margin_fn is None else float(aoa_margin_fn(b))) for b in levels.bank_deg}
 
-    status = np.full(n, DOES_NOT_FIT, dtype=np.int64)
-    reasons = np.full(n, REASON_WIND, dtype=np.int64)
-    r_idx = np.full(n, -1, dtype=np.int64)
-    b_idx = np.full(n, -1, dtype=np.int64)
-    best_c = np.full(n, -1, dtype=np.int64)
-    best_area = np.full(n, np.nan)
-    best_dist = np.full(n, np.nan)
-    resolved = np.zeros(n, dtype=bool)
-    slack = np.full((n, len(order)), np.nan)
     if not cands or n == 0:
+        status, reasons, r_idx, b_idx, best_c, best_area, best_dist, slack = _unsettled(n, len(order))
         return WindJudgement(candidates=cands, levels=levels, status=status, reasons=reasons, roll_out_index=r_idx,
                              bank_index=b_idx, bank_needed_deg=np.full(n, np.nan), roll_out_m=np.full(n, np.nan),
                              best_candidate=best_c, area_margin_m=best_area, max_distance_from_runway_m=best_dist,
@@ -635,12 +636,12 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         ``shown``, the fallback level's margins in full: its best is shown where nothing fits;
         with ``every``, one LevelBest of every level's rows, level by level)."""
         k, m = len(lv), rows.size
-        bank = np.repeat([levels.bank_deg[b] for _, b in lv], m)
-        full = np.repeat([shown and lvl == fallback for lvl in lv], m)
+        bank = np.array([levels.bank_deg[b] for _, b in lv], dtype=float).repeat(m)
+        full = np.array([shown and lvl == fallback for lvl in lv], dtype=bool).repeat(m)
         given = None if eager else turn_store.given(rows, [b for _, b in lv])
         made = None if eager or given is not None or k > 1 else {}
         batch = solve_candidates(inputs, cands, wx_mps=_tile(wx[rows], k), wy_mps=_tile(wy[rows], k),
-                                 bank_deg=bank, roll_out_m=np.repeat([levels.roll_out_m[r] for r, _ in lv], m),
+                                 bank_deg=bank, roll_out_m=np.array([levels.roll_out_m[r] for r, _ in lv], dtype=float).repeat(m),
                                  margin_fn=margin_fn, descent=descent, turn_step_deg=turn_step_deg,
                                  n_straight=n_straight, visibility_m=visibility_m, all_margins=full, turns=given,
                                  made=made)
@@ -648,7 +649,8 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
             turn_store.keep(rows, lv[0][1], made)
         if eager:
             kept.extend(batch.solutions)
-        aoa_rows = None if aoa_margin_fn is None else np.repeat([aoa[levels.bank_deg[b]] for _, b in lv], m)
+        aoa_rows = (None if aoa_margin_fn is None else
+                    np.array([aoa[levels.bank_deg[b]] for _, b in lv], dtype=float).repeat(m))
         lb = best_of_level(batch, bank_deg=bank, bank_limit_deg=bank_limit_deg, visibility_m=visibility_m,
                            area_radius_m=area_radius_m, aoa_margin_deg=aoa_rows)
         if every:
@@ -674,6 +676,8 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         status, reasons, r_idx, b_idx, best_c, best_area, best_dist, slack = _settle_every_level(
             lb_all, order, fallback, n)
     else:
+        status, reasons, r_idx, b_idx, best_c, best_area, best_dist, slack = _unsettled(n, len(order))
+        resolved = np.zeros(n, dtype=bool)
         _level_by_level(order, fallback, resolved, solve, settle)
     fits = status != DOES_NOT_FIT
     bank_needed = np.where(fits, np.asarray(levels.bank_deg)[np.maximum(b_idx, 0)], np.nan)
@@ -682,6 +686,14 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
                          bank_index=b_idx, bank_needed_deg=bank_needed, roll_out_m=roll_out, best_candidate=best_c,
                          area_margin_m=best_area, max_distance_from_runway_m=best_dist, level_slack_m=slack,
                          solutions=tuple(kept))
+
+
+def _unsettled(n: int, levels: int) -> tuple:
+    """The judgement of N winds before any level is settled: status, reasons, roll-out index,
+    bank index, best candidate, its area margin and distance, the slack of each level (N, L)."""
+    return (np.full(n, DOES_NOT_FIT, dtype=np.int64), np.full(n, REASON_WIND, dtype=np.int64),
+            np.full(n, -1, dtype=np.int64), np.full(n, -1, dtype=np.int64), np.full(n, -1, dtype=np.int64),
+            np.full(n, np.nan), np.full(n, np.nan), np.full((n, levels), np.nan))
 
 
 class _TurnStore:

@@ -374,7 +374,7 @@ def ramp_q(tau: Numeric, c: Numeric, tas: Numeric, k: float) -> npt.NDArray[np.c
     tau = np.asarray(tau, dtype=float)
     c = np.asarray(c, dtype=float)
     v = np.asarray(tas, dtype=float)
-    if tau.size > 64 and c.size and np.ptp(c) == 0.0 and np.ptp(v) == 0.0:
+    if tau.size > 64 and c.size and c.min() == c.max() and v.min() == v.max():
         uniq, inv = np.unique(tau, return_inverse=True)
         if uniq.size * 8 < tau.size:
             q = ramp_q(uniq, c.flat[0], v.flat[0], k)

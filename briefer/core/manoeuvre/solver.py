@@ -423,9 +423,11 @@ class _Kernel:
         """Turn legs from (entry heading, angle, sign, name, calm-wind angle) specs, all computed in
         one call of the (elementwise) kernels: the specs are stacked on a new leading axis."""
         zero, v, wx, wy = self.zero, self.v, self.wx, self.wy
-        psi_a = np.concatenate([(sp[0] + zero)[None] for sp in specs])
-        angle = np.concatenate([(sp[1] + zero)[None] for sp in specs])
-        sgn = np.concatenate([(sp[2] + zero)[None] for sp in specs])
+        psi_a = np.array([sp[0] + zero for sp in specs])
+        angle = np.array([sp[1] + zero for sp in specs])
+        sgn = np.array([sp[2] + zero for sp in specs])
+        nominal = np.array([sp[4] + zero for sp in specs])
+        nominal_max = nominal.reshape(len(specs), -1).max(axis=1).tolist()    # each turn's largest
         prof = turn_profile(angle, self.bank, v, self.roll_rate_rad)
         if self.roll_rate_rad is None:      # the trochoid: s r (sin psi_b - sin psi_a, cos psi_a - cos psi_b) + w T
             sr = sgn * (v / prof.wp)
@@ -439,8 +441,8 @@ class _Kernel:
             p_i = TurnProfile(angle=prof.angle[i], tas=prof.tas[i], tr=prof.tr[i], tc=prof.tc[i], dp=prof.dp[i],
                               wp=prof.wp[i], c=prof.c[i], k=prof.k, total=prof.total[i])
             out.append(LegArrays(kind="turn", name=sp[3], duration=p_i.total, psi0=psi_a[i], prof=p_i,
-                                 sign=sgn[i], dx=dx[i], dy=dy[i], nominal_rad=float(np.max(sp[4])),
-                                 nominal_rows=sp[4] + zero))
+                                 sign=sgn[i], dx=dx[i], dy=dy[i], nominal_rad=nominal_max[i],
+                                 nominal_rows=nominal[i]))
         return out
 
     def straight(self, psi: FloatArray, gx: FloatArray, gy: FloatArray, t: FloatArray, name: str,
