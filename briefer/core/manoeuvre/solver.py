@@ -857,8 +857,11 @@ def _leg_columns(lg: LegArrays) -> list[FloatArray | float]:
             + [lg.nominal_rad if lg.nominal_rows is None else lg.nominal_rows])
 
 
-def _full(fields: list, shp: tuple[int, ...]) -> list:
-    """The fields as they are when each is an array of the solution's shape, else broadcast to it."""
+def _sampled_fields(legs: Sequence[LegArrays], sol: ShapeSolution) -> list:
+    """Every field sampling reads of ``legs`` (:func:`_leg_columns`), then the wind of ``sol``,
+    each an array of the solution's shape (as it is when it is one, else broadcast to it)."""
+    shp = sol.ok.shape
+    fields = [c for lg in legs for c in _leg_columns(lg)] + [sol.wx, sol.wy]
     if all(type(c) is np.ndarray and c.shape == shp for c in fields):
         return fields
     return [np.broadcast_to(c, shp) for c in fields]
@@ -900,7 +903,7 @@ def sampling_rows(sol: ShapeSolution, rows: Rows | None = None) -> SamplingRows:
     shape; a turn's calm-wind angle then is the solution's own, else the largest of the rows',
     as :func:`take_rows` makes it)."""
     shp = sol.ok.shape
-    fields = _full([c for lg in sol.legs for c in _leg_columns(lg)] + [sol.wx, sol.wy], shp)
+    fields = _sampled_fields(sol.legs, sol)
     cols = np.array(fields)
     if rows is None:
         return SamplingRows(sol.ok.reshape(-1), cols.reshape(len(fields), -1), sol.legs,
@@ -939,7 +942,7 @@ def merge_for_sampling(sols: list[ShapeSolution], rows: Sequence[npt.NDArray[np.
     # every field read, of every leg of a solution, as the rows of one array; the solutions' rows end to end
     parts = []
     for lgs, sol, r in zip(legs, sols, rows):
-        fields = _full([c for lg in lgs for c in _leg_columns(lg)] + [sol.wx, sol.wy], sol.ok.shape)
+        fields = _sampled_fields(lgs, sol)
         parts.append(np.array(fields if r is None else [c[r] for c in fields]))
     cols = parts[0] if len(parts) == 1 else np.concatenate(parts, axis=1)
     whole = all(r is None for r in rows)
