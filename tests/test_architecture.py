@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import os
 import re
 import subprocess
 import sys
@@ -76,6 +77,25 @@ def test_the_app_draws_its_first_frame_without_the_model():
     mods = _modules_after("import briefer.commands.app, briefer.tui.app")
     assert "briefer.tui.briefing_screen" in mods
     assert "briefer.model" not in mods and "numpy" not in mods
+
+
+def test_the_brief_command_imports_no_pathlib(tmp_path):
+    """`briefer brief --demo` finds its built-in files and the (absent) config file with os.path:
+    importing pathlib was part of the command's start-up beyond numpy, yaml and rich (issue:
+    speed, start-up). A path object is made only where one is returned."""
+    code = """
+import contextlib, io, sys
+from briefer.cli import main
+with contextlib.redirect_stdout(io.StringIO()):
+    try:
+        main(["brief", "--demo"])
+    except SystemExit:
+        pass
+print("pathlib" in sys.modules)
+"""
+    env = {**os.environ, "XDG_CONFIG_HOME": str(tmp_path), "HOME": str(tmp_path)}
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True, env=env).stdout
+    assert out.strip().splitlines()[-1] == "False"
 
 
 def test_every_help_imports_no_numpy():
