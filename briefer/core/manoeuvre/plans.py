@@ -282,25 +282,32 @@ def _reason_texts(flags: int, shape: Shape, sol: ShapeSolution, k: int, inputs: 
     return tuple(out)
 
 
-def _public_legs(sol: ShapeSolution, k: int, inputs: CircleInputs) -> tuple[Leg, ...]:
+def _public_legs(sol: ShapeSolution, k: int, inputs: CircleInputs, times: tuple[float, ...]) -> tuple[Leg, ...]:
+    """The legs of row k as the crew's legs (``times``: each leg's duration in row k). Values
+    are read with ``item`` (a Python float: the same number as ``float(a[k])``)."""
     legs: list[Leg] = []
-    for lg in sol.legs:
-        t = float(lg.duration[k])
+    for lg, t in zip(sol.legs, times):
         if lg.kind == "turn":
             assert lg.prof is not None and lg.sign is not None
-            legs.append(Turn(angle_deg=math.degrees(float(lg.prof.angle[k])), bank_deg=inputs.bank_deg,
-                             direction="right" if lg.sign[k] > 0 else "left",
+            legs.append(Turn(angle_deg=math.degrees(lg.prof.angle.item(k)), bank_deg=inputs.bank_deg,
+                             direction="right" if lg.sign.item(k) > 0 else "left",
                              roll_rate_deg_per_s=inputs.roll_rate_deg_per_s, name=lg.name))
         elif lg.track_rad is not None:
-            trk = lg.track_rad if np.ndim(lg.track_rad) == 0 else lg.track_rad[k]  # type: ignore[index]
-            legs.append(StraightTrack(time_s=t, track_deg=math.degrees(float(trk)), name=lg.name))
+            trk = lg.track_rad
+            trk = trk.item(k) if isinstance(trk, np.ndarray) and trk.ndim else float(trk)
+            legs.append(StraightTrack(time_s=t, track_deg=math.degrees(trk), name=lg.name))
         else:
-            legs.append(Straight(time_s=t, heading_deg=math.degrees(float(lg.psi0[k])), name=lg.name))
+            legs.append(Straight(time_s=t, heading_deg=math.degrees(lg.psi0.item(k)), name=lg.name))
     return tuple(legs)
 
 
 def _distance_to_runway_m(x: FloatArray, y: FloatArray, length_m: float) -> FloatArray:
     return np.hypot(x - np.minimum(np.maximum(x, 0.0), length_m), y)
+
+
+def _largest(a: FloatArray) -> float:
+    """``a.max()`` as a float (the same reduction, without the method's wrapper)."""
+    return np.maximum.reduce(a).item()
 
 
 def _first_abeam_time_s(x: FloatArray, t: FloatArray) -> float | None:
@@ -318,25 +325,28 @@ def _leave_mda(xy: FloatArray, hd: FloatArray, tm: FloatArray, li: npt.NDArray[n
     the threshold equals the descent-point distance. Returns (point, reached)."""
     need = descent.descent_point_m - roll_out_d
     last = len(names) - 1
+    nk = int(li.searchsorted(last))   # the legs in order: everything before the final straight
     if need <= 0.0:              # the descent point is on the final straight
-        fin = li == last
-        x_f, t_f = xy[fin, 0], tm[fin]
-        t = float(np.interp(-descent.descent_point_m, x_f, t_f))
-        return LeaveMda(x_m=-descent.descent_point_m, y_m=0.0, heading_deg=math.degrees(float(hd[fin][0])) % 360.0,
+        t = float(np.interp(-descent.descent_point_m, xy[nk:, 0], tm[nk:]))
+        return LeaveMda(x_m=-descent.descent_point_m, y_m=0.0, heading_deg=math.degrees(hd.item(nk)) % 360.0,
                         in_turn=False, leg_name="final", along_track_to_threshold_m=descent.descent_point_m,
                         time_s=t), True
-    nk = int(np.searchsorted(li, last))   # everything before the final straight (legs in order), walked backwards
-    x, y = xy[:nk, 0][::-1], xy[:nk, 1][::-1]
-    s = np.concatenate([[0.0], np.cumsum(np.hypot(np.diff(x), np.diff(y)))])
-    lk, tt, hh = li[:nk][::-1], tm[:nk][::-1], hd[:nk][::-1]
-    reached = bool(s[-1] >= need)
-    j = max(1, int(np.searchsorted(s, need)) if reached else len(s) - 1)
-    fr = 0.0 if s[j] == s[j - 1] else min(1.0, (need - s[j - 1]) / (s[j] - s[j - 1]))
-    lerp = lambda a: float(a[j - 1] + fr * (a[j] - a[j - 1]))  # noqa: E731
-    leg_i = int(lk[j])
-    return LeaveMda(x_m=lerp(x), y_m=lerp(y), heading_deg=math.degrees(lerp(hh)) % 360.0,
+    # walked backwards from the roll-out: the distance flown back along the track at each point
+    # (a step's length is the same backwards: each difference only changes sign)
+    d = xy[1:nk] - xy[:nk - 1]
+    s = np.zeros(nk)
+    np.add.accumulate(np.hypot(d[:, 0], d[:, 1])[::-1], out=s[1:])      # np.cumsum without its wrapper
+    total = s.item(-1)
+    reached = total >= need
+    j = max(1, int(s.searchsorted(need)) if reached else nk - 1)
+    s0, s1 = s.item(j - 1), s.item(j)
+    fr = 0.0 if s1 == s0 else min(1.0, (need - s0) / (s1 - s0))
+    i1, i0 = nk - j, nk - 1 - j           # the points j - 1 and j backwards
+    lerp = lambda a: a.item(i1) + fr * (a.item(i0) - a.item(i1))  # noqa: E731
+    leg_i = li.item(i0)
+    return LeaveMda(x_m=lerp(xy[:, 0]), y_m=lerp(xy[:, 1]), heading_deg=math.degrees(lerp(hd)) % 360.0,
                     in_turn=leg_i in turns_to_final, leg_name=names[leg_i],
-                    along_track_to_threshold_m=roll_out_d + min(need, float(s[-1])), time_s=lerp(tt)), reached
+                    along_track_to_threshold_m=roll_out_d + min(need, total), time_s=lerp(tm)), reached
 
 
 def solve_plan(inputs: CircleInputs, *, shape: Shape, side: Side) -> Plan:
@@ -451,22 +461,32 @@ def _solution_rows(inputs: CircleInputs, shape: Shape, sides: list[Side], every_
                         descent=descent), list(range(len(sides))), None
 
 
+_EMPTY_XY = np.zeros((0, 2))
+_EMPTY = np.zeros(0)
+_EMPTY_INT = np.zeros(0, dtype=int)
+for _a in (_EMPTY_XY, _EMPTY, _EMPTY_INT):
+    _a.flags.writeable = False          # shared by every plan that cannot be flown (no track)
+
+
 def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSolution, trk: SolutionTrack | None,
                    k: int, descent: DescentGeometry, t: int) -> Plan:
-    """Plan of row k of a solved batch, its track row t of ``trk``."""
+    """Plan of row k of a solved batch, its track row t of ``trk``. Row k's numbers are read
+    with ``item`` (a Python float: the same number as ``float(a[k])``, without the numpy scalar)."""
     base = dict(shape=shape, side=side, bank_deg=inputs.bank_deg, tas_kt=inputs.tas_kt, inputs=inputs,
                 descent_point_m=descent.descent_point_m)
-    flags = int(sol.reasons[k])
+    flags = sol.reasons.item(k)
     if flags:
-        return Plan(**base, feasible=False, notes=(), reasons=_reason_texts(flags, shape, sol, k, inputs, descent))
+        return Plan(**base, feasible=False, notes=(), reasons=_reason_texts(flags, shape, sol, k, inputs, descent),
+                    track_xy_m=_EMPTY_XY, track_time_s=_EMPTY, track_heading_deg=_EMPTY,
+                    track_leg_index=_EMPTY_INT)
     assert trk is not None and trk.heading is not None and trk.time is not None
-    legs = _public_legs(sol, k, inputs)
+    times = tuple([lg.duration.item(k) for lg in sol.legs])
+    names = tuple([lg.name for lg in sol.legs])
+    legs = _public_legs(sol, k, inputs, times)
     start = State(x_m=inputs.arrival_x_m, y_m=inputs.arrival_y_m,
-                  heading_deg=math.degrees(float(sol.legs[0].psi0[k])), time_s=0.0)
+                  heading_deg=math.degrees(sol.legs[0].psi0.item(k)), time_s=0.0)
     xy, hdg, tim = trk.xy[t], trk.heading[t], trk.time[t]
-    times = tuple(float(lg.duration[k]) for lg in sol.legs)
-    names = tuple(lg.name for lg in sol.legs)
-    roll_out_d = float(sol.roll_out_d[k])
+    roll_out_d = sol.roll_out_d.item(k)
     notes: list[str] = []
     if descent.clamped:
         notes.append(f"roll-out moved out to the stabilised distance, {_nm(descent.stabilised_distance_m)} "
@@ -481,14 +501,15 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
         notes.append("the glide path from the circling height starts before the circle begins: "
                      "descend from the arrival")
     if sol.abeam_s is not None:
-        abeam: float | None = float(sol.abeam_s[k])
+        abeam: float | None = sol.abeam_s.item(k)
     else:       # teardrop, direct turn: from the first pass abeam/over the threshold, if before the roll-in
         t_cross = _first_abeam_time_s(xy[:, 0], tim)
         t_roll_in = sum(times[: sol.final_turn])
         abeam = None if t_cross is None or t_cross > t_roll_in else t_roll_in - t_cross
-    if shape in DOWNWIND_SHAPES:
+    downwind = shape in DOWNWIND_SHAPES
+    if downwind:
         dw_i = names.index("downwind")
-        x_join = float(sol.legs[dw_i].x0[k])
+        x_join = sol.legs[dw_i].x0.item(k)
         downwind_gs_kt = inputs.tas_kt - inputs.wind.toward_x_kt     # flown against the landing direction
         if -x_join > JOIN_PAST_ABEAM_S * downwind_gs_kt * KT_TO_MPS:   # else the same whole-second timings
             notes.append(f"the downwind is joined {_nm(-x_join)} past abeam the threshold: start the timing "
@@ -502,17 +523,17 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
         else:
             notes.append(f"a {t_xw:.0f} s crosswind leg; no base leg: one continuous turn onto final")
     x, y = xy[:, 0], xy[:, 1]
-    ri = (float(sol.x_ri[k]), float(sol.y_ri[k]))
+    ri = (sol.x_ri.item(k), sol.y_ri.item(k))
     return Plan(**base, feasible=True, reasons=(), notes=tuple(notes),
-                offset_m=float(sol.offset[k]), abeam_to_roll_in_s=abeam, roll_in_distance_m=-ri[0], roll_in_xy_m=ri,
-                break_off_s=None if sol.break_s is None else float(sol.break_s[k]), roll_out_distance_m=roll_out_d,
-                final_heading_deg=math.degrees(float(sol.psi_f[k])) % 360.0,
-                downwind_heading_deg=(math.degrees(float(sol.psi_d[k])) % 360.0 if shape in DOWNWIND_SHAPES else None),
+                offset_m=sol.offset.item(k), abeam_to_roll_in_s=abeam, roll_in_distance_m=-ri[0], roll_in_xy_m=ri,
+                break_off_s=None if sol.break_s is None else sol.break_s.item(k), roll_out_distance_m=roll_out_d,
+                final_heading_deg=math.degrees(sol.psi_f.item(k)) % 360.0,
+                downwind_heading_deg=math.degrees(sol.psi_d.item(k)) % 360.0 if downwind else None,
                 leave_mda=leave, legs=legs, leg_names=names, leg_times_s=times,
                 total_time_s=float(sum(times)), start=start, track_xy_m=xy, track_time_s=tim,
                 track_heading_deg=np.degrees(hdg), track_leg_index=trk.leg_index,
-                max_distance_from_threshold_m=float(np.sqrt((x * x + y * y).max())),
-                max_distance_from_runway_m=float(_distance_to_runway_m(x, y, inputs.runway_length_m).max()))
+                max_distance_from_threshold_m=math.sqrt(_largest(x * x + y * y)),
+                max_distance_from_runway_m=_largest(_distance_to_runway_m(x, y, inputs.runway_length_m)))
 
 
 def plan_sample(plan: Plan, n: int) -> TrackSamples:
