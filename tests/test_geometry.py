@@ -591,3 +591,21 @@ def test_from_runway_coords_of_a_track_is_the_broadcast_bit_for_bit():
                 + r[..., None] * np.asarray(rf.right_unit))
         for got in (rf.from_runway_coords(a, r), rf.from_runway_coords(a.copy(), r.copy())):
             assert got.shape == want.shape and got.tobytes() == want.tobytes()
+
+
+@pytest.mark.parametrize("centres", [[(0.0, 0.0)], [(-1145.35, -130.01), (1145.4, 129.96)], [(0.0, 0.0), (0.0, 2305.4557)],
+                                     [(0.0, 0.0), (1600.0, 1200.0), (-300.0, 2500.0), (900.0, -700.0)]])
+def test_track_hull_margin_is_the_radius_less_the_largest_hull_distance_to_the_last_bit(centres):
+    """ProtectedArea.track_hull_margin_m (the radius part of the one track-margin rule, used for
+    the plan's edge margin) is R - max(distance_to_hull_m) to the last bit, for a circle, a
+    stadium (a segment along an axis or not) and a polygon hull, tracks given strided or not."""
+    area = ProtectedArea(centres_m=centres, radius_m=6852.4)
+    rng = np.random.default_rng(11)
+    for k in range(60):
+        track = rng.uniform(-9000.0, 9000.0, size=(int(rng.integers(1, 200)), 2))
+        if k % 3 == 0:
+            track[: len(track) // 2] = np.round(track[: len(track) // 2])     # whole metres: ties and zeros
+        want = area.radius_m - np.max(area.distance_to_hull_m(track))
+        for given in (track, np.ascontiguousarray(track[:, ::-1])[:, ::-1]):
+            got = area.track_hull_margin_m(given)
+            assert type(got) is float and np.float64(got).tobytes() == np.float64(want).tobytes()

@@ -174,7 +174,7 @@ def _plan_info(s: Situation, best: maneuver.RankedPlan, alts: tuple[Alternative,
         vis_ok = best.visibility_margin_m >= 0
     margin = best.area_margin_m if best.area_margin_m is not None else nan
     track_pts = np.asarray(track_local)
-    edge_margin = float(s.area.radius_m - np.max(s.area.distance_to_hull_m(track_pts)))
+    edge_margin = s.area.track_hull_margin_m(track_pts)      # R - the largest distance to the hull
     sector_clear = None
     # The clearance shown is the manoeuvre's: flying on the extended centreline (the final, or a
     # straight-in arrival) passes a side sector's edge or a sector's apex at the threshold by design.

@@ -609,14 +609,7 @@ def _segments_distance_m(q: npt.NDArray[np.float64], a: npt.NDArray[np.float64],
                          ends: ArrayLike) -> npt.NDArray[np.float64]:
     """`distance_to_segments_m` of checked points `q` from the float segment starts `a`."""
     if a.shape[0] == 1:                                         # one segment: no (..., K, 2) temporaries
-        (ax, ay), (bx, by) = a[0], np.asarray(ends, dtype=float)[0]
-        sx, sy = bx - ax, by - ay
-        ss = sx * sx + sy * sy
-        rx, ry = q[..., 0] - ax, q[..., 1] - ay
-        if ss > 0.0:
-            t = np.minimum(np.maximum((rx * sx + ry * sy) / ss, 0.0), 1.0)   # clip: the sign of a 0 never reaches the distance
-            rx, ry = rx - t * sx, ry - t * sy
-        return np.sqrt(rx * rx + ry * ry)
+        return _segment_distance_m(q, a[0].tolist(), np.asarray(ends, dtype=float)[0].tolist())
     p = q[..., None, :]                                        # (..., 1, 2)
     d = np.asarray(ends, dtype=float) - a                      # (K, 2)
     dd = np.sum(d * d, axis=-1)
@@ -624,6 +617,20 @@ def _segments_distance_m(q: npt.NDArray[np.float64], a: npt.NDArray[np.float64],
     t = np.minimum(np.maximum(np.where(dd > 0.0, t, 0.0), 0.0), 1.0)    # clip
     closest = a + t[..., None] * d
     return np.min(np.hypot(p[..., 0] - closest[..., 0], p[..., 1] - closest[..., 1]), axis=-1)
+
+
+def _segment_distance_m(q: npt.NDArray[np.float64], a: tuple[float, float] | list[float],
+                        b: tuple[float, float] | list[float]) -> npt.NDArray[np.float64]:
+    """`_segments_distance_m` of one segment a -> b given as floats (the ends' arithmetic on
+    floats: the same IEEE operations as on numpy scalars)."""
+    (ax, ay), (bx, by) = a, b
+    sx, sy = bx - ax, by - ay
+    ss = sx * sx + sy * sy
+    rx, ry = q[..., 0] - ax, q[..., 1] - ay
+    if ss > 0.0:
+        t = np.minimum(np.maximum((rx * sx + ry * sy) / ss, 0.0), 1.0)   # clip: the sign of a 0 never reaches the distance
+        rx, ry = rx - t * sx, ry - t * sy
+    return np.sqrt(rx * rx + ry * ry)
 
 
 def convex_hull(points: ArrayLike) -> npt.NDArray[np.float64]:
@@ -1056,6 +1063,8 @@ class ProtectedArea:
 
     def _distance_to_hull_m(self, p: npt.NDArray[np.float64]) -> npt.NDArray[np.float64]:
         """`distance_to_hull_m` of points already checked."""
+        if len(self.hull_m) <= 2:     # a circle or a stadium: one segment (a point's is of zero length)
+            return _segment_distance_m(p, self.hull_m[0], self.hull_m[-1])
         a, b = self._edges()
         dist = _segments_distance_m(p, a, b)
         if len(self.hull_m) >= 3:     # counter-clockwise: inside when left of (or on) every edge
@@ -1150,6 +1159,22 @@ class ProtectedArea:
             margin = np.minimum(margin, depth)
         return margin.reshape(out_shape), (margin < hull_margin).reshape(out_shape)
 
+    def track_hull_margin_m(self, track: ArrayLike) -> float:
+        """Smallest R - dist(p, hull) along one track (N, 2), N >= 1: the radius part of
+        `track_margins_m` (no sector), the same number as ``radius_m - max(distance_to_hull_m)``
+        to the last bit (R - x rounds monotonically). [m]"""
+        t, e, n = _track_columns(track)
+        if t.ndim != 2:
+            raise DomainError(f"track must be an (N, 2) array with N >= 1; got shape {t.shape}")
+        stack: list[npt.NDArray[np.float64]] = []
+
+        def pts() -> npt.NDArray[np.float64]:
+            if not stack:
+                stack.append(np.stack([e, n], axis=-1))
+            return stack[0]
+
+        return float(self._track_hull_margin_m(e, n, t.shape[:-1], pts))
+
     def _track_hull_margin_m(self, e: npt.NDArray[np.float64], n: npt.NDArray[np.float64], shp: tuple[int, ...],
                              pts: Callable[[], npt.NDArray[np.float64]]) -> npt.NDArray[np.float64]:
         """min over each track of R - dist(p, hull), points (east ``e``, north ``n``, or ``pts()``
@@ -1193,8 +1218,9 @@ class ProtectedArea:
     def sector_clearance_m(self, points: ArrayLike) -> float:
         """Smallest signed clearance of the points to any excluded sector (negative: inside one);
         +inf without sectors. [m]"""
-        p = _points(points)
-        return float(min((np.min(sec.clearance_m(p)) for sec in self.excluded), default=math.inf))
+        p = _points(points)           # checked once: a side sector's own rule takes it as it is
+        return float(min((np.min(sec._clearance_m(p) if isinstance(sec, SideSector) else sec.clearance_m(p))
+                          for sec in self.excluded), default=math.inf))
 
     def boundary(self, n: int = 180) -> npt.NDArray[np.float64]:
         """Closed polyline of the area's outline (sectors not cut; draw them with their polygons).
