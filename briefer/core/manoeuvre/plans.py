@@ -54,6 +54,7 @@ from briefer.core.manoeuvre.solver import (
     ShapeSolution,
     Side,
     Rows,
+    SamplingRows,
     SolutionTrack,
     applicable_candidates,
     descent_geometry,
@@ -433,13 +434,34 @@ def _solve_sides(inputs: CircleInputs, shape: Shape, sides: tuple[Side, ...],
     if todo:
         sol, ks, rows = _solution_rows(inputs, shape, [sides[i] for i in todo], len(todo) == len(sides), solved,
                                        descent)
-        trk = None
-        if sol.ok[ks].any():
-            trk = sample_solution(sol if rows is None else sampling_rows(sol, rows), turn_step_deg=PLAN_TURN_STEP_DEG,
-                                  n_straight=2, straight_step_m=PLAN_STRAIGHT_STEP_M, with_heading=True)
+        flyable = [sol.ok.item(k) for k in ks]
+        trk, at = None, [0] * len(ks)
+        if any(flyable):
+            trk, at = _flyable_tracks(sol, ks, rows, flyable)
         for t, (k, i) in enumerate(zip(ks, todo)):
-            out[i] = _plan_from_row(inputs, shape, sides[i], sol, trk, k, descent, k if rows is None else t)
+            out[i] = _plan_from_row(inputs, shape, sides[i], sol, trk, k, descent, at[t])
     return [p for p in out if p is not None]
+
+
+def _flyable_tracks(sol: ShapeSolution, ks: list[int], rows: Rows | None, flyable: list[bool]
+                    ) -> tuple[SolutionTrack, list[int]]:
+    """The dense tracks of the rows ``ks`` of ``sol`` that can be flown, and the track of each
+    row (its place among them; 0 for a row not sampled). ``rows``: the rows ``ks`` as given to
+    :func:`sampling_rows` (None: every row of ``sol``, ``ks`` in order). A row that cannot be
+    flown is not sampled, but every turn keeps the sample count of all the rows' calm-wind
+    angles (a track's points do not depend on the other tracks of the call)."""
+    sr = sampling_rows(sol) if rows is None else sampling_rows(sol, rows)
+    at = [0] * len(ks)
+    if not all(flyable):
+        keep = [t for t, f in enumerate(flyable) if f]
+        sr = SamplingRows(sr.ok[keep], sr.cols[:, keep], sol.legs, sr.nominal_rad)
+        for n, t in enumerate(keep):
+            at[t] = n
+    else:
+        at = list(range(len(ks))) if rows is not None else list(ks)
+    trk = sample_solution(sr, turn_step_deg=PLAN_TURN_STEP_DEG, n_straight=2, straight_step_m=PLAN_STRAIGHT_STEP_M,
+                          with_heading=True)
+    return trk, at
 
 
 def _solution_rows(inputs: CircleInputs, shape: Shape, sides: list[Side], every_side: bool,
