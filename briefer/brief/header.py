@@ -10,7 +10,7 @@ from briefer.result import BriefHeader, RunwayDrawing, frozen_array
 def brief_header(s: Situation) -> BriefHeader:
     """Airfield, approach, landing runway, profile, configuration, criteria and weight briefed."""
     request = s.request
-    prof, cfg, af, appr = request.profile, request.selected_configuration(), request.airfield, s.approach
+    prof, cfg, af, appr = request.profile, s.configuration, request.airfield, s.approach
     return BriefHeader(airfield_ident=af.ident, airfield_name=af.name, approach_name=appr.name,
                        landing_runway=request.landing_runway, profile_name=prof.name,
                        configuration_name=cfg.name, criteria=request.options.criteria or appr.criteria,

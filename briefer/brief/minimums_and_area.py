@@ -40,7 +40,7 @@ class MinimumsAndArea(SectionResult):
 def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
     """Category, minimums, circling-only reasons, cold correction and obstacle clearance."""
     request = s.request
-    prof, cfg, af, appr = request.profile, request.selected_configuration(), request.airfield, s.approach
+    prof, cfg, af, appr = request.profile, s.configuration, request.airfield, s.approach
     crit = request.options.criteria or appr.criteria
     det = s.category
     cat = det.category

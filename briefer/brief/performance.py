@@ -29,7 +29,7 @@ class Performance(SectionResult):
 def performance_section(s: Situation) -> Performance:
     """TAS, turn, stall margin and angle of attack at the target bank; the radius needed today."""
     request = s.request
-    prof, cfg, wx = request.profile, request.selected_configuration(), request.weather
+    prof, cfg, wx = request.profile, s.configuration, request.weather
     weight_ratio = request.landing_weight_lb / prof.reference_weight_lb
     found = FindingList()
     ias = s.circling_ias_kt

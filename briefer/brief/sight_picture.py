@@ -31,7 +31,7 @@ def sight_picture_section(s: Situation, plan_info: PlanInfo, solved: maneuver.Pl
                   perf: PerformanceInfo) -> SightPicturePart:
     """Compare the planned picture with the familiar one flown at circling height."""
     request = s.request
-    prof, cfg = request.profile, request.selected_configuration()
+    prof, cfg = request.profile, s.configuration
     weight_ratio = request.landing_weight_lb / prof.reference_weight_lb
     found = FindingList()
     feasible = plan_info.feasible

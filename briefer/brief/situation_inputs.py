@@ -23,7 +23,7 @@ from briefer import units
 from briefer.core import atmosphere, criteria, geometry, maneuver, turn, wind
 from briefer.core.airfield_geometry import AirfieldGeometry
 from briefer.core.layout import Layout
-from briefer.model import Approach, BriefRequest, Threshold
+from briefer.model import Approach, BriefRequest, Configuration, Threshold
 
 STANDARD_ALTIMETER_HPA = 1013.25
 EDGE_TOLERANCE_M = 1.0   # a track on a sector's edge (e.g. the centreline of a side sector) is authorised
@@ -60,6 +60,8 @@ class Situation:
     pressure_altitude_ft: float            # at the MDA (or the plan's height when not authorised)
     oat_at_mda_c: float
     headwind_kt: float                     # steady, on the landing runway; a variable wind counts as tailwind
+    crosswind_kt: float                    # steady, from the right, on the landing runway (0 for a variable wind)
+    configuration: Configuration          # request.selected_configuration(), looked up once
     airfield_geometry: AirfieldGeometry    # runway axes, arc centres, sectors, area: the one composition
 
     @property
@@ -108,9 +110,11 @@ def situation(request: BriefRequest) -> Situation:
     if wind_from is None:
         speed_for_plan = 0.0
         headwind = -speed          # variable: worst case for the additive and tailwind checks
+        crosswind = 0.0
     else:
         speed_for_plan = speed
-        headwind = float(wind.wind_components_kt(wind_from, speed, course_deg=rf.landing_course_deg_true).headwind_kt)
+        comp = wind.wind_components_kt(wind_from, speed, course_deg=rf.landing_course_deg_true)
+        headwind, crosswind = float(comp.headwind_kt), float(comp.crosswind_from_right_kt)
     additive = 0.0
     if request.options.apply_wind_additive:
         additive = prof.wind_additive.additive_kt(headwind_kt=headwind, gust_increment_kt=wx.gust_increment_kt)
@@ -170,5 +174,5 @@ def situation(request: BriefRequest) -> Situation:
                      bank_limit_deg=cfg.bank_limit_deg, aoa_margin_fn=aoa_margin, category=det, mda_ft=mda,
                      plan_mda_ft=plan_mda, circling_ias_kt=circling_ias, wind_additive_kt=additive,
                      wind_from_true=wind_from, wind_speed_kt=speed, oat_c=oat, altimeter_hpa=alt_hpa,
-                     thresholds_xy=xy, pressure_altitude_ft=pa, oat_at_mda_c=oat_mda, headwind_kt=headwind,
+                     thresholds_xy=xy, pressure_altitude_ft=pa, oat_at_mda_c=oat_mda, headwind_kt=headwind, crosswind_kt=crosswind, configuration=cfg,
                      airfield_geometry=geo)

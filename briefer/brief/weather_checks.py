@@ -37,21 +37,20 @@ def weather_section(s: Situation, weather_report=None) -> WeatherChecks:
     found = FindingList()
     course_true = s.runway.landing_course_deg_true
     if s.wind_from_true is not None:
-        comp = wind.wind_components_kt(s.wind_from_true, s.wind_speed_kt, course_deg=course_true)
-        hw, xw = float(comp.headwind_kt), float(comp.crosswind_from_right_kt)
+        hw, xw = s.headwind_kt, s.crosswind_kt     # the situation's components of this wind on this course
     else:
         hw, xw = 0.0 - s.wind_speed_kt, 0.0      # 0 - 0 = +0: no "-0 kt" for calm
     ghw = gxw = None
     if wx.wind_gust_kt is not None and s.wind_from_true is not None:
         gc = wind.wind_components_kt(s.wind_from_true, wx.wind_gust_kt, course_deg=course_true)
         ghw, gxw = float(gc.headwind_kt), float(gc.crosswind_from_right_kt)
-    beyond = _wind_limit_findings(request.selected_configuration(), hw, xw, ghw, gxw, found)
+    cfg = s.configuration
+    beyond = _wind_limit_findings(cfg, hw, xw, ghw, gxw, found)
     if hw < -TAILWIND_WARNING_KT and not beyond:
         found.add("warning", "tailwind", f"Tailwind of {-hw:.0f} kt on runway {request.landing_runway}.")
     if s.wind_from_true is None and s.wind_speed_kt > 0:
         found.add("warning", "variable-wind",
                   "Variable wind: planned as calm; see the wind envelope for every direction.")
-    cfg = request.selected_configuration()
     wind_info = WindInfo(reported=wx.wind_speed_kt is not None and s.wind_speed_kt > 0,
                          from_deg_true=s.wind_from_true, speed_kt=s.wind_speed_kt, gust_kt=wx.wind_gust_kt,
                          headwind_kt=hw, crosswind_from_right_kt=xw, gust_headwind_kt=ghw,

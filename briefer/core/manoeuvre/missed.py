@@ -171,9 +171,17 @@ def _runs(plan: Plan, codes: npt.NDArray[np.int_], n_times: int
     n = min(len(codes), n_times, len(legs))
     # runs of one (direction, leg name): a new run where either changes
     name_ids = {name: k for k, name in enumerate(dict.fromkeys(names))}
-    key = codes[:n] * len(name_ids) + np.array([name_ids[name] for name in names])[legs[:n]]
-    starts = np.flatnonzero(np.concatenate([[True], key[1:] != key[:-1]])) if n else np.zeros(0, dtype=int)
-    return starts, legs, n
+    if len(name_ids) == len(names):    # every leg named once: a leg's name id is its index
+        ids = legs[:n]
+    else:
+        ids = np.array([name_ids[name] for name in names])[legs[:n]]
+    key = codes[:n] * len(name_ids) + ids
+    if not n:
+        return np.zeros(0, dtype=int), legs, n
+    change = np.empty(n, dtype=bool)   # a run starts at the first point and wherever the key changes
+    change[0] = True
+    np.not_equal(key[1:], key[:-1], out=change[1:])
+    return change.nonzero()[0], legs, n
 
 
 def _direction_codes(rel: FloatArray) -> npt.NDArray[np.int_]:
@@ -209,12 +217,16 @@ def _headline(plan: Plan, codes: npt.NDArray[np.int_]) -> str:
     skip = {i for i, name in enumerate(plan.leg_names) if name == "arrival"}
     if plan.leg_names and plan.leg_names[-1] == "final":
         skip.add(len(plan.leg_names) - 1)
-    counted = np.ones(legs.shape, dtype=bool)
+    counted = None                                # points on the legs that count (None: every point)
     for i in skip:
-        counted &= legs != i
+        if counted is None:
+            counted = legs != i
+        else:
+            counted &= legs != i
+    held_codes = codes[:-1] if counted is None else np.where(counted, codes[:-1], _NOT_COUNTED)
     # each direction's time, summed in track order (bincount adds its weights one by one, in order)
-    held = np.bincount(np.where(counted, codes[:-1], _NOT_COUNTED), weights=dt, minlength=_NOT_COUNTED + 1)
-    left, right = float(held[_CODE_OF["left"]]), float(held[_CODE_OF["right"]])
+    held = np.bincount(held_codes, weights=dt, minlength=_NOT_COUNTED + 1).tolist()
+    left, right = held[_CODE_OF["left"]], held[_CODE_OF["right"]]
     if left == right:
         return plan.side if left > 0 else ""
     return "left" if left > right else "right"
