@@ -25,6 +25,8 @@ References
 
 from __future__ import annotations
 
+import math
+
 from briefer._dataclass import dataclass, field
 from typing import Literal, Union
 
@@ -79,7 +81,7 @@ class RunwayWind:
     toward_y_kt: float
 
     def __post_init__(self) -> None:
-        if not (np.isfinite(self.toward_x_kt) and np.isfinite(self.toward_y_kt)):
+        if not (math.isfinite(self.toward_x_kt) and math.isfinite(self.toward_y_kt)):
             raise DomainError(f"wind components must be finite; got ({self.toward_x_kt}, {self.toward_y_kt}) kt")
 
     @property
@@ -127,7 +129,7 @@ def runway_wind_from(wind_from_relative_deg: float, speed_kt: float) -> RunwayWi
     DomainError
         If the speed is negative or not finite.
     """
-    if not (np.isfinite(speed_kt) and speed_kt >= 0.0):
+    if not (math.isfinite(speed_kt) and speed_kt >= 0.0):
         raise DomainError(f"wind speed_kt must be >= 0; got {speed_kt}")
     return RunwayWind(toward_x_kt=float(-speed_kt * cosd(wind_from_relative_deg)),
                       toward_y_kt=float(-speed_kt * sind(wind_from_relative_deg)))
@@ -153,7 +155,7 @@ class State:
     time_s: float = 0.0
 
     def __post_init__(self) -> None:
-        if not all(np.isfinite(v) for v in (self.x_m, self.y_m, self.heading_deg, self.time_s)):
+        if not all(math.isfinite(v) for v in (self.x_m, self.y_m, self.heading_deg, self.time_s)):
             raise DomainError("State values must be finite")
 
 
@@ -239,7 +241,7 @@ class Turn:
     name: str = "turn"
 
     def __post_init__(self) -> None:
-        if not (np.isfinite(self.angle_deg) and 0.0 <= self.angle_deg < 720.0):
+        if not (math.isfinite(self.angle_deg) and 0.0 <= self.angle_deg < 720.0):
             raise DomainError(f"turn angle_deg = {self.angle_deg}: valid range is 0 <= angle < 720")
         _check_bank(self.bank_deg)
         if self.direction not in ("left", "right"):
@@ -289,7 +291,7 @@ class TrackSamples:
 # checks
 # --------------------------------------------------------------------------------------------
 def _check_time(time_s: float) -> None:
-    if not (np.isfinite(time_s) and time_s >= 0.0):
+    if not (math.isfinite(time_s) and time_s >= 0.0):
         raise DomainError(f"leg time_s = {time_s}: must be >= 0")
 
 
@@ -304,7 +306,7 @@ def _check_bank(bank_deg: Numeric) -> None:
 
 
 def _check_roll_rate(roll_rate_deg_per_s: float | None) -> None:
-    if roll_rate_deg_per_s is not None and not (np.isfinite(roll_rate_deg_per_s) and roll_rate_deg_per_s > 0.0):
+    if roll_rate_deg_per_s is not None and not (math.isfinite(roll_rate_deg_per_s) and roll_rate_deg_per_s > 0.0):
         raise DomainError(f"roll_rate_deg_per_s = {roll_rate_deg_per_s}: must be > 0 (or None)")
 
 
