@@ -609,3 +609,39 @@ def test_track_hull_margin_is_the_radius_less_the_largest_hull_distance_to_the_l
         for given in (track, np.ascontiguousarray(track[:, ::-1])[:, ::-1]):
             got = area.track_hull_margin_m(given)
             assert type(got) is float and np.float64(got).tobytes() == np.float64(want).tobytes()
+
+
+def test_protected_area_of_float_pairs_is_the_area_of_the_array():
+    """ProtectedArea given its centres as (east, north) float pairs (the runway-axes area is made
+    so) keeps the same centres and hull as from the array of them, and two distinct centres give
+    the sorted pair as the hull (Andrew's monotone chain on two points)."""
+    rng = np.random.default_rng(5)
+    for k in range(400):
+        pts = rng.uniform(-3000.0, 3000.0, size=(int(rng.integers(1, 6)), 2))
+        if k % 3 == 0:
+            pts = np.round(pts / 500.0) * 500.0           # repeated and collinear centres
+        pairs = [tuple(p) for p in pts.tolist()]
+        a, b = ProtectedArea(centres_m=pts, radius_m=5000.0), ProtectedArea(centres_m=pairs, radius_m=5000.0)
+        assert a.centres_m == b.centres_m == tuple(pairs) and a.hull_m == b.hull_m
+        assert np.array_equal(np.array(a.hull_m), convex_hull(pts))
+    assert ProtectedArea(centres_m=[(3.0, 1.0), (-2.0, 5.0)], radius_m=1.0).hull_m == ((-2.0, 5.0), (3.0, 1.0))
+    with pytest.raises(DomainError, match="finite"):
+        ProtectedArea(centres_m=[(1.0, float("nan"))], radius_m=1.0)
+
+
+def test_contains_of_a_few_points_is_the_margin_rule():
+    """ProtectedArea.contains of a few points (computed on floats when the hull is a segment or a
+    point) is the one margin rule, margin_m >= -1e-6 m, point by point, with side and bearing
+    sectors, for points on and beside the area's edge (AIM 5-4-20; Doc 8168 Vol I 7.3.4)."""
+    rng = np.random.default_rng(9)
+    sectors = [(), (SideSector(line_a_m=(0.0, 0.0), line_b_m=(1.0, 2.0), side="left"),),
+               (BearingSector(centre_m=(10.0, -20.0), from_deg_true=300.0, to_deg_true=60.0),)]
+    for k in range(600):
+        centres = rng.uniform(-3000.0, 3000.0, size=(int(rng.integers(1, 4)), 2))
+        area = ProtectedArea(centres_m=centres, radius_m=float(rng.uniform(100.0, 6000.0)), excluded=sectors[k % 3])
+        pts = rng.uniform(-9000.0, 9000.0, size=(int(rng.integers(1, 20)), 2))
+        pts[0] = np.array(area.hull_m[0]) + (area.radius_m, 0.0)          # on the edge
+        want = np.asarray(area.margin_m(pts)) >= -1e-6
+        got = area.contains(pts)
+        assert got.dtype == bool and np.array_equal(got, want)
+        assert area.contains(pts[0]) is bool(want[0])

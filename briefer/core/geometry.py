@@ -75,6 +75,7 @@ MAX_FRAME_RANGE_M = 100_000.0
 a distance s from the origin by about s^2 / (2 R^2) (1.2e-4 at 100 km) and turns bearings by the
 meridian convergence (see `bearing_deg`); a circling area is under 15 km across."""
 
+_FEW_POINTS = 16                      # ProtectedArea.contains: up to this many points on floats
 _COINCIDENT_M = 1e-6                  # two points closer than this are one point
 _CONTAINS_TOL_M = 1e-6                # boundary points count as inside within this tolerance
 
@@ -663,11 +664,16 @@ def _hull_vertices(pts: npt.NDArray[np.float64]) -> list[tuple[float, float]]:
     """`convex_hull` of checked points, as a list of (east, north) floats."""
     if pts.ndim != 2 or pts.shape[0] < 1:
         raise DomainError(f"points must be an (N, 2) array with N >= 1; got shape {pts.shape}")
+    return _hull_of(list(map(tuple, pts.tolist())))
+
+
+def _hull_of(points: list[tuple[float, float]]) -> list[tuple[float, float]]:
+    """`_hull_vertices` of checked points given as (east, north) float tuples, N >= 1."""
     uniq: list[tuple[float, float]] = []
-    for e, n in sorted(map(tuple, pts.tolist())):
+    for e, n in sorted(points):
         if all(math.hypot(e - u[0], n - u[1]) >= _COINCIDENT_M for u in uniq):
             uniq.append((e, n))
-    if len(uniq) == 1:
+    if len(uniq) <= 2:        # one point, or a segment: the chains give the sorted points themselves
         return uniq
 
     def turn(o: tuple[float, float], a: tuple[float, float], b: tuple[float, float]) -> float:
@@ -1036,20 +1042,30 @@ class ProtectedArea:
     hull_m: tuple[tuple[float, float], ...] = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
-        c = _points(self.centres_m, "centres_m")
-        if c.ndim == 1:
-            c = c[None, :]
-        if c.ndim != 2 or c.shape[0] < 1:
-            raise DomainError(f"centres_m must be an (N, 2) array with N >= 1; got shape {c.shape}")
+        given = self.centres_m
+        if type(given) in (list, tuple) and given and all(type(p) is tuple and _one_point(p) is not None
+                                                        for p in given):
+            # finite (east, north) float pairs: the same checks and floats without an array
+            centres = tuple(given)
+        else:
+            centres = self._checked_centres()
         if not (math.isfinite(self.radius_m) and self.radius_m > 0.0):
             raise DomainError(f"radius_m must be positive and finite; got {self.radius_m}")
         for s in self.excluded:
             if not isinstance(s, (BearingSector, SideSector)):
                 raise DomainError(f"excluded sectors must be BearingSector or SideSector; got {type(s).__name__}")
-        object.__setattr__(self, "centres_m", tuple(map(tuple, c.tolist())))
+        object.__setattr__(self, "centres_m", centres)
         object.__setattr__(self, "excluded", tuple(self.excluded))
         object.__setattr__(self, "radius_m", float(self.radius_m))
-        object.__setattr__(self, "hull_m", tuple(_hull_vertices(c)))
+        object.__setattr__(self, "hull_m", tuple(_hull_of(list(centres))))
+
+    def _checked_centres(self) -> tuple[tuple[float, float], ...]:
+        c = _points(self.centres_m, "centres_m")
+        if c.ndim == 1:
+            c = c[None, :]
+        if c.ndim != 2 or c.shape[0] < 1:
+            raise DomainError(f"centres_m must be an (N, 2) array with N >= 1; got shape {c.shape}")
+        return tuple(map(tuple, c.tolist()))
 
     def _edges(self) -> tuple[npt.NDArray[np.float64], npt.NDArray[np.float64]]:
         h = np.asarray(self.hull_m)
@@ -1098,8 +1114,32 @@ class ProtectedArea:
 
     def contains(self, points: ArrayLike) -> Union[bool, npt.NDArray[np.bool_]]:
         """Whether points are inside the authorised area (the boundary counts as inside)."""
-        inside = np.asarray(self.margin_m(points)) >= -_CONTAINS_TOL_M
+        p = _points(points)
+        if p.ndim == 2 and 0 < p.shape[0] <= _FEW_POINTS and len(self.hull_m) <= 2:
+            return self._contains_few(p)
+        inside = np.asarray(self.margin_m(p)) >= -_CONTAINS_TOL_M
         return bool(inside) if inside.ndim == 0 else inside
+
+    def _contains_few(self, p: npt.NDArray[np.float64]) -> npt.NDArray[np.bool_]:
+        """`contains` of a few checked points (K, 2) when the hull is one segment (or a point):
+        `margin_m`'s distance to the segment written out on floats, point by point (the same
+        IEEE operations as `_segment_distance_m`'s arrays), each sector's clearance as
+        `margin_m` computes it."""
+        (ax, ay), (bx, by) = self.hull_m[0], self.hull_m[-1]
+        sx, sy = bx - ax, by - ay
+        ss = sx * sx + sy * sy
+        r = self.radius_m
+        margins = []
+        for e, n in p.tolist():
+            rx, ry = e - ax, n - ay
+            if ss > 0.0:
+                t = min(max((rx * sx + ry * sy) / ss, 0.0), 1.0)   # the sign of a 0 never reaches the distance
+                rx, ry = rx - t * sx, ry - t * sy
+            margins.append(r - math.sqrt(rx * rx + ry * ry))
+        for sec in self.excluded:
+            c = sec._clearance_m(p) if isinstance(sec, SideSector) else np.asarray(sec.clearance_m(p), dtype=float)
+            margins = [min(m, x) for m, x in zip(margins, c.tolist())]
+        return np.array([m >= -_CONTAINS_TOL_M for m in margins], dtype=bool)
 
     def track_margin_m(self, tracks: ArrayLike, *, sector_edge_tolerance_m: float | None = None) -> Numeric:
         """Smallest margin (`margin_m`) along each track; negative if it leaves. [m]
