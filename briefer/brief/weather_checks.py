@@ -87,18 +87,24 @@ def _wind_limit_findings(cfg, hw: float, xw: float, ghw: float | None, gxw: floa
     cross, cross_gust = _worst(abs(xw), None if gxw is None else abs(gxw))
     tail, tail_gust = _worst(-hw, None if ghw is None else -ghw)
     in_gusts = " in the gusts"
-    checks = (  # (kind, worst value, its words, profile limit, common-practice limit, limit's name,
-                #  what the flight manual calls it)
-        ("crosswind", cross, f"crosswind {crosswind_words(gxw if cross_gust else xw)}{in_gusts if cross_gust else ''}",
-         cfg.max_demonstrated_crosswind_kt, COMMON_PRACTICE_CROSSWIND_KT, "maximum demonstrated crosswind",
-         "demonstrated crosswind"),
-        ("tailwind", tail, f"{headwind_words(-tail)}{in_gusts if tail_gust else ''}",
-         cfg.tailwind_limit_kt, COMMON_PRACTICE_TAILWIND_KT, "tailwind limit", "tailwind limit"),
+
+    def cross_words() -> str:
+        return f"crosswind {crosswind_words(gxw if cross_gust else xw)}{in_gusts if cross_gust else ''}"
+
+    def tail_words() -> str:
+        return f"{headwind_words(-tail)}{in_gusts if tail_gust else ''}"
+
+    checks = (  # (kind, worst value, its words (made only for a finding), profile limit,
+                #  common-practice limit, limit's name, what the flight manual calls it)
+        ("crosswind", cross, cross_words, cfg.max_demonstrated_crosswind_kt, COMMON_PRACTICE_CROSSWIND_KT,
+         "maximum demonstrated crosswind", "demonstrated crosswind"),
+        ("tailwind", tail, tail_words, cfg.tailwind_limit_kt, COMMON_PRACTICE_TAILWIND_KT, "tailwind limit",
+         "tailwind limit"),
     )
     beyond: list[str] = []
     for kind, value, words, limit, _, limit_name, _ in checks:
         if limit is not None and round(value) > limit:
-            text = f"{words} is beyond the {limit_name} of {limit:.0f} kt ({cfg.name})"
+            text = f"{words()} is beyond the {limit_name} of {limit:.0f} kt ({cfg.name})"
             beyond.append(text)
             found.add("danger", f"{kind}-beyond-limit", f"The {text}: no plan is recommended; land on another "
                       "runway or divert.")
@@ -111,7 +117,7 @@ def _wind_limit_findings(cfg, hw: float, xw: float, ghw: float | None, gxw: floa
     for kind, value, words, limit, default, _, manual_name in checks:
         if limit is None and round(value) > default:
             found.add("warning", f"{kind}-beyond-default",
-                      f"{words.capitalize()} is beyond {default:.0f} kt, a common-practice limit (the "
+                      f"{words().capitalize()} is beyond {default:.0f} kt, a common-practice limit (the "
                       f"profile gives none): check the flight manual's {manual_name}.")
     return tuple(beyond)
 
