@@ -1030,7 +1030,8 @@ def _row_counts(sr: SamplingRows, turn_step_deg: float, n_straight: int, straigh
     elif turns:
         nominal = [sr.nominal_rad[i] for i in turns]
         if straight_step_m is not None and m:      # a plan's track: the larger of the calm and the actual angle
-            arc = cols[[at[i] + _T_ANGLE for i in turns]] - 2.0 * cols[[at[i] + _T_DP for i in turns]]
+            a = cols.take([at[i] + f for f in (_T_ANGLE, _T_DP) for i in turns], axis=0)   # one gather
+            arc = a[:len(turns)] - 2.0 * a[len(turns):]
             actual = np.where(ok, arc, 0.0).max(axis=1, initial=0.0).tolist()
             nominal = [max(a, b) for a, b in zip(nominal, actual)]
         arcs = [turn_sample_count(a, turn_step_deg) for a in nominal]
@@ -1041,7 +1042,7 @@ def _row_counts(sr: SamplingRows, turn_step_deg: float, n_straight: int, straigh
         for i in inner:
             counts[i] = n_straight
     elif inner:      # one point per straight_step_m of the longest ok row
-        g = cols[[[at[i] + f for i in inner] for f in (0, 4, 5)]]           # duration, gx, gy
+        g = cols.take([at[i] + f for f in (0, 4, 5) for i in inner], axis=0).reshape(3, len(inner), m)  # duration, gx, gy
         length = np.where(ok, np.hypot(g[1], g[2]) * g[0], 0.0).max(axis=1, initial=0.0).tolist()
         for i, d in zip(inner, length):
             counts[i] = max(n_straight, int(math.ceil(d / straight_step_m)) + 1)
@@ -1066,16 +1067,16 @@ class _Turns:
 
     def __init__(self, sr: SamplingRows, grp: list[int], t0: FloatArray | None, na: list[int],
                  den: npt.NDArray[np.int_] | None) -> None:
-        every = sr.cols[[[sr.at[i] + f for i in grp] for f in _TURN_GATHER]][:, None]   # one copy of them all
+        m = sr.ok.shape[0]
+        every = sr.cols.take([sr.at[i] + f for f in _TURN_GATHER for i in grp], axis=0).reshape(
+            len(_TURN_GATHER), 1, len(grp), m)                       # one copy of them all
         self.angle, self.tas, self.tr, self.tc, self.dp, self.wp, self.c, self.psi0, self.sign = every[:9]
         self.k = sr.k[grp[0]]
         xy0 = every[9:11].astype(np.complex128)        # (complex operands: no casting pass per operation)
         self.p0 = xy0[0] + 1j * xy0[1]
         self.t0 = t0
         self.na = max(na)
-        m = sr.ok.shape[0]
-        self.den = (np.broadcast_to(np.array([n - 1 for n in na])[:, None], (len(grp), m)) if den is None
-                    else den)[None]
+        self.den = (np.array([n - 1 for n in na])[:, None].repeat(m, axis=1) if den is None else den)[None]
         k = np.arange(self.na).reshape((self.na, 1, 1))
         self.fa = np.minimum(k, self.den) / self.den       # k / (n - 1) up to the row's n, then 1
         self.pad = k > self.den
@@ -1191,7 +1192,8 @@ def _straights(sr: SamplingRows, legs: list[int], counts: list[int], t_start: Fl
     """The straights ``legs`` (leg indices), ``counts`` points each at equal steps, both ends
     included: positions (S, n, M) for n up to the most of any (a straight's own count first),
     headings and times (None without ``t_start``, each leg's start time (L, M))."""
-    g = sr.cols[[[sr.at[i] + f for i in legs] for f in range(6)]][:, :, None]        # (6, S, 1, M)
+    g = sr.cols.take([sr.at[i] + f for f in range(6) for i in legs], axis=0).reshape(
+        6, len(legs), 1, sr.cols.shape[1])                                           # (6, S, 1, M)
     d, psi0 = g[0], g[3]
     dc, xc, yc, _, gxc, gyc = g.astype(np.complex128)        # complex operands: no casting pass per operation
     n = max(counts[i] for i in legs)
@@ -1199,7 +1201,7 @@ def _straights(sr: SamplingRows, legs: list[int], counts: list[int], t_start: Fl
     xy = (xc + 1j * yc) + ((gxc + 1j * gyc) * dc) * _cx(f)
     if t_start is None:
         return xy, None, None
-    return xy, np.broadcast_to(psi0, xy.shape), t_start[legs][:, None] + d * f
+    return xy, psi0.repeat(n, axis=1), t_start[legs][:, None] + d * f
 
 
 def sample_solution(sol: ShapeSolution | SamplingRows, *, turn_step_deg: float, n_straight: int,
@@ -1250,8 +1252,9 @@ def sample_solution(sol: ShapeSolution | SamplingRows, *, turn_step_deg: float, 
     t_start = None
     if with_heading:        # each leg's start time: the durations before it added in order
         t_start = np.zeros((len(counts) + 1, m))
-        t_start[1:] = cols[[sr.at[i] + (_T_TOTAL if kind == "turn" else 0) for i, kind in enumerate(sr.kinds)]]
-        t_start = np.cumsum(t_start, axis=0)
+        t_start[1:] = cols.take([sr.at[i] + (_T_TOTAL if kind == "turn" else 0) for i, kind in enumerate(sr.kinds)],
+                                axis=0)
+        t_start = np.add.accumulate(t_start, axis=0)       # np.cumsum without its wrapper
     with np.errstate(invalid="ignore", over="ignore", divide="ignore"):
         if m < _BLOCK_MAX_CELLS:     # few tracks: every straight, and every turn, in one block; pieces joined
             parts: list[list] = [[] for _ in counts]
