@@ -18,6 +18,7 @@ import pytest
 from briefer.core.manoeuvre.solver import (
     CircleInputs,
     applicable_candidates,
+    merge_for_sampling,
     sample_solution,
     sampling_rows,
     solve_inputs_shapes,
@@ -84,3 +85,30 @@ def test_rows_read_in_place_are_the_rows_taken_out(inp):
         for rows in (slice(2, None, 8), np.array([5, 1]), slice(0, 16)):
             kw = dict(turn_step_deg=2.0, n_straight=2, straight_step_m=100.0, with_heading=True)
             _same(sample_solution(sampling_rows(sol, rows), **kw), sample_solution(take_rows(sol, rows), **kw))
+
+
+def _same_rows(a, b):
+    assert (a is None) == (b is None)
+    if a is not None:
+        x, y = np.ascontiguousarray(a.cols), np.ascontiguousarray(b.cols)
+        assert x.shape == y.shape and np.array_equal(x.view(np.uint8), y.view(np.uint8))
+        assert np.array_equal(a.ok, b.ok) and a.kinds == b.kinds and a.k == b.k and a.at == b.at
+        assert a.nominal_rad == b.nominal_rad and a.shape == b.shape
+
+
+@pytest.mark.parametrize("inp", SCENARIOS)
+def test_the_solves_one_array_gives_the_fields_one_by_one(inp):
+    """The fields sampling reads, rows of the solve's one array (the turns' block, every other
+    field once), merged or read in place = the same fields collected leg by leg from a solution
+    without that array (take_rows of every row): every bit, every order of the shapes."""
+    shapes, sols = _solutions(inp, 16)
+    plain = [take_rows(sol, slice(None)) for sol in sols]
+    assert all(sol.columns is not None for sol in sols) and all(p.columns is None for p in plain)
+    for sol, p in zip(sols, plain):
+        _same_rows(sampling_rows(sol), sampling_rows(p))
+        for rows in (slice(2, None, 8), np.array([5, 1])):
+            _same_rows(sampling_rows(sol, rows), sampling_rows(p, rows))
+    for order in (list(range(len(sols))), list(range(len(sols)))[::-1]):
+        for k in range(1, len(order) + 1):
+            pick = order[:k]
+            _same_rows(merge_for_sampling([sols[i] for i in pick]), merge_for_sampling([plain[i] for i in pick]))

@@ -363,6 +363,8 @@ class ShapeSolution:
     turns_to_final: tuple[int, ...]     # the turn(s) that end on final (circuit: base and final turn)
     wx: FloatArray                      # wind (m/s), broadcast
     wy: FloatArray
+    columns: _ShapeColumns | None = field(default=None, compare=False)
+    """The fields sampling reads, as rows of one array of the solve (a solve over one axis of rows)."""
 
 
 def _wrap_2pi(a: FloatArray) -> FloatArray:
@@ -401,9 +403,11 @@ def _flag(ok: npt.NDArray[np.bool_], flag: int) -> npt.NDArray[np.int_]:
 
 
 class _Kernel:
-    """What every leg of one solve shares: the broadcast inputs and the leg makers."""
+    """What every leg of one solve shares: the broadcast inputs and the leg makers. ``block``:
+    the last :meth:`turns` call's fields every turn has in :class:`SamplingRows` (angle, tas,
+    tr, tc, dp, wp, c, total, psi0, sign, calm-wind angle), each an array (T, ...) over its turns."""
 
-    __slots__ = ("zero", "sig", "wx", "wy", "bank", "v", "roll_rate_rad", "x0", "y0", "c0_rad", "d_m")
+    __slots__ = ("zero", "sig", "wx", "wy", "bank", "v", "roll_rate_rad", "x0", "y0", "c0_rad", "d_m", "block")
 
     def __init__(self, *, sigma: npt.ArrayLike, tas_mps: float, wx: npt.ArrayLike, wy: npt.ArrayLike,
                  bank_rad: npt.ArrayLike, roll_rate_rad: float | None, x0: float, y0: float, c0_rad: float,
@@ -418,6 +422,7 @@ class _Kernel:
         self.v = float(tas_mps)
         self.roll_rate_rad = roll_rate_rad
         self.x0, self.y0, self.c0_rad, self.d_m = x0, y0, c0_rad, d_m
+        self.block: list[FloatArray] = []
 
     def turns(self, *specs: tuple[FloatArray, FloatArray, FloatArray, str, FloatArray]) -> list[LegArrays]:
         """Turn legs from (entry heading, angle, sign, name, calm-wind angle) specs, all computed in
@@ -436,6 +441,7 @@ class _Kernel:
             dy = sr * (np.cos(psi_a) - np.cos(psi_b)) + wy * prof.total
         else:
             dx, dy = turn_end_displacement(prof, psi0=psi_a, sign=sgn, wx=wx, wy=wy)
+        self.block = [prof.angle, prof.tas, prof.tr, prof.tc, prof.dp, prof.wp, prof.c, prof.total, psi_a, sgn, nominal]
         out = []
         for i, sp in enumerate(specs):
             p_i = TurnProfile(angle=prof.angle[i], tas=prof.tas[i], tr=prof.tr[i], tc=prof.tc[i], dp=prof.dp[i],
@@ -717,6 +723,8 @@ def solve_shapes(shapes: Sequence[Shape], *, sigma: npt.ArrayLike, tas_mps: floa
         specs = [next(st) for st in steps]
         todo = [sp for sps, gv in zip(specs, given) if gv is None for sp in sps]
         fresh = k.turns(*todo) if todo else []
+        cols = (_SolveColumns(k, fresh, (tuple(shapes), tuple(gv is None for gv in given)))
+                if k.zero.ndim == 1 else None)
         solved = []
         for st, sps, gv, mk in zip(steps, specs, given, makes):
             if gv is None:
@@ -735,10 +743,10 @@ def solve_shapes(shapes: Sequence[Shape], *, sigma: npt.ArrayLike, tas_mps: floa
                 raise RuntimeError("a shape's solve hands its turns over once")
         for sv in solved:
             _chain_starts(sv.legs, x0, y0, k.zero)
-    return [_solution(shape, sv, k, t) for shape, sv in zip(shapes, solved)]
+    return [_solution(shape, sv, k, t, None if cols is None else cols.shape(sv.legs)) for shape, sv in zip(shapes, solved)]
 
 
-def _solution(shape: Shape, s: _Solved, k: _Kernel, t: _Tracks) -> ShapeSolution:
+def _solution(shape: Shape, s: _Solved, k: _Kernel, t: _Tracks, columns: _ShapeColumns | None) -> ShapeSolution:
     zero, legs = k.zero, s.legs
     reasons = np.asarray(s.reasons, dtype=np.int64) + np.zeros(zero.shape, dtype=np.int64)
     return ShapeSolution(shape=shape, ok=reasons == 0, reasons=reasons, legs=tuple(legs), x_ri=s.x_ri + zero,
@@ -748,7 +756,117 @@ def _solution(shape: Shape, s: _Solved, k: _Kernel, t: _Tracks) -> ShapeSolution
                          psi_f=t.psi_f, gs_f=t.gs_f, psi_d=t.psi_d, gs_d=t.gs_d,
                          final_turn=[i for i, lg in enumerate(legs) if lg.name == "final turn"][0],
                          turns_to_final=tuple(i for i, lg in enumerate(legs) if lg.name in ("base turn", "final turn")),
-                         wx=k.wx, wy=k.wy)
+                         wx=k.wx, wy=k.wy, columns=columns)
+
+
+_N_BLOCK = 11       # the fields of a turn in _Kernel.block
+_STRAIGHT_LEG, _BLOCK_TURN, _LOOSE_TURN = 0, 1, 2
+_LEG_ROWS = (6, 2, 13)      # rows of each kind of leg outside the turn block
+_COLUMN_PLANS: dict[tuple, tuple | None] = {}
+"""Per kind of solve (its shapes, its number of turns made, which shapes were given theirs):
+each shape's kind of each leg and its rows (see :class:`_SolveColumns`); the same code path
+makes the same legs, so the rows are found once."""
+
+
+class _SolveColumns:
+    """Every field sampling reads of the legs of one solve's shapes (rows over one axis), as the
+    rows of one array (F, M), made when first read: the turns made by the solve's one call of
+    the turn kernels as their blocks (:attr:`_Kernel.block`, no copy per turn), then the zero
+    and one rows, the wind, and every other field of each leg in :class:`SamplingRows`' order.
+    A solve whose columns are never read pays for none of it."""
+
+    __slots__ = ("k", "block", "fresh", "key", "shapes", "idx", "cols")
+
+    def __init__(self, k: _Kernel, fresh: list[LegArrays], key: tuple) -> None:
+        self.k, self.fresh, self.key, self.block = k, fresh, key, None
+        self.shapes: list[tuple[LegArrays, ...]] = []
+        self.idx: list[list[int]] | None = None
+        self.cols: FloatArray | None = None
+
+    def shape(self, legs: list[LegArrays]) -> _ShapeColumns:
+        self.shapes.append(tuple(legs))
+        return _ShapeColumns(self, len(self.shapes) - 1)
+
+    def _plan(self) -> tuple | None:
+        """Each shape's kind of each leg and its rows (None: not every field is an array of the rows)."""
+        t = len(self.fresh)
+        kernel_at = {id(lg): i for i, lg in enumerate(self.fresh)}
+        at = _N_BLOCK * t + 4       # zero, one, wx, wy first
+        codes, idx = [], []
+        for legs in self.shapes:
+            cs, rows = [], []
+            for lg in legs:
+                i = kernel_at.get(id(lg)) if lg.kind == "turn" else None
+                c = _STRAIGHT_LEG if lg.kind == "straight" else _LOOSE_TURN if i is None else _BLOCK_TURN
+                if c == _BLOCK_TURN:
+                    rows += [i, t + i, 2 * t + i, 3 * t + i, 4 * t + i, 5 * t + i, 6 * t + i, 7 * t + i, at, at + 1,
+                             8 * t + i, 9 * t + i, 10 * t + i]
+                else:
+                    rows += range(at, at + _LEG_ROWS[c])
+                at += _LEG_ROWS[c]
+                cs.append(c)
+            codes.append(tuple(cs))
+            idx.append(rows + [_N_BLOCK * t + 2, _N_BLOCK * t + 3])
+        return tuple(codes), idx
+
+    def rows(self, n: int) -> list[int] | None:
+        """The rows of shape ``n``'s fields and the wind (None: a field is not an array of the rows)."""
+        if self.idx is None:
+            if self.block is None:      # the turn block, if every array of it is (turns, rows)
+                k, fresh = self.k, self.fresh
+                m = k.zero.shape[0]
+                ok = bool(fresh) and all(type(b) is np.ndarray and b.shape == (len(fresh), m) for b in k.block)
+                self.block = k.block if ok else []
+                self.fresh = fresh if ok else []
+                self.key = self.key + (len(self.fresh),)
+            plan = _COLUMN_PLANS.get(self.key, False)
+            if plan is False:
+                plan = self._plan()
+                if self.array(plan[0]) is None:
+                    plan = None
+                _COLUMN_PLANS[self.key] = plan
+            if plan is None or self.array(plan[0]) is None:
+                return None
+            self.idx = plan[1]
+        return self.idx[n]
+
+    def array(self, codes: tuple | None = None) -> FloatArray | None:
+        """Every row, made once (the turn block, zero, one, wind, each leg's other fields; None:
+        a field is not an array of the rows). ``codes``: each shape's kind of each leg."""
+        if self.cols is None and codes is not None:
+            k = self.k
+            m = k.zero.shape[0]
+            loose = [k.zero, np.ones(m), k.wx, k.wy]
+            for legs, cs in zip(self.shapes, codes):
+                for lg, c in zip(legs, cs):
+                    if c == _STRAIGHT_LEG:
+                        loose += (lg.duration, lg.x0, lg.y0, lg.psi0, lg.gx, lg.gy)
+                    elif c == _BLOCK_TURN:
+                        loose += (lg.x0, lg.y0)
+                    else:
+                        pr = lg.prof
+                        loose += (pr.angle, pr.tas, pr.tr, pr.tc, pr.dp, pr.wp, pr.c, pr.total, lg.x0, lg.y0, lg.psi0,
+                                  lg.sign, lg.nominal_rows)
+            try:
+                rest = np.concatenate(loose)
+            except ValueError:          # a number, or arrays of other dimensions
+                return None
+            if rest.shape != (len(loose) * m,) or rest.dtype != np.float64:
+                return None
+            rest = rest.reshape(len(loose), m)
+            self.cols = np.concatenate(self.block + [rest]) if self.block else rest    # type: ignore[operator]
+        return self.cols
+
+
+class _ShapeColumns:
+    """One shape's rows of its solve's :class:`_SolveColumns` (not a field-by-field part of the
+    solution: no ``__slots__`` to walk)."""
+
+    def __init__(self, solve: _SolveColumns, n: int) -> None:
+        self.solve, self.n = solve, n
+
+    def rows(self) -> list[int] | None:
+        return self.solve.rows(self.n)
 
 
 Rows = (npt.NDArray[np.int_] | slice) if TYPE_CHECKING else object
@@ -903,6 +1021,14 @@ def sampling_rows(sol: ShapeSolution, rows: Rows | None = None) -> SamplingRows:
     shape; a turn's calm-wind angle then is the solution's own, else the largest of the rows',
     as :func:`take_rows` makes it)."""
     shp = sol.ok.shape
+    idx = None if sol.columns is None else sol.columns.rows()
+    if idx is not None:         # rows of the solve's one array
+        whole = sol.columns.solve.array()
+        cols = whole[idx] if rows is None else whole[:, rows][idx] if isinstance(rows, slice) else whole[idx][:, rows]
+        if rows is None:
+            return SamplingRows(sol.ok, cols, sol.legs, [lg.nominal_rad for lg in sol.legs], shp)
+        ok = sol.ok[rows]
+        return SamplingRows(ok, cols, sol.legs, None if ok.size else [lg.nominal_rad for lg in sol.legs])
     fields = _sampled_fields(sol.legs, sol)
     cols = np.array(fields)
     if rows is None:
@@ -923,21 +1049,15 @@ def merge_for_sampling(sols: list[ShapeSolution], rows: Sequence[npt.NDArray[np.
     """
     rows = [None] * len(sols) if rows is None else list(rows)
     n = max(len(sol.legs) for sol in sols)
-    legs: list[tuple[LegArrays, ...]] = []
-    for sol in sols:
-        lg = sol.legs
-        turns = [x for x in lg if x.kind == "turn"]
-        if len(lg) == n - 1 and lg[0].kind == "straight" and turns:
-            lg = (_no_turn(lg[0], turns[0]),) + lg
-        if len(lg) != n:
-            return None
-        legs.append(lg)
-    for i in range(n):
-        kinds = {lg[i].kind for lg in legs}
-        finals = {lg[i].name == "final" for lg in legs}
-        ks = {lg[i].prof.k for lg in legs if lg[i].prof is not None}
-        if len(kinds) > 1 or len(finals) > 1 or len(ks) > 1:
-            return None
+    pre = _merge_plan(sols, n)
+    if pre is None:
+        return None
+    if all(r is None for r in rows):
+        merged = _merged_columns(sols, pre, n)
+        if merged is not None:
+            return merged
+    legs = [(_no_turn(sol.legs[0], next(lg for lg in sol.legs if lg.kind == "turn")),) + sol.legs if p else sol.legs
+            for sol, p in zip(sols, pre)]
     ok = _cat_rows([sol.ok for sol in sols], rows)
     # every field read, of every leg of a solution, as the rows of one array; the solutions' rows end to end
     parts = []
@@ -948,6 +1068,67 @@ def merge_for_sampling(sols: list[ShapeSolution], rows: Sequence[npt.NDArray[np.
     whole = all(r is None for r in rows)
     nominal = [max(lg[i].nominal_rad for lg in legs) for i in range(n)] if whole else None
     return SamplingRows(ok, cols, legs[0], nominal)
+
+
+def _merge_plan(sols: list[ShapeSolution], n: int) -> list[int] | None:
+    """Per solution, 1 when :func:`merge_for_sampling` gives it a turn of no angle at its start,
+    else 0; None when the legs do not match kind by kind (a final with a final, the same roll
+    ramps)."""
+    pre, like = [], None
+    for sol in sols:
+        lgs = sol.legs
+        sig = [(lg.kind, lg.name == "final", None if lg.prof is None else lg.prof.k) for lg in lgs]
+        p = 0
+        if len(lgs) == n - 1 and lgs[0].kind == "straight":
+            first = next((lg for lg in lgs if lg.kind == "turn"), None)
+            if first is None:
+                return None
+            sig.insert(0, ("turn", False, first.prof.k))        # type: ignore[union-attr]
+            p = 1
+        if like is None:
+            like = sig
+        elif sig != like:
+            return None
+        pre.append(p)
+    return pre
+
+
+_MERGE_ROWS: dict[tuple, npt.NDArray[np.intp]] = {}
+"""Per kind of solve and the shapes merged: the rows of its array gathered (see :func:`_merged_columns`)."""
+
+
+def _merged_columns(sols: list[ShapeSolution], pre: list[int], n: int) -> SamplingRows | None:
+    """:func:`merge_for_sampling` of whole solutions from the rows of their solves' arrays
+    (None: a solution has none); a turn of no angle is rows of the solve (zeros, ones, the
+    speed and ramp constant of the first turn, the start of the first leg)."""
+    cs = [sol.columns for sol in sols]
+    if any(c is None or c.rows() is None for c in cs):
+        return None
+    sc = cs[0].solve                                            # type: ignore[union-attr]
+    one = all(c.solve is sc for c in cs)                        # type: ignore[union-attr]
+    key = (sc.key, tuple(c.n for c in cs), tuple(pre)) if one else None    # type: ignore[union-attr]
+    gather = _MERGE_ROWS.get(key) if one else None
+    if gather is None:
+        idx = []
+        for sol, c, p in zip(sols, cs, pre):
+            rows = c.rows()                                     # type: ignore[union-attr]
+            if p:
+                t = next(i for i, lg in enumerate(sol.legs) if lg.kind == "turn")
+                at = 6 * t              # the legs before the first turn are straights
+                z = _N_BLOCK * len(c.solve.fresh)               # type: ignore[union-attr]  # the zero row, then the one
+                rows = [z, rows[at + 1], z, z, z, z, rows[at + 6], z, rows[1], rows[2], rows[3], z + 1, z] + rows
+            idx.append(rows)
+        if not one:
+            cols = np.concatenate([c.solve.array()[i] for c, i in zip(cs, idx)], axis=1)    # type: ignore[union-attr]
+        else:
+            gather = _MERGE_ROWS[key] = np.ascontiguousarray(np.array(idx, dtype=np.intp).T)
+    if gather is not None:          # one solve: one gather, the solutions' rows end to end
+        cols = sc.array()[gather]
+        cols = cols.reshape(cols.shape[0], -1)
+    ok = sols[0].ok if len(sols) == 1 else np.concatenate([sol.ok for sol in sols])
+    like = next(sol for sol, p in zip(sols, pre) if not p)
+    nominal = [max(v) for v in zip(*[[0.0] * p + [lg.nominal_rad for lg in sol.legs] for sol, p in zip(sols, pre)])]
+    return SamplingRows(ok, cols, like.legs, nominal)
 
 
 def leg_end_distance_m(sol: ShapeSolution, runway_length_m: float) -> FloatArray:
