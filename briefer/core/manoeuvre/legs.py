@@ -377,10 +377,10 @@ def ramp_q(tau: Numeric, c: Numeric, tas: Numeric, k: float) -> npt.NDArray[np.c
     c = np.asarray(c, dtype=float)
     v = np.asarray(tas, dtype=float)
     if tau.size > 64 and c.size and c.min() == c.max() and v.min() == v.max():
-        uniq, inv = np.unique(tau, return_inverse=True)
+        uniq = np.unique(tau)       # (its inverse by a search: a sort without the stable argsort's cost)
         if uniq.size * 8 < tau.size:
             q = ramp_q(uniq, c.flat[0], v.flat[0], k)
-            return q[inv].reshape(np.broadcast(tau, c, v).shape)
+            return q[np.searchsorted(uniq, tau)].reshape(np.broadcast(tau, c, v).shape)
     u = tau[..., None] * _GL_U
     h = c[..., None] * -np.log(np.cos(k * u))
     return (v * 0.5 * tau) * np.add.reduce(GL_WEIGHTS * np.exp(1j * h), axis=-1)
