@@ -645,3 +645,23 @@ def test_contains_of_a_few_points_is_the_margin_rule():
         got = area.contains(pts)
         assert got.dtype == bool and np.array_equal(got, want)
         assert area.contains(pts[0]) is bool(want[0])
+
+
+def test_boundary_arcs_are_numpy_linspace_to_the_last_bit():
+    """ProtectedArea.boundary fills every arc's angles in place: the same outline, to the last
+    bit, as each arc's start + numpy.linspace(0, sweep, k) about its hull vertex (arcs from the
+    outward normal of one edge to the next's, AIM 5-4-20(b)(1))."""
+    rng = np.random.default_rng(13)
+    for k in range(200):
+        centres = rng.uniform(-3000.0, 3000.0, size=(int(rng.integers(2, 6)), 2))
+        area = ProtectedArea(centres_m=centres, radius_m=float(rng.uniform(10.0, 9000.0)))
+        h = np.asarray(area.hull_m)
+        d = np.concatenate((h[1:], h[:1])) - h
+        normal = np.arctan2(-d[:, 0], d[:, 1]).tolist()
+        pieces = []
+        for i in range(len(h)):
+            start, sweep = normal[i - 1], (normal[i] - normal[i - 1]) % (2.0 * math.pi)
+            ang = start + np.linspace(0.0, sweep, max(2, int(math.ceil(180 * sweep / (2.0 * math.pi))) + 1))
+            pieces.append(np.stack([h[i, 0] + area.radius_m * np.cos(ang), h[i, 1] + area.radius_m * np.sin(ang)], -1))
+        want = np.concatenate(pieces + [pieces[0][:1]])
+        assert area.boundary().tobytes() == want.tobytes()

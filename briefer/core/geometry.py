@@ -1286,18 +1286,27 @@ class ProtectedArea:
             return np.vstack([circle, circle[:1]])
         d = np.concatenate((h[1:], h[:1])) - h                # edge i: vertex i -> i+1
         normal_ang = np.arctan2(-d[:, 0], d[:, 1]).tolist()   # outward (right-hand) normal angle
-        angs, counts = [], []
+        arcs, counts = [], []
         for i in range(len(h)):
             start = normal_ang[i - 1]
             sweep = (normal_ang[i] - start) % (2.0 * math.pi)
             k = max(2, int(math.ceil(n * sweep / (2.0 * math.pi))) + 1)
-            angs.append(start + linspace(0.0, sweep, k))
+            arcs.append((start, sweep))
             counts.append(k)
-        ang = np.concatenate(angs)                            # every arc's angles: one cos, one sin
-        m = len(ang)
+        m = sum(counts)
+        ang = np.empty(m)                                     # every arc's angles: one cos, one sin
+        o = 0
+        for (start, sweep), k in zip(arcs, counts):
+            # start + linspace(0, sweep, k) in place: (i * step + 0) + start is i * step + start
+            # (i * step >= +0), and the last angle is start + sweep
+            seg = ang[o:o + k]
+            np.multiply(np.arange(0.0, k), sweep / (k - 1), out=seg)
+            seg[-1] = sweep
+            seg += start
+            o += k
         poly = np.empty((m + 1, 2))
-        poly[:m, 0] = np.repeat(h[:, 0], counts) + self.radius_m * np.cos(ang)
-        poly[:m, 1] = np.repeat(h[:, 1], counts) + self.radius_m * np.sin(ang)
+        poly[:m, 0] = h[:, 0].repeat(counts) + self.radius_m * np.cos(ang)
+        poly[:m, 1] = h[:, 1].repeat(counts) + self.radius_m * np.sin(ang)
         poly[m] = poly[0]
         return poly
 
