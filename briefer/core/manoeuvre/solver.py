@@ -1263,14 +1263,32 @@ class _Turns:
         self.pad = k > self.den
 
 
+_RAMP_FRACTIONS: dict[int, tuple[FloatArray, ...]] = {}
+
+
+def _ramp_fractions(nr: int) -> tuple[FloatArray, ...]:
+    """The ramp samples' fractions of the ramp time, (nr, 1, 1) each, the same numbers at every
+    call (made once, read-only): the roll-in's k/nr, the roll-out's 1 - k/nr - 1/nr (= (nr-1-k)/nr),
+    the roll-out samples' time after the arc k/nr + 1/nr, and the roll-in's then the roll-out's (2 nr, 1, 1)."""
+    f = _RAMP_FRACTIONS.get(nr)
+    if f is None:
+        fr = (np.arange(nr) / nr).reshape((nr, 1, 1))
+        out = 1.0 - fr - 1.0 / nr
+        f = (fr, out, fr + 1.0 / nr, np.concatenate([fr, out], axis=0))
+        for a in f:
+            a.flags.writeable = False
+        _RAMP_FRACTIONS[nr] = f
+    return f
+
+
 def _turn_ramps(tn: _Turns, nr: int) -> tuple:
     """The roll-in and roll-out ramps of every turn, in one quadrature call: sample fractions
     (nr, 1, 1), roll-in times and air path (nr, T, M), the full ramp's Q(tr) (1, T, M), the
     roll-out samples' air path (nr, T, M) and exp(i A) (1, T, M)."""
     tr = tn.tr[0]
-    fr = (np.arange(nr) / nr).reshape((nr, 1, 1))
+    fr, out = _ramp_fractions(nr)[:2]
     tau_in = tr * fr
-    tau_out = tr * (1.0 - fr - 1.0 / nr)                     # tau3 = tr (nr-1-j)/nr
+    tau_out = tr * out                                       # tau3 = tr (nr-1-j)/nr
     q_all = ramp_q(np.concatenate([tau_in, tr[None] + 0.0 * tau_in[:1], tau_out], axis=0), tn.c[0], tn.tas[0],
                    tn.k)
     return fr, tau_in, q_all[:nr], q_all[nr:nr + 1], q_all[nr + 1:], np.exp(1j * _cx(tn.angle))
@@ -1299,6 +1317,7 @@ def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_hea
         blk = np.empty((2 * nr + na,) + tn.angle.shape[1:], dtype=np.complex128)
     a_seg = blk[nr:nr + na]
     arc = tn.angle - 2.0 * tn.dp
+    h_arc = None
     if not nr and many:     # instant bank, many tracks: p_k = C - i s r exp(i psi_k) + w t_k, C = p0 + i s r exp(i psi0)
         rot = np.exp(1j * _cx(tn.psi0))
         sr = tn.sign * (tn.tas / np.maximum(tn.wp, 1e-12))
@@ -1311,20 +1330,22 @@ def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_hea
         q_tr = ramps[3] if ramps is not None else np.zeros(tn.angle.shape, dtype=np.complex128)
         # the arc in the right-turn frame from heading 0: -i r (exp(i h) - exp(i dp)) + Q(tr)
         if not many:                                   # a few tracks: direct exponentials
-            a_seg[...] = np.exp(1j * _cx(tn.dp + arc * tn.fa))
+            h_arc = tn.dp + arc * tn.fa                # (the arc's headings too)
+            a_seg[...] = np.exp(1j * _cx(h_arc))
         else:
             _running_arc(a_seg, np.exp(1j * _cx(tn.dp))[0], arc / tn.den, tn)
         a_end = a_seg[na - 1:] - a_seg[:1]
         a_seg -= a_seg[:1].copy()
-        a_seg *= -1j * _cx(r)
+        r_cx = _cx(r)
+        a_seg *= -1j * r_cx
         a_seg += q_tr
         t_arc = tn.tr + tn.tc * tn.fa
         if ramps is not None:
             fr, tau_in, q_in, _, q_out, e_a = ramps
             blk[:nr] = q_in
-            arc_end = q_tr - 1j * _cx(r) * a_end
+            arc_end = q_tr - 1j * r_cx * a_end
             blk[nr + na:] = arc_end + e_a * np.conj(q_tr) - e_a * np.conj(q_out)
-            t_all = np.concatenate([tau_in, t_arc, tn.tr + tn.tc + tn.tr * (fr + 1.0 / nr)], axis=0)
+            t_all = np.concatenate([tau_in, t_arc, tn.tr + tn.tc + tn.tr * _ramp_fractions(nr)[2]], axis=0)
         else:
             t_all = t_arc
         # left turns mirror (conjugate), then rotate to the entry heading, then drift
@@ -1336,10 +1357,10 @@ def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_hea
     if ramps is None:       # heading relative to the entry heading, turn direction positive
         h = arc * tn.fa
     else:
-        fr = ramps[0]
-        kt = tn.k * tn.tr
-        h_ramp = tn.c * -np.log(np.cos(np.concatenate([kt * fr, kt * (1.0 - fr - 1.0 / nr)], axis=0)))
-        h = np.concatenate([h_ramp[:nr], tn.dp + arc * tn.fa, tn.angle - h_ramp[nr:]], axis=0)
+        kt = tn.k * tn.tr          # kt times the roll-in's, then the roll-out's fractions (one product)
+        h_ramp = tn.c * -np.log(np.cos(kt * _ramp_fractions(nr)[3]))
+        h = np.concatenate([h_ramp[:nr], tn.dp + arc * tn.fa if h_arc is None else h_arc, tn.angle - h_ramp[nr:]],
+                           axis=0)
     return blk, tn.psi0 + tn.sign * h, tn.t0 + t_all
 
 
