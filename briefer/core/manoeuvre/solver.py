@@ -1213,7 +1213,7 @@ def _row_counts(sr: SamplingRows, turn_step_deg: float, n_straight: int, straigh
         if straight_step_m is not None and m:      # a plan's track: the larger of the calm and the actual angle
             a = cols.take([at[i] + f for f in (_T_ANGLE, _T_DP) for i in turns], axis=0)   # one gather
             arc = a[:len(turns)] - 2.0 * a[len(turns):]
-            actual = np.where(ok, arc, 0.0).max(axis=1, initial=0.0).tolist()
+            actual = np.maximum.reduce(np.where(ok, arc, 0.0), axis=1, initial=0.0).tolist()   # .max(axis=1)
             nominal = [max(a, b) for a, b in zip(nominal, actual)]
         arcs = [turn_sample_count(a, turn_step_deg) for a in nominal]
     for i, n in zip(turns, arcs if turns else ()):
@@ -1224,7 +1224,7 @@ def _row_counts(sr: SamplingRows, turn_step_deg: float, n_straight: int, straigh
             counts[i] = n_straight
     elif inner:      # one point per straight_step_m of the longest ok row
         g = cols.take([at[i] + f for f in (0, 4, 5) for i in inner], axis=0).reshape(3, len(inner), m)  # duration, gx, gy
-        length = np.where(ok, np.hypot(g[1], g[2]) * g[0], 0.0).max(axis=1, initial=0.0).tolist()
+        length = np.maximum.reduce(np.where(ok, np.hypot(g[1], g[2]) * g[0], 0.0), axis=1, initial=0.0).tolist()
         for i, d in zip(inner, length):
             counts[i] = max(n_straight, int(math.ceil(d / straight_step_m)) + 1)
     return counts, per_row
@@ -1399,11 +1399,11 @@ def _straights(sr: SamplingRows, legs: list[int], counts: list[int], t_start: Fl
     d, psi0 = g[0], g[3]
     dc, xc, yc, _, gxc, gyc = g.astype(np.complex128)        # complex operands: no casting pass per operation
     n = max(counts[i] for i in legs)
-    f = (np.arange(n) / np.array([[counts[i] - 1] for i in legs]))[..., None]   # k / (n - 1), as np.arange(n) / (n - 1)
+    f = (np.arange(n) / np.array([counts[i] - 1 for i in legs])[:, None])[..., None]   # k / (n - 1)
     xy = (xc + 1j * yc) + ((gxc + 1j * gyc) * dc) * _cx(f)
     if t_start is None:
         return xy, None, None
-    return xy, psi0.repeat(n, axis=1), t_start[legs][:, None] + d * f
+    return xy, psi0.repeat(n, axis=1), t_start.take(legs, axis=0)[:, None] + d * f
 
 
 def sample_solution(sol: ShapeSolution | SamplingRows, *, turn_step_deg: float, n_straight: int,
@@ -1465,7 +1465,7 @@ def sample_solution(sol: ShapeSolution | SamplingRows, *, turn_step_deg: float, 
                 for s, i in enumerate(straights):
                     parts[i] = [tuple(None if blk is None else blk[s, :counts[i]] for blk in blocks)]
             if turns:
-                _turn_pieces(parts, sr, turns, None if t_start is None else t_start[turns][None], counts,
+                _turn_pieces(parts, sr, turns, None if t_start is None else t_start.take(turns, axis=0)[None], counts,
                              None if per_row is None else per_row - 1, nr, many, wind, with_heading)
             pieces = [p for part in parts for p in part]
             out = np.concatenate([p[0] for p in pieces]) if pieces else np.empty((0, m), dtype=np.complex128)
@@ -1486,7 +1486,7 @@ def sample_solution(sol: ShapeSolution | SamplingRows, *, turn_step_deg: float, 
                                 None if per_row is None else per_row[[q]] - 1, nr, many, wind)
     shp = sr.shape
     xy = np.ascontiguousarray(out.T).view(np.float64).reshape(shp + (nt, 2))
-    leg_index = np.repeat(np.arange(len(counts)), counts)
+    leg_index = np.arange(len(counts)).repeat(counts)
     if hdg is None or tim is None:
         return SolutionTrack(xy=xy, heading=None, time=None, leg_index=leg_index)
     heading, time = hdg.T, tim.T
