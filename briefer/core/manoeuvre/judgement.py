@@ -366,7 +366,7 @@ def _sampled(solved: list[tuple[list[int], ShapeSolution]], sampled: npt.NDArray
         rows = sampled[:, cis].T.ravel()                     # (side, row) in the solution's order
         if not rows.any():
             continue
-        flat = np.flatnonzero(rows)
+        flat = rows.nonzero()[0]
         # a small batch samples every row (taking rows out costs more than sampling them)
         every = bool(rows.all()) or m < _PRUNE_MIN_ROWS
         subs.append((sol, None if every else flat, None if not every or rows.all() else rows))
@@ -404,7 +404,7 @@ def _max_runway_d2(xy: FloatArray, runway_length_m: float) -> FloatArray:
     np.square(d, out=d)
     np.square(y, out=y)
     d += y
-    return np.max(d, axis=-1)
+    return np.maximum.reduce(d, axis=-1)
 
 
 def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], ShapeSolution]],
@@ -496,8 +496,8 @@ def best_of_level(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_
     nf = np.where(ok, _FAILURE_COUNT[fail & _FAILURE_BITS], _INFEASIBLE)
     vis_margin = visibility_m - batch.max_distance_from_runway_m
     with np.errstate(invalid="ignore"):
-        k2 = -np.round(np.minimum(batch.area_margin_m, vis_margin))
-        k3 = np.round(batch.total_time_s, 1)
+        k2 = -np.minimum(batch.area_margin_m, vis_margin).round()     # (np.round's own method, without its wrapper)
+        k3 = batch.total_time_s.round(1)
     sel = nf == _by_row(np.minimum, nf)
     k2 = np.where(sel & ok, k2, np.inf)
     sel &= (k2 == _by_row(np.minimum, k2)) | not_ok
@@ -538,7 +538,7 @@ def _first_true(sel: npt.NDArray[np.bool_]) -> npt.NDArray[np.int_]:
     """``np.argmax(sel, axis=-1)``: each row's first True column (0 where none); column by column
     when the rows are many."""
     if sel.shape[0] < _FEW_ROWS:
-        return np.argmax(sel, axis=-1)
+        return sel.argmax(axis=-1)
     best = np.zeros(sel.shape[0], dtype=np.intp)
     found = sel[:, 0].copy()
     for j in range(1, sel.shape[1]):
@@ -785,7 +785,7 @@ def _settle_every_level(lb: LevelBest, order: list[tuple[int, int]], fallback: t
     k = len(order)
     fits = lb.fits.reshape(k, n)
     any_fit = fits.any(axis=0)
-    level = np.where(any_fit, np.argmax(fits, axis=0), order.index(fallback))
+    level = np.where(any_fit, fits.argmax(axis=0), order.index(fallback))
     pick = level * n + np.arange(n)
     best, marg, fail = lb.best[pick], lb.marginal[pick], lb.failures[pick]
     status = np.where(any_fit, np.where(marg == 0, FITS, MARGINAL), DOES_NOT_FIT).astype(np.int64)

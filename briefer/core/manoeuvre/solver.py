@@ -398,8 +398,8 @@ def _pick_turn(mask: npt.NDArray[np.bool_], a: LegArrays, b: LegArrays | None, n
 
 
 def _flag(ok: npt.NDArray[np.bool_], flag: int) -> npt.NDArray[np.int_]:
-    """``flag`` where ``ok`` is False, else 0."""
-    return np.logical_not(ok) * flag
+    """``flag`` where ``ok`` is False, else 0 (int64, as ``np.logical_not(ok) * flag``, in one call)."""
+    return np.where(ok, 0, flag)
 
 
 class _Kernel:
