@@ -148,6 +148,17 @@ def break_off_words(plan) -> str:
     return f"{angle}{side}{hdg}{secs}"
 
 
+def missed_approach_words(turn_direction: str, instruction: str) -> str:
+    """'climbing turn RIGHT toward the runway, then: <the charted instruction>' (AIM 5-4-21(c):
+    on losing visual reference, the initial climbing turn toward the landing runway, then the
+    published missed approach); without a side, 'climbing turn toward the runway'; without a
+    charted instruction, '..., then the published missed approach' (never a dangling 'then')."""
+    side = f"{turn_direction.upper()} " if turn_direction in ("left", "right") else ""
+    head = f"climbing turn {side}toward the runway"
+    text = instruction.strip()
+    return f"{head}, then: {text}" if text else f"{head}, then the published missed approach"
+
+
 def timing_words(plan, runway: str) -> str:
     """'29 s from abeam the runway 27 threshold to roll-in, 1.44 NM past abeam' (never a
     negative time or distance: a roll-in before abeam says 'before abeam')."""

@@ -94,7 +94,7 @@ def plan_section(s: Situation, *, bank_target_deg: float, straight_in: bool,
                   f"Rolled out at {info.roll_out_distance_nm:.2f} NM final instead of the descent point, "
                   f"so that the plan fits the area and the visibility.")
     if feasible and info.leave_mda_in_turn:
-        found.add("info", "descent-in-turn", "The descent from the MDA starts in the final turn: " + info.leave_mda_text)
+        found.add("info", "descent-in-turn", f"The descent from the MDA starts before the roll-out, {info.leave_mda_text}.")
     return PlanPart(plan=info, missed_approach=missed, solved=plan, findings=tuple(found))
 
 

@@ -26,7 +26,7 @@ from briefer.cautions import CAUTIONS, SHORT_CAUTION
 from briefer.render.brief_scene import scene_from_brief
 from briefer.render.scene import ROLE_STYLES, Role, Scene
 from briefer.render.side_scene import SidePicture, side_picture
-from briefer.wording import area_edge_words, stall_margin_words, category_words, wind_components_text, wind_limits_words, wind_words
+from briefer.wording import area_edge_words, stall_margin_words, category_words, missed_approach_words, wind_components_text, wind_limits_words, wind_words
 from briefer.display_units import (DEFAULT_UNITS, altimeter_words, finding_text, visibility_reported_words,
                                    visibility_required_words, weight_words)
 from briefer.result import Brief, Finding
@@ -320,8 +320,7 @@ def _plan(brief: Brief) -> Section:
         leave,
         Figure(label="MISSED", value=turn_dir, note="climbing turn to the runway"),
     ]
-    rows = [Row(label="Missed appr", text=(f"climbing turn {turn_dir} toward the runway" if sided else
-                                           "climbing turn toward the runway") + f", then: {ma.instruction}")]
+    rows = [Row(label="Missed appr", text=missed_approach_words(ma.turn_direction, ma.instruction))]
     if p.feasible:
         where = area_edge_words(p.area_edge_margin_nm, p.inside_area)
         if p.sector_clearance_nm is not None:

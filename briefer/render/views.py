@@ -12,7 +12,7 @@ from rich.text import Text
 
 from briefer.render.text_layout import LabelRows, TitledBox
 
-from briefer.wording import area_edge_words, stall_margin_words, signed, break_off_words, timing_words, category_words, wind_components_text, wind_limits_words, wind_words
+from briefer.wording import area_edge_words, stall_margin_words, signed, break_off_words, timing_words, missed_approach_words, category_words, wind_components_text, wind_limits_words, wind_words
 from briefer.display_units import (DEFAULT_UNITS, altimeter_words, finding_text, said_in, visibility_reported_words,
                                    visibility_required_words, weight_words)
 from briefer.result import Brief, Finding
@@ -103,7 +103,7 @@ class PlanView:
             g.add_row("Plan", f"{p.shape_text}: NOT FLYABLE AS BRIEFED")
             for r in p.reasons:
                 g.add_row("", r)
-            g.add_row("Missed appr", f"climbing turn toward the runway, then {b.missed_approach.instruction}")
+            g.add_row("Missed appr", missed_approach_words("", b.missed_approach.instruction))
             yield g
             if p.alternatives:
                 yield Text("Other plans:", style="bold")
@@ -126,9 +126,8 @@ class PlanView:
         vis = {True: "stays within the reported visibility", False: "goes beyond the reported visibility",
                None: "visibility not reported"}[p.runway_within_visibility]
         g.add_row("Runway", f"{vis} (farthest {p.max_distance_from_threshold_nm:.2f} NM)")
-        turn_dir = b.missed_approach.turn_direction
-        g.add_row("Missed appr", (f"climbing turn {turn_dir.upper()} " if turn_dir else "climbing turn ")
-                  + f"toward the runway, then {b.missed_approach.instruction}")
+        g.add_row("Missed appr", missed_approach_words(b.missed_approach.turn_direction,
+                                                       b.missed_approach.instruction))
         yield g
         if p.alternatives:
             yield Text("Other plans:", style="bold")
