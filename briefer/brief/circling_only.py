@@ -24,16 +24,16 @@ def circling_only_reasons(s: Situation, category: str, crit: str) -> tuple[tuple
         for des in (rw.threshold_a.designator, rw.threshold_b.designator):
             if appr.runway is not None and des != appr.runway:
                 continue
-            thr, _ = af.runway_by_designator(des)
+            thr, opp = af.runway_by_designator(des)
             a = s.thresholds_xy[thr.designator]
-            rf = s.runway if thr is s.landing_threshold else s.airfield_geometry.runway(des)
+            rf = s.runway if thr is s.landing_threshold else s.airfield_geometry.runway_of_ends(thr, opp)
             course = rf.landing_course_deg_true
             diff = abs((final_true - course + 180.0) % 360.0 - 180.0)    # angles.wrap_180 of two floats
             if best is None or diff < best[0]:
                 best = (diff, thr, a, course)
     _, thr, a, course = best
-    faf = s.airfield_geometry.fixes_xy_m(appr)[0]
-    dist_nm = float(np.hypot(*(faf - a))) * units.M_TO_NM
+    (fe, fn), (ae, an) = s.airfield_geometry.fixes_xy_m(appr)[0].tolist(), a.tolist()
+    dist_nm = float(np.hypot(fe - ae, fn - an)) * units.M_TO_NM     # (faf - a)'s two differences, on floats
     gradient = 0.0
     if appr.faf.altitude_ft is not None and dist_nm > 0:
         gradient = float(criteria.descent_gradient_ft_per_nm(faf_altitude_ft=appr.faf.altitude_ft,

@@ -127,7 +127,7 @@ def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
                             reason=_reason_as_printed(det.reason),
                             vref_kt=cfg.vref_kt * prof.weight_speed_factor(request.landing_weight_lb),
                             circling_speed_kt=s.circling_ias_kt, wind_additive_kt=s.wind_additive_kt,
-                            category_vref_kt=prof.approach_category_speed_kt())
+                            category_vref_kt=s.category_speed_kt)
     return MinimumsAndArea(category=category, minimums=minimums, obstacles=obstacles, findings=tuple(found))
 
 
@@ -150,7 +150,7 @@ def _category_findings(s: Situation, crit: str, found: FindingList) -> None:
     if wx.gust_increment_kt > 0 and request.options.apply_wind_additive:
         steady = prof.wind_additive.additive_kt(headwind_kt=s.headwind_kt, gust_increment_kt=0.0)
         steady_ias = s.circling_ias_kt - s.wind_additive_kt + steady
-        steady_cat = criteria.category_at_speed(vref_kt=prof.approach_category_speed_kt(),
+        steady_cat = criteria.category_at_speed(vref_kt=s.category_speed_kt,
                                                 circling_speed_kt=steady_ias, criteria=crit)
         if steady_cat != cat:
             found.add("warning", "gust-raises-category",

@@ -63,6 +63,7 @@ class Situation:
     crosswind_kt: float                    # steady, from the right, on the landing runway (0 for a variable wind)
     configuration: Configuration          # request.selected_configuration(), looked up once
     airfield_geometry: AirfieldGeometry    # runway axes, arc centres, sectors, area: the one composition
+    category_speed_kt: float               # profile.approach_category_speed_kt(): the speed that fixes the category
 
     @property
     def circling_authorised(self) -> bool:
@@ -119,7 +120,8 @@ def situation(request: BriefRequest) -> Situation:
     if request.options.apply_wind_additive:
         additive = prof.wind_additive.additive_kt(headwind_kt=headwind, gust_increment_kt=wx.gust_increment_kt)
     circling_ias = cfg.circling_speed_kt * weight_factor + additive
-    det = criteria.category_for_approach(vref_kt=prof.approach_category_speed_kt(),
+    category_speed = prof.approach_category_speed_kt()
+    det = criteria.category_for_approach(vref_kt=category_speed,
                                          circling_speed_kt=circling_ias, criteria=crit)
     entry = appr.circling_minimum(det.category)
     mda = entry.mda_ft if entry is not None else None
@@ -175,4 +177,4 @@ def situation(request: BriefRequest) -> Situation:
                      plan_mda_ft=plan_mda, circling_ias_kt=circling_ias, wind_additive_kt=additive,
                      wind_from_true=wind_from, wind_speed_kt=speed, oat_c=oat, altimeter_hpa=alt_hpa,
                      thresholds_xy=xy, pressure_altitude_ft=pa, oat_at_mda_c=oat_mda, headwind_kt=headwind, crosswind_kt=crosswind, configuration=cfg,
-                     airfield_geometry=geo)
+                     airfield_geometry=geo, category_speed_kt=category_speed)

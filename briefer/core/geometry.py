@@ -40,6 +40,11 @@ from briefer.core._types import Numeric
 from briefer.errors import DomainError
 from briefer.core.angles import as_float, atand2, cosd, sind, wrap_180, wrap_360
 
+try:                                    # the ufunc np.clip calls, without its Python wrappers
+    from numpy._core.umath import clip as _uclip
+except ImportError:                     # pragma: no cover - older numpy
+    _uclip = np.clip
+
 __all__ = [
     "WGS84_A_M",
     "WGS84_F",
@@ -101,9 +106,12 @@ def _points(points: ArrayLike, name: str = "points") -> npt.NDArray[np.float64]:
     arr = np.asarray(points, dtype=float)
     if arr.ndim == 0 or arr.shape[-1] != 2:
         raise DomainError(f"{name} must have a last axis of length 2 (east_m, north_m); got shape {arr.shape}")
-    if not np.isfinite(np.add.reduce(arr, axis=None)) and not np.isfinite(arr).all():   # one pass when finite
+    if not math.isfinite(np.add.reduce(arr, axis=None)) and not np.isfinite(arr).all():   # one pass when finite
         raise DomainError(f"{name} must be finite; got {arr[~np.isfinite(arr)].ravel()[:3]}")
     return arr
+
+
+_F64 = np.dtype(np.float64)     # the float arrays' own dtype: an identity test before the equality test
 
 
 def _one_point(point: Any) -> tuple[float, float] | None:
@@ -114,7 +122,7 @@ def _one_point(point: Any) -> tuple[float, float] | None:
             e, n = point
         else:
             return None
-    elif type(point) is np.ndarray and point.shape == (2,) and point.dtype == np.float64:
+    elif type(point) is np.ndarray and point.shape == (2,) and (point.dtype is _F64 or point.dtype == np.float64):
         e, n = point.tolist()
     else:
         return None
@@ -1241,7 +1249,7 @@ class ProtectedArea:
             else:
                 t = ry * sy if sx == 0.0 else rx * sx
             t /= ss
-            np.clip(t, 0.0, 1.0, out=t)
+            _uclip(t, 0.0, 1.0, out=t)
             if sx != 0.0:
                 rx = rx - t * sx
             if sy != 0.0:
@@ -1259,7 +1267,8 @@ class ProtectedArea:
         """Smallest signed clearance of the points to any excluded sector (negative: inside one);
         +inf without sectors. [m]"""
         p = _points(points)           # checked once: a side sector's own rule takes it as it is
-        return float(min((np.min(sec._clearance_m(p) if isinstance(sec, SideSector) else sec.clearance_m(p))
+        return float(min((np.minimum.reduce(sec._clearance_m(p) if isinstance(sec, SideSector) else sec.clearance_m(p),
+                                            axis=None)       # np.min's own reduction, without its wrappers
                           for sec in self.excluded), default=math.inf))
 
     def boundary(self, n: int = 180) -> npt.NDArray[np.float64]:
@@ -1359,8 +1368,15 @@ def area_in_runway_axes(area: ProtectedArea, runway: RunwayFrame) -> ProtectedAr
     ProtectedArea
         The same area, points as (right_m, along_m). [m]
     """
+    (te, tn), ((ue, un), (re_, rn)) = runway.threshold_xy_m, (runway.along_unit, runway.right_unit)
+    te, tn, ue, un, re_, rn = float(te), float(tn), float(ue), float(un), float(re_), float(rn)
+
     def pseudo(p: ArrayLike) -> tuple[float, float]:
-        along, right = runway.to_runway_coords(p if _one_point(p) is not None else np.asarray(p, dtype=float))
+        one = _one_point(p)
+        if one is not None:     # `RunwayFrame.to_runway_coords` of one point: the same operations on floats
+            de, dn = one[0] - te, one[1] - tn
+            return de * re_ + dn * rn, de * ue + dn * un
+        along, right = runway.to_runway_coords(np.asarray(p, dtype=float))
         return float(right), float(along)
 
     course = runway.landing_course_deg_true

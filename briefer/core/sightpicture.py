@@ -448,13 +448,27 @@ def familiar_turn_track_m(*, side: str, roll_in_along_m: float, offset_m: float,
     x_ri = roll_in_along_m
     sin_th, one_minus_cos_th = _half_turn()
     out = np.empty((51, 2))
-    out[:8, 0] = _linspace(x_ri + 2500.0, x_ri, 8)                  # downwind
+    out[:8, 0] = _spaced(x_ri + 2500.0, x_ri, 8)                    # downwind
     out[:8, 1] = sign * offset_m
-    out[8:45, 0] = x_ri - radius_m * sin_th                         # 180 deg of turn, 37 points
-    out[8:45, 1] = sign * (offset_m - radius_m * one_minus_cos_th)
-    out[45:, 0] = _linspace(x_ri, x_ri + 1500.0, 6)                 # final
+    along = out[8:45, 0]                                            # 180 deg of turn, 37 points:
+    np.subtract(x_ri, np.multiply(radius_m, sin_th, out=along), out=along)    # x_ri - radius_m * sin_th
+    right = out[8:45, 1]
+    np.multiply(sign, np.subtract(offset_m, np.multiply(radius_m, one_minus_cos_th, out=right), out=right),
+                out=right)                                          # sign * (offset_m - radius_m * (1 - cos th))
+    out[45:, 0] = _spaced(x_ri, x_ri + 1500.0, 6)                   # final
     out[45:, 1] = sign * (offset_m - 2 * radius_m)
     return out
+
+
+def _spaced(start: float, stop: float, num: int) -> list[float] | np.ndarray:
+    """`briefer.core.geometry.linspace` of two floats as a list: its operations (i * step + start,
+    the last point set to stop) on floats, the same numbers without the arrays."""
+    step = (stop - start) / (num - 1)
+    if step == 0.0 or not math.isfinite(step):
+        return _linspace(start, stop, num)
+    y = [i * step + start for i in range(num)]
+    y[-1] = stop
+    return y
 
 
 _HALF_TURN: list[tuple[np.ndarray, np.ndarray]] = []
