@@ -174,3 +174,57 @@ def test_cells_beyond_the_wind_limits_leave_the_other_cells_as_they_were():
     for name in ("status", "reasons", "bank_needed_deg", "best_candidate", "area_margin_m",
                  "max_distance_from_runway_m", "roll_out_m"):
         np.testing.assert_array_equal(getattr(cut, name)[within], getattr(free, name)[within], err_msg=name)
+
+
+@pytest.mark.parametrize("seed", range(40))
+def test_best_of_level_in_plain_floats_is_the_array_rule(seed, monkeypatch):
+    """A few rows are ranked in plain floats (judgement._best_of_level_floats): every field, its
+    bits and its dtype are the array rule's, here on invented batches made to hit its corners:
+    exact ties of the rounded keys (half metres, half tenths of a second), margins of the
+    thresholds, candidates that cannot be flown (NaN numbers), rows with none flyable, and a
+    NaN margin of a flyable candidate (handed to the array path)."""
+    from briefer.core.manoeuvre import judgement as jm
+
+    rng = np.random.default_rng(seed)
+    m, c = 16, 8
+    ok = rng.random((m, c)) < 0.7
+    ok[0] = False
+    area = rng.choice([-0.5, 0.0, 0.5, 1.5, 2.5, 1e4], (m, c), p=[0.1] * 5 + [0.5]) + rng.choice([0.0, 1e-9], (m, c))
+    dist = rng.choice([1000.0, 4345.0, 4346.0, 4828.0, 4829.0], (m, c), p=[0.6, 0.1, 0.1, 0.1, 0.1])
+    ttime = rng.choice([100.35, 100.4, 100.45, 100.3, 100.05, 100.0], (m, c))     # 100.35: 100.4 as numpy rounds
+    if seed % 10 == 5:
+        area[3, 1], ok[3, 1] = np.nan, True
+    area[~ok] = dist[~ok] = ttime[~ok] = np.nan
+    batch = jm.CandidateBatch(ok=ok, area_margin_m=area, sector_bound=rng.random((m, c)) < 0.3,
+                              max_distance_from_runway_m=dist, total_time_s=ttime)
+    kw = dict(bank_deg=rng.choice([20.0, 25.0, 30.0, 36.0], m), bank_limit_deg=35.0, visibility_m=4828.0,
+              area_radius_m=R_M if seed % 2 else None,
+              aoa_margin_deg=None if seed % 3 == 0 else rng.choice([-1.0, 0.0, 2.0, 5.0], m))
+    floats = jm.best_of_level(batch, **kw)
+    monkeypatch.setattr(jm, "_FLOAT_CELLS", 0)
+    arrays = jm.best_of_level(batch, **kw)
+    for f in jm.LevelBest.__slots__:
+        a, b = getattr(floats, f), getattr(arrays, f)
+        assert a.dtype == b.dtype and a.shape == b.shape and a.tobytes() == b.tobytes(), f
+
+
+@pytest.mark.parametrize("seed", range(10))
+def test_settling_every_level_in_plain_python_is_the_array_rule(seed, monkeypatch):
+    """A few winds x levels are settled in plain Python (judgement._settle_every_level_floats):
+    every array, its bits and its dtype are the array rule's, on invented levels' bests (the
+    first level that fits, else the fallback with its failures; no candidate at all)."""
+    from briefer.core.manoeuvre import judgement as jm
+
+    rng = np.random.default_rng(seed)
+    n, banks = (1, 2, 3, 5)[seed % 4], 1 + seed % 3
+    order = [(r, b) for r in range(2 + seed % 2) for b in range(banks)]
+    k = len(order)
+    lb = jm.LevelBest(best=rng.choice([-1, 0, 1, 2], k * n), failures=rng.choice([0, 0, 1, 4, 6, 32], k * n),
+                      marginal=rng.choice([0, 0, 1, 2, 16], k * n), area_margin_m=rng.normal(100.0, 300.0, k * n),
+                      max_distance_from_runway_m=rng.normal(3000.0, 900.0, k * n),
+                      slack_m=rng.choice([-np.inf, -30.0, 12.5, np.nan], k * n))
+    floats = jm._settle_every_level(lb, order, (0, banks - 1), n)
+    monkeypatch.setattr(jm, "_FLOAT_CELLS", 0)
+    arrays = jm._settle_every_level(lb, order, (0, banks - 1), n)
+    for a, b in zip(floats, arrays, strict=True):
+        assert a.dtype == b.dtype and a.shape == b.shape and a.tobytes() == b.tobytes()

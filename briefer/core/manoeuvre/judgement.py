@@ -58,6 +58,7 @@ from briefer.core.manoeuvre.ranking import (
     MarginFn,
     bank_levels_deg,
     plan_checks,
+    plan_checks_one,
     rank_plans,
 )
 from briefer.core.manoeuvre.solver import (
@@ -90,10 +91,11 @@ _TAIL_ROWS = 512                     # few winds left: every level left in one b
 _PRUNE_MIN_ROWS = 64                 # below this many rows every row is sampled (pruning costs more)
 
 
-def roll_out_steps_m(inputs: CircleInputs) -> tuple[float, ...]:
+def roll_out_steps_m(inputs: CircleInputs, descent: DescentGeometry | None = None) -> tuple[float, ...]:
     """The closer roll-outs tried, in order, when no plan fits at the descent point: steps toward
-    the stabilised distance (descending in the final turn), ``ROLL_OUT_STEPS`` of the way."""
-    geo = descent_geometry(inputs)
+    the stabilised distance (descending in the final turn), ``ROLL_OUT_STEPS`` of the way
+    (``descent``: the inputs' :func:`descent_geometry`, if already made)."""
+    geo = descent_geometry(inputs) if descent is None else descent
     return tuple(geo.stabilised_distance_m + f * (geo.roll_out_distance_m - geo.stabilised_distance_m)
                  for f in ROLL_OUT_STEPS)
 
@@ -116,11 +118,12 @@ class Levels:
 
 
 def judgement_levels(inputs: CircleInputs, *, bank_limit_deg: float, bank_step_deg: float = 5.0,
-                     roll_out_steps: bool = True) -> Levels:
-    """The bank levels (at most 60 deg, the solver's range) and roll-outs of the judgement."""
+                     roll_out_steps: bool = True, descent: DescentGeometry | None = None) -> Levels:
+    """The bank levels (at most 60 deg, the solver's range) and roll-outs of the judgement
+    (``descent``: the inputs' :func:`descent_geometry`, if already made)."""
     banks = tuple(b for b in bank_levels_deg(inputs.bank_deg, bank_limit_deg, bank_step_deg) if b <= 60.0)
-    geo = descent_geometry(inputs)
-    steps = roll_out_steps_m(inputs) if roll_out_steps else ()
+    geo = descent_geometry(inputs) if descent is None else descent
+    steps = roll_out_steps_m(inputs, geo) if roll_out_steps else ()
     return Levels(roll_out_m=(geo.roll_out_distance_m,) + tuple(max(d, geo.stabilised_distance_m) for d in steps),
                   roll_out_chosen=(inputs.roll_out_distance_m,) + steps, bank_deg=banks)
 
@@ -484,7 +487,15 @@ def best_of_level(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_
 
     Order (lower first): number of failures, -round(min(area margin, visibility margin)) (1 m),
     round(total time, 1) (0.1 s); candidates that cannot be flown last; exact ties: the first.
+    A few cells (``_FLOAT_CELLS``) are ranked in plain floats (:func:`_best_of_level_floats`,
+    the same numbers).
     """
+    if batch.ok.size <= _FLOAT_CELLS and batch.ok.ndim == 2:
+        lb = _best_of_level_floats(batch, bank_deg=bank_deg, bank_limit_deg=bank_limit_deg,
+                                   visibility_m=visibility_m, area_radius_m=area_radius_m,
+                                   aoa_margin_deg=aoa_margin_deg)
+        if lb is not None:
+            return lb
     bank_deg = np.asarray(bank_deg, dtype=float)[..., None]
     aoa_margin_deg = None if aoa_margin_deg is None else np.asarray(aoa_margin_deg, dtype=float)[..., None]
     fail, marg = plan_checks(bank_deg=bank_deg, bank_limit_deg=bank_limit_deg, area_margin_m=batch.area_margin_m,
@@ -517,6 +528,59 @@ def best_of_level(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_
     return LevelBest(best=np.where(flyable, best, -1), failures=np.where(flyable, of_best(fail), 0),
                      marginal=np.where(flyable, of_best(marg), 0), area_margin_m=of_best(batch.area_margin_m),
                      max_distance_from_runway_m=of_best(batch.max_distance_from_runway_m), slack_m=slack)
+
+
+_FLOAT_CELLS = 128  # up to this many cells (rows x candidates), best_of_level in plain floats
+_INF, _NAN = math.inf, math.nan
+
+
+def _rint(x: float) -> float:
+    """``np.rint`` of a float: to the nearest integer, halves to even (``round``); inf as it is."""
+    return float(round(x)) if math.isfinite(x) else x
+
+
+def _best_of_level_floats(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_deg: float,
+                          visibility_m: float, area_radius_m: float | None,
+                          aoa_margin_deg: npt.ArrayLike | None) -> LevelBest | None:
+    """:func:`best_of_level` of a few rows in plain floats, row by row (None: a flyable candidate
+    has a NaN area margin, distance or time; the array path then ranks them): the checks of
+    :func:`briefer.core.manoeuvre.ranking.plan_checks_one` (the array rule's comparisons and
+    single operations), the same keys (``np.round`` to 1 m is ``rint``, to 0.1 s ``rint(10 t) / 10``,
+    as numpy rounds them) compared as a tuple, the first of exact ties. Without NaN, the array
+    path's selection is the least key among the flyable candidates (the others rank last), and
+    every number is its own (``tests/test_judgement.py``)."""
+    ok_rows = batch.ok.tolist()
+    m = len(ok_rows)
+    banks = (np.asarray(bank_deg, dtype=float) + np.zeros(m)).tolist()
+    aoas = [None] * m if aoa_margin_deg is None else (np.asarray(aoa_margin_deg, dtype=float) + np.zeros(m)).tolist()
+    areas, secs = batch.area_margin_m.tolist(), batch.sector_bound.tolist()
+    dists, times = batch.max_distance_from_runway_m.tolist(), batch.total_time_s.tolist()
+    counts = _FAILURE_COUNT.tolist()
+    hard = REASON_BANK | REASON_STALL
+    out: tuple[list, ...] = ([], [], [], [], [], [])
+    for ok, bank, aoa, area, sec, dist, tt in zip(ok_rows, banks, aoas, areas, secs, dists, times):
+        key, best, fail, marg, slack = None, 0, 0, 0, -_INF
+        for i, flyable in enumerate(ok):
+            if not flyable:
+                continue
+            a, v, t = area[i], visibility_m - dist[i], tt[i]
+            if a != a or v != v or t != t:
+                return None
+            f, mg = plan_checks_one(bank_deg=bank, bank_limit_deg=bank_limit_deg, area_margin_m=a,
+                                    sector_bound=sec[i], visibility_m=visibility_m, max_distance_from_runway_m=dist[i],
+                                    area_radius_m=area_radius_m, aoa_margin_deg=aoa)
+            room = min(a, v)
+            k = (counts[f & _FAILURE_BITS], -_rint(room), _rint(t * 10.0) / 10.0)
+            if key is None or k < key:
+                key, best, fail, marg = k, i, f, mg
+            if not f & hard and room > slack:
+                slack = room
+        for lst, val in zip(out, (-1 if key is None else best, fail, marg, area[best], dist[best], slack)):
+            lst.append(val)
+    ints = [np.array(v, dtype=np.int64) for v in out[:3]]
+    floats = [np.array(v, dtype=float) for v in out[3:]]
+    return LevelBest(best=ints[0], failures=ints[1], marginal=ints[2], area_margin_m=floats[0],
+                     max_distance_from_runway_m=floats[1], slack_m=floats[2])
 
 
 _FEW_ROWS = 64      # below this many rows, one reduction along the rows beats a call per column
@@ -612,12 +676,12 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         raise DomainError("wind components must be finite arrays of one shape")
     n = wx.size
     cands = applicable_candidates(inputs.arrival_course_deg)
+    descent = descent_geometry(inputs)
     levels = judgement_levels(inputs, bank_limit_deg=bank_limit_deg, bank_step_deg=bank_step_deg,
-                              roll_out_steps=roll_out_steps)
+                              roll_out_steps=roll_out_steps, descent=descent)
     order = levels.order()
     nb = len(levels.bank_deg)
     fallback = (0, nb - 1)
-    descent = descent_geometry(inputs)
     aoa = {b: (None if aoa_margin_fn is None else float(aoa_margin_fn(b))) for b in levels.bank_deg}
 
     if not cands or n == 0:
@@ -783,6 +847,8 @@ def _settle_every_level(lb: LevelBest, order: list[tuple[int, int]], fallback: t
     largest distance from the runway, the slack of each level (N, L)).
     """
     k = len(order)
+    if k * n <= _FLOAT_CELLS:
+        return _settle_every_level_floats(lb, order, fallback, n)
     fits = lb.fits.reshape(k, n)
     any_fit = fits.any(axis=0)
     level = np.where(any_fit, fits.argmax(axis=0), order.index(fallback))
@@ -794,6 +860,29 @@ def _settle_every_level(lb: LevelBest, order: list[tuple[int, int]], fallback: t
     b_idx = np.array([b for _, b in order], dtype=np.int64)[level]
     return (status, reasons, r_idx, b_idx, best.astype(np.int64), lb.area_margin_m[pick],
             lb.max_distance_from_runway_m[pick], lb.slack_m.reshape(k, n).T.copy())
+
+
+def _settle_every_level_floats(lb: LevelBest, order: list[tuple[int, int]], fallback: tuple[int, int],
+                               n: int) -> tuple:
+    """:func:`_settle_every_level` of a few winds and levels in plain Python: the same picks and
+    numbers (taken, not computed), the same arrays."""
+    k = len(order)
+    best, fail, marg = lb.best.tolist(), lb.failures.tolist(), lb.marginal.tolist()
+    area, dist, slack = lb.area_margin_m.tolist(), lb.max_distance_from_runway_m.tolist(), lb.slack_m.tolist()
+    out: tuple[list, ...] = ([], [], [], [], [], [], [])
+    for w in range(n):
+        fit = [i for i in range(k) if best[i * n + w] >= 0 and fail[i * n + w] == 0]
+        at = (fit[0] if fit else order.index(fallback)) * n + w
+        if fit:
+            status, reasons = (FITS if marg[at] == 0 else MARGINAL), marg[at]
+        else:
+            status, reasons = DOES_NOT_FIT, (REASON_WIND if best[at] < 0 else fail[at] | REASON_BANK)
+        r, b = order[at // n]
+        for lst, v in zip(out, (status, reasons, r, b, best[at], area[at], dist[at])):
+            lst.append(v)
+    ints = [np.array(v, dtype=np.int64) for v in out[:5]]
+    return (*ints, np.array(out[5], dtype=float), np.array(out[6], dtype=float),
+            np.array([[slack[i * n + w] for i in range(k)] for w in range(n)], dtype=float).reshape(n, k))
 
 
 def choose_plan_at_wind(inputs: CircleInputs, *, margin_fn: MarginFn, batch_margin_fn: MarginFn | None = None,
