@@ -98,21 +98,27 @@ def plan_section(s: Situation, *, bank_target_deg: float, straight_in: bool,
     return PlanPart(plan=info, missed_approach=missed, solved=plan, findings=tuple(found))
 
 
-def _visibilities_named(s: Situation, text: str) -> tuple[VisibilityMention, ...]:
-    """The plan's visibility, where the ranking's reasons in `text` name it."""
-    words = reason_visibility_words(s.visibility_m)
-    return (VisibilityMention(text=words, visibility_sm=s.visibility_m * units.M_TO_SM),) * text.count(words)
+def _visibilities_named(s: Situation, text: str, words: str | None = None) -> tuple[VisibilityMention, ...]:
+    """The plan's visibility, where the ranking's reasons in `text` name it (`words`: its words,
+    `reason_visibility_words(s.visibility_m)`, when the caller has them)."""
+    if words is None:
+        words = reason_visibility_words(s.visibility_m)
+    named = text.count(words)
+    if not named:
+        return ()
+    return (VisibilityMention(text=words, visibility_sm=s.visibility_m * units.M_TO_SM),) * named
 
 
 def _alternatives(s: Situation, choice: maneuver.PlanChoice) -> tuple[Alternative, ...]:
     nm = units.M_TO_NM
     out = []
+    words = reason_visibility_words(s.visibility_m) if len(choice.ranked) > 1 else ""
     for rp in choice.ranked[1:]:
         why_not = rp.why_not_first or "; ".join(rp.failures)
         out.append(Alternative(shape=rp.plan.shape, side=rp.plan.side, feasible=rp.verdict != "does not fit",
                                bank_deg=rp.plan.bank_deg,
                                area_margin_nm=None if rp.area_margin_m is None else rp.area_margin_m * nm,
-                               why_not=why_not, why_not_visibilities=_visibilities_named(s, why_not)))
+                               why_not=why_not, why_not_visibilities=_visibilities_named(s, why_not, words)))
     return tuple(out)
 
 

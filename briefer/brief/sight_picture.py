@@ -45,8 +45,9 @@ def sight_picture_section(s: Situation, plan_info: PlanInfo, solved: maneuver.Pl
         familiar_offset_nm=fam_offset_nm, tas_kt=tas, ias_kt=ias, bank_planned_deg=plan_info.bank_deg,
         bank_limit_deg=s.bank_limit_deg, vs1g_kt=cfg.vs1g_kt, vref_kt=cfg.vref_kt, aoa_ref=cfg.aoa_ref,
         aoa_stall=cfg.aoa_stall, weight_ratio=weight_ratio)
-    fam_track = frozen_array(np.zeros((0, 2)))
-    if feasible:
+    if not feasible:
+        fam_track = frozen_array(np.zeros((0, 2)))
+    else:
         fam_rw = sightpicture.familiar_turn_track_m(
             side=solved.side, roll_in_along_m=solved.roll_in_xy_m[0] if solved.roll_in_xy_m is not None else 0.0,
             offset_m=cmp.familiar_offset_at_circling_m,

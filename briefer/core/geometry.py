@@ -1293,8 +1293,12 @@ class ProtectedArea:
             ang = np.linspace(0.0, 2.0 * math.pi, n + 1)[:-1]
             circle = h[0] + self.radius_m * np.stack([np.cos(ang), np.sin(ang)], axis=-1)
             return np.vstack([circle, circle[:1]])
-        d = np.concatenate((h[1:], h[:1])) - h                # edge i: vertex i -> i+1
-        normal_ang = np.arctan2(-d[:, 0], d[:, 1]).tolist()   # outward (right-hand) normal angle
+        # edge i: vertex i -> i+1; its outward (right-hand) normal angle atan2(-(dx), dy), the
+        # differences and the negation on the hull's floats (the same operations as on its array)
+        hull = self.hull_m
+        nxt = hull[1:] + hull[:1]
+        normal_ang = np.arctan2(np.array([-(q[0] - p[0]) for p, q in zip(hull, nxt)]),
+                                np.array([q[1] - p[1] for p, q in zip(hull, nxt)])).tolist()
         arcs, counts = [], []
         for i in range(len(h)):
             start = normal_ang[i - 1]

@@ -328,7 +328,10 @@ def controlling_obstacle_index(area: geometry.ProtectedArea, points_m: Any,
 def obstacles_inside(area: geometry.ProtectedArea, points_m: Any) -> np.ndarray:
     """Whether each obstacle (K, 2) (east, north) [m] is inside the authorised area, its boundary
     included (`ProtectedArea.contains`, all in one call): shape (K,)."""
-    return np.atleast_1d(np.asarray(area.contains(np.asarray(points_m, dtype=float).reshape(-1, 2))))
+    inside = area.contains(np.asarray(points_m, dtype=float).reshape(-1, 2))
+    if type(inside) is np.ndarray and inside.ndim == 1:     # already what atleast_1d(asarray(.)) returns
+        return inside
+    return np.atleast_1d(np.asarray(inside))
 
 
 def highest_inside_index(inside: Sequence[bool] | np.ndarray, elevations_ft: Sequence[float]) -> int | None:

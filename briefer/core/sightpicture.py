@@ -257,9 +257,10 @@ class SightPictureComparison:
     overshoot_nm: float
 
     def __post_init__(self) -> None:
-        for name in ("planned_depression_deg", "familiar_depression_deg"):
-            if not 0.0 < getattr(self, name) < 90.0:
-                raise DomainError(f"{name} = {getattr(self, name):g} deg must be within (0, 90)")
+        if not (0.0 < self.planned_depression_deg < 90.0 and 0.0 < self.familiar_depression_deg < 90.0):
+            for name in ("planned_depression_deg", "familiar_depression_deg"):
+                if not 0.0 < getattr(self, name) < 90.0:
+                    raise DomainError(f"{name} = {getattr(self, name):g} deg must be within (0, 90)")
         if not math.isclose(self.familiar_offset_at_circling_nm * units.NM_TO_M,
                             self.familiar_offset_at_circling_m, rel_tol=1e-9):
             raise DomainError("familiar_offset_at_circling_nm and _m disagree")
@@ -268,7 +269,7 @@ class SightPictureComparison:
         turn_fields = (self.familiar_turn_radius_m, self.familiar_bank_required_deg, self.familiar_load_factor,
                        self.familiar_stall_speed_kt, self.familiar_stall_margin_pct, self.familiar_aoa)
         if self.familiar_possible:
-            if any(v is None for v in turn_fields):
+            if None in turn_fields:       # (each field a float or None)
                 raise DomainError("a possible familiar turn must carry its bank, load factor, stall and AoA")
             assert self.familiar_bank_required_deg is not None
             if not 0.0 < self.familiar_bank_required_deg < 90.0:

@@ -188,7 +188,7 @@ def _direction_codes(rel: FloatArray) -> npt.NDArray[np.int_]:
     """Indices into `_DIRECTIONS` of finite relative bearings: ahead within 5 deg of the nose
     (|rel| <= 5), either within 5 deg of the tail (|rel| >= 175), else the side of the bearing's
     sign: the bin of each bearing among `_BEARING_EDGES_DEG`, as one search."""
-    return _CODE_OF_BIN[np.searchsorted(_BEARING_EDGES_DEG, rel)]
+    return _CODE_OF_BIN[_BEARING_EDGES_DEG.searchsorted(rel)]     # np.searchsorted's own method, without its wrapper
 
 
 def headline_missed_direction(plan: Plan, guide: MissedApproachGuide) -> str:
