@@ -93,5 +93,6 @@ class AirfieldGeometry:
     def area(self, *, criteria: str, radius_m: float, approach: Any | None = None) -> geometry.ProtectedArea:
         """The protected area: arcs of `radius_m` about the criteria's centres, the approach's
         sectors cut out."""
-        return geometry.ProtectedArea(centres_m=self.arc_centres_m(criteria), radius_m=radius_m,
-                                      excluded=self.sectors(approach))
+        on_ends = cr.circling_arc_centre(criteria).centre == cr.ARC_CENTRE_RUNWAY_END     # as arc_centres_m
+        centres = geometry._circling_centre_pairs(self.airfield, self.thresholds_xy_m, on_runway_ends=on_ends)
+        return geometry.ProtectedArea(centres_m=centres, radius_m=radius_m, excluded=self.sectors(approach))

@@ -583,14 +583,21 @@ def circling_centres_m(airfield: Any, thresholds_xy: Mapping[str, ArrayLike], *,
     ndarray, shape (N, 2)
         [m]
     """
+    return np.array(_circling_centre_pairs(airfield, thresholds_xy, on_runway_ends=on_runway_ends), dtype=float)
+
+
+def _circling_centre_pairs(airfield: Any, thresholds_xy: Mapping[str, ArrayLike], *,
+                           on_runway_ends: bool) -> tuple[tuple[float, float], ...]:
+    """`circling_centres_m` as (east, north) float pairs (the rows of its array)."""
     centres = []
     for rw in airfield.runways:
         for thr, opp in ((rw.threshold_a, rw.threshold_b), (rw.threshold_b, rw.threshold_a)):
             p = np.asarray(thresholds_xy[thr.designator], dtype=float)
             if on_runway_ends and thr.displaced_m > 0.0:
                 p = runway_end_xy(p, thresholds_xy[opp.designator], thr.displaced_m)
-            centres.append(p)
-    return np.array(centres, dtype=float)
+            e, n = p.tolist()
+            centres.append((e, n))
+    return tuple(centres)
 
 
 # --------------------------------------------------------------------------------------------
