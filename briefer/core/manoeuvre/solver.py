@@ -1284,26 +1284,68 @@ def _ramp_fractions(nr: int) -> tuple[FloatArray, ...]:
 def _turn_ramps(tn: _Turns, nr: int) -> tuple:
     """The roll-in and roll-out ramps of every turn, in one quadrature call: sample fractions
     (nr, 1, 1), roll-in times and air path (nr, T, M), the full ramp's Q(tr) (1, T, M), the
-    roll-out samples' air path (nr, T, M) and exp(i A) (1, T, M)."""
-    tr = tn.tr[0]
+    roll-out samples' air path (nr, T, M)."""
+    tr, c, v = tn.tr[0], tn.c[0], tn.tas[0]
     fr, out = _ramp_fractions(nr)[:2]
     tau_in = tr * fr
-    tau_out = tr * out                                       # tau3 = tr (nr-1-j)/nr
-    q_all = ramp_q(np.concatenate([tau_in, tr[None] + 0.0 * tau_in[:1], tau_out], axis=0), tn.c[0], tn.tas[0],
-                   tn.k)
-    return fr, tau_in, q_all[:nr], q_all[nr:nr + 1], q_all[nr + 1:], np.exp(1j * _cx(tn.angle))
+    u = _distinct_ramp_times(tr, c, v)
+    if u is None:
+        q_all = ramp_q(_ramp_times(tr, tau_in, out), c, v, tn.k)
+    else:   # one TAS and roll rate: Q of each distinct ramp time once (the same numbers), then gathered
+        f1, o1 = fr.reshape(nr, 1), out.reshape(nr, 1)     # (a time per column of u)
+        q_all = ramp_q(_ramp_times(u, u * f1, o1), c.flat[0], v.flat[0], tn.k).take(u.searchsorted(tr), axis=1)
+    return fr, tau_in, q_all[:nr], q_all[nr:nr + 1], q_all[nr + 1:]
 
 
-def _running_arc(a: npt.NDArray[np.complex128], first: npt.NDArray[np.complex128], step_angle: FloatArray,
-                 tn: _Turns) -> None:
-    """a[k] = first exp(i step k), k = 0..na-1, by a running product over the samples (one
-    complex multiply per point; rounding grows like k eps); samples past a row's own count
-    repeat its last one. ``a``: (na, ...) contiguous (each sample a block apart from the others)."""
+def _exps(*angles: FloatArray) -> list[npt.NDArray[np.complex128]]:
+    """exp(i a) of each of ``angles`` (arrays (n, ...) of one trailing shape), in one call (each
+    number as np.exp(1j * a) makes it: the same complex operations, element by element)."""
+    if len(angles) == 1:
+        return [np.exp(1j * _cx(angles[0]))]
+    e = np.exp(1j * _cx(np.concatenate(angles, axis=0)))
+    out, at = [], 0
+    for a in angles:
+        out.append(e[at:at + a.shape[0]])
+        at += a.shape[0]
+    return out
+
+
+def _ramp_times(tr: FloatArray, tau_in: FloatArray, out: FloatArray) -> FloatArray:
+    """The times of every ramp sample (2 nr + 1, ...): the roll-in's ``tau_in``, the full ramp
+    ``tr``, the roll-out's tr (nr-1-j)/nr."""
+    return np.concatenate([tau_in, tr[None] + 0.0 * tau_in[:1], tr * out], axis=0)
+
+
+def _distinct_ramp_times(tr: FloatArray, c: FloatArray, v: FloatArray) -> FloatArray | None:
+    """The distinct full ramp times ``tr`` (sorted), when Q depends on the time alone (one ``c``
+    and one TAS ``v`` everywhere) and they are few (an eighth of the times or fewer); else None.
+    (A sort and a not-equal mask: np.unique without an inverse imports numpy.ma on its first call.)"""
+    if tr.size <= 8:
+        return None
+    lo, hi = np.minimum.reduce(c, None), np.maximum.reduce(c, None)
+    if not lo == hi or not np.minimum.reduce(v, None) == np.maximum.reduce(v, None):
+        return None
+    srt = tr.flatten()
+    srt.sort()
+    keep = np.empty(srt.size, dtype=bool)
+    keep[:1] = True
+    np.not_equal(srt[1:], srt[:-1], keep[1:])
+    u = srt[keep]
+    return u if u.size * 8 < srt.size else None
+
+
+def _running_arc(a: npt.NDArray[np.complex128], first: npt.NDArray[np.complex128],
+                 step: npt.NDArray[np.complex128], tn: _Turns) -> None:
+    """a[k] = first step^k (step = exp(i step angle)), k = 0..na-1, by a running product over
+    the samples (one complex multiply per point; rounding grows like k eps); samples past a row's
+    own count repeat its last one. ``a``: (na, ...) contiguous (each sample a block apart from the others)."""
     a[0] = first
-    step = np.exp(1j * _cx(step_angle))[0]
-    for k in range(1, a.shape[0]):               # loop over samples, not cells
-        np.multiply(a[k - 1], step, out=a[k])
-    np.copyto(a, np.take_along_axis(a, tn.den, axis=0), where=tn.pad)
+    mul, rows = np.multiply, list(a)             # each sample's view, made in one call
+    for k in range(1, len(rows)):                # loop over samples, not cells
+        mul(rows[k - 1], step, rows[k])          # (out positional: no keyword parsing)
+    w = tn.den.size         # a row's last sample a[den] (np.take_along_axis without its wrapper): a flat take
+    last = a.reshape(-1).take(tn.den.reshape(-1) * w + np.arange(w)).reshape(tn.den.shape)
+    np.copyto(a, last, where=tn.pad)
 
 
 def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_heading: bool,
@@ -1319,9 +1361,9 @@ def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_hea
     arc = tn.angle - 2.0 * tn.dp
     h_arc = None
     if not nr and many:     # instant bank, many tracks: p_k = C - i s r exp(i psi_k) + w t_k, C = p0 + i s r exp(i psi0)
-        rot = np.exp(1j * _cx(tn.psi0))
+        rot, step = _exps(tn.psi0, tn.sign * arc / tn.den)
         sr = tn.sign * (tn.tas / np.maximum(tn.wp, 1e-12))
-        _running_arc(a_seg, (-1j * _cx(sr) * rot)[0], tn.sign * arc / tn.den, tn)
+        _running_arc(a_seg, (-1j * _cx(sr) * rot)[0], step[0], tn)
         a_seg += (tn.p0 + 1j * _cx(sr) * rot) + (wind * _cx(tn.tc)) * _cx(tn.fa)
         t_all, ramps = tn.tr + tn.tc * tn.fa, None
     else:
@@ -1329,11 +1371,16 @@ def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_hea
         ramps = _turn_ramps(tn, nr) if nr else None
         q_tr = ramps[3] if ramps is not None else np.zeros(tn.angle.shape, dtype=np.complex128)
         # the arc in the right-turn frame from heading 0: -i r (exp(i h) - exp(i dp)) + Q(tr)
+        # exp(i angle) of the turn angle (with ramps), the entry heading, and the arc's: one call
+        ends = (tn.angle, tn.psi0) if ramps is not None else (tn.psi0,)
         if not many:                                   # a few tracks: direct exponentials
             h_arc = tn.dp + arc * tn.fa                # (the arc's headings too)
-            a_seg[...] = np.exp(1j * _cx(h_arc))
+            *ends, e_arc = _exps(*ends, h_arc)
+            a_seg[...] = e_arc
         else:
-            _running_arc(a_seg, np.exp(1j * _cx(tn.dp))[0], arc / tn.den, tn)
+            *ends, first, step = _exps(*ends, tn.dp, arc / tn.den)
+            _running_arc(a_seg, first[0], step[0], tn)
+        rot = ends[-1]
         a_end = a_seg[na - 1:] - a_seg[:1]
         a_seg -= a_seg[:1].copy()
         r_cx = _cx(r)
@@ -1341,7 +1388,8 @@ def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_hea
         a_seg += q_tr
         t_arc = tn.tr + tn.tc * tn.fa
         if ramps is not None:
-            fr, tau_in, q_in, _, q_out, e_a = ramps
+            fr, tau_in, q_in, _, q_out = ramps
+            e_a = ends[0]
             blk[:nr] = q_in
             arc_end = q_tr - 1j * r_cx * a_end
             blk[nr + na:] = arc_end + e_a * np.conj(q_tr) - e_a * np.conj(q_out)
@@ -1349,8 +1397,9 @@ def _sample_turns(tn: _Turns, nr: int, many: bool, wind: npt.ArrayLike, with_hea
         else:
             t_all = t_arc
         # left turns mirror (conjugate), then rotate to the entry heading, then drift
-        blk.imag *= tn.sign
-        blk *= np.exp(1j * _cx(tn.psi0))
+        im = blk.imag                                  # (a view: no copy back)
+        im *= tn.sign
+        blk *= rot
         blk += tn.p0 + wind * _cx(t_all)
     if not with_heading:
         return blk, None, None
