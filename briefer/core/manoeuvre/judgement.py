@@ -318,11 +318,8 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
                    (np.asarray(x, dtype=float).ravel() for x in (wy_mps, bank_deg, roll_out_m)))
     dg = descent if descent is not None else descent_geometry(inputs)
     c = len(candidates)
-    ok = np.zeros((m, c), dtype=bool)
-    area = np.full((m, c), np.nan)
-    sector = np.zeros((m, c), dtype=bool)
-    dist = np.full((m, c), np.nan)
-    ttime = np.full((m, c), np.nan)
+    ok, sector = np.zeros((2, m, c), dtype=bool)
+    area, dist, ttime = np.full((3, m, c), np.nan)
     if m == 0:
         return CandidateBatch(ok=ok, area_margin_m=area, sector_bound=sector, max_distance_from_runway_m=dist,
                               total_time_s=ttime)
@@ -335,7 +332,7 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
     sols: dict[Shape, ShapeSolution] = {}
     for sides, shapes in by_sides.items():
         g = len(sides)
-        sigma = np.repeat([1.0 if side == "right" else -1.0 for side in sides], m)
+        sigma = np.array([1.0 if side == "right" else -1.0 for side in sides]).repeat(m)
         sols.update(zip(shapes, solve_inputs_shapes(
             inputs, shapes, sigma=sigma, wx_mps=_tile(wx, g), wy_mps=_tile(wy, g), bank_deg=_tile(bank, g),
             descent=dg, roll_out_m=_tile(d, g), turns=None if turns is None else [turns[sh] for sh in shapes],
@@ -344,8 +341,12 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
     for shape, cis in groups.items():
         g, sol = len(cis), sols[shape]
         ok_g = sol.ok.reshape(g, m)
-        ok[:, cis] = ok_g.T
-        ttime[:, cis] = np.where(ok_g, sum(lg.duration for lg in sol.legs).reshape(g, m), np.nan).T
+        at = slice(cis[0], cis[0] + g) if cis[-1] - cis[0] == g - 1 else cis   # (a shape's candidates: in a run)
+        ok[:, at] = ok_g.T
+        total = sol.legs[0].duration
+        for lg in sol.legs[1:]:             # the legs' times added in order (sum() adds them to 0 first)
+            total = total + lg.duration
+        ttime[:, at] = np.where(ok_g, total.reshape(g, m), np.nan).T
         solved.append((cis, sol))
     _sample_and_margins(inputs, solved, ok, m, margin_fn=margin_fn, turn_step_deg=turn_step_deg,
                         n_straight=n_straight, visibility_m=visibility_m, all_margins=all_margins,
@@ -366,7 +367,8 @@ def _sampled(solved: list[tuple[list[int], ShapeSolution]], sampled: npt.NDArray
     each), else one call per shape."""
     subs, idx = [], []
     for cis, sol in solved:
-        rows = sampled[:, cis].T.ravel()                     # (side, row) in the solution's order
+        g = len(cis)
+        rows = sampled[:, slice(cis[0], cis[0] + g) if cis[-1] - cis[0] == g - 1 else cis].T.ravel()  # (side, row)
         if not rows.any():
             continue
         flat = rows.nonzero()[0]

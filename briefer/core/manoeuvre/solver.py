@@ -372,6 +372,16 @@ def _wrap_2pi(a: FloatArray) -> FloatArray:
     return a * (a <= 2.0 * np.pi - 1e-9)          # a hair below 2 pi is a zero turn
 
 
+class _Wrap:
+    """An angle of a turn spec to be wrapped to [0, 2 pi) (:func:`_wrap_2pi`): :meth:`_Kernel.turns`
+    wraps every such angle of its call in one go (a spec's angles are made only to be wrapped)."""
+
+    __slots__ = ("a",)
+
+    def __init__(self, a: FloatArray) -> None:
+        self.a = a
+
+
 def _pick_turn(mask: npt.NDArray[np.bool_], a: LegArrays, b: LegArrays | None, name: str,
                nominal_rad: float) -> LegArrays:
     """Turn ``a`` where ``mask``, else ``b`` (None: no turn, angle 0, at ``a``'s rate), row by row."""
@@ -428,10 +438,7 @@ class _Kernel:
         """Turn legs from (entry heading, angle, sign, name, calm-wind angle) specs, all computed in
         one call of the (elementwise) kernels: the specs are stacked on a new leading axis."""
         zero, v, wx, wy = self.zero, self.v, self.wx, self.wy
-        psi_a = np.array([sp[0] + zero for sp in specs])
-        angle = np.array([sp[1] + zero for sp in specs])
-        sgn = np.array([sp[2] + zero for sp in specs])
-        nominal = np.array([sp[4] + zero for sp in specs])
+        psi_a, angle, sgn, nominal = self._spec_block(specs)
         nominal_max = nominal.reshape(len(specs), -1).max(axis=1).tolist()    # each turn's largest
         prof = turn_profile(angle, self.bank, v, self.roll_rate_rad)
         if self.roll_rate_rad is None:      # the trochoid: s r (sin psi_b - sin psi_a, cos psi_a - cos psi_b) + w T
@@ -450,6 +457,26 @@ class _Kernel:
                                  sign=sgn[i], dx=dx[i], dy=dy[i], nominal_rad=nominal_max[i],
                                  nominal_rows=nominal[i]))
         return out
+
+    def _spec_block(self, specs: tuple) -> FloatArray:
+        """The specs' entry headings, angles, signs and calm-wind angles, each plus the zero rows
+        (broadcast, a copy), as one array (4, T, ...); the angles given as :class:`_Wrap` wrapped,
+        all in one call. One array of the fields stacked, plus 0.0, is each field plus the zero
+        rows to the bit (x + 0.0 turns -0.0 into 0.0 as x + zero does), and wrapping x + 0.0 is
+        wrapping x, plus 0.0 (a wrapped angle is never -0.0)."""
+        zero = self.zero
+        fields = [sp[j] for j in (0, 1, 2, 4) for sp in specs]
+        wrap = [i for i, f in enumerate(fields) if type(f) is _Wrap]
+        for i in wrap:
+            fields[i] = fields[i].a
+        shp = zero.shape
+        if all(type(f) is np.ndarray and f.shape == shp and f.dtype == np.float64 for f in fields):
+            block = np.array(fields) + 0.0
+        else:
+            block = np.array([f + zero for f in fields])
+        if wrap:
+            block[wrap] = _wrap_2pi(block[wrap])
+        return block.reshape((4, len(specs)) + shp)
 
     def straight(self, psi: FloatArray, gx: FloatArray, gy: FloatArray, t: FloatArray, name: str,
                  track: float | FloatArray | None) -> LegArrays:
@@ -500,7 +527,7 @@ and returns its legs and unknowns."""
 
 def _final_turn_spec(k: _Kernel, t: _Tracks) -> tuple:
     """The one 180 deg turn from the downwind onto final (pattern hand)."""
-    return (t.psi_d, _wrap_2pi(k.sig * (t.psi_f - t.psi_d)), k.sig, "final turn", np.pi + k.zero)
+    return (t.psi_d, _Wrap(k.sig * (t.psi_f - t.psi_d)), k.sig, "final turn", np.pi + k.zero)
 
 
 def _downwind_and_final(k: _Kernel, t: _Tracks, reasons: npt.NDArray[np.int_], first: list[LegArrays],
@@ -523,10 +550,10 @@ def _solve_downwind_join(k: _Kernel, t: _Tracks) -> _ShapeSteps:
     trk_b = -sig * (0.5 * np.pi)
     psi_b, gs_b, ok_b = wind_triangle(trk_b, k.v, k.wx, k.wy)
     t_f180, t_join, t_bt90, t_f90 = yield (
-        _final_turn_spec(k, t), (psi0, _wrap_2pi(sig * (psi_d - psi0)), sig, "turn downwind",
-                                 _wrap_2pi(sig * (np.pi - k.c0_rad))),
-        (psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
-        (psi_b, _wrap_2pi(sig * (psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero))
+        _final_turn_spec(k, t), (psi0, _Wrap(sig * (psi_d - psi0)), sig, "turn downwind",
+                                 _Wrap(sig * (np.pi - k.c0_rad))),
+        (psi_d, _Wrap(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
+        (psi_b, _Wrap(sig * (psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero))
     # the downwind offset is the larger of what the final turn needs (one 180 deg turn, no base
     # leg) and what the join reaches with no crossing leg (y_a); when the join reaches further, a
     # wider downwind: base turn, base leg (taking up the difference to what the base and final
@@ -556,8 +583,8 @@ def _solve_break_and_return(k: _Kernel, t: _Tracks, break_rad: float) -> _ShapeS
     psi_b = psi0 - sig * break_rad
     t_fin, t_brk, t_join = yield (
         _final_turn_spec(k, t), (psi0, break_rad + zero, -sig, "break turn", break_rad + zero),
-        (psi_b, _wrap_2pi(sig * (t.psi_d - psi_b)), sig, "turn downwind",
-         _wrap_2pi(sig * (np.pi - k.c0_rad) + break_rad)))
+        (psi_b, _Wrap(sig * (t.psi_d - psi_b)), sig, "turn downwind",
+         _Wrap(sig * (np.pi - k.c0_rad) + break_rad)))
     x_ri, y_ri = -k.d_m - t_fin.dx, -t_fin.dy
     offset = sig * y_ri
     reasons = t.reasons | _flag(offset > 0.0, R_WRONG_SIDE)
@@ -575,8 +602,8 @@ def _solve_teardrop(k: _Kernel, t: _Tracks, teardrop_rad: float) -> _ShapeSteps:
     psi0, g0x, g0y = t.psi0, t.g0x, t.g0y
     psi_t = psi0 - sig * teardrop_rad
     t_off, t_fin = yield ((psi0, teardrop_rad + zero, -sig, "offset turn", teardrop_rad + zero),
-                          (psi_t, _wrap_2pi(sig * (t.psi_f - psi_t)), sig, "final turn",
-                            _wrap_2pi(-sig * k.c0_rad + teardrop_rad)))
+                          (psi_t, _Wrap(sig * (t.psi_f - psi_t)), sig, "final turn",
+                            _Wrap(-sig * k.c0_rad + teardrop_rad)))
     gtx, gty = v * np.cos(psi_t) + k.wx, v * np.sin(psi_t) + k.wy
     bx = -d_m - x0 - t_off.dx - t_fin.dx
     by = -y0 - t_off.dy - t_fin.dy
@@ -598,7 +625,7 @@ def _solve_direct_turn(k: _Kernel, t: _Tracks, d_stab_m: float) -> _ShapeSteps:
     sig, zero, x0, y0 = k.sig, k.zero, k.x0, k.y0
     psi0, g0x, g0y = t.psi0, t.g0x, t.g0y
     ang = _wrap_2pi(sig * (t.psi_f - psi0))
-    (t_fin,) = yield ((psi0, ang, sig, "final turn", _wrap_2pi(-sig * k.c0_rad)),)
+    (t_fin,) = yield ((psi0, ang, sig, "final turn", _Wrap(-sig * k.c0_rad)),)
     t1 = -(y0 + t_fin.dy) / g0y
     x_ri, y_ri = x0 + g0x * t1, y0 + g0y * t1
     roll_out = -(x_ri + t_fin.dx)
@@ -620,10 +647,10 @@ def _solve_overfly_circuit(k: _Kernel, t: _Tracks, circuit_turn_x_m: float) -> _
     psi_b, gs_b, ok_b = wind_triangle(trk_b, v, k.wx, k.wy)
     t_up = np.maximum((circuit_turn_x_m - x0) / g0x, 0.0)
     t_cw, t_dwt, t_bt, t_fin = yield (
-        (psi0, _wrap_2pi(sig * (psi_x - psi0)), sig, "crosswind turn", _wrap_2pi(0.5 * np.pi - sig * k.c0_rad)),
-        (psi_x, _wrap_2pi(sig * (psi_d - psi_x)), sig, "downwind turn", 0.5 * np.pi + zero),
-        (psi_d, _wrap_2pi(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
-        (psi_b, _wrap_2pi(sig * (t.psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero))
+        (psi0, _Wrap(sig * (psi_x - psi0)), sig, "crosswind turn", _Wrap(0.5 * np.pi - sig * k.c0_rad)),
+        (psi_x, _Wrap(sig * (psi_d - psi_x)), sig, "downwind turn", 0.5 * np.pi + zero),
+        (psi_d, _Wrap(sig * (psi_b - psi_d)), sig, "base turn", 0.5 * np.pi + zero),
+        (psi_b, _Wrap(sig * (t.psi_f - psi_b)), sig, "final turn", 0.5 * np.pi + zero))
     y_a = y0 + g0y * t_up + t_cw.dy + t_dwt.dy            # downwind y with no crosswind leg
     y_b = -(t_bt.dy + t_fin.dy)                            # downwind y with no base leg
     offset = np.maximum(sig * y_a, sig * y_b)               # the smaller offset both ends reach
