@@ -572,6 +572,29 @@ def test_track_margins_in_runway_axes_are_the_general_rule_to_the_last_bit(runwa
         assert np.array_equal(np.signbit(margin), np.signbit(ref_margin))
 
 
+@pytest.mark.parametrize("bad", [float("nan"), float("inf"), -float("inf")])
+@pytest.mark.parametrize("centres", [[(0.0, 0.0)], [(0.0, -0.0), (0.0, 2305.4557)], [(-800.0, 3.0), (900.0, 3.0)],
+                                     [(-1145.35, -130.01), (1145.4, 129.96)]])
+def test_track_margins_of_a_track_not_finite_raise_the_one_error_without_a_warning(centres, bad):
+    """A track point that is not finite is an error of the input, whatever the area (a point or a
+    segment along an axis, where the radius part runs before the finiteness test, or any other
+    hull): the same DomainError naming the track, and no floating-point warning before it."""
+    import warnings
+
+    area = ProtectedArea(centres_m=centres, radius_m=6852.4,
+                         excluded=(SideSector(line_a_m=(0.0, 0.0), line_b_m=(0.0, 100.0), side="left"),))
+    tracks = np.random.default_rng(3).uniform(-9000.0, 9000.0, size=(4, 30, 2))
+    for where in ((0, 0, 0), (3, 29, 1), (2, 11, 0)):
+        given_tracks = tracks.copy()
+        given_tracks[where] = bad
+        with warnings.catch_warnings():
+            warnings.simplefilter("error")
+            with pytest.raises(DomainError, match="track must be finite"):
+                area.track_margins_m(given_tracks[..., ::-1], sector_edge_tolerance_m=1.0)
+            with pytest.raises(DomainError, match="track must be finite"):
+                area.track_margins_m(given_tracks)
+
+
 def test_from_runway_coords_of_a_track_is_the_broadcast_bit_for_bit():
     """A track's points (two 1-d arrays, contiguous or strided columns) to the local frame: the
     same values to the last bit as the (N, 1) x (2,) broadcast of threshold + along * u + right * v."""

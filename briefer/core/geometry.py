@@ -1000,6 +1000,11 @@ def _axis_clearance_m(sec: Sector, e: npt.NDArray[np.float64], n: npt.NDArray[np
     return None
 
 
+def _no_stack() -> npt.NDArray[np.float64]:
+    """The points' stack, never asked for by a hull of one or two vertices (`_track_hull_margin_m`)."""
+    raise AssertionError("a hull of one or two vertices needs no stack of the points")  # pragma: no cover
+
+
 def _per_track(op: np.ufunc, values: npt.NDArray[np.float64], shp: tuple[int, ...]) -> npt.NDArray[np.float64]:
     """``op.reduce`` (minimum or maximum) of each track's values (points of tracks of shape ``shp``);
     a track of one point is its value (no reduction loop per point)."""
@@ -1187,7 +1192,11 @@ class ProtectedArea:
         by_sector : ndarray of bool, shape (...)
             Whether that margin is a not-authorised sector's (deeper than the radius margin).
         """
-        t, e, n = _track_columns(tracks)
+        quick = self._axis_hull_margin_m(tracks)
+        if quick is not None:
+            t, e, n, hull_margin = quick
+        else:
+            t, e, n = _track_columns(tracks)
         out_shape = t.shape[:-2]
         t = t.reshape((-1,) + t.shape[-2:])                 # (tracks, N, 2)
         shp = t.shape[:-1]
@@ -1198,7 +1207,8 @@ class ProtectedArea:
                 stack.append(np.stack([e, n], axis=-1))
             return stack[0]
 
-        hull_margin = self._track_hull_margin_m(e, n, shp, pts)
+        if quick is None:
+            hull_margin = self._track_hull_margin_m(e, n, shp, pts)
         margin = hull_margin
         for sec in self.excluded:
             # the smallest counted clearance of a track is its smallest clearance where that counts
@@ -1213,6 +1223,31 @@ class ProtectedArea:
                 depth = np.minimum(depth, _bisector_depth_m(sec, t, sector_edge_tolerance_m))
             margin = np.minimum(margin, depth)
         return margin.reshape(out_shape), (margin < hull_margin).reshape(out_shape)
+
+    def _axis_hull_margin_m(self, tracks: ArrayLike) -> tuple[npt.NDArray[np.float64], npt.NDArray[np.float64],
+                                                             npt.NDArray[np.float64], npt.NDArray[np.float64]] | None:
+        """`track_margins_m`'s tracks and radius part when the hull is a point or a segment along
+        an axis (the runway frame's centreline): the tracks as an array, their east and north
+        columns (as `_track_columns` makes them) and each track's R - the largest distance to the
+        hull; None otherwise, or for tracks that are not all finite (`_track_columns` then checks
+        them and raises its error).
+
+        The finiteness test comes after the radius part, on its T numbers: a point that is not
+        finite makes its track's largest squared distance inf or NaN, so the margin is not
+        finite; along an axis no operation of the radius part meets inf - inf or 0 * inf, so
+        such a point raises no floating-point warning either."""
+        (ax, ay), (bx, by) = self.hull_m[0], self.hull_m[-1]
+        if len(self.hull_m) > 2 or (ax != bx and ay != by):
+            return None
+        t = np.asarray(tracks, dtype=float)
+        if t.ndim < 2 or t.shape[-1] != 2 or t.shape[-2] < 1:
+            return None
+        t3 = t.reshape((-1,) + t.shape[-2:])
+        e, n = t3[..., 0].ravel(), t3[..., 1].ravel()       # as `_track_columns` makes them
+        hull_margin = self._track_hull_margin_m(e, n, t3.shape[:-1], _no_stack)
+        if not math.isfinite(np.add.reduce(hull_margin, axis=None)):
+            return None
+        return t, e, n, hull_margin
 
     def track_hull_margin_m(self, track: ArrayLike) -> float:
         """Smallest R - dist(p, hull) along one track (N, 2), N >= 1: the radius part of
