@@ -15,7 +15,7 @@ from pathlib import Path
 from typing import Any
 
 from rich.text import Text
-from textual import on
+from textual import events, on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical, VerticalScroll
@@ -49,7 +49,17 @@ def widget_id(prefix: str, fpath: FormPath) -> str:
     return prefix + "-" + "-".join(str(p) for p in fpath) if fpath else prefix
 
 
-class FormInput(TypingInput):
+class _StyledOnMount:
+    """A form widget whose class changes restyle it only once it is on the screen: mounting
+    applies the stylesheet to it whole, so the classes set while the form is built (an Input's
+    own '-valid' and '-textual-compact', the verdict's '-error' ...) cost nothing until then."""
+
+    def update_node_styles(self, animate: bool = True) -> None:
+        if self.is_attached:                                # type: ignore[attr-defined]
+            super().update_node_styles(animate=animate)     # type: ignore[misc]
+
+
+class FormInput(_StyledOnMount, TypingInput):
     """A field's input; knows where its text lives in the form."""
 
     def __init__(self, fpath: FormPath, text: str, *, width: int, hint: str) -> None:
@@ -57,6 +67,27 @@ class FormInput(TypingInput):
         self.form_path = fpath
         self.cursor_blink = False
         self.styles.width = width + 1
+
+
+class FormMessage(_StyledOnMount, Static):
+    """The words beside a field, a row or a group (the loader's message, a reminder)."""
+
+    said: tuple[str, str] | None = None
+    """(kind, words) shown: kind 'error', 'required' or ''."""
+
+    def say(self, kind: str, text: str) -> None:
+        """Show `text` as `kind`; nothing to do (no new layout) when it shows already."""
+        if self.said == (kind, text):
+            return
+        self.said = (kind, text)
+        self.set_class(kind == "error", "-error")
+        self.set_class(kind == "required", "-required")
+        self.display = bool(text) or "form-row-msg" not in self.classes and "form-group-msg" not in self.classes
+        self.update(Text(text, style="bold") if kind == "error" else text)
+
+
+class AddButton(_StyledOnMount, Button):
+    """A repeating group's "+ add" button."""
 
 
 class SidePanel(Widget):
@@ -148,7 +179,7 @@ class FormScreen(Screen[Saved | None]):
         self.ascii = ascii
         self.checker = Checker(spec)
         self.verdict: Verdict = self.checker.check(self.texts)
-        self._msgs: dict[FormPath, Static] = {}
+        self._msgs: dict[FormPath, FormMessage] = {}
         self._inputs: dict[FormPath, FormInput] = {}
         self._built: set[FormPath] = set()
         """The items that have their lines on the screen (fields, groups, repeating groups)."""
@@ -187,10 +218,12 @@ class FormScreen(Screen[Saved | None]):
         notes: list[Widget] = []
         if self.notes:
             notes.append(Static("\n".join(f"• {n}" for n in self.notes), id="form-notes", markup=False))
-        return notes + self._items(self.spec.items, self.texts, ())
+        lines = notes + self._items(self.spec.items, self.texts, ())
+        self._show_messages()
+        return lines
 
-    def _message(self, fpath: FormPath, classes: str = "form-msg") -> Static:
-        msg = Static("", id=widget_id("msg", fpath), classes=classes, markup=False)
+    def _message(self, fpath: FormPath, classes: str = "form-msg") -> FormMessage:
+        msg = FormMessage("", id=widget_id("msg", fpath), classes=classes, markup=False)
         self._msgs[fpath] = msg
         return msg
 
@@ -231,8 +264,8 @@ class FormScreen(Screen[Saved | None]):
         out: list[Widget] = [Static(rep.title, classes="form-heading", markup=False),
                              self._message(rpath, "form-msg form-group-msg")]
         out.extend(self._repeat_item(rep, rpath, i, row) for i, row in enumerate(rows))
-        out.append(Button(f"+ add {rep.item_title.lower()}", id=widget_id("add", rpath), classes="form-add",
-                          compact=True))
+        out.append(AddButton(f"+ add {rep.item_title.lower()}", id=widget_id("add", rpath), classes="form-add",
+                             compact=True))
         return out
 
     def _repeat_item(self, rep: Repeat, rpath: FormPath, i: int, row: dict[str, Any]) -> Widget:
@@ -316,7 +349,7 @@ class FormScreen(Screen[Saved | None]):
             if cursor is not None:
                 target.cursor_position = cursor
 
-    def _row_message(self, rep: Repeat, ipath: FormPath) -> Static:
+    def _row_message(self, rep: Repeat, ipath: FormPath) -> FormMessage:
         """One message line under a short row, for the row and each of its fields."""
         msg = self._message(ipath, "form-msg form-row-msg")
         for f in rep.items:
@@ -329,6 +362,16 @@ class FormScreen(Screen[Saved | None]):
         first = next(iter(self._inputs.values()), None)
         if first is not None:
             first.focus()
+
+    _shown_once = False
+
+    def on_screen_resume(self, event: events.ScreenResume) -> None:
+        """The first time the form shows, every line was styled as it was mounted: the screen
+        need not style them all again (as it does when it comes back from a dialog). Runs
+        before the screen's own handler."""
+        if not self._shown_once:
+            self._shown_once = True
+            event.refresh_styles = False
 
     # --- editing -------------------------------------------------------------------------------
     @property
@@ -367,8 +410,17 @@ class FormScreen(Screen[Saved | None]):
         self.call_later(self._reveal)
 
     def _show_verdict(self) -> None:
+        self._show_messages()
+        self._show_status()
+        side = self.query(SidePanel)
+        if side:
+            side.first().show(self.verdict)
+
+    def _show_messages(self) -> None:
+        """The verdict beside the fields (and the inputs' marks); also on lines not mounted yet,
+        so that they are mounted as they will show."""
         v = self.verdict
-        shown: dict[Static, tuple[str, str]] = {}
+        shown: dict[FormMessage, tuple[str, str]] = {}
         for fpath, msg in self._msgs.items():
             if fpath in v.errors:
                 label = self._label_of(fpath) if "form-row-msg" in msg.classes else ""
@@ -380,17 +432,9 @@ class FormScreen(Screen[Saved | None]):
             elif fpath in self.flags and msg not in shown and not self._text_at(fpath).strip():
                 shown[msg] = ("required", self.flags[fpath])
         for msg in set(self._msgs.values()):
-            kind, text = shown.get(msg, ("", ""))
-            msg.set_class(kind == "error", "-error")
-            msg.set_class(kind == "required", "-required")
-            msg.display = bool(text) or "form-row-msg" not in msg.classes and "form-group-msg" not in msg.classes
-            msg.update(Text(text, style="bold") if kind == "error" else text)
+            msg.say(*shown.get(msg, ("", "")))
         for fpath, inp in self._inputs.items():
             inp.set_class(fpath in v.errors, "-invalid")
-        self._show_status()
-        side = self.query(SidePanel)
-        if side:
-            side.first().show(v)
 
     def _text_at(self, fpath: FormPath) -> str:
         cur: Any = self.texts
