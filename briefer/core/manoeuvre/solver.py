@@ -1231,6 +1231,8 @@ def _row_counts(sr: SamplingRows, turn_step_deg: float, n_straight: int, straigh
     counts = [2] * len(sr.kinds)           # the final: the centreline from the roll-out to the threshold, its two ends
     per_row = None
     m = ok.shape[0]
+    inner = [i for i, kind in enumerate(sr.kinds) if kind == "straight" and sr.names[i] != "final"]
+    longest = _longest(sr, turns, inner) if straight_step_m is not None and (turns or inner) else []
     if turns and pad_rows and m:           # turn_sample_count of each row's own calm-wind angle
         per_row = np.maximum(3, np.ceil(np.degrees(cols[[at[i] + _T_NOMINAL for i in turns]]) / turn_step_deg - 1e-9)
                              .astype(np.int64) + 1)
@@ -1238,23 +1240,30 @@ def _row_counts(sr: SamplingRows, turn_step_deg: float, n_straight: int, straigh
     elif turns:
         nominal = [sr.nominal_rad[i] for i in turns]
         if straight_step_m is not None and m:      # a plan's track: the larger of the calm and the actual angle
-            a = cols.take([at[i] + f for f in (_T_ANGLE, _T_DP) for i in turns], axis=0)   # one gather
-            arc = a[:len(turns)] - 2.0 * a[len(turns):]
-            actual = np.maximum.reduce(np.where(ok, arc, 0.0), axis=1, initial=0.0).tolist()   # .max(axis=1)
-            nominal = [max(a, b) for a, b in zip(nominal, actual)]
+            nominal = [max(a, b) for a, b in zip(nominal, longest)]
         arcs = [turn_sample_count(a, turn_step_deg) for a in nominal]
     for i, n in zip(turns, arcs if turns else ()):
         counts[i] = n + extra
-    inner = [i for i, kind in enumerate(sr.kinds) if kind == "straight" and sr.names[i] != "final"]
     if straight_step_m is None:
         for i in inner:
             counts[i] = n_straight
     elif inner:      # one point per straight_step_m of the longest ok row
-        g = cols.take([at[i] + f for f in (0, 4, 5) for i in inner], axis=0).reshape(3, len(inner), m)  # duration, gx, gy
-        length = np.maximum.reduce(np.where(ok, np.hypot(g[1], g[2]) * g[0], 0.0), axis=1, initial=0.0).tolist()
-        for i, d in zip(inner, length):
+        for i, d in zip(inner, longest[len(turns):]):
             counts[i] = max(n_straight, int(math.ceil(d / straight_step_m)) + 1)
     return counts, per_row
+
+
+def _longest(sr: SamplingRows, turns: list[int], inner: list[int]) -> list[float]:
+    """The largest over the ok rows (0 without one) of each turn's actual angle A - 2 dp, then of
+    each straight's length (duration x ground speed), in one gather and one reduction."""
+    cols, ok, at, nt = sr.cols, sr.ok, sr.at, len(turns)
+    g = cols.take([at[i] + f for f in (_T_ANGLE, _T_DP) for i in turns]
+                  + [at[i] + f for f in (0, 4, 5) for i in inner], axis=0)          # one gather
+    s = g[2 * nt:].reshape(3, len(inner), cols.shape[1])                             # duration, gx, gy
+    arc = g[:nt] - 2.0 * g[nt:2 * nt]
+    both = np.concatenate([arc, np.hypot(s[1], s[2]) * s[0]]) if nt and inner else arc if nt else \
+        np.hypot(s[1], s[2]) * s[0]
+    return np.maximum.reduce(np.where(ok, both, 0.0), axis=1, initial=0.0).tolist()     # .max(axis=1)
 
 
 def _cx(a: FloatArray) -> npt.NDArray[np.complex128]:
@@ -1285,9 +1294,10 @@ class _Turns:
         self.t0 = t0
         self.na = max(na)
         self.den = (np.array([n - 1 for n in na])[:, None].repeat(m, axis=1) if den is None else den)[None]
-        k = np.arange(self.na).reshape((self.na, 1, 1))
-        self.fa = np.minimum(k, self.den) / self.den       # k / (n - 1) up to the row's n, then 1
-        self.pad = k > self.den
+        k = np.arange(self.na, dtype=np.float64).reshape((self.na, 1, 1))
+        d = self.den.astype(np.float64)    # (whole numbers: exact; float loops, the same quotients)
+        self.fa = np.minimum(k, d) / d     # k / (n - 1) up to the row's n, then 1
+        self.pad = k > d
 
 
 _RAMP_FRACTIONS: dict[int, tuple[FloatArray, ...]] = {}
@@ -1475,7 +1485,7 @@ def _straights(sr: SamplingRows, legs: list[int], counts: list[int], t_start: Fl
     d, psi0 = g[0], g[3]
     dc, xc, yc, _, gxc, gyc = g.astype(np.complex128)        # complex operands: no casting pass per operation
     n = max(counts[i] for i in legs)
-    f = (np.arange(n) / np.array([counts[i] - 1 for i in legs])[:, None])[..., None]   # k / (n - 1)
+    f = (np.arange(n, dtype=np.float64) / np.array([float(counts[i] - 1) for i in legs])[:, None])[..., None]  # k/(n-1)
     xy = (xc + 1j * yc) + ((gxc + 1j * gyc) * dc) * _cx(f)
     if t_start is None:
         return xy, None, None
