@@ -33,6 +33,11 @@ from typing import Literal, NamedTuple
 
 import numpy as np
 
+try:                                    # the ufunc np.clip calls, without its Python wrappers
+    from numpy._core.umath import clip as _uclip
+except ImportError:                     # pragma: no cover - older numpy
+    _uclip = np.clip
+
 from briefer import units
 from briefer.core import angles
 from briefer.core._types import Numeric
@@ -362,7 +367,7 @@ def wind_triangle(track_rad: Numeric, tas: Numeric, w1: Numeric, w2: Numeric
     w_u = w1 * cu + w2 * su
     q = w_n / tas
     ok = np.abs(q) < 1.0
-    qc = np.minimum(np.maximum(q, -1.0), 1.0)
+    qc = _uclip(q, -1.0, 1.0)       # np.minimum(np.maximum(q, -1), 1): the same values, NaN and signed zeros kept
     psi = track_rad - np.arcsin(qc)
     gs = tas * np.sqrt(1.0 - qc * qc) + w_u
     return psi, gs, ok & (gs > 0.0)
