@@ -266,3 +266,33 @@ def test_shapes_solved_together_are_each_shape_solved_alone(inp):
         assert got.keys() == alone.keys()
         for path, a in alone.items():
             np.testing.assert_array_equal(got[path], a, err_msg=f"{shape} {path}")
+
+
+@pytest.mark.parametrize("inp", SCENARIOS)
+def test_a_small_batch_sampled_whole_gives_the_cells_taken_one_shape_at_a_time(inp, monkeypatch):
+    """A small batch's shapes are sampled in one call and its cells taken out at once
+    (judgement._sampled_whole): the same rows, candidates and track points, bit for bit, as the
+    general way (each shape's cells found on its own and joined), here also with cells left out
+    of the sampling (as a pruned level leaves them) and a candidate with none sampled."""
+    from briefer.core.manoeuvre import judgement as jm
+
+    wx = np.array([0.0, 8.0, -12.0, 5.0])
+    wy = np.array([0.0, -6.0, 3.0, 11.0])
+    cands = applicable_candidates(inp.arrival_course_deg)
+    batch = solve_candidates(inp, cands, wx_mps=wx, wy_mps=wy, bank_deg=np.array([25.0, 25.0, 30.0, 30.0]),
+                             roll_out_m=descent_geometry(inp).roll_out_distance_m, margin_fn=margins)
+    solved = [(list(cis), sol) for cis, sol in batch.solutions]
+    kw = dict(turn_step_deg=BATCH_TURN_STEP_DEG, n_straight=BATCH_N_STRAIGHT)
+    for drop in (None, 0, len(cands) - 1):
+        sampled = batch.ok.copy()
+        if drop is not None:
+            sampled[1::2, drop] = False
+            sampled[:, drop] &= drop != 0          # candidate 0: no cell sampled
+        whole = jm._sampled(solved, sampled, 4, **kw)
+        monkeypatch.setattr(jm, "_sampled_whole", lambda *a, **k: None)
+        each = jm._sampled(solved, sampled, 4, **kw)
+        monkeypatch.undo()
+        assert len(whole) == len(each)
+        for got, want in zip(whole, each, strict=True):
+            for a, b in zip(got, want, strict=True):
+                assert a.dtype == b.dtype and a.shape == b.shape and a.tobytes() == b.tobytes()

@@ -365,6 +365,10 @@ def _sampled(solved: list[tuple[list[int], ShapeSolution]], sampled: npt.NDArray
     """(rows, candidates, tracks) of the cells ``sampled`` (M, C): every shape sampled in one
     call where their legs match (:func:`merge_for_sampling`, which takes the rows sampled of
     each), else one call per shape."""
+    if m < _PRUNE_MIN_ROWS:
+        few = _sampled_whole(solved, sampled, m, turn_step_deg=turn_step_deg, n_straight=n_straight)
+        if few is not None:
+            return few
     subs, idx = [], []
     for cis, sol in solved:
         g = len(cis)
@@ -396,6 +400,29 @@ def _sampled(solved: list[tuple[list[int], ShapeSolution]], sampled: npt.NDArray
         idx = [tuple(np.concatenate(part) for part in zip(*idx))]
         subs = [(merged, None, keep)]
     return [(r, c, xy if keep is None else xy[keep]) for (r, c), (_, _, keep), xy in zip(idx, subs, xys)]
+
+
+def _sampled_whole(solved: list[tuple[list[int], ShapeSolution]], sampled: npt.NDArray[np.bool_], m: int, *,
+                   turn_step_deg: float, n_straight: int) -> list[tuple[npt.NDArray[np.int_], ...]] | None:
+    """:func:`_sampled` of a small batch (every row of a shape with a cell sampled is sampled),
+    when its shapes merge (None otherwise): one sampling call, and the cells taken out of it at
+    once. The merged rows are the shapes' (side, row) rows end to end, so the cells, candidate
+    by candidate, row by row, are the rows taken, in :func:`_sampled`'s order; the rows not
+    taken (not sampled: every row that cannot be flown among them) are left out unread."""
+    anyc = sampled.any(axis=0).tolist()
+    inc = [(cis, sol) for cis, sol in solved if True in [anyc[ci] for ci in cis]]
+    if not inc:
+        return []
+    merged = merge_for_sampling([sol for _, sol in inc])
+    if merged is None:
+        return None
+    xy = sample_solution(merged, turn_step_deg=turn_step_deg, n_straight=n_straight, running_product=True,
+                         pad_rows=True).xy
+    cis_all = [ci for cis, _ in inc for ci in cis]
+    run = cis_all == list(range(cis_all[0], cis_all[0] + len(cis_all)))
+    keep = sampled[:, slice(cis_all[0], cis_all[0] + len(cis_all)) if run else cis_all].T.ravel()
+    flat = keep.nonzero()[0]
+    return [(flat % m, np.asarray(cis_all)[flat // m], xy if flat.size == keep.size else xy[keep])]
 
 
 def _max_runway_d2(xy: FloatArray, runway_length_m: float) -> FloatArray:
@@ -444,12 +471,12 @@ def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], Shap
         tracks.append((r_idx, c_idx, xy))
     # a candidate whose sampled track takes the runway beyond the visibility fails whatever its
     # margin: no margin, except on the rows reported in full
-    need = sampled
+    picked = tracks                 # (every track sampled: every one needs its margins)
     if prune:
         with np.errstate(invalid="ignore"):
             need = sampled & (~(dist > visibility_m) | full[:, None])
-    picked = [(r[sel], c[sel], xy if sel.all() else xy[sel]) for r, c, xy in tracks
-              for sel in (need[r, c],) if sel.any()]
+        picked = [(r[sel], c[sel], xy if sel.all() else xy[sel]) for r, c, xy in tracks
+                  for sel in (need[r, c],) if sel.any()]
     if len({xy.shape[-2] for _, _, xy in picked}) == 1 and len(picked) > 1:    # one call for tracks of one length
         picked = [tuple(np.concatenate(part) for part in zip(*picked))]
     for r_idx, c_idx, xy in picked:
