@@ -670,6 +670,24 @@ def test_contains_of_a_few_points_is_the_margin_rule():
         assert area.contains(pts[0]) is bool(want[0])
 
 
+def test_contains_of_a_few_points_beside_a_side_sector_edge_is_the_margin_rule():
+    """ProtectedArea.contains of a few points tests a side sector's clearance on floats away from
+    the tolerance edge and by the sector's own rule near it: the answer is the one margin rule,
+    margin_m >= -1e-6 m, for points on the sector's line and within a few 1e-10 m of the
+    tolerance (AIM 5-4-20; Doc 8168 Vol I 7.3.4)."""
+    rng = np.random.default_rng(21)
+    for k in range(400):
+        a = tuple(rng.uniform(-3000.0, 3000.0, 2).tolist())
+        b = tuple((np.array(a) + rng.uniform(-3000.0, 3000.0, 2)).tolist())
+        sec = SideSector(line_a_m=a, line_b_m=b, side="left" if k % 2 else "right")
+        area = ProtectedArea(centres_m=[(0.0, 0.0), (1500.0, 800.0)][: 1 + k % 2], radius_m=8000.0, excluded=(sec,))
+        along = rng.uniform(-1.5, 1.5, size=(6, 1)) * np.subtract(b, a)
+        off = np.array([0.0, 1e-6, 1e-6 + 1e-10, 1e-6 - 1e-10, -1e-6, 300.0])[:, None]
+        pts = np.array(a) + along + off * np.array(sec.outward_unit)
+        want = np.asarray(area.margin_m(pts)) >= -1e-6
+        assert np.array_equal(area.contains(pts), want)
+
+
 def test_boundary_arcs_are_numpy_linspace_to_the_last_bit():
     """ProtectedArea.boundary fills every arc's angles in place: the same outline, to the last
     bit, as each arc's start + numpy.linspace(0, sweep, k) about its hull vertex (arcs from the

@@ -1000,6 +1000,26 @@ def _axis_clearance_m(sec: Sector, e: npt.NDArray[np.float64], n: npt.NDArray[np
     return None
 
 
+def _side_clearances_beside_m(sec: SideSector, pts: list[list[float]], tol_m: float) -> list[float] | None:
+    """A side sector's clearance of a few points (east, north floats) for the test clearance >=
+    -tol_m alone: -((p - a) . u) on floats, None when a point lies so near the test's edge that
+    the rounding could decide it (the caller then takes `SideSector._clearance_m`).
+
+    `_clearance_m`'s product of (2,) rows may fuse a multiply and an add (BLAS), so its last bit
+    can differ from the floats' two products and sum: by at most a few units in the last place
+    of the products, far inside the band of 1e-9 of their size (+ 1e-9 m) kept clear of the
+    edge here, so the test gives the same answer. [m]"""
+    (ae, an), (ue, un) = sec.line_a_m, sec.outward_unit
+    out = []
+    for e, n in pts:
+        pe, pn = (e - ae) * ue, (n - an) * un
+        c = -(pe + pn)
+        if abs(c + tol_m) <= 1e-9 * (abs(pe) + abs(pn) + 1.0):
+            return None
+        out.append(c)
+    return out
+
+
 def _no_stack() -> npt.NDArray[np.float64]:
     """The points' stack, never asked for by a hull of one or two vertices (`_track_hull_margin_m`)."""
     raise AssertionError("a hull of one or two vertices needs no stack of the points")  # pragma: no cover
@@ -1144,21 +1164,26 @@ class ProtectedArea:
         """`contains` of a few checked points (K, 2) when the hull is one segment (or a point):
         `margin_m`'s distance to the segment written out on floats, point by point (the same
         IEEE operations as `_segment_distance_m`'s arrays), each sector's clearance as
-        `margin_m` computes it."""
+        `margin_m` computes it (a side sector's on floats where that cannot change the answer,
+        `_side_clearances_beside_m`)."""
         (ax, ay), (bx, by) = self.hull_m[0], self.hull_m[-1]
         sx, sy = bx - ax, by - ay
         ss = sx * sx + sy * sy
         r = self.radius_m
         margins = []
-        for e, n in p.tolist():
+        pts = p.tolist()
+        for e, n in pts:
             rx, ry = e - ax, n - ay
             if ss > 0.0:
                 t = min(max((rx * sx + ry * sy) / ss, 0.0), 1.0)   # the sign of a 0 never reaches the distance
                 rx, ry = rx - t * sx, ry - t * sy
             margins.append(r - math.sqrt(rx * rx + ry * ry))
         for sec in self.excluded:
-            c = sec._clearance_m(p) if isinstance(sec, SideSector) else np.asarray(sec.clearance_m(p), dtype=float)
-            margins = [min(m, x) for m, x in zip(margins, c.tolist())]
+            c = _side_clearances_beside_m(sec, pts, _CONTAINS_TOL_M) if isinstance(sec, SideSector) else None
+            if c is None:
+                c = (sec._clearance_m(p) if isinstance(sec, SideSector)
+                     else np.asarray(sec.clearance_m(p), dtype=float)).tolist()
+            margins = [min(m, x) for m, x in zip(margins, c)]
         return np.array([m >= -_CONTAINS_TOL_M for m in margins], dtype=bool)
 
     def track_margin_m(self, tracks: ArrayLike, *, sector_edge_tolerance_m: float | None = None) -> Numeric:
