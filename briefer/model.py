@@ -381,7 +381,6 @@ def _plural(what: str) -> str:
     return noun + ("es" if noun.endswith("ch") else "s")
 
 
-_NOT_LOOSE = re.compile(r"[^a-z0-9]")
 _LOOSE_NAMES: dict[str, str] = {}     # name -> its loose form: a pure function of the string, never stale
 _LOOSE_NAMES_MAX = 1024
 
@@ -393,7 +392,7 @@ def _loose(name: str) -> str:
     loose form of a string already seen is remembered, up to `_LOOSE_NAMES_MAX` strings."""
     loose = _LOOSE_NAMES.get(name) if type(name) is str else None
     if loose is None:
-        loose = _NOT_LOOSE.sub("", name.lower())
+        loose = re.sub(r"[^a-z0-9]", "", name.lower())
         if type(name) is str and len(_LOOSE_NAMES) < _LOOSE_NAMES_MAX:
             _LOOSE_NAMES[name] = loose
     return loose
