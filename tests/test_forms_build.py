@@ -71,3 +71,27 @@ async def test_a_message_shown_again_unchanged_asks_for_no_layout():
             msg.refresh = lambda *a, _m=msg, **k: refreshed.append(_m)     # type: ignore[method-assign]
         screen.revalidate()
         assert refreshed == []
+
+
+async def test_a_field_line_is_three_widgets_and_a_row_one_per_input():
+    """A field's line holds its input and its message (the line draws the label and the unit);
+    a short row (a category's minimums) holds only its inputs (the row draws the labels and
+    units between them). The words are still there, where they were."""
+    from briefer.tui.forms.screen import FieldLine, FormInput
+
+    app = form_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _open(pilot, "2", "f3")
+        lines = list(screen.query(FieldLine))
+        assert len(lines) > 50
+        for line in lines:
+            kids = list(line.walk_children())
+            assert [type(w).__name__ for w in kids] == ["FormInput", "FormMessage"], kids
+        elevation = screen.query_one("#in-elevation_ft", FormInput).parent
+        assert elevation.render().plain.split() == ["Elevation", "ft"]
+        rows = list(screen.query(".form-row"))
+        assert rows
+        for row in rows:
+            assert all(isinstance(w, FormInput) for w in row.walk_children())
+        first = screen.query_one("#row-approaches-0-circling-0")
+        assert first.render().plain.split() == ["MDA", "ft", "vis", "SM/m"]

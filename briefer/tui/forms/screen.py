@@ -14,11 +14,13 @@ from briefer._dataclass import dataclass
 from pathlib import Path
 from typing import Any
 
+from rich.cells import cell_len
 from rich.text import Text
 from textual import events, on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical, VerticalScroll
+from textual.content import Content
 from textual.screen import ModalScreen, Screen
 from textual.widget import Widget
 from textual.widgets import Button, Footer, Input, Label, Static
@@ -30,6 +32,8 @@ from briefer.tui.forms.store import SaveError, Target, file_name, save_model, ta
 
 ERROR_MARK = "✗ "
 LABEL_WIDTH = 17
+UNIT_WIDTH = 4
+"""A field line's columns: the label's, then the unit's after the input (a blank, then the unit)."""
 CHECK_DELAY_S = 0.08
 
 SidePainter = Callable[[Verdict, int, int, bool], Any]
@@ -88,6 +92,52 @@ class FormMessage(_StyledOnMount, Static):
 
 class AddButton(_StyledOnMount, Button):
     """A repeating group's "+ add" button."""
+
+
+class FieldLine(Horizontal):
+    """A field's line: its label, the input, the unit and the message. The line draws the label
+    and the unit itself, in the columns the input and the message leave free (three widgets a
+    field, not five: a form's widgets are what it takes to open)."""
+
+    def __init__(self, label: str, unit: str, inp: FormInput, msg: FormMessage) -> None:
+        inp.styles.margin = (0, 0, 0, LABEL_WIDTH)
+        msg.styles.margin = (0, 0, 0, UNIT_WIDTH)
+        super().__init__(inp, msg, classes="form-line")
+        blank = " " * _input_width(inp)
+        # the line's colour is the unit's (muted, as the stylesheet gives it); the label's is the text's
+        self._words = Content.assemble((label.ljust(LABEL_WIDTH), "$foreground"), blank, " ", unit)
+
+    def render(self) -> Content:
+        return self._words
+
+
+class CellRow(Horizontal):
+    """A short repeating group's row (a category's minimums, a sector): its inputs side by side,
+    each with its label before it and its unit after it. The row draws the labels and units
+    itself, in the columns the inputs leave free."""
+
+    def __init__(self, cells: list[tuple[str, FormInput, str]], *, id: str) -> None:
+        words: list[tuple[str, str] | str] = []
+        gap = 0
+        for label, inp, unit in cells:
+            if label:
+                words.append((f" {label} ", "$foreground"))
+                gap += cell_len(label) + 2
+            inp.styles.margin = (0, 0, 0, gap)
+            words.append(" " * _input_width(inp))
+            gap = 0
+            if unit:
+                words.append(f" {unit} ")
+                gap = cell_len(unit) + 2
+        super().__init__(*(inp for _label, inp, _unit in cells), classes="form-row", id=id)
+        self._words = Content.assemble(*words)
+
+    def render(self) -> Content:
+        return self._words
+
+
+def _input_width(inp: FormInput) -> int:
+    return int(inp.styles.width.value) if inp.styles.width else 0
 
 
 class SidePanel(Widget):
@@ -234,8 +284,7 @@ class FormScreen(Screen[Saved | None]):
 
     def _field_line(self, f: Field, texts: dict[str, Any], fpath: FormPath) -> Widget:
         here = fpath + (f.key,)
-        return Horizontal(Label(f.label, classes="form-label"), self._input(f, texts, here),
-                          Label(f.unit, classes="form-unit"), self._message(here), classes="form-line")
+        return FieldLine(f.label, f.unit, self._input(f, texts, here), self._message(here))
 
     def _items(self, items: tuple[Item, ...], texts: dict[str, Any], fpath: FormPath) -> list[Widget]:
         out: list[Widget] = []
@@ -272,18 +321,9 @@ class FormScreen(Screen[Saved | None]):
         """One item of a repeating group, in its own box (added and removed whole)."""
         ipath = rpath + (i,)
         if rep.row:
-            cells: list[Widget] = []
-            for f in rep.items:
-                assert isinstance(f, Field)
-                if not self._visible(f, row, ipath):
-                    continue
-                if f.label:
-                    cells.append(Label(f.label, classes="form-cell-label"))
-                cells.append(self._input(f, row, ipath + (f.key,)))
-                if f.unit:
-                    cells.append(Label(f.unit, classes="form-cell-unit"))
-            parts: list[Widget] = [Horizontal(*cells, classes="form-row", id=widget_id("row", ipath)),
-                                   self._row_message(rep, ipath)]
+            cells = [(f.label, self._input(f, row, ipath + (f.key,)), f.unit) for f in rep.items
+                     if isinstance(f, Field) and self._visible(f, row, ipath)]
+            parts: list[Widget] = [CellRow(cells, id=widget_id("row", ipath)), self._row_message(rep, ipath)]
         else:
             parts = [Static(f"{rep.item_title} {i + 1}  (^r removes it)", classes="form-item-heading",
                             markup=False),
