@@ -563,16 +563,11 @@ _FLOAT_CELLS = 128  # up to this many cells (rows x candidates), best_of_level i
 _INF, _NAN = math.inf, math.nan
 
 
-def _rint(x: float) -> float:
-    """``np.rint`` of a float: to the nearest integer, halves to even (``round``); inf as it is."""
-    return float(round(x)) if math.isfinite(x) else x
-
-
 def _best_of_level_floats(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, bank_limit_deg: float,
                           visibility_m: float, area_radius_m: float | None,
                           aoa_margin_deg: npt.ArrayLike | None) -> LevelBest | None:
-    """:func:`best_of_level` of a few rows in plain floats, row by row (None: a flyable candidate
-    has a NaN area margin, distance or time; the array path then ranks them): the checks of
+    """:func:`best_of_level` of a few rows in plain floats, row by row (None: no rows, or a flyable
+    candidate has a NaN area margin, distance or time; the array path then ranks them): the checks of
     :func:`briefer.core.manoeuvre.ranking.plan_checks_one` (the array rule's comparisons and
     single operations), the same keys (``np.round`` to 1 m is ``rint``, to 0.1 s ``rint(10 t) / 10``,
     as numpy rounds them) compared as a tuple, the first of exact ties. Without NaN, the array
@@ -580,13 +575,16 @@ def _best_of_level_floats(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, ban
     every number is its own (``tests/test_judgement.py``)."""
     ok_rows = batch.ok.tolist()
     m = len(ok_rows)
-    banks = (np.asarray(bank_deg, dtype=float) + np.zeros(m)).tolist()
-    aoas = [None] * m if aoa_margin_deg is None else (np.asarray(aoa_margin_deg, dtype=float) + np.zeros(m)).tolist()
+    if m == 0:
+        return None
+    banks, aoas = (None if v is None else v.tolist() if type(v) is np.ndarray and v.shape == (m,) and v.dtype == float
+                   else (np.asarray(v, dtype=float) + np.zeros(m)).tolist() for v in (bank_deg, aoa_margin_deg))
+    aoas = [None] * m if aoas is None else aoas
     areas, secs = batch.area_margin_m.tolist(), batch.sector_bound.tolist()
     dists, times = batch.max_distance_from_runway_m.tolist(), batch.total_time_s.tolist()
     counts = _FAILURE_COUNT.tolist()
     hard = REASON_BANK | REASON_STALL
-    out: tuple[list, ...] = ([], [], [], [], [], [])
+    out = []
     for ok, bank, aoa, area, sec, dist, tt in zip(ok_rows, banks, aoas, areas, secs, dists, times):
         key, best, fail, marg, slack = None, 0, 0, 0, -_INF
         for i, flyable in enumerate(ok):
@@ -598,16 +596,18 @@ def _best_of_level_floats(batch: CandidateBatch, *, bank_deg: npt.ArrayLike, ban
             f, mg = plan_checks_one(bank_deg=bank, bank_limit_deg=bank_limit_deg, area_margin_m=a,
                                     sector_bound=sec[i], visibility_m=visibility_m, max_distance_from_runway_m=dist[i],
                                     area_radius_m=area_radius_m, aoa_margin_deg=aoa)
-            room = min(a, v)
-            k = (counts[f & _FAILURE_BITS], -_rint(room), _rint(t * 10.0) / 10.0)
+            room, t10 = min(a, v), t * 10.0
+            # the keys as numpy rounds them: round() halves to even as rint (an int, which compares as
+            # its float), not finite as it is
+            k = (counts[f & _FAILURE_BITS], -(round(room) if room - room == 0.0 else room),
+                 (round(t10) if t10 - t10 == 0.0 else t10) / 10.0)
             if key is None or k < key:
                 key, best, fail, marg = k, i, f, mg
             if not f & hard and room > slack:
                 slack = room
-        for lst, val in zip(out, (-1 if key is None else best, fail, marg, area[best], dist[best], slack)):
-            lst.append(val)
-    ints = [np.array(v, dtype=np.int64) for v in out[:3]]
-    floats = [np.array(v, dtype=float) for v in out[3:]]
+        out.append((-1 if key is None else best, fail, marg, area[best], dist[best], slack))
+    cols = list(zip(*out))
+    ints, floats = np.array(cols[:3], dtype=np.int64), np.array(cols[3:], dtype=float)
     return LevelBest(best=ints[0], failures=ints[1], marginal=ints[2], area_margin_m=floats[0],
                      max_distance_from_runway_m=floats[1], slack_m=floats[2])
 
