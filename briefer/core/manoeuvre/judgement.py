@@ -772,9 +772,14 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         status, reasons, r_idx, b_idx, best_c, best_area, best_dist, slack = _unsettled(n, len(order))
         resolved = np.zeros(n, dtype=bool)
         _level_by_level(order, fallback, resolved, solve, settle)
-    fits = status != DOES_NOT_FIT
-    bank_needed = np.where(fits, np.asarray(levels.bank_deg)[np.maximum(b_idx, 0)], np.nan)
-    roll_out = np.where(fits, np.asarray(levels.roll_out_m)[np.maximum(r_idx, 0)], np.nan)
+    if n * len(order) <= _FLOAT_CELLS:      # a few winds: the chosen levels' bank and roll-out taken on floats
+        chosen = [(s != DOES_NOT_FIT, r, b) for s, r, b in zip(status.tolist(), r_idx.tolist(), b_idx.tolist())]
+        bank_needed = np.array([levels.bank_deg[b] if f else math.nan for f, _, b in chosen], dtype=float)
+        roll_out = np.array([levels.roll_out_m[r] if f else math.nan for f, r, _ in chosen], dtype=float)
+    else:
+        fits = status != DOES_NOT_FIT
+        bank_needed = np.where(fits, np.asarray(levels.bank_deg)[np.maximum(b_idx, 0)], np.nan)
+        roll_out = np.where(fits, np.asarray(levels.roll_out_m)[np.maximum(r_idx, 0)], np.nan)
     return WindJudgement(candidates=cands, levels=levels, status=status, reasons=reasons, roll_out_index=r_idx,
                          bank_index=b_idx, bank_needed_deg=bank_needed, roll_out_m=roll_out, best_candidate=best_c,
                          area_margin_m=best_area, max_distance_from_runway_m=best_dist, level_slack_m=slack,
