@@ -95,3 +95,26 @@ async def test_a_field_line_is_three_widgets_and_a_row_one_per_input():
             assert all(isinstance(w, FormInput) for w in row.walk_children())
         first = screen.query_one("#row-approaches-0-circling-0")
         assert first.render().plain.split() == ["MDA", "ft", "vis", "SM/m"]
+
+
+async def test_opening_a_file_in_its_form_asks_each_fields_message_once(monkeypatch):
+    """F3 reads the file through the form once to be sure it saves back unchanged; the form then
+    shows those very messages, without asking the loader about every field again."""
+    from briefer.io import drafts
+
+    asked: collections.Counter[str] = collections.Counter()
+    message = drafts.field_message
+
+    def counting(kind, draft, path):
+        asked[path] += 1
+        return message(kind, draft, path)
+
+    monkeypatch.setattr(drafts, "field_message", counting)
+    app = form_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        asked.clear()
+        await _open(pilot, "2", "f3")
+        assert len(asked) > 50
+        twice = [p for p, n in asked.items() if n > 1]
+        assert not twice, twice[:5]

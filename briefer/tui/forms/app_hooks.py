@@ -10,7 +10,7 @@ from typing import TYPE_CHECKING, Any
 from rich.text import Text
 
 from briefer.model import KIND_AIRFIELD, KIND_PROFILE
-from briefer.tui.forms.check import Verdict
+from briefer.tui.forms.check import Checker, Verdict
 from briefer.tui.forms.screen import FormScreen, Saved
 from briefer.tui.state import AppCatalog, CatalogItem
 
@@ -46,6 +46,7 @@ def form_for(app: BriefingApp, kind: str, *, edit: bool) -> FormScreen | str:
     """The form screen for a kind, empty or holding the chosen profile/airfield; or why not."""
     mapping = source = None
     builtin = False
+    checker = None
     if edit:
         catalog = app.catalog
         items = catalog.profiles if kind == KIND_PROFILE else catalog.airfields
@@ -55,7 +56,8 @@ def form_for(app: BriefingApp, kind: str, *, edit: bool) -> FormScreen | str:
         if item is None or model is None:
             return f"'{name}' cannot be read, so it cannot be edited; fix the file or start a new one (F2)"
         mapping = model.to_mapping()
-        lost = form_loses(_spec(kind), mapping, model)
+        checker = Checker(_spec(kind))
+        lost = form_loses(_spec(kind), mapping, model, checker=checker)
         if lost:
             return (f"the form cannot show everything {item.source or name} holds ({lost}), so it would not "
                     f"save it back unchanged; edit the file by hand, or start a new one (F2)")
@@ -66,16 +68,16 @@ def form_for(app: BriefingApp, kind: str, *, edit: bool) -> FormScreen | str:
 
         on_import = ask_import
     return FormScreen(_spec(kind), mapping=mapping, source=source, builtin=builtin, side=_painter(kind),
-                      ascii=bool(getattr(app, "ascii", False)), on_import=on_import)
+                      ascii=bool(getattr(app, "ascii", False)), on_import=on_import, checker=checker)
 
 
-def form_loses(spec: Any, mapping: dict[str, Any], model: Any) -> str:
+def form_loses(spec: Any, mapping: dict[str, Any], model: Any, *, checker: Checker | None = None) -> str:
     """What a form would change of a file it opens ('' when nothing): the form's texts for the
-    file must read back to the very same model, so saving without an edit changes nothing."""
-    from briefer.tui.forms.check import check_texts
+    file must read back to the very same model, so saving without an edit changes nothing.
+    `checker`: the form's own (it then knows every field's message when the form opens)."""
     from briefer.tui.forms.spec import to_texts
 
-    verdict = check_texts(spec, to_texts(spec, mapping))
+    verdict = (checker or Checker(spec)).check(to_texts(spec, mapping))
     if verdict.model == model:
         return ""
     problem = verdict.first_problem()

@@ -207,7 +207,7 @@ class FormScreen(Screen[Saved | None]):
 
     def __init__(self, spec: FormSpec, *, mapping: dict[str, Any] | None = None, source: str | None = None,
                  builtin: bool = False, side: SidePainter | None = None, ascii: bool = False,
-                 on_import: Callable[[FormScreen], None] | None = None) -> None:
+                 on_import: Callable[[FormScreen], None] | None = None, checker: Checker | None = None) -> None:
         """Args:
             spec: The form.
             mapping: The file mapping to edit (None: a new, empty form).
@@ -217,6 +217,8 @@ class FormScreen(Screen[Saved | None]):
             side: Draws the side panel from the verdict.
             ascii: Draw in ASCII instead of braille.
             on_import: F4: fills the form from another source (the airfield form's runway import).
+            checker: The form's checker, if one has read these texts already (each field's
+                message is then not asked again).
         """
         super().__init__(classes="form-screen")
         from briefer.tui.forms.spec import to_texts
@@ -227,7 +229,7 @@ class FormScreen(Screen[Saved | None]):
         self.source = source if source and not builtin else None
         self.painter = side
         self.ascii = ascii
-        self.checker = Checker(spec)
+        self.checker = checker if checker is not None and checker.spec is spec else Checker(spec)
         self.verdict: Verdict = self.checker.check(self.texts)
         self._msgs: dict[FormPath, FormMessage] = {}
         self._inputs: dict[FormPath, FormInput] = {}
