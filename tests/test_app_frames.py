@@ -156,6 +156,42 @@ async def test_an_edits_frame_writes_what_textuals_own_compositor_writes(monkeyp
     assert len(compared) >= 6 and max(compared) >= 2         # frames of several changed regions among them
 
 
+async def test_an_edits_frame_renders_the_field_and_the_text_not_the_containers_behind_them(monkeypatch):
+    """A piece of a line is written from the front-most widget there (Textual's compositor keeps
+    the first strip for it): the field typed in and the text below it paint every piece written,
+    so the form, the tab pane and the screen behind them are not rendered for the edit's frame
+    (briefer.tui.frame_compositor)."""
+    from textual.widget import Widget
+
+    app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False)
+    async with app.run_test(size=(80, 24)) as pilot:
+        wind = await _on_weather_step(app, pilot)
+        rendered: list[Widget] = []
+        real_render, real_update = Widget.render_lines, ChangedRegionsCompositor.render_partial_update
+
+        def render_lines(self, crop):
+            rendered.append(self)
+            return real_render(self, crop)
+
+        def partial(self):
+            rendered.clear()
+            update = real_update(self)
+            if update is not None and app.brief_inputs.weather.wind_from_deg == 256.0:
+                frames.append(list(rendered))
+            return update
+
+        frames: list[list[Widget]] = []
+        monkeypatch.setattr(Widget, "render_lines", render_lines)
+        monkeypatch.setattr(ChangedRegionsCompositor, "render_partial_update", partial)
+        wind.value = "256/15"
+        await settle(app, pilot)
+        behind = {app.main, app.main.query_one("#weather-form"), app.main.query_one("#row-wind")}
+        implies = app.main.query_one("#implies-weather", Static)
+    shown = {w for frame in frames for w in frame}
+    assert frames and wind in shown and implies in shown
+    assert not shown & behind
+
+
 async def test_a_hold_that_runs_out_while_the_app_closes_does_no_harm():
     app = BriefingApp(demo_catalog(), demo_inputs(), ascii=False)
     async with app.run_test(size=(80, 24)) as pilot:
