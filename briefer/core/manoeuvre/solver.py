@@ -775,7 +775,10 @@ def solve_shapes(shapes: Sequence[Shape], *, sigma: npt.ArrayLike, tas_mps: floa
 
 def _solution(shape: Shape, s: _Solved, k: _Kernel, t: _Tracks, columns: _ShapeColumns | None) -> ShapeSolution:
     zero, legs = k.zero, s.legs
-    reasons = np.asarray(s.reasons, dtype=np.int64) + np.zeros(zero.shape, dtype=np.int64)
+    reasons = s.reasons
+    if type(reasons) is not np.ndarray or reasons.dtype != np.int64 or reasons.shape != zero.shape:
+        reasons = np.asarray(reasons, dtype=np.int64) + np.zeros(zero.shape, dtype=np.int64)
+    # (else: a shape's reasons are its own array, made by its solve: taken as they are)
     return ShapeSolution(shape=shape, ok=reasons == 0, reasons=reasons, legs=tuple(legs), x_ri=s.x_ri + zero,
                          y_ri=s.y_ri + zero, offset=s.offset + zero, roll_out_d=s.roll_out + zero,
                          abeam_s=None if s.abeam_s is None else s.abeam_s + zero,
@@ -1179,6 +1182,9 @@ def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx
                                descent=descent, roll_out_m=roll_out_m, turns=(turns,), made=(made,))[0]
 
 
+_FEW_BANKS = 64     # up to this many rows, the bank range is checked on floats
+
+
 def solve_inputs_shapes(inputs: CircleInputs, shapes: Sequence[Shape], *, sigma: npt.ArrayLike,
                         wx_mps: npt.ArrayLike, wy_mps: npt.ArrayLike, bank_deg: npt.ArrayLike,
                         descent: DescentGeometry | None = None, roll_out_m: npt.ArrayLike | None = None,
@@ -1186,7 +1192,9 @@ def solve_inputs_shapes(inputs: CircleInputs, shapes: Sequence[Shape], *, sigma:
                         made: Sequence[list[LegArrays] | None] | None = None) -> list[ShapeSolution]:
     """:func:`solve_inputs` of several shapes on the same rows in one pass (:func:`solve_shapes`)."""
     b = np.asarray(bank_deg, dtype=float)
-    if not ((b > 0.0) & (b < BANK_MAX_DEG)).all():
+    # a few rows: each bank compared as a float (the same comparisons, NaN fails both)
+    if not (all(0.0 < x < BANK_MAX_DEG for x in b.ravel().tolist()) if b.size <= _FEW_BANKS
+            else ((b > 0.0) & (b < BANK_MAX_DEG)).all()):
         raise DomainError(f"bank_deg = {bank_deg}: a turn needs 0 < bank < 90")
     dg = descent if descent is not None else descent_geometry(inputs)
     rr = None if inputs.roll_rate_deg_per_s is None else math.radians(inputs.roll_rate_deg_per_s)
