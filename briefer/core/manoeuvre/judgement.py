@@ -923,8 +923,8 @@ def _settle_every_level_floats(lb: LevelBest, order: list[tuple[int, int]], fall
         r, b = order[at // n]
         for lst, v in zip(out, (status, reasons, r, b, best[at], area[at], dist[at])):
             lst.append(v)
-    ints = [np.array(v, dtype=np.int64) for v in out[:5]]
-    return (*ints, np.array(out[5], dtype=float), np.array(out[6], dtype=float),
+    ints, floats = np.array(out[:5], dtype=np.int64).reshape(5, n), np.array(out[5:], dtype=float).reshape(2, n)
+    return (*ints, *floats,
             np.array([[slack[i * n + w] for i in range(k)] for w in range(n)], dtype=float).reshape(n, k))
 
 

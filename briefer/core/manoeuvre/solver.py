@@ -515,7 +515,7 @@ class _Solved:
     x_ri: FloatArray
     y_ri: FloatArray
     offset: FloatArray
-    roll_out: FloatArray
+    roll_out: float | FloatArray      # (the roll-out given, as it is: the solution broadcasts it, plus zero)
     abeam_s: FloatArray | None = None
     break_s: FloatArray | None = None
 
@@ -537,7 +537,7 @@ def _downwind_and_final(k: _Kernel, t: _Tracks, reasons: npt.NDArray[np.int_], f
     t_dw = (x_j - x_ri) / t.gs_d
     reasons = reasons | _flag(t_j >= 0.0, R_NEG_LEG) | _flag(t_dw >= 0.0, R_INSIDE_TURN)
     legs = first + [k.straight(t.psi_d, -t.gs_d, k.zero, t_dw, "downwind", math.pi)] + final_side + [t.final()]
-    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m + k.zero,
+    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m,
                    abeam_s=-x_ri / t.gs_d, break_s=t_j)
 
 
@@ -616,7 +616,7 @@ def _solve_teardrop(k: _Kernel, t: _Tracks, teardrop_rad: float) -> _ShapeSteps:
                | _flag((t1 >= 0.0) & (t2 >= 0.0), R_NEG_LEG) | _flag(offset > 0.0, R_WRONG_SIDE))
     legs = [k.straight(psi0, g0x, g0y, t1, "outbound", k.c0_rad), t_off,
             k.straight(psi_t, gtx, gty, t2, "offset leg", None), t_fin, t.final()]
-    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=d_m + zero,
+    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=d_m,
                    break_s=t2)
 
 
@@ -667,7 +667,7 @@ def _solve_overfly_circuit(k: _Kernel, t: _Tracks, circuit_turn_x_m: float) -> _
             k.straight(psi_x, zero, sig * gs_x, t_xw, "crosswind", trk_x), t_dwt,
             k.straight(psi_d, -t.gs_d, zero, t_dw, "downwind", math.pi), t_bt,
             k.straight(psi_b, zero, -sig * gs_b, t_bl, "base", trk_b), t_fin, t.final()]
-    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m + zero,
+    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m,
                    abeam_s=-x_ri / t.gs_d, break_s=t_up)
 
 
