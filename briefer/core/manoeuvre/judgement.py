@@ -462,8 +462,8 @@ def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], Shap
     candidate, are what the full evaluation gives.
     """
     length = inputs.runway_length_m
-    full = np.asarray(all_margins, dtype=bool) + np.zeros(m, dtype=bool)
     prune = visibility_m is not None and m >= _PRUNE_MIN_ROWS
+    full = np.asarray(all_margins, dtype=bool) + np.zeros(m, dtype=bool) if prune else None    # (read only to prune)
     sampled = ok
     if prune:
         co = _coarse_pass(solved, ok & ~full[:, None], runway_length_m=length, visibility_m=visibility_m,
