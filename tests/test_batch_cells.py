@@ -337,3 +337,18 @@ def test_bank_range_checked_on_floats_is_the_array_check(monkeypatch):
     monkeypatch.setattr(solver, "_FEW_BANKS", -1)
     assert floats == [raises(b) for b in cases]
     assert floats == [False, True, True, True, False, False, True, True, True, False, True, True, False]
+
+
+def test_candidates_of_a_float_course_wrap_it_as_wrap_180():
+    """applicable_candidates wraps a float course with Python's % (fmod, then the sign of 360: the
+    rule of numpy's mod) instead of core.angles.wrap_180: the same wrapped number to the bit, so
+    the same candidates, at the rules' edges, signed zeros and large or non-finite courses."""
+    from briefer.core.angles import wrap_180
+    for c in (0.0, -0.0, 30.0, -30.0, 90.0, -90.0, 120.0, 150.0, 179.999, 180.0, -180.0, 210.0, 359.9, 360.0,
+              -360.0, 540.0, 1e-300, -1e-300, 1e17, -7.5e15, 5.000000000000001, math.nan, math.inf, -math.inf):
+        want = float(wrap_180(c)) if math.isfinite(c) else math.nan
+        got = (c + 180.0) % 360.0 - 180.0
+        assert math.copysign(1.0, got) == math.copysign(1.0, want) or got != got, c
+        assert got == want or (got != got and want != want), c
+        with np.errstate(invalid="ignore"):         # (numpy warns of an infinite course)
+            assert applicable_candidates(c) == applicable_candidates(np.float64(c)), c

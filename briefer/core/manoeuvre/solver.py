@@ -299,7 +299,10 @@ def applicable_candidates(arrival_course_deg: float) -> tuple[tuple[Shape, Side]
     only); ``break-and-return`` and ``teardrop`` when it is within 60 deg of the reciprocal
     (both sides). Every course has a candidate.
     """
-    c = float(wrap_180(arrival_course_deg))
+    if type(arrival_course_deg) is float:   # wrap_180 on a float: Python's % is np.mod's rule (fmod, then the sign of 360)
+        c = (arrival_course_deg + 180.0) % 360.0 - 180.0
+    else:
+        c = float(wrap_180(arrival_course_deg))
     delta = abs(c)
     out: list[tuple[Shape, Side]] = []
     s = math.sin(math.radians(c))
