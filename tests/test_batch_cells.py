@@ -296,3 +296,59 @@ def test_a_small_batch_sampled_whole_gives_the_cells_taken_one_shape_at_a_time(i
         for got, want in zip(whole, each, strict=True):
             for a, b in zip(got, want, strict=True):
                 assert a.dtype == b.dtype and a.shape == b.shape and a.tobytes() == b.tobytes()
+
+
+@pytest.mark.parametrize("inp", SCENARIOS)
+def test_a_solutions_reasons_are_its_own_int_array_of_the_rows(inp):
+    """solver._solution takes a shape's reasons as its solve made them (no broadcast copy): the
+    rule it replaces, ``np.asarray(reasons, dtype=int64) + zeros``, gives the same numbers only
+    if they are an int64 array of the rows, of that shape's own (not shared with another shape,
+    nor with the tracks every shape shares)."""
+    from briefer.core.manoeuvre.solver import solve_inputs_shapes
+    wx, wy, bank, ro = _rows(inp)
+    shapes = ("downwind-join", "break-and-return", "teardrop", "direct-turn", "overfly-circuit")
+    sols = solve_inputs_shapes(inp, shapes, sigma=np.repeat([1.0, -1.0], wx.size), wx_mps=np.tile(wx, 2),
+                               wy_mps=np.tile(wy, 2), bank_deg=np.tile(bank, 2), roll_out_m=np.tile(ro, 2))
+    for i, sol in enumerate(sols):
+        assert sol.reasons.dtype == np.int64 and sol.reasons.shape == sol.ok.shape == (2 * wx.size,)
+        assert sol.reasons.base is None and sol.reasons.flags.writeable
+        np.testing.assert_array_equal(sol.ok, sol.reasons == 0)
+        for other in sols[i + 1:]:
+            assert not np.shares_memory(sol.reasons, other.reasons)
+
+
+def test_bank_range_checked_on_floats_is_the_array_check(monkeypatch):
+    """A few rows' banks are checked on floats (solver._FEW_BANKS): 0 < bank < 90 as the array
+    test ((b > 0) & (b < 90)).all(), NaN failing both; the same banks raise on either path."""
+    from briefer.core.manoeuvre import solver
+    from briefer.errors import DomainError
+    inp = SCENARIOS[0]
+
+    def raises(bank):
+        try:
+            solver.solve_inputs_shapes(inp, ("teardrop",), sigma=1.0, wx_mps=0.0, wy_mps=0.0, bank_deg=bank)
+        except DomainError:
+            return True
+        return False
+
+    cases = [25.0, 0.0, -0.0, 90.0, 89.999, 1e-300, -5.0, math.nan, math.inf, [25.0, 30.0], [25.0, 0.0],
+             [30.0, math.nan], np.array([[20.0, 45.0]])]
+    floats = [raises(b) for b in cases]
+    monkeypatch.setattr(solver, "_FEW_BANKS", -1)
+    assert floats == [raises(b) for b in cases]
+    assert floats == [False, True, True, True, False, False, True, True, True, False, True, True, False]
+
+
+def test_candidates_of_a_float_course_wrap_it_as_wrap_180():
+    """applicable_candidates wraps a float course with Python's % (fmod, then the sign of 360: the
+    rule of numpy's mod) instead of core.angles.wrap_180: the same wrapped number to the bit, so
+    the same candidates, at the rules' edges, signed zeros and large or non-finite courses."""
+    from briefer.core.angles import wrap_180
+    for c in (0.0, -0.0, 30.0, -30.0, 90.0, -90.0, 120.0, 150.0, 179.999, 180.0, -180.0, 210.0, 359.9, 360.0,
+              -360.0, 540.0, 1e-300, -1e-300, 1e17, -7.5e15, 5.000000000000001, math.nan, math.inf, -math.inf):
+        want = float(wrap_180(c)) if math.isfinite(c) else math.nan
+        got = (c + 180.0) % 360.0 - 180.0
+        assert math.copysign(1.0, got) == math.copysign(1.0, want) or got != got, c
+        assert got == want or (got != got and want != want), c
+        with np.errstate(invalid="ignore"):         # (numpy warns of an infinite course)
+            assert applicable_candidates(c) == applicable_candidates(np.float64(c)), c

@@ -228,3 +228,37 @@ def test_settling_every_level_in_plain_python_is_the_array_rule(seed, monkeypatc
     arrays = jm._settle_every_level(lb, order, (0, banks - 1), n)
     for a, b in zip(floats, arrays, strict=True):
         assert a.dtype == b.dtype and a.shape == b.shape and a.tobytes() == b.tobytes()
+
+
+def test_one_winds_rows_and_the_wind_check_on_floats_are_the_array_rule(monkeypatch):
+    """One wind's rows (judgement.judge_winds, eager) are the wind repeated and each level's values
+    without a repeat (judgement._per_level): the same arrays, bits and dtypes as tiling the wind
+    and repeating each value once; the finiteness of a few winds is checked on floats, and the
+    same winds are refused as by the array check."""
+    from briefer.core.manoeuvre import judgement as jm
+    from briefer.errors import DomainError
+
+    for w in (0.0, -0.0, 12.5, -3.25e-7):
+        a = np.array([w])
+        for k in (1, 2, 8):
+            got, want = a[np.arange(1)].repeat(k), jm._tile(a[np.arange(1)], k)
+            assert got.dtype == want.dtype and got.shape == want.shape and got.tobytes() == want.tobytes()
+    for vals, dtype in (([25.0, 30.0, -0.0], float), ([True, False], bool)):
+        got, want = jm._per_level(vals, 1, dtype), np.array(vals, dtype=dtype).repeat(1)
+        assert got.dtype == want.dtype and got.shape == want.shape and got.tobytes() == want.tobytes()
+    inp = reciprocal()
+    kw = dict(margin_fn=margins, visibility_m=4500.0, bank_limit_deg=35.0, area_radius_m=R_M, eager=True)
+
+    def refused(wx, wy):
+        try:
+            judge_winds(inp, wx_mps=wx, wy_mps=wy, **kw)
+        except DomainError:
+            return True
+        return False
+
+    winds = [([0.0], [0.0]), ([math.nan], [0.0]), ([0.0], [math.inf]), ([-math.inf], [1.0]), ([1.0, 2.0], [0.0]),
+             ([3.0, math.nan], [1.0, 2.0]), ([5.0], [-4.0])]
+    floats = [refused(wx, wy) for wx, wy in winds]
+    monkeypatch.setattr(jm, "_FEW_ROWS", 0)
+    assert floats == [refused(wx, wy) for wx, wy in winds]
+    assert floats == [False, True, True, True, True, True, False]

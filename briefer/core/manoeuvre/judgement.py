@@ -355,6 +355,13 @@ def solve_candidates(inputs: CircleInputs, candidates: tuple[tuple[Shape, Side],
                           total_time_s=ttime, solutions=tuple((tuple(cis), sol) for cis, sol in solved))
 
 
+def _per_level(values: list, m: int, dtype: type) -> npt.NDArray:
+    """One value per level, each repeated for the level's ``m`` rows (level by level); one row per
+    level needs no repeat (``repeat(1)`` is a copy of the same values)."""
+    a = np.array(values, dtype=dtype)
+    return a if m == 1 else a.repeat(m)
+
+
 def _tile(a: FloatArray, k: int) -> FloatArray:
     """``np.tile`` of a 1-d array (k copies end to end), without its overhead on small arrays."""
     return a if k == 1 else np.concatenate([a] * k)
@@ -455,8 +462,8 @@ def _sample_and_margins(inputs: CircleInputs, solved: list[tuple[list[int], Shap
     candidate, are what the full evaluation gives.
     """
     length = inputs.runway_length_m
-    full = np.asarray(all_margins, dtype=bool) + np.zeros(m, dtype=bool)
     prune = visibility_m is not None and m >= _PRUNE_MIN_ROWS
+    full = np.asarray(all_margins, dtype=bool) + np.zeros(m, dtype=bool) if prune else None    # (read only to prune)
     sampled = ok
     if prune:
         co = _coarse_pass(solved, ok & ~full[:, None], runway_length_m=length, visibility_m=visibility_m,
@@ -701,7 +708,8 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         raise DomainError(f"turn_step_deg = {turn_step_deg} must be in (0, 45] and n_straight = {n_straight} >= 2")
     wx = np.asarray(wx_mps, dtype=float).ravel()
     wy = np.asarray(wy_mps, dtype=float).ravel()
-    if wx.shape != wy.shape or not (np.isfinite(wx).all() and np.isfinite(wy).all()):
+    if wx.shape != wy.shape or not (all(map(math.isfinite, wx.tolist() + wy.tolist())) if wx.size <= _FEW_ROWS
+                                    else np.isfinite(wx).all() and np.isfinite(wy).all()):
         raise DomainError("wind components must be finite arrays of one shape")
     n = wx.size
     cands = applicable_candidates(inputs.arrival_course_deg)
@@ -729,12 +737,14 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
         ``shown``, the fallback level's margins in full: its best is shown where nothing fits;
         with ``every``, one LevelBest of every level's rows, level by level)."""
         k, m = len(lv), rows.size
-        bank = np.array([levels.bank_deg[b] for _, b in lv], dtype=float).repeat(m)
-        full = np.array([shown and lvl == fallback for lvl in lv], dtype=bool).repeat(m)
+        bank = _per_level([levels.bank_deg[b] for _, b in lv], m, float)
+        full = _per_level([shown and lvl == fallback for lvl in lv], m, bool)
         given = None if eager else turn_store.given(rows, [b for _, b in lv])
         made = None if eager or given is not None or k > 1 else {}
-        batch = solve_candidates(inputs, cands, wx_mps=_tile(wx[rows], k), wy_mps=_tile(wy[rows], k),
-                                 bank_deg=bank, roll_out_m=np.array([levels.roll_out_m[r] for r, _ in lv], dtype=float).repeat(m),
+        # one wind: its rows are the wind repeated (tiling k copies of one row)
+        wx_rows, wy_rows = (wx[rows].repeat(k), wy[rows].repeat(k)) if m == 1 else (_tile(wx[rows], k), _tile(wy[rows], k))
+        batch = solve_candidates(inputs, cands, wx_mps=wx_rows, wy_mps=wy_rows, bank_deg=bank,
+                                 roll_out_m=_per_level([levels.roll_out_m[r] for r, _ in lv], m, float),
                                  margin_fn=margin_fn, descent=descent, turn_step_deg=turn_step_deg,
                                  n_straight=n_straight, visibility_m=visibility_m, all_margins=full, turns=given,
                                  made=made)
@@ -742,8 +752,7 @@ def judge_winds(inputs: CircleInputs, *, wx_mps: npt.ArrayLike, wy_mps: npt.Arra
             turn_store.keep(rows, lv[0][1], made)
         if eager:
             kept.extend(batch.solutions)
-        aoa_rows = (None if aoa_margin_fn is None else
-                    np.array([aoa[levels.bank_deg[b]] for _, b in lv], dtype=float).repeat(m))
+        aoa_rows = None if aoa_margin_fn is None else _per_level([aoa[levels.bank_deg[b]] for _, b in lv], m, float)
         lb = best_of_level(batch, bank_deg=bank, bank_limit_deg=bank_limit_deg, visibility_m=visibility_m,
                            area_radius_m=area_radius_m, aoa_margin_deg=aoa_rows)
         if every:
@@ -914,8 +923,8 @@ def _settle_every_level_floats(lb: LevelBest, order: list[tuple[int, int]], fall
         r, b = order[at // n]
         for lst, v in zip(out, (status, reasons, r, b, best[at], area[at], dist[at])):
             lst.append(v)
-    ints = [np.array(v, dtype=np.int64) for v in out[:5]]
-    return (*ints, np.array(out[5], dtype=float), np.array(out[6], dtype=float),
+    ints, floats = np.array(out[:5], dtype=np.int64).reshape(5, n), np.array(out[5:], dtype=float).reshape(2, n)
+    return (*ints, *floats,
             np.array([[slack[i * n + w] for i in range(k)] for w in range(n)], dtype=float).reshape(n, k))
 
 

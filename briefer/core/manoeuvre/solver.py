@@ -299,7 +299,10 @@ def applicable_candidates(arrival_course_deg: float) -> tuple[tuple[Shape, Side]
     only); ``break-and-return`` and ``teardrop`` when it is within 60 deg of the reciprocal
     (both sides). Every course has a candidate.
     """
-    c = float(wrap_180(arrival_course_deg))
+    if type(arrival_course_deg) is float:   # wrap_180 on a float: Python's % is np.mod's rule (fmod, then the sign of 360)
+        c = (arrival_course_deg + 180.0) % 360.0 - 180.0
+    else:
+        c = float(wrap_180(arrival_course_deg))
     delta = abs(c)
     out: list[tuple[Shape, Side]] = []
     s = math.sin(math.radians(c))
@@ -515,7 +518,7 @@ class _Solved:
     x_ri: FloatArray
     y_ri: FloatArray
     offset: FloatArray
-    roll_out: FloatArray
+    roll_out: float | FloatArray      # (the roll-out given, as it is: the solution broadcasts it, plus zero)
     abeam_s: FloatArray | None = None
     break_s: FloatArray | None = None
 
@@ -537,7 +540,7 @@ def _downwind_and_final(k: _Kernel, t: _Tracks, reasons: npt.NDArray[np.int_], f
     t_dw = (x_j - x_ri) / t.gs_d
     reasons = reasons | _flag(t_j >= 0.0, R_NEG_LEG) | _flag(t_dw >= 0.0, R_INSIDE_TURN)
     legs = first + [k.straight(t.psi_d, -t.gs_d, k.zero, t_dw, "downwind", math.pi)] + final_side + [t.final()]
-    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m + k.zero,
+    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m,
                    abeam_s=-x_ri / t.gs_d, break_s=t_j)
 
 
@@ -616,7 +619,7 @@ def _solve_teardrop(k: _Kernel, t: _Tracks, teardrop_rad: float) -> _ShapeSteps:
                | _flag((t1 >= 0.0) & (t2 >= 0.0), R_NEG_LEG) | _flag(offset > 0.0, R_WRONG_SIDE))
     legs = [k.straight(psi0, g0x, g0y, t1, "outbound", k.c0_rad), t_off,
             k.straight(psi_t, gtx, gty, t2, "offset leg", None), t_fin, t.final()]
-    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=d_m + zero,
+    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=d_m,
                    break_s=t2)
 
 
@@ -667,7 +670,7 @@ def _solve_overfly_circuit(k: _Kernel, t: _Tracks, circuit_turn_x_m: float) -> _
             k.straight(psi_x, zero, sig * gs_x, t_xw, "crosswind", trk_x), t_dwt,
             k.straight(psi_d, -t.gs_d, zero, t_dw, "downwind", math.pi), t_bt,
             k.straight(psi_b, zero, -sig * gs_b, t_bl, "base", trk_b), t_fin, t.final()]
-    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m + zero,
+    return _Solved(legs=legs, reasons=reasons, x_ri=x_ri, y_ri=y_ri, offset=offset, roll_out=k.d_m,
                    abeam_s=-x_ri / t.gs_d, break_s=t_up)
 
 
@@ -775,7 +778,10 @@ def solve_shapes(shapes: Sequence[Shape], *, sigma: npt.ArrayLike, tas_mps: floa
 
 def _solution(shape: Shape, s: _Solved, k: _Kernel, t: _Tracks, columns: _ShapeColumns | None) -> ShapeSolution:
     zero, legs = k.zero, s.legs
-    reasons = np.asarray(s.reasons, dtype=np.int64) + np.zeros(zero.shape, dtype=np.int64)
+    reasons = s.reasons
+    if type(reasons) is not np.ndarray or reasons.dtype != np.int64 or reasons.shape != zero.shape:
+        reasons = np.asarray(reasons, dtype=np.int64) + np.zeros(zero.shape, dtype=np.int64)
+    # (else: a shape's reasons are its own array, made by its solve: taken as they are)
     return ShapeSolution(shape=shape, ok=reasons == 0, reasons=reasons, legs=tuple(legs), x_ri=s.x_ri + zero,
                          y_ri=s.y_ri + zero, offset=s.offset + zero, roll_out_d=s.roll_out + zero,
                          abeam_s=None if s.abeam_s is None else s.abeam_s + zero,
@@ -1179,6 +1185,9 @@ def solve_inputs(inputs: CircleInputs, shape: Shape, *, sigma: npt.ArrayLike, wx
                                descent=descent, roll_out_m=roll_out_m, turns=(turns,), made=(made,))[0]
 
 
+_FEW_BANKS = 64     # up to this many rows, the bank range is checked on floats
+
+
 def solve_inputs_shapes(inputs: CircleInputs, shapes: Sequence[Shape], *, sigma: npt.ArrayLike,
                         wx_mps: npt.ArrayLike, wy_mps: npt.ArrayLike, bank_deg: npt.ArrayLike,
                         descent: DescentGeometry | None = None, roll_out_m: npt.ArrayLike | None = None,
@@ -1186,7 +1195,9 @@ def solve_inputs_shapes(inputs: CircleInputs, shapes: Sequence[Shape], *, sigma:
                         made: Sequence[list[LegArrays] | None] | None = None) -> list[ShapeSolution]:
     """:func:`solve_inputs` of several shapes on the same rows in one pass (:func:`solve_shapes`)."""
     b = np.asarray(bank_deg, dtype=float)
-    if not ((b > 0.0) & (b < BANK_MAX_DEG)).all():
+    # a few rows: each bank compared as a float (the same comparisons, NaN fails both)
+    if not (all(0.0 < x < BANK_MAX_DEG for x in b.ravel().tolist()) if b.size <= _FEW_BANKS
+            else ((b > 0.0) & (b < BANK_MAX_DEG)).all()):
         raise DomainError(f"bank_deg = {bank_deg}: a turn needs 0 < bank < 90")
     dg = descent if descent is not None else descent_geometry(inputs)
     rr = None if inputs.roll_rate_deg_per_s is None else math.radians(inputs.roll_rate_deg_per_s)
