@@ -32,7 +32,8 @@ def circling_only_reasons(s: Situation, category: str, crit: str) -> tuple[tuple
             if best is None or diff < best[0]:
                 best = (diff, thr, a, course)
     _, thr, a, course = best
-    (fe, fn), (ae, an) = s.airfield_geometry.fixes_xy_m(appr)[0].tolist(), a.tolist()
+    # the final approach fix's floats (`AirfieldGeometry.fixes_xy_m`'s array, its .tolist(), without the array)
+    (fe, fn), (ae, an) = map(float, s.layout.fixes_m[appr.name][0]), a.tolist()
     dist_nm = float(np.hypot(fe - ae, fn - an)) * units.M_TO_NM     # (faf - a)'s two differences, on floats
     gradient = 0.0
     if appr.faf.altitude_ft is not None and dist_nm > 0:

@@ -9,6 +9,7 @@ method the request names (default: the table method, the more conservative).
 
 from __future__ import annotations
 
+import functools
 import re
 from briefer._dataclass import dataclass
 
@@ -131,6 +132,7 @@ def minimums_and_area_section(s: Situation) -> MinimumsAndArea:
     return MinimumsAndArea(category=category, minimums=minimums, obstacles=obstacles, findings=tuple(found))
 
 
+@functools.lru_cache(maxsize=64)      # a pure function of a string: the same text for the same reason
 def _reason_as_printed(reason: str) -> str:
     """The criteria's reason with its speeds in whole knots and the VREF named as the one at the
     maximum landing weight (the brief also shows VREF at today's weight)."""

@@ -142,7 +142,8 @@ def situation(request: BriefRequest) -> Situation:
     tas = float(atmosphere.tas_from_cas_kt(circling_ias, pressure_altitude_ft=pa, oat_c=oat_mda))
     bank = request.bank_deg if request.bank_deg is not None else cfg.bank_target_deg
 
-    ax, ay = rf.to_runway_coords(geo.fixes_xy_m(appr)[1])
+    # the missed approach point as two floats (fixes_xy_m's array read as one point: the same floats)
+    ax, ay = rf.to_runway_coords(tuple(map(float, layout.fixes_m[appr.name][1])))
     arrival_course = (geometry.true_from_magnetic_deg(appr.final_course_deg_mag, var)   # angles.wrap_360 of a float
                       - rf.landing_course_deg_true) % 360.0
     rel_wind = 0.0 if wind_from is None else float(wind_from - rf.landing_course_deg_true)

@@ -878,23 +878,22 @@ class SideSector:
             raise DomainError(f"radius_m must be positive; got {radius_m}")
         (ae, an), (be, bn) = self.line_a_m, self.line_b_m
         ce, cn = _point(about_m, "about_m") if about_m is not None else ((ae + be) / 2.0, (an + bn) / 2.0)
-        c = np.array((ce, cn))
         nrm = self.outward_unit
         # how far the circle's centre is inside: -clearance_m(c), its (2,) @ (2,) product written out
         h = (ce - ae) * nrm[0] + (cn - an) * nrm[1]
         if h >= radius_m:
             brg = np.linspace(0.0, 360.0, max(n, 8) + 1)[:-1]
-            circle = c + radius_m * np.stack([sind(brg), cosd(brg)], axis=-1)
+            circle = np.array((ce, cn)) + radius_m * np.stack([sind(brg), cosd(brg)], axis=-1)
             return np.vstack([circle, circle[:1]])
         if h <= -radius_m:
             return np.empty((0, 2))
         half = math.degrees(math.acos(-h / radius_m))   # half-angle of the arc on the excluded side
         centre_brg = math.degrees(math.atan2(nrm[0], nrm[1]))   # atand2 of two floats
         k = max(2, int(math.ceil(n * 2.0 * half / 360.0)) + 1)
-        brg = centre_brg + linspace(-half, half, k)
+        brg = np.radians(centre_brg + linspace(-half, half, k))   # sind's and cosd's radians, once
         arc = np.empty((k + 1, 2))
-        arc[:k, 0] = c[0] + radius_m * sind(brg)
-        arc[:k, 1] = c[1] + radius_m * cosd(brg)
+        arc[:k, 0] = ce + radius_m * np.sin(brg)      # c[0] + ...: the same float64 sum
+        arc[:k, 1] = cn + radius_m * np.cos(brg)
         arc[k] = arc[0]
         return arc
 
