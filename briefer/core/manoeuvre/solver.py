@@ -1293,11 +1293,35 @@ class _Turns:
         self.p0 = xy0[0] + 1j * xy0[1]
         self.t0 = t0
         self.na = max(na)
-        self.den = (np.array([n - 1 for n in na])[:, None].repeat(m, axis=1) if den is None else den)[None]
-        k = np.arange(self.na, dtype=np.float64).reshape((self.na, 1, 1))
-        d = self.den.astype(np.float64)    # (whole numbers: exact; float loops, the same quotients)
-        self.fa = np.minimum(k, d) / d     # k / (n - 1) up to the row's n, then 1
-        self.pad = k > d
+        if den is None:         # every row of a turn at its count: the same arrays at every call of these counts
+            self.den, self.fa, self.pad = _arc_fractions(tuple(na), m)
+        else:
+            self.den, self.fa, self.pad = _fractions_of(den[None], self.na)
+
+
+_ARC_FRACTIONS: dict[tuple[tuple[int, ...], int], tuple] = {}
+
+
+def _arc_fractions(na: tuple[int, ...], m: int) -> tuple:
+    """:func:`_fractions_of` of turns of ``na`` arc samples each, every one of the ``m`` rows at
+    its turn's count, made once per (counts, rows) (read-only; a few hundred kinds at most)."""
+    f = _ARC_FRACTIONS.get((na, m))
+    if f is None:
+        if len(_ARC_FRACTIONS) >= 256:
+            _ARC_FRACTIONS.clear()
+        f = _fractions_of(np.array([n - 1 for n in na])[:, None].repeat(m, axis=1)[None], max(na))
+        for a in f:
+            a.flags.writeable = False
+        _ARC_FRACTIONS[(na, m)] = f
+    return f
+
+
+def _fractions_of(den: npt.NDArray[np.int_], na: int) -> tuple:
+    """``den`` (1, T, M) each row's arc steps, ``fa`` (na, T, M) the arc fractions k / den up to
+    a row's own count then 1, ``pad`` True past it."""
+    k = np.arange(na, dtype=np.float64).reshape((na, 1, 1))
+    d = den.astype(np.float64)         # (whole numbers: exact; float loops, the same quotients)
+    return den, np.minimum(k, d) / d, k > d     # k / (n - 1) up to the row's n, then 1
 
 
 _RAMP_FRACTIONS: dict[int, tuple[FloatArray, ...]] = {}
@@ -1475,6 +1499,24 @@ def _turn_pieces(parts: list[list], sr: SamplingRows, grp: list[int], t0: FloatA
         parts[i] = [tuple(None if blk is None else blk[c, b] for blk in blocks) for c in cuts]
 
 
+_STRAIGHT_FRACTIONS: dict[tuple[int, ...], tuple[FloatArray, npt.NDArray[np.complex128]]] = {}
+
+
+def _straight_fractions(counts: tuple[int, ...]) -> tuple[FloatArray, npt.NDArray[np.complex128]]:
+    """The fractions k/(n-1) of straights of ``counts`` points (S, n, 1) for n up to the most of
+    any, and the same as complex, made once per counts (read-only; a few hundred kinds at most)."""
+    f = _STRAIGHT_FRACTIONS.get(counts)
+    if f is None:
+        if len(_STRAIGHT_FRACTIONS) >= 256:
+            _STRAIGHT_FRACTIONS.clear()
+        fr = (np.arange(max(counts), dtype=np.float64) / np.array([float(n - 1) for n in counts])[:, None])[..., None]
+        f = (fr, _cx(fr))
+        for a in f:
+            a.flags.writeable = False
+        _STRAIGHT_FRACTIONS[counts] = f
+    return f
+
+
 def _straights(sr: SamplingRows, legs: list[int], counts: list[int], t_start: FloatArray | None
                ) -> tuple[FloatArray, ...]:
     """The straights ``legs`` (leg indices), ``counts`` points each at equal steps, both ends
@@ -1484,12 +1526,11 @@ def _straights(sr: SamplingRows, legs: list[int], counts: list[int], t_start: Fl
         6, len(legs), 1, sr.cols.shape[1])                                           # (6, S, 1, M)
     d, psi0 = g[0], g[3]
     dc, xc, yc, _, gxc, gyc = g.astype(np.complex128)        # complex operands: no casting pass per operation
-    n = max(counts[i] for i in legs)
-    f = (np.arange(n, dtype=np.float64) / np.array([float(counts[i] - 1) for i in legs])[:, None])[..., None]  # k/(n-1)
-    xy = (xc + 1j * yc) + ((gxc + 1j * gyc) * dc) * _cx(f)
+    f, f_cx = _straight_fractions(tuple([counts[i] for i in legs]))
+    xy = (xc + 1j * yc) + ((gxc + 1j * gyc) * dc) * f_cx
     if t_start is None:
         return xy, None, None
-    return xy, psi0.repeat(n, axis=1), t_start.take(legs, axis=0)[:, None] + d * f
+    return xy, psi0.repeat(f.shape[1], axis=1), t_start.take(legs, axis=0)[:, None] + d * f
 
 
 def sample_solution(sol: ShapeSolution | SamplingRows, *, turn_step_deg: float, n_straight: int,
