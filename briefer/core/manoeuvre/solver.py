@@ -1330,12 +1330,13 @@ _RAMP_FRACTIONS: dict[int, tuple[FloatArray, ...]] = {}
 def _ramp_fractions(nr: int) -> tuple[FloatArray, ...]:
     """The ramp samples' fractions of the ramp time, (nr, 1, 1) each, the same numbers at every
     call (made once, read-only): the roll-in's k/nr, the roll-out's 1 - k/nr - 1/nr (= (nr-1-k)/nr),
-    the roll-out samples' time after the arc k/nr + 1/nr, and the roll-in's then the roll-out's (2 nr, 1, 1)."""
+    the roll-out samples' time after the arc k/nr + 1/nr, the roll-in's then the roll-out's
+    (2 nr, 1, 1), and every ramp sample's of :func:`_ramp_times` (2 nr + 1, 1, 1)."""
     f = _RAMP_FRACTIONS.get(nr)
     if f is None:
         fr = (np.arange(nr) / nr).reshape((nr, 1, 1))
         out = 1.0 - fr - 1.0 / nr
-        f = (fr, out, fr + 1.0 / nr, np.concatenate([fr, out], axis=0))
+        f = (fr, out, fr + 1.0 / nr, np.concatenate([fr, out], axis=0), np.concatenate([fr, fr[:1] + 1.0, out], axis=0))
         for a in f:
             a.flags.writeable = False
         _RAMP_FRACTIONS[nr] = f
@@ -1347,15 +1348,49 @@ def _turn_ramps(tn: _Turns, nr: int) -> tuple:
     (nr, 1, 1), roll-in times and air path (nr, T, M), the full ramp's Q(tr) (1, T, M), the
     roll-out samples' air path (nr, T, M)."""
     tr, c, v = tn.tr[0], tn.c[0], tn.tas[0]
-    fr, out = _ramp_fractions(nr)[:2]
-    tau_in = tr * fr
+    fr, every = _ramp_fractions(nr)[::4]
     u = _distinct_ramp_times(tr, c, v)
     if u is None:
-        q_all = ramp_q(_ramp_times(tr, tau_in, out), c, v, tn.k)
+        times = _ramp_times(tr, every)
+        q_all = _known_q(tr, c, v, tn.k, nr)
+        if q_all is None:
+            q_all = ramp_q(times, c, v, tn.k)
     else:   # one TAS and roll rate: Q of each distinct ramp time once (the same numbers), then gathered
-        f1, o1 = fr.reshape(nr, 1), out.reshape(nr, 1)     # (a time per column of u)
-        q_all = ramp_q(_ramp_times(u, u * f1, o1), c.flat[0], v.flat[0], tn.k).take(u.searchsorted(tr), axis=1)
-    return fr, tau_in, q_all[:nr], q_all[nr:nr + 1], q_all[nr + 1:]
+        times = _ramp_times(tr, fr)
+        q_u = ramp_q(_ramp_times(u, every.reshape(-1, 1)), c.flat[0], v.flat[0], tn.k)
+        _LAST_Q[0] = (tn.k, c.flat[0], v.flat[0], nr, u, q_u)
+        q_all = q_u.take(u.searchsorted(tr), axis=1)
+    return fr, times[:nr], q_all[:nr], q_all[nr:nr + 1], q_all[nr + 1:]
+
+
+_LAST_Q: list[tuple | None] = [None]
+"""The last ramps' Q of distinct ramp times (roll rate, c, TAS, nr, the times, Q (2 nr + 1, U)):
+a plan's track samples rows of the batch sampled just before (judgement then plans)."""
+
+
+def _known_q(tr: FloatArray, c: FloatArray, v: FloatArray, k: float, nr: int) -> npt.NDArray[np.complex128] | None:
+    """The ramps' Q (2 nr + 1, T, M) of ramp times ``tr`` (T, M) taken from the last distinct ramp
+    times' (:data:`_LAST_Q`), when every row has their roll rate, c and TAS and a ramp time of
+    theirs (the same numbers as ramp_q of these times: each Q is its own time's, element by
+    element); None otherwise (a ramp time of zero too: the times' order does not tell -0 from 0;
+    more than 8 ramp times: the look-up is in Python)."""
+    last = _LAST_Q[0]
+    if last is None or last[0] != k or last[3] != nr or tr.size > 8:      # (a few rows: a plan's track)
+        return None
+    _, c0, v0, _, u, q_u = last
+    for x in c.ravel().tolist():
+        if x != c0:
+            return None
+    for x in v.ravel().tolist():
+        if x != v0:
+            return None
+    flat = tr.ravel()
+    idx = u.searchsorted(flat)
+    times, n = u.tolist(), len(u)
+    for i, t in zip(idx.tolist(), flat.tolist()):
+        if not (i < n and times[i] == t and t > 0.0):
+            return None
+    return q_u.take(idx, axis=1).reshape((2 * nr + 1,) + tr.shape)
 
 
 def _exps(*angles: FloatArray) -> list[npt.NDArray[np.complex128]]:
@@ -1371,10 +1406,11 @@ def _exps(*angles: FloatArray) -> list[npt.NDArray[np.complex128]]:
     return out
 
 
-def _ramp_times(tr: FloatArray, tau_in: FloatArray, out: FloatArray) -> FloatArray:
-    """The times of every ramp sample (2 nr + 1, ...): the roll-in's ``tau_in``, the full ramp
-    ``tr``, the roll-out's tr (nr-1-j)/nr."""
-    return np.concatenate([tau_in, tr[None] + 0.0 * tau_in[:1], tr * out], axis=0)
+def _ramp_times(tr: FloatArray, fractions: FloatArray) -> FloatArray:
+    """The times of the ramp samples (n, ...) at ``fractions`` (n, 1, ...) of the ramp times ``tr``:
+    every one, (2 nr + 1, ...), the roll-in's tr k/nr, the full ramp tr (tr 1.0: the same number as
+    tr + 0.0 (tr 0.0) for a finite or NaN tr), the roll-out's tr (nr-1-j)/nr."""
+    return tr * fractions
 
 
 def _distinct_ramp_times(tr: FloatArray, c: FloatArray, v: FloatArray) -> FloatArray | None:
