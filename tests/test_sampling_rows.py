@@ -24,7 +24,8 @@ from briefer.core.manoeuvre.solver import (
     solve_inputs_shapes,
     take_rows,
 )
-from briefer.core.manoeuvre.legs import runway_wind_from
+from briefer.core.manoeuvre import solver
+from briefer.core.manoeuvre.legs import ramp_q, runway_wind_from
 from briefer.units import KT_TO_MPS
 
 
@@ -112,3 +113,61 @@ def test_the_solves_one_array_gives_the_fields_one_by_one(inp):
         for k in range(1, len(order) + 1):
             pick = order[:k]
             _same_rows(merge_for_sampling([sols[i] for i in pick]), merge_for_sampling([plain[i] for i in pick]))
+
+
+def _bits(a: np.ndarray) -> bytes:
+    return str((a.dtype, a.shape)).encode() + np.ascontiguousarray(a).tobytes()
+
+
+def test_every_ramp_time_as_one_product_is_each_ramp_time_as_it_was():
+    """The ramp sample times tr x (k/nr, 1.0, (nr-1-k)/nr) in one product (solver._ramp_times) =
+    the roll-in's tr k/nr, the full ramp's tr + 0.0 (tr 0.0), the roll-out's tr (1 - k/nr - 1/nr),
+    the way they were made before (the source of truth): every bit, for finite times (signed
+    zeros, subnormal, huge) and NaN (a row that cannot be flown)."""
+    rng = np.random.default_rng(7)
+    tr = np.concatenate([rng.uniform(0.0, 8.0, 200), [0.0, -0.0, 5e-324, 1e300, -3.5, np.nan]]).reshape(2, -1)
+    for nr in (1, 2, 3, 4):
+        fr, out = solver._ramp_fractions(nr)[:2]
+        tau_in = tr * fr
+        before = np.concatenate([tau_in, tr[None] + 0.0 * tau_in[:1], tr * out], axis=0)
+        assert _bits(solver._ramp_times(tr, solver._ramp_fractions(nr)[4])) == _bits(before)
+
+
+def test_the_last_ramps_q_given_for_known_times_is_ramp_q_of_them():
+    """_known_q (Q of ramp times found among the last batch's distinct times) = ramp_q of those
+    times afresh (legs.ramp_q, the source of truth): every bit; None where a row's c, TAS or roll
+    rate differs, a time is not among them, or a time is zero."""
+    nr, k, c, v = 3, math.radians(10.0), 12.5, 61.7
+    every = solver._ramp_fractions(nr)[4]
+    u = np.sort(np.random.default_rng(3).uniform(0.5, 6.0, 12))
+    saved = solver._LAST_Q[0]
+    try:
+        solver._LAST_Q[0] = (k, np.float64(c), np.float64(v), nr, u, ramp_q(u * every.reshape(-1, 1), c, v, k))
+        for tr in (u[[4, 0, 11]].reshape(3, 1), u[[1, 1, 7, 2, 9, 3]].reshape(3, 2)):
+            cs, vs = np.full(tr.shape, c), np.full(tr.shape, v)
+            assert _bits(solver._known_q(tr, cs, vs, k, nr)) == _bits(ramp_q(tr * every, cs, vs, k))
+            assert solver._known_q(tr, cs + 1e-9, vs, k, nr) is None
+            assert solver._known_q(tr, cs, vs, k * 1.01, nr) is None
+            assert solver._known_q(tr, cs, vs, k, 2) is None
+            assert solver._known_q(tr + 1e-12, cs, vs, k, nr) is None
+            assert solver._known_q(tr * 0.0, cs, vs, k, nr) is None
+    finally:
+        solver._LAST_Q[0] = saved
+
+
+@pytest.mark.parametrize("inp", [s for s in SCENARIOS if s.roll_rate_deg_per_s is not None])
+def test_a_plan_track_after_its_batch_is_the_track_sampled_afresh(inp, monkeypatch):
+    """A plan's dense track sampled just after its batch (the ramps' Q taken from the batch's,
+    solver._known_q) = the same rows sampled with no batch before (Q by ramp_q): every bit."""
+    _, sols = _solutions(inp, 24)
+    given = []
+    real = solver._known_q
+    monkeypatch.setattr(solver, "_known_q", lambda *a: given.append(real(*a)) or given[-1])
+    kw = dict(turn_step_deg=2.0, n_straight=2, straight_step_m=100.0, with_heading=True)
+    for sol in sols:
+        for rows in (np.array([5]), np.array([6, 7]), slice(0, 2)):
+            sample_solution(sol, turn_step_deg=7.5, n_straight=5, running_product=True, pad_rows=True)
+            after = sample_solution(sampling_rows(sol, rows), **kw)
+            solver._LAST_Q[0] = None
+            _same(after, sample_solution(sampling_rows(sol, rows), **kw))
+    assert any(q is not None for q in given) and any(q is None for q in given)

@@ -1304,11 +1304,35 @@ class _Turns:
         self.p0 = xy0[0] + 1j * xy0[1]
         self.t0 = t0
         self.na = max(na)
-        self.den = (np.array([n - 1 for n in na])[:, None].repeat(m, axis=1) if den is None else den)[None]
-        k = np.arange(self.na, dtype=np.float64).reshape((self.na, 1, 1))
-        d = self.den.astype(np.float64)    # (whole numbers: exact; float loops, the same quotients)
-        self.fa = np.minimum(k, d) / d     # k / (n - 1) up to the row's n, then 1
-        self.pad = k > d
+        if den is None:         # every row of a turn at its count: the same arrays at every call of these counts
+            self.den, self.fa, self.pad = _arc_fractions(tuple(na), m)
+        else:
+            self.den, self.fa, self.pad = _fractions_of(den[None], self.na)
+
+
+_ARC_FRACTIONS: dict[tuple[tuple[int, ...], int], tuple] = {}
+
+
+def _arc_fractions(na: tuple[int, ...], m: int) -> tuple:
+    """:func:`_fractions_of` of turns of ``na`` arc samples each, every one of the ``m`` rows at
+    its turn's count, made once per (counts, rows) (read-only; a few hundred kinds at most)."""
+    f = _ARC_FRACTIONS.get((na, m))
+    if f is None:
+        if len(_ARC_FRACTIONS) >= 256:
+            _ARC_FRACTIONS.clear()
+        f = _fractions_of(np.array([n - 1 for n in na])[:, None].repeat(m, axis=1)[None], max(na))
+        for a in f:
+            a.flags.writeable = False
+        _ARC_FRACTIONS[(na, m)] = f
+    return f
+
+
+def _fractions_of(den: npt.NDArray[np.int_], na: int) -> tuple:
+    """``den`` (1, T, M) each row's arc steps, ``fa`` (na, T, M) the arc fractions k / den up to
+    a row's own count then 1, ``pad`` True past it."""
+    k = np.arange(na, dtype=np.float64).reshape((na, 1, 1))
+    d = den.astype(np.float64)         # (whole numbers: exact; float loops, the same quotients)
+    return den, np.minimum(k, d) / d, k > d     # k / (n - 1) up to the row's n, then 1
 
 
 _RAMP_FRACTIONS: dict[int, tuple[FloatArray, ...]] = {}
@@ -1317,12 +1341,13 @@ _RAMP_FRACTIONS: dict[int, tuple[FloatArray, ...]] = {}
 def _ramp_fractions(nr: int) -> tuple[FloatArray, ...]:
     """The ramp samples' fractions of the ramp time, (nr, 1, 1) each, the same numbers at every
     call (made once, read-only): the roll-in's k/nr, the roll-out's 1 - k/nr - 1/nr (= (nr-1-k)/nr),
-    the roll-out samples' time after the arc k/nr + 1/nr, and the roll-in's then the roll-out's (2 nr, 1, 1)."""
+    the roll-out samples' time after the arc k/nr + 1/nr, the roll-in's then the roll-out's
+    (2 nr, 1, 1), and every ramp sample's of :func:`_ramp_times` (2 nr + 1, 1, 1)."""
     f = _RAMP_FRACTIONS.get(nr)
     if f is None:
         fr = (np.arange(nr) / nr).reshape((nr, 1, 1))
         out = 1.0 - fr - 1.0 / nr
-        f = (fr, out, fr + 1.0 / nr, np.concatenate([fr, out], axis=0))
+        f = (fr, out, fr + 1.0 / nr, np.concatenate([fr, out], axis=0), np.concatenate([fr, fr[:1] + 1.0, out], axis=0))
         for a in f:
             a.flags.writeable = False
         _RAMP_FRACTIONS[nr] = f
@@ -1334,15 +1359,49 @@ def _turn_ramps(tn: _Turns, nr: int) -> tuple:
     (nr, 1, 1), roll-in times and air path (nr, T, M), the full ramp's Q(tr) (1, T, M), the
     roll-out samples' air path (nr, T, M)."""
     tr, c, v = tn.tr[0], tn.c[0], tn.tas[0]
-    fr, out = _ramp_fractions(nr)[:2]
-    tau_in = tr * fr
+    fr, every = _ramp_fractions(nr)[::4]
     u = _distinct_ramp_times(tr, c, v)
     if u is None:
-        q_all = ramp_q(_ramp_times(tr, tau_in, out), c, v, tn.k)
+        times = _ramp_times(tr, every)
+        q_all = _known_q(tr, c, v, tn.k, nr)
+        if q_all is None:
+            q_all = ramp_q(times, c, v, tn.k)
     else:   # one TAS and roll rate: Q of each distinct ramp time once (the same numbers), then gathered
-        f1, o1 = fr.reshape(nr, 1), out.reshape(nr, 1)     # (a time per column of u)
-        q_all = ramp_q(_ramp_times(u, u * f1, o1), c.flat[0], v.flat[0], tn.k).take(u.searchsorted(tr), axis=1)
-    return fr, tau_in, q_all[:nr], q_all[nr:nr + 1], q_all[nr + 1:]
+        times = _ramp_times(tr, fr)
+        q_u = ramp_q(_ramp_times(u, every.reshape(-1, 1)), c.flat[0], v.flat[0], tn.k)
+        _LAST_Q[0] = (tn.k, c.flat[0], v.flat[0], nr, u, q_u)
+        q_all = q_u.take(u.searchsorted(tr), axis=1)
+    return fr, times[:nr], q_all[:nr], q_all[nr:nr + 1], q_all[nr + 1:]
+
+
+_LAST_Q: list[tuple | None] = [None]
+"""The last ramps' Q of distinct ramp times (roll rate, c, TAS, nr, the times, Q (2 nr + 1, U)):
+a plan's track samples rows of the batch sampled just before (judgement then plans)."""
+
+
+def _known_q(tr: FloatArray, c: FloatArray, v: FloatArray, k: float, nr: int) -> npt.NDArray[np.complex128] | None:
+    """The ramps' Q (2 nr + 1, T, M) of ramp times ``tr`` (T, M) taken from the last distinct ramp
+    times' (:data:`_LAST_Q`), when every row has their roll rate, c and TAS and a ramp time of
+    theirs (the same numbers as ramp_q of these times: each Q is its own time's, element by
+    element); None otherwise (a ramp time of zero too: the times' order does not tell -0 from 0;
+    more than 8 ramp times: the look-up is in Python)."""
+    last = _LAST_Q[0]
+    if last is None or last[0] != k or last[3] != nr or tr.size > 8:      # (a few rows: a plan's track)
+        return None
+    _, c0, v0, _, u, q_u = last
+    for x in c.ravel().tolist():
+        if x != c0:
+            return None
+    for x in v.ravel().tolist():
+        if x != v0:
+            return None
+    flat = tr.ravel()
+    idx = u.searchsorted(flat)
+    times, n = u.tolist(), len(u)
+    for i, t in zip(idx.tolist(), flat.tolist()):
+        if not (i < n and times[i] == t and t > 0.0):
+            return None
+    return q_u.take(idx, axis=1).reshape((2 * nr + 1,) + tr.shape)
 
 
 def _exps(*angles: FloatArray) -> list[npt.NDArray[np.complex128]]:
@@ -1358,10 +1417,11 @@ def _exps(*angles: FloatArray) -> list[npt.NDArray[np.complex128]]:
     return out
 
 
-def _ramp_times(tr: FloatArray, tau_in: FloatArray, out: FloatArray) -> FloatArray:
-    """The times of every ramp sample (2 nr + 1, ...): the roll-in's ``tau_in``, the full ramp
-    ``tr``, the roll-out's tr (nr-1-j)/nr."""
-    return np.concatenate([tau_in, tr[None] + 0.0 * tau_in[:1], tr * out], axis=0)
+def _ramp_times(tr: FloatArray, fractions: FloatArray) -> FloatArray:
+    """The times of the ramp samples (n, ...) at ``fractions`` (n, 1, ...) of the ramp times ``tr``:
+    every one, (2 nr + 1, ...), the roll-in's tr k/nr, the full ramp tr (tr 1.0: the same number as
+    tr + 0.0 (tr 0.0) for a finite or NaN tr), the roll-out's tr (nr-1-j)/nr."""
+    return tr * fractions
 
 
 def _distinct_ramp_times(tr: FloatArray, c: FloatArray, v: FloatArray) -> FloatArray | None:
@@ -1486,6 +1546,24 @@ def _turn_pieces(parts: list[list], sr: SamplingRows, grp: list[int], t0: FloatA
         parts[i] = [tuple(None if blk is None else blk[c, b] for blk in blocks) for c in cuts]
 
 
+_STRAIGHT_FRACTIONS: dict[tuple[int, ...], tuple[FloatArray, npt.NDArray[np.complex128]]] = {}
+
+
+def _straight_fractions(counts: tuple[int, ...]) -> tuple[FloatArray, npt.NDArray[np.complex128]]:
+    """The fractions k/(n-1) of straights of ``counts`` points (S, n, 1) for n up to the most of
+    any, and the same as complex, made once per counts (read-only; a few hundred kinds at most)."""
+    f = _STRAIGHT_FRACTIONS.get(counts)
+    if f is None:
+        if len(_STRAIGHT_FRACTIONS) >= 256:
+            _STRAIGHT_FRACTIONS.clear()
+        fr = (np.arange(max(counts), dtype=np.float64) / np.array([float(n - 1) for n in counts])[:, None])[..., None]
+        f = (fr, _cx(fr))
+        for a in f:
+            a.flags.writeable = False
+        _STRAIGHT_FRACTIONS[counts] = f
+    return f
+
+
 def _straights(sr: SamplingRows, legs: list[int], counts: list[int], t_start: FloatArray | None
                ) -> tuple[FloatArray, ...]:
     """The straights ``legs`` (leg indices), ``counts`` points each at equal steps, both ends
@@ -1495,12 +1573,11 @@ def _straights(sr: SamplingRows, legs: list[int], counts: list[int], t_start: Fl
         6, len(legs), 1, sr.cols.shape[1])                                           # (6, S, 1, M)
     d, psi0 = g[0], g[3]
     dc, xc, yc, _, gxc, gyc = g.astype(np.complex128)        # complex operands: no casting pass per operation
-    n = max(counts[i] for i in legs)
-    f = (np.arange(n, dtype=np.float64) / np.array([float(counts[i] - 1) for i in legs])[:, None])[..., None]  # k/(n-1)
-    xy = (xc + 1j * yc) + ((gxc + 1j * gyc) * dc) * _cx(f)
+    f, f_cx = _straight_fractions(tuple([counts[i] for i in legs]))
+    xy = (xc + 1j * yc) + ((gxc + 1j * gyc) * dc) * f_cx
     if t_start is None:
         return xy, None, None
-    return xy, psi0.repeat(n, axis=1), t_start.take(legs, axis=0)[:, None] + d * f
+    return xy, psi0.repeat(f.shape[1], axis=1), t_start.take(legs, axis=0)[:, None] + d * f
 
 
 def sample_solution(sol: ShapeSolution | SamplingRows, *, turn_step_deg: float, n_straight: int,
