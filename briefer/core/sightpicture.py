@@ -394,16 +394,18 @@ def compare_sight_picture(*, circling_height_ft: float, planned_offset_nm: float
     lateral_plan_m = k * r_plan_m                                                  # [2] 2 r in still air
     overshoot_m = lateral_plan_m - d_fam_circ_m
 
-    # check the stall and angle-of-attack inputs wings-level first, so that a bad profile raises
-    # here and is never mistaken for an impossible turn below
-    stall_speed_in_turn_kt(vs1g_kt, 0.0, weight_ratio=weight_ratio)
-    angle_of_attack_in_turn(ias, 0.0, vref_kt=vref_kt, vs1g_kt=vs1g_kt, aoa_ref=aoa_ref,
-                            aoa_stall=aoa_stall, weight_ratio=weight_ratio)
-
     r_need_m = d_fam_circ_m / k                                                    # [2] r = d / 2 in still air
     possible, beyond_stall, exceeds, turn = _familiar_turn(
         tas_kt, ias, r_need_m, bank_limit_deg=bank_limit_deg, vs1g_kt=vs1g_kt, vref_kt=vref_kt,
         aoa_ref=aoa_ref, aoa_stall=aoa_stall, weight_ratio=weight_ratio)
+    if not possible:
+        # a turn that can be flown checks the stall and angle-of-attack inputs in its own calls
+        # (the inputs first, in this order, then the bank); one that cannot has them checked
+        # wings-level here, so that a bad profile raises either way and is never mistaken for
+        # an impossible turn
+        stall_speed_in_turn_kt(vs1g_kt, 0.0, weight_ratio=weight_ratio)
+        angle_of_attack_in_turn(ias, 0.0, vref_kt=vref_kt, vs1g_kt=vs1g_kt, aoa_ref=aoa_ref,
+                                aoa_stall=aoa_stall, weight_ratio=weight_ratio)
 
     return SightPictureComparison(
         circling_height_ft=h_circ, planned_offset_nm=d_plan, planned_depression_deg=dep_plan,
@@ -448,37 +450,39 @@ def familiar_turn_track_m(*, side: str, roll_in_along_m: float, offset_m: float,
     sign = 1.0 if side == "right" else -1.0
     x_ri = roll_in_along_m
     sin_th, one_minus_cos_th = _half_turn()
+    # each column as one list (the arc's multiply and subtract per point on floats: the same
+    # operations as numpy's, point by point), written into the array in one pass each
+    along = _spaced(x_ri + 2500.0, x_ri, 8)                         # downwind
+    along += [x_ri - radius_m * s for s in sin_th]                  # 180 deg of turn, 37 points
+    along += _spaced(x_ri, x_ri + 1500.0, 6)                        # final
+    right = [sign * offset_m] * 8
+    right += [sign * (offset_m - radius_m * c) for c in one_minus_cos_th]
+    right += [sign * (offset_m - 2 * radius_m)] * 6
     out = np.empty((51, 2))
-    out[:8, 0] = _spaced(x_ri + 2500.0, x_ri, 8)                    # downwind
-    out[:8, 1] = sign * offset_m
-    along = out[8:45, 0]                                            # 180 deg of turn, 37 points:
-    np.subtract(x_ri, np.multiply(radius_m, sin_th, out=along), out=along)    # x_ri - radius_m * sin_th
-    right = out[8:45, 1]
-    np.multiply(sign, np.subtract(offset_m, np.multiply(radius_m, one_minus_cos_th, out=right), out=right),
-                out=right)                                          # sign * (offset_m - radius_m * (1 - cos th))
-    out[45:, 0] = _spaced(x_ri, x_ri + 1500.0, 6)                   # final
-    out[45:, 1] = sign * (offset_m - 2 * radius_m)
+    out[:, 0] = along
+    out[:, 1] = right
     return out
 
 
-def _spaced(start: float, stop: float, num: int) -> list[float] | np.ndarray:
+def _spaced(start: float, stop: float, num: int) -> list[float]:
     """`briefer.core.geometry.linspace` of two floats as a list: its operations (i * step + start,
     the last point set to stop) on floats, the same numbers without the arrays."""
     step = (stop - start) / (num - 1)
     if step == 0.0 or not math.isfinite(step):
-        return _linspace(start, stop, num)
+        return _linspace(start, stop, num).tolist()
     y = [i * step + start for i in range(num)]
     y[-1] = stop
     return y
 
 
-_HALF_TURN: list[tuple[np.ndarray, np.ndarray]] = []
+_HALF_TURN: list[tuple[list[float], list[float]]] = []
 
 
-def _half_turn() -> tuple[np.ndarray, np.ndarray]:
-    """sin(th) and 1 - cos(th) at 37 angles th from 0 to pi (computed once)."""
+def _half_turn() -> tuple[list[float], list[float]]:
+    """sin(th) and 1 - cos(th) at 37 angles th from 0 to pi (computed once, with numpy's sin and
+    cos; kept as lists of floats)."""
     if not _HALF_TURN:
         th = np.linspace(0.0, math.pi, 37)
-        _HALF_TURN.append((np.sin(th), 1 - np.cos(th)))
+        _HALF_TURN.append((np.sin(th).tolist(), (1 - np.cos(th)).tolist()))
     return _HALF_TURN[0]
 
