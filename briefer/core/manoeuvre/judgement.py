@@ -953,7 +953,7 @@ def choose_plan_at_wind(inputs: CircleInputs, *, margin_fn: MarginFn, batch_marg
         same = banks[b] == inputs.bank_deg and levels.roll_out_chosen[r] == inputs.roll_out_distance_m
         lvl_inputs = inputs if same else inputs_at_level(inputs, bank_deg=banks[b],
                                                          roll_out_distance_m=levels.roll_out_chosen[r])
-        plans = candidate_plans(lvl_inputs, solved=solved)
+        plans = candidate_plans(lvl_inputs, solved=solved, applicable=j.candidates)
         return rank_plans(plans, margin_fn=margin_fn, **kw)
 
     shown = None

@@ -413,7 +413,7 @@ def inputs_at_level(inputs: CircleInputs, *, bank_deg: float, roll_out_distance_
 
 
 def candidate_plans(inputs: CircleInputs, *, solved: Mapping[Shape, ShapeSolution | tuple[ShapeSolution, Rows]]
-                    | None = None) -> tuple[Plan, ...]:
+                    | None = None, applicable: tuple[tuple[Shape, Side], ...] | None = None) -> tuple[Plan, ...]:
     """Every applicable (shape, side) for the arrival, solved at the inputs' bank.
 
     Both sides of a shape are solved in one vectorised call. Returns an empty tuple for an
@@ -421,9 +421,11 @@ def candidate_plans(inputs: CircleInputs, *, solved: Mapping[Shape, ShapeSolutio
     solved for these inputs, not solved again: a solution with one row per applicable side, in
     the order of :func:`applicable_candidates`, or (solution, rows) with the row of each side in
     a bigger solution (e.g. the judgement's batch: only a shape with a flyable side has its rows
-    taken out and sampled).
+    taken out and sampled). ``applicable``: ``applicable_candidates(inputs.arrival_course_deg)``,
+    when the caller has it (e.g. the judgement's ``candidates``).
     """
-    applicable = applicable_candidates(inputs.arrival_course_deg)
+    if applicable is None:
+        applicable = applicable_candidates(inputs.arrival_course_deg)
     descent = descent_geometry(inputs)
     by_shape: dict[Shape, list[Side]] = {}
     for s, d in applicable:
@@ -475,9 +477,11 @@ def _flyable_tracks(sol: ShapeSolution, ks: list[int], rows: Rows | None, flyabl
     at = [0] * len(ks)
     if not all(flyable):
         keep = [t for t, f in enumerate(flyable) if f]
-        sr = SamplingRows(sr.ok[keep], sr.cols[:, keep], sol.legs, sr.nominal_rad)
         for n, t in enumerate(keep):
             at[t] = n
+        # a run of rows (one side of two) as views, not a gather: the same numbers
+        run = slice(keep[0], keep[-1] + 1) if keep[-1] - keep[0] == len(keep) - 1 else keep
+        sr = SamplingRows(sr.ok[run], sr.cols[:, run], sol.legs, sr.nominal_rad)
     else:
         at = list(range(len(ks))) if rows is not None else list(ks)
     trk = sample_solution(sr, turn_step_deg=PLAN_TURN_STEP_DEG, n_straight=2, straight_step_m=PLAN_STRAIGHT_STEP_M,
