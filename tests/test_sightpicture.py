@@ -239,34 +239,6 @@ def test_bad_profile_raises_the_wings_level_error_whether_the_turn_is_reachable(
     assert str(unreachable.value) == str(wings_level.value)
 
 
-def _familiar_track_by_arrays(*, side: str, roll_in_along_m: float, offset_m: float, radius_m: float) -> np.ndarray:
-    """The familiar turn's track as numpy's column operations make it (the rule
-    `familiar_turn_track_m` writes on floats): np.linspace's points for the straights, the arc's
-    x_ri - r sin(th) and sign (offset - r (1 - cos th)) over the 37 angles as array operations."""
-    sign = 1.0 if side == "right" else -1.0
-    th = np.linspace(0.0, math.pi, 37)
-    out = np.empty((51, 2))
-    out[:8, 0] = np.linspace(roll_in_along_m + 2500.0, roll_in_along_m, 8)
-    out[:8, 1] = sign * offset_m
-    out[8:45, 0] = roll_in_along_m - radius_m * np.sin(th)
-    out[8:45, 1] = sign * (offset_m - radius_m * (1 - np.cos(th)))
-    out[45:, 0] = np.linspace(roll_in_along_m, roll_in_along_m + 1500.0, 6)
-    out[45:, 1] = sign * (offset_m - 2 * radius_m)
-    return out
-
-
-@settings(max_examples=200, deadline=None)
-@given(side=st.sampled_from(["left", "right"]),
-       roll_in=st.floats(-20000.0, 20000.0), offset=st.floats(0.0, 10000.0), radius=st.floats(1.0, 10000.0))
-def test_familiar_track_on_floats_is_the_array_rule_to_the_last_bit(side, roll_in, offset, radius):
-    """The familiar track's points made on floats are numpy's array operations, bit for bit
-    (IEEE: the same single operations)."""
-    got = sightpicture.familiar_turn_track_m(side=side, roll_in_along_m=roll_in, offset_m=offset, radius_m=radius)
-    want = _familiar_track_by_arrays(side=side, roll_in_along_m=roll_in, offset_m=offset, radius_m=radius)
-    assert got.shape == (51, 2) and got.dtype == np.float64 and got.flags.c_contiguous
-    assert got.tobytes() == want.tobytes()
-
-
 @pytest.mark.parametrize("over", [
     pytest.param(dict(circling_height_ft=0.0), id="height-0"),
     pytest.param(dict(planned_offset_nm=-1.0), id="offset-negative"),

@@ -450,39 +450,37 @@ def familiar_turn_track_m(*, side: str, roll_in_along_m: float, offset_m: float,
     sign = 1.0 if side == "right" else -1.0
     x_ri = roll_in_along_m
     sin_th, one_minus_cos_th = _half_turn()
-    # each column as one list (the arc's multiply and subtract per point on floats: the same
-    # operations as numpy's, point by point), written into the array in one pass each
-    along = _spaced(x_ri + 2500.0, x_ri, 8)                         # downwind
-    along += [x_ri - radius_m * s for s in sin_th]                  # 180 deg of turn, 37 points
-    along += _spaced(x_ri, x_ri + 1500.0, 6)                        # final
-    right = [sign * offset_m] * 8
-    right += [sign * (offset_m - radius_m * c) for c in one_minus_cos_th]
-    right += [sign * (offset_m - 2 * radius_m)] * 6
     out = np.empty((51, 2))
-    out[:, 0] = along
-    out[:, 1] = right
+    out[:8, 0] = _spaced(x_ri + 2500.0, x_ri, 8)                    # downwind
+    out[:8, 1] = sign * offset_m
+    along = out[8:45, 0]                                            # 180 deg of turn, 37 points:
+    np.subtract(x_ri, np.multiply(radius_m, sin_th, out=along), out=along)    # x_ri - radius_m * sin_th
+    right = out[8:45, 1]
+    np.multiply(sign, np.subtract(offset_m, np.multiply(radius_m, one_minus_cos_th, out=right), out=right),
+                out=right)                                          # sign * (offset_m - radius_m * (1 - cos th))
+    out[45:, 0] = _spaced(x_ri, x_ri + 1500.0, 6)                   # final
+    out[45:, 1] = sign * (offset_m - 2 * radius_m)
     return out
 
 
-def _spaced(start: float, stop: float, num: int) -> list[float]:
+def _spaced(start: float, stop: float, num: int) -> list[float] | np.ndarray:
     """`briefer.core.geometry.linspace` of two floats as a list: its operations (i * step + start,
     the last point set to stop) on floats, the same numbers without the arrays."""
     step = (stop - start) / (num - 1)
     if step == 0.0 or not math.isfinite(step):
-        return _linspace(start, stop, num).tolist()
+        return _linspace(start, stop, num)
     y = [i * step + start for i in range(num)]
     y[-1] = stop
     return y
 
 
-_HALF_TURN: list[tuple[list[float], list[float]]] = []
+_HALF_TURN: list[tuple[np.ndarray, np.ndarray]] = []
 
 
-def _half_turn() -> tuple[list[float], list[float]]:
-    """sin(th) and 1 - cos(th) at 37 angles th from 0 to pi (computed once, with numpy's sin and
-    cos; kept as lists of floats)."""
+def _half_turn() -> tuple[np.ndarray, np.ndarray]:
+    """sin(th) and 1 - cos(th) at 37 angles th from 0 to pi (computed once)."""
     if not _HALF_TURN:
         th = np.linspace(0.0, math.pi, 37)
-        _HALF_TURN.append((np.sin(th).tolist(), (1 - np.cos(th)).tolist()))
+        _HALF_TURN.append((np.sin(th), 1 - np.cos(th)))
     return _HALF_TURN[0]
 
