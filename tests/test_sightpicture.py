@@ -213,6 +213,32 @@ def test_bad_profile_still_raises_when_turn_unreachable(monkeypatch):
         _compare(vref_kt=70.0)
 
 
+@pytest.mark.parametrize("bad", [
+    pytest.param(dict(vref_kt=70.0), id="vref-below-vs1g"),
+    pytest.param(dict(aoa_stall=5.0), id="stall-angle-below-ref"),
+    pytest.param(dict(vs1g_kt=0.0), id="vs1g-0"),
+    pytest.param(dict(weight_ratio=0.0), id="weight-ratio-0"),
+    pytest.param(dict(aoa_ref=2e6), id="aoa-ref-out-of-range"),
+])
+def test_bad_profile_raises_the_wings_level_error_whether_the_turn_is_reachable(bad, monkeypatch):
+    """A reachable familiar turn checks the stall and angle-of-attack inputs in its own calls; an
+    unreachable one has them checked wings-level: either way the error is the one of the
+    wings-level checks (stall speed first, then the angle of attack), word for word."""
+    from briefer.core import turn
+    prof = {**PROFILE, "weight_ratio": 1.0, **bad}
+    with pytest.raises(DomainError) as wings_level:
+        turn.stall_speed_in_turn_kt(prof["vs1g_kt"], 0.0, weight_ratio=prof["weight_ratio"])
+        turn.angle_of_attack_in_turn(115.0, 0.0, **prof)
+    with pytest.raises(DomainError) as reachable:
+        _compare(**bad)
+    assert str(reachable.value) == str(wings_level.value)
+    monkeypatch.setattr(sightpicture, "bank_for_radius_deg",
+                        lambda tas_kt, *, radius_m: (_ for _ in ()).throw(DomainError("unreachable")))
+    with pytest.raises(DomainError) as unreachable:
+        _compare(**bad)
+    assert str(unreachable.value) == str(wings_level.value)
+
+
 @pytest.mark.parametrize("over", [
     pytest.param(dict(circling_height_ft=0.0), id="height-0"),
     pytest.param(dict(planned_offset_nm=-1.0), id="offset-negative"),

@@ -171,7 +171,7 @@ def _plan_info(s: Situation, best: maneuver.RankedPlan, alts: tuple[Alternative,
         break_angle = s.inputs.teardrop_angle_deg
     # the track, the roll-in point and the leave-MDA point to the local frame in one call (a
     # point's result does not depend on the others: the same values as three calls)
-    local = s.track_local(np.concatenate((np.asarray(plan.track_xy_m, dtype=float).reshape(-1, 2),
+    local = s.track_local(np.concatenate((plan.track_xy_m,       # a feasible plan's track: a float (N, 2) array
                                           np.array([plan.roll_in_xy_m, (lm.x_m, lm.y_m)], dtype=float))))
     frozen_own(local)                              # read-only: the three parts are views of it
     track_local, roll_in, descent = local[:-2], local[-2:-1], local[-1:]
@@ -179,7 +179,7 @@ def _plan_info(s: Situation, best: maneuver.RankedPlan, alts: tuple[Alternative,
     if s.visibility_reported and best.visibility_margin_m is not None:
         vis_ok = best.visibility_margin_m >= 0
     margin = best.area_margin_m if best.area_margin_m is not None else nan
-    track_pts = np.asarray(track_local)
+    track_pts = track_local
     edge_margin = s.area.track_hull_margin_m(track_pts)      # R - the largest distance to the hull
     sector_clear = None
     # The clearance shown is the manoeuvre's: flying on the extended centreline (the final, or a

@@ -394,16 +394,18 @@ def compare_sight_picture(*, circling_height_ft: float, planned_offset_nm: float
     lateral_plan_m = k * r_plan_m                                                  # [2] 2 r in still air
     overshoot_m = lateral_plan_m - d_fam_circ_m
 
-    # check the stall and angle-of-attack inputs wings-level first, so that a bad profile raises
-    # here and is never mistaken for an impossible turn below
-    stall_speed_in_turn_kt(vs1g_kt, 0.0, weight_ratio=weight_ratio)
-    angle_of_attack_in_turn(ias, 0.0, vref_kt=vref_kt, vs1g_kt=vs1g_kt, aoa_ref=aoa_ref,
-                            aoa_stall=aoa_stall, weight_ratio=weight_ratio)
-
     r_need_m = d_fam_circ_m / k                                                    # [2] r = d / 2 in still air
     possible, beyond_stall, exceeds, turn = _familiar_turn(
         tas_kt, ias, r_need_m, bank_limit_deg=bank_limit_deg, vs1g_kt=vs1g_kt, vref_kt=vref_kt,
         aoa_ref=aoa_ref, aoa_stall=aoa_stall, weight_ratio=weight_ratio)
+    if not possible:
+        # a turn that can be flown checks the stall and angle-of-attack inputs in its own calls
+        # (the inputs first, in this order, then the bank); one that cannot has them checked
+        # wings-level here, so that a bad profile raises either way and is never mistaken for
+        # an impossible turn
+        stall_speed_in_turn_kt(vs1g_kt, 0.0, weight_ratio=weight_ratio)
+        angle_of_attack_in_turn(ias, 0.0, vref_kt=vref_kt, vs1g_kt=vs1g_kt, aoa_ref=aoa_ref,
+                                aoa_stall=aoa_stall, weight_ratio=weight_ratio)
 
     return SightPictureComparison(
         circling_height_ft=h_circ, planned_offset_nm=d_plan, planned_depression_deg=dep_plan,

@@ -35,7 +35,6 @@ References
 
 from __future__ import annotations
 
-import dataclasses
 import math
 from collections.abc import Callable, Mapping, Sequence
 from briefer._dataclass import dataclass, field
@@ -46,7 +45,7 @@ if TYPE_CHECKING:    # numpy.typing for the type checker only (its import is slo
     import numpy.typing as npt
 
 from briefer.core.manoeuvre.legs import FloatArray, ramp_q
-from briefer.core.manoeuvre.plans import candidate_plans
+from briefer.core.manoeuvre.plans import candidate_plans, inputs_at_level
 from briefer.core.manoeuvre.ranking import (
     PlanChoice,
     REASON_AREA,
@@ -961,9 +960,9 @@ def choose_plan_at_wind(inputs: CircleInputs, *, margin_fn: MarginFn, batch_marg
         r, b, i, rows = lvl[0], lvl[1], order.index(lvl), len(order)
         solved = {j.candidates[cis[0]][0]: (sol, slice(i, None, rows)) for cis, sol in j.solutions}
         same = banks[b] == inputs.bank_deg and levels.roll_out_chosen[r] == inputs.roll_out_distance_m
-        lvl_inputs = inputs if same else dataclasses.replace(inputs, bank_deg=banks[b],
-                                                             roll_out_distance_m=levels.roll_out_chosen[r])
-        plans = candidate_plans(lvl_inputs, solved=solved)
+        lvl_inputs = inputs if same else inputs_at_level(inputs, bank_deg=banks[b],
+                                                         roll_out_distance_m=levels.roll_out_chosen[r])
+        plans = candidate_plans(lvl_inputs, solved=solved, applicable=j.candidates)
         return rank_plans(plans, margin_fn=margin_fn, **kw)
 
     shown = None

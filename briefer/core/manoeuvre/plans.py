@@ -17,6 +17,7 @@ References
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from collections.abc import Mapping
 from briefer._dataclass import dataclass, field
@@ -65,6 +66,11 @@ from briefer.core.manoeuvre.solver import (
 from briefer.errors import DomainError
 from briefer.units import KT_TO_MPS, M_TO_NM
 from briefer.core.angles import wrap_180
+
+try:                                     # the clip ufunc itself, without np.clip's wrappers
+    from numpy._core.umath import clip as _uclip
+except ImportError:                     # pragma: no cover - older numpy
+    _uclip = np.clip
 
 PLAN_TURN_STEP_DEG = 2.0          # a plan's track: a point every 2 deg of turn ...
 PLAN_STRAIGHT_STEP_M = 100.0      # ... and every 100 m of straight
@@ -237,7 +243,7 @@ def _reason_texts(flags: int, shape: Shape, sol: ShapeSolution, k: int, inputs: 
                   descent: DescentGeometry) -> tuple[str, ...]:
     out = []
     b = inputs.bank_deg
-    f = lambda a: float(a[k])  # noqa: E731
+    f = lambda a: a.item(k)  # noqa: E731   (float(a[k]) without the numpy scalar)
     if flags & R_WIND:
         out.append(f"the wind ({inputs.wind.speed_kt:.0f} kt) leaves no flyable crab on a leg: a crosswind "
                    f"component reaches the TAS ({inputs.tas_kt:.0f} kt) or a ground speed is not positive")
@@ -303,7 +309,10 @@ def _public_legs(sol: ShapeSolution, k: int, inputs: CircleInputs, times: tuple[
 
 
 def _distance_to_runway_m(x: FloatArray, y: FloatArray, length_m: float) -> FloatArray:
-    return np.hypot(x - np.minimum(np.maximum(x, 0.0), length_m), y)
+    """Distance of each point (x, y) from the runway, the segment from the threshold (0, 0) to
+    (``length_m``, 0): hypot(x - clip(x, 0, L), y), the clip in one ufunc call (the same numbers as
+    np.minimum(np.maximum(x, 0), L) but for the sign of a zero, which hypot does not see)."""
+    return np.hypot(x - _uclip(x, 0.0, length_m), y)
 
 
 def _largest(a: FloatArray) -> float:
@@ -391,8 +400,20 @@ def solve_plan(inputs: CircleInputs, *, shape: Shape, side: Side) -> Plan:
     return _solve_sides(inputs, shape, (side,))[0]
 
 
+_INPUT_FIELDS = tuple(f.name for f in dataclasses.fields(CircleInputs) if f.init)
+
+
+def inputs_at_level(inputs: CircleInputs, *, bank_deg: float, roll_out_distance_m: float | None) -> CircleInputs:
+    """``dataclasses.replace(inputs, bank_deg=..., roll_out_distance_m=...)``: the same new inputs,
+    checked as any, made from the fields' names taken once (replace reads every field's
+    declaration on each call)."""
+    kw = {name: getattr(inputs, name) for name in _INPUT_FIELDS}
+    kw["bank_deg"], kw["roll_out_distance_m"] = bank_deg, roll_out_distance_m
+    return CircleInputs(**kw)
+
+
 def candidate_plans(inputs: CircleInputs, *, solved: Mapping[Shape, ShapeSolution | tuple[ShapeSolution, Rows]]
-                    | None = None) -> tuple[Plan, ...]:
+                    | None = None, applicable: tuple[tuple[Shape, Side], ...] | None = None) -> tuple[Plan, ...]:
     """Every applicable (shape, side) for the arrival, solved at the inputs' bank.
 
     Both sides of a shape are solved in one vectorised call. Returns an empty tuple for an
@@ -400,9 +421,11 @@ def candidate_plans(inputs: CircleInputs, *, solved: Mapping[Shape, ShapeSolutio
     solved for these inputs, not solved again: a solution with one row per applicable side, in
     the order of :func:`applicable_candidates`, or (solution, rows) with the row of each side in
     a bigger solution (e.g. the judgement's batch: only a shape with a flyable side has its rows
-    taken out and sampled).
+    taken out and sampled). ``applicable``: ``applicable_candidates(inputs.arrival_course_deg)``,
+    when the caller has it (e.g. the judgement's ``candidates``).
     """
-    applicable = applicable_candidates(inputs.arrival_course_deg)
+    if applicable is None:
+        applicable = applicable_candidates(inputs.arrival_course_deg)
     descent = descent_geometry(inputs)
     by_shape: dict[Shape, list[Side]] = {}
     for s, d in applicable:
@@ -454,9 +477,11 @@ def _flyable_tracks(sol: ShapeSolution, ks: list[int], rows: Rows | None, flyabl
     at = [0] * len(ks)
     if not all(flyable):
         keep = [t for t, f in enumerate(flyable) if f]
-        sr = SamplingRows(sr.ok[keep], sr.cols[:, keep], sol.legs, sr.nominal_rad)
         for n, t in enumerate(keep):
             at[t] = n
+        # a run of rows (one side of two) as views, not a gather: the same numbers
+        run = slice(keep[0], keep[-1] + 1) if keep[-1] - keep[0] == len(keep) - 1 else keep
+        sr = SamplingRows(sr.ok[run], sr.cols[:, run], sol.legs, sr.nominal_rad)
     else:
         at = list(range(len(ks))) if rows is not None else list(ks)
     trk = sample_solution(sr, turn_step_deg=PLAN_TURN_STEP_DEG, n_straight=2, straight_step_m=PLAN_STRAIGHT_STEP_M,
@@ -494,11 +519,11 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
                    k: int, descent: DescentGeometry, t: int) -> Plan:
     """Plan of row k of a solved batch, its track row t of ``trk``. Row k's numbers are read
     with ``item`` (a Python float: the same number as ``float(a[k])``, without the numpy scalar)."""
-    base = dict(shape=shape, side=side, bank_deg=inputs.bank_deg, tas_kt=inputs.tas_kt, inputs=inputs,
-                descent_point_m=descent.descent_point_m)
     flags = sol.reasons.item(k)
     if flags:
-        return Plan(**base, feasible=False, notes=(), reasons=_reason_texts(flags, shape, sol, k, inputs, descent),
+        return Plan(shape=shape, side=side, bank_deg=inputs.bank_deg, tas_kt=inputs.tas_kt, inputs=inputs,
+                    descent_point_m=descent.descent_point_m, feasible=False, notes=(),
+                    reasons=_reason_texts(flags, shape, sol, k, inputs, descent),
                     track_xy_m=_EMPTY_XY, track_time_s=_EMPTY, track_heading_deg=_EMPTY,
                     track_leg_index=_EMPTY_INT)
     assert trk is not None and trk.heading is not None and trk.time is not None
@@ -546,7 +571,8 @@ def _plan_from_row(inputs: CircleInputs, shape: Shape, side: Side, sol: ShapeSol
             notes.append(f"a {t_xw:.0f} s crosswind leg; no base leg: one continuous turn onto final")
     x, y = xy[:, 0], xy[:, 1]
     ri = (sol.x_ri.item(k), sol.y_ri.item(k))
-    return Plan(**base, feasible=True, reasons=(), notes=tuple(notes),
+    return Plan(shape=shape, side=side, bank_deg=inputs.bank_deg, tas_kt=inputs.tas_kt, inputs=inputs,
+                descent_point_m=descent.descent_point_m, feasible=True, reasons=(), notes=tuple(notes),
                 offset_m=sol.offset.item(k), abeam_to_roll_in_s=abeam, roll_in_distance_m=-ri[0], roll_in_xy_m=ri,
                 break_off_s=None if sol.break_s is None else sol.break_s.item(k), roll_out_distance_m=roll_out_d,
                 final_heading_deg=math.degrees(sol.psi_f.item(k)) % 360.0,
@@ -569,4 +595,4 @@ def plan_sample(plan: Plan, n: int) -> TrackSamples:
     return sample_legs(plan.legs, plan.start, tas_kt=plan.tas_kt, wind=plan.inputs.wind, n_per_leg=counts)
 
 
-__all__ = ["LeaveMda", "Plan", "candidate_plans", "plan_sample", "solve_plan"]
+__all__ = ["LeaveMda", "Plan", "candidate_plans", "inputs_at_level", "plan_sample", "solve_plan"]

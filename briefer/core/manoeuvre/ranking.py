@@ -169,6 +169,11 @@ def reason_visibility_words(visibility_m: float) -> str:
     return f"{visibility_m * M_TO_SM:.1f} SM"
 
 
+def _as_float(value: object) -> float:
+    """``float(np.asarray(value))``: a float as it is, anything else through the array."""
+    return value if type(value) is float else float(np.asarray(value))
+
+
 def _label(p: Plan) -> str:
     return f"{p.shape} {p.side}"
 
@@ -216,7 +221,7 @@ def rank_plans(plans: tuple[Plan, ...] | list[Plan], *, margin_fn: MarginFn, vis
         raise DomainError(f"bank_limit_deg = {bank_limit_deg}: valid range is (0, 90)")
     rows = []
     flyable = [p for p in plans if p.feasible]
-    areas = [float(np.asarray(margin_fn(p.track_xy_m))) for p in flyable]
+    areas = [_as_float(margin_fn(p.track_xy_m)) for p in flyable]
     aoas = [None if aoa_margin_fn is None else float(aoa_margin_fn(p.bank_deg)) for p in flyable]
     checks = iter([(area, aoa, *plan_checks_one(  # each flyable plan: plan_checks' rule in plain floats
         bank_deg=p.bank_deg, bank_limit_deg=bank_limit_deg, area_margin_m=area, sector_bound=False,
