@@ -40,10 +40,7 @@ from briefer.core._types import Numeric
 from briefer.errors import DomainError
 from briefer.core.angles import as_float, atand2, cosd, sind, wrap_180, wrap_360
 
-try:                                    # the ufunc np.clip calls, without its Python wrappers
-    from numpy._core.umath import clip as _uclip
-except ImportError:                     # pragma: no cover - older numpy
-    _uclip = np.clip
+from briefer.core.ufuncs import clip as _uclip
 
 __all__ = [
     "WGS84_A_M",

@@ -33,10 +33,7 @@ from typing import Literal, NamedTuple
 
 import numpy as np
 
-try:                                    # the ufunc np.clip calls, without its Python wrappers
-    from numpy._core.umath import clip as _uclip
-except ImportError:                     # pragma: no cover - older numpy
-    _uclip = np.clip
+from briefer.core.ufuncs import clip as _uclip
 
 from briefer import units
 from briefer.core import angles

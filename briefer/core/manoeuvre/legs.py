@@ -56,10 +56,7 @@ GL_NODES = np.array([-0.9602898564975362, -0.7966664774136267, -0.52553240991632
 GL_WEIGHTS = np.array([0.10122853629037706, 0.22238103445337443, 0.3137066458778869, 0.36268378337836166,
                        0.36268378337836166, 0.3137066458778869, 0.22238103445337443, 0.10122853629037706])
 _GL_U = 0.5 * (GL_NODES + 1.0)          # the nodes mapped to [0, 1]
-try:                                    # the ufunc np.clip calls, without its Python wrapper
-    from numpy._core.umath import clip as _uclip
-except ImportError:                     # pragma: no cover - older numpy
-    _uclip = np.clip
+from briefer.core.ufuncs import clip as _uclip
 
 
 # --------------------------------------------------------------------------------------------

@@ -67,10 +67,7 @@ from briefer.errors import DomainError
 from briefer.units import KT_TO_MPS, M_TO_NM
 from briefer.core.angles import wrap_180
 
-try:                                     # the clip ufunc itself, without np.clip's wrappers
-    from numpy._core.umath import clip as _uclip
-except ImportError:                     # pragma: no cover - older numpy
-    _uclip = np.clip
+from briefer.core.ufuncs import clip as _uclip
 
 PLAN_TURN_STEP_DEG = 2.0          # a plan's track: a point every 2 deg of turn ...
 PLAN_STRAIGHT_STEP_M = 100.0      # ... and every 100 m of straight

@@ -76,7 +76,7 @@ from __future__ import annotations
 
 import math
 from briefer._dataclass import dataclass, field
-from collections.abc import Generator, Sequence
+from collections.abc import Callable, Generator, Sequence
 from typing import Literal
 
 import numpy as np
@@ -1316,14 +1316,21 @@ _ARC_FRACTIONS: dict[tuple[tuple[int, ...], int], tuple] = {}
 def _arc_fractions(na: tuple[int, ...], m: int) -> tuple:
     """:func:`_fractions_of` of turns of ``na`` arc samples each, every one of the ``m`` rows at
     its turn's count, made once per (counts, rows) (read-only; a few hundred kinds at most)."""
-    f = _ARC_FRACTIONS.get((na, m))
+    return _made_once(_ARC_FRACTIONS, (na, m), lambda: _fractions_of(
+        np.array([n - 1 for n in na])[:, None].repeat(m, axis=1)[None], max(na)))
+
+
+def _made_once(memo: dict, key: object, make: Callable[[], tuple]) -> tuple:
+    """``make()``'s arrays for ``key``, made once and kept read-only in ``memo`` (the same numbers at
+    every call of that key); a memo of 256 kinds starts again."""
+    f = memo.get(key)
     if f is None:
-        if len(_ARC_FRACTIONS) >= 256:
-            _ARC_FRACTIONS.clear()
-        f = _fractions_of(np.array([n - 1 for n in na])[:, None].repeat(m, axis=1)[None], max(na))
+        if len(memo) >= 256:
+            memo.clear()
+        f = make()
         for a in f:
             a.flags.writeable = False
-        _ARC_FRACTIONS[(na, m)] = f
+        memo[key] = f
     return f
 
 
@@ -1343,15 +1350,11 @@ def _ramp_fractions(nr: int) -> tuple[FloatArray, ...]:
     call (made once, read-only): the roll-in's k/nr, the roll-out's 1 - k/nr - 1/nr (= (nr-1-k)/nr),
     the roll-out samples' time after the arc k/nr + 1/nr, the roll-in's then the roll-out's
     (2 nr, 1, 1), and every ramp sample's of :func:`_ramp_times` (2 nr + 1, 1, 1)."""
-    f = _RAMP_FRACTIONS.get(nr)
-    if f is None:
+    def make() -> tuple[FloatArray, ...]:
         fr = (np.arange(nr) / nr).reshape((nr, 1, 1))
         out = 1.0 - fr - 1.0 / nr
-        f = (fr, out, fr + 1.0 / nr, np.concatenate([fr, out], axis=0), np.concatenate([fr, fr[:1] + 1.0, out], axis=0))
-        for a in f:
-            a.flags.writeable = False
-        _RAMP_FRACTIONS[nr] = f
-    return f
+        return fr, out, fr + 1.0 / nr, np.concatenate([fr, out], axis=0), np.concatenate([fr, fr[:1] + 1.0, out], axis=0)
+    return _made_once(_RAMP_FRACTIONS, nr, make)
 
 
 def _turn_ramps(tn: _Turns, nr: int) -> tuple:
@@ -1552,16 +1555,10 @@ _STRAIGHT_FRACTIONS: dict[tuple[int, ...], tuple[FloatArray, npt.NDArray[np.comp
 def _straight_fractions(counts: tuple[int, ...]) -> tuple[FloatArray, npt.NDArray[np.complex128]]:
     """The fractions k/(n-1) of straights of ``counts`` points (S, n, 1) for n up to the most of
     any, and the same as complex, made once per counts (read-only; a few hundred kinds at most)."""
-    f = _STRAIGHT_FRACTIONS.get(counts)
-    if f is None:
-        if len(_STRAIGHT_FRACTIONS) >= 256:
-            _STRAIGHT_FRACTIONS.clear()
+    def make() -> tuple[FloatArray, npt.NDArray[np.complex128]]:
         fr = (np.arange(max(counts), dtype=np.float64) / np.array([float(n - 1) for n in counts])[:, None])[..., None]
-        f = (fr, _cx(fr))
-        for a in f:
-            a.flags.writeable = False
-        _STRAIGHT_FRACTIONS[counts] = f
-    return f
+        return fr, _cx(fr)
+    return _made_once(_STRAIGHT_FRACTIONS, counts, make)
 
 
 def _straights(sr: SamplingRows, legs: list[int], counts: list[int], t_start: FloatArray | None
